@@ -1,0 +1,21 @@
+import type { Role } from '$lib/roles';
+
+declare global {
+	namespace App {
+		interface Error {
+			message: string;
+			errorId?: string;
+			/** For 403 pages: what the page needs and what the user holds. */
+			needed?: string;
+		}
+		interface Locals {
+			user: { id: string; email: string; name: string; roles: Role[] } | null;
+			session: import('lucia').Session | null;
+		}
+		interface PageData {
+			user?: App.Locals['user'];
+		}
+	}
+}
+
+export {};

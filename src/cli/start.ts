@@ -1,0 +1,47 @@
+// `npm start`: migrate, seed the demo once, start the mail stand-in, then serve the built app.
+import { existsSync, rmSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
+
+process.env.HOST ??= '127.0.0.1';
+process.env.PORT ??= '3000';
+process.env.ORIGIN ??= `http://${process.env.HOST}:${process.env.PORT}`;
+
+const { config } = await import('../lib/server/config');
+
+if (process.env.RESET_DATABASE === '1') {
+	// Used by the browser tests: every run starts from an empty file.
+	for (const suffix of ['', '-wal', '-shm']) rmSync(config.databasePath + suffix, { force: true });
+}
+
+const { getDb } = await import('../lib/server/db');
+getDb();
+console.log(`Database ready at ${config.databasePath}`);
+
+if (config.seedDemo) {
+	const { seedDemo } = await import('../lib/server/demo/seed');
+	const added = await seedDemo();
+	console.log(added ? `Demo data: added ${added} records.` : 'Demo data: already present, nothing changed.');
+}
+
+if (config.smtp.standIn) {
+	const { startMailStandIn } = await import('../lib/server/mail/stand-in');
+	await startMailStandIn(config.smtp.port);
+	console.log(`Mail stand-in listening on 127.0.0.1:${config.smtp.port}; read it at ${config.origin}/admin/outbox`);
+} else {
+	console.log(`Mail goes to ${config.smtp.host}:${config.smtp.port}`);
+}
+
+const server = resolve('build/index.js');
+if (!existsSync(server)) {
+	console.error('No build found at build/index.js: run `npm run build` first (npm start does this).');
+	process.exit(1);
+}
+await import(pathToFileURL(server).href);
+
+console.log(`\nBrothwright is serving at ${config.origin}`);
+if (config.seedDemo) {
+	const { DEMO_ACCOUNTS, DEMO_PASSWORD } = await import('../lib/server/demo/accounts');
+	console.log(`Demo sign-ins (password ${DEMO_PASSWORD}):`);
+	for (const a of DEMO_ACCOUNTS) console.log(`  ${a.email.padEnd(24)} ${a.roles.join(', ')}`);
+}

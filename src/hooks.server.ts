@@ -1,0 +1,65 @@
+import type { Handle, HandleServerError } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { PROBLEM_CONTENT_TYPE, problem } from '$lib/server/api/problem';
+import { getLucia } from '$lib/server/auth/lucia';
+import { setSessionCookie } from '$lib/server/auth/sign-in';
+import { rolesOf } from '$lib/server/people';
+
+const handleSession: Handle = async ({ event, resolve }) => {
+	const lucia = getLucia();
+	const sessionId = event.cookies.get(lucia.sessionCookieName);
+	event.locals.user = null;
+	event.locals.session = null;
+	if (!sessionId) return resolve(event);
+
+	const { session, user } = await lucia.validateSession(sessionId);
+	if (session && user?.active) {
+		// A fresh session was just extended: send the renewed cookie so it outlives inactivity only.
+		if (session.fresh) setSessionCookie(event.cookies, lucia.createSessionCookie(session.id));
+		event.locals.session = session;
+		event.locals.user = { id: user.id, email: user.email, name: user.name, roles: rolesOf(user.id) };
+	} else {
+		if (session) await lucia.invalidateSession(session.id);
+		setSessionCookie(event.cookies, lucia.createBlankSessionCookie());
+	}
+	return resolve(event);
+};
+
+/** Every error under /api is problem+json, including the ones the framework itself answers (404, 405). */
+const handleApiProblems: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	if (!event.url.pathname.startsWith('/api/') || response.status < 400) return response;
+	const type = response.headers.get('content-type') ?? '';
+	if (type.startsWith(PROBLEM_CONTENT_TYPE)) return response;
+	let detail = response.statusText || 'The request could not be served.';
+	if (type.includes('json')) {
+		const body = (await response.json().catch(() => ({}))) as { message?: string };
+		if (body.message) detail = body.message;
+	}
+	if (response.status === 404 && detail === 'Not Found') detail = `No endpoint at ${event.url.pathname}.`;
+	return problem(response.status, detail);
+};
+
+const handleSecurityHeaders: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	response.headers.set('x-content-type-options', 'nosniff');
+	response.headers.set('referrer-policy', 'same-origin');
+	response.headers.set('x-frame-options', 'DENY');
+	return response;
+};
+
+export const handle = sequence(handleSecurityHeaders, handleSession, handleApiProblems);
+
+export const handleError: HandleServerError = ({ error, event, status, message }) => {
+	const errorId = crypto.randomUUID().slice(0, 8);
+	if (status !== 404) {
+		console.error(`[${errorId}] ${event.request.method} ${event.url.pathname}`, error);
+	}
+	return {
+		message:
+			status === 404
+				? 'There is nothing at this address.'
+				: `Something went wrong on our side (${message}). Quote reference ${errorId} when you report it.`,
+		errorId
+	};
+};

@@ -1,0 +1,24 @@
+import { hasRole, type Role, type RoleHolder } from './roles';
+
+export interface NavItem {
+	href: string;
+	label: string;
+	/** Empty: every signed-in user. */
+	roles: Role[];
+	section: 'Work' | 'Administration';
+}
+
+export const NAVIGATION: NavItem[] = [
+	{ href: '/', label: 'Overview', roles: [], section: 'Work' },
+	{ href: '/admin/people', label: 'People', roles: ['admin'], section: 'Administration' },
+	{ href: '/admin/outbox', label: 'Outbox', roles: ['admin'], section: 'Administration' },
+	{ href: '/admin/audit', label: 'Audit trail', roles: ['admin'], section: 'Administration' }
+];
+
+export function navigationFor(user: RoleHolder | null): NavItem[] {
+	return NAVIGATION.filter((item) => hasRole(user, item.roles));
+}
+
+export function isCurrent(item: NavItem, pathname: string): boolean {
+	return item.href === '/' ? pathname === '/' : pathname === item.href || pathname.startsWith(`${item.href}/`);
+}

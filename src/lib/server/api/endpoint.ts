@@ -1,0 +1,92 @@
+import { isHttpError, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
+import { z } from 'zod';
+import { ChemistryInputError } from '$chemistry';
+import type { Role } from '$lib/roles';
+import { requireRole, type SignedInUser } from '../guard';
+import { RuleError } from '../rule-error';
+import { problem, type FieldProblem } from './problem';
+
+/** A user mistake an endpoint detects itself; answered as a 4xx problem. */
+export class ApiProblem extends Error {
+	constructor(
+		readonly status: number,
+		message: string,
+		readonly errors?: FieldProblem[]
+	) {
+		super(message);
+	}
+}
+
+export function zodProblems(issues: z.core.$ZodIssue[]): FieldProblem[] {
+	return issues.map((issue) => ({
+		path: issue.path.map(String).join('.') || '(body)',
+		message: issue.message
+	}));
+}
+
+type Access = { public: true } | { roles: Role[] };
+
+interface EndpointOptions<S extends z.ZodType | undefined> {
+	access: Access;
+	body?: S;
+	maxBodyBytes?: number;
+}
+
+type Context<S> = {
+	event: RequestEvent;
+	user: S extends undefined ? SignedInUser | null : SignedInUser | null;
+	body: S extends z.ZodType ? z.infer<S> : undefined;
+};
+
+async function readJson(event: RequestEvent, maxBytes: number): Promise<unknown> {
+	const type = event.request.headers.get('content-type') ?? '';
+	if (!type.includes('application/json')) {
+		throw new ApiProblem(415, 'Send the body as JSON with Content-Type: application/json.');
+	}
+	const text = await event.request.text();
+	if (text.length > maxBytes) throw new ApiProblem(413, `The body is larger than ${maxBytes} bytes.`);
+	try {
+		return JSON.parse(text);
+	} catch (cause) {
+		throw new ApiProblem(400, `The body is not valid JSON: ${(cause as Error).message}`);
+	}
+}
+
+/**
+ * Wraps a JSON endpoint: the role guard (again, at the endpoint), body parsing and zod validation,
+ * and the mapping of every user mistake to problem+json. Anything else is a real fault (500).
+ */
+export function endpoint<S extends z.ZodType | undefined = undefined>(
+	options: EndpointOptions<S>,
+	handler: (context: Context<S>) => unknown | Promise<unknown>
+): RequestHandler {
+	return async (event) => {
+		try {
+			const user = 'public' in options.access ? event.locals.user : requireRole(...options.access.roles);
+			let body: unknown;
+			if (options.body) {
+				const raw = await readJson(event, options.maxBodyBytes ?? 1_000_000);
+				const parsed = options.body.safeParse(raw);
+				if (!parsed.success) {
+					const errors = zodProblems(parsed.error.issues);
+					return problem(400, `The request has ${errors.length} invalid field${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, { errors });
+				}
+				body = parsed.data;
+			}
+			const result = await handler({ event, user, body } as Context<S>);
+			return result instanceof Response ? result : json(result);
+		} catch (cause) {
+			if (cause instanceof ApiProblem) return problem(cause.status, cause.message, { errors: cause.errors });
+			if (cause instanceof ChemistryInputError) {
+				const errors = cause.field ? [{ path: cause.field, message: cause.message }] : undefined;
+				return problem(400, cause.message, { errors, position: cause.position });
+			}
+			if (cause instanceof RuleError) {
+				const errors = cause.field ? [{ path: cause.field, message: cause.message }] : undefined;
+				return problem(cause.status, cause.message, { errors });
+			}
+			if (isHttpError(cause)) return problem(cause.status, cause.body.message);
+			throw cause;
+		}
+	};
+}

@@ -1,0 +1,112 @@
+import { z } from 'zod';
+import type { Role } from '$lib/roles';
+import { foundationOperations } from './operations/foundation';
+
+export interface ApiOperation {
+	method: 'get' | 'post' | 'put' | 'patch' | 'delete';
+	/** OpenAPI path template, e.g. /api/v1/recipes/{id} */
+	path: string;
+	summary: string;
+	/** 'public', 'signed-in' (any role) or the roles allowed. */
+	access: 'public' | 'signed-in' | Role[];
+	request?: z.ZodType;
+	response?: z.ZodType;
+	responseDescription?: string;
+	successStatus?: number;
+}
+
+const problemSchema = {
+	type: 'object',
+	description: 'RFC 9457 problem details',
+	required: ['type', 'title', 'status', 'detail'],
+	properties: {
+		type: { type: 'string' },
+		title: { type: 'string' },
+		status: { type: 'integer' },
+		detail: { type: 'string' },
+		errors: {
+			type: 'array',
+			items: {
+				type: 'object',
+				required: ['path', 'message'],
+				properties: { path: { type: 'string' }, message: { type: 'string' } }
+			}
+		}
+	}
+} as const;
+
+function toSchema(schema: z.ZodType, io: 'input' | 'output') {
+	const { $schema: _ignored, ...rest } = z.toJSONSchema(schema, { io, unrepresentable: 'any' }) as Record<string, unknown>;
+	return rest;
+}
+
+export function allOperations(): ApiOperation[] {
+	return [...foundationOperations];
+}
+
+export function buildOpenApiDocument(origin: string) {
+	const paths: Record<string, Record<string, unknown>> = {};
+	for (const op of allOperations()) {
+		const problems = (statuses: number[]) =>
+			Object.fromEntries(
+				statuses.map((s) => [String(s), { $ref: `#/components/responses/Problem${s}` }])
+			);
+		const errorStatuses = [
+			...(op.request ? [400] : []),
+			...(op.access === 'public' ? [] : [401]),
+			...(Array.isArray(op.access) ? [403] : [])
+		];
+		paths[op.path] ??= {};
+		paths[op.path][op.method] = {
+			summary: op.summary,
+			'x-access': op.access,
+			security: op.access === 'public' ? [] : [{ sessionCookie: [] }],
+			...(op.path.includes('{')
+				? {
+						parameters: [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({
+							name: m[1],
+							in: 'path',
+							required: true,
+							schema: { type: 'string' }
+						}))
+					}
+				: {}),
+			...(op.request
+				? { requestBody: { required: true, content: { 'application/json': { schema: toSchema(op.request, 'input') } } } }
+				: {}),
+			responses: {
+				[String(op.successStatus ?? 200)]: {
+					description: op.responseDescription ?? 'Success',
+					...(op.response ? { content: { 'application/json': { schema: toSchema(op.response, 'output') } } } : {})
+				},
+				...problems(errorStatuses)
+			}
+		};
+	}
+	const problemResponse = (description: string) => ({
+		description,
+		content: { 'application/problem+json': { schema: { $ref: '#/components/schemas/Problem' } } }
+	});
+	return {
+		openapi: '3.1.0',
+		info: {
+			title: 'Brothwright API',
+			version: '1',
+			description:
+				'JSON endpoints of Brothwright. Sign in with POST /api/v1/session, then send the session cookie. Errors are application/problem+json (RFC 9457) with a field path for each invalid input.'
+		},
+		servers: [{ url: origin }],
+		paths,
+		components: {
+			securitySchemes: {
+				sessionCookie: { type: 'apiKey', in: 'cookie', name: 'brothwright_session' }
+			},
+			schemas: { Problem: problemSchema },
+			responses: {
+				Problem400: problemResponse('Invalid input; `errors` lists each field path'),
+				Problem401: problemResponse('Not signed in'),
+				Problem403: problemResponse('Signed in without a role this needs')
+			}
+		}
+	};
+}

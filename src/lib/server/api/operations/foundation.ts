@@ -1,0 +1,36 @@
+import { z } from 'zod';
+import { ROLES } from '$lib/roles';
+import type { ApiOperation } from '../openapi';
+
+export const sessionRequest = z.object({
+	email: z.email().max(254),
+	password: z.string().min(1).max(256)
+});
+
+export const meResponse = z.object({
+	id: z.string(),
+	email: z.string(),
+	name: z.string(),
+	roles: z.array(z.enum(ROLES))
+});
+
+export const healthResponse = z.object({
+	status: z.literal('ok'),
+	database: z.literal('ok'),
+	time: z.string()
+});
+
+export const foundationOperations: ApiOperation[] = [
+	{ method: 'get', path: '/api/v1/health', summary: 'Reports that the service and its database answer', access: 'public', response: healthResponse },
+	{ method: 'get', path: '/api/v1/me', summary: 'The signed-in user: e-mail, name and roles', access: 'signed-in', response: meResponse },
+	{
+		method: 'post',
+		path: '/api/v1/session',
+		summary: 'Signs a script in (sets the session cookie); throttled like the sign-in page',
+		access: 'public',
+		request: sessionRequest,
+		response: meResponse
+	},
+	{ method: 'delete', path: '/api/v1/session', summary: 'Signs out (ends the session)', access: 'signed-in', successStatus: 204, responseDescription: 'Signed out' },
+	{ method: 'get', path: '/api/v1/openapi.json', summary: 'This description (OpenAPI 3.1)', access: 'public' }
+];

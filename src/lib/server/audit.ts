@@ -1,0 +1,80 @@
+import { and, count, desc, eq, gte, like, lte, type SQL } from 'drizzle-orm';
+import { db, type Db } from './db';
+import { auditEvent } from './db/schema';
+
+export interface Actor {
+	id: string | null;
+	email: string | null;
+	address?: string | null;
+}
+
+export interface AuditEntry {
+	action: string;
+	subjectType?: string;
+	subjectId?: string;
+	detail?: Record<string, unknown>;
+}
+
+type Writer = Pick<Db, 'insert'>;
+
+/** Appends one event; pass the transaction when the event belongs to a larger write. */
+export function recordAudit(actor: Actor, entry: AuditEntry, writer: Writer = db): void {
+	writer
+		.insert(auditEvent)
+		.values({
+			actorId: actor.id,
+			actorEmail: actor.email,
+			address: actor.address ?? null,
+			action: entry.action,
+			subjectType: entry.subjectType ?? null,
+			subjectId: entry.subjectId ?? null,
+			detail: entry.detail ?? null
+		})
+		.run();
+}
+
+export interface AuditFilter {
+	action?: string;
+	actor?: string;
+	from?: Date;
+	to?: Date;
+	page: number;
+	pageSize: number;
+}
+
+export function listAuditEvents(filter: AuditFilter) {
+	const conditions: SQL[] = [];
+	if (filter.action) conditions.push(like(auditEvent.action, `${filter.action}%`));
+	if (filter.actor) conditions.push(like(auditEvent.actorEmail, `%${filter.actor.toLowerCase()}%`));
+	if (filter.from) conditions.push(gte(auditEvent.at, filter.from));
+	if (filter.to) conditions.push(lte(auditEvent.at, filter.to));
+	const where = conditions.length ? and(...conditions) : undefined;
+	const [{ total }] = db.select({ total: count() }).from(auditEvent).where(where).all();
+	const rows = db
+		.select()
+		.from(auditEvent)
+		.where(where)
+		.orderBy(desc(auditEvent.at), desc(auditEvent.id))
+		.limit(filter.pageSize)
+		.offset((filter.page - 1) * filter.pageSize)
+		.all();
+	return { rows, total };
+}
+
+export function listAuditActions(): string[] {
+	return db
+		.selectDistinct({ action: auditEvent.action })
+		.from(auditEvent)
+		.orderBy(auditEvent.action)
+		.all()
+		.map((r) => r.action);
+}
+
+export function auditEventsFor(subjectType: string, subjectId: string) {
+	return db
+		.select()
+		.from(auditEvent)
+		.where(and(eq(auditEvent.subjectType, subjectType), eq(auditEvent.subjectId, subjectId)))
+		.orderBy(desc(auditEvent.at))
+		.all();
+}

@@ -1,0 +1,65 @@
+import type { Cookies } from '@sveltejs/kit';
+import type { Cookie } from 'lucia';
+import { recordAudit } from '../audit';
+import { findUserByEmail, normaliseEmail } from '../people';
+import { getLucia } from './lucia';
+import { spendVerificationTime, verifyPassword } from './passwords';
+import { checkThrottle, recordSignInAttempt } from './throttle';
+
+export type SignInOutcome =
+	| { ok: true; userId: string; cookie: Cookie }
+	| { ok: false; status: 401 | 403 | 429; field?: 'email' | 'password'; message: string; retryAfterS?: number };
+
+export async function signIn(emailInput: string, password: string, address: string): Promise<SignInOutcome> {
+	const email = normaliseEmail(emailInput);
+	const throttle = checkThrottle(email, address);
+	if (!throttle.allowed) {
+		recordAudit(
+			{ id: null, email, address },
+			{ action: 'sign_in.refused', detail: { reason: 'throttled', retryAfterS: throttle.retryAfterS } }
+		);
+		return { ok: false, status: 429, message: throttle.reason, retryAfterS: throttle.retryAfterS };
+	}
+	const account = findUserByEmail(email);
+	const fail = (field: 'email' | 'password', message: string, reason: string): SignInOutcome => {
+		recordSignInAttempt(email, address, false);
+		recordAudit(
+			{ id: account?.id ?? null, email, address },
+			{ action: 'sign_in.failed', subjectType: account ? 'user' : undefined, subjectId: account?.id, detail: { reason } }
+		);
+		return { ok: false, status: 401, field, message };
+	};
+	if (!account) {
+		await spendVerificationTime(password);
+		return fail('email', 'No account uses this e-mail address.', 'unknown_email');
+	}
+	if (!(await verifyPassword(account.passwordHash, password))) {
+		return fail('password', 'The password is not right for this account.', 'wrong_password');
+	}
+	if (!account.active) {
+		recordAudit(
+			{ id: account.id, email, address },
+			{ action: 'sign_in.refused', subjectType: 'user', subjectId: account.id, detail: { reason: 'deactivated' } }
+		);
+		return { ok: false, status: 403, field: 'email', message: 'This account is deactivated. Ask an administrator.' };
+	}
+	recordSignInAttempt(email, address, true);
+	const lucia = getLucia();
+	const session = await lucia.createSession(account.id, {});
+	recordAudit(
+		{ id: account.id, email, address },
+		{ action: 'sign_in.succeeded', subjectType: 'user', subjectId: account.id }
+	);
+	return { ok: true, userId: account.id, cookie: lucia.createSessionCookie(session.id) };
+}
+
+export function setSessionCookie(cookies: Cookies, cookie: Cookie): void {
+	cookies.set(cookie.name, cookie.value, { path: '/', ...cookie.attributes });
+}
+
+export async function signOut(cookies: Cookies, sessionId: string, actor: { id: string; email: string; address: string }) {
+	const lucia = getLucia();
+	await lucia.invalidateSession(sessionId);
+	setSessionCookie(cookies, lucia.createBlankSessionCookie());
+	recordAudit(actor, { action: 'sign_out', subjectType: 'user', subjectId: actor.id });
+}

@@ -1,0 +1,46 @@
+import Database from 'better-sqlite3';
+import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3';
+import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
+import { existsSync, mkdirSync } from 'node:fs';
+import { dirname } from 'node:path';
+import { config } from '../config';
+import * as schema from './schema';
+
+export type Db = BetterSQLite3Database<typeof schema>;
+
+/** Opens (creating if needed) the SQLite file and applies every committed migration. */
+export function openDatabase(path: string, migrationsFolder = config.migrationsFolder): Db {
+	if (!existsSync(migrationsFolder)) {
+		throw new Error(`Migrations folder not found at ${migrationsFolder} (set MIGRATIONS_PATH)`);
+	}
+	try {
+		mkdirSync(dirname(path), { recursive: true });
+	} catch (cause) {
+		throw new Error(`Cannot create the folder for the database at ${path}`, { cause });
+	}
+	const sqlite = new Database(path);
+	sqlite.pragma('journal_mode = WAL');
+	sqlite.pragma('foreign_keys = ON');
+	sqlite.pragma('busy_timeout = 5000');
+	const db = drizzle(sqlite, { schema });
+	migrate(db, { migrationsFolder });
+	return db;
+}
+
+let instance: Db | undefined;
+
+/** The process-wide database, opened on first use so configuration can be set before. */
+export function getDb(): Db {
+	instance ??= openDatabase(config.databasePath);
+	return instance;
+}
+
+export const db: Db = new Proxy({} as Db, {
+	get(_target, property) {
+		const real = getDb() as unknown as Record<PropertyKey, unknown>;
+		const value = real[property];
+		return typeof value === 'function' ? (value as (...a: unknown[]) => unknown).bind(real) : value;
+	}
+});
+
+export { schema };

@@ -1,0 +1,134 @@
+import { sql } from 'drizzle-orm';
+import { index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import type { Role } from '$lib/roles';
+
+const id = () =>
+	text('id')
+		.primaryKey()
+		.$defaultFn(() => crypto.randomUUID());
+const createdAt = () =>
+	integer('created_at', { mode: 'timestamp_ms' })
+		.notNull()
+		.$defaultFn(() => new Date());
+
+export const user = sqliteTable('user', {
+	id: id(),
+	email: text('email').notNull().unique(),
+	name: text('name').notNull(),
+	passwordHash: text('password_hash').notNull(),
+	active: integer('active', { mode: 'boolean' }).notNull().default(true),
+	createdAt: createdAt(),
+	deactivatedAt: integer('deactivated_at', { mode: 'timestamp_ms' })
+});
+
+export const userRole = sqliteTable(
+	'user_role',
+	{
+		userId: text('user_id')
+			.notNull()
+			.references(() => user.id, { onDelete: 'cascade' }),
+		role: text('role').$type<Role>().notNull()
+	},
+	(t) => [primaryKey({ columns: [t.userId, t.role] })]
+);
+
+/** Lucia's session table: expires_at is in seconds, as its Drizzle adapter expects. */
+export const session = sqliteTable(
+	'session',
+	{
+		id: text('id').primaryKey(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => user.id, { onDelete: 'cascade' }),
+		expiresAt: integer('expires_at').notNull()
+	},
+	(t) => [index('session_user_idx').on(t.userId)]
+);
+
+export const invitation = sqliteTable('invitation', {
+	id: id(),
+	email: text('email').notNull(),
+	name: text('name').notNull().default(''),
+	roles: text('roles', { mode: 'json' }).$type<Role[]>().notNull(),
+	tokenHash: text('token_hash').notNull().unique(),
+	invitedBy: text('invited_by')
+		.notNull()
+		.references(() => user.id),
+	createdAt: createdAt(),
+	expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
+	acceptedAt: integer('accepted_at', { mode: 'timestamp_ms' }),
+	revokedAt: integer('revoked_at', { mode: 'timestamp_ms' })
+});
+
+export const passwordReset = sqliteTable('password_reset', {
+	id: id(),
+	userId: text('user_id')
+		.notNull()
+		.references(() => user.id, { onDelete: 'cascade' }),
+	tokenHash: text('token_hash').notNull().unique(),
+	createdAt: createdAt(),
+	expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
+	usedAt: integer('used_at', { mode: 'timestamp_ms' })
+});
+
+export const signInAttempt = sqliteTable(
+	'sign_in_attempt',
+	{
+		id: id(),
+		email: text('email').notNull(),
+		address: text('address').notNull(),
+		succeeded: integer('succeeded', { mode: 'boolean' }).notNull(),
+		at: integer('at', { mode: 'timestamp_ms' }).notNull()
+	},
+	(t) => [index('attempt_email_idx').on(t.email, t.at), index('attempt_address_idx').on(t.address, t.at)]
+);
+
+/** Append-only: triggers in a migration refuse UPDATE and DELETE. */
+export const auditEvent = sqliteTable(
+	'audit_event',
+	{
+		id: id(),
+		at: integer('at', { mode: 'timestamp_ms' })
+			.notNull()
+			.$defaultFn(() => new Date()),
+		actorId: text('actor_id'),
+		actorEmail: text('actor_email'),
+		action: text('action').notNull(),
+		subjectType: text('subject_type'),
+		subjectId: text('subject_id'),
+		detail: text('detail', { mode: 'json' }).$type<Record<string, unknown>>(),
+		address: text('address')
+	},
+	(t) => [index('audit_at_idx').on(t.at), index('audit_action_idx').on(t.action)]
+);
+
+/** What the stand-in SMTP server received. */
+export const mailMessage = sqliteTable(
+	'mail_message',
+	{
+		id: id(),
+		receivedAt: integer('received_at', { mode: 'timestamp_ms' })
+			.notNull()
+			.$defaultFn(() => new Date()),
+		sender: text('sender').notNull(),
+		recipients: text('recipients', { mode: 'json' }).$type<string[]>().notNull(),
+		subject: text('subject').notNull(),
+		textBody: text('text_body').notNull(),
+		htmlBody: text('html_body'),
+		sizeBytes: integer('size_bytes').notNull()
+	},
+	(t) => [index('mail_received_idx').on(t.receivedAt)]
+);
+
+export const siteSetting = sqliteTable('site_setting', {
+	key: text('key').primaryKey(),
+	value: text('value').notNull(),
+	updatedAt: integer('updated_at', { mode: 'timestamp_ms' })
+		.notNull()
+		.default(sql`(unixepoch() * 1000)`)
+});
+
+export type User = typeof user.$inferSelect;
+export type Invitation = typeof invitation.$inferSelect;
+export type AuditEvent = typeof auditEvent.$inferSelect;
+export type MailMessage = typeof mailMessage.$inferSelect;

@@ -1,0 +1,8 @@
+import { requireRole } from '$lib/server/guard';
+import { listPeople } from '$lib/server/people';
+import type { PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async () => {
+	requireRole('admin');
+	return { people: listPeople() };
+};

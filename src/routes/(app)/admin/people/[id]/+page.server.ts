@@ -1,0 +1,71 @@
+import { error } from '@sveltejs/kit';
+import { z } from 'zod';
+import { auditEventsFor } from '$lib/server/audit';
+import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { clientAddress, requireRole } from '$lib/server/guard';
+import { changeRoles, findUser, rolesOf, setActive } from '$lib/server/people';
+import { rolesField } from '$lib/server/role-field';
+import type { Actions, PageServerLoad } from './$types';
+
+const rolesForm = z.object({ roles: rolesField });
+
+export const load: PageServerLoad = async ({ params }) => {
+	requireRole('admin');
+	const person = findUser(params.id);
+	if (!person) error(404, { message: 'No person with this id.' });
+	return {
+		person: {
+			id: person.id,
+			name: person.name,
+			email: person.email,
+			active: person.active,
+			createdAt: person.createdAt,
+			deactivatedAt: person.deactivatedAt,
+			roles: rolesOf(person.id)
+		},
+		history: auditEventsFor('user', person.id).slice(0, 50)
+	};
+};
+
+function actor() {
+	const admin = requireRole('admin');
+	return { id: admin.id, email: admin.email, address: clientAddress() };
+}
+
+export const actions: Actions = {
+	roles: async ({ request, params }) => {
+		const by = actor();
+		const formData = await request.formData();
+		const parsed = parseForm(rolesForm, formData, ['roles']);
+		if (!parsed.ok) return parsed.failure;
+		try {
+			changeRoles(by, params.id, parsed.data.roles);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		return { saved: 'Roles saved.' };
+	},
+	deactivate: async ({ request, params }) => {
+		const by = actor();
+		const formData = await request.formData();
+		if (formData.get('confirm') !== 'yes') {
+			return formFailure(formData, 'Tick the box to confirm: their sessions end at once.', { confirm: ['Confirm first.'] });
+		}
+		try {
+			await setActive(by, params.id, false);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		return { saved: 'Deactivated. Their sessions have ended.' };
+	},
+	reactivate: async ({ request, params }) => {
+		const by = actor();
+		const formData = await request.formData();
+		try {
+			await setActive(by, params.id, true);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		return { saved: 'Reactivated. They can sign in again.' };
+	}
+};

@@ -1,0 +1,45 @@
+import { redirect } from '@sveltejs/kit';
+import { z } from 'zod';
+import { getLucia } from '$lib/server/auth/lucia';
+import { setSessionCookie } from '$lib/server/auth/sign-in';
+import { parseForm, ruleFailure } from '$lib/server/forms';
+import { clientAddress } from '$lib/server/guard';
+import { mismatch, newPasswordFields, passwordsMatch } from '$lib/server/password-form';
+import { acceptInvitation, inspectInvitation, LINK_MESSAGES } from '$lib/server/people';
+import { describeRoles } from '$lib/roles';
+import type { Actions, PageServerLoad } from './$types';
+
+const acceptForm = z
+	.object({ name: z.string().trim().min(1, 'Enter your name.').max(120), ...newPasswordFields })
+	.refine(passwordsMatch, mismatch);
+
+// Public by design: the secret link is the credential, checked here and again in the action.
+export const load: PageServerLoad = async ({ params }) => {
+	const { state, invitation } = inspectInvitation(params.token);
+	if (state !== 'valid' || !invitation) return { state, message: LINK_MESSAGES[state as keyof typeof LINK_MESSAGES] };
+	return {
+		state,
+		email: invitation.email,
+		name: invitation.name,
+		roles: describeRoles(invitation.roles),
+		expiresAt: invitation.expiresAt.toISOString()
+	};
+};
+
+export const actions: Actions = {
+	default: async ({ request, params, cookies }) => {
+		const formData = await request.formData();
+		const parsed = parseForm(acceptForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		let userId: string;
+		try {
+			userId = await acceptInvitation(params.token, { ...parsed.data, address: clientAddress() });
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		const lucia = getLucia();
+		const session = await lucia.createSession(userId, {});
+		setSessionCookie(cookies, lucia.createSessionCookie(session.id));
+		redirect(303, '/?welcome=1');
+	}
+};

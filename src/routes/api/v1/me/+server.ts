@@ -1,0 +1,8 @@
+import { endpoint } from '$lib/server/api/endpoint';
+
+export const GET = endpoint({ access: { roles: [] } }, ({ user }) => ({
+	id: user!.id,
+	email: user!.email,
+	name: user!.name,
+	roles: user!.roles
+}));

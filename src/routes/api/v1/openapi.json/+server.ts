@@ -1,0 +1,5 @@
+import { endpoint } from '$lib/server/api/endpoint';
+import { buildOpenApiDocument } from '$lib/server/api/openapi';
+import { config } from '$lib/server/config';
+
+export const GET = endpoint({ access: { public: true } }, () => buildOpenApiDocument(config.origin));

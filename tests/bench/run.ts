@@ -1,0 +1,54 @@
+import type { BenchCase } from './bench';
+
+async function loadCases(): Promise<BenchCase[]> {
+	const { readdirSync } = await import('node:fs');
+	const { dirname, join } = await import('node:path');
+	const { fileURLToPath, pathToFileURL } = await import('node:url');
+	const here = dirname(fileURLToPath(import.meta.url));
+	// Each *.bench.ts here exports `benches: BenchCase[]`; discovering them means adding one needs no edit.
+	const files = readdirSync(here).filter((f) => f.endsWith('.bench.ts'));
+	const cases: BenchCase[] = [];
+	for (const file of files.sort()) {
+		const mod = (await import(pathToFileURL(join(here, file)).href)) as { benches: BenchCase[] };
+		cases.push(...mod.benches);
+	}
+	return cases;
+}
+
+function median(values: number[]): number {
+	const sorted = [...values].sort((a, b) => a - b);
+	const mid = Math.floor(sorted.length / 2);
+	return sorted.length % 2 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
+}
+
+function timeCase(bench: BenchCase): { medianMs: number; p90Ms: number; repetitions: number } {
+	for (let i = 0; i < 3; i++) bench.run(); // warm-up: let the JIT settle before timing
+	const repetitions = bench.repetitions ?? 200;
+	const samples: number[] = [];
+	for (let i = 0; i < repetitions; i++) {
+		const start = process.hrtime.bigint();
+		bench.run();
+		samples.push(Number(process.hrtime.bigint() - start) / 1e6);
+	}
+	samples.sort((a, b) => a - b);
+	return {
+		medianMs: median(samples),
+		p90Ms: samples[Math.floor(samples.length * 0.9)],
+		repetitions
+	};
+}
+
+const cases = await loadCases();
+console.log('benchmark'.padEnd(58), 'median ms'.padStart(10), 'p90 ms'.padStart(10), 'target'.padStart(8), 'ratio'.padStart(7));
+for (const bench of cases) {
+	const { medianMs, p90Ms } = timeCase(bench);
+	const ratio = medianMs / bench.targetMs;
+	console.log(
+		bench.name.padEnd(58),
+		medianMs.toFixed(4).padStart(10),
+		p90Ms.toFixed(4).padStart(10),
+		`${bench.targetMs}`.padStart(8),
+		`${ratio.toFixed(3)}${ratio <= 1 ? ' ' : '!'}`.padStart(7)
+	);
+}
+console.log('ratio = median / target; a ratio above 1 (marked !) misses its target.');
