@@ -1,0 +1,40 @@
+import { test as base, expect, type Page } from '@playwright/test';
+
+export const DEMO_PASSWORD = 'brothwright-demo';
+
+export const DEMO = {
+	admin: 'admin@demo.test',
+	media_scientist: 'scientist@demo.test',
+	prep_technician: 'technician@demo.test',
+	engineer: 'engineer@demo.test',
+	inventory_lead: 'inventory@demo.test'
+} as const;
+
+export type DemoRole = keyof typeof DEMO;
+
+/** Signs in through the form, as a person would. */
+export async function signInWithForm(page: Page, email: string, password = DEMO_PASSWORD) {
+	await page.goto('/login');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/**
+ * `test.use({ role: 'engineer' })` gives a page already signed in as that demo account
+ * (through the session endpoint, which sets the same cookie as the form).
+ */
+export const test = base.extend<{ role: DemoRole | null }>({
+	role: [null, { option: true }],
+	page: async ({ page, role }, use) => {
+		if (role) {
+			const response = await page.request.post('/api/v1/session', {
+				data: { email: DEMO[role], password: DEMO_PASSWORD }
+			});
+			expect(response.status(), await response.text()).toBe(200);
+		}
+		await use(page);
+	}
+});
+
+export { expect };

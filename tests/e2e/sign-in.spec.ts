@@ -1,0 +1,56 @@
+import { DEMO, expect, signInWithForm, test, type DemoRole } from './fixtures';
+
+const OWN_NAVIGATION: Record<DemoRole, { shows: string[]; hides: string[] }> = {
+	admin: { shows: ['Overview', 'People', 'Outbox', 'Audit trail'], hides: [] },
+	media_scientist: { shows: ['Overview'], hides: ['People', 'Outbox', 'Audit trail'] },
+	prep_technician: { shows: ['Overview'], hides: ['People', 'Outbox', 'Audit trail'] },
+	engineer: { shows: ['Overview'], hides: ['People', 'Outbox', 'Audit trail'] },
+	inventory_lead: { shows: ['Overview'], hides: ['People', 'Outbox', 'Audit trail'] }
+};
+
+for (const [role, email] of Object.entries(DEMO) as [DemoRole, string][]) {
+	test(`${role} signs in with the form and sees only their own navigation`, async ({ page }) => {
+		await signInWithForm(page, email);
+		await expect(page.getByRole('heading', { name: 'Overview' })).toBeVisible();
+		const nav = page.getByRole('navigation', { name: 'Main' });
+		for (const label of OWN_NAVIGATION[role].shows) {
+			await expect(nav.getByRole('link', { name: label, exact: true })).toBeVisible();
+		}
+		for (const label of OWN_NAVIGATION[role].hides) {
+			await expect(nav.getByRole('link', { name: label, exact: true })).toHaveCount(0);
+		}
+		await expect(page.getByTestId('signed-in-as')).toBeVisible();
+	});
+}
+
+test('a wrong password says so and keeps the e-mail filled in', async ({ page }) => {
+	await signInWithForm(page, DEMO.engineer, 'not-the-password');
+	await expect(page.getByRole('alert')).toContainText('The password is not right for this account.');
+	await expect(page.getByLabel('E-mail')).toHaveValue(DEMO.engineer);
+});
+
+test('an unknown e-mail says so', async ({ page }) => {
+	await signInWithForm(page, 'stranger@demo.test', 'whatever-it-is');
+	await expect(page.getByRole('alert')).toContainText('No account uses this e-mail address.');
+	await expect(page.getByLabel('E-mail')).toHaveValue('stranger@demo.test');
+});
+
+test('signing out ends the session', async ({ page }) => {
+	await signInWithForm(page, DEMO.media_scientist);
+	await expect(page.getByRole('heading', { name: 'Overview' })).toBeVisible();
+	await page.getByRole('button', { name: 'Sign out' }).click();
+	await expect(page).toHaveURL(/\/login$/);
+	await page.goto('/');
+	await expect(page).toHaveURL(/\/login\?next=%2F$/);
+	const me = await page.request.get('/api/v1/me');
+	expect(me.status()).toBe(401);
+});
+
+test('the session cookie is httpOnly and SameSite=Lax', async ({ page, context }) => {
+	await signInWithForm(page, DEMO.engineer);
+	await expect(page.getByRole('heading', { name: 'Overview' })).toBeVisible();
+	const cookie = (await context.cookies()).find((c) => c.name === 'brothwright_session');
+	expect(cookie?.httpOnly).toBe(true);
+	expect(cookie?.sameSite).toBe('Lax');
+	expect(cookie?.secure).toBe(false); // the test origin is plain http
+});
