@@ -26,7 +26,22 @@ if (config.seedDemo) {
 
 if (config.smtp.standIn) {
 	const { startMailStandIn } = await import('../lib/server/mail/stand-in');
-	await startMailStandIn(config.smtp.port);
+	try {
+		const standIn = await startMailStandIn(config.smtp.port);
+		// adapter-node closes its HTTP server on SIGINT/SIGTERM and then waits for the event loop to empty;
+		// the open SMTP listener would keep it alive, so close it on the same signals.
+		for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+			process.once(signal, () => standIn.close(() => undefined));
+		}
+	} catch (cause) {
+		const code = (cause as NodeJS.ErrnoException).code;
+		console.error(
+			code === 'EADDRINUSE'
+				? `Port ${config.smtp.port} for the mail stand-in is taken: stop what uses it, or set SMTP_PORT to a free port.`
+				: `The mail stand-in could not start: ${(cause as Error).message}`
+		);
+		process.exit(1);
+	}
 	console.log(`Mail stand-in listening on 127.0.0.1:${config.smtp.port}; read it at ${config.origin}/admin/outbox`);
 } else {
 	console.log(`Mail goes to ${config.smtp.host}:${config.smtp.port}`);
