@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { Role } from '$lib/roles';
+import { chemistryOperations } from './operations/chemistry';
 import { foundationOperations } from './operations/foundation';
 
 export interface ApiOperation {
@@ -41,7 +42,7 @@ function toSchema(schema: z.ZodType, io: 'input' | 'output') {
 }
 
 export function allOperations(): ApiOperation[] {
-	return [...foundationOperations];
+	return [...foundationOperations, ...chemistryOperations];
 }
 
 export function buildOpenApiDocument(origin: string) {

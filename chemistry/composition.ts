@@ -1,0 +1,301 @@
+/**
+ * What a recipe puts in the liquid: per component g/L and mM, per element g/L and mmol/L, an
+ * osmolality estimate Σ c·ν·φ, ionic strength ½ Σ c z², and solubility and precipitation warnings.
+ */
+import { ChemistryInputError } from './errors';
+import { type ComponentSpec, ionBase, resolveComponent, solubilityAt } from './components';
+import { checkAmount, toGramsPerLitre } from './units';
+
+export interface CompositionLine {
+	component: ComponentSpec;
+	amount: number;
+	unit: string;
+}
+
+export interface CompositionInput {
+	lines: CompositionLine[];
+	/** Preparation temperature for the solubility check; 25 °C when omitted. */
+	temperatureC?: number;
+	/** Batch volume; when given, each component also gets the mass it needs. */
+	volumeL?: number;
+}
+
+export interface ComponentComposition {
+	id: string;
+	name: string;
+	lineIndex: number;
+	gPerL: number;
+	/** null without a formula or molar mass. */
+	mM: number | null;
+	molarMassGPerMol: number | null;
+	massG: number | null;
+	particlesPerUnit: number | null;
+	osmoticCoefficient: number | null;
+	osmoticCoefficientSource: string | null;
+	osmolalityMOsmPerKg: number | null;
+}
+
+export interface ElementComposition {
+	symbol: string;
+	gPerL: number;
+	mmolPerL: number;
+}
+
+export type CompositionWarningKind = 'solubility' | 'precipitation';
+
+export interface CompositionWarning {
+	kind: CompositionWarningKind;
+	/** 'published value' for a handbook solubility, 'common practice' for a rule of thumb. */
+	basis: 'published value' | 'common practice';
+	message: string;
+	componentIds: string[];
+	lineIndexes: number[];
+}
+
+export interface CompositionResult {
+	components: ComponentComposition[];
+	elements: ElementComposition[];
+	totalCarbonGPerL: number;
+	totalNitrogenGPerL: number;
+	osmolality: {
+		estimateMOsmPerKg: number;
+		idealMOsmPerL: number;
+		/** Components without a molar mass (complex materials), left out of the estimate. */
+		excludedComponentIds: string[];
+		note: string;
+	};
+	ionicStrengthMolPerL: number;
+	temperatureC: number;
+	warnings: CompositionWarning[];
+}
+
+/** Always listed, in this order, even at zero; any other element present follows alphabetically. */
+export const REPORTED_ELEMENTS = [
+	'C',
+	'H',
+	'O',
+	'N',
+	'P',
+	'S',
+	'K',
+	'Na',
+	'Cl',
+	'Mg',
+	'Ca',
+	'Fe',
+	'Zn',
+	'Mn',
+	'Cu',
+	'Co',
+	'Mo',
+	'Se'
+] as const;
+
+export const OSMOLALITY_NOTE =
+	'An estimate: Σ c·ν·φ with the osmotic coefficient φ shown per component (most measured at physiological concentration, 37 °C). mOsm/L is taken as mOsm/kg, which holds for dilute media; ions are counted as the salts are written (pH speciation ignored) and complex materials are left out. Measure with an osmometer before use.';
+
+/**
+ * Precipitation pairs flagged when both partners reach the stated concentrations. Common practice:
+ * these salts are prepared or sterilised apart; the thresholds are rules of thumb chosen here, not
+ * solubility products.
+ */
+export const PRECIPITATION_RULES = [
+	{ cation: 'Ca', anion: 'phosphate', cationMinMM: 1, anionMinMM: 1, product: 'calcium phosphate' },
+	{
+		cation: 'Mg',
+		anion: 'phosphate',
+		cationMinMM: 1,
+		anionMinMM: 10,
+		product: 'magnesium phosphate'
+	},
+	{ cation: 'Ca', anion: 'carbonate', cationMinMM: 1, anionMinMM: 1, product: 'calcium carbonate' },
+	{
+		cation: 'Mg',
+		anion: 'carbonate',
+		cationMinMM: 1,
+		anionMinMM: 10,
+		product: 'magnesium carbonate'
+	},
+	{ cation: 'Fe', anion: 'phosphate', cationMinMM: 0.01, anionMinMM: 1, product: 'iron phosphate' }
+] as const;
+
+const ANION_GROUPS: Record<string, 'phosphate' | 'carbonate'> = {
+	PO4: 'phosphate',
+	HPO4: 'phosphate',
+	H2PO4: 'phosphate',
+	CO3: 'carbonate',
+	HCO3: 'carbonate'
+};
+const CATIONS = new Set(['Ca', 'Mg', 'Fe']);
+
+function formatNumber(value: number): string {
+	return Number(value.toPrecision(3)).toString();
+}
+
+function checkOptional(
+	value: number | undefined,
+	field: string,
+	min: number,
+	max: number,
+	what: string
+): void {
+	if (value === undefined) return;
+	if (typeof value !== 'number' || !Number.isFinite(value) || value < min || value > max) {
+		throw new ChemistryInputError(`${what} must be a number from ${min} to ${max}`, { field });
+	}
+}
+
+export function computeComposition(input: CompositionInput): CompositionResult {
+	if (!input || !Array.isArray(input.lines)) {
+		throw new ChemistryInputError('Lines must be a list', { field: 'lines' });
+	}
+	checkOptional(input.temperatureC, 'temperatureC', -10, 100, 'Temperature (°C)');
+	if (input.volumeL !== undefined) checkAmount(input.volumeL, 'volumeL');
+	const temperatureC = input.temperatureC ?? 25;
+	const volumeL = input.volumeL ?? null;
+
+	const elementMol = new Map<string, number>();
+	const elementG = new Map<string, number>();
+	const components: ComponentComposition[] = [];
+	const warnings: CompositionWarning[] = [];
+	const seen = new Map<string, number>();
+	const speciesMM = new Map<string, { mM: number; lines: Set<number> }>();
+	const excludedComponentIds: string[] = [];
+	let osmolality = 0;
+	let idealOsmolarity = 0;
+	let ionicStrength = 0;
+
+	input.lines.forEach((line, index) => {
+		const prefix = `lines.${index}`;
+		if (!line || typeof line !== 'object')
+			throw new ChemistryInputError('Line is missing', { field: prefix });
+		const resolved = resolveComponent(line.component, `${prefix}.component`);
+		const { spec } = resolved;
+		const earlier = seen.get(spec.id);
+		if (earlier !== undefined) {
+			throw new ChemistryInputError(
+				`${spec.name} is already on line ${earlier + 1}; combine the two lines`,
+				{
+					field: `${prefix}.component`
+				}
+			);
+		}
+		seen.set(spec.id, index);
+
+		const gPerL = toGramsPerLitre(
+			line.amount,
+			line.unit,
+			resolved.molarMassGPerMol,
+			`${prefix}.amount`,
+			`${prefix}.unit`
+		);
+		const molarMass = resolved.molarMassGPerMol;
+		const mM = molarMass === null ? null : (gPerL / molarMass) * 1000;
+
+		for (let i = 0; i < resolved.elementSymbols.length; i++) {
+			const symbol = resolved.elementSymbols[i];
+			elementG.set(symbol, (elementG.get(symbol) ?? 0) + gPerL * resolved.elementGPerG[i]);
+			elementMol.set(symbol, (elementMol.get(symbol) ?? 0) + gPerL * resolved.elementMolPerG[i]);
+		}
+
+		let contribution: number | null = null;
+		if (mM !== null && resolved.particlesPerUnit !== null) {
+			idealOsmolarity += mM * resolved.particlesPerUnit;
+			contribution = mM * resolved.particlesPerUnit * resolved.osmoticCoefficient;
+			osmolality += contribution;
+			ionicStrength += (mM / 1000) * resolved.ionicStrengthPerMolar;
+			for (const ion of resolved.ions) {
+				const base = ionBase(ion.ion);
+				const group = CATIONS.has(base) && ion.charge > 0 ? base : ANION_GROUPS[base];
+				if (!group) continue;
+				const entry = speciesMM.get(group) ?? { mM: 0, lines: new Set<number>() };
+				entry.mM += mM * ion.count;
+				entry.lines.add(index);
+				speciesMM.set(group, entry);
+			}
+		} else {
+			excludedComponentIds.push(spec.id);
+		}
+
+		if (resolved.solubility) {
+			const { points, basisMolarMassGPerMol, source } = resolved.solubility;
+			const limit = solubilityAt(points, temperatureC);
+			const basisGPerL =
+				basisMolarMassGPerMol !== null && mM !== null ? (mM / 1000) * basisMolarMassGPerMol : gPerL;
+			if (basisGPerL > limit.gPerL) {
+				const sourced = points.map((p) => `${p.temperatureC} °C`).join(', ');
+				let where: string;
+				if (limit.exact) where = `at ${temperatureC} °C`;
+				else if (points.length === 1)
+					where = `at ${points[0].temperatureC} °C (no temperature dependence known; preparation at ${temperatureC} °C)`;
+				else if (!limit.withinRange)
+					where = `at the nearest sourced temperature (sourced: ${sourced}; preparation at ${temperatureC} °C)`;
+				else where = `at ${temperatureC} °C (interpolated between ${sourced})`;
+				const basisText = basisMolarMassGPerMol !== null ? ' as the anhydrous/basis form' : '';
+				warnings.push({
+					kind: 'solubility',
+					basis: 'published value',
+					message: `${spec.name} at ${formatNumber(basisGPerL)} g/L${basisText} exceeds its solubility of about ${formatNumber(limit.gPerL)} g/L ${where}; source: ${source}`,
+					componentIds: [spec.id],
+					lineIndexes: [index]
+				});
+			}
+		}
+
+		components.push({
+			id: spec.id,
+			name: spec.name,
+			lineIndex: index,
+			gPerL,
+			mM,
+			molarMassGPerMol: molarMass,
+			massG: volumeL === null ? null : gPerL * volumeL,
+			particlesPerUnit: resolved.particlesPerUnit,
+			osmoticCoefficient: contribution === null ? null : resolved.osmoticCoefficient,
+			osmoticCoefficientSource: contribution === null ? null : resolved.osmoticCoefficientSource,
+			osmolalityMOsmPerKg: contribution
+		});
+	});
+
+	for (const rule of PRECIPITATION_RULES) {
+		const cation = speciesMM.get(rule.cation);
+		const anion = speciesMM.get(rule.anion);
+		if (!cation || !anion || cation.mM < rule.cationMinMM || anion.mM < rule.anionMinMM) continue;
+		const lineIndexes = [...new Set([...cation.lines, ...anion.lines])].sort((a, b) => a - b);
+		warnings.push({
+			kind: 'precipitation',
+			basis: 'common practice',
+			message: `Risk of ${rule.product} precipitating: ${rule.cation} ${formatNumber(cation.mM)} mM with ${rule.anion} ${formatNumber(anion.mM)} mM (flagged from ${rule.cationMinMM} mM ${rule.cation} and ${rule.anionMinMM} mM ${rule.anion}, common practice). Dissolve and sterilise them apart, add the ${rule.cation} salt last to the diluted medium, and watch pH and heating.`,
+			componentIds: lineIndexes.map((i) => components[i].id),
+			lineIndexes
+		});
+	}
+
+	const elements: ElementComposition[] = [];
+	const extra = [...elementG.keys()]
+		.filter((s) => !(REPORTED_ELEMENTS as readonly string[]).includes(s))
+		.sort();
+	for (const symbol of [...REPORTED_ELEMENTS, ...extra]) {
+		elements.push({
+			symbol,
+			gPerL: elementG.get(symbol) ?? 0,
+			mmolPerL: (elementMol.get(symbol) ?? 0) * 1000
+		});
+	}
+
+	return {
+		components,
+		elements,
+		totalCarbonGPerL: elementG.get('C') ?? 0,
+		totalNitrogenGPerL: elementG.get('N') ?? 0,
+		osmolality: {
+			estimateMOsmPerKg: osmolality,
+			idealMOsmPerL: idealOsmolarity,
+			excludedComponentIds,
+			note: OSMOLALITY_NOTE
+		},
+		ionicStrengthMolPerL: ionicStrength,
+		temperatureC,
+		warnings
+	};
+}

@@ -1,0 +1,24 @@
+// The public surface of the science library. The app imports only from here.
+export * from './errors';
+export * from './formula';
+export { ATOMIC_WEIGHTS, ELEMENT_NAMES } from './data/atomic-weights';
+export * from './units';
+export * from './components';
+export * from './composition';
+export * from './weighing';
+export * from './oxygen';
+export * from './heat';
+export * from './degree-of-reduction';
+export * from './stoichiometry';
+export * from './sufficiency';
+export {
+	AVERAGE_BIOMASS_FORMULA,
+	BIOMASS_COMPOSITIONS,
+	STANDARD_BIOMASS_FORMULA,
+	findBiomassComposition
+} from './data/biomass';
+export type { BiomassComposition, SourcedValue, Confidence as BiomassValueConfidence } from './data/biomass';
+export * from './simulation';
+export * from './chemostat';
+export * from './productivity';
+export * from './growth-fit';

@@ -1,0 +1,565 @@
+/**
+ * Nutrient sufficiency: can a medium (plus feeds) support a target biomass?
+ *
+ * For every requirement line (an element or a component) demand = target biomass × requirement per
+ * g of dry biomass (or target cells × per-cell consumption); supply is what the sources deliver per
+ * litre of final volume. ratio = supply / demand; the line is sufficient when ratio ≥ safety factor,
+ * and the biomass it could support is target × ratio / safety factor — the minimum over lines is the
+ * maximum supportable biomass and names the limiting nutrient (Liebig's law of the minimum, as used
+ * for medium design, e.g. Stanbury, Whitaker & Hall, Principles of Fermentation Technology — citation
+ * from memory). The default safety factor 1.2 is common practice.
+ *
+ * Carbon is special: most substrate carbon is respired to CO2, not built into cells. With a yield on
+ * the carbon source the carbon line becomes demand = X / Yx/s (on that component, or on element C),
+ * which includes the respired carbon; without one, the element-C line counts only carbon in biomass
+ * (X · f_C), a lower bound, and says so.
+ *
+ * H and O are left out by default: cells take them from water and O2, not from the dissolved medium.
+ */
+import { ATOMIC_WEIGHTS } from './data/atomic-weights';
+import { findBiomassComposition, BIOMASS_COMPOSITIONS } from './data/biomass';
+import { ChemistryInputError } from './errors';
+import { formulaMolarMass } from './formula';
+
+export type SupplyBasis = 'element' | 'component';
+
+/** Amount of one nutrient consumed per cell formed (over the run, not per hour). */
+export interface PerCellConsumption {
+	key: string;
+	basis: SupplyBasis;
+	pgPerCell?: number;
+	/** mmol per 10^9 cells; needs a molar mass (an element's own, or molarMassGPerMol / formula). */
+	mmolPer1e9Cells?: number;
+	molarMassGPerMol?: number;
+	formula?: string;
+}
+
+export type OrganismProfile =
+	| { kind: 'preset'; id: string }
+	| {
+			kind: 'elementalFractions';
+			name?: string;
+			fractions: Record<string, number>;
+			cellDryMassPg?: number;
+	  }
+	| {
+			kind: 'componentRequirements';
+			name?: string;
+			/** g component per g dry biomass. */
+			requirementsGPerG: Record<string, number>;
+			cellDryMassPg?: number;
+	  }
+	| { kind: 'perCell'; name?: string; consumption: PerCellConsumption[]; cellDryMassPg?: number };
+
+export type SufficiencyTarget =
+	{ biomassGPerL: number } | { cellsPerMl: number; cellDryMassPg?: number };
+
+/**
+ * One source of nutrients (the basal medium, a feed, a bolus). `...GPerL` maps are concentrations in
+ * this source when `volumeL` is given, otherwise already per litre of final volume (g/L-equivalent).
+ * `...G` maps are total grams delivered.
+ */
+export interface SupplySource {
+	name?: string;
+	volumeL?: number;
+	elementsGPerL?: Record<string, number>;
+	componentsGPerL?: Record<string, number>;
+	elementsG?: Record<string, number>;
+	componentsG?: Record<string, number>;
+}
+
+export interface SupplyInput {
+	/** Final culture volume, L; defaults to the sum of source volumes when every source has one. */
+	finalVolumeL?: number;
+	sources: SupplySource[];
+}
+
+export type CarbonDemand =
+	| { basis: 'component'; component: string; yieldGPerG: number }
+	| { basis: 'element'; yieldGPerGCarbon: number };
+
+export interface SufficiencyInput {
+	profile: OrganismProfile;
+	target: SufficiencyTarget;
+	supply: SupplyInput;
+	/** Default 1.2 (common practice); at least 1. */
+	safetyFactor?: number;
+	/** Yield on the carbon source, so that respired carbon counts in the carbon demand. */
+	carbon?: CarbonDemand;
+	/** Elements not assessed; default ['H', 'O']. */
+	ignoreElements?: string[];
+}
+
+export interface SufficiencyLine {
+	key: string;
+	basis: SupplyBasis;
+	demandGPerL: number;
+	supplyGPerL: number;
+	/** Element lines, and components with a known molar mass. */
+	demandMmolPerL: number | null;
+	supplyMmolPerL: number | null;
+	/** supply / demand. */
+	ratio: number;
+	/** supply − safetyFactor × demand, g/L; negative when short. */
+	marginGPerL: number;
+	sufficient: boolean;
+	maxBiomassGPerL: number | null;
+	maxCellsPerMl: number | null;
+	note?: string;
+}
+
+export interface SufficiencyResult {
+	target: { biomassGPerL: number | null; cellsPerMl: number | null; cellDryMassPg: number | null };
+	safetyFactor: number;
+	finalVolumeL: number | null;
+	lines: SufficiencyLine[];
+	limiting: { key: string; basis: SupplyBasis; ratio: number } | null;
+	maximumSupportable: { biomassGPerL: number | null; cellsPerMl: number | null };
+	sufficient: boolean;
+	notes: string[];
+}
+
+export const DEFAULT_SAFETY_FACTOR = 1.2;
+export const DEFAULT_IGNORED_ELEMENTS = ['H', 'O'] as const;
+
+function fail(message: string, field?: string): never {
+	throw new ChemistryInputError(message, field ? { field } : {});
+}
+
+function finite(value: unknown, field: string, what: string): number {
+	if (typeof value !== 'number' || !Number.isFinite(value))
+		fail(`${what} must be a finite number`, field);
+	return value;
+}
+
+function positive(value: unknown, field: string, what: string): number {
+	const v = finite(value, field, what);
+	if (v <= 0) fail(`${what} must be greater than 0, not ${v}`, field);
+	return v;
+}
+
+function nonNegative(value: unknown, field: string, what: string): number {
+	const v = finite(value, field, what);
+	if (v < 0) fail(`${what} must not be negative, not ${v}`, field);
+	return v;
+}
+
+function requireElement(symbol: string, field: string): void {
+	if (!(symbol in ATOMIC_WEIGHTS))
+		fail(`'${symbol}' is not an element symbol with a standard atomic weight`, field);
+}
+
+function readMap(
+	value: unknown,
+	field: string,
+	basis: SupplyBasis,
+	what: string
+): Record<string, number> {
+	if (value === undefined) return {};
+	if (value === null || typeof value !== 'object' || Array.isArray(value))
+		fail(`${what} must be an object of numbers`, field);
+	const out: Record<string, number> = {};
+	for (const [key, v] of Object.entries(value as Record<string, unknown>)) {
+		if (basis === 'element') requireElement(key, `${field}.${key}`);
+		out[key] = nonNegative(v, `${field}.${key}`, `${what} of ${key}`);
+	}
+	return out;
+}
+
+interface Supply {
+	finalVolumeL: number | null;
+	element: Map<string, number>;
+	component: Map<string, number>;
+}
+
+function readSupply(input: unknown): Supply {
+	if (input === null || typeof input !== 'object')
+		fail('Supply must be an object with sources', 'supply');
+	const supply = input as SupplyInput;
+	if (!Array.isArray(supply.sources) || supply.sources.length === 0) {
+		fail('Supply needs at least one source (the medium, feeds)', 'supply.sources');
+	}
+	const sources = supply.sources.map((raw, i) => {
+		const field = `supply.sources.${i}`;
+		if (raw === null || typeof raw !== 'object') fail('Each source must be an object', field);
+		return {
+			volumeL:
+				raw.volumeL === undefined
+					? undefined
+					: positive(raw.volumeL, `${field}.volumeL`, 'Source volume'),
+			elementsGPerL: readMap(
+				raw.elementsGPerL,
+				`${field}.elementsGPerL`,
+				'element',
+				'Element concentration'
+			),
+			componentsGPerL: readMap(
+				raw.componentsGPerL,
+				`${field}.componentsGPerL`,
+				'component',
+				'Component concentration'
+			),
+			elementsG: readMap(raw.elementsG, `${field}.elementsG`, 'element', 'Element amount'),
+			componentsG: readMap(raw.componentsG, `${field}.componentsG`, 'component', 'Component amount')
+		};
+	});
+	let finalVolumeL: number | null =
+		supply.finalVolumeL === undefined
+			? null
+			: positive(supply.finalVolumeL, 'supply.finalVolumeL', 'Final volume');
+	const needsVolume = sources.some(
+		(s) =>
+			s.volumeL !== undefined ||
+			Object.keys(s.elementsG).length > 0 ||
+			Object.keys(s.componentsG).length > 0
+	);
+	if (finalVolumeL === null && needsVolume) {
+		if (sources.every((s) => s.volumeL !== undefined)) {
+			finalVolumeL = sources.reduce((acc, s) => acc + (s.volumeL ?? 0), 0);
+		} else {
+			fail(
+				'Final volume is needed: some sources give a volume or total grams while others do not',
+				'supply.finalVolumeL'
+			);
+		}
+	}
+	const element = new Map<string, number>();
+	const component = new Map<string, number>();
+	const add = (target: Map<string, number>, key: string, gPerL: number) =>
+		target.set(key, (target.get(key) ?? 0) + gPerL);
+	for (const s of sources) {
+		const dilution =
+			s.volumeL !== undefined && finalVolumeL !== null ? s.volumeL / finalVolumeL : 1;
+		for (const [k, v] of Object.entries(s.elementsGPerL)) add(element, k, v * dilution);
+		for (const [k, v] of Object.entries(s.componentsGPerL)) add(component, k, v * dilution);
+		for (const [k, v] of Object.entries(s.elementsG)) add(element, k, v / (finalVolumeL as number));
+		for (const [k, v] of Object.entries(s.componentsG))
+			add(component, k, v / (finalVolumeL as number));
+	}
+	return { finalVolumeL, element, component };
+}
+
+interface Requirement {
+	key: string;
+	basis: SupplyBasis;
+	demandGPerL: number;
+	molarMassGPerMol: number | null;
+	note?: string;
+}
+
+interface Target {
+	biomassGPerL: number | null;
+	cellsPerMl: number | null;
+	cellDryMassPg: number | null;
+}
+
+// 1 cell/mL × 1 pg/cell = 1e3 cells/L × 1e-12 g = 1e-9 g/L.
+const G_PER_L_PER_CELL_PER_ML_PER_PG = 1e-9;
+
+function readTarget(input: unknown, profileDryMassPg: number | null): Target {
+	if (input === null || typeof input !== 'object')
+		fail('Target must be { biomassGPerL } or { cellsPerMl }', 'target');
+	if ('biomassGPerL' in input) {
+		const x = positive(
+			(input as { biomassGPerL: unknown }).biomassGPerL,
+			'target.biomassGPerL',
+			'Target biomass'
+		);
+		const pg = profileDryMassPg;
+		return {
+			biomassGPerL: x,
+			cellsPerMl: pg ? x / (pg * G_PER_L_PER_CELL_PER_ML_PER_PG) : null,
+			cellDryMassPg: pg
+		};
+	}
+	if ('cellsPerMl' in input) {
+		const t = input as { cellsPerMl: unknown; cellDryMassPg?: unknown };
+		const cells = positive(t.cellsPerMl, 'target.cellsPerMl', 'Target cell density');
+		const pg =
+			t.cellDryMassPg !== undefined
+				? positive(t.cellDryMassPg, 'target.cellDryMassPg', 'Cell dry mass')
+				: profileDryMassPg;
+		return {
+			biomassGPerL: pg ? cells * pg * G_PER_L_PER_CELL_PER_ML_PER_PG : null,
+			cellsPerMl: cells,
+			cellDryMassPg: pg
+		};
+	}
+	fail('Target must be { biomassGPerL } or { cellsPerMl }', 'target');
+}
+
+function resolveProfile(profile: unknown): Exclude<OrganismProfile, { kind: 'preset' }> {
+	if (profile === null || typeof profile !== 'object')
+		fail('Profile must be an object with a kind', 'profile');
+	const p = profile as OrganismProfile;
+	if (p.kind === 'preset') {
+		const found = typeof p.id === 'string' ? findBiomassComposition(p.id) : undefined;
+		if (!found) {
+			fail(
+				`Unknown biomass preset '${String(p.id)}'; available: ${BIOMASS_COMPOSITIONS.map((b) => b.id).join(', ')}`,
+				'profile.id'
+			);
+		}
+		return {
+			kind: 'elementalFractions',
+			name: found.name,
+			fractions: Object.fromEntries(
+				Object.entries(found.massFractions).map(([k, v]) => [k, v.value])
+			),
+			cellDryMassPg: found.cellDryMassPg?.value
+		};
+	}
+	if (p.kind === 'elementalFractions' || p.kind === 'componentRequirements' || p.kind === 'perCell')
+		return p;
+	fail(
+		`Unknown profile kind '${String((p as { kind?: unknown }).kind)}'; use 'preset', 'elementalFractions', 'componentRequirements' or 'perCell'`,
+		'profile.kind'
+	);
+}
+
+function requireBiomass(target: Target, why: string): number {
+	if (target.biomassGPerL === null) {
+		fail(
+			`${why} needs the target as dry biomass: give target.cellDryMassPg (or the profile's) with cellsPerMl`,
+			'target.cellDryMassPg'
+		);
+	}
+	return target.biomassGPerL;
+}
+
+function buildRequirements(
+	profile: Exclude<OrganismProfile, { kind: 'preset' }>,
+	target: Target,
+	ignored: Set<string>
+): Requirement[] {
+	const lines: Requirement[] = [];
+	if (profile.kind === 'elementalFractions') {
+		const fractions = readMap(profile.fractions, 'profile.fractions', 'element', 'Mass fraction');
+		const sum = Object.values(fractions).reduce((a, b) => a + b, 0);
+		if (sum > 1 + 1e-9)
+			fail(
+				`Mass fractions add up to ${sum.toFixed(4)}, more than 1 g per g dry biomass`,
+				'profile.fractions'
+			);
+		const x = requireBiomass(target, 'An elemental profile');
+		for (const [el, f] of Object.entries(fractions)) {
+			if (ignored.has(el)) continue;
+			if (f === 0) continue;
+			lines.push({
+				key: el,
+				basis: 'element',
+				demandGPerL: x * f,
+				molarMassGPerMol: ATOMIC_WEIGHTS[el]
+			});
+		}
+	} else if (profile.kind === 'componentRequirements') {
+		const reqs = readMap(
+			profile.requirementsGPerG,
+			'profile.requirementsGPerG',
+			'component',
+			'Requirement'
+		);
+		const x = requireBiomass(target, 'A per-g-biomass profile');
+		for (const [key, r] of Object.entries(reqs)) {
+			if (r === 0) continue;
+			lines.push({ key, basis: 'component', demandGPerL: x * r, molarMassGPerMol: null });
+		}
+	} else {
+		if (!Array.isArray(profile.consumption) || profile.consumption.length === 0) {
+			fail('A per-cell profile needs a consumption list', 'profile.consumption');
+		}
+		if (target.cellsPerMl === null) {
+			fail(
+				'A per-cell profile needs the target in cells/mL, or a cell dry mass to convert g/L',
+				'target'
+			);
+		}
+		const cells = target.cellsPerMl;
+		profile.consumption.forEach((c, i) => {
+			const field = `profile.consumption.${i}`;
+			if (c === null || typeof c !== 'object' || typeof c.key !== 'string' || c.key === '') {
+				fail('Each consumption entry needs a key', `${field}.key`);
+			}
+			if (c.basis !== 'element' && c.basis !== 'component')
+				fail("Basis must be 'element' or 'component'", `${field}.basis`);
+			if (c.basis === 'element') requireElement(c.key, `${field}.key`);
+			if (c.basis === 'element' && ignored.has(c.key)) return;
+			let molarMass: number | null = null;
+			if (c.basis === 'element') molarMass = ATOMIC_WEIGHTS[c.key];
+			else if (c.molarMassGPerMol !== undefined)
+				molarMass = positive(c.molarMassGPerMol, `${field}.molarMassGPerMol`, 'Molar mass');
+			else if (c.formula !== undefined) {
+				try {
+					molarMass = formulaMolarMass(c.formula);
+				} catch (e) {
+					if (e instanceof ChemistryInputError)
+						fail(`Formula of '${c.key}': ${e.message}`, `${field}.formula`);
+					throw e;
+				}
+			}
+			const hasPg = c.pgPerCell !== undefined;
+			const hasMmol = c.mmolPer1e9Cells !== undefined;
+			if (hasPg === hasMmol) fail('Give exactly one of pgPerCell or mmolPer1e9Cells', field);
+			let demandGPerL: number;
+			if (hasPg) {
+				demandGPerL =
+					cells *
+					nonNegative(c.pgPerCell, `${field}.pgPerCell`, 'Consumption') *
+					G_PER_L_PER_CELL_PER_ML_PER_PG;
+			} else {
+				if (molarMass === null)
+					fail(
+						`'${c.key}' in mmol per 10^9 cells needs molarMassGPerMol or formula`,
+						`${field}.molarMassGPerMol`
+					);
+				const q = nonNegative(c.mmolPer1e9Cells, `${field}.mmolPer1e9Cells`, 'Consumption');
+				// cells/mL × 1e3 mL/L ÷ 1e9 × mmol = mmol/L; × g/mol ÷ 1e3 = g/L
+				demandGPerL = ((cells * 1e3) / 1e9) * q * (molarMass / 1e3);
+			}
+			if (demandGPerL > 0)
+				lines.push({ key: c.key, basis: c.basis, demandGPerL, molarMassGPerMol: molarMass });
+		});
+	}
+	return lines;
+}
+
+function applyCarbon(
+	lines: Requirement[],
+	carbon: unknown,
+	profile: Exclude<OrganismProfile, { kind: 'preset' }>,
+	target: Target,
+	notes: string[]
+): Requirement[] {
+	const carbonLine = lines.find((l) => l.basis === 'element' && l.key === 'C');
+	if (carbon === undefined) {
+		if (carbonLine) {
+			carbonLine.note =
+				'Counts only the carbon built into biomass; respired carbon is not included. Give a yield on the carbon source for a realistic demand.';
+		}
+		return lines;
+	}
+	if (carbon === null || typeof carbon !== 'object')
+		fail('Carbon must be { basis, ... } with a yield', 'carbon');
+	const spec = carbon as CarbonDemand;
+	const x = requireBiomass(target, 'A carbon yield');
+	if (spec.basis === 'component') {
+		if (typeof spec.component !== 'string' || spec.component === '')
+			fail('Carbon source component id is needed', 'carbon.component');
+		const y = positive(spec.yieldGPerG, 'carbon.yieldGPerG', 'Yield on the carbon source');
+		const rest = lines.filter(
+			(l) =>
+				!(l.basis === 'element' && l.key === 'C') &&
+				!(l.basis === 'component' && l.key === spec.component)
+		);
+		if (carbonLine)
+			notes.push(
+				`Carbon is assessed as ${spec.component} at Yx/s = ${y} g/g, which includes respired carbon; the element-C line is replaced.`
+			);
+		return [
+			{
+				key: spec.component,
+				basis: 'component',
+				demandGPerL: x / y,
+				molarMassGPerMol: null,
+				note: `X / Yx/s with Yx/s = ${y} g/g: includes the carbon respired to CO2`
+			},
+			...rest
+		];
+	}
+	if (spec.basis === 'element') {
+		const y = positive(spec.yieldGPerGCarbon, 'carbon.yieldGPerGCarbon', 'Yield on carbon');
+		const fC = profile.kind === 'elementalFractions' ? profile.fractions.C : undefined;
+		if (fC !== undefined && fC > 0 && y > 1 / fC) {
+			fail(
+				`Yield ${y} g biomass per g C is more than 1/f_C = ${(1 / fC).toFixed(3)}: the cells would hold more carbon than they take up`,
+				'carbon.yieldGPerGCarbon'
+			);
+		}
+		const rest = lines.filter((l) => !(l.basis === 'element' && l.key === 'C'));
+		return [
+			{
+				key: 'C',
+				basis: 'element',
+				demandGPerL: x / y,
+				molarMassGPerMol: ATOMIC_WEIGHTS.C,
+				note: `X / Yx/C with Yx/C = ${y} g per g C: includes the carbon respired to CO2`
+			},
+			...rest
+		];
+	}
+	fail("Carbon basis must be 'component' or 'element'", 'carbon.basis');
+}
+
+/**
+ * Assess a supply against a target biomass for an organism profile. See the module comment for the
+ * rules; every demand, supply and margin is in g per litre of final volume.
+ */
+export function assessSufficiency(input: SufficiencyInput): SufficiencyResult {
+	if (input === null || typeof input !== 'object') fail('Sufficiency input must be an object');
+	const safetyFactor =
+		input.safetyFactor === undefined
+			? DEFAULT_SAFETY_FACTOR
+			: finite(input.safetyFactor, 'safetyFactor', 'Safety factor');
+	if (safetyFactor < 1)
+		fail(`Safety factor must be at least 1, not ${safetyFactor}`, 'safetyFactor');
+	const ignoredList = input.ignoreElements ?? [...DEFAULT_IGNORED_ELEMENTS];
+	if (!Array.isArray(ignoredList))
+		fail('ignoreElements must be a list of element symbols', 'ignoreElements');
+	ignoredList.forEach((el, i) => requireElement(el, `ignoreElements.${i}`));
+	const ignored = new Set(ignoredList);
+
+	const profile = resolveProfile(input.profile);
+	const profileDryMassPg =
+		profile.cellDryMassPg === undefined
+			? null
+			: positive(profile.cellDryMassPg, 'profile.cellDryMassPg', 'Cell dry mass');
+	const target = readTarget(input.target, profileDryMassPg);
+	const supply = readSupply(input.supply);
+	const notes: string[] = [];
+	const requirements = applyCarbon(
+		buildRequirements(profile, target, ignored),
+		input.carbon,
+		profile,
+		target,
+		notes
+	);
+	if (requirements.length === 0) fail('The profile has no requirement to assess', 'profile');
+
+	const lines: SufficiencyLine[] = requirements.map((r) => {
+		const supplyGPerL = (r.basis === 'element' ? supply.element : supply.component).get(r.key) ?? 0;
+		const ratio = supplyGPerL / r.demandGPerL;
+		const line: SufficiencyLine = {
+			key: r.key,
+			basis: r.basis,
+			demandGPerL: r.demandGPerL,
+			supplyGPerL,
+			demandMmolPerL: r.molarMassGPerMol ? (r.demandGPerL / r.molarMassGPerMol) * 1000 : null,
+			supplyMmolPerL: r.molarMassGPerMol ? (supplyGPerL / r.molarMassGPerMol) * 1000 : null,
+			ratio,
+			marginGPerL: supplyGPerL - safetyFactor * r.demandGPerL,
+			sufficient: ratio >= safetyFactor,
+			maxBiomassGPerL:
+				target.biomassGPerL === null ? null : (target.biomassGPerL * ratio) / safetyFactor,
+			maxCellsPerMl: target.cellsPerMl === null ? null : (target.cellsPerMl * ratio) / safetyFactor
+		};
+		if (r.note) line.note = r.note;
+		if (supplyGPerL === 0)
+			line.note = [line.note, 'Not supplied by any source.'].filter(Boolean).join(' ');
+		return line;
+	});
+	let limiting = lines[0];
+	for (const line of lines) if (line.ratio < limiting.ratio) limiting = line;
+	return {
+		target,
+		safetyFactor,
+		finalVolumeL: supply.finalVolumeL,
+		lines,
+		limiting: { key: limiting.key, basis: limiting.basis, ratio: limiting.ratio },
+		maximumSupportable: {
+			biomassGPerL: limiting.maxBiomassGPerL,
+			cellsPerMl: limiting.maxCellsPerMl
+		},
+		sufficient: lines.every((l) => l.sufficient),
+		notes
+	};
+}

@@ -1,0 +1,15 @@
+import { DOT_RULE, molarMassOf, parseFormula } from '$chemistry';
+import { endpoint } from '$lib/server/api/endpoint';
+import { formulaRequest } from '$lib/server/api/operations/chemistry';
+
+export const POST = endpoint({ access: { roles: [] }, body: formulaRequest }, ({ body }) => {
+	const parsed = parseFormula(body.formula);
+	return {
+		formula: parsed.text,
+		reading: parsed.reading,
+		molarMass: molarMassOf(parsed.elements),
+		elements: parsed.elements,
+		parts: parsed.parts,
+		dotRule: DOT_RULE
+	};
+});
