@@ -132,3 +132,6 @@ export type User = typeof user.$inferSelect;
 export type Invitation = typeof invitation.$inferSelect;
 export type AuditEvent = typeof auditEvent.$inferSelect;
 export type MailMessage = typeof mailMessage.$inferSelect;
+
+// Each domain keeps its tables in its own file; they are all part of this one schema.
+// (add `export * from './<domain>.schema';` lines here)
