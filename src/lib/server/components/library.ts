@@ -56,18 +56,37 @@ export function findComponentsByIds(ids: string[], reader: Reader = db): Map<str
 	return new Map(reader.select().from(component).where(inArray(component.id, unique)).all().map((c) => [c.id, c]));
 }
 
-/** By id, or by name ignoring case: how CSV files and people name a component. */
+function normaliseName(text: string): string {
+	return text
+		.toLowerCase()
+		.replace(/[\s_·.,()-]+/g, ' ')
+		.trim();
+}
+
+/**
+ * By id, or by name or synonym with case and punctuation ignored ("D-glucose anhydrous" finds
+ * "D-Glucose, anhydrous"): how CSV files and people name a component. A bare name that starts the
+ * names of one basis form and its hydrates ("Magnesium sulfate") finds the basis form.
+ */
 export function findComponentByIdOrName(text: string, reader: Reader = db): Component | undefined {
 	const trimmed = text.trim();
 	if (!trimmed) return undefined;
-	return (
+	const exact =
 		findComponent(trimmed, reader) ??
 		reader
 			.select()
 			.from(component)
 			.where(sql`lower(${component.name}) = lower(${trimmed})`)
-			.get()
-	);
+			.get();
+	if (exact) return exact;
+	const wanted = normaliseName(trimmed);
+	const all = listComponents(reader);
+	const named = all.find((c) => [c.name, ...c.synonyms].some((n) => normaliseName(n) === wanted));
+	if (named) return named;
+	const starting = all.filter((c) => normaliseName(c.name).startsWith(`${wanted} `));
+	const bases = starting.filter((c) => !c.basisComponentId);
+	if (starting.length === 1) return starting[0];
+	return bases.length === 1 && starting.every((c) => c === bases[0] || c.basisComponentId === bases[0].id) ? bases[0] : undefined;
 }
 
 /** What the composition engine needs from a stored component. */
