@@ -8,6 +8,7 @@ import { RuleError } from '../rule-error';
 import { findComponentByIdOrName } from '../components/library';
 import { checkLines, type CheckedLine } from './draft';
 import { appendLines } from './drafts';
+import { toDraftLines } from './editor-data';
 import { describedLinesOf, linesOf } from './queries';
 
 export const LINE_CSV_COLUMNS = {
@@ -46,16 +47,7 @@ export interface LineImportPreview {
 export function previewLineCsv(version: RecipeVersion, text: string): LineImportPreview {
 	const table = parseCsv(text, LINE_CSV_COLUMNS);
 	if (table.rows.length === 0) throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
-	const existing: DraftLineInput[] = linesOf(version.id).map((l) => ({
-		kind: l.kind,
-		componentId: l.componentId ?? '',
-		shelfFormId: l.shelfFormId ?? '',
-		stockRecipeId: l.stockRecipeId ?? '',
-		amount: String(l.amount),
-		unit: l.unit,
-		tolerancePercent: String(l.tolerancePercent),
-		note: l.note
-	}));
+	const existing = toDraftLines(linesOf(version.id));
 	const nameErrors = new Map<number, string[]>();
 	const incoming: DraftLineInput[] = table.rows.map(({ values }, i) => {
 		const kind = (values.kind || (values.stock && !values.component ? 'stock' : 'component')).toLowerCase();

@@ -162,11 +162,7 @@ export function startDraftFrom(actor: Actor, sourceVersionId: string): RecipeVer
 			})
 			.returning()
 			.get();
-		insertLines(
-			tx,
-			created.id,
-			linesOf(source.id, tx).map((l) => ({ ...l, componentId: l.componentId, note: l.note }))
-		);
+		insertLines(tx, created.id, linesOf(source.id, tx));
 		recordAudit(
 			actor,
 			{ action: 'recipe.draft_started', subjectType: 'recipe_version', subjectId: created.id, detail: { n: created.n, basedOn: source.n } },
