@@ -18,6 +18,12 @@ const { getDb } = await import('../lib/server/db');
 getDb();
 console.log(`Database ready at ${config.databasePath}`);
 
+{
+	const { seedReferenceLibrary } = await import('../lib/server/components/reference-library');
+	const added = seedReferenceLibrary();
+	console.log(added ? `Component library: loaded ${added} reference components.` : 'Component library: already loaded.');
+}
+
 if (config.seedDemo) {
 	const { seedDemo } = await import('../lib/server/demo/seed');
 	const added = await seedDemo();

@@ -28,3 +28,18 @@ export const noticeClass: Record<NoticeKind, string> = {
 	caution: 'border-caution-600/30 bg-caution-50 text-caution-800',
 	halt: 'border-halt-600/30 bg-halt-50 text-halt-800'
 };
+
+export const badgeClass = 'inline-block rounded px-2 py-0.5 text-xs font-medium whitespace-nowrap';
+
+export const statusBadgeClass: Record<'draft' | 'in_review' | 'approved' | 'retired', string> = {
+	draft: 'bg-oat-100 text-oat-800',
+	in_review: 'bg-caution-50 text-caution-800',
+	approved: 'bg-ok-50 text-ok-800',
+	retired: 'bg-halt-50 text-halt-800'
+};
+
+export const tableClass = 'w-full text-left text-sm';
+export const tableHeadClass = 'border-b border-oat-200 bg-oat-100 text-xs uppercase tracking-wide text-oat-700';
+export const tableWrapClass = 'overflow-x-auto rounded-card border border-oat-200 bg-white shadow-card';
+export const labelClass = 'mb-1 block text-sm font-medium text-kelp-900';
+export const errorTextClass = 'text-sm text-halt-600';

@@ -1,6 +1,8 @@
 import { recordAudit } from '../audit';
 import { createUser, findUserByEmail } from '../people';
+import { seedReferenceLibrary } from '../components/reference-library';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './accounts';
+import { seedDemoRecipes } from './recipes';
 
 /**
  * Adds whatever part of the demo is missing and nothing else, so running it again changes nothing.
@@ -17,5 +19,8 @@ export async function seedDemo(): Promise<number> {
 		);
 		added++;
 	}
+	// The recipes need the library; loading it here too keeps the demo whole when seeded on its own.
+	added += seedReferenceLibrary();
+	added += await seedDemoRecipes();
 	return added;
 }

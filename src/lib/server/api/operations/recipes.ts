@@ -1,0 +1,96 @@
+import { z } from 'zod';
+import { COMPONENT_CATEGORIES, LINE_KINDS, RECIPE_KINDS, VERSION_STATUSES } from '$lib/recipes';
+import type { ApiOperation } from '../openapi';
+
+const numberOrText = z.union([z.number(), z.string().max(40)]);
+
+export const previewRequest = z.object({
+	recipeId: z.string().max(80).optional().describe('The recipe being edited, so a stock cannot contain it'),
+	preparationTemperatureC: numberOrText.optional().describe('°C; 25 when omitted'),
+	osmolalityMinMOsmPerKg: numberOrText.optional(),
+	osmolalityMaxMOsmPerKg: numberOrText.optional(),
+	lines: z
+		.array(
+			z.object({
+				kind: z.enum(LINE_KINDS).default('component'),
+				componentId: z.string().max(80).optional(),
+				shelfFormId: z.string().max(80).optional(),
+				stockRecipeId: z.string().max(80).optional(),
+				amount: numberOrText.describe('Concentration in the finished medium; mL per L for a stock'),
+				unit: z.string().max(20).describe('g/L, mg/L, mM, µM, % w/v; mL/L for a stock')
+			})
+		)
+		.max(200)
+});
+
+export const recipeListQuery = z.object({
+	kind: z.enum(RECIPE_KINDS).optional(),
+	status: z.enum(VERSION_STATUSES).optional(),
+	component: z.string().max(80).optional(),
+	q: z.string().max(120).optional(),
+	page: z.coerce.number().int().min(1).default(1),
+	pageSize: z.coerce.number().int().min(1).max(200).default(50)
+});
+
+export const componentListQuery = z.object({
+	category: z.enum(COMPONENT_CATEGORIES).optional(),
+	q: z.string().max(120).optional()
+});
+
+const element = z.object({ symbol: z.string(), gPerL: z.number(), mmolPerL: z.number() });
+
+export const analysisResponse = z.object({
+	components: z.array(
+		z.object({
+			id: z.string(),
+			name: z.string(),
+			gPerL: z.number(),
+			mM: z.number().nullable(),
+			osmolalityMOsmPerKg: z.number().nullable(),
+			osmoticCoefficient: z.number().nullable(),
+			lines: z.array(z.number()).describe('0-based indexes of the request lines it comes from')
+		})
+	),
+	elements: z.array(element),
+	totalCarbonGPerL: z.number(),
+	totalNitrogenGPerL: z.number(),
+	osmolality: z
+		.object({
+			estimateMOsmPerKg: z.number(),
+			idealMOsmPerL: z.number(),
+			verdict: z.enum(['within', 'below', 'above', 'no-target']),
+			note: z.string()
+		})
+		.loose(),
+	ionicStrengthMolPerL: z.number(),
+	temperatureC: z.number(),
+	warnings: z.array(z.object({ kind: z.enum(['solubility', 'precipitation']), basis: z.string(), message: z.string(), lines: z.array(z.number()) })),
+	notes: z.array(z.string()),
+	hazards: z.array(z.object({ code: z.string(), text: z.string(), components: z.array(z.string()) }))
+});
+
+export const recipesOperations: ApiOperation[] = [
+	{
+		method: 'get',
+		path: '/api/v1/recipes',
+		summary: 'Lists recipes. Query: kind, status (has a version in it), component (id; has a version containing it), q (name contains), page, pageSize',
+		access: 'signed-in'
+	},
+	{ method: 'get', path: '/api/v1/recipes/{id}', summary: 'One recipe with its versions', access: 'signed-in' },
+	{
+		method: 'get',
+		path: '/api/v1/recipes/{id}/versions/{n}',
+		summary: 'One version with its lines, composition (elements, osmolality, warnings) and signatures',
+		access: 'signed-in'
+	},
+	{
+		method: 'post',
+		path: '/api/v1/recipes/preview',
+		summary:
+			'Composition of lines as typed: per element, total C and N, osmolality against the range, solubility at the preparation temperature, precipitation pairs. Line problems come back as errors at lines.<i>.<field>',
+		access: 'signed-in',
+		request: previewRequest,
+		response: analysisResponse
+	},
+	{ method: 'get', path: '/api/v1/components', summary: 'The component library. Query: category, q (name, formula or CAS contains)', access: 'signed-in' }
+];

@@ -1,0 +1,290 @@
+import { asc, eq, inArray, sql } from 'drizzle-orm';
+import { ChemistryInputError, molarMassOf, parseFormula, resolveComponent, type ComponentSpec } from '$chemistry';
+import {
+	checkCasNumber,
+	formatFractions,
+	formatHazards,
+	formatIons,
+	formatSolubility,
+	parseFractions,
+	parseHazards,
+	parseIons,
+	parseSolubility
+} from '$lib/component-notation';
+import { COMPONENT_CATEGORIES, type ComponentCategoryName } from '$lib/recipes';
+import { recordAudit, type Actor } from '../audit';
+import { db, type Db } from '../db';
+import { component, type Component } from '../db/schema';
+import type { FieldErrors } from '../forms';
+import { RuleError } from '../rule-error';
+import { knownHazardTexts } from './hazards';
+
+export type NewComponent = Omit<typeof component.$inferInsert, 'id' | 'createdAt' | 'updatedAt' | 'revision'>;
+
+/** The text fields a component is entered with, on the form and in a CSV row alike. */
+export const COMPONENT_FIELDS = [
+	'name',
+	'category',
+	'formula',
+	'molarMassGPerMol',
+	'casNumber',
+	'elementalMassFractions',
+	'ions',
+	'osmoticCoefficient',
+	'solubility',
+	'solubilityBasisFormula',
+	'ghsHazards',
+	'storage',
+	'basisComponent'
+] as const;
+export type ComponentField = (typeof COMPONENT_FIELDS)[number];
+export type ComponentText = Record<ComponentField, string>;
+
+type Reader = Pick<Db, 'select'>;
+
+export function listComponents(reader: Reader = db): Component[] {
+	return reader.select().from(component).orderBy(asc(component.name)).all();
+}
+
+export function findComponent(id: string, reader: Reader = db): Component | undefined {
+	return reader.select().from(component).where(eq(component.id, id)).get();
+}
+
+export function findComponentsByIds(ids: string[], reader: Reader = db): Map<string, Component> {
+	const unique = [...new Set(ids.filter(Boolean))];
+	if (unique.length === 0) return new Map();
+	return new Map(reader.select().from(component).where(inArray(component.id, unique)).all().map((c) => [c.id, c]));
+}
+
+function normaliseName(text: string): string {
+	return text
+		.toLowerCase()
+		.replace(/[\s_·.,()-]+/g, ' ')
+		.trim();
+}
+
+/**
+ * By id, or by name or synonym with case and punctuation ignored ("D-glucose anhydrous" finds
+ * "D-Glucose, anhydrous"): how CSV files and people name a component. A bare name that starts the
+ * names of one basis form and its hydrates ("Magnesium sulfate") finds the basis form.
+ */
+export function findComponentByIdOrName(text: string, reader: Reader = db): Component | undefined {
+	const trimmed = text.trim();
+	if (!trimmed) return undefined;
+	const exact =
+		findComponent(trimmed, reader) ??
+		reader
+			.select()
+			.from(component)
+			.where(sql`lower(${component.name}) = lower(${trimmed})`)
+			.get();
+	if (exact) return exact;
+	const wanted = normaliseName(trimmed);
+	const all = listComponents(reader);
+	const named = all.find((c) => [c.name, ...c.synonyms].some((n) => normaliseName(n) === wanted));
+	if (named) return named;
+	const starting = all.filter((c) => normaliseName(c.name).startsWith(`${wanted} `));
+	const bases = starting.filter((c) => !c.basisComponentId);
+	if (starting.length === 1) return starting[0];
+	return bases.length === 1 && starting.every((c) => c === bases[0] || c.basisComponentId === bases[0].id) ? bases[0] : undefined;
+}
+
+/** What the composition engine needs from a stored component. */
+export function componentSpecOf(row: Component): ComponentSpec {
+	return {
+		id: row.id,
+		name: row.name,
+		formula: row.formula,
+		molarMassGPerMol: row.formula ? null : row.molarMassGPerMol,
+		elementalMassFractions: row.elementalMassFractions,
+		ions: row.ions,
+		osmoticCoefficient: row.osmoticCoefficient,
+		osmoticCoefficientSource: row.osmoticCoefficientSource,
+		solubility: row.solubility
+	};
+}
+
+/** Molar mass from the formula (IUPAC 2021 weights) or the stored average; null for complex materials. */
+export function molarMassOfComponent(row: Component): number | null {
+	if (row.formula) return molarMassOf(parseFormula(row.formula).elements);
+	return row.molarMassGPerMol ?? null;
+}
+
+export function componentText(row: Component | undefined): ComponentText {
+	const text = {} as ComponentText;
+	for (const f of COMPONENT_FIELDS) text[f] = '';
+	if (!row) return { ...text, category: 'salt' };
+	return {
+		...text,
+		name: row.name,
+		category: row.category,
+		formula: row.formula ?? '',
+		molarMassGPerMol: row.molarMassGPerMol == null ? '' : String(row.molarMassGPerMol),
+		casNumber: row.casNumber ?? '',
+		elementalMassFractions: formatFractions(row.elementalMassFractions),
+		ions: formatIons(row.ions),
+		osmoticCoefficient: row.osmoticCoefficient == null ? '' : String(row.osmoticCoefficient),
+		solubility: formatSolubility(row.solubility?.points),
+		solubilityBasisFormula: row.solubility?.basisFormula ?? '',
+		ghsHazards: formatHazards(row.ghsHazards),
+		storage: row.storage,
+		basisComponent: row.basisComponentId ?? ''
+	};
+}
+
+function optionalNumber(text: string, field: string, errors: FieldErrors, check: (n: number) => string | null): number | null {
+	const trimmed = text.trim();
+	if (!trimmed) return null;
+	const value = Number(trimmed);
+	const problem = Number.isFinite(value) ? check(value) : `“${trimmed}” is not a number.`;
+	if (problem) {
+		errors[field] = [problem];
+		return null;
+	}
+	return value;
+}
+
+/**
+ * Checks a component as typed and turns it into a row; every problem is reported against its field.
+ * `selfId` is the component being edited (it may keep its own name, and cannot be its own basis).
+ */
+export function checkComponentText(
+	input: Partial<ComponentText>,
+	options: { selfId?: string; reader?: Reader } = {}
+): { ok: true; value: NewComponent } | { ok: false; fieldErrors: FieldErrors } {
+	const reader = options.reader ?? db;
+	const t = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, (input[f] ?? '').trim()])) as ComponentText;
+	const errors: FieldErrors = {};
+
+	if (!t.name) errors.name = ['Give the component a name.'];
+	else if (t.name.length > 120) errors.name = ['Keep the name to 120 characters.'];
+	else {
+		const clash = reader
+			.select({ id: component.id })
+			.from(component)
+			.where(sql`lower(${component.name}) = lower(${t.name})`)
+			.get();
+		if (clash && clash.id !== options.selfId) errors.name = [`A component named “${t.name}” already exists.`];
+	}
+	if (!(COMPONENT_CATEGORIES as readonly string[]).includes(t.category)) {
+		errors.category = [`Choose a category: ${COMPONENT_CATEGORIES.join(', ')}.`];
+	}
+
+	let formulaMolarMass: number | null = null;
+	if (t.formula) {
+		try {
+			formulaMolarMass = molarMassOf(parseFormula(t.formula).elements);
+		} catch (cause) {
+			if (!(cause instanceof ChemistryInputError)) throw cause;
+			errors.formula = [cause.message];
+		}
+	}
+	const molarMass = optionalNumber(t.molarMassGPerMol, 'molarMassGPerMol', errors, (n) =>
+		n > 0 ? null : 'A molar mass is more than 0 g/mol.'
+	);
+	if (molarMass !== null && t.formula) {
+		errors.molarMassGPerMol = ['Leave the molar mass empty when there is a formula: it is computed from the formula.'];
+	}
+	const cas = t.casNumber ? checkCasNumber(t.casNumber) : null;
+	if (cas) errors.casNumber = [cas];
+
+	const fractions = parseFractions(t.elementalMassFractions);
+	if (!fractions.ok) errors.elementalMassFractions = [fractions.error];
+	else if (fractions.value && t.formula) {
+		errors.elementalMassFractions = ['Give either a formula or elemental fractions, not both: fractions are for complex materials.'];
+	}
+	if (!t.formula && !(fractions.ok && fractions.value) && t.category !== 'complex' && !errors.formula) {
+		errors.formula = ['Give a formula, or mark it a complex material and give its elemental fractions.'];
+	}
+	const ions = parseIons(t.ions);
+	if (!ions.ok) errors.ions = [ions.error];
+	else if (ions.value && !t.formula && molarMass === null) errors.ions = ['Ions need a formula or molar mass.'];
+	const phi = optionalNumber(t.osmoticCoefficient, 'osmoticCoefficient', errors, (n) =>
+		n > 0 && n <= 2 ? null : 'An osmotic coefficient is between 0 and 2.'
+	);
+	const solubility = parseSolubility(t.solubility);
+	if (!solubility.ok) errors.solubility = [solubility.error];
+	if (t.solubilityBasisFormula) {
+		try {
+			parseFormula(t.solubilityBasisFormula);
+		} catch (cause) {
+			if (!(cause instanceof ChemistryInputError)) throw cause;
+			errors.solubilityBasisFormula = [cause.message];
+		}
+		if (!t.solubility) errors.solubilityBasisFormula = ['A basis formula goes with solubility values; give them too.'];
+	}
+	const hazards = parseHazards(t.ghsHazards, knownHazardTexts());
+	if (!hazards.ok) errors.ghsHazards = [hazards.error];
+	if (t.storage.length > 300) errors.storage = ['Keep storage to 300 characters.'];
+
+	let basisComponentId: string | null = null;
+	if (t.basisComponent) {
+		const basis = findComponentByIdOrName(t.basisComponent, reader);
+		if (!basis) errors.basisComponent = [`No component “${t.basisComponent}” in the library.`];
+		else if (basis.id === options.selfId) errors.basisComponent = ['A component cannot be its own basis form.'];
+		else if (basis.basisComponentId) errors.basisComponent = [`${basis.name} is itself a form of another component; name that one.`];
+		else if (!t.formula || !basis.formula) errors.basisComponent = ['Both this component and its basis need a formula.'];
+		else basisComponentId = basis.id;
+	}
+
+	if (Object.keys(errors).length) return { ok: false, fieldErrors: errors };
+	const value: NewComponent = {
+		name: t.name,
+		category: t.category as ComponentCategoryName,
+		formula: t.formula || null,
+		molarMassGPerMol: t.formula ? formulaMolarMass : molarMass,
+		casNumber: t.casNumber || null,
+		elementalMassFractions: fractions.ok ? fractions.value : null,
+		fractionsNote: fractions.ok && fractions.value ? "typical: replace with the lot's certificate values" : null,
+		ions: ions.ok ? ions.value : null,
+		osmoticCoefficient: phi,
+		osmoticCoefficientSource: phi === null ? null : 'entered with the component',
+		solubility:
+			solubility.ok && solubility.value
+				? { points: solubility.value, basisFormula: t.solubilityBasisFormula || null, source: 'entered with the component' }
+				: null,
+		ghsHazards: hazards.ok ? hazards.value : [],
+		hazardSource: hazards.ok && hazards.value.length ? 'entered with the component; check the supplier SDS' : null,
+		storage: t.storage,
+		basisComponentId,
+		synonyms: []
+	};
+	// The composition engine has the last word on whether the numbers hang together.
+	try {
+		resolveComponent(componentSpecOf({ ...value, id: 'check' } as Component));
+	} catch (cause) {
+		if (!(cause instanceof ChemistryInputError)) throw cause;
+		const field = (cause.field ?? '').split('.')[1] ?? 'formula';
+		return { ok: false, fieldErrors: { [field]: [cause.message] } };
+	}
+	return { ok: true, value };
+}
+
+export function createComponent(actor: Actor, value: NewComponent, writer: Db | Parameters<Parameters<Db['transaction']>[0]>[0] = db): string {
+	const id = crypto.randomUUID();
+	writer.insert(component).values({ ...value, id }).run();
+	recordAudit(actor, { action: 'component.created', subjectType: 'component', subjectId: id, detail: { name: value.name } }, writer);
+	return id;
+}
+
+/** Saves an edit made from `revision`; an edit made meanwhile by someone else is not overwritten. */
+export function updateComponent(actor: Actor, id: string, revision: number, value: NewComponent): void {
+	db.transaction((tx) => {
+		const current = findComponent(id, tx);
+		if (!current) throw new RuleError('No component with this id.', { status: 404 });
+		if (current.revision !== revision) {
+			throw new RuleError(
+				`Someone saved this component after you opened it (revision ${current.revision}, yours ${revision}). Reload to see their change, then make yours again.`,
+				{ status: 409 }
+			);
+		}
+		const changed = Object.keys(value).filter(
+			(k) => JSON.stringify(value[k as keyof NewComponent] ?? null) !== JSON.stringify(current[k as keyof Component] ?? null)
+		);
+		tx.update(component)
+			.set({ ...value, synonyms: current.synonyms, revision: revision + 1, updatedAt: new Date() })
+			.where(eq(component.id, id))
+			.run();
+		recordAudit(actor, { action: 'component.updated', subjectType: 'component', subjectId: id, detail: { name: value.name, changed } }, tx);
+	});
+}

@@ -1,0 +1,173 @@
+import { and, eq, inArray, max, sql } from 'drizzle-orm';
+import { RECIPE_KINDS, type RecipeKind } from '$lib/recipes';
+import { recordAudit, type Actor } from '../audit';
+import { db, type Db } from '../db';
+import { recipe, recipeLine, recipeVersion, user, type RecipeVersion } from '../db/schema';
+import { RuleError } from '../rule-error';
+import type { CheckedFields, CheckedLine } from './draft';
+import { describedLinesOf, findVersionById, linesOf } from './queries';
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** Someone else saved the draft after this editor opened it: carries what they saved. */
+export class StaleEditError extends RuleError {
+	constructor(
+		message: string,
+		readonly theirs: {
+			revision: number;
+			byName: string | null;
+			at: Date;
+			fields: CheckedFields;
+			lines: ReturnType<typeof describedLinesOf>;
+		}
+	) {
+		super(message, { status: 409 });
+	}
+}
+
+export function fieldsOf(version: RecipeVersion): CheckedFields {
+	return {
+		targetPh: version.targetPh,
+		osmolalityMinMOsmPerKg: version.osmolalityMinMOsmPerKg,
+		osmolalityMaxMOsmPerKg: version.osmolalityMaxMOsmPerKg,
+		preparationTemperatureC: version.preparationTemperatureC,
+		shelfLifeDays: version.shelfLifeDays,
+		storage: version.storage,
+		instructions: version.instructions,
+		changeNote: version.changeNote
+	};
+}
+
+export function checkRecipeHead(input: { name: string; kind: string }, selfId?: string): { name: string; kind: RecipeKind } {
+	const name = input.name.trim();
+	if (!name) throw new RuleError('Give the recipe a name.', { field: 'name' });
+	if (name.length > 120) throw new RuleError('Keep the name to 120 characters.', { field: 'name' });
+	if (!(RECIPE_KINDS as readonly string[]).includes(input.kind)) {
+		throw new RuleError('Choose what kind of recipe this is.', { field: 'kind' });
+	}
+	const clash = db.select({ id: recipe.id }).from(recipe).where(sql`lower(${recipe.name}) = lower(${name})`).get();
+	if (clash && clash.id !== selfId) throw new RuleError(`A recipe named “${name}” already exists.`, { field: 'name' });
+	return { name, kind: input.kind as RecipeKind };
+}
+
+function insertLines(tx: Tx, versionId: string, lines: CheckedLine[]) {
+	for (const line of lines) {
+		tx.insert(recipeLine)
+			.values({
+				versionId,
+				position: line.position,
+				kind: line.kind,
+				componentId: line.componentId,
+				shelfFormId: line.shelfFormId,
+				stockRecipeId: line.stockRecipeId,
+				amount: line.amount,
+				unit: line.unit,
+				tolerancePercent: line.tolerancePercent,
+				note: line.note
+			})
+			.run();
+	}
+}
+
+/** A new recipe with an empty draft, version 1. Returns the recipe id. */
+export function createRecipe(actor: Actor, input: { name: string; kind: string }, fields?: Partial<CheckedFields>): string {
+	const head = checkRecipeHead(input);
+	return db.transaction((tx) => {
+		const recipeId = crypto.randomUUID();
+		tx.insert(recipe).values({ id: recipeId, name: head.name, kind: head.kind, ownerId: actor.id! }).run();
+		const versionId = crypto.randomUUID();
+		tx.insert(recipeVersion).values({ id: versionId, recipeId, n: 1, authorId: actor.id!, updatedById: actor.id, ...fields }).run();
+		recordAudit(actor, { action: 'recipe.created', subjectType: 'recipe', subjectId: recipeId, detail: { name: head.name, kind: head.kind, versionId } }, tx);
+		return recipeId;
+	});
+}
+
+function requireDraft(version: RecipeVersion | undefined): RecipeVersion {
+	if (!version) throw new RuleError('No such recipe version.', { status: 404 });
+	if (version.status !== 'draft') {
+		throw new RuleError(
+			`Version ${version.n} is ${version.status.replace('_', ' ')} and can no longer be edited; start a new draft from it.`,
+			{ status: 409 }
+		);
+	}
+	return version;
+}
+
+/**
+ * Saves a draft edited from `revision`. If anyone saved it since, nothing is written and the error
+ * carries their version, so the editor can show it beside the user's own unsaved lines.
+ */
+export function saveDraft(actor: Actor, versionId: string, revision: number, draft: { fields: CheckedFields; lines: CheckedLine[] }): number {
+	return db.transaction((tx) => {
+		const version = requireDraft(findVersionById(versionId, tx));
+		if (version.revision !== revision) {
+			const byName = version.updatedById ? (tx.select({ name: user.name }).from(user).where(eq(user.id, version.updatedById)).get()?.name ?? null) : null;
+			throw new StaleEditError(
+				`${byName ?? 'Someone'} saved this draft at ${version.updatedAt.toISOString().slice(11, 16)} UTC, after you opened it. Nothing of yours was saved: your lines are still here. Compare with theirs below, then save again to replace theirs, or take theirs.`,
+				{ revision: version.revision, byName, at: version.updatedAt, fields: fieldsOf(version), lines: describedLinesOf(version.id) }
+			);
+		}
+		const before = fieldsOf(version);
+		const changed = (Object.keys(draft.fields) as (keyof CheckedFields)[]).filter((k) => before[k] !== draft.fields[k]);
+		tx.update(recipeVersion)
+			.set({ ...draft.fields, revision: revision + 1, updatedById: actor.id, updatedAt: new Date() })
+			.where(eq(recipeVersion.id, versionId))
+			.run();
+		tx.delete(recipeLine).where(eq(recipeLine.versionId, versionId)).run();
+		insertLines(tx, versionId, draft.lines);
+		recordAudit(
+			actor,
+			{ action: 'recipe.draft_saved', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n, lines: draft.lines.length, changed, revision: revision + 1 } },
+			tx
+		);
+		return revision + 1;
+	});
+}
+
+/** Appends lines (a CSV import) to a draft, in one transaction. */
+export function appendLines(actor: Actor, versionId: string, lines: Omit<CheckedLine, 'position'>[]): void {
+	db.transaction((tx) => {
+		const version = requireDraft(findVersionById(versionId, tx));
+		const [{ last }] = tx.select({ last: max(recipeLine.position) }).from(recipeLine).where(eq(recipeLine.versionId, versionId)).all();
+		insertLines(tx, versionId, lines.map((l, i) => ({ ...l, position: (last ?? 0) + i + 1 })));
+		tx.update(recipeVersion).set({ revision: version.revision + 1, updatedById: actor.id, updatedAt: new Date() }).where(eq(recipeVersion.id, versionId)).run();
+		recordAudit(actor, { action: 'recipe.lines_imported', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n, lines: lines.length } }, tx);
+	});
+}
+
+/** A new draft copied from any version of the recipe; one open draft or review at a time. */
+export function startDraftFrom(actor: Actor, sourceVersionId: string): RecipeVersion {
+	return db.transaction((tx) => {
+		const source = findVersionById(sourceVersionId, tx);
+		if (!source) throw new RuleError('No such recipe version.', { status: 404 });
+		const open = tx
+			.select({ n: recipeVersion.n, status: recipeVersion.status })
+			.from(recipeVersion)
+			.where(and(eq(recipeVersion.recipeId, source.recipeId), inArray(recipeVersion.status, ['draft', 'in_review'])))
+			.get();
+		if (open) {
+			throw new RuleError(`Version ${open.n} is still ${open.status.replace('_', ' ')}; finish it (or return it to draft and edit it) before starting another.`, { status: 409 });
+		}
+		const [{ last }] = tx.select({ last: max(recipeVersion.n) }).from(recipeVersion).where(eq(recipeVersion.recipeId, source.recipeId)).all();
+		const created = tx
+			.insert(recipeVersion)
+			.values({
+				recipeId: source.recipeId,
+				n: (last ?? 0) + 1,
+				authorId: actor.id!,
+				updatedById: actor.id,
+				basedOnVersionId: source.id,
+				...fieldsOf(source),
+				changeNote: ''
+			})
+			.returning()
+			.get();
+		insertLines(tx, created.id, linesOf(source.id, tx));
+		recordAudit(
+			actor,
+			{ action: 'recipe.draft_started', subjectType: 'recipe_version', subjectId: created.id, detail: { n: created.n, basedOn: source.n } },
+			tx
+		);
+		return created;
+	});
+}

@@ -1,0 +1,94 @@
+import { createHash } from 'node:crypto';
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import { recordAudit, type Actor } from './audit';
+import { verifyPassword } from './auth/passwords';
+import { db, type Db } from './db';
+import { eSignature, user, type ESignature } from './db/schema';
+import { RuleError } from './rule-error';
+
+export interface SignatureRequest {
+	user: { id: string; email: string };
+	/** The signer's password, entered again for this signature. */
+	password: string;
+	/** What the signature means, e.g. 'reviewed', 'approved', 'performed', 'verified'. */
+	meaning: string;
+	subjectType: string;
+	subjectId: string;
+	/** SHA-256 of the content being signed (see `digestOf`). */
+	subjectDigest?: string;
+	comment?: string;
+	address?: string;
+}
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+type Writer = Pick<Db, 'insert'>;
+
+/** A stable SHA-256 of any JSON-serialisable content: what a signature is linked to. */
+export function digestOf(content: unknown): string {
+	return createHash('sha256').update(JSON.stringify(content)).digest('hex');
+}
+
+/**
+ * Checks the re-entered password (argon2) and, if right, opens one transaction that records the
+ * signature and runs `write` — the change the signature authorises — so neither exists without the
+ * other. A wrong password records nothing but an audit entry, and answers with a field error.
+ * (better-sqlite3 transactions are synchronous, so the password is checked before the transaction opens.)
+ */
+export async function signRecord<T>(request: SignatureRequest, write: (tx: Tx, signature: ESignature) => T): Promise<T> {
+	const signer = db.select().from(user).where(eq(user.id, request.user.id)).get();
+	if (!signer || !signer.active) throw new RuleError('This account cannot sign.', { status: 403 });
+	const actor: Actor = { id: signer.id, email: signer.email, address: request.address ?? null };
+	if (!request.password) {
+		throw new RuleError('Enter your password to sign.', { field: 'password' });
+	}
+	if (!(await verifyPassword(signer.passwordHash, request.password))) {
+		recordAudit(actor, {
+			action: 'signature.refused',
+			subjectType: request.subjectType,
+			subjectId: request.subjectId,
+			detail: { meaning: request.meaning, reason: 'wrong password' }
+		});
+		throw new RuleError('The password is not right for your account; nothing was signed.', { field: 'password' });
+	}
+	return db.transaction((tx) => {
+		const signature = insertSignature(
+			{
+				signerId: signer.id,
+				signerEmail: signer.email,
+				signerName: signer.name,
+				meaning: request.meaning,
+				subjectType: request.subjectType,
+				subjectId: request.subjectId,
+				subjectDigest: request.subjectDigest ?? null,
+				comment: request.comment ?? ''
+			},
+			tx
+		);
+		recordAudit(
+			actor,
+			{
+				action: 'signature.recorded',
+				subjectType: request.subjectType,
+				subjectId: request.subjectId,
+				detail: { meaning: request.meaning, signatureId: signature.id, digest: signature.subjectDigest }
+			},
+			tx
+		);
+		return write(tx, signature);
+	});
+}
+
+/** The bare insert, for seeding history; normal signing goes through `signRecord`. */
+export function insertSignature(values: typeof eSignature.$inferInsert, writer: Writer = db): ESignature {
+	return writer.insert(eSignature).values(values).returning().get();
+}
+
+export function signaturesFor(subjectType: string, subjectIds: string[]): ESignature[] {
+	if (subjectIds.length === 0) return [];
+	return db
+		.select()
+		.from(eSignature)
+		.where(and(eq(eSignature.subjectType, subjectType), inArray(eSignature.subjectId, subjectIds)))
+		.orderBy(asc(eSignature.signedAt))
+		.all();
+}

@@ -1,0 +1,25 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { requireComponentEditor } from '$lib/server/components/access';
+import { checkComponentText, COMPONENT_FIELDS, componentText, createComponent, listComponents } from '$lib/server/components/library';
+import { formValues } from '$lib/server/forms';
+import { db } from '$lib/server/db';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async () => {
+	requireComponentEditor();
+	return { values: componentText(undefined) as Record<string, string>, basisChoices: listComponents().filter((c) => !c.basisComponentId).map((c) => ({ id: c.id, name: c.name })) };
+};
+
+export const actions: Actions = {
+	save: async ({ request }) => {
+		const actor = requireComponentEditor();
+		const formData = await request.formData();
+		const input = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, String(formData.get(f) ?? '')]));
+		const checked = checkComponentText(input);
+		if (!checked.ok) {
+			return fail(400, { message: 'Nothing was saved: correct the fields marked below.', fieldErrors: checked.fieldErrors, values: formValues(formData) });
+		}
+		const id = db.transaction((tx) => createComponent(actor, checked.value, tx));
+		redirect(303, `/components/${id}?created=1`);
+	}
+};

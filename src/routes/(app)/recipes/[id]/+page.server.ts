@@ -1,0 +1,35 @@
+import { error, redirect } from '@sveltejs/kit';
+import { hasRole } from '$lib/roles';
+import { ruleFailure } from '$lib/server/forms';
+import { requireUser } from '$lib/server/guard';
+import { RuleError } from '$lib/server/rule-error';
+import { RECIPE_EDITORS, requireRecipeEditor } from '$lib/server/recipes/access';
+import { startDraftFrom } from '$lib/server/recipes/drafts';
+import { findRecipe } from '$lib/server/recipes/queries';
+import { recipeView } from '$lib/server/recipes/view';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ params }) => {
+	const user = requireUser();
+	try {
+		return { ...recipeView(params.id), canEdit: hasRole(user, RECIPE_EDITORS) };
+	} catch (cause) {
+		if (cause instanceof RuleError) error(cause.status, { message: cause.message });
+		throw cause;
+	}
+};
+
+export const actions: Actions = {
+	newDraft: async ({ request, params }) => {
+		const actor = requireRecipeEditor();
+		const formData = await request.formData();
+		if (!findRecipe(params.id)) error(404, { message: 'No recipe with this id.' });
+		let n: number;
+		try {
+			n = startDraftFrom(actor, String(formData.get('versionId') ?? '')).n;
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		redirect(303, `/recipes/${params.id}/versions/${n}/edit`);
+	}
+};

@@ -1,0 +1,108 @@
+import { error, redirect } from '@sveltejs/kit';
+import { z } from 'zod';
+import { hasRole } from '$lib/roles';
+import { SIGNATURE_MEANINGS } from '$lib/recipes';
+import { auditEventsFor } from '$lib/server/audit';
+import { parseForm, ruleFailure } from '$lib/server/forms';
+import { requireRole, requireUser } from '$lib/server/guard';
+import { actorOf, RECIPE_EDITORS, requireRecipeEditor, versionNumber } from '$lib/server/recipes/access';
+import { startDraftFrom } from '$lib/server/recipes/drafts';
+import { loadVersionView } from '$lib/server/recipes/page-load';
+import { findVersion } from '$lib/server/recipes/queries';
+import { APPROVER_ROLES, returnToDraft, retireVersion, signingRefusal, signVersion, submitForReview, versionDigest } from '$lib/server/recipes/workflow';
+import type { Actions, PageServerLoad } from './$types';
+
+const signForm = z.object({
+	meaning: z.enum(SIGNATURE_MEANINGS, { error: 'Choose what your signature means: reviewed or approved.' }),
+	password: z.string().min(1, 'Enter your password to sign.').max(256),
+	comment: z.string().max(1000, 'Keep the comment to 1 000 characters.').default('')
+});
+const returnForm = z.object({ comment: z.string().trim().min(1, 'Say what needs to change, so the author knows.').max(1000) });
+const retireForm = z.object({
+	confirm: z.literal('yes', { error: 'Tick the box to confirm.' }),
+	reason: z.string().trim().min(1, 'Say why it is retired.').max(1000)
+});
+
+export const load: PageServerLoad = async ({ params }) => {
+	const user = requireUser();
+	const view = loadVersionView(params);
+	return {
+		...view,
+		digest: versionDigest(view.version),
+		history: auditEventsFor('recipe_version', view.version.id),
+		canEdit: hasRole(user, RECIPE_EDITORS),
+		canReview: hasRole(user, APPROVER_ROLES),
+		signingRefusal: signingRefusal(user, view.version)
+	};
+};
+
+function currentVersion(params: { id: string; n: string }) {
+	const version = findVersion(params.id, versionNumber(params.n));
+	if (!version) error(404, { message: 'No such recipe version.' });
+	return version;
+}
+
+export const actions: Actions = {
+	submit: async ({ request, params }) => {
+		const actor = requireRecipeEditor();
+		const formData = await request.formData();
+		const version = currentVersion(params);
+		try {
+			submitForReview(actor, version.id, Number(formData.get('revision')));
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		return { done: `Version ${version.n} is submitted for review.` };
+	},
+	sign: async ({ request, params }) => {
+		const user = requireRole(...APPROVER_ROLES);
+		const formData = await request.formData();
+		const parsed = parseForm(signForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		const version = currentVersion(params);
+		try {
+			await signVersion(actorOf(user), version.id, parsed.data);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		return { done: parsed.data.meaning === 'approved' ? `Version ${version.n} is approved. Your signature is recorded.` : 'Your review signature is recorded.' };
+	},
+	sendBack: async ({ request, params }) => {
+		const user = requireRole(...APPROVER_ROLES);
+		const formData = await request.formData();
+		const parsed = parseForm(returnForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		const version = currentVersion(params);
+		try {
+			returnToDraft(actorOf(user), version.id, parsed.data.comment);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		return { done: `Version ${version.n} is back in draft.` };
+	},
+	retire: async ({ request, params }) => {
+		const actor = requireRecipeEditor();
+		const formData = await request.formData();
+		const parsed = parseForm(retireForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		const version = currentVersion(params);
+		try {
+			retireVersion(actor, version.id, parsed.data.reason);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		return { done: `Version ${version.n} is retired.` };
+	},
+	newDraft: async ({ request, params }) => {
+		const actor = requireRecipeEditor();
+		const formData = await request.formData();
+		const version = currentVersion(params);
+		let n: number;
+		try {
+			n = startDraftFrom(actor, version.id).n;
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		redirect(303, `/recipes/${params.id}/versions/${n}/edit`);
+	}
+};

@@ -1,0 +1,66 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { listComponents } from '$lib/server/components/library';
+import { RuleError } from '$lib/server/rule-error';
+import { requireRecipeEditor, versionNumber } from '$lib/server/recipes/access';
+import { analyseLines } from '$lib/server/recipes/analysis';
+import { checkDraft, readDraftForm } from '$lib/server/recipes/draft';
+import { fieldsOf, saveDraft, StaleEditError } from '$lib/server/recipes/drafts';
+import { findRecipe, findVersion, linesOf, listStockRecipes } from '$lib/server/recipes/queries';
+import { toDraftFields, toDraftLines } from '$lib/server/recipes/editor-data';
+import type { Actions, PageServerLoad } from './$types';
+
+function draftVersion(params: { id: string; n: string }) {
+	const recipe = findRecipe(params.id);
+	if (!recipe) error(404, { message: 'No recipe with this id.' });
+	const version = findVersion(recipe.id, versionNumber(params.n));
+	if (!version) error(404, { message: `${recipe.name} has no version ${params.n}.` });
+	return { recipe, version };
+}
+
+export const load: PageServerLoad = async ({ params }) => {
+	requireRecipeEditor();
+	const { recipe, version } = draftVersion(params);
+	if (version.status !== 'draft') redirect(303, `/recipes/${recipe.id}/versions/${version.n}`);
+	return {
+		recipe,
+		version: { id: version.id, n: version.n, revision: version.revision },
+		fields: toDraftFields(fieldsOf(version)),
+		lines: toDraftLines(linesOf(version.id)),
+		components: listComponents().map((c) => ({ id: c.id, name: c.name, formula: c.formula, basisComponentId: c.basisComponentId })),
+		stocks: listStockRecipes().filter((s) => s.id !== recipe.id)
+	};
+};
+
+export const actions: Actions = {
+	save: async ({ request, params }) => {
+		const actor = requireRecipeEditor();
+		const formData = await request.formData();
+		const draft = readDraftForm(formData);
+		const { recipe, version } = draftVersion(params);
+		const revision = Number(formData.get('revision'));
+		const checked = checkDraft(draft, recipe.id);
+		if (!checked.ok) {
+			const count = Object.keys(checked.fieldErrors).length;
+			return fail(400, { message: `Nothing was saved: ${count === 1 ? 'one input needs' : `${count} inputs need`} attention, marked below.`, fieldErrors: checked.fieldErrors, draft });
+		}
+		try {
+			analyseLines(checked.value.lines, { temperatureC: checked.value.fields.preparationTemperatureC, osmolalityMinMOsmPerKg: null, osmolalityMaxMOsmPerKg: null, recipeId: recipe.id });
+			const newRevision = saveDraft(actor, version.id, revision, checked.value);
+			return { saved: true, revision: newRevision, savedAt: new Date().toISOString() };
+		} catch (cause) {
+			if (cause instanceof StaleEditError) {
+				const theirs = cause.theirs;
+				return fail(409, {
+					message: cause.message,
+					fieldErrors: {} as Record<string, string[]>,
+					draft,
+					conflict: { revision: theirs.revision, byName: theirs.byName, at: theirs.at.toISOString(), fields: toDraftFields(theirs.fields), lines: toDraftLines(theirs.lines), names: theirs.lines.map((l) => l.componentName ?? l.stockRecipeName ?? '') }
+				});
+			}
+			if (cause instanceof RuleError) {
+				return fail(cause.status, { message: `Nothing was saved: ${cause.message}`, fieldErrors: cause.field ? { [cause.field]: [cause.message] } : {}, draft });
+			}
+			throw cause;
+		}
+	}
+};

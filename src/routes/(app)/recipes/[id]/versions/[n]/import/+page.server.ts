@@ -1,0 +1,36 @@
+import { error } from '@sveltejs/kit';
+import { requireRecipeEditor, versionNumber } from '$lib/server/recipes/access';
+import { confirmStep, previewStep } from '$lib/server/csv-actions';
+import { importLineCsv, previewLineCsv } from '$lib/server/recipes/csv';
+import { findRecipe, findVersion } from '$lib/server/recipes/queries';
+import type { Actions, PageServerLoad } from './$types';
+
+function draftOf(params: { id: string; n: string }) {
+	const recipe = findRecipe(params.id);
+	const version = recipe ? findVersion(recipe.id, versionNumber(params.n)) : undefined;
+	if (!recipe || !version) error(404, { message: 'No such recipe version.' });
+	return { recipe, version };
+}
+
+export const load: PageServerLoad = async ({ params }) => {
+	requireRecipeEditor();
+	const { recipe, version } = draftOf(params);
+	return { recipe, version: { n: version.n, status: version.status } };
+};
+
+export const actions: Actions = {
+	preview: async ({ request, params }) => {
+		requireRecipeEditor();
+		const { version } = draftOf(params);
+		return previewStep(await request.formData(), (text) => previewLineCsv(version, text));
+	},
+	confirm: async ({ request, params }) => {
+		const actor = requireRecipeEditor();
+		const { version } = draftOf(params);
+		return confirmStep(
+			await request.formData(),
+			(text) => importLineCsv(actor, version, text),
+			(count) => `${count} line${count === 1 ? '' : 's'} added to version ${version.n}.`
+		);
+	}
+};
