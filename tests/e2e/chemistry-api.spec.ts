@@ -1,5 +1,14 @@
 import { expect, test } from './fixtures';
 
+const AEROBIC_GLUCOSE_SPECIES = [
+	{ id: 'glucose', formula: 'C6H12O6' },
+	{ id: 'oxygen', formula: 'O2' },
+	{ id: 'ammonia', formula: 'NH3' },
+	{ id: 'biomass', formula: 'CH1.8O0.5N0.2', ashFraction: 0.05 },
+	{ id: 'co2', formula: 'CO2' },
+	{ id: 'water', formula: 'H2O' }
+];
+
 test.describe('science endpoints need a signed-in user', () => {
 	for (const path of ['/api/v1/formula', '/api/v1/stoichiometry', '/api/v1/oxygen/saturation', '/api/v1/sufficiency']) {
 		test(`${path} answers 401 problem+json when signed out`, async ({ request }) => {
@@ -51,14 +60,7 @@ test.describe('science endpoints, signed in', () => {
 	test('stoichiometry: an under-specified balance says how many more specifications are needed', async ({ page }) => {
 		const response = await page.request.post('/api/v1/stoichiometry', {
 			data: {
-				species: [
-					{ id: 'glucose', formula: 'C6H12O6' },
-					{ id: 'oxygen', formula: 'O2' },
-					{ id: 'ammonia', formula: 'NH3' },
-					{ id: 'biomass', formula: 'CH1.8O0.5N0.2', ashFraction: 0.05 },
-					{ id: 'co2', formula: 'CO2' },
-					{ id: 'water', formula: 'H2O' }
-				],
+				species: AEROBIC_GLUCOSE_SPECIES,
 				specifications: [{ kind: 'rate', species: 'glucose', mol: -1 }]
 			}
 		});
@@ -69,14 +71,7 @@ test.describe('science endpoints, signed in', () => {
 	test('stoichiometry: a determined aerobic glucose balance closes', async ({ page }) => {
 		const response = await page.request.post('/api/v1/stoichiometry', {
 			data: {
-				species: [
-					{ id: 'glucose', formula: 'C6H12O6' },
-					{ id: 'oxygen', formula: 'O2' },
-					{ id: 'ammonia', formula: 'NH3' },
-					{ id: 'biomass', formula: 'CH1.8O0.5N0.2', ashFraction: 0.05 },
-					{ id: 'co2', formula: 'CO2' },
-					{ id: 'water', formula: 'H2O' }
-				],
+				species: AEROBIC_GLUCOSE_SPECIES,
 				specifications: [
 					{ kind: 'rate', species: 'glucose', mol: -1 },
 					{ kind: 'massYield', product: 'biomass', substrate: 'glucose', gPerG: 0.5 }
