@@ -10,6 +10,7 @@ export interface NavItem {
 
 export const NAVIGATION: NavItem[] = [
 	{ href: '/', label: 'Overview', roles: [], section: 'Work' },
+	{ href: '/simulation', label: 'Process simulation', roles: ['engineer', 'media_scientist'], section: 'Work' },
 	{ href: '/admin/people', label: 'People', roles: ['admin'], section: 'Administration' },
 	{ href: '/admin/outbox', label: 'Outbox', roles: ['admin'], section: 'Administration' },
 	{ href: '/admin/audit', label: 'Audit trail', roles: ['admin'], section: 'Administration' }

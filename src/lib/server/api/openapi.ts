@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { Role } from '$lib/roles';
 import { chemistryOperations } from './operations/chemistry';
 import { foundationOperations } from './operations/foundation';
+import { simulationOperations } from './operations/simulation';
 
 export interface ApiOperation {
 	method: 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -42,7 +43,7 @@ function toSchema(schema: z.ZodType, io: 'input' | 'output') {
 }
 
 export function allOperations(): ApiOperation[] {
-	return [...foundationOperations, ...chemistryOperations];
+	return [...foundationOperations, ...chemistryOperations, ...simulationOperations];
 }
 
 export function buildOpenApiDocument(origin: string) {
