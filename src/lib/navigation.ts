@@ -12,6 +12,7 @@ export const NAVIGATION: NavItem[] = [
 	{ href: '/', label: 'Overview', roles: [], section: 'Work' },
 	{ href: '/recipes', label: 'Recipes', roles: [], section: 'Work' },
 	{ href: '/components', label: 'Components', roles: [], section: 'Work' },
+	{ href: '/simulation', label: 'Process simulation', roles: ['engineer', 'media_scientist'], section: 'Work' },
 	{ href: '/admin/people', label: 'People', roles: ['admin'], section: 'Administration' },
 	{ href: '/admin/outbox', label: 'Outbox', roles: ['admin'], section: 'Administration' },
 	{ href: '/admin/audit', label: 'Audit trail', roles: ['admin'], section: 'Administration' }

@@ -19,6 +19,36 @@ for (const [role, path] of Object.entries(REFUSED) as [DemoRole, string][]) {
 	});
 }
 
+const REFUSED_SIMULATION: DemoRole[] = ['admin', 'prep_technician', 'inventory_lead'];
+
+for (const role of REFUSED_SIMULATION) {
+	test.describe(`${role} and the simulation pages`, () => {
+		test.use({ role });
+		for (const path of ['/simulation', '/simulation/continuous', '/simulation/fit']) {
+			test(`is refused ${path} with a 403 page that says why`, async ({ page }) => {
+				const response = await page.goto(path);
+				expect(response?.status()).toBe(403);
+				await expect(page.getByRole('heading', { name: 'This page is not open to you' })).toBeVisible();
+				await expect(page.getByTestId('error-message')).toContainText('This needs the role Process engineer or Media scientist');
+			});
+		}
+		test('is refused the saved scenarios endpoint with a 403 problem', async ({ page }) => {
+			const response = await page.request.get('/api/v1/scenarios');
+			expect(response.status()).toBe(403);
+			expect(response.headers()['content-type']).toContain('application/problem+json');
+		});
+	});
+}
+
+test.describe('media_scientist and the simulation page', () => {
+	test.use({ role: 'media_scientist' });
+	test('may open it', async ({ page }) => {
+		const response = await page.goto('/simulation');
+		expect(response?.status()).toBe(200);
+		await expect(page.getByRole('heading', { name: 'Process simulation' })).toBeVisible();
+	});
+});
+
 test.describe('signed out', () => {
 	test('a page sends you to sign in and back, without a loop', async ({ page }) => {
 		await page.goto('/admin/people');

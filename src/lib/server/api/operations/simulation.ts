@@ -1,0 +1,235 @@
+import { z } from 'zod';
+import { SIMULATION_ROLES } from '$lib/simulation/roles';
+import type { ApiOperation } from '../openapi';
+
+// Shapes only: ranges and cross-field rules (μset < μmax, S_f > S, end time, output count) are the
+// science library's, so its messages, which name the field, reach the user unchanged.
+const finite = z.number({ error: 'Give a number.' });
+const optionalNumber = finite.optional();
+
+export const simulationModes = ['batch', 'fedBatch', 'chemostat', 'perfusion', 'drawFill'] as const;
+export const feedStrategies = ['constant', 'linear', 'exponential', 'substrateStat', 'doStat', 'expression'] as const;
+
+export const simulateRequest = z.strictObject({
+	mode: z.enum(simulationModes),
+	kinetics: z.strictObject({
+		muMaxPerH: finite.describe('1/h'),
+		ksGPerL: finite.describe('g/L'),
+		yieldXS: finite.describe('g biomass / g substrate'),
+		maintenanceGPerGH: optionalNumber.describe('g substrate / g biomass / h'),
+		yieldXO2: optionalNumber.describe('g biomass / g O2; required with oxygen'),
+		koMgPerL: optionalNumber.describe('mg/L'),
+		alpha: optionalNumber.describe('g product / g biomass'),
+		beta: optionalNumber.describe('g product / g biomass / h')
+	}),
+	initial: z.strictObject({
+		biomassGPerL: finite,
+		substrateGPerL: finite,
+		volumeL: finite,
+		dissolvedOxygenMgPerL: optionalNumber,
+		productGPerL: optionalNumber
+	}),
+	feed: z
+		.strictObject({
+			strategy: z.enum(feedStrategies),
+			substrateGPerL: finite,
+			rateLPerH: optionalNumber,
+			slopeLPerH2: optionalNumber,
+			muSetPerH: optionalNumber,
+			setpointGPerL: optionalNumber,
+			doSetpointMgPerL: optionalNumber,
+			expression: z.string().max(2000).optional().describe('arithmetic in t, X, S, P, V, DO'),
+			startH: optionalNumber,
+			bolusL: optionalNumber,
+			maxRateLPerH: optionalNumber
+		})
+		.optional(),
+	oxygen: z
+		.strictObject({ kLaPerH: finite, saturationMgPerL: finite, maintenanceMgPerGH: optionalNumber })
+		.optional()
+		.describe('absent: no O2 balance and no O2 limitation'),
+	perfusion: z.strictObject({ retentionEfficiency: finite, bleedPerH: finite }).optional(),
+	drawFill: z.strictObject({ fraction: finite, everyH: finite }).optional(),
+	dilutionPerH: optionalNumber,
+	maxVolumeL: optionalNumber,
+	endH: finite,
+	outputEveryH: finite
+});
+
+export type SimulateRequest = z.infer<typeof simulateRequest>;
+
+const series = z.array(z.number());
+const nullableSeries = series.nullable();
+
+export const simulateResponse = z.object({
+	t: series.describe('h'),
+	biomassGPerL: series,
+	substrateGPerL: series,
+	productGPerL: series,
+	volumeL: series,
+	dissolvedOxygenMgPerL: nullableSeries,
+	feedLPerH: series,
+	ourMmolPerLH: nullableSeries,
+	maxOtrMmolPerLH: nullableSeries.describe('kLa·C*, mmol/L/h'),
+	events: z.array(z.object({ kind: z.string(), tH: z.number(), message: z.string() })),
+	stoppedAtH: z.number().optional()
+}).loose();
+
+export const chemostatRequest = z.strictObject({
+	muMaxPerH: finite,
+	ksGPerL: finite,
+	yieldXS: finite,
+	feedSubstrateGPerL: finite,
+	dilutionPerH: finite,
+	safetyMargin: finite.optional().describe('fraction below D_crit, 0 ≤ margin < 1'),
+	sweepPoints: z.int().optional()
+});
+
+const operatingPoint = z.object({
+	dilutionPerH: z.number(),
+	biomassGPerL: z.number(),
+	substrateGPerL: z.number(),
+	productivityGPerLH: z.number()
+});
+
+export const chemostatResponse = z.object({
+	biomassGPerL: z.number(),
+	substrateGPerL: z.number(),
+	productivityGPerLH: z.number(),
+	criticalDilutionPerH: z.number(),
+	optimalDilutionPerH: z.number(),
+	washout: z.boolean(),
+	sweep: z.array(operatingPoint),
+	marginDilutionPerH: z.number().optional(),
+	productivityLostToMargin: z.number().optional()
+});
+
+export const batchVersusContinuousRequest = z.strictObject({
+	muMaxPerH: finite,
+	ksGPerL: finite,
+	yieldXS: finite,
+	substrateGPerL: finite.describe('batch initial substrate and chemostat feed, g/L'),
+	inoculumGPerL: finite,
+	dilutionPerH: finite,
+	turnaround: z.strictObject({
+		cleaningH: optionalNumber,
+		sterilisingH: optionalNumber,
+		fillingH: optionalNumber,
+		lagH: optionalNumber
+	}),
+	conversion: finite.optional().describe('fraction of substrate used at harvest; default 0.99')
+});
+
+export const fitGrowthRequest = z.strictObject({
+	timeH: z.array(finite).max(5000),
+	biomassGPerL: z.array(finite).max(5000),
+	substrateGPerL: z.array(finite).max(5000).optional(),
+	dissolvedOxygenMgPerL: z.array(finite).max(5000).optional(),
+	minRSquared: finite.optional(),
+	fitYield: z.boolean().optional()
+});
+
+const scenarioName = z
+	.string({ error: 'Give the scenario a name.' })
+	.trim()
+	.min(1, 'Give the scenario a name.')
+	.max(120, 'Keep the name to 120 characters.');
+const scenarioNotes = z.string().max(2000, 'Keep the notes to 2000 characters.');
+
+export const scenarioCreateRequest = z.strictObject({
+	name: scenarioName,
+	notes: scenarioNotes.optional(),
+	request: simulateRequest
+});
+
+export const scenarioUpdateRequest = z
+	.strictObject({ name: scenarioName.optional(), notes: scenarioNotes.nullable().optional() })
+	.refine((body) => body.name !== undefined || body.notes !== undefined, 'Send a new name or notes.');
+
+export const scenarioResponse = z.object({
+	id: z.string(),
+	name: z.string(),
+	mode: z.enum(simulationModes),
+	notes: z.string().nullable(),
+	request: simulateRequest,
+	createdAt: z.string(),
+	updatedAt: z.string()
+});
+
+const simulationRoles: ApiOperation['access'] = [...SIMULATION_ROLES];
+
+export const simulationOperations: ApiOperation[] = [
+	{
+		method: 'post',
+		path: '/api/v1/simulate',
+		summary:
+			'Simulates a batch, fed-batch, chemostat, perfusion or draw-fill run (Monod growth, Pirt maintenance, Luedeking–Piret product, optional O2 balance) and returns the series at the output times with the events. A run that cannot be integrated answers 422. Results are model estimates',
+		access: 'signed-in',
+		request: simulateRequest,
+		response: simulateResponse
+	},
+	{
+		method: 'post',
+		path: '/api/v1/chemostat/steady-state',
+		summary:
+			'Monod chemostat steady state at a dilution rate (Herbert, Elsworth & Telling 1956): X, S, D·X, D_crit, D_opt, washout, a sweep from D = 0 to D_crit, and the productivity lost to a safety margin below D_crit',
+		access: 'signed-in',
+		request: chemostatRequest,
+		response: chemostatResponse
+	},
+	{
+		method: 'post',
+		path: '/api/v1/productivity/batch-vs-continuous',
+		summary:
+			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio',
+		access: 'signed-in',
+		request: batchVersusContinuousRequest
+	},
+	{
+		method: 'post',
+		path: '/api/v1/fit/growth',
+		summary:
+			'Fits run data: exponential phase, μmax and doubling time with 95 % intervals, Yx/s from −dX/dS, and μmax, Ks, Yx/s over the whole curve (needs substrate data)',
+		access: 'signed-in',
+		request: fitGrowthRequest
+	},
+	{
+		method: 'get',
+		path: '/api/v1/scenarios',
+		summary: 'The signed-in user’s saved simulation scenarios, newest first',
+		access: simulationRoles,
+		response: z.array(scenarioResponse)
+	},
+	{
+		method: 'post',
+		path: '/api/v1/scenarios',
+		summary: 'Saves a simulation scenario (name unique per user)',
+		access: simulationRoles,
+		request: scenarioCreateRequest,
+		response: scenarioResponse,
+		successStatus: 201
+	},
+	{
+		method: 'get',
+		path: '/api/v1/scenarios/{id}',
+		summary: 'One of the signed-in user’s scenarios',
+		access: simulationRoles,
+		response: scenarioResponse
+	},
+	{
+		method: 'patch',
+		path: '/api/v1/scenarios/{id}',
+		summary: 'Renames a scenario or changes its notes',
+		access: simulationRoles,
+		request: scenarioUpdateRequest,
+		response: scenarioResponse
+	},
+	{
+		method: 'delete',
+		path: '/api/v1/scenarios/{id}',
+		summary: 'Deletes one of the signed-in user’s scenarios',
+		access: simulationRoles,
+		successStatus: 204,
+		responseDescription: 'Deleted'
+	}
+];

@@ -1,0 +1,31 @@
+import { simulateRun, SimulationFailedError, type SimulationRequest } from '$chemistry';
+import { ApiProblem } from './api/endpoint';
+import type { SimulateRequest } from './api/operations/simulation';
+
+const FAILURE_ADVICE: Record<SimulationFailedError['reason'], string> = {
+	stepLimit: 'the model became too stiff to follow; try a shorter end time, a gentler feed or a larger Ks',
+	nonFinite: 'a value grew without bound; check the feed and the kinetic parameters',
+	negativeState: 'a concentration went below zero; check the feed and the yields',
+	integratorMissing: 'the integrator is not available on this server'
+};
+
+/**
+ * Runs the simulation; a run the integrator cannot follow is a 422 that says where it stopped,
+ * never a 500 and never numbers that cannot be trusted.
+ */
+export function runSimulation(request: SimulateRequest) {
+	try {
+		const { tolerances, integratorSteps, quasiSteadyOxygenH, ...result } = simulateRun(
+			request as SimulationRequest
+		);
+		return { ...result, quasiSteadyOxygenH, tolerances, integratorSteps };
+	} catch (cause) {
+		if (cause instanceof SimulationFailedError) {
+			throw new ApiProblem(
+				422,
+				`The simulation did not converge at t = ${cause.tH.toFixed(2)} h: ${FAILURE_ADVICE[cause.reason]}. (${cause.message})`
+			);
+		}
+		throw cause;
+	}
+}

@@ -1,0 +1,90 @@
+import type { SimulationEvent, SimulationEventKind } from '$chemistry';
+import { SCENARIO_DASHES, SERIES_COLOURS, type ChartMarker, type ChartSeries } from '$lib/components/charts/chart-types';
+import type { SimulationSeries } from './series-csv';
+
+export interface SimulationRunView {
+	label: string;
+	result: SimulationSeries & { events: SimulationEvent[]; stoppedAtH?: number };
+}
+
+export const EVENT_LABELS: Record<SimulationEventKind, string> = {
+	substrateExhausted: 'Substrate exhausted',
+	oxygenLimited: 'Oxygen-limited',
+	oxygenDepleted: 'Oxygen depleted',
+	maxVolumeReached: 'Maximum volume',
+	washout: 'Washout',
+	feedStarted: 'Feed started',
+	draw: 'Draw'
+};
+
+type Quantity = { key: keyof SimulationSeries; label: string; colour: string; axis?: 'y' | 'y2' };
+
+export interface ChartSpec {
+	id: string;
+	title: string;
+	yTitle: string;
+	y2Title?: string;
+	series: ChartSeries[];
+	markers: ChartMarker[];
+}
+
+function toPoints(t: number[], values: number[] | null): { x: number; y: number }[] {
+	if (!values) return [];
+	return t.map((x, i) => ({ x, y: values[i] }));
+}
+
+/** The four chart groups; a second run is drawn in the same colours with a dashed line. */
+export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
+	const many = runs.length > 1;
+	const markers: ChartMarker[] = runs.flatMap((run) =>
+		run.result.events
+			.filter((e) => e.kind !== 'draw')
+			.map((e) => ({ x: e.tH, label: `${many ? `${run.label}: ` : ''}${EVENT_LABELS[e.kind] ?? e.kind}` }))
+	);
+	const chart = (id: string, title: string, yTitle: string, quantities: Quantity[], y2Title?: string): ChartSpec => ({
+		id,
+		title,
+		yTitle,
+		y2Title,
+		markers,
+		series: runs.flatMap((run, r) =>
+			quantities
+				.filter((q) => run.result[q.key] !== null)
+				.map((q) => ({
+					label: many ? `${run.label}: ${q.label}` : q.label,
+					points: toPoints(run.result.t, run.result[q.key] as number[]),
+					colour: q.colour,
+					dash: SCENARIO_DASHES[r % SCENARIO_DASHES.length],
+					axis: q.axis
+				}))
+		)
+	});
+	const [green, grain, blue, brick, moss] = SERIES_COLOURS;
+	const specs = [
+		chart('concentrations', 'Biomass, substrate and product', 'Concentration (g/L)', [
+			{ key: 'biomassGPerL', label: 'Biomass X', colour: green },
+			{ key: 'substrateGPerL', label: 'Substrate S', colour: grain },
+			{ key: 'productGPerL', label: 'Product P', colour: moss }
+		]),
+		chart(
+			'volume',
+			'Volume and feed rate',
+			'Volume (L)',
+			[
+				{ key: 'volumeL', label: 'Volume V', colour: blue },
+				{ key: 'feedLPerH', label: 'Feed rate F', colour: brick, axis: 'y2' }
+			],
+			'Feed rate (L/h)'
+		)
+	];
+	if (runs.some((run) => run.result.dissolvedOxygenMgPerL !== null)) {
+		specs.push(chart('oxygen', 'Dissolved oxygen', 'DO (mg/L)', [{ key: 'dissolvedOxygenMgPerL', label: 'DO', colour: blue }]));
+		specs.push(
+			chart('uptake', 'Oxygen uptake against the maximum transfer rate', 'Rate (mmol O₂/L/h)', [
+				{ key: 'ourMmolPerLH', label: 'OUR', colour: green },
+				{ key: 'maxOtrMmolPerLH', label: 'Maximum OTR (kLa·C*)', colour: brick }
+			])
+		);
+	}
+	return specs;
+}

@@ -1,0 +1,7 @@
+import { compareBatchWithContinuous } from '$chemistry';
+import { endpoint } from '$lib/server/api/endpoint';
+import { batchVersusContinuousRequest } from '$lib/server/api/operations/simulation';
+
+export const POST = endpoint({ access: { roles: [] }, body: batchVersusContinuousRequest }, ({ body }) =>
+	compareBatchWithContinuous(body)
+);

@@ -1,0 +1,5 @@
+import { endpoint } from '$lib/server/api/endpoint';
+import { simulateRequest } from '$lib/server/api/operations/simulation';
+import { runSimulation } from '$lib/server/simulation';
+
+export const POST = endpoint({ access: { roles: [] }, body: simulateRequest }, ({ body }) => runSimulation(body));

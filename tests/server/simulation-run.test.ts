@@ -1,0 +1,56 @@
+import { describe, expect, it } from 'vitest';
+import { ChemistryInputError } from '$chemistry';
+import { ApiProblem } from '$lib/server/api/endpoint';
+import { simulateRequest } from '$lib/server/api/operations/simulation';
+import { runSimulation } from '$lib/server/simulation';
+
+const fedBatch = {
+	mode: 'fedBatch',
+	kinetics: { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5 },
+	initial: { biomassGPerL: 0.1, substrateGPerL: 20, volumeL: 5 },
+	feed: { strategy: 'expression', substrateGPerL: 500, expression: '0.1', startH: 4 },
+	endH: 24,
+	outputEveryH: 0.5
+} as const;
+
+function failureOf(run: () => unknown): unknown {
+	try {
+		run();
+	} catch (error) {
+		return error;
+	}
+	return null;
+}
+
+describe('the simulate endpoint’s mapping', () => {
+	it('returns the series at the output times, without O2 series when no oxygen block is given', () => {
+		const result = runSimulation(simulateRequest.parse(fedBatch));
+		expect(result.t).toHaveLength(49);
+		expect(result.t[48]).toBe(24);
+		expect(result.biomassGPerL).toHaveLength(49);
+		expect(result.dissolvedOxygenMgPerL).toBeNull();
+		expect(result.ourMmolPerLH).toBeNull();
+		expect(result.events.map((e) => e.kind)).toContain('feedStarted');
+	});
+
+	it('turns an integration that cannot go on into a 422 problem that says where it stopped', () => {
+		const body = simulateRequest.parse({ ...fedBatch, feed: { ...fedBatch.feed, expression: '1e300 * exp(t)' } });
+		const failure = failureOf(() => runSimulation(body));
+		expect(failure).toBeInstanceOf(ApiProblem);
+		expect((failure as ApiProblem).status).toBe(422);
+		expect((failure as ApiProblem).message).toMatch(/did not converge at t = \d+\.\d\d h/);
+	});
+
+	it('passes the library’s field errors through (μset ≥ μmax names feed.muSetPerH)', () => {
+		const body = simulateRequest.parse({ ...fedBatch, feed: { strategy: 'exponential', substrateGPerL: 500, muSetPerH: 0.6 } });
+		const failure = failureOf(() => runSimulation(body));
+		expect(failure).toBeInstanceOf(ChemistryInputError);
+		expect((failure as ChemistryInputError).field).toBe('feed.muSetPerH');
+	});
+
+	it('refuses an unknown key in the request rather than dropping it', () => {
+		const parsed = simulateRequest.safeParse({ ...fedBatch, kinetics: { ...fedBatch.kinetics, muMax: 1 } });
+		expect(parsed.success).toBe(false);
+		expect(parsed.error?.issues[0].path).toEqual(['kinetics']);
+	});
+});
