@@ -2,6 +2,8 @@ import { z } from 'zod';
 import type { Role } from '$lib/roles';
 import { chemistryOperations } from './operations/chemistry';
 import { foundationOperations } from './operations/foundation';
+import { inventoryOperations } from './operations/inventory';
+import { batchesOperations } from './operations/batches';
 import { recipesOperations } from './operations/recipes';
 
 export interface ApiOperation {
@@ -43,7 +45,7 @@ function toSchema(schema: z.ZodType, io: 'input' | 'output') {
 }
 
 export function allOperations(): ApiOperation[] {
-	return [...foundationOperations, ...chemistryOperations, ...recipesOperations];
+	return [...foundationOperations, ...chemistryOperations, ...recipesOperations, ...inventoryOperations, ...batchesOperations];
 }
 
 export function buildOpenApiDocument(origin: string) {

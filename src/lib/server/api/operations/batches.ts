@@ -1,0 +1,1 @@
+export const batchesOperations: import('../openapi').ApiOperation[] = [];
