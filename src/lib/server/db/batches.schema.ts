@@ -70,10 +70,10 @@ export const batchLine = sqliteTable(
 		stockRecipeId: text('stock_recipe_id').references(() => recipe.id),
 		tolerancePercent: real('tolerance_percent').notNull(),
 		lotId: text('lot_id').references(() => lot.id),
-		/** Required mass for the chosen lot (mg), or required stock volume (µL). */
+		/** Required mass for the chosen lot (µg, so sub-milligram lines keep their precision), or stock volume (µL). */
 		requiredQuantity: integer('required_quantity'),
 		actualQuantity: integer('actual_quantity'),
-		/** What the technician typed, kept as typed for the record. */
+		/** What the technician typed, kept as typed for the record; actual_quantity is it in µg (or µL). */
 		actualText: text('actual_text'),
 		/** Quantity taken from the lot's stock, in the lot's base unit. */
 		consumedQuantity: integer('consumed_quantity'),
