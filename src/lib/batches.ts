@@ -45,7 +45,8 @@ export function checkTolerance(required: number, actual: number, tolerancePercen
 
 export type MassParse = { ok: true; grams: number; note?: string } | { ok: false; message: string };
 
-const UNIT_FACTORS: Record<string, number> = { kg: 1000, g: 1, mg: 0.001, 'µg': 1e-6, ug: 1e-6 };
+// [multiply, divide]: dividing by 1000 keeps 350 mg at exactly 0.35 g.
+const UNIT_FACTORS: Record<string, [number, number]> = { kg: [1000, 1], g: [1, 1], mg: [1, 1000], 'µg': [1, 1e6], ug: [1, 1e6] };
 
 /**
  * Reads a mass as typed at the bench: "12.5", "12,5" (decimal comma), "12.5 g", "350 mg".
@@ -59,18 +60,18 @@ export function parseMassText(text: string, defaultUnit: 'g' | 'mL' = 'g'): Mass
 	let [, digits, unit] = match;
 	unit = unit || defaultUnit;
 	if (defaultUnit === 'mL') {
-		const volumeFactors: Record<string, number> = { L: 1000, l: 1000, mL: 1, ml: 1, µL: 0.001, uL: 0.001, ul: 0.001 };
+		const volumeFactors: Record<string, [number, number]> = { L: [1000, 1], l: [1000, 1], mL: [1, 1], ml: [1, 1], µL: [1, 1000], uL: [1, 1000], ul: [1, 1000] };
 		if (!(unit in volumeFactors)) return { ok: false, message: `“${unit}” is not a volume unit here: use mL or L.` };
 		const value = readDecimal(digits);
 		if (!value.ok) return value;
 		if (value.n <= 0) return { ok: false, message: 'The volume must be above zero.' };
-		return { ok: true, grams: value.n * volumeFactors[unit], note: value.note };
+		return { ok: true, grams: (value.n * volumeFactors[unit][0]) / volumeFactors[unit][1], note: value.note };
 	}
 	if (!(unit in UNIT_FACTORS)) return { ok: false, message: `“${unit}” is not a mass unit: use g, mg or kg.` };
 	const value = readDecimal(digits);
 	if (!value.ok) return value;
 	if (value.n <= 0) return { ok: false, message: 'The mass must be above zero.' };
-	return { ok: true, grams: value.n * UNIT_FACTORS[unit], note: value.note };
+	return { ok: true, grams: (value.n * UNIT_FACTORS[unit][0]) / UNIT_FACTORS[unit][1], note: value.note };
 }
 
 function readDecimal(digits: string): { ok: true; n: number; note?: string } | { ok: false; message: string } {

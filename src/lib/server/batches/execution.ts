@@ -1,6 +1,6 @@
 import { and, eq, isNull, sql } from 'drizzle-orm';
 import { BATCH_STATE_LABELS, checkTolerance, COMPLETION_MEANING, parseMassText } from '$lib/batches';
-import { formatQuantity, isExpired, isoToday, LOT_STATUS_LABELS } from '$lib/inventory';
+import { formatQuantity, isExpired, isoToday } from '$lib/inventory';
 import { recordAudit, type Actor } from '../audit';
 import { findComponent } from '../components/library';
 import { db, type Db } from '../db';
@@ -80,7 +80,7 @@ export function lotRefusal(lotRow: Lot, line: { componentId: string | null; name
 		const actual = findComponent(lotRow.componentId)?.name ?? lotRow.componentId;
 		return `Wrong lot: ${lotRow.code} is ${actual}; this line needs ${line.name}.`;
 	}
-	if (lotRow.status !== 'released') return `Lot ${lotRow.code} is ${LOT_STATUS_LABELS[lotRow.status].toLowerCase()}, not released for use.`;
+	if (lotRow.status !== 'released') return `Lot ${lotRow.code} is ${lotRow.status === 'quarantine' ? 'in quarantine' : 'rejected'}, not released for use.`;
 	if (isExpired(lotRow.expiresOn, today)) return `Lot ${lotRow.code} is expired: its ${lotRow.dateKind} date was ${lotRow.expiresOn}.`;
 	if (onHand < neededInLotUnits) {
 		return `Lot ${lotRow.code} has ${formatQuantity(onHand, lotRow.quantityKind)} on hand; this line needs ${formatQuantity(neededInLotUnits, lotRow.quantityKind)}.`;

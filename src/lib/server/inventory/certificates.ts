@@ -31,7 +31,8 @@ export function cleanDisplayName(name: string, extension: string): string {
 	const base = name.split(/[\\/]/).pop() ?? '';
 	let cleaned = base
 		.normalize('NFKC')
-		.replace(/[\u0000-\u001f\u007f"'`<>|:*?;]/g, '')
+		.replace(/[\u0000-\u001f\u007f]/g, ' ')
+		.replace(/["'`<>|:*?;]/g, '')
 		.replace(/\s+/g, ' ')
 		.replace(/^[.\s]+/, '')
 		.trim()
