@@ -1,11 +1,11 @@
 import { DEMO, expect, signInWithForm, test, type DemoRole } from './fixtures';
 
 const OWN_NAVIGATION: Record<DemoRole, { shows: string[]; hides: string[] }> = {
-	admin: { shows: ['Overview', 'Recipes', 'Components', 'People', 'Outbox', 'Audit trail'], hides: [] },
-	media_scientist: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] },
-	prep_technician: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] },
-	engineer: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] },
-	inventory_lead: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] }
+	admin: { shows: ['Overview', 'Recipes', 'Components', 'Batches', 'Lots', 'People', 'Outbox', 'Audit trail', 'Settings'], hides: ['Inventory', 'Scan a batch'] },
+	media_scientist: { shows: ['Overview', 'Recipes', 'Components', 'Batches', 'Lots'], hides: ['Inventory', 'Scan a batch', 'People', 'Outbox', 'Audit trail', 'Settings'] },
+	prep_technician: { shows: ['Overview', 'Recipes', 'Components', 'Batches', 'Scan a batch', 'Lots'], hides: ['Inventory', 'People', 'Outbox', 'Audit trail', 'Settings'] },
+	engineer: { shows: ['Overview', 'Recipes', 'Components', 'Batches', 'Lots'], hides: ['Inventory', 'Scan a batch', 'People', 'Outbox', 'Audit trail', 'Settings'] },
+	inventory_lead: { shows: ['Overview', 'Recipes', 'Components', 'Batches', 'Lots', 'Inventory'], hides: ['Scan a batch', 'People', 'Outbox', 'Audit trail', 'Settings'] }
 };
 
 for (const [role, email] of Object.entries(DEMO) as [DemoRole, string][]) {
