@@ -7,3 +7,4 @@ const dir = join(process.cwd(), 'tests', '.tmp');
 mkdirSync(dir, { recursive: true });
 process.env.DATABASE_PATH = join(dir, `test-${randomUUID()}.db`);
 process.env.SMTP_PORT ??= String(40000 + Math.floor(Math.random() * 20000));
+process.env.UPLOADS_PATH = join(dir, `uploads-${randomUUID()}`);

@@ -6,6 +6,8 @@ import { pathToFileURL } from 'node:url';
 process.env.HOST ??= '127.0.0.1';
 process.env.PORT ??= '3000';
 process.env.ORIGIN ??= `http://${process.env.HOST}:${process.env.PORT}`;
+// Certificates may be up to 10 MB each, several per upload; adapter-node refuses larger bodies.
+process.env.BODY_SIZE_LIMIT ??= '45M';
 
 const { config } = await import('../lib/server/config');
 
@@ -51,6 +53,20 @@ if (config.smtp.standIn) {
 	console.log(`Mail stand-in listening on 127.0.0.1:${config.smtp.port}; read it at ${config.origin}/admin/outbox`);
 } else {
 	console.log(`Mail goes to ${config.smtp.host}:${config.smtp.port}`);
+}
+
+{
+	// The inventory digest: checked hourly, sent once a day (the date sent is kept in site_setting).
+	const { MailUnreachableError, sendDigestIfDue } = await import('../lib/server/inventory/digest');
+	const check = () =>
+		sendDigestIfDue().then(
+			(sent) => sent && console.log('Inventory digest sent.'),
+			(cause) => console.error(`Inventory digest not sent: ${cause instanceof MailUnreachableError ? cause.message : (cause as Error).message}`)
+		);
+	const timer = setInterval(check, 60 * 60 * 1000);
+	timer.unref();
+	for (const signal of ['SIGINT', 'SIGTERM'] as const) process.once(signal, () => clearInterval(timer));
+	if (process.env.NODE_ENV !== 'test') void check();
 }
 
 const server = resolve('build/index.js');

@@ -13,9 +13,14 @@ export const NAVIGATION: NavItem[] = [
 	{ href: '/recipes', label: 'Recipes', roles: [], section: 'Work' },
 	{ href: '/components', label: 'Components', roles: [], section: 'Work' },
 	{ href: '/simulation', label: 'Process simulation', roles: ['engineer', 'media_scientist'], section: 'Work' },
+	{ href: '/batches', label: 'Batches', roles: [], section: 'Work' },
+	{ href: '/batches/open', label: 'Scan a batch', roles: ['prep_technician'], section: 'Work' },
+	{ href: '/lots', label: 'Lots', roles: [], section: 'Work' },
+	{ href: '/inventory', label: 'Inventory', roles: ['inventory_lead'], section: 'Work' },
 	{ href: '/admin/people', label: 'People', roles: ['admin'], section: 'Administration' },
 	{ href: '/admin/outbox', label: 'Outbox', roles: ['admin'], section: 'Administration' },
-	{ href: '/admin/audit', label: 'Audit trail', roles: ['admin'], section: 'Administration' }
+	{ href: '/admin/audit', label: 'Audit trail', roles: ['admin'], section: 'Administration' },
+	{ href: '/admin/settings', label: 'Settings', roles: ['admin'], section: 'Administration' }
 ];
 
 export function navigationFor(user: RoleHolder | null): NavItem[] {

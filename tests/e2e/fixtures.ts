@@ -1,4 +1,4 @@
-import { test as base, expect, type Page } from '@playwright/test';
+import { test as base, expect, type Browser, type Page } from '@playwright/test';
 
 export const DEMO_PASSWORD = 'brothwright-demo';
 
@@ -36,5 +36,14 @@ export const test = base.extend<{ role: DemoRole | null }>({
 		await use(page);
 	}
 });
+
+/** A second signed-in page in its own browser context, for a test that needs two people. */
+export async function pageAs(browser: Browser, role: DemoRole, baseURL: string): Promise<Page> {
+	const context = await browser.newContext({ baseURL });
+	const page = await context.newPage();
+	const response = await page.request.post('/api/v1/session', { data: { email: DEMO[role], password: DEMO_PASSWORD } });
+	expect(response.status(), await response.text()).toBe(200);
+	return page;
+}
 
 export { expect };

@@ -1,12 +1,35 @@
 import { DEMO, expect, signInWithForm, test, type DemoRole } from './fixtures';
 
-const OWN_NAVIGATION: Record<DemoRole, { shows: string[]; hides: string[] }> = {
-	admin: { shows: ['Overview', 'Recipes', 'Components', 'People', 'Outbox', 'Audit trail'], hides: ['Process simulation'] },
-	media_scientist: { shows: ['Overview', 'Recipes', 'Components', 'Process simulation'], hides: ['People', 'Outbox', 'Audit trail'] },
-	prep_technician: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail', 'Process simulation'] },
-	engineer: { shows: ['Overview', 'Recipes', 'Components', 'Process simulation'], hides: ['People', 'Outbox', 'Audit trail'] },
-	inventory_lead: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail', 'Process simulation'] }
+const ALL_ROLES = Object.keys(DEMO) as DemoRole[];
+
+/** Who sees each navigation entry; everyone else must not see it. */
+const VISIBLE_TO: Record<string, DemoRole[]> = {
+	Overview: ALL_ROLES,
+	Recipes: ALL_ROLES,
+	Components: ALL_ROLES,
+	Batches: ALL_ROLES,
+	Lots: ALL_ROLES,
+	'Scan a batch': ['prep_technician'],
+	Inventory: ['inventory_lead'],
+	'Process simulation': ['engineer', 'media_scientist'],
+	People: ['admin'],
+	Outbox: ['admin'],
+	'Audit trail': ['admin'],
+	Settings: ['admin']
 };
+
+const OWN_NAVIGATION = Object.fromEntries(
+	ALL_ROLES.map((role) => {
+		const labels = Object.keys(VISIBLE_TO);
+		return [
+			role,
+			{
+				shows: labels.filter((l) => VISIBLE_TO[l].includes(role)),
+				hides: labels.filter((l) => !VISIBLE_TO[l].includes(role))
+			}
+		];
+	})
+) as Record<DemoRole, { shows: string[]; hides: string[] }>;
 
 for (const [role, email] of Object.entries(DEMO) as [DemoRole, string][]) {
 	test(`${role} signs in with the form and sees only their own navigation`, async ({ page }) => {

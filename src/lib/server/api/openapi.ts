@@ -2,6 +2,8 @@ import { z } from 'zod';
 import type { Role } from '$lib/roles';
 import { chemistryOperations } from './operations/chemistry';
 import { foundationOperations } from './operations/foundation';
+import { inventoryOperations } from './operations/inventory';
+import { batchesOperations } from './operations/batches';
 import { recipesOperations } from './operations/recipes';
 import { simulationOperations } from './operations/simulation';
 
@@ -44,7 +46,14 @@ function toSchema(schema: z.ZodType, io: 'input' | 'output') {
 }
 
 export function allOperations(): ApiOperation[] {
-	return [...foundationOperations, ...chemistryOperations, ...recipesOperations, ...simulationOperations];
+	return [
+		...foundationOperations,
+		...chemistryOperations,
+		...recipesOperations,
+		...simulationOperations,
+		...inventoryOperations,
+		...batchesOperations
+	];
 }
 
 export function buildOpenApiDocument(origin: string) {

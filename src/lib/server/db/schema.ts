@@ -137,3 +137,5 @@ export type MailMessage = typeof mailMessage.$inferSelect;
 // (add `export * from './<domain>.schema';` lines here)
 export * from './recipes.schema';
 export * from './simulation.schema';
+export * from './inventory.schema';
+export * from './batches.schema';

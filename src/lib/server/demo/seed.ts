@@ -2,6 +2,7 @@ import { recordAudit } from '../audit';
 import { createUser, findUserByEmail } from '../people';
 import { seedReferenceLibrary } from '../components/reference-library';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './accounts';
+import { seedDemoInventory } from './inventory';
 import { seedDemoRecipes } from './recipes';
 
 /**
@@ -22,5 +23,6 @@ export async function seedDemo(): Promise<number> {
 	// The recipes need the library; loading it here too keeps the demo whole when seeded on its own.
 	added += seedReferenceLibrary();
 	added += await seedDemoRecipes();
+	added += await seedDemoInventory();
 	return added;
 }

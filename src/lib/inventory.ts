@@ -1,0 +1,58 @@
+// Words and constants of inventory shared by server and browser, so this module holds no server code.
+export const LOT_STATUSES = ['quarantine', 'released', 'rejected'] as const;
+export type LotStatus = (typeof LOT_STATUSES)[number];
+
+export const LOT_STATUS_LABELS: Record<LotStatus, string> = {
+	quarantine: 'Quarantine',
+	released: 'Released',
+	rejected: 'Rejected'
+};
+
+export const QUANTITY_KINDS = ['mass', 'volume'] as const;
+export type QuantityKind = (typeof QUANTITY_KINDS)[number];
+
+/** The integer base unit each kind of quantity is kept in, so sums never drift. */
+export const BASE_UNIT: Record<QuantityKind, 'mg' | 'µL'> = { mass: 'mg', volume: 'µL' };
+
+export const QUANTITY_UNITS = ['kg', 'g', 'mg', 'L', 'mL', 'µL'] as const;
+
+export const DATE_KINDS = ['expiry', 'retest'] as const;
+export type DateKind = (typeof DATE_KINDS)[number];
+
+export const LEDGER_KINDS = ['receipt', 'consumption', 'adjustment', 'disposal'] as const;
+export type LedgerKind = (typeof LEDGER_KINDS)[number];
+
+export const LEDGER_KIND_LABELS: Record<LedgerKind, string> = {
+	receipt: 'Receipt',
+	consumption: 'Consumption',
+	adjustment: 'Adjustment',
+	disposal: 'Disposal'
+};
+
+/** Common practice for an expiry warning window when the reader names none. */
+export const DEFAULT_EXPIRY_WINDOW_DAYS = 30;
+
+/** A quantity in base units as a person reads it: 1 250 000 mg → "1.25 kg". */
+export function formatQuantity(quantity: number, kind: QuantityKind): string {
+	const abs = Math.abs(quantity);
+	const sign = quantity < 0 ? '−' : '';
+	const fmt = (n: number) => Number(n.toPrecision(6)).toLocaleString('en-GB', { maximumFractionDigits: 3 });
+	if (kind === 'mass') {
+		if (abs >= 1_000_000) return `${sign}${fmt(abs / 1_000_000)} kg`;
+		if (abs >= 1000) return `${sign}${fmt(abs / 1000)} g`;
+		return `${sign}${fmt(abs)} mg`;
+	}
+	if (abs >= 1_000_000) return `${sign}${fmt(abs / 1_000_000)} L`;
+	if (abs >= 1000) return `${sign}${fmt(abs / 1000)} mL`;
+	return `${sign}${fmt(abs)} µL`;
+}
+
+/** Today as an ISO date (UTC), the form lot dates are kept in. */
+export function isoToday(now = new Date()): string {
+	return now.toISOString().slice(0, 10);
+}
+
+/** Expired is computed from the date, never stored: a lot is expired from the day after its date. */
+export function isExpired(expiresOn: string, today = isoToday()): boolean {
+	return expiresOn < today;
+}

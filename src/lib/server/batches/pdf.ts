@@ -1,0 +1,123 @@
+import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
+import QRCode from 'qrcode';
+import { BATCH_STATE_LABELS } from '$lib/batches';
+import { formatQuantity } from '$lib/inventory';
+import type { BatchView } from './view';
+
+// The standard PDF fonts speak WinAnsi only; map what they cannot draw to plain equivalents.
+const REPLACEMENTS: Record<string, string> = { '−': '-', '→': '->', '≤': '<=', '≥': '>=', '·': '·', '₂': '2', '₃': '3', '₄': '4', '⁺': '+', '⁻': '-', 'µ': 'µ', '…': '...', '“': '"', '”': '"', '‘': "'", '’': "'", '–': '-', '—': '-' };
+export function toWinAnsi(text: string): string {
+	return [...text]
+		.map((c) => REPLACEMENTS[c] ?? c)
+		.join('')
+		.replace(/[^\x20-\x7e\xa0-\xff]/g, '?');
+}
+
+const A4: [number, number] = [595.28, 841.89];
+const MARGIN = 40;
+
+class Writer {
+	page: PDFPage;
+	y: number;
+	constructor(
+		private readonly doc: PDFDocument,
+		private readonly font: PDFFont,
+		private readonly bold: PDFFont
+	) {
+		this.page = doc.addPage(A4);
+		this.y = A4[1] - MARGIN;
+	}
+	ensure(height: number) {
+		if (this.y - height < MARGIN) {
+			this.page = this.doc.addPage(A4);
+			this.y = A4[1] - MARGIN;
+		}
+	}
+	text(text: string, options: { size?: number; bold?: boolean; x?: number; color?: [number, number, number] } = {}) {
+		const size = options.size ?? 9.5;
+		const font = options.bold ? this.bold : this.font;
+		const maxWidth = A4[0] - MARGIN - (options.x ?? MARGIN);
+		for (const line of this.wrap(toWinAnsi(text), font, size, maxWidth)) {
+			this.ensure(size + 3);
+			this.page.drawText(line, { x: options.x ?? MARGIN, y: this.y - size, size, font, color: options.color ? rgb(...options.color) : rgb(0, 0, 0) });
+			this.y -= size + 3;
+		}
+	}
+	gap(points = 6) {
+		this.y -= points;
+	}
+	private wrap(text: string, font: PDFFont, size: number, maxWidth: number): string[] {
+		const words = text.split(/\s+/);
+		const lines: string[] = [];
+		let current = '';
+		for (const word of words) {
+			const next = current ? `${current} ${word}` : word;
+			if (font.widthOfTextAtSize(next, size) > maxWidth && current) {
+				lines.push(current);
+				current = word;
+			} else current = next;
+		}
+		if (current) lines.push(current);
+		return lines.length ? lines : [''];
+	}
+}
+
+/** The batch sheet as a PDF: the same content as the printed page, with the record's QR code. */
+export async function buildBatchSheetPdf(view: BatchView): Promise<Uint8Array> {
+	const doc = await PDFDocument.create();
+	doc.setTitle(`Batch sheet ${view.batch.number}`);
+	doc.setCreator('Brothwright');
+	const font = await doc.embedFont(StandardFonts.Helvetica);
+	const bold = await doc.embedFont(StandardFonts.HelveticaBold);
+	const w = new Writer(doc, font, bold);
+	const qr = await doc.embedPng(await QRCode.toBuffer(view.recordUrl, { type: 'png', margin: 1, width: 240, errorCorrectionLevel: 'M' }));
+	w.page.drawImage(qr, { x: A4[0] - MARGIN - 96, y: A4[1] - MARGIN - 96, width: 96, height: 96 });
+
+	const b = view.batch;
+	w.text(`Batch sheet ${b.number}`, { size: 18, bold: true });
+	w.text(`${view.recipe.name}, version ${view.version.n} · ${BATCH_STATE_LABELS[b.state]}`, { size: 11 });
+	w.text(`Target volume ${b.targetVolumeMl / 1000} L · planned ${b.plannedOn} · for ${b.intendedUse}`);
+	w.text(`Record: ${view.recordUrl}`, { size: 8 });
+	w.gap(40);
+
+	if (view.cautions.length) {
+		w.text('Cautions (follow the site procedures and the supplier SDS)', { bold: true, color: [0.6, 0.1, 0.1] });
+		for (const c of view.cautions) w.text(`${c.code}: ${c.text}${c.components.length ? ` (${c.components.join(', ')})` : ''}`, { x: MARGIN + 8 });
+		w.gap();
+	}
+	w.text('Order of addition', { bold: true, size: 11 });
+	for (const line of view.lines) {
+		w.ensure(40);
+		const lotText = line.kind === 'stock' ? `stock: ${line.stockSource || '________'}` : line.chosen ? `lot ${line.chosen.code}` : line.suggestion ? `suggested lot ${line.suggestion.code} (FEFO)` : 'no usable lot';
+		w.text(`${line.position}. ${line.name} — ${line.requiredText} ± ${line.tolerancePercent} % — ${lotText}`, { bold: true });
+		if (line.basisName) w.text(`Given as ${line.amount} ${line.unit} of ${line.basisName}`, { x: MARGIN + 12, size: 8.5 });
+		else w.text(`${line.amount} ${line.unit}`, { x: MARGIN + 12, size: 8.5 });
+		for (const step of line.steps) w.text(step, { x: MARGIN + 12, size: 8.5 });
+		if (line.note) w.text(line.note, { x: MARGIN + 12, size: 8.5 });
+		w.text(`Actual: ${line.actualText ?? '__________'}   Done by: ${line.doneByName ?? '__________'}${line.consumedQuantity !== null && line.chosen ? `   Taken: ${formatQuantity(line.consumedQuantity, line.chosen.quantityKind)}` : ''}`, { x: MARGIN + 12, size: 8.5 });
+		w.gap(3);
+	}
+	w.gap();
+	w.text(`Make up to ${b.targetVolumeMl / 1000} L with purified water.`, { bold: true });
+	const v = view.version;
+	if (v.phRange) w.text(`pH: target ${v.targetPh} (accept ${v.phRange.min}–${v.phRange.max}, common practice). Measured: ${b.measuredPh ?? '______'}`);
+	if (v.osmolalityMinMOsmPerKg !== null || v.osmolalityMaxMOsmPerKg !== null) {
+		w.text(`Osmolality: ${v.osmolalityMinMOsmPerKg ?? '…'}–${v.osmolalityMaxMOsmPerKg ?? '…'} mOsm/kg. Measured: ${b.measuredOsmolality ?? '______'}`);
+	}
+	if (v.instructions) {
+		w.gap();
+		w.text('Instructions', { bold: true });
+		w.text(v.instructions);
+	}
+	if (view.deviations.length) {
+		w.gap();
+		w.text('Deviations', { bold: true, color: [0.6, 0.1, 0.1] });
+		for (const d of view.deviations) w.text(`${d.detail} Reason: ${d.reason} (${d.by})`);
+	}
+	if (view.signatures.length) {
+		w.gap();
+		w.text('Signatures', { bold: true });
+		for (const s of view.signatures) w.text(`${s.signerName} (${s.signerEmail}): ${s.meaning}, ${s.signedAt.toISOString()}${s.comment ? ` — ${s.comment}` : ''}`);
+	}
+	return doc.save();
+}

@@ -1,0 +1,109 @@
+import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import type { BatchLineKind, BatchState, DeviationKind } from '$lib/batches';
+import { lot } from './inventory.schema';
+import { component, recipe, recipeLine, recipeVersion } from './recipes.schema';
+import { user } from './schema';
+
+const id = () =>
+	text('id')
+		.primaryKey()
+		.$defaultFn(() => crypto.randomUUID());
+const createdAt = () =>
+	integer('created_at', { mode: 'timestamp_ms' })
+		.notNull()
+		.$defaultFn(() => new Date());
+
+/** A batch of medium made from one approved recipe version: planned → in preparation → prepared → released | rejected. */
+export const batch = sqliteTable(
+	'batch',
+	{
+		id: id(),
+		number: text('number').notNull().unique(),
+		/** The year and sequence the number was drawn from, so numbering never repeats. */
+		numberYear: integer('number_year').notNull(),
+		numberSeq: integer('number_seq').notNull(),
+		recipeId: text('recipe_id')
+			.notNull()
+			.references(() => recipe.id),
+		versionId: text('version_id')
+			.notNull()
+			.references(() => recipeVersion.id),
+		targetVolumeMl: integer('target_volume_ml').notNull(),
+		plannedOn: text('planned_on').notNull(),
+		intendedUse: text('intended_use').notNull(),
+		state: text('state').$type<BatchState>().notNull().default('planned'),
+		createdById: text('created_by_id')
+			.notNull()
+			.references(() => user.id),
+		preparedById: text('prepared_by_id').references(() => user.id),
+		startedAt: integer('started_at', { mode: 'timestamp_ms' }),
+		preparedAt: integer('prepared_at', { mode: 'timestamp_ms' }),
+		measuredPh: real('measured_ph'),
+		measuredOsmolality: real('measured_osmolality_mosm_per_kg'),
+		reviewedById: text('reviewed_by_id').references(() => user.id),
+		reviewedAt: integer('reviewed_at', { mode: 'timestamp_ms' }),
+		reviewNote: text('review_note').notNull().default(''),
+		createdAt: createdAt()
+	},
+	(t) => [
+		index('batch_state_idx').on(t.state, t.plannedOn),
+		index('batch_recipe_idx').on(t.recipeId),
+		uniqueIndex('batch_number_seq_idx').on(t.numberYear, t.numberSeq)
+	]
+);
+
+/** One line of the batch sheet, in the recipe's order of addition, with what was actually added. */
+export const batchLine = sqliteTable(
+	'batch_line',
+	{
+		id: id(),
+		batchId: text('batch_id')
+			.notNull()
+			.references(() => batch.id),
+		position: integer('position').notNull(),
+		kind: text('kind').$type<BatchLineKind>().notNull(),
+		recipeLineId: text('recipe_line_id')
+			.notNull()
+			.references(() => recipeLine.id),
+		/** The component weighed (the recipe line's shelf form, or its component). */
+		componentId: text('component_id').references(() => component.id),
+		stockRecipeId: text('stock_recipe_id').references(() => recipe.id),
+		tolerancePercent: real('tolerance_percent').notNull(),
+		lotId: text('lot_id').references(() => lot.id),
+		/** Required mass for the chosen lot (µg, so sub-milligram lines keep their precision), or stock volume (µL). */
+		requiredQuantity: integer('required_quantity'),
+		actualQuantity: integer('actual_quantity'),
+		/** What the technician typed, kept as typed for the record; actual_quantity is it in µg (or µL). */
+		actualText: text('actual_text'),
+		/** Quantity taken from the lot's stock, in the lot's base unit. */
+		consumedQuantity: integer('consumed_quantity'),
+		stockSource: text('stock_source').notNull().default(''),
+		doneById: text('done_by_id').references(() => user.id),
+		doneAt: integer('done_at', { mode: 'timestamp_ms' })
+	},
+	(t) => [index('batch_line_batch_idx').on(t.batchId, t.position), index('batch_line_lot_idx').on(t.lotId)]
+);
+
+/** Deviations are history: append-only by trigger. */
+export const batchDeviation = sqliteTable(
+	'batch_deviation',
+	{
+		id: id(),
+		batchId: text('batch_id')
+			.notNull()
+			.references(() => batch.id),
+		lineId: text('line_id').references(() => batchLine.id),
+		kind: text('kind').$type<DeviationKind>().notNull(),
+		detail: text('detail').notNull(),
+		reason: text('reason').notNull(),
+		recordedById: text('recorded_by_id')
+			.notNull()
+			.references(() => user.id),
+		at: createdAt()
+	},
+	(t) => [index('batch_deviation_batch_idx').on(t.batchId)]
+);
+
+export type Batch = typeof batch.$inferSelect;
+export type BatchLine = typeof batchLine.$inferSelect;
+export type BatchDeviation = typeof batchDeviation.$inferSelect;

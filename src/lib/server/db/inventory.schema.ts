@@ -1,0 +1,108 @@
+import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import type { LedgerKind, LotStatus, QuantityKind, DateKind } from '$lib/inventory';
+import { component } from './recipes.schema';
+import { user } from './schema';
+
+const id = () =>
+	text('id')
+		.primaryKey()
+		.$defaultFn(() => crypto.randomUUID());
+const createdAt = () =>
+	integer('created_at', { mode: 'timestamp_ms' })
+		.notNull()
+		.$defaultFn(() => new Date());
+
+/**
+ * A received raw-material lot. Its stock is never stored here: on-hand is the sum of its ledger,
+ * in the lot's base unit (mg for a mass, µL for a volume).
+ */
+export const lot = sqliteTable(
+	'lot',
+	{
+		id: id(),
+		/** The internal lot id printed on the label and scanned at the bench. */
+		code: text('code').notNull().unique(),
+		componentId: text('component_id')
+			.notNull()
+			.references(() => component.id),
+		supplier: text('supplier').notNull(),
+		supplierLot: text('supplier_lot').notNull(),
+		quantityKind: text('quantity_kind').$type<QuantityKind>().notNull(),
+		/** The quantity as received, in the base unit, and the unit it was written in. */
+		receivedQuantity: integer('received_quantity').notNull(),
+		receivedUnit: text('received_unit').notNull(),
+		receivedOn: text('received_on').notNull(),
+		/** ISO date; `dateKind` says whether it is an expiry or a retest date. */
+		expiresOn: text('expires_on').notNull(),
+		dateKind: text('date_kind').$type<DateKind>().notNull().default('expiry'),
+		storage: text('storage').notNull().default(''),
+		assayPercent: real('assay_percent'),
+		purityPercent: real('purity_percent'),
+		waterContentPercent: real('water_content_percent'),
+		status: text('status').$type<LotStatus>().notNull().default('quarantine'),
+		statusReason: text('status_reason').notNull().default(''),
+		statusChangedAt: integer('status_changed_at', { mode: 'timestamp_ms' }),
+		statusChangedById: text('status_changed_by_id').references(() => user.id),
+		receivedById: text('received_by_id')
+			.notNull()
+			.references(() => user.id),
+		note: text('note').notNull().default(''),
+		createdAt: createdAt()
+	},
+	(t) => [
+		uniqueIndex('lot_supplier_lot_idx').on(t.componentId, t.supplier, t.supplierLot),
+		index('lot_component_idx').on(t.componentId),
+		index('lot_status_idx').on(t.status, t.expiresOn)
+	]
+);
+
+/** A certificate of analysis (or other file) kept with a lot; the bytes live in the uploads folder. */
+export const lotCertificate = sqliteTable(
+	'lot_certificate',
+	{
+		id: id(),
+		lotId: text('lot_id')
+			.notNull()
+			.references(() => lot.id),
+		/** Random file name in the uploads folder; never derived from what the user sent. */
+		storedName: text('stored_name').notNull().unique(),
+		/** The name as uploaded, cleaned, for display and download only. */
+		displayName: text('display_name').notNull(),
+		mediaType: text('media_type').notNull(),
+		sizeBytes: integer('size_bytes').notNull(),
+		sha256: text('sha256').notNull(),
+		uploadedById: text('uploaded_by_id')
+			.notNull()
+			.references(() => user.id),
+		uploadedAt: createdAt()
+	},
+	(t) => [index('lot_certificate_lot_idx').on(t.lotId)]
+);
+
+/**
+ * The stock ledger: append-only by trigger. Quantities are signed integers in the lot's base unit;
+ * a trigger refuses an entry that would take the lot's sum below zero.
+ */
+export const stockEntry = sqliteTable(
+	'stock_entry',
+	{
+		id: id(),
+		lotId: text('lot_id')
+			.notNull()
+			.references(() => lot.id),
+		kind: text('kind').$type<LedgerKind>().notNull(),
+		quantity: integer('quantity').notNull(),
+		reason: text('reason').notNull().default(''),
+		/** The batch a consumption belongs to. */
+		batchId: text('batch_id'),
+		actorId: text('actor_id').references(() => user.id),
+		at: integer('at', { mode: 'timestamp_ms' })
+			.notNull()
+			.$defaultFn(() => new Date())
+	},
+	(t) => [index('stock_entry_lot_idx').on(t.lotId, t.at), index('stock_entry_batch_idx').on(t.batchId)]
+);
+
+export type Lot = typeof lot.$inferSelect;
+export type LotCertificate = typeof lotCertificate.$inferSelect;
+export type StockEntry = typeof stockEntry.$inferSelect;

@@ -1,0 +1,69 @@
+import { isNotNull } from 'drizzle-orm';
+import { DEFAULT_EXPIRY_WINDOW_DAYS, isoToday, type QuantityKind } from '$lib/inventory';
+import { db, type Db } from '../db';
+import { component } from '../db/schema';
+import { listLots, type LotRow } from './lots';
+import { lotQuantityToGrams } from './units';
+
+type Reader = Pick<Db, 'select'>;
+
+export function addDays(isoDate: string, days: number): string {
+	const date = new Date(`${isoDate}T00:00:00Z`);
+	date.setUTCDate(date.getUTCDate() + days);
+	return date.toISOString().slice(0, 10);
+}
+
+export interface ExpiringLot extends LotRow {
+	daysLeft: number;
+}
+
+/** Lots with stock that are not rejected and whose date falls within `days` (already expired included). */
+export function expiringLots(days = DEFAULT_EXPIRY_WINDOW_DAYS, today = isoToday(), reader: Reader = db): ExpiringLot[] {
+	const limit = addDays(today, days);
+	return listLots({ expiringBefore: limit }, today, reader)
+		.filter((l) => l.status !== 'rejected' && l.onHand > 0)
+		.map((l) => ({ ...l, daysLeft: Math.round((Date.parse(l.expiresOn) - Date.parse(today)) / 86_400_000) }));
+}
+
+export interface LowComponent {
+	componentId: string;
+	componentName: string;
+	reorderLevelG: number;
+	/** Released, in-date stock in grams: what batches can actually use. */
+	usableG: number;
+	lots: number;
+}
+
+/** Components whose released, in-date stock is below their reorder level. */
+export function componentsBelowReorder(today = isoToday(), reader: Reader = db): LowComponent[] {
+	const withLevel = reader
+		.select({ id: component.id, name: component.name, reorderLevelG: component.reorderLevelG, densityGPerMl: component.densityGPerMl })
+		.from(component)
+		.where(isNotNull(component.reorderLevelG))
+		.all();
+	if (withLevel.length === 0) return [];
+	const lots = listLots({}, today, reader).filter(
+		(l) => withLevel.some((c) => c.id === l.componentId) && l.status === 'released' && !l.expired && l.onHand > 0
+	);
+	return withLevel
+		.map((c) => {
+			const own = lots.filter((l) => l.componentId === c.id);
+			const usableG = own.reduce((sum, l) => sum + (lotQuantityToGrams(l.onHand, l.quantityKind as QuantityKind, c.densityGPerMl) ?? 0), 0);
+			return { componentId: c.id, componentName: c.name, reorderLevelG: c.reorderLevelG!, usableG, lots: own.length };
+		})
+		.filter((c) => c.usableG < c.reorderLevelG)
+		.sort((a, b) => a.componentName.localeCompare(b.componentName));
+}
+
+export function quarantinedLots(today = isoToday(), reader: Reader = db): LotRow[] {
+	return listLots({ status: 'quarantine' }, today, reader);
+}
+
+export function componentsWithStockSettings(reader: Reader = db) {
+	return reader
+		.select({ id: component.id, name: component.name, reorderLevelG: component.reorderLevelG, densityGPerMl: component.densityGPerMl })
+		.from(component)
+		.orderBy(component.name)
+		.all();
+}
+

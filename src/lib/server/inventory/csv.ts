@@ -1,0 +1,173 @@
+import { asc, eq } from 'drizzle-orm';
+import { formatQuantity, isoToday, type QuantityKind } from '$lib/inventory';
+import { parseCsv, toCsv } from '../csv';
+import { db } from '../db';
+import { component, lot, stockEntry, user } from '../db/schema';
+import { RuleError } from '../rule-error';
+import { checkLotInput, type CheckedLot, type LotText } from './lot-input';
+import { listLots, receiveLots, type SignedActor } from './lots';
+import type { BatchLotUse, LotUse } from './where-used';
+
+/** CSV columns ↔ lot fields; the header row uses the snake_case names. */
+const IMPORT_COLUMNS: Record<string, keyof LotText> = {
+	component: 'component',
+	supplier: 'supplier',
+	supplier_lot: 'supplierLot',
+	quantity: 'quantity',
+	unit: 'unit',
+	received_on: 'receivedOn',
+	expires_on: 'expiresOn',
+	date_kind: 'dateKind',
+	storage: 'storage',
+	assay_percent: 'assayPercent',
+	purity_percent: 'purityPercent',
+	water_content_percent: 'waterContentPercent',
+	note: 'note'
+};
+const REQUIRED = ['component', 'supplier', 'supplier_lot', 'quantity', 'unit', 'received_on', 'expires_on'];
+export const LOT_IMPORT_TEMPLATE = `${Object.keys(IMPORT_COLUMNS).join(',')}\r\nsodium-chloride,Northfield Reagents,NR-24-0931,5,kg,${isoToday()},2029-06-30,expiry,Room temperature,99.8,,0.1,\r\n`;
+
+export interface LotImportRow {
+	rowNumber: number;
+	values: Record<string, string>;
+	errors: string[];
+	value?: CheckedLot;
+}
+
+export interface LotImportPreview {
+	rows: LotImportRow[];
+	valid: number;
+	invalid: number;
+}
+
+/** Checks every row as it would be received, including duplicates within the file itself. */
+export function previewLotCsv(text: string, today = isoToday()): LotImportPreview {
+	const table = parseCsv(text, { required: REQUIRED, allowed: Object.keys(IMPORT_COLUMNS) });
+	if (table.rows.length === 0) throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
+	if (table.rows.length > 1000) throw new RuleError('At most 1000 lots per import; split the file.', { field: 'csv' });
+	const seen = new Map<string, number>();
+	const rows = table.rows.map(({ rowNumber, values }) => {
+		const input: LotText = {};
+		for (const [column, field] of Object.entries(IMPORT_COLUMNS)) input[field] = values[column] ?? '';
+		const checked = checkLotInput(input, db, today);
+		const errors = checked.ok ? [] : Object.entries(checked.fieldErrors).map(([field, messages]) => `${field}: ${messages.join(' ')}`);
+		if (checked.ok) {
+			const key = [checked.value.componentId, checked.value.supplier.toLowerCase(), checked.value.supplierLot.toLowerCase()].join('|');
+			const earlier = seen.get(key);
+			if (earlier) errors.push(`supplierLot: the same supplier lot is on row ${earlier} of this file.`);
+			else seen.set(key, rowNumber);
+		}
+		return { rowNumber, values, errors, value: checked.ok && errors.length === 0 ? checked.value : undefined };
+	});
+	const invalid = rows.filter((r) => r.errors.length).length;
+	return { rows, valid: rows.length - invalid, invalid };
+}
+
+/** All rows or none: any row with a problem refuses the whole file. */
+export function importLotCsv(actor: SignedActor, text: string, today = isoToday()): number {
+	const preview = previewLotCsv(text, today);
+	if (preview.invalid) {
+		throw new RuleError(`${preview.invalid} of ${preview.rows.length} rows have problems; nothing was imported. Correct them and preview again.`, { field: 'csv' });
+	}
+	return receiveLots(actor, preview.rows.map((r) => r.value!)).length;
+}
+
+export function exportLotsCsv(today = isoToday()): string {
+	const rows = listLots({}, today).map((l) => ({
+		lot_id: l.code,
+		component: l.componentId,
+		component_name: l.componentName,
+		supplier: l.supplier,
+		supplier_lot: l.supplierLot,
+		status: l.status,
+		expired: l.expired ? 'yes' : 'no',
+		received_on: l.receivedOn,
+		expires_on: l.expiresOn,
+		date_kind: l.dateKind,
+		base_unit: l.quantityKind === 'mass' ? 'mg' : 'uL',
+		received_quantity: l.receivedQuantity,
+		on_hand: l.onHand,
+		on_hand_text: formatQuantity(l.onHand, l.quantityKind),
+		storage: l.storage,
+		assay_percent: l.assayPercent ?? '',
+		purity_percent: l.purityPercent ?? '',
+		water_content_percent: l.waterContentPercent ?? ''
+	}));
+	const columns = ['lot_id', 'component', 'component_name', 'supplier', 'supplier_lot', 'status', 'expired', 'received_on', 'expires_on', 'date_kind', 'base_unit', 'received_quantity', 'on_hand', 'on_hand_text', 'storage', 'assay_percent', 'purity_percent', 'water_content_percent'];
+	return toCsv(rows, columns, [`Lots at Pilot Plant North, exported ${new Date().toISOString()}. Quantities are integers in the base unit (mg or uL).`]);
+}
+
+export function exportLedgerCsv(lotId?: string): string {
+	const query = db
+		.select({
+			at: stockEntry.at,
+			lotCode: lot.code,
+			component: component.name,
+			kind: stockEntry.kind,
+			quantity: stockEntry.quantity,
+			quantityKind: lot.quantityKind,
+			reason: stockEntry.reason,
+			batchId: stockEntry.batchId,
+			actor: user.email
+		})
+		.from(stockEntry)
+		.innerJoin(lot, eq(stockEntry.lotId, lot.id))
+		.innerJoin(component, eq(lot.componentId, component.id))
+		.leftJoin(user, eq(stockEntry.actorId, user.id));
+	const entries = (lotId ? query.where(eq(stockEntry.lotId, lotId)) : query).orderBy(asc(stockEntry.at), asc(stockEntry.id)).all();
+	const columns = ['at', 'lot_id', 'component', 'kind', 'quantity', 'base_unit', 'quantity_text', 'reason', 'batch_id', 'by'];
+	return toCsv(
+		entries.map((e) => ({
+			at: e.at.toISOString(),
+			lot_id: e.lotCode,
+			component: e.component,
+			kind: e.kind,
+			quantity: e.quantity,
+			base_unit: e.quantityKind === 'mass' ? 'mg' : 'uL',
+			quantity_text: formatQuantity(e.quantity, e.quantityKind as QuantityKind),
+			reason: e.reason,
+			batch_id: e.batchId ?? '',
+			by: e.actor ?? ''
+		})),
+		columns,
+		['Stock ledger: append-only. On-hand of a lot is the sum of its quantities.']
+	);
+}
+
+export function whereUsedCsv(lotCode: string, uses: LotUse[]): string {
+	return toCsv(
+		uses.map((u) => ({
+			lot_id: lotCode,
+			batch: u.batchNumber,
+			state: u.state,
+			recipe: u.recipeName,
+			planned_on: u.plannedOn,
+			prepared_at: u.preparedAt ? u.preparedAt.toISOString() : '',
+			intended_use: u.intendedUse,
+			line: u.position,
+			consumed: u.consumedQuantity ?? '',
+			consumed_text: u.consumedQuantity === null ? '' : formatQuantity(u.consumedQuantity, u.quantityKind)
+		})),
+		['lot_id', 'batch', 'state', 'recipe', 'planned_on', 'prepared_at', 'intended_use', 'line', 'consumed', 'consumed_text'],
+		[`Where lot ${lotCode} was used. Quantities in the lot's base unit (mg or uL).`]
+	);
+}
+
+export function batchLotsCsv(batchNumber: string, uses: BatchLotUse[]): string {
+	return toCsv(
+		uses.map((u) => ({
+			batch: batchNumber,
+			line: u.position,
+			lot_id: u.lotCode,
+			component: u.componentName,
+			supplier: u.supplier,
+			supplier_lot: u.supplierLot,
+			expires_on: u.expiresOn,
+			lot_status: u.lotStatus,
+			consumed: u.consumedQuantity ?? '',
+			consumed_text: u.consumedQuantity === null ? '' : formatQuantity(u.consumedQuantity, u.quantityKind)
+		})),
+		['batch', 'line', 'lot_id', 'component', 'supplier', 'supplier_lot', 'expires_on', 'lot_status', 'consumed', 'consumed_text'],
+		[`Lots used by batch ${batchNumber}.`]
+	);
+}

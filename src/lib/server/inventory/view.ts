@@ -1,0 +1,38 @@
+import { asc, eq } from 'drizzle-orm';
+import { isExpired, isoToday } from '$lib/inventory';
+import { findComponent } from '../components/library';
+import { db } from '../db';
+import { stockEntry, user } from '../db/schema';
+import { personName } from '../recipes/queries';
+import { RuleError } from '../rule-error';
+import { certificatesOf } from './certificates';
+import { onHandOf } from './ledger';
+import { findLot } from './lots';
+import { batchesUsingLot } from './where-used';
+
+/** Everything about one lot: what it is, its stock and ledger, certificates and where it was used. */
+export function lotView(lotId: string, today = isoToday()) {
+	const lot = findLot(lotId);
+	if (!lot) throw new RuleError('No lot with this id.', { status: 404 });
+	const material = findComponent(lot.componentId)!;
+	const ledger = db
+		.select({ id: stockEntry.id, at: stockEntry.at, kind: stockEntry.kind, quantity: stockEntry.quantity, reason: stockEntry.reason, batchId: stockEntry.batchId, by: user.email })
+		.from(stockEntry)
+		.leftJoin(user, eq(stockEntry.actorId, user.id))
+		.where(eq(stockEntry.lotId, lotId))
+		.orderBy(asc(stockEntry.at), asc(stockEntry.id))
+		.all();
+	return {
+		lot: {
+			...lot,
+			expired: isExpired(lot.expiresOn, today),
+			receivedByName: personName(lot.receivedById),
+			statusChangedByName: personName(lot.statusChangedById)
+		},
+		component: { id: material.id, name: material.name, formula: material.formula, densityGPerMl: material.densityGPerMl, ghsHazards: material.ghsHazards },
+		onHand: onHandOf(lotId),
+		ledger,
+		certificates: certificatesOf(lotId).map((c) => ({ id: c.id, displayName: c.displayName, mediaType: c.mediaType, sizeBytes: c.sizeBytes, uploadedAt: c.uploadedAt })),
+		whereUsed: batchesUsingLot(lotId)
+	};
+}

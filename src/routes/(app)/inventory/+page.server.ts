@@ -1,0 +1,64 @@
+import { z } from 'zod';
+import { DEFAULT_EXPIRY_WINDOW_DAYS } from '$lib/inventory';
+import { tagged } from '$lib/server/form-tag';
+import { parseForm, ruleFailure } from '$lib/server/forms';
+import { clientAddress, requireRole } from '$lib/server/guard';
+import { componentsBelowReorder, componentsWithStockSettings, expiringLots, quarantinedLots } from '$lib/server/inventory/alerts';
+import { lastDigestDate, MailUnreachableError, sendInventoryDigest } from '$lib/server/inventory/digest';
+import { setStockSettings } from '$lib/server/inventory/lots';
+import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
+import type { Actions, PageServerLoad } from './$types';
+
+const optionalNumber = (message: string) =>
+	z
+		.string()
+		.trim()
+		.transform((v) => (v === '' ? null : Number(v.replace(',', '.'))))
+		.refine((n) => n === null || Number.isFinite(n), message);
+
+const settingsForm = z.object({
+	componentId: z.string().min(1, 'Choose a component.'),
+	reorderLevelG: optionalNumber('The reorder level must be a number of grams.'),
+	densityGPerMl: optionalNumber('The density must be a number of g/mL.')
+});
+
+export const load: PageServerLoad = async ({ url }) => {
+	requireRole(...STOCK_KEEPERS);
+	const requested = Number(url.searchParams.get('days') ?? DEFAULT_EXPIRY_WINDOW_DAYS);
+	const days = Number.isInteger(requested) && requested >= 1 && requested <= 730 ? requested : DEFAULT_EXPIRY_WINDOW_DAYS;
+	return {
+		days,
+		daysRefused: url.searchParams.has('days') && days !== requested,
+		expiring: expiringLots(days),
+		low: componentsBelowReorder(),
+		quarantined: quarantinedLots(),
+		components: componentsWithStockSettings(),
+		lastDigest: lastDigestDate()
+	};
+};
+
+export const actions: Actions = {
+	settings: async ({ request }) =>
+		tagged('settings', async () => {
+			const user = requireRole(...STOCK_KEEPERS);
+			const formData = await request.formData();
+			const parsed = parseForm(settingsForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				setStockSettings({ id: user.id, email: user.email, address: clientAddress() }, parsed.data.componentId, parsed.data);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return { saved: 'Stock settings saved.' };
+		}),
+	digest: async () => {
+		requireRole(...STOCK_KEEPERS);
+		try {
+			const { recipients } = await sendInventoryDigest();
+			return { saved: recipients.length ? `Digest sent to ${recipients.join(', ')}.` : 'No active inventory lead to send the digest to.' };
+		} catch (cause) {
+			if (cause instanceof MailUnreachableError) return { mailError: cause.message };
+			throw cause;
+		}
+	}
+};

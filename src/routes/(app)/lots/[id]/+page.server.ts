@@ -1,0 +1,134 @@
+import { error } from '@sveltejs/kit';
+import { z } from 'zod';
+import { auditEventsFor } from '$lib/server/audit';
+import { tagged } from '$lib/server/form-tag';
+import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { clientAddress, requireRole, requireUser } from '$lib/server/guard';
+import { attachCertificates, checkCertificateFiles } from '$lib/server/inventory/certificates';
+import { adjustLot, disposeLot, setLotStatus } from '$lib/server/inventory/lots';
+import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
+import { lotView } from '$lib/server/inventory/view';
+import { RuleError } from '$lib/server/rule-error';
+import type { Actions, PageServerLoad } from './$types';
+
+const amountField = z
+	.string()
+	.trim()
+	.min(1, 'Enter the amount.')
+	.transform((v) => Number(v.replace(',', '.')))
+	.refine((n) => Number.isFinite(n) && n > 0, 'The amount must be a number above zero.');
+const reasonField = z.string().trim().min(3, 'Give the reason (a few words at least).').max(500);
+
+const adjustForm = z.object({
+	direction: z.enum(['add', 'remove'], 'Choose add or remove.'),
+	amount: amountField,
+	unit: z.string().min(1),
+	reason: reasonField
+});
+const disposeForm = z.object({
+	all: z.literal('yes').optional(),
+	amount: z.string().optional(),
+	unit: z.string().optional(),
+	reason: reasonField,
+	confirm: z.literal('yes', 'Tick the box to confirm the disposal.')
+});
+const rejectForm = z.object({
+	reason: reasonField,
+	confirm: z.literal('yes', 'Tick the box to confirm the rejection.')
+});
+
+export const load: PageServerLoad = async ({ params, url }) => {
+	requireUser();
+	try {
+		return {
+			...lotView(params.id),
+			history: auditEventsFor('lot', params.id).slice(0, 50),
+			received: url.searchParams.has('received')
+		};
+	} catch (cause) {
+		if (cause instanceof RuleError && cause.status === 404) error(404, { message: cause.message });
+		throw cause;
+	}
+};
+
+function keeper() {
+	const user = requireRole(...STOCK_KEEPERS);
+	return { id: user.id, email: user.email, address: clientAddress() };
+}
+
+export const actions: Actions = {
+	release: async ({ request, params }) =>
+		tagged('release', async () => {
+			const actor = keeper();
+			const formData = await request.formData();
+			try {
+				setLotStatus(actor, params.id, 'released', String(formData.get('reason') ?? ''));
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return { saved: 'Released: the lot can now be used in batches.' };
+		}),
+	reject: async ({ request, params }) =>
+		tagged('reject', async () => {
+			const actor = keeper();
+			const formData = await request.formData();
+			const parsed = parseForm(rejectForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				setLotStatus(actor, params.id, 'rejected', parsed.data.reason);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return { saved: 'Rejected: the lot will not be offered for batches.' };
+		}),
+	upload: async ({ request, params }) =>
+		tagged('upload', async () => {
+			const actor = keeper();
+			const formData = await request.formData();
+			try {
+				const uploads = await checkCertificateFiles(formData);
+				const added = attachCertificates(actor, params.id, uploads);
+				return {
+					saved: `${added} certificate${added === 1 ? '' : 's'} stored.`
+				};
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+		}),
+	adjust: async ({ request, params }) =>
+		tagged('adjust', async () => {
+			const actor = keeper();
+			const formData = await request.formData();
+			const parsed = parseForm(adjustForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				adjustLot(actor, params.id, parsed.data);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return { saved: 'Adjustment recorded in the ledger.' };
+		}),
+	dispose: async ({ request, params }) =>
+		tagged('dispose', async () => {
+			const actor = keeper();
+			const formData = await request.formData();
+			const parsed = parseForm(disposeForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			const all = parsed.data.all === 'yes';
+			const amount = Number((parsed.data.amount ?? '').replace(',', '.'));
+			if (!all && !(parsed.data.amount ?? '').trim()) {
+				return formFailure(formData, 'Enter the amount to dispose of, or tick “all that is left”.', { amount: ['Enter the amount.'] });
+			}
+			try {
+				disposeLot(actor, params.id, {
+					all,
+					amount,
+					unit: parsed.data.unit,
+					reason: parsed.data.reason
+				});
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return { saved: 'Disposal recorded in the ledger.' };
+		})
+};

@@ -1,0 +1,39 @@
+import { csvTextFrom } from '$lib/server/csv';
+import { formFailure, ruleFailure } from '$lib/server/forms';
+import { clientAddress, requireRole } from '$lib/server/guard';
+import { importLotCsv, LOT_IMPORT_TEMPLATE, previewLotCsv } from '$lib/server/inventory/csv';
+import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
+import { RuleError } from '$lib/server/rule-error';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async () => {
+	requireRole(...STOCK_KEEPERS);
+	return { template: LOT_IMPORT_TEMPLATE };
+};
+
+export const actions: Actions = {
+	preview: async ({ request }) => {
+		requireRole(...STOCK_KEEPERS);
+		const formData = await request.formData();
+		let text: string;
+		try {
+			text = await csvTextFrom(formData);
+			const preview = previewLotCsv(text);
+			return { preview: { rows: preview.rows.map((r) => ({ rowNumber: r.rowNumber, values: r.values, errors: r.errors })), valid: preview.valid, invalid: preview.invalid }, csv: text };
+		} catch (cause) {
+			if (cause instanceof RuleError) return formFailure(formData, cause.message, { csv: [cause.message] });
+			throw cause;
+		}
+	},
+	import: async ({ request }) => {
+		const user = requireRole(...STOCK_KEEPERS);
+		const formData = await request.formData();
+		const text = String(formData.get('csv') ?? '');
+		try {
+			const count = importLotCsv({ id: user.id, email: user.email, address: clientAddress() }, text);
+			return { imported: count };
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+	}
+};

@@ -1,0 +1,26 @@
+import { requireUser } from '$lib/server/guard';
+import { findComponentsByIds } from '$lib/server/components/library';
+import { lotQrText, qrSvg } from '$lib/server/inventory/labels';
+import { findLot } from '$lib/server/inventory/lots';
+import type { Lot } from '$lib/server/db/schema';
+import type { PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ url }) => {
+	requireUser();
+	const ids = [...new Set(url.searchParams.getAll('lot'))].slice(0, 200);
+	const lots = ids.map((id) => findLot(id)).filter((l): l is Lot => Boolean(l));
+	const names = findComponentsByIds(lots.map((l) => l.componentId));
+	const labels = await Promise.all(
+		lots.map(async (l) => ({
+			id: l.id,
+			code: l.code,
+			componentName: names.get(l.componentId)?.name ?? l.componentId,
+			supplierLot: `${l.supplier} ${l.supplierLot}`,
+			expiresOn: l.expiresOn,
+			dateKind: l.dateKind,
+			storage: l.storage,
+			qr: await qrSvg(lotQrText(l))
+		}))
+	);
+	return { labels, missing: ids.length - lots.length };
+};

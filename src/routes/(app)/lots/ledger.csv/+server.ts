@@ -1,0 +1,17 @@
+import { error } from '@sveltejs/kit';
+import { csvDownload } from '$lib/server/csv';
+import { requireUser } from '$lib/server/guard';
+import { exportLedgerCsv } from '$lib/server/inventory/csv';
+import { findLot } from '$lib/server/inventory/lots';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = async ({ url }) => {
+	requireUser();
+	const lotId = url.searchParams.get('lot');
+	if (lotId) {
+		const lot = findLot(lotId);
+		if (!lot) error(404, { message: 'No lot with this id.' });
+		return csvDownload(exportLedgerCsv(lot.id), `ledger-${lot.code}.csv`);
+	}
+	return csvDownload(exportLedgerCsv(), `ledger-${new Date().toISOString().slice(0, 10)}.csv`);
+};

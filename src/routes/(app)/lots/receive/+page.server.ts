@@ -1,0 +1,48 @@
+import { redirect } from '@sveltejs/kit';
+import { isoToday } from '$lib/inventory';
+import { listComponents } from '$lib/server/components/library';
+import { formFailure, ruleFailure } from '$lib/server/forms';
+import { clientAddress, requireRole } from '$lib/server/guard';
+import { checkCertificateFiles } from '$lib/server/inventory/certificates';
+import { checkLotInput, LOT_FIELDS, type LotText } from '$lib/server/inventory/lot-input';
+import { receiveLot } from '$lib/server/inventory/lots';
+import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
+import { RuleError } from '$lib/server/rule-error';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async () => {
+	requireRole(...STOCK_KEEPERS);
+	return {
+		components: listComponents().map((c) => ({ id: c.id, name: c.name, storage: c.storage, densityGPerMl: c.densityGPerMl })),
+		today: isoToday()
+	};
+};
+
+export const actions: Actions = {
+	default: async ({ request }) => {
+		const user = requireRole(...STOCK_KEEPERS);
+		const formData = await request.formData();
+		const input: LotText = {};
+		for (const field of LOT_FIELDS) input[field] = String(formData.get(field) ?? '');
+		const checked = checkLotInput(input);
+		let uploads;
+		try {
+			uploads = await checkCertificateFiles(formData);
+		} catch (cause) {
+			if (!(cause instanceof RuleError)) throw cause;
+			const fieldErrors = checked.ok ? {} : checked.fieldErrors;
+			return formFailure(formData, `${cause.message} Choose the file again; everything else you typed is kept.`, { ...fieldErrors, certificates: [cause.message] });
+		}
+		if (!checked.ok) {
+			const count = Object.keys(checked.fieldErrors).length;
+			return formFailure(formData, `Please correct ${count === 1 ? 'the field' : `${count} fields`} marked below; nothing was received.${uploads.length ? ' Choose the certificate files again.' : ''}`, checked.fieldErrors);
+		}
+		let id: string;
+		try {
+			id = receiveLot({ id: user.id, email: user.email, address: clientAddress() }, checked.value, uploads).id;
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		redirect(303, `/lots/${id}?received=1`);
+	}
+};

@@ -1,0 +1,24 @@
+import { json } from '@sveltejs/kit';
+import { batchCreateRequest, batchListQuery } from '$lib/server/api/operations/batches';
+import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
+import { parseQuery } from '$lib/server/api/query';
+import { checkBatchInput, createBatch } from '$lib/server/batches/create';
+import { BATCH_PLANNERS } from '$lib/server/batches/roles';
+import { listBatches } from '$lib/server/batches/view';
+import { clientAddress } from '$lib/server/guard';
+
+export const GET = endpoint({ access: { roles: [] } }, ({ event }) => {
+	const query = parseQuery(batchListQuery, event.url);
+	const items = listBatches({ state: query.state, recipeId: query.recipe, from: query.from, to: query.to });
+	return { items, total: items.length };
+});
+
+export const POST = endpoint({ access: { roles: [...BATCH_PLANNERS] }, body: batchCreateRequest }, ({ user, body }) => {
+	const checked = checkBatchInput(body);
+	if (!checked.ok) {
+		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) => messages.map((message) => ({ path, message })));
+		throw new ApiProblem(400, `The batch has ${errors.length} problem${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, errors);
+	}
+	const created = createBatch({ id: user!.id, email: user!.email, address: clientAddress() }, checked.value);
+	return json(created, { status: 201, headers: { location: `/api/v1/batches/${created.id}` } });
+});

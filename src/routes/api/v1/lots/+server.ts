@@ -1,0 +1,23 @@
+import { json } from '@sveltejs/kit';
+import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
+import { lotCreateRequest, lotListQuery } from '$lib/server/api/operations/inventory';
+import { parseQuery } from '$lib/server/api/query';
+import { clientAddress } from '$lib/server/guard';
+import { checkLotInput } from '$lib/server/inventory/lot-input';
+import { listLots, receiveLot } from '$lib/server/inventory/lots';
+
+export const GET = endpoint({ access: { roles: [] } }, ({ event }) => {
+	const query = parseQuery(lotListQuery, event.url);
+	const items = listLots({ componentId: query.component, status: query.status, expiringBefore: query.expiringBefore, search: query.q });
+	return { items, total: items.length };
+});
+
+export const POST = endpoint({ access: { roles: ['inventory_lead'] }, body: lotCreateRequest }, ({ user, body }) => {
+	const checked = checkLotInput(body);
+	if (!checked.ok) {
+		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) => messages.map((message) => ({ path, message })));
+		throw new ApiProblem(400, `The lot has ${errors.length} problem${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, errors);
+	}
+	const lot = receiveLot({ id: user!.id, email: user!.email, address: clientAddress() }, checked.value);
+	return json(lot, { status: 201, headers: { location: `/api/v1/lots/${lot.id}` } });
+});

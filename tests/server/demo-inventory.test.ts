@@ -1,0 +1,25 @@
+import { describe, expect, it } from 'vitest';
+import { isExpired } from '$lib/inventory';
+import { seedDemo } from '$lib/server/demo/seed';
+import { componentsBelowReorder, expiringLots } from '$lib/server/inventory/alerts';
+import { ledgerSums } from '$lib/server/inventory/ledger';
+import { listLots } from '$lib/server/inventory/lots';
+import { batchesUsingLot } from '$lib/server/inventory/where-used';
+import { listBatches } from '$lib/server/batches/view';
+
+describe('the demo inventory', () => {
+	it('has an expired lot, one in quarantine, one low on stock, and batches that used lots; seeding twice adds nothing', async () => {
+		await seedDemo();
+		const lots = listLots();
+		expect(lots.some((l) => isExpired(l.expiresOn))).toBe(true);
+		expect(lots.some((l) => l.status === 'quarantine')).toBe(true);
+		expect(componentsBelowReorder().map((c) => c.componentId)).toContain('magnesium-sulfate-heptahydrate');
+		expect(expiringLots(30).length).toBeGreaterThan(0);
+		const batches = listBatches();
+		expect(batches.map((b) => b.state).sort()).toEqual(['planned', 'released']);
+		const used = lots.filter((l) => batchesUsingLot(l.id).some((u) => u.state === 'released'));
+		expect(used.length).toBeGreaterThan(3);
+		for (const { lotId, total } of ledgerSums()) expect(lots.find((l) => l.id === lotId)?.onHand).toBe(total);
+		expect(await seedDemo()).toBe(0);
+	});
+});
