@@ -39,9 +39,18 @@ function timeCase(bench: BenchCase): { medianMs: number; p90Ms: number; repetiti
 }
 
 const cases = await loadCases();
+let failures = 0;
 console.log('benchmark'.padEnd(58), 'median ms'.padStart(10), 'p90 ms'.padStart(10), 'target'.padStart(8), 'ratio'.padStart(7));
 for (const bench of cases) {
-	const { medianMs, p90Ms } = timeCase(bench);
+	let timing: ReturnType<typeof timeCase>;
+	try {
+		timing = timeCase(bench);
+	} catch (cause) {
+		failures++;
+		console.log(bench.name.padEnd(58), `FAILED: ${(cause as Error).message}`);
+		continue;
+	}
+	const { medianMs, p90Ms } = timing;
 	const ratio = medianMs / bench.targetMs;
 	console.log(
 		bench.name.padEnd(58),
@@ -52,3 +61,4 @@ for (const bench of cases) {
 	);
 }
 console.log('ratio = median / target; a ratio above 1 (marked !) misses its target.');
+if (failures) process.exitCode = 1;

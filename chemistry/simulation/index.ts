@@ -1,0 +1,18 @@
+export { simulateRun, MAX_STEPS_PER_SEGMENT, NEGATIVE_STATE_TOLERANCE } from './simulate';
+export { SimulationFailedError, type SimulationFailureReason } from './errors';
+export {
+	SIMULATION_MODEL_HELP,
+	ABSOLUTE_TOLERANCE,
+	RELATIVE_TOLERANCE,
+	OXYGEN_LIMITED_FRACTION_OF_SATURATION,
+	WASHOUT_FRACTION,
+	computeExhaustionThresholdGPerL
+} from './model';
+export {
+	compileFeedExpression,
+	FEED_EXPRESSION_VARIABLES,
+	type FeedExpression
+} from './expression';
+export { SUBSTRATE_STAT_GAIN_PER_MU_MAX, DO_STAT_BAND_FRACTION } from './feeding';
+export { MAX_END_H, MAX_OUTPUT_POINTS, MAX_DRAW_CYCLES } from './validate';
+export type * from './types';

@@ -1,0 +1,597 @@
+import { Outcome, Solver, type DenseInterpolant, type OutputFunction } from 'odex';
+import { SimulationFailedError } from './errors';
+import {
+	hasCrossed,
+	locateCrossing,
+	MAX_REPORTS_PER_KIND,
+	updateArming,
+	type ThresholdEvent
+} from './events';
+import { applyAddition, applyDrawFill, createFeedLaw } from './feeding';
+import {
+	ABSOLUTE_TOLERANCE,
+	C,
+	computeGrowthRatePerH,
+	computeInflowLPerH,
+	computeOurMgPerLH,
+	computeOxygenRelaxationPerH,
+	computeQuasiSteadyOxygenMgPerL,
+	createDerivative,
+	fillEffectiveState,
+	O2_MOLAR_MASS_G_PER_MOL,
+	OXYGEN_LIMITED_FRACTION_OF_SATURATION,
+	OXYGEN_QUASI_STEADY_RATIO,
+	P,
+	RELATIVE_TOLERANCE,
+	S,
+	STATE_COUNT,
+	V,
+	WASHOUT_FRACTION,
+	X,
+	type FlowPhase,
+	type ModelParameters
+} from './model';
+import { planSegments, type Segment } from './modes';
+import type { SimulationEvent, SimulationRequest, SimulationResult } from './types';
+import { validateSimulationRequest, type SimulationPlan } from './validate';
+
+/** Steps allowed per integration stretch; beyond this the run is too stiff for the integrator. */
+export const MAX_STEPS_PER_SEGMENT = 200_000;
+/** ODEX extrapolation columns (its default is 9); see the constructor. */
+export const EXTRAPOLATION_COLUMNS = 4;
+/** A concentration or volume below −this (in its own unit) is a failed integration, not rounding. */
+export const NEGATIVE_STATE_TOLERANCE = 1e-6;
+/** DO below −this ends the run as oxygen-depleted (see the event list in the model help). */
+const DEPLETED_DO_MG_PER_L = -1e-6;
+
+/**
+ * Simulates one culture run. Throws `ChemistryInputError` (with the request field) for input the
+ * model cannot use and `SimulationFailedError` when the integration cannot be trusted.
+ */
+export function simulateRun(request: SimulationRequest): SimulationResult {
+	assertIntegratorLoaded();
+	const plan = validateSimulationRequest(request);
+	return new RunIntegrator(plan).run();
+}
+
+function assertIntegratorLoaded(): void {
+	// Under tsx, the project's tsconfig path mapping sends `odex` to its type declaration; say so
+	// plainly rather than failing later with "solve is not a function".
+	if (typeof Solver !== 'function' || typeof Solver.prototype?.solve !== 'function') {
+		throw new SimulationFailedError(
+			'The odex integrator did not load (the module "odex" resolved to its type declaration, not node_modules/odex/src/odex.js).',
+			'integratorMissing',
+			0
+		);
+	}
+}
+
+interface Output {
+	t: number[];
+	x: number[];
+	s: number[];
+	p: number[];
+	v: number[];
+	c: number[];
+	feed: number[];
+	our: number[];
+	count: number;
+}
+
+/** Why an integration stretch ended before its end time. */
+type Cut = { kind: 'stop'; tH: number; event: ThresholdEvent } | { kind: 'switch'; tH: number };
+
+class RunIntegrator {
+	private readonly plan: SimulationPlan;
+	private readonly p: ModelParameters;
+	private readonly y: number[];
+	private readonly out: Output;
+	private readonly events: SimulationEvent[] = [];
+	private readonly trackers: ThresholdEvent[] = [];
+	private readonly washout: ThresholdEvent | null = null;
+	private readonly solver: Solver;
+	private readonly stats = { accepted: 0, rejected: 0, evaluations: 0 };
+	/** DO relaxation rate above which its balance is solved at quasi-steady state */
+	private readonly quasiSteadyAbovePerH: number;
+	private quasiSteadyOxygen = false;
+	private readonly quasiSteadyIntervals: { fromH: number; toH: number }[] = [];
+	/** reused for effective states and dense output points */
+	private readonly scratch = new Array<number>(STATE_COUNT).fill(0);
+	private readonly effective = new Array<number>(STATE_COUNT).fill(0);
+	private nextOutput = 0;
+	private stoppedAtH: number | null = null;
+
+	constructor(plan: SimulationPlan) {
+		this.plan = plan;
+		this.p = plan.parameters;
+		this.y = plan.initialState.slice();
+		const n = plan.outputTimesH.length;
+		const series = () => new Array<number>(n);
+		this.out = {
+			t: series(),
+			x: series(),
+			s: series(),
+			p: series(),
+			v: series(),
+			c: series(),
+			feed: series(),
+			our: series(),
+			count: 0
+		};
+		this.solver = new Solver(STATE_COUNT);
+		this.solver.denseOutput = true;
+		this.solver.absoluteTolerance = ABSOLUTE_TOLERANCE;
+		this.solver.relativeTolerance = RELATIVE_TOLERANCE;
+		this.solver.maxSteps = MAX_STEPS_PER_SEGMENT;
+		// These runs turn stiff (fast DO and substrate dynamics at high biomass), where stability rather
+		// than accuracy bounds the step; a low extrapolation order then needs about half the right-hand
+		// side evaluations of the default 9 columns, with results equal within the tolerances.
+		this.solver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
+		this.quasiSteadyAbovePerH =
+			OXYGEN_QUASI_STEADY_RATIO * Math.max(this.p.muMaxPerH, plan.continuous?.dilutionPerH ?? 0);
+
+		const sEx = this.p.exhaustionGPerL;
+		this.trackers.push({
+			kind: 'substrateExhausted',
+			measure: (y) => y[S],
+			threshold: sEx,
+			direction: 'falling',
+			rearmAbove: 10 * sEx,
+			stops: false,
+			armed: true,
+			count: 0,
+			describe: () => `Substrate exhausted: S fell below ${formatNumber(sEx)} g/L.`
+		});
+		const o2 = this.p.oxygen;
+		if (o2 !== null) {
+			const limit = OXYGEN_LIMITED_FRACTION_OF_SATURATION * o2.saturationMgPerL;
+			const maxOtr = (o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL;
+			this.trackers.push({
+				kind: 'oxygenLimited',
+				measure: (y) => y[C],
+				threshold: limit,
+				direction: 'falling',
+				rearmAbove: 2 * limit,
+				stops: false,
+				armed: true,
+				count: 0,
+				describe: () =>
+					`Oxygen-limited: DO fell below ${formatNumber(limit)} mg/L (5 % of saturation); transfer is at its maximum, about ${formatNumber(maxOtr)} mmol/L/h.`
+			});
+			this.trackers.push({
+				kind: 'oxygenDepleted',
+				measure: (y) => y[C],
+				threshold: DEPLETED_DO_MG_PER_L,
+				direction: 'falling',
+				rearmAbove: null,
+				stops: true,
+				armed: true,
+				count: 0,
+				describe: () =>
+					o2.koMgPerL > 0
+						? 'Oxygen depleted: maintenance demand alone exceeds the maximum transfer kLa·C*; the run stops here.'
+						: 'Oxygen depleted: demand exceeds the maximum transfer kLa·C*, and without kinetics.koMgPerL growth cannot slow as DO falls; the run stops here.'
+			});
+		}
+		if (plan.maxVolumeL !== null && plan.mode === 'fedBatch') {
+			const maxVolumeL = plan.maxVolumeL;
+			this.trackers.push({
+				kind: 'maxVolumeReached',
+				measure: (y) => y[V],
+				threshold: maxVolumeL,
+				direction: 'rising',
+				rearmAbove: null,
+				stops: true,
+				armed: true,
+				count: 0,
+				describe: () =>
+					`Maximum working volume (${formatNumber(maxVolumeL)} L) reached; the run stops here.`
+			});
+		}
+		if (plan.mode === 'chemostat' || plan.mode === 'perfusion' || plan.mode === 'drawFill') {
+			// Armed, with its reference biomass, when continuous operation or the first cycle starts.
+			this.washout = {
+				kind: 'washout',
+				measure: (y) => y[X],
+				threshold: 0,
+				direction: 'falling',
+				rearmAbove: null,
+				stops: false,
+				armed: false,
+				count: 0,
+				describe: () => ''
+			};
+			this.trackers.push(this.washout);
+		}
+	}
+
+	run(): SimulationResult {
+		this.chooseOxygenBalance(0);
+		// A quantity already past a falling threshold at the start is reported at t = 0.
+		const start = this.effectiveState(this.y);
+		for (const event of this.trackers) {
+			if (event.armed && !event.stops && hasCrossed(event, event.measure(start)))
+				this.report(event, 0);
+		}
+		const segments = planSegments(this.plan);
+		for (let i = 0; i < segments.length && this.stoppedAtH === null; i++) {
+			this.integrateSegment(segments[i], i === segments.length - 1);
+		}
+		const last = this.quasiSteadyIntervals.at(-1);
+		if (last !== undefined && Number.isNaN(last.toH)) last.toH = this.stoppedAtH ?? this.plan.endH;
+		return this.buildResult();
+	}
+
+	private effectiveState(y: ArrayLike<number>): number[] {
+		return fillEffectiveState(this.p, this.quasiSteadyOxygen, y, this.effective);
+	}
+
+	/**
+	 * Picks the dynamic or the quasi-steady O2 balance for the state at tH, with hysteresis (see
+	 * OXYGEN_QUASI_STEADY_RATIO); entering the dynamic balance starts DO from its quasi-steady value.
+	 */
+	private chooseOxygenBalance(tH: number): void {
+		if (this.p.oxygen === null) return;
+		const lambda = computeOxygenRelaxationPerH(this.p, this.effectiveState(this.y));
+		if (!this.quasiSteadyOxygen && lambda > this.quasiSteadyAbovePerH)
+			this.setQuasiSteady(true, tH);
+		else if (this.quasiSteadyOxygen && lambda < 0.5 * this.quasiSteadyAbovePerH)
+			this.setQuasiSteady(false, tH);
+	}
+
+	private setQuasiSteady(on: boolean, tH: number): void {
+		if (on) {
+			this.quasiSteadyIntervals.push({ fromH: tH, toH: Number.NaN });
+		} else {
+			this.y[C] = computeQuasiSteadyOxygenMgPerL(this.p, this.y);
+			this.quasiSteadyIntervals[this.quasiSteadyIntervals.length - 1].toH = tH;
+		}
+		this.quasiSteadyOxygen = on;
+	}
+
+	private integrateSegment(segment: Segment, isLast: boolean): void {
+		const phase = this.enterSegment(segment);
+		let fromH = segment.startH;
+		this.chooseOxygenBalance(fromH);
+		for (;;) {
+			const cut = this.integrateStretch(segment, phase, fromH, isLast);
+			if (cut === null || cut.kind === 'stop') return;
+			fromH = cut.tH;
+			this.setQuasiSteady(!this.quasiSteadyOxygen, fromH);
+		}
+	}
+
+	/**
+	 * Integrates from `fromH` to the segment's end, or to a stop or a change of O2 balance, which it
+	 * returns. Leaves the state at where it ended.
+	 */
+	private integrateStretch(
+		segment: Segment,
+		phase: FlowPhase,
+		fromH: number,
+		isLast: boolean
+	): Cut | null {
+		const y = this.y;
+		const p = this.p;
+		const qss = this.quasiSteadyOxygen;
+		const startState = this.effectiveState(y);
+		for (const event of this.trackers) updateArming(event, event.measure(startState));
+		const alreadyPast = this.stopIfAlreadyPast(fromH, phase);
+		if (alreadyPast !== null) return { kind: 'stop', tH: fromH, event: alreadyPast };
+
+		const derivative = createDerivative(p, phase, qss);
+		const endH = segment.endH;
+		const eps = 1e-9 * Math.max(1, Math.abs(endH));
+		const times = this.plan.outputTimesH;
+		const trackers = this.trackers;
+		const previous = trackers.map((event) => event.measure(startState));
+		const current = previous.slice();
+		const o2 = p.oxygen;
+		const switchAt = qss ? 0.5 * this.quasiSteadyAbovePerH : this.quasiSteadyAbovePerH;
+		const switchSign = qss ? -1 : 1;
+		const switchValue = (state: ArrayLike<number>) =>
+			switchSign * (computeOxygenRelaxationPerH(p, state) - switchAt);
+		let previousSwitch = o2 === null ? -1 : switchValue(startState);
+		let reachedH = fromH;
+		// (Assigned in the observer, which TypeScript's narrowing does not follow; hence the cast.)
+		let cut = null as Cut | null;
+
+		const observer: OutputFunction = (nr, xOld, x, yNew, dense) => {
+			if (nr === 1 || dense === undefined) {
+				while (this.nextOutput < times.length && times[this.nextOutput] <= x + eps) {
+					this.record(times[this.nextOutput], this.effectiveState(yNew), phase);
+				}
+				return;
+			}
+			reachedH = x;
+			this.checkState(yNew, x);
+			const state = this.effectiveState(yNew);
+			for (let i = 0; i < trackers.length; i++) current[i] = trackers[i].measure(state);
+			const at = (tH: number) => this.effectiveState(this.interpolate(dense, tH, this.scratch));
+
+			// Stops and a change of O2 balance first: nothing after them happens in this stretch.
+			let cutH = Infinity;
+			for (let i = 0; i < trackers.length; i++) {
+				const event = trackers[i];
+				if (!event.stops || !event.armed) continue;
+				if (!hasCrossed(event, current[i]) || hasCrossed(event, previous[i])) continue;
+				const g = (tH: number) => event.measure(at(tH)) - event.threshold;
+				const tH = locateCrossing(
+					g,
+					xOld,
+					previous[i] - event.threshold,
+					x,
+					current[i] - event.threshold
+				);
+				if (tH < cutH) {
+					cutH = tH;
+					cut = { kind: 'stop', tH, event };
+				}
+			}
+			if (o2 !== null) {
+				const now = switchValue(state);
+				if (now > 0 && previousSwitch <= 0) {
+					const tH = locateCrossing((t) => switchValue(at(t)), xOld, previousSwitch, x, now);
+					if (tH < cutH) {
+						cutH = tH;
+						cut = { kind: 'switch', tH };
+					}
+				}
+				previousSwitch = now;
+			}
+			for (let i = 0; i < trackers.length; i++) {
+				const event = trackers[i];
+				if (event.stops || !event.armed) continue;
+				if (!hasCrossed(event, current[i]) || hasCrossed(event, previous[i])) continue;
+				const g = (tH: number) => event.measure(at(tH)) - event.threshold;
+				const tH = locateCrossing(
+					g,
+					xOld,
+					previous[i] - event.threshold,
+					x,
+					current[i] - event.threshold
+				);
+				if (tH < cutH) this.report(event, tH);
+			}
+			if (cut === null) {
+				for (let i = 0; i < trackers.length; i++) updateArming(trackers[i], current[i]);
+			}
+
+			while (this.nextOutput < times.length) {
+				const t = times[this.nextOutput];
+				if (cut?.kind === 'stop') {
+					if (t > cutH + eps) break;
+					this.recordDense(t < cutH ? t : cutH, dense, phase);
+				} else if (cut?.kind === 'switch') {
+					// Output times at the switch belong to the stretch after it.
+					if (t >= cutH - eps) break;
+					this.recordDense(t < xOld ? xOld : t, dense, phase);
+				} else {
+					// An output time on the segment's end belongs to the next segment (the state after the jump).
+					if (t > x + eps || (!isLast && t >= endH - eps)) break;
+					this.recordDense(t < xOld ? xOld : t > x ? x : t, dense, phase);
+				}
+			}
+			if (cut !== null) {
+				this.interpolate(dense, cutH, y);
+				if (cut.kind === 'stop') {
+					if (this.out.count === 0 || cutH - this.out.t[this.out.count - 1] > eps) {
+						this.appendPoint(cutH, this.effectiveState(y), phase);
+					}
+					this.report(cut.event, cutH);
+					this.stoppedAtH = cutH;
+				}
+				return false;
+			}
+			for (let i = 0; i < trackers.length; i++) previous[i] = current[i];
+		};
+
+		const result = this.solver.solve(derivative, fromH, y.slice(), endH, observer);
+		this.stats.accepted += result.nAccept;
+		this.stats.rejected += result.nReject;
+		this.stats.evaluations += result.nEval;
+		if (result.outcome === Outcome.MaxStepsExceeded) {
+			throw new SimulationFailedError(
+				`The integrator needed more than ${MAX_STEPS_PER_SEGMENT} steps and stopped at t = ${reachedH.toFixed(3)} h: the run is too stiff for it (typically very fast substrate dynamics at high biomass, or a feed expression that switches abruptly). Try a larger Ks, a smooth feed law, or a shorter run.`,
+				'stepLimit',
+				reachedH
+			);
+		}
+		if (cut === null) for (let i = 0; i < STATE_COUNT; i++) y[i] = result.y[i];
+		return cut;
+	}
+
+	/** Applies what happens at a segment's start and returns its flows. */
+	private enterSegment(segment: Segment): FlowPhase {
+		const plan = this.plan;
+		const y = this.y;
+		const saturation = this.p.oxygen?.saturationMgPerL ?? null;
+		switch (segment.entry) {
+			case 'feedStart': {
+				const feed = plan.feed!;
+				if (feed.bolusL > 0) applyAddition(y, feed.bolusL, feed.substrateGPerL, saturation);
+				if (segment.startH > 0 || feed.bolusL > 0) {
+					const bolus = feed.bolusL > 0 ? ` after a bolus of ${formatNumber(feed.bolusL)} L` : '';
+					this.events.push({
+						kind: 'feedStarted',
+						tH: segment.startH,
+						message: `Feed (${feed.strategy}) started${bolus}.`
+					});
+				}
+				break;
+			}
+			case 'continuousStart':
+				this.armWashout();
+				if (segment.startH > 0) {
+					this.events.push({
+						kind: 'feedStarted',
+						tH: segment.startH,
+						message: `Continuous operation started at D = ${formatNumber(plan.continuous!.dilutionPerH)} /h.`
+					});
+				}
+				break;
+			case 'cycleStart':
+				this.armWashout();
+				break;
+			case 'draw': {
+				const { fraction } = plan.drawFill!;
+				applyDrawFill(y, fraction, plan.feedSubstrateGPerL, saturation);
+				this.events.push({
+					kind: 'draw',
+					tH: segment.startH,
+					message: `Drew ${formatNumber(100 * fraction)} % (${formatNumber(fraction * y[V])} L) and refilled with fresh medium.`
+				});
+				break;
+			}
+		}
+		if (segment.flow === 'closed') return { kind: 'closed' };
+		if (segment.flow === 'continuous') {
+			return {
+				kind: 'continuous',
+				...plan.continuous!,
+				feedSubstrateGPerL: plan.feedSubstrateGPerL
+			};
+		}
+		const feed = plan.feed!;
+		return {
+			kind: 'fed',
+			feedLaw: createFeedLaw(feed, this.p, y),
+			feedSubstrateGPerL: feed.substrateGPerL
+		};
+	}
+
+	private armWashout(): void {
+		const washout = this.washout;
+		if (washout === null) return;
+		const reference = this.y[X];
+		washout.threshold = WASHOUT_FRACTION * reference;
+		washout.armed = true;
+		const began =
+			this.plan.mode === 'drawFill' ? 'the draw cycles began' : 'continuous operation began';
+		washout.describe = () =>
+			`Washout: biomass fell below 1 % of the ${formatNumber(reference)} g/L it had when ${began}.`;
+	}
+
+	/** A stopping threshold already met at a stretch's start (e.g. a bolus up to the maximum volume). */
+	private stopIfAlreadyPast(tH: number, phase: FlowPhase): ThresholdEvent | null {
+		const state = this.effectiveState(this.y);
+		for (const event of this.trackers) {
+			if (event.stops && event.armed && hasCrossed(event, event.measure(state))) {
+				const times = this.plan.outputTimesH;
+				const eps = 1e-9 * Math.max(1, tH);
+				while (this.nextOutput < times.length && times[this.nextOutput] <= tH + eps) {
+					this.record(times[this.nextOutput], this.effectiveState(this.y), phase);
+				}
+				if (this.out.count === 0 || tH - this.out.t[this.out.count - 1] > eps) {
+					this.appendPoint(tH, this.effectiveState(this.y), phase);
+				}
+				this.report(event, tH);
+				this.stoppedAtH = tH;
+				return event;
+			}
+		}
+		return null;
+	}
+
+	private checkState(y: number[], tH: number): void {
+		for (let i = 0; i < STATE_COUNT; i++) {
+			if (!Number.isFinite(y[i])) {
+				throw new SimulationFailedError(
+					`The integration produced a non-finite ${STATE_NAMES[i]} at t = ${tH.toFixed(3)} h.`,
+					'nonFinite',
+					tH
+				);
+			}
+		}
+		for (const i of [X, S, P, V]) {
+			if (y[i] < -NEGATIVE_STATE_TOLERANCE) {
+				throw new SimulationFailedError(
+					`The integration drove ${STATE_NAMES[i]} to ${y[i].toExponential(2)} at t = ${tH.toFixed(3)} h, below zero beyond the tolerance.`,
+					'negativeState',
+					tH
+				);
+			}
+		}
+	}
+
+	private report(event: ThresholdEvent, tH: number): void {
+		event.armed = false;
+		event.count++;
+		if (event.count <= MAX_REPORTS_PER_KIND) {
+			this.events.push({ kind: event.kind, tH, message: event.describe() });
+		}
+	}
+
+	private interpolate(dense: DenseInterpolant, tH: number, into: number[]): number[] {
+		for (let i = 0; i < STATE_COUNT; i++) into[i] = dense(i, tH);
+		return into;
+	}
+
+	private recordDense(tH: number, dense: DenseInterpolant, phase: FlowPhase): void {
+		const state = this.effectiveState(this.interpolate(dense, tH, this.scratch));
+		this.record(this.plan.outputTimesH[this.nextOutput], state, phase, tH);
+	}
+
+	/** Writes the next output point; `evaluatedAtH` is where the state was taken (clamped into the step). */
+	private record(tH: number, state: ArrayLike<number>, phase: FlowPhase, evaluatedAtH = tH): void {
+		this.nextOutput++;
+		this.appendPoint(tH, state, phase, evaluatedAtH);
+	}
+
+	/** Appends an output point from an effective state. */
+	private appendPoint(
+		tH: number,
+		state: ArrayLike<number>,
+		phase: FlowPhase,
+		evaluatedAtH = tH
+	): void {
+		const o = this.out;
+		const i = o.count++;
+		o.t[i] = tH;
+		o.x[i] = clampToZero(state[X]);
+		o.s[i] = clampToZero(state[S]);
+		o.p[i] = clampToZero(state[P]);
+		o.v[i] = state[V];
+		o.c[i] = clampToZero(state[C]);
+		o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state);
+		o.our[i] =
+			computeOurMgPerLH(this.p, state, computeGrowthRatePerH(this.p, state)) /
+			O2_MOLAR_MASS_G_PER_MOL;
+	}
+
+	private buildResult(): SimulationResult {
+		const o = this.out;
+		const n = o.count;
+		for (const series of [o.t, o.x, o.s, o.p, o.v, o.c, o.feed, o.our]) series.length = n;
+		const o2 = this.p.oxygen;
+		const maxOtr = o2 === null ? 0 : (o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL;
+		const result: SimulationResult = {
+			t: o.t,
+			biomassGPerL: o.x,
+			substrateGPerL: o.s,
+			productGPerL: o.p,
+			volumeL: o.v,
+			dissolvedOxygenMgPerL: o2 === null ? null : o.c,
+			feedLPerH: o.feed,
+			ourMmolPerLH: o2 === null ? null : o.our,
+			maxOtrMmolPerLH: o2 === null ? null : new Array<number>(n).fill(maxOtr),
+			events: this.events.slice().sort((a, b) => a.tH - b.tH),
+			tolerances: { absolute: ABSOLUTE_TOLERANCE, relative: RELATIVE_TOLERANCE },
+			quasiSteadyOxygenH: o2 === null ? null : this.quasiSteadyIntervals,
+			integratorSteps: { ...this.stats }
+		};
+		if (this.stoppedAtH !== null) result.stoppedAtH = this.stoppedAtH;
+		return result;
+	}
+}
+
+const STATE_NAMES = ['biomass', 'substrate', 'product', 'volume', 'dissolved oxygen'];
+
+/** Values within the tolerance below zero are rounding, reported as 0 (real failures throw). */
+function clampToZero(value: number): number {
+	return value < 0 ? 0 : value;
+}
+
+function formatNumber(value: number): string {
+	return Number(value.toPrecision(3)).toString();
+}

@@ -1,0 +1,125 @@
+// Request and result shapes of the process simulation; `POST /api/v1/simulate` passes its body straight through.
+
+export type OperatingMode = 'batch' | 'fedBatch' | 'chemostat' | 'perfusion' | 'drawFill';
+
+export type FeedStrategy =
+	'constant' | 'linear' | 'exponential' | 'substrateStat' | 'doStat' | 'expression';
+
+export interface KineticsInput {
+	muMaxPerH: number;
+	ksGPerL: number;
+	/** g biomass per g substrate */
+	yieldXS: number;
+	/** substrate for maintenance, g substrate per g biomass per h (Pirt) */
+	maintenanceGPerGH?: number;
+	/** g biomass per g O2; required when `oxygen` is given */
+	yieldXO2?: number;
+	/** O2 half-saturation constant; growth is O2-limited only when it is above 0 */
+	koMgPerL?: number;
+	/** Luedeking–Piret growth-associated term, g product per g biomass */
+	alpha?: number;
+	/** Luedeking–Piret non-growth term, g product per g biomass per h */
+	beta?: number;
+}
+
+export interface InitialStateInput {
+	biomassGPerL: number;
+	substrateGPerL: number;
+	volumeL: number;
+	/** defaults to `oxygen.saturationMgPerL` */
+	dissolvedOxygenMgPerL?: number;
+	productGPerL?: number;
+}
+
+export interface FeedInput {
+	strategy: FeedStrategy;
+	/** substrate in the feed (or the fresh medium in chemostat, perfusion and draw-fill) */
+	substrateGPerL: number;
+	rateLPerH?: number;
+	slopeLPerH2?: number;
+	muSetPerH?: number;
+	setpointGPerL?: number;
+	doSetpointMgPerL?: number;
+	expression?: string;
+	startH?: number;
+	bolusL?: number;
+	maxRateLPerH?: number;
+}
+
+export interface OxygenInput {
+	kLaPerH: number;
+	saturationMgPerL: number;
+	/** O2 for maintenance, mg O2 per g biomass per h */
+	maintenanceMgPerGH?: number;
+}
+
+export interface PerfusionInput {
+	/** fraction of cells the retention device holds back from the harvest stream, 0–1 */
+	retentionEfficiency: number;
+	/** cell bleed, vessel volumes per hour (leaves with the culture's full biomass) */
+	bleedPerH: number;
+}
+
+export interface DrawFillInput {
+	/** fraction of the working volume withdrawn and replaced with fresh medium at each draw */
+	fraction: number;
+	everyH: number;
+}
+
+export interface SimulationRequest {
+	mode: OperatingMode;
+	kinetics: KineticsInput;
+	initial: InitialStateInput;
+	feed?: FeedInput;
+	oxygen?: OxygenInput;
+	perfusion?: PerfusionInput;
+	drawFill?: DrawFillInput;
+	dilutionPerH?: number;
+	maxVolumeL?: number;
+	endH: number;
+	outputEveryH: number;
+}
+
+export type SimulationEventKind =
+	| 'substrateExhausted'
+	| 'oxygenLimited'
+	| 'oxygenDepleted'
+	| 'maxVolumeReached'
+	| 'washout'
+	| 'feedStarted'
+	| 'draw';
+
+export interface SimulationEvent {
+	kind: SimulationEventKind;
+	tH: number;
+	message: string;
+}
+
+export interface IntegratorTolerances {
+	absolute: number;
+	relative: number;
+}
+
+export interface SimulationResult {
+	t: number[];
+	biomassGPerL: number[];
+	substrateGPerL: number[];
+	productGPerL: number[];
+	volumeL: number[];
+	/** null when the request has no `oxygen` block: no O2 balance is solved */
+	dissolvedOxygenMgPerL: number[] | null;
+	/** inflow at each output time (feed, or dilution/perfusion flow); draws are discrete and not shown */
+	feedLPerH: number[];
+	ourMmolPerLH: number[] | null;
+	maxOtrMmolPerLH: number[] | null;
+	events: SimulationEvent[];
+	tolerances: IntegratorTolerances;
+	/**
+	 * Stretches of the run in which DO relaxed so fast that its balance was solved at quasi-steady
+	 * state (dC/dt = 0) rather than integrated; null without an oxygen block.
+	 */
+	quasiSteadyOxygenH: { fromH: number; toH: number }[] | null;
+	/** set when the run ended before `endH` (maximum volume reached, or oxygen depleted) */
+	stoppedAtH?: number;
+	integratorSteps: { accepted: number; rejected: number; evaluations: number };
+}
