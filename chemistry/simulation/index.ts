@@ -1,10 +1,16 @@
-export { simulateRun, MAX_STEPS_PER_SEGMENT, NEGATIVE_STATE_TOLERANCE } from './simulate';
+export {
+	simulateRun,
+	MAX_STEPS_PER_SEGMENT,
+	EXTRAPOLATION_COLUMNS,
+	NEGATIVE_STATE_TOLERANCE
+} from './simulate';
 export { SimulationFailedError, type SimulationFailureReason } from './errors';
 export {
 	SIMULATION_MODEL_HELP,
 	ABSOLUTE_TOLERANCE,
 	RELATIVE_TOLERANCE,
 	OXYGEN_LIMITED_FRACTION_OF_SATURATION,
+	OXYGEN_QUASI_STEADY_RATIO,
 	WASHOUT_FRACTION,
 	computeExhaustionThresholdGPerL
 } from './model';

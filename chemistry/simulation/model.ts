@@ -179,11 +179,11 @@ export function computeInflowLPerH(
 	p: ModelParameters,
 	phase: FlowPhase,
 	tH: number,
-	y: ArrayLike<number>
+	y: ArrayLike<number>,
+	mu = computeGrowthRatePerH(p, y)
 ): number {
 	if (phase.kind === 'closed') return 0;
 	if (phase.kind === 'continuous') return phase.dilutionPerH * y[V];
-	const mu = computeGrowthRatePerH(p, y);
 	return phase.feedLaw(tH, y, computeSpecificUptakePerH(p, y, mu) * y[X]);
 }
 
@@ -262,9 +262,10 @@ block is given, dissolved oxygen C (mg/L).
 - DO is integrated as a state while it changes on a time scale the integrator can follow. Where it
   relaxes more than 1000 times faster than the culture can change (λ = kLa + ∂OUR/∂C above
   1000·max(μmax, D), as at O2 limitation with high biomass, where DO settles in milliseconds), the
-  balance is solved at quasi-steady state instead, kLa(C* − C) = OUR(C); DO then lags that value by
-  about 0.1 % or less. The result lists these stretches (quasiSteadyOxygenH); from t = 0 in such a run
-  the given initial DO is replaced by the quasi-steady value.
+  balance is solved at quasi-steady state instead, kLa(C* − C) = OUR(C); the lag this neglects, 1/λ
+  against the culture's time scale, is 0.1 % or less. The result lists these stretches
+  (quasiSteadyOxygenH); when one starts at t = 0 the given initial DO is replaced by the quasi-steady
+  value.
 - Without an oxygen block no oxygen balance is solved: the DO, OUR and OTR series are null and growth
   is never oxygen-limited. With an oxygen block, Yx/O2 is required.
 
@@ -277,6 +278,9 @@ block is given, dissolved oxygen C (mg/L).
 - drawFill: the vessel runs as a batch; every N hours (from the feed start time) a fraction of the
   volume is withdrawn and replaced with fresh medium, which scales X and P by (1 − fraction) and mixes S
   towards the medium's substrate.
+- In chemostat, perfusion and draw-fill runs the feed block describes the fresh medium (its substrate,
+  and its start time); the flow itself is set by the mode. A maximum working volume stops only
+  fed-batch runs: the other modes keep the volume constant.
 
 **Feeding strategies** (fed-batch; each starts at startH, with an optional bolus of feed at that time)
 - constant: F = rate.
@@ -287,9 +291,9 @@ block is given, dissolved oxygen C (mg/L).
   F = [q_S·X + k(S_set − S)]·V/(S_f − S) with k = 10·μmax, limited to 0 … maximum rate. While S is above
   the setpoint the law asks for a negative rate, so the feed stays off; below it S settles on the
   setpoint about ten times faster than the culture grows.
-- doStat: F = F_max/(1 + e^{−(C − C_set)/w}), w = 1 % of C*: the feed runs at full rate while DO is
-  well above the setpoint and is cut smoothly as DO falls below it (a steep logistic keeps the
-  integrator's error control working). At steady control the biomass growth rate per volume is capped
+- doStat: F = F_max/(1 + e^{−(C − C_set)/w}), F_max the maximum rate, w = 1 % of C*: the feed runs
+  at full rate while DO is well above the setpoint and is cut smoothly as DO falls below it (a steep
+  logistic keeps the integrator's error control working). At steady control the biomass growth rate per volume is capped
   near Yx/O2·kLa·(C* − C_set).
 - expression: F(t) is any arithmetic expression of t (h), X, S, P, V and DO (or C), with the usual math
   functions; assignments, function definitions and unknown names are refused. A negative or
@@ -306,5 +310,7 @@ block is given, dissolved oxygen C (mg/L).
 **Numerics**: the ODEX extrapolation integrator (Hairer & Wanner) with adaptive steps, absolute and
 relative tolerance 1e-8 on every state, dense output at the requested times. Feed start, bolus and draws
 split the run into segments integrated one after another. Values at an output time that coincides
-with a draw or bolus are those just after it.
+with a draw or bolus are those just after it. A run the integrator cannot follow (more than 200 000
+steps in one stretch, a non-finite value, or a concentration below −1e-6) fails with an error rather
+than returning numbers.
 `;

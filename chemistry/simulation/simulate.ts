@@ -293,6 +293,10 @@ class RunIntegrator {
 			switchSign * (computeOxygenRelaxationPerH(p, state) - switchAt);
 		let previousSwitch = o2 === null ? -1 : switchValue(startState);
 		let reachedH = fromH;
+		// One closure per stretch rather than per step (the observer runs at every step).
+		let currentDense: DenseInterpolant | null = null;
+		const at = (tH: number) =>
+			this.effectiveState(this.interpolate(currentDense!, tH, this.scratch));
 		// (Assigned in the observer, which TypeScript's narrowing does not follow; hence the cast.)
 		let cut = null as Cut | null;
 
@@ -307,7 +311,7 @@ class RunIntegrator {
 			this.checkState(yNew, x);
 			const state = this.effectiveState(yNew);
 			for (let i = 0; i < trackers.length; i++) current[i] = trackers[i].measure(state);
-			const at = (tH: number) => this.effectiveState(this.interpolate(dense, tH, this.scratch));
+			currentDense = dense;
 
 			// Stops and a change of O2 balance first: nothing after them happens in this stretch.
 			let cutH = Infinity;
@@ -553,10 +557,9 @@ class RunIntegrator {
 		o.p[i] = clampToZero(state[P]);
 		o.v[i] = state[V];
 		o.c[i] = clampToZero(state[C]);
-		o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state);
-		o.our[i] =
-			computeOurMgPerLH(this.p, state, computeGrowthRatePerH(this.p, state)) /
-			O2_MOLAR_MASS_G_PER_MOL;
+		const mu = computeGrowthRatePerH(this.p, state);
+		o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state, mu);
+		o.our[i] = computeOurMgPerLH(this.p, state, mu) / O2_MOLAR_MASS_G_PER_MOL;
 	}
 
 	private buildResult(): SimulationResult {

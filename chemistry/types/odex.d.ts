@@ -1,5 +1,8 @@
 // Stands in for odex's own raw .ts sources (which fail our strict checks); only what chemistry/ uses.
-// Runtime entry: node_modules/odex/src/odex.js (CommonJS), mapped here by svelte.config.js.
+// Runtime entry: node_modules/odex/src/odex.js (CommonJS); svelte.config.js maps `odex` here for tsc.
+// No `declare` on the class and enum, on purpose: tsx applies that same mapping at run time and loads
+// this file as code; with them left in, the import still links and simulateRun can say what went
+// wrong, instead of the whole module graph failing to load.
 
 /** Computes y' = f(x, y); the solver copies the returned array, so it may be reused between calls. */
 export type Derivative = (x: number, y: number[]) => number[];

@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { computeChemostatSteadyState } from '../../chemistry/chemostat';
 import { computeMonodBatchTimeH } from '../../chemistry/productivity';
@@ -63,6 +64,37 @@ describe('batch', () => {
 		for (let i = 0; i < r.t.length; i++) {
 			expect(r.biomassGPerL[i] - 0.1).toBeCloseTo(0.5 * (20 - r.substrateGPerL[i]), 6);
 		}
+	});
+
+	it('conserves X + Yx/s·S for any Monod culture without maintenance', () => {
+		// Same balance as above (Monod 1949), over random kinetics and starting points.
+		fc.assert(
+			fc.property(
+				fc.record({
+					muMaxPerH: fc.double({ min: 0.05, max: 1.5, noNaN: true }),
+					ksGPerL: fc.double({ min: 0.01, max: 2, noNaN: true }),
+					yieldXS: fc.double({ min: 0.1, max: 0.9, noNaN: true }),
+					x0: fc.double({ min: 0.01, max: 2, noNaN: true }),
+					s0: fc.double({ min: 0.5, max: 50, noNaN: true })
+				}),
+				({ muMaxPerH, ksGPerL, yieldXS, x0, s0 }) => {
+					const r = simulateRun({
+						mode: 'batch',
+						kinetics: { muMaxPerH, ksGPerL, yieldXS },
+						initial: { biomassGPerL: x0, substrateGPerL: s0, volumeL: 1 },
+						endH: 48,
+						outputEveryH: 1
+					});
+					return r.t.every(
+						(_t, i) =>
+							Math.abs(r.biomassGPerL[i] + yieldXS * r.substrateGPerL[i] - (x0 + yieldXS * s0)) <=
+							1e-6 * (x0 + yieldXS * s0)
+					);
+				}
+			),
+			{ numRuns: 15, seed: 7 }
+		);
+		expect(true).toBe(true);
 	});
 
 	it('reports exhaustion at the time given by the implicit Monod batch solution', () => {
