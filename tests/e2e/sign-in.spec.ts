@@ -1,11 +1,11 @@
 import { DEMO, expect, signInWithForm, test, type DemoRole } from './fixtures';
 
 const OWN_NAVIGATION: Record<DemoRole, { shows: string[]; hides: string[] }> = {
-	admin: { shows: ['Overview', 'Recipes', 'Components', 'People', 'Outbox', 'Audit trail'], hides: [] },
-	media_scientist: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] },
-	prep_technician: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] },
-	engineer: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] },
-	inventory_lead: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail'] }
+	admin: { shows: ['Overview', 'Recipes', 'Components', 'People', 'Outbox', 'Audit trail'], hides: ['Studies', 'Organisms', 'Vessels'] },
+	media_scientist: { shows: ['Overview', 'Recipes', 'Components', 'Studies', 'Organisms', 'Vessels'], hides: ['People', 'Outbox', 'Audit trail'] },
+	prep_technician: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail', 'Studies', 'Organisms', 'Vessels'] },
+	engineer: { shows: ['Overview', 'Recipes', 'Components', 'Studies', 'Organisms', 'Vessels'], hides: ['People', 'Outbox', 'Audit trail'] },
+	inventory_lead: { shows: ['Overview', 'Recipes', 'Components'], hides: ['People', 'Outbox', 'Audit trail', 'Studies', 'Organisms', 'Vessels'] }
 };
 
 for (const [role, email] of Object.entries(DEMO) as [DemoRole, string][]) {

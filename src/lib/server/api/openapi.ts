@@ -3,6 +3,7 @@ import type { Role } from '$lib/roles';
 import { chemistryOperations } from './operations/chemistry';
 import { foundationOperations } from './operations/foundation';
 import { recipesOperations } from './operations/recipes';
+import { studiesOperations } from './operations/studies';
 
 export interface ApiOperation {
 	method: 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -43,7 +44,7 @@ function toSchema(schema: z.ZodType, io: 'input' | 'output') {
 }
 
 export function allOperations(): ApiOperation[] {
-	return [...foundationOperations, ...chemistryOperations, ...recipesOperations];
+	return [...foundationOperations, ...chemistryOperations, ...recipesOperations, ...studiesOperations];
 }
 
 export function buildOpenApiDocument(origin: string) {

@@ -136,3 +136,4 @@ export type MailMessage = typeof mailMessage.$inferSelect;
 // Each domain keeps its tables in its own file; they are all part of this one schema.
 // (add `export * from './<domain>.schema';` lines here)
 export * from './recipes.schema';
+export * from './studies.schema';

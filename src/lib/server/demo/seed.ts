@@ -3,6 +3,7 @@ import { createUser, findUserByEmail } from '../people';
 import { seedReferenceLibrary } from '../components/reference-library';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './accounts';
 import { seedDemoRecipes } from './recipes';
+import { seedDemoStudies } from './studies';
 
 /**
  * Adds whatever part of the demo is missing and nothing else, so running it again changes nothing.
@@ -22,5 +23,6 @@ export async function seedDemo(): Promise<number> {
 	// The recipes need the library; loading it here too keeps the demo whole when seeded on its own.
 	added += seedReferenceLibrary();
 	added += await seedDemoRecipes();
+	added += await seedDemoStudies();
 	return added;
 }
