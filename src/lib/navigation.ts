@@ -1,4 +1,5 @@
 import { hasRole, type Role, type RoleHolder } from './roles';
+import { STUDY_ROLES } from './studies';
 
 export interface NavItem {
 	href: string;
@@ -17,6 +18,9 @@ export const NAVIGATION: NavItem[] = [
 	{ href: '/batches/open', label: 'Scan a batch', roles: ['prep_technician'], section: 'Work' },
 	{ href: '/lots', label: 'Lots', roles: [], section: 'Work' },
 	{ href: '/inventory', label: 'Inventory', roles: ['inventory_lead'], section: 'Work' },
+	{ href: '/studies', label: 'Studies', roles: [...STUDY_ROLES], section: 'Work' },
+	{ href: '/organisms', label: 'Organisms', roles: [...STUDY_ROLES], section: 'Work' },
+	{ href: '/vessels', label: 'Vessels', roles: [...STUDY_ROLES], section: 'Work' },
 	{ href: '/admin/people', label: 'People', roles: ['admin'], section: 'Administration' },
 	{ href: '/admin/outbox', label: 'Outbox', roles: ['admin'], section: 'Administration' },
 	{ href: '/admin/audit', label: 'Audit trail', roles: ['admin'], section: 'Administration' },

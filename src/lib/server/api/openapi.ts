@@ -6,6 +6,7 @@ import { inventoryOperations } from './operations/inventory';
 import { batchesOperations } from './operations/batches';
 import { recipesOperations } from './operations/recipes';
 import { simulationOperations } from './operations/simulation';
+import { studiesOperations } from './operations/studies';
 
 export interface ApiOperation {
 	method: 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -52,7 +53,8 @@ export function allOperations(): ApiOperation[] {
 		...recipesOperations,
 		...simulationOperations,
 		...inventoryOperations,
-		...batchesOperations
+		...batchesOperations,
+		...studiesOperations
 	];
 }
 

@@ -139,3 +139,4 @@ export * from './recipes.schema';
 export * from './simulation.schema';
 export * from './inventory.schema';
 export * from './batches.schema';
+export * from './studies.schema';

@@ -4,6 +4,7 @@ import { seedReferenceLibrary } from '../components/reference-library';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './accounts';
 import { seedDemoInventory } from './inventory';
 import { seedDemoRecipes } from './recipes';
+import { seedDemoStudies } from './studies';
 
 /**
  * Adds whatever part of the demo is missing and nothing else, so running it again changes nothing.
@@ -24,5 +25,6 @@ export async function seedDemo(): Promise<number> {
 	added += seedReferenceLibrary();
 	added += await seedDemoRecipes();
 	added += await seedDemoInventory();
+	added += await seedDemoStudies();
 	return added;
 }

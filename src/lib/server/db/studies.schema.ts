@@ -1,0 +1,140 @@
+import { index, integer, real, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import type { PerCellConsumption } from '$chemistry';
+import type { FeedPlanStrategy, OrganismGroup, ProfileKind, TargetBasis } from '$lib/studies';
+import { recipeVersion } from './recipes.schema';
+import { user } from './schema';
+
+const id = () =>
+	text('id')
+		.primaryKey()
+		.$defaultFn(() => crypto.randomUUID());
+const createdAt = () =>
+	integer('created_at', { mode: 'timestamp_ms' })
+		.notNull()
+		.$defaultFn(() => new Date());
+const updatedAt = () =>
+	integer('updated_at', { mode: 'timestamp_ms' })
+		.notNull()
+		.$defaultFn(() => new Date());
+
+/** What an organism needs and how it grows: the demand side of a study. */
+export const organismProfile = sqliteTable('organism_profile', {
+	id: id(),
+	name: text('name').notNull().unique(),
+	group: text('group').$type<OrganismGroup>().notNull(),
+	kind: text('kind').$type<ProfileKind>().notNull(),
+	biomassFormula: text('biomass_formula'),
+	ashFraction: real('ash_fraction'),
+	/** g element per g dry biomass. */
+	elementalFractions: text('elemental_fractions', { mode: 'json' }).$type<Record<string, number>>(),
+	/** Where the fractions come from: a published table (its citation) or the user's own analysis. */
+	fractionsSource: text('fractions_source'),
+	/** g component per g dry biomass. */
+	componentRequirements: text('component_requirements', { mode: 'json' }).$type<Record<string, number>>(),
+	perCellConsumption: text('per_cell_consumption', { mode: 'json' }).$type<PerCellConsumption[]>(),
+	cellDryMassPg: real('cell_dry_mass_pg'),
+	carbonSourceId: text('carbon_source_id'),
+	/** Yx/s on the carbon source, g/g; null until entered. */
+	yieldXSGPerG: real('yield_xs_g_per_g'),
+	muMaxPerH: real('mu_max_per_h'),
+	ksGPerL: real('ks_g_per_l'),
+	maintenanceGPerGH: real('maintenance_g_per_gh'),
+	/** Yx/O2, g/g; when null, qO2 or the element balance gives the oxygen demand. */
+	yieldXO2GPerG: real('yield_xo2_g_per_g'),
+	qO2MmolPerGH: real('qo2_mmol_per_gh'),
+	notes: text('notes').notNull().default(''),
+	isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
+	revision: integer('revision').notNull().default(1),
+	createdAt: createdAt(),
+	updatedAt: updatedAt()
+});
+
+export const vessel = sqliteTable('vessel', {
+	id: id(),
+	name: text('name').notNull().unique(),
+	minWorkingVolumeL: real('min_working_volume_l').notNull(),
+	maxWorkingVolumeL: real('max_working_volume_l').notNull(),
+	kLaMode: text('kla_mode').$type<'entered' | 'correlation'>().notNull(),
+	kLaPerH: real('kla_per_h'),
+	/** kLa = k·(P/V)^a·(v_s)^b (van 't Riet 1979), P/V in W/m³, v_s in m/s; constants from the user. */
+	correlationK: real('correlation_k'),
+	correlationA: real('correlation_a'),
+	correlationB: real('correlation_b'),
+	powerPerVolumeWPerM3: real('power_per_volume_w_per_m3'),
+	superficialVelocityMPerS: real('superficial_velocity_m_per_s'),
+	maxGasFlowVvm: real('max_gas_flow_vvm').notNull(),
+	o2EnrichmentAllowed: integer('o2_enrichment_allowed', { mode: 'boolean' }).notNull().default(false),
+	/** Absolute pressure rating of the headspace, kPa. */
+	maxPressureKPa: real('max_pressure_kpa').notNull(),
+	temperatureC: real('temperature_c').notNull(),
+	coolingCapacityW: real('cooling_capacity_w').notNull(),
+	agitationPowerW: real('agitation_power_w'),
+	notes: text('notes').notNull().default(''),
+	isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
+	revision: integer('revision').notNull().default(1),
+	createdAt: createdAt(),
+	updatedAt: updatedAt()
+});
+
+export const study = sqliteTable(
+	'study',
+	{
+		id: id(),
+		name: text('name').notNull().unique(),
+		basalVersionId: text('basal_version_id')
+			.notNull()
+			.references(() => recipeVersion.id),
+		profileId: text('profile_id')
+			.notNull()
+			.references(() => organismProfile.id),
+		vesselId: text('vessel_id')
+			.notNull()
+			.references(() => vessel.id),
+		targetBasis: text('target_basis').$type<TargetBasis>().notNull(),
+		/** g/L dry biomass or cells/mL, by target_basis. */
+		targetValue: real('target_value').notNull(),
+		initialVolumeL: real('initial_volume_l').notNull(),
+		/** Inoculum density in the same basis as the target. */
+		inoculumDensity: real('inoculum_density').notNull(),
+		durationH: real('duration_h').notNull(),
+		feedStrategy: text('feed_strategy').$type<FeedPlanStrategy>().notNull(),
+		feedStartH: real('feed_start_h').notNull(),
+		/** Exponential plan only: the growth rate the feed is shaped for. */
+		feedMuSetPerH: real('feed_mu_set_per_h'),
+		temperatureC: real('temperature_c').notNull(),
+		pressureKPa: real('pressure_kpa').notNull(),
+		o2MoleFraction: real('o2_mole_fraction').notNull(),
+		doSetpointPercent: real('do_setpoint_percent').notNull(),
+		safetyFactor: real('safety_factor').notNull(),
+		notes: text('notes').notNull().default(''),
+		createdById: text('created_by_id')
+			.notNull()
+			.references(() => user.id),
+		revision: integer('revision').notNull().default(1),
+		createdAt: createdAt(),
+		updatedAt: updatedAt()
+	},
+	(t) => [index('study_basal_idx').on(t.basalVersionId)]
+);
+
+export const studyFeed = sqliteTable(
+	'study_feed',
+	{
+		id: id(),
+		studyId: text('study_id')
+			.notNull()
+			.references(() => study.id, { onDelete: 'cascade' }),
+		versionId: text('version_id')
+			.notNull()
+			.references(() => recipeVersion.id),
+		position: integer('position').notNull(),
+		/** Total volume of this feed over the run, L. */
+		volumeL: real('volume_l').notNull()
+	},
+	(t) => [index('study_feed_study_idx').on(t.studyId, t.position), index('study_feed_version_idx').on(t.versionId)]
+);
+
+export type OrganismProfileRow = typeof organismProfile.$inferSelect;
+export type VesselRow = typeof vessel.$inferSelect;
+export type StudyRow = typeof study.$inferSelect;
+export type StudyFeedRow = typeof studyFeed.$inferSelect;

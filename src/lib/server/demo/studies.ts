@@ -1,0 +1,312 @@
+import { eq } from 'drizzle-orm';
+import { findBiomassComposition } from '$chemistry';
+import { blankLine, type DraftFieldsInput, type DraftLineInput } from '$lib/recipes';
+import { db } from '../db';
+import { organismProfile, recipe, study, vessel } from '../db/schema';
+import { findUserByEmail, rolesOf } from '../people';
+import { checkDraft } from '../recipes/draft';
+import { createRecipe, saveDraft } from '../recipes/drafts';
+import { currentApprovedVersion, findVersion, latestVersion } from '../recipes/queries';
+import { signVersion, submitForReview } from '../recipes/workflow';
+import { saveProfile } from '../studies/profile-store';
+import { createStudy, type StudyForm } from '../studies/study-store';
+import { saveVessel, type VesselForm } from '../studies/vessel-store';
+import type { OrganismProfileRow } from '../db/schema';
+import { DEMO_PASSWORD } from './accounts';
+
+/*
+ * Invented organisms, vessels and studies of Pilot Plant North. Every growth and vessel number is a
+ * demo value chosen in a realistic range; the elemental fractions come from the published tables
+ * in `$chemistry` and carry their source.
+ */
+
+const DEMO_NOTE = 'Demo values for the Pilot Plant North scenario: replace them with your own measurements.';
+
+function presetFractions(id: string) {
+	const preset = findBiomassComposition(id)!;
+	return {
+		elementalFractions: Object.fromEntries(Object.entries(preset.massFractions).map(([k, v]) => [k, Number(v.value.toPrecision(4))])),
+		fractionsSource: preset.source,
+		ashFraction: preset.ashFraction?.value ?? null,
+		biomassFormula: preset.formula
+	};
+}
+
+type ProfileValues = Omit<OrganismProfileRow, 'id' | 'createdAt' | 'updatedAt' | 'revision' | 'isDemo'>;
+
+export const DEMO_PROFILES: ProfileValues[] = [
+	{
+		name: 'Demo bacterium PPN-B1',
+		group: 'bacterium',
+		kind: 'elementalFractions',
+		...presetFractions('bacterium-neidhardt-1990'),
+		ashFraction: 0.08,
+		biomassFormula: 'CH1.8O0.5N0.2',
+		componentRequirements: null,
+		perCellConsumption: null,
+		cellDryMassPg: 0.28,
+		carbonSourceId: 'd-glucose',
+		yieldXSGPerG: 0.45,
+		muMaxPerH: 0.6,
+		ksGPerL: 0.05,
+		maintenanceGPerGH: 0.03,
+		yieldXO2GPerG: null,
+		qO2MmolPerGH: null,
+		notes: `${DEMO_NOTE} Yx/O2 is left to the element balance.`
+	},
+	{
+		name: 'Demo yeast PPN-Y2',
+		group: 'yeast',
+		kind: 'elementalFractions',
+		...presetFractions('yeast-bionumbers-101801'),
+		componentRequirements: null,
+		perCellConsumption: null,
+		cellDryMassPg: 15,
+		carbonSourceId: 'glycerol',
+		yieldXSGPerG: 0.5,
+		muMaxPerH: 0.2,
+		ksGPerL: 0.1,
+		maintenanceGPerGH: 0.01,
+		yieldXO2GPerG: 0.9,
+		qO2MmolPerGH: null,
+		notes: DEMO_NOTE
+	},
+	{
+		name: 'Demo mammalian line PPN-M3',
+		group: 'mammalian',
+		kind: 'perCell',
+		biomassFormula: 'CH1.79O0.5N0.2',
+		ashFraction: 0.07,
+		elementalFractions: null,
+		fractionsSource: null,
+		componentRequirements: null,
+		// Consumed per 10^9 cells formed over a fed-batch (demo values).
+		perCellConsumption: [
+			{ key: 'd-glucose', basis: 'component', mmolPer1e9Cells: 14, molarMassGPerMol: 180.156 },
+			{ key: 'l-glutamine', basis: 'component', mmolPer1e9Cells: 3, molarMassGPerMol: 146.146 },
+			{ key: 'l-leucine', basis: 'component', mmolPer1e9Cells: 0.9, molarMassGPerMol: 131.175 },
+			{ key: 'l-lysine', basis: 'component', mmolPer1e9Cells: 0.6, molarMassGPerMol: 146.19 },
+			{ key: 'l-tyrosine', basis: 'component', mmolPer1e9Cells: 0.3, molarMassGPerMol: 181.191 }
+		],
+		cellDryMassPg: 300,
+		carbonSourceId: 'd-glucose',
+		yieldXSGPerG: 0.2,
+		muMaxPerH: 0.035,
+		ksGPerL: 0.15,
+		maintenanceGPerGH: 0.005,
+		yieldXO2GPerG: null,
+		// 2.7e-13 mol per cell per hour (Ducommun et al. 2000 range) over 300 pg per cell.
+		qO2MmolPerGH: 0.9,
+		notes: DEMO_NOTE
+	}
+];
+
+export const DEMO_VESSELS: VesselForm[] = [
+	{
+		name: 'Bench stirred tank BST-10',
+		minWorkingVolumeL: 3,
+		maxWorkingVolumeL: 10,
+		kLaMode: 'entered',
+		kLaPerH: 400,
+		correlationK: null,
+		correlationA: null,
+		correlationB: null,
+		powerPerVolumeWPerM3: null,
+		superficialVelocityMPerS: null,
+		maxGasFlowVvm: 2,
+		o2EnrichmentAllowed: true,
+		maxPressureKPa: 150,
+		temperatureC: 30,
+		coolingCapacityW: 600,
+		agitationPowerW: 30,
+		notes: DEMO_NOTE
+	},
+	{
+		name: 'Pilot vessel PV-200',
+		minWorkingVolumeL: 60,
+		maxWorkingVolumeL: 200,
+		kLaMode: 'correlation',
+		kLaPerH: null,
+		correlationK: 0.026,
+		correlationA: 0.4,
+		correlationB: 0.5,
+		powerPerVolumeWPerM3: 2000,
+		superficialVelocityMPerS: 0.01,
+		maxGasFlowVvm: 1,
+		o2EnrichmentAllowed: false,
+		maxPressureKPa: 200,
+		temperatureC: 37,
+		coolingCapacityW: 8000,
+		agitationPowerW: 400,
+		notes: `${DEMO_NOTE} Correlation constants as for coalescing broth in van 't Riet's form; P/V and gas velocity at the usual operating point.`
+	}
+];
+
+type Line = [componentId: string, amount: number, unit: string];
+
+const DEMO_FEEDS: { name: string; lines: Line[]; stock?: [string, number]; instructions: string }[] = [
+	{
+		name: 'PPN Glycerol Feed Y2',
+		lines: [
+			['glycerol', 500, 'g/L'],
+			['ammonium-sulfate', 70, 'g/L'],
+			['potassium-dihydrogen-phosphate', 20, 'g/L'],
+			['magnesium-sulfate-heptahydrate', 12, 'g/L'],
+			['calcium-chloride-dihydrate', 1, 'g/L'],
+			['zinc-sulfate-heptahydrate', 0.1, 'g/L']
+		],
+		stock: ['PPN Trace Elements T2', 30],
+		instructions: 'Concentrated glycerol and salts feed for the yeast fed-batch. Dissolve the salts in 400 mL warm water, add the glycerol, make up to 1 L and filter through 0.2 µm. Add the calcium last, slowly, with stirring.'
+	},
+	{
+		name: 'PPN Glucose Feed B1',
+		lines: [
+			['d-glucose', 550, 'g/L'],
+			['magnesium-sulfate-heptahydrate', 10, 'g/L']
+		],
+		instructions: 'Glucose feed for the bacterial fed-batch. Dissolve the glucose in hot purified water with stirring (scald risk), add the magnesium sulfate, make up to volume and autoclave.'
+	}
+];
+
+const FEED_FIELDS: DraftFieldsInput = {
+	targetPh: '',
+	osmolalityMinMOsmPerKg: '',
+	osmolalityMaxMOsmPerKg: '',
+	preparationTemperatureC: '25',
+	shelfLifeDays: '14',
+	storage: '2–8 °C',
+	instructions: '',
+	changeNote: 'First issue.'
+};
+
+async function seedDemoFeeds(): Promise<number> {
+	const author = findUserByEmail('scientist@demo.test');
+	const approverUser = findUserByEmail('engineer@demo.test');
+	if (!author || !approverUser) return 0;
+	const actor = { id: author.id, email: author.email };
+	let added = 0;
+	for (const feed of DEMO_FEEDS) {
+		if (db.select().from(recipe).where(eq(recipe.name, feed.name)).get()) continue;
+		const lines: DraftLineInput[] = feed.lines.map(([componentId, amount, unit]) => ({ ...blankLine('component'), componentId, amount: String(amount), unit }));
+		if (feed.stock) {
+			const stock = db.select().from(recipe).where(eq(recipe.name, feed.stock[0])).get();
+			if (stock) lines.push({ ...blankLine('stock'), stockRecipeId: stock.id, amount: String(feed.stock[1]) });
+		}
+		const recipeId = createRecipe(actor, { name: feed.name, kind: 'feed' });
+		const version = findVersion(recipeId, 1)!;
+		const checked = checkDraft({ fields: { ...FEED_FIELDS, instructions: feed.instructions }, lines }, recipeId);
+		if (!checked.ok) throw new Error(`Demo feed ${feed.name} is invalid: ${JSON.stringify(checked.fieldErrors)}`);
+		const revision = saveDraft(actor, version.id, version.revision, checked.value);
+		submitForReview(actor, version.id, revision);
+		await signVersion({ id: approverUser.id, email: approverUser.email, roles: rolesOf(approverUser.id) }, version.id, {
+			password: DEMO_PASSWORD,
+			meaning: 'approved',
+			comment: 'Fine for the demo fed-batch.'
+		});
+		added++;
+	}
+	return added;
+}
+
+function versionIdOf(recipeName: string): string | null {
+	const r = db.select().from(recipe).where(eq(recipe.name, recipeName)).get();
+	if (!r) return null;
+	return (currentApprovedVersion(r.id) ?? latestVersion(r.id))?.id ?? null;
+}
+
+const idByName = (table: typeof organismProfile | typeof vessel, name: string) => db.select({ id: table.id }).from(table).where(eq(table.name, name)).get()?.id ?? null;
+
+interface DemoStudy {
+	name: string;
+	basal: string;
+	profile: string;
+	vessel: string;
+	feeds: [string, number][];
+	plan: Omit<StudyForm, 'name' | 'basalVersionId' | 'profileId' | 'vesselId' | `feed${number}VersionId` | `feed${number}VolumeL`>;
+}
+
+export const DEMO_STUDIES: DemoStudy[] = [
+	{
+		name: 'Yeast glycerol fed-batch, bench (demo)',
+		basal: 'PPN Yeast-Glycerol A',
+		profile: 'Demo yeast PPN-Y2',
+		vessel: 'Bench stirred tank BST-10',
+		feeds: [['PPN Glycerol Feed Y2', 2]],
+		plan: {
+			targetBasis: 'biomassGPerL',
+			targetValue: 40,
+			initialVolumeL: 6,
+			inoculumDensity: 0.2,
+			durationH: 60,
+			feedStrategy: 'constant',
+			feedStartH: 24,
+			feedMuSetPerH: null,
+			temperatureC: 30,
+			pressureKPa: 120,
+			o2MoleFraction: 0.5,
+			doSetpointPercent: 30,
+			safetyFactor: 1.2,
+			notes: 'Demo study: glycerol batch, then a constant glycerol-salts feed; O2-enriched air from the batch phase on.'
+		}
+	},
+	{
+		name: 'Bacterium glucose fed-batch, pilot (demo)',
+		basal: 'NB-Min Salts 3',
+		profile: 'Demo bacterium PPN-B1',
+		vessel: 'Pilot vessel PV-200',
+		feeds: [['PPN Glucose Feed B1', 20]],
+		plan: {
+			targetBasis: 'biomassGPerL',
+			targetValue: 25,
+			initialVolumeL: 120,
+			inoculumDensity: 0.1,
+			durationH: 30,
+			feedStrategy: 'exponential',
+			feedStartH: 10,
+			feedMuSetPerH: 0.15,
+			temperatureC: 37,
+			pressureKPa: 150,
+			o2MoleFraction: 0.2095,
+			doSetpointPercent: 30,
+			safetyFactor: 1.2,
+			notes: 'Demo study: the target is set deliberately high for this medium, to show what runs out first.'
+		}
+	}
+];
+
+/** Adds the demo profiles, vessels, feeds and studies that are missing (by name); returns how many. */
+export async function seedDemoStudies(): Promise<number> {
+	const engineer = findUserByEmail('engineer@demo.test');
+	if (!engineer) return 0;
+	const actor = { id: engineer.id, email: engineer.email };
+	let added = await seedDemoFeeds();
+	for (const p of DEMO_PROFILES) {
+		if (idByName(organismProfile, p.name)) continue;
+		saveProfile(actor, null, null, p, true);
+		added++;
+	}
+	for (const v of DEMO_VESSELS) {
+		if (idByName(vessel, v.name)) continue;
+		saveVessel(actor, null, null, v, true);
+		added++;
+	}
+	for (const s of DEMO_STUDIES) {
+		if (db.select().from(study).where(eq(study.name, s.name)).get()) continue;
+		const basalVersionId = versionIdOf(s.basal);
+		const profileId = idByName(organismProfile, s.profile);
+		const vesselId = idByName(vessel, s.vessel);
+		const feedVersions = s.feeds.map(([name, volumeL]) => [versionIdOf(name), volumeL] as const);
+		if (!basalVersionId || !profileId || !vesselId || feedVersions.some(([id]) => !id)) continue;
+		const form = {
+			name: s.name,
+			basalVersionId,
+			profileId,
+			vesselId,
+			...s.plan,
+			...Object.fromEntries(feedVersions.flatMap(([id, volumeL], i) => [[`feed${i + 1}VersionId`, id], [`feed${i + 1}VolumeL`, volumeL]]))
+		} as StudyForm;
+		createStudy(actor, form);
+		added++;
+	}
+	return added;
+}

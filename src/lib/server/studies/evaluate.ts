@@ -1,0 +1,285 @@
+import {
+	AIR_O2_MOLE_FRACTION,
+	ChemistryInputError,
+	DEFAULT_HEAT_PER_MOL_O2_KJ,
+	DEFAULT_IGNORED_ELEMENTS,
+	O2_MOLAR_MASS_G_PER_MOL,
+	assessCooling,
+	assessOxygenTransfer,
+	assessSufficiency,
+	computeOxygenDemand,
+	computeOxygenSaturation,
+	type SufficiencyResult
+} from '$chemistry';
+import { RuleError } from '../rule-error';
+import { requireGrowthData, resolveOxygenYield, toSufficiencyProfile } from './profiles';
+import { simulatePlan } from './time-course';
+import { computeVesselKLa } from './vessels';
+import type { DefaultUsed, StudyInputs, StudyReport, WhatIf } from './types';
+
+/** Denser than this is packed cells, not a broth: the densest fed-batch cultures reach about 150 g/L (common practice). */
+export const MAX_BIOMASS_G_PER_L = 200;
+const REACHES_TARGET_FRACTION = 0.98;
+const G_PER_L_PER_CELL_PER_ML_PER_PG = 1e-9;
+
+export const STUDY_CAUTIONS = [
+	'Oxygen-enriched gas raises the risk of fire: keep ignition sources and oils away, and use only equipment rated for the O2 fraction.',
+	"Stay within the vessel's pressure rating; do not raise headspace pressure beyond it to gain oxygen transfer.",
+	'These results are estimates from models and typical values, not measurements.',
+	"The site's procedures and qualified engineers decide whether and how a run goes ahead."
+];
+
+function whatIfError(message: string, field: string): never {
+	throw new RuleError(message, { field });
+}
+
+function targetBiomass(inputs: StudyInputs, targetValue: number): { biomassGPerL: number; cellsPerMl: number | null } {
+	const { plan, profile } = inputs;
+	if (!(targetValue > 0) || !Number.isFinite(targetValue)) whatIfError(`The target density must be greater than 0, not ${targetValue}.`, 'targetValue');
+	if (plan.targetBasis === 'biomassGPerL') {
+		const cellsPerMl = profile.cellDryMassPg ? targetValue / (profile.cellDryMassPg * G_PER_L_PER_CELL_PER_ML_PER_PG) : null;
+		if (targetValue > MAX_BIOMASS_G_PER_L) {
+			whatIfError(`A target of ${targetValue} g/L dry biomass is beyond physical sense: above ${MAX_BIOMASS_G_PER_L} g/L the broth would be packed cells.`, 'targetValue');
+		}
+		return { biomassGPerL: targetValue, cellsPerMl };
+	}
+	if (profile.cellDryMassPg === null) {
+		throw new RuleError(`A target in cells/mL needs the cell dry mass (pg/cell) on the profile “${profile.name}”.`, { field: 'profile.cellDryMassPg', status: 422 });
+	}
+	const biomassGPerL = targetValue * profile.cellDryMassPg * G_PER_L_PER_CELL_PER_ML_PER_PG;
+	if (biomassGPerL > MAX_BIOMASS_G_PER_L) {
+		whatIfError(
+			`A target of ${targetValue.toExponential(2)} cells/mL is ${biomassGPerL.toPrecision(3)} g/L dry biomass at ${profile.cellDryMassPg} pg/cell: beyond physical sense (above ${MAX_BIOMASS_G_PER_L} g/L).`,
+			'targetValue'
+		);
+	}
+	return { biomassGPerL, cellsPerMl: targetValue };
+}
+
+function asSufficiencyError<T>(run: () => T): T {
+	try {
+		return run();
+	} catch (cause) {
+		if (cause instanceof ChemistryInputError) throw new RuleError(cause.message, { field: cause.field, status: 422 });
+		throw cause;
+	}
+}
+
+/**
+ * The study report: nutrients, oxygen, heat, volume and the time course, from loaded data and the
+ * what-if. Pure: the page and `POST /api/v1/studies/evaluate` both call this, so they agree.
+ */
+export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyReport {
+	const { plan, profile, vessel } = inputs;
+	const defaults: DefaultUsed[] = [];
+	const notes: string[] = [];
+	const reasons: string[] = [];
+
+	const targetValue = whatIf.targetValue ?? plan.targetValue;
+	const target = targetBiomass(inputs, targetValue);
+	const plannedFeedL = inputs.feeds.reduce((sum, f) => sum + f.volumeL, 0);
+	const feedVolumeL = whatIf.feedVolumeL ?? plannedFeedL;
+	if (!(feedVolumeL >= 0) || !Number.isFinite(feedVolumeL)) whatIfError(`The feed volume must be 0 or more litres, not ${feedVolumeL}.`, 'feedVolumeL');
+	if (feedVolumeL > 0 && inputs.feeds.length === 0) whatIfError('This study has no feed to scale: add a feed recipe version to the study first.', 'feedVolumeL');
+	const feedScale = plannedFeedL > 0 ? feedVolumeL / plannedFeedL : 0;
+	const feeds = inputs.feeds.map((f) => ({ ...f, volumeL: f.volumeL * feedScale }));
+
+	const vesselKLa = computeVesselKLa(vessel);
+	const kLaPerH = whatIf.kLaPerH ?? vesselKLa.kLaPerH;
+	if (!(kLaPerH > 0) || kLaPerH > 3600) whatIfError(`kLa must be above 0 and at most 3600 1/h, not ${kLaPerH}.`, 'kLaPerH');
+	const o2MoleFraction = whatIf.o2MoleFraction ?? plan.o2MoleFraction;
+	if (!(o2MoleFraction > 0) || o2MoleFraction > 1) whatIfError(`The O2 mole fraction must be above 0 and at most 1, not ${o2MoleFraction}.`, 'o2MoleFraction');
+	const temperatureC = whatIf.temperatureC ?? plan.temperatureC;
+	if (!(temperatureC >= 0) || temperatureC > 40) whatIfError(`The temperature must be between 0 and 40 °C for the oxygen solubility equations, not ${temperatureC}.`, 'temperatureC');
+	if (plan.pressureKPa > vessel.maxPressureKPa) {
+		throw new RuleError(`The study's pressure ${plan.pressureKPa} kPa is above the vessel's rating of ${vessel.maxPressureKPa} kPa.`, { field: 'pressureKPa' });
+	}
+
+	// Nutrients
+	const { profile: sufficiencyProfile, carbon } = toSufficiencyProfile(profile);
+	const growth = requireGrowthData(profile);
+	const finalVolumeL = plan.initialVolumeL + feedVolumeL;
+	const sufficiency: SufficiencyResult = asSufficiencyError(() =>
+		assessSufficiency({
+			profile: sufficiencyProfile,
+			target: { biomassGPerL: target.biomassGPerL },
+			supply: {
+				finalVolumeL,
+				sources: [
+					{ name: inputs.basal.label, volumeL: plan.initialVolumeL, ...inputs.basal.composition },
+					...feeds.filter((f) => f.volumeL > 0).map((f) => ({ name: f.label, volumeL: f.volumeL, ...f.composition }))
+				]
+			},
+			safetyFactor: plan.safetyFactor,
+			carbon
+		})
+	);
+	if (plan.safetyFactor === 1.2) defaults.push({ what: 'Safety factor', value: '1.2', source: 'Common practice (the study keeps the suggested value)' });
+	if (profile.kind === 'elementalFractions') {
+		defaults.push({ what: 'Elements not assessed', value: DEFAULT_IGNORED_ELEMENTS.join(', '), source: 'Cells take H and O from water and O2, not from dissolved salts' });
+	}
+	if (profile.elementalFractions && profile.fractionsSource) {
+		defaults.push({ what: 'Elemental mass fractions', value: 'from the profile', source: profile.fractionsSource });
+	}
+	const nameOf = (key: string, basis: 'element' | 'component') => (basis === 'element' ? key : (inputs.componentNames[key] ?? key));
+	const lines = sufficiency.lines.map((l) => ({ ...l, name: nameOf(l.key, l.basis) }));
+	const limitLine = lines.reduce((min, l) => (l.ratio < min.ratio ? l : min), lines[0]);
+	const nutrientsOk = sufficiency.sufficient;
+	if (!nutrientsOk) {
+		const short = lines.filter((l) => !l.sufficient).map((l) => l.name);
+		reasons.push(
+			`${short.join(', ')} ${short.length === 1 ? 'runs' : 'run'} short of ${plan.safetyFactor} × demand; ${limitLine.name} limits first, at about ${limitLine.maxBiomassGPerL?.toPrecision(3)} g/L.`
+		);
+	}
+
+	// Oxygen
+	const carbonFormula = inputs.componentFormulas[growth.carbonSourceId] ?? null;
+	const yieldXO2GPerG = resolveOxygenYield(profile, carbonFormula, defaults);
+	const saturation = asSufficiencyError(() => computeOxygenSaturation({ temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction }));
+	defaults.push({ what: 'Oxygen solubility', value: `${saturation.mgPerL.toPrecision(3)} mg/L at ${temperatureC} °C`, source: 'Benson & Krause (1984) for fresh water (salinity 0), APHA pressure correction' });
+	if (profile.maintenanceGPerGH === null) defaults.push({ what: 'Maintenance on the carbon source', value: '0', source: 'Not entered on the profile' });
+
+	const initialBiomassGPerL =
+		plan.targetBasis === 'cellsPerMl' ? plan.inoculumDensity * (profile.cellDryMassPg ?? 0) * G_PER_L_PER_CELL_PER_ML_PER_PG : plan.inoculumDensity;
+	const course = simulatePlan({
+		inputs,
+		feeds,
+		growth,
+		yieldXO2GPerG,
+		kLaPerH,
+		saturationMgPerL: saturation.mgPerL,
+		initialBiomassGPerL,
+		targetBiomassGPerL: target.biomassGPerL,
+		reachesFraction: REACHES_TARGET_FRACTION,
+		defaults
+	});
+
+	let peakOurMmolPerLH: number;
+	let peakOurOrigin: string;
+	if ('message' in course) {
+		peakOurMmolPerLH = ((growth.muMaxPerH / yieldXO2GPerG) * target.biomassGPerL * 1000) / O2_MOLAR_MASS_G_PER_MOL;
+		peakOurOrigin = 'μmax · X_target / Yx/O2 (the time course could not be simulated)';
+		defaults.push({ what: 'Peak OUR', value: `${peakOurMmolPerLH.toPrecision(3)} mmol/(L·h)`, source: peakOurOrigin });
+	} else {
+		peakOurMmolPerLH = Math.max(...course.ourMmolPerLH);
+		peakOurOrigin = 'the simulated time course';
+	}
+	const transfer = asSufficiencyError(() =>
+		assessOxygenTransfer({
+			conditions: { temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction },
+			kLaPerH,
+			setpoint: { percentAirSaturation: plan.doSetpointPercent },
+			uptake: { ourMmolPerLH: peakOurMmolPerLH }
+		})
+	);
+	const enriched = o2MoleFraction > AIR_O2_MOLE_FRACTION + 1e-4;
+	const biomassFormedG = target.biomassGPerL * finalVolumeL - initialBiomassGPerL * plan.initialVolumeL;
+	const demand = computeOxygenDemand({
+		yieldBiomassOnOxygenGPerG: yieldXO2GPerG,
+		biomassProducedGPerL: Math.max(0, biomassFormedG / finalVolumeL),
+		workingVolumeL: finalVolumeL
+	});
+	let oxygenOk = transfer.verdict === 'sufficient';
+	if (!oxygenOk) {
+		const remedy = !transfer.enrichmentFeasible
+			? 'even pure O2 would not close the gap at this kLa'
+			: vessel.o2EnrichmentAllowed
+				? `an O2 fraction of ${transfer.o2MoleFractionNeeded.toFixed(2)} would`
+				: 'this vessel does not allow O2 enrichment';
+		reasons.push(
+			`Peak OUR ${peakOurMmolPerLH.toFixed(0)} mmol/(L·h) exceeds the maximum OTR ${transfer.maxOtr.mmolPerLH.toFixed(0)} mmol/(L·h) at the DO setpoint: it needs kLa ${transfer.kLaNeededPerH.toFixed(0)} 1/h, or ${remedy}.`
+		);
+	}
+	if (enriched && !vessel.o2EnrichmentAllowed) {
+		oxygenOk = false;
+		reasons.push(`The plan sparges ${(o2MoleFraction * 100).toFixed(0)} % O2, but the vessel “${vessel.name}” does not allow O2 enrichment.`);
+	}
+	if (o2MoleFraction === plan.o2MoleFraction && Math.abs(o2MoleFraction - AIR_O2_MOLE_FRACTION) < 1e-4) {
+		defaults.push({ what: 'Inlet gas', value: `air, O2 mole fraction ${AIR_O2_MOLE_FRACTION}`, source: 'Dry air' });
+	}
+
+	// Heat
+	const agitationPowerW = vessel.agitationPowerW ?? 0;
+	if (vessel.agitationPowerW === null) defaults.push({ what: 'Agitation power added to the heat load', value: '0 W', source: 'Not entered for the vessel' });
+	const cooling = assessCooling({
+		ourMmolPerLH: peakOurMmolPerLH,
+		workingVolumeL: finalVolumeL,
+		coolingCapacityW: vessel.coolingCapacityW,
+		agitationPowerW
+	});
+	defaults.push({ what: 'Heat per mol O2 consumed', value: `${DEFAULT_HEAT_PER_MOL_O2_KJ} kJ/mol`, source: 'Birou, Marison & von Stockar, Biotechnol. Bioeng. 30:650 (1987)' });
+	defaults.push({ what: 'Volume for the heat load', value: 'final volume', source: 'Peak OUR taken over the whole final volume (the larger of the two)' });
+	const heatOk = cooling.verdict === 'sufficient';
+	if (!heatOk) reasons.push(`Heat load ${cooling.heatLoadW.toFixed(0)} W exceeds the cooling capacity of ${vessel.coolingCapacityW} W.`);
+
+	// Volume
+	const volumeOk = finalVolumeL <= vessel.maxWorkingVolumeL && plan.initialVolumeL >= vessel.minWorkingVolumeL;
+	if (finalVolumeL > vessel.maxWorkingVolumeL) reasons.push(`Final volume ${finalVolumeL.toFixed(1)} L is above the vessel's maximum working volume of ${vessel.maxWorkingVolumeL} L.`);
+	if (plan.initialVolumeL < vessel.minWorkingVolumeL) reasons.push(`Initial volume ${plan.initialVolumeL} L is below the vessel's minimum working volume of ${vessel.minWorkingVolumeL} L.`);
+
+	if (!('message' in course) && !course.reachesTarget) {
+		reasons.push(
+			`The simulated run reaches ${course.finalBiomassGPerL.toPrecision(3)} g/L${course.stoppedAtH !== null ? ` and stops at ${course.stoppedAtH.toFixed(1)} h` : ''}, short of the target ${target.biomassGPerL.toPrecision(3)} g/L within ${plan.durationH} h.`
+		);
+	}
+	if ('message' in course) notes.push(`Time course not available: ${course.message}`);
+	notes.push(...sufficiency.notes);
+
+	return {
+		verdict: reasons.length === 0 ? 'supported' : 'not supported',
+		reasons,
+		inputs: {
+			targetValue,
+			targetBasis: plan.targetBasis,
+			targetBiomassGPerL: target.biomassGPerL,
+			targetCellsPerMl: target.cellsPerMl,
+			feedVolumeL,
+			kLaPerH,
+			kLaOrigin: whatIf.kLaPerH === undefined ? vesselKLa.origin : 'what-if',
+			o2MoleFraction,
+			temperatureC,
+			pressureKPa: plan.pressureKPa,
+			doSetpointPercent: plan.doSetpointPercent,
+			safetyFactor: plan.safetyFactor
+		},
+		limit: {
+			key: limitLine.key,
+			name: limitLine.name,
+			basis: limitLine.basis,
+			ratio: limitLine.ratio,
+			maxBiomassGPerL: limitLine.maxBiomassGPerL,
+			maxCellsPerMl: target.cellsPerMl === null || limitLine.maxBiomassGPerL === null ? null : (target.cellsPerMl * limitLine.ratio) / plan.safetyFactor
+		},
+		nutrients: { check: nutrientsOk ? 'ok' : 'short', lines, notes: sufficiency.notes },
+		oxygen: {
+			check: oxygenOk ? 'ok' : 'short',
+			totalO2G: demand.totalG,
+			totalO2Mol: demand.totalMol,
+			yieldXO2GPerG,
+			peakOurMmolPerLH,
+			peakOurOrigin,
+			maxOtrMmolPerLH: transfer.maxOtr.mmolPerLH,
+			utilisation: transfer.utilisation,
+			saturationMgPerL: transfer.saturation.mgPerL,
+			setpointMgPerL: transfer.setpointMgPerL,
+			kLaNeededPerH: transfer.kLaNeededPerH,
+			o2MoleFractionNeeded: transfer.o2MoleFractionNeeded,
+			enrichmentFeasible: transfer.enrichmentFeasible,
+			enrichmentAllowed: vessel.o2EnrichmentAllowed,
+			reserveS: transfer.reserveS
+		},
+		heat: {
+			check: heatOk ? 'ok' : 'short',
+			heatLoadW: cooling.heatLoadW,
+			metabolicW: cooling.totalW,
+			agitationPowerW,
+			coolingCapacityW: vessel.coolingCapacityW,
+			utilisation: cooling.utilisation
+		},
+		volume: { check: volumeOk ? 'ok' : 'short', initialL: plan.initialVolumeL, feedL: feedVolumeL, finalL: finalVolumeL, minL: vessel.minWorkingVolumeL, maxL: vessel.maxWorkingVolumeL },
+		timeCourse: 'message' in course ? { check: 'unavailable', message: course.message } : { ...course, check: course.reachesTarget ? 'ok' : 'short' },
+		defaults,
+		notes,
+		cautions: STUDY_CAUTIONS
+	};
+}

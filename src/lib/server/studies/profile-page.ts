@@ -1,0 +1,27 @@
+import { BIOMASS_COMPOSITIONS } from '$chemistry';
+import { listComponents } from '../components/library';
+import { parseForm, ruleFailure } from '../forms';
+import { profileSchema, profileValues, saveProfile } from './profile-store';
+import type { Actor } from '../audit';
+
+/** Published tables the form can fill fractions from, each with its source. */
+export function profileChoices() {
+	return {
+		presets: BIOMASS_COMPOSITIONS.map((b) => ({ id: b.id, name: b.name, source: b.source, group: b.group })),
+		carbonSources: listComponents()
+			.filter((c) => ['sugar', 'polyol', 'amino-acid', 'other'].includes(c.category))
+			.map((c) => ({ id: c.id, name: c.name }))
+	};
+}
+
+/** Shared by the new and edit actions: returns the saved id, or the failure to send back. */
+export function submitProfile(actor: Actor, formData: FormData, id: string | null) {
+	const parsed = parseForm(profileSchema, formData);
+	if (!parsed.ok) return { failure: parsed.failure };
+	try {
+		const revision = id === null ? null : Number(formData.get('revision'));
+		return { id: saveProfile(actor, id, revision, profileValues(parsed.data)) };
+	} catch (cause) {
+		return { failure: ruleFailure(formData, cause) };
+	}
+}

@@ -1,0 +1,116 @@
+import {
+	ChemistryInputError,
+	O2_MOLAR_MASS_G_PER_MOL,
+	STANDARD_BIOMASS_FORMULA,
+	solveStoichiometry,
+	type CarbonDemand,
+	type OrganismProfile
+} from '$chemistry';
+import { RuleError } from '../rule-error';
+import type { DefaultUsed, OrganismProfileRow } from './types';
+
+function missing(profile: OrganismProfileRow, what: string, field: string): never {
+	throw new RuleError(`The organism profile “${profile.name}” has no ${what}, which this study needs. Edit the profile and add it.`, {
+		field: `profile.${field}`,
+		status: 422
+	});
+}
+
+/** The growth numbers every study needs, whatever the profile's kind. */
+export function requireGrowthData(profile: OrganismProfileRow) {
+	if (!profile.carbonSourceId) missing(profile, 'carbon source', 'carbonSourceId');
+	if (profile.yieldXSGPerG === null) missing(profile, 'yield on the carbon source (Yx/s)', 'yieldXSGPerG');
+	if (profile.muMaxPerH === null) missing(profile, 'μmax', 'muMaxPerH');
+	if (profile.ksGPerL === null) missing(profile, 'Ks', 'ksGPerL');
+	return {
+		carbonSourceId: profile.carbonSourceId,
+		yieldXSGPerG: profile.yieldXSGPerG,
+		muMaxPerH: profile.muMaxPerH,
+		ksGPerL: profile.ksGPerL
+	};
+}
+
+/** The profile as the sufficiency engine reads it, and the carbon rule that goes with it. */
+export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: OrganismProfile; carbon?: CarbonDemand } {
+	const cellDryMassPg = profile.cellDryMassPg ?? undefined;
+	const growth = requireGrowthData(profile);
+	// A per-cell glucose uptake already includes what is respired; a yield-based line would count it twice.
+	const carbon: CarbonDemand = { basis: 'component', component: growth.carbonSourceId, yieldGPerG: growth.yieldXSGPerG };
+	switch (profile.kind) {
+		case 'elementalFractions':
+			if (!profile.elementalFractions || Object.keys(profile.elementalFractions).length === 0) {
+				missing(profile, 'elemental mass fractions', 'elementalFractions');
+			}
+			return { profile: { kind: 'elementalFractions', name: profile.name, fractions: profile.elementalFractions, cellDryMassPg }, carbon };
+		case 'componentRequirements':
+			if (!profile.componentRequirements || Object.keys(profile.componentRequirements).length === 0) {
+				missing(profile, 'component requirements', 'componentRequirements');
+			}
+			return { profile: { kind: 'componentRequirements', name: profile.name, requirementsGPerG: profile.componentRequirements, cellDryMassPg }, carbon };
+		case 'perCell':
+			if (!profile.perCellConsumption || profile.perCellConsumption.length === 0) {
+				missing(profile, 'per-cell consumption rates', 'perCellConsumption');
+			}
+			if (profile.cellDryMassPg === null) missing(profile, 'cell dry mass (pg/cell)', 'cellDryMassPg');
+			return { profile: { kind: 'perCell', name: profile.name, consumption: profile.perCellConsumption, cellDryMassPg } };
+	}
+}
+
+/**
+ * Yx/O2 in g biomass per g O2: entered; else from qO2 taken at μmax (a culture growing at μmax
+ * respires qO2 = μmax / Yx/O2); else from the element balance with Yx/s. The route taken is listed.
+ */
+export function resolveOxygenYield(
+	profile: OrganismProfileRow,
+	carbonSourceFormula: string | null,
+	defaults: DefaultUsed[]
+): number {
+	if (profile.yieldXO2GPerG !== null) return profile.yieldXO2GPerG;
+	const growth = requireGrowthData(profile);
+	if (profile.qO2MmolPerGH !== null) {
+		const y = growth.muMaxPerH / ((profile.qO2MmolPerGH * O2_MOLAR_MASS_G_PER_MOL) / 1000);
+		defaults.push({
+			what: 'Yx/O2',
+			value: `${y.toPrecision(3)} g/g`,
+			source: `From the profile's qO2 ${profile.qO2MmolPerGH} mmol/(g·h), taken as measured at μmax ${growth.muMaxPerH} /h`
+		});
+		return y;
+	}
+	if (!carbonSourceFormula) missing(profile, 'Yx/O2 or qO2 (and the carbon source has no formula for an element balance)', 'yieldXO2GPerG');
+	const biomassFormula = profile.biomassFormula ?? STANDARD_BIOMASS_FORMULA;
+	const ash = profile.ashFraction ?? 0;
+	if (!profile.biomassFormula) {
+		defaults.push({ what: 'Biomass formula for the element balance', value: STANDARD_BIOMASS_FORMULA, source: 'Standard biomass formula (Roels 1983; Heijnen)' });
+	}
+	if (profile.ashFraction === null) defaults.push({ what: 'Ash fraction for the element balance', value: '0', source: 'Not entered on the profile' });
+	try {
+		const solved = solveStoichiometry({
+			species: [
+				{ id: 'substrate', formula: carbonSourceFormula, role: 'substrate' },
+				{ id: 'ammonia', formula: 'NH3', role: 'nitrogen' },
+				{ id: 'oxygen', formula: 'O2', role: 'oxygen' },
+				{ id: 'biomass', formula: biomassFormula, ashFraction: ash, role: 'biomass' },
+				{ id: 'co2', formula: 'CO2', role: 'carbonDioxide' },
+				{ id: 'water', formula: 'H2O', role: 'water' }
+			],
+			specifications: [
+				{ kind: 'rate', species: 'substrate', mol: -1 },
+				{ kind: 'massYield', product: 'biomass', substrate: 'substrate', gPerG: growth.yieldXSGPerG }
+			]
+		});
+		const y = solved.yields.biomassOnOxygenGPerG;
+		if (y === null || !(y > 0)) throw new ChemistryInputError('no oxygen uptake in the balance');
+		defaults.push({
+			what: 'Yx/O2',
+			value: `${y.toPrecision(3)} g/g`,
+			source: `Element balance (C, H, O, N) with ${carbonSourceFormula}, NH3 as N source and Yx/s ${growth.yieldXSGPerG} g/g`
+		});
+		return y;
+	} catch (cause) {
+		if (!(cause instanceof ChemistryInputError)) throw cause;
+		throw new RuleError(
+			`The oxygen yield of “${profile.name}” cannot be worked out from its element balance (${cause.message}). Enter Yx/O2 or qO2 on the profile.`,
+			{ field: 'profile.yieldXO2GPerG', status: 422 }
+		);
+	}
+}

@@ -1,0 +1,139 @@
+import type { SimulationEvent, SufficiencyLine } from '$chemistry';
+import type { OrganismProfileRow, StudyRow, VesselRow } from '../db/schema';
+
+/** What one recipe version puts into a litre of itself. */
+export interface SupplyComposition {
+	elementsGPerL: Record<string, number>;
+	/** Each component by id, plus the molar equivalent of its basis form (salt → free amino acid). */
+	componentsGPerL: Record<string, number>;
+}
+
+export interface StudySource {
+	versionId: string;
+	label: string;
+	composition: SupplyComposition;
+	/** Feeds only: planned volume over the run. */
+	volumeL?: number;
+	temperatureC: number;
+}
+
+export type StudyPlan = Pick<
+	StudyRow,
+	| 'name'
+	| 'targetBasis'
+	| 'targetValue'
+	| 'initialVolumeL'
+	| 'inoculumDensity'
+	| 'durationH'
+	| 'feedStrategy'
+	| 'feedStartH'
+	| 'feedMuSetPerH'
+	| 'temperatureC'
+	| 'pressureKPa'
+	| 'o2MoleFraction'
+	| 'doSetpointPercent'
+	| 'safetyFactor'
+	| 'notes'
+>;
+
+/** Everything an evaluation reads, already loaded: evaluation itself touches no database. */
+export interface StudyInputs {
+	plan: StudyPlan;
+	basal: StudySource;
+	feeds: (StudySource & { volumeL: number })[];
+	profile: OrganismProfileRow;
+	vessel: VesselRow;
+	componentNames: Record<string, string>;
+	/** Component formulas, for the element balance that can give Yx/O2. */
+	componentFormulas: Record<string, string | null>;
+}
+
+/** The what-if: values that replace the saved study's for one evaluation. */
+export interface WhatIf {
+	targetValue?: number;
+	/** Total feed volume, L; every feed is scaled in proportion. */
+	feedVolumeL?: number;
+	kLaPerH?: number;
+	o2MoleFraction?: number;
+	temperatureC?: number;
+}
+
+export interface DefaultUsed {
+	what: string;
+	value: string;
+	source: string;
+}
+
+export type Check = 'ok' | 'short';
+
+export interface NutrientRow extends SufficiencyLine {
+	name: string;
+}
+
+export interface TimeCourse {
+	t: number[];
+	biomassGPerL: number[];
+	substrateGPerL: number[];
+	volumeL: number[];
+	dissolvedOxygenMgPerL: number[];
+	ourMmolPerLH: number[];
+	maxOtrMmolPerLH: number[];
+	events: SimulationEvent[];
+	finalBiomassGPerL: number;
+	reachesTarget: boolean;
+	stoppedAtH: number | null;
+}
+
+export interface StudyReport {
+	verdict: 'supported' | 'not supported';
+	/** Why not, one sentence each; empty when supported. */
+	reasons: string[];
+	inputs: {
+		targetValue: number;
+		targetBasis: StudyRow['targetBasis'];
+		targetBiomassGPerL: number;
+		targetCellsPerMl: number | null;
+		feedVolumeL: number;
+		kLaPerH: number;
+		kLaOrigin: string;
+		o2MoleFraction: number;
+		temperatureC: number;
+		pressureKPa: number;
+		doSetpointPercent: number;
+		safetyFactor: number;
+	};
+	limit: {
+		key: string;
+		name: string;
+		basis: 'element' | 'component';
+		ratio: number;
+		maxBiomassGPerL: number | null;
+		maxCellsPerMl: number | null;
+	};
+	nutrients: { check: Check; lines: NutrientRow[]; notes: string[] };
+	oxygen: {
+		check: Check;
+		totalO2G: number;
+		totalO2Mol: number;
+		yieldXO2GPerG: number;
+		peakOurMmolPerLH: number;
+		peakOurOrigin: string;
+		maxOtrMmolPerLH: number;
+		utilisation: number;
+		saturationMgPerL: number;
+		setpointMgPerL: number;
+		kLaNeededPerH: number;
+		o2MoleFractionNeeded: number;
+		enrichmentFeasible: boolean;
+		enrichmentAllowed: boolean;
+		reserveS: number | null;
+	};
+	heat: { check: Check; heatLoadW: number; metabolicW: number; agitationPowerW: number; coolingCapacityW: number; utilisation: number };
+	volume: { check: Check; initialL: number; feedL: number; finalL: number; minL: number; maxL: number };
+	timeCourse: ({ check: Check } & TimeCourse) | { check: 'unavailable'; message: string };
+	defaults: DefaultUsed[];
+	notes: string[];
+	cautions: string[];
+}
+
+export type { OrganismProfileRow, VesselRow };

@@ -1,0 +1,24 @@
+import { error, redirect } from '@sveltejs/kit';
+import { eq } from 'drizzle-orm';
+import { db } from '$lib/server/db';
+import { organismProfile } from '$lib/server/db/schema';
+import { requireStudyAccess } from '$lib/server/studies/access';
+import { profileChoices, submitProfile } from '$lib/server/studies/profile-page';
+import { profileFormValues } from '$lib/server/studies/profile-store';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ params }) => {
+	requireStudyAccess();
+	const row = db.select().from(organismProfile).where(eq(organismProfile.id, params.id)).get();
+	if (!row) error(404, { message: 'No such organism profile.' });
+	return { ...profileChoices(), values: profileFormValues(row), name: row.name, isDemo: row.isDemo, fractionsSource: row.fractionsSource };
+};
+
+export const actions: Actions = {
+	save: async ({ request, params }) => {
+		const actor = requireStudyAccess();
+		const result = submitProfile(actor, await request.formData(), params.id);
+		if ('failure' in result) return result.failure;
+		redirect(303, `/organisms/${params.id}?saved=1`);
+	}
+};

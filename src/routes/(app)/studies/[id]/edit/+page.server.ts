@@ -1,0 +1,30 @@
+import { error, redirect } from '@sveltejs/kit';
+import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { requireStudyAccess } from '$lib/server/studies/access';
+import { loadStudyChoices } from '$lib/server/studies/form-data';
+import { studyFormValues, studySchema, updateStudy } from '$lib/server/studies/study-store';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ params }) => {
+	requireStudyAccess();
+	const values = studyFormValues(params.id);
+	if (!values) error(404, { message: 'No such study.' });
+	return { choices: loadStudyChoices(), values, id: params.id };
+};
+
+export const actions: Actions = {
+	save: async ({ request, params }) => {
+		const actor = requireStudyAccess();
+		const formData = await request.formData();
+		const revision = Number(formData.get('revision'));
+		if (!Number.isInteger(revision)) return formFailure(formData, 'The form lost its revision; reload the page.');
+		const parsed = parseForm(studySchema, formData);
+		if (!parsed.ok) return parsed.failure;
+		try {
+			updateStudy(actor, params.id, revision, parsed.data);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		redirect(303, `/studies/${params.id}?saved=1`);
+	}
+};

@@ -1,0 +1,171 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { ATOMIC_WEIGHTS, formulaMolarMass } from '$chemistry';
+import { db } from '$lib/server/db';
+import { recipe, recipeVersion, study } from '$lib/server/db/schema';
+import { seedDemo } from '$lib/server/demo/seed';
+import { RuleError } from '$lib/server/rule-error';
+import { listComponents } from '$lib/server/components/library';
+import { evaluateStudy } from '$lib/server/studies/evaluate';
+import { designFeed } from '$lib/server/studies/feed-designer';
+import { describeVersions, listProfiles, listStudies, loadStudyInputs } from '$lib/server/studies/queries';
+import { createStudy, type StudyForm } from '$lib/server/studies/study-store';
+
+const YEAST_STUDY = 'Yeast glycerol fed-batch, bench (demo)';
+const BACTERIUM_STUDY = 'Bacterium glucose fed-batch, pilot (demo)';
+
+function studyId(name: string): string {
+	return db.select().from(study).where(eq(study.name, name)).get()!.id;
+}
+const components = () => new Map(listComponents().map((c) => [c.id, c]));
+
+beforeAll(async () => {
+	await seedDemo();
+});
+
+describe('a study on the demo data, checked by hand', () => {
+	it('finds nitrogen limiting the yeast fed-batch, at the density worked out here', () => {
+		const report = evaluateStudy(loadStudyInputs(studyId(YEAST_STUDY)).inputs);
+		// Supply of N, per litre of the final 8 L (6 L basal + 2 L feed):
+		//   (NH4)2SO4 is 2 N per formula unit: 2 × 14.007 / 132.134 g N per g (IUPAC 2021 weights, D in our references)
+		const nPerSulfate = (2 * ATOMIC_WEIGHTS.N) / formulaMolarMass('(NH4)2SO4');
+		//   basal 5 g/L × 6 L + feed 70 g/L × 2 L = 30 + 140 = 170 g (NH4)2SO4 → × 0.2120 = 36.04 g N → / 8 L = 4.505 g/L
+		const supplyN = ((5 * 6 + 70 * 2) * nPerSulfate) / 8;
+		// Demand of N: the yeast formula CH1.61O0.56N0.16 (BioNumbers BNID 101801) with 6 % ash (from memory):
+		//   f_N = 0.16 × 14.007 / (12.011 + 1.61 × 1.008 + 0.56 × 15.999 + 0.16 × 14.007) × 0.94 = 0.08482 g/g
+		const formulaMass = ATOMIC_WEIGHTS.C + 1.61 * ATOMIC_WEIGHTS.H + 0.56 * ATOMIC_WEIGHTS.O + 0.16 * ATOMIC_WEIGHTS.N;
+		const fN = ((0.16 * ATOMIC_WEIGHTS.N) / formulaMass) * 0.94;
+		//   at the target 40 g/L: 3.393 g/L; ratio 4.505 / 3.393 = 1.328 ≥ 1.2 (safety factor, common practice): sufficient
+		const ratio = supplyN / (fN * 40);
+		//   maximum supportable = 40 × 1.328 / 1.2 = 44.3 g/L
+		const maxX = (40 * ratio) / 1.2;
+		// Glycerol (carbon, Yx/s 0.5 demo value): (40 × 6 + 500 × 2) / 8 = 155 g/L against 40 / 0.5 = 80 g/L → 1.94, not limiting.
+		expect(report.limit.key).toBe('N');
+		const n = report.nutrients.lines.find((l) => l.key === 'N')!;
+		expect(n.supplyGPerL).toBeCloseTo(supplyN, 3);
+		expect(n.ratio).toBeCloseTo(ratio, 2);
+		expect(report.limit.maxBiomassGPerL).toBeCloseTo(maxX, 1);
+		expect(maxX).toBeCloseTo(44.3, 1);
+		expect(report.nutrients.lines.find((l) => l.key === 'glycerol')!.ratio).toBeCloseTo(155 / 80, 3);
+		expect(report.verdict).toBe('supported');
+	});
+
+	it('lists every default it used, with its source', () => {
+		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
+		const what = report.defaults.map((d) => d.what);
+		expect(what).toEqual(expect.arrayContaining(['Safety factor', 'Heat per mol O2 consumed', 'Yx/O2', 'Elemental mass fractions', 'Oxygen solubility']));
+		expect(report.defaults.find((d) => d.what === 'Heat per mol O2 consumed')!.source).toMatch(/Birou/);
+		expect(report.defaults.find((d) => d.what === 'Elemental mass fractions')!.source).toMatch(/Neidhardt/);
+		expect(report.cautions.join(' ')).toMatch(/fire/);
+		expect(report.cautions.join(' ')).toMatch(/pressure rating/);
+	});
+
+	it('says what limits the bacterial run: nutrients and oxygen', () => {
+		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
+		expect(report.verdict).toBe('not supported');
+		expect(report.nutrients.lines.filter((l) => !l.sufficient).map((l) => l.key)).toEqual(expect.arrayContaining(['N', 'Ca', 'Fe']));
+		expect(report.oxygen.check).toBe('short');
+		expect(report.reasons.some((r) => r.includes('does not allow O2 enrichment'))).toBe(true);
+	});
+});
+
+describe('the what-if', () => {
+	it('turns the verdict when kLa is lowered, and back with enough O2', () => {
+		const inputs = loadStudyInputs(studyId(YEAST_STUDY)).inputs;
+		const low = evaluateStudy(inputs, { kLaPerH: 60 });
+		expect(low.verdict).toBe('not supported');
+		expect(low.oxygen.check).toBe('short');
+		// max OTR = kLa (C* − C_set) is linear in kLa at a fixed gas
+		const saved = evaluateStudy(inputs);
+		expect(low.oxygen.maxOtrMmolPerLH / saved.oxygen.maxOtrMmolPerLH).toBeCloseTo(60 / 400, 6);
+	});
+
+	it('refuses a target of zero or beyond physical sense with a clear message', () => {
+		const inputs = loadStudyInputs(studyId(YEAST_STUDY)).inputs;
+		expect(() => evaluateStudy(inputs, { targetValue: 0 })).toThrow(/greater than 0/);
+		expect(() => evaluateStudy(inputs, { targetValue: 500 })).toThrow(/beyond physical sense/);
+		try {
+			evaluateStudy(inputs, { targetValue: 500 });
+		} catch (cause) {
+			expect((cause as RuleError).field).toBe('targetValue');
+		}
+	});
+
+	it('flags a vessel that does not allow enrichment', () => {
+		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs, { o2MoleFraction: 0.4 });
+		expect(report.reasons.join(' ')).toMatch(/does not allow O2 enrichment/);
+	});
+});
+
+describe('the feed designer', () => {
+	it('meets every demand of the yeast study with the feed components', () => {
+		const { inputs } = loadStudyInputs(studyId(YEAST_STUDY));
+		const ids = ['glycerol', 'ammonium-sulfate', 'potassium-dihydrogen-phosphate', 'magnesium-sulfate-heptahydrate', 'calcium-chloride-dihydrate', 'zinc-sulfate-heptahydrate', 'iron-ii-sulfate-heptahydrate'];
+		const design = designFeed(inputs, components(), { componentIds: ids, feedVolumeL: 2, temperatureC: 25 });
+		expect(design.problems).toEqual([]);
+		expect(design.feasible).toBe(true);
+		for (const c of design.coverage) expect(c.providedGPerLFeed).toBeGreaterThanOrEqual(c.neededGPerLFeed * (1 - 1e-6));
+		for (const c of design.components) if (c.solubilityGPerL !== null) expect(c.gPerL).toBeLessThanOrEqual(c.solubilityGPerL * (1 + 1e-9));
+	});
+
+	it('explains why tyrosine cannot go in a neutral concentrate', () => {
+		const engineer = db.select().from(study).get()!.createdById;
+		const basal = db.select({ id: recipeVersion.id }).from(recipeVersion).innerJoin(recipe, eq(recipe.id, recipeVersion.recipeId)).where(eq(recipe.name, 'PPN CD Basal M1')).get()!.id;
+		const feed = db.select({ id: recipeVersion.id }).from(recipeVersion).innerJoin(recipe, eq(recipe.id, recipeVersion.recipeId)).where(eq(recipe.name, 'PPN Feed GA-12')).get()!.id;
+		const inputs = loadStudyInputs(studyId(YEAST_STUDY)).inputs;
+		const id = createStudy({ id: engineer, email: 'engineer@demo.test' }, {
+			name: 'Mammalian fed-batch for the designer test',
+			basalVersionId: basal,
+			profileId: listProfiles().find((p) => p.name === 'Demo mammalian line PPN-M3')!.id,
+			vesselId: inputs.vessel.id,
+			targetBasis: 'cellsPerMl',
+			targetValue: 2e7,
+			initialVolumeL: 6,
+			inoculumDensity: 3e5,
+			durationH: 336,
+			feedStrategy: 'constant',
+			feedStartH: 72,
+			feedMuSetPerH: null,
+			temperatureC: 37,
+			pressureKPa: 101.325,
+			o2MoleFraction: 0.2095,
+			doSetpointPercent: 40,
+			safetyFactor: 1.2,
+			notes: '',
+			feed1VersionId: feed,
+			feed1VolumeL: 1,
+			feed2VersionId: null,
+			feed2VolumeL: null,
+			feed3VersionId: null,
+			feed3VolumeL: null
+		} as StudyForm);
+		const design = designFeed(loadStudyInputs(id).inputs, components(), { componentIds: ['d-glucose', 'l-glutamine', 'l-leucine', 'l-lysine-hydrochloride', 'l-tyrosine'], feedVolumeL: 0.5, temperatureC: 25 });
+		expect(design.feasible).toBe(false);
+		// Tyrosine 0.453 g/L at 25 °C (CRC Handbook, as stored in the component library)
+		expect(design.problems.join(' ')).toMatch(/L-Tyrosine would need [\d.]+ g\/L, above its solubility of 0.45 g\/L at 25 °C; use a soluble salt form or a separate alkaline feed/);
+	});
+
+	it('refuses a feed that would overfill the vessel', () => {
+		const { inputs } = loadStudyInputs(studyId(YEAST_STUDY));
+		expect(() => designFeed(inputs, components(), { componentIds: ['glycerol'], feedVolumeL: 5, temperatureC: 25 })).toThrow(/maximum working volume of 10 L; at most 4 L fits/);
+	});
+});
+
+describe('saved studies and recipe versions', () => {
+	it('links each study to its versions and says when one is superseded', () => {
+		const rows = listStudies();
+		expect(rows.map((r) => r.name)).toEqual(expect.arrayContaining([YEAST_STUDY, BACTERIUM_STUDY]));
+		const yeast = rows.find((r) => r.name === YEAST_STUDY)!;
+		expect(yeast.basal.recipeName).toBe('PPN Yeast-Glycerol A');
+		expect(yeast.feeds[0].recipeName).toBe('PPN Glycerol Feed Y2');
+		expect(yeast.basal.superseded).toBe(false);
+		// A later approved version supersedes the one a study used.
+		const v = db.select().from(recipeVersion).where(eq(recipeVersion.id, yeast.feeds[0].id)).get()!;
+		const newer = crypto.randomUUID();
+		db.insert(recipeVersion).values({ id: newer, recipeId: v.recipeId, n: v.n + 1, status: 'draft', authorId: v.authorId }).run();
+		db.update(recipeVersion).set({ status: 'approved', approvedAt: new Date() }).where(eq(recipeVersion.id, newer)).run();
+		const ref = describeVersions([v.id]).get(v.id)!;
+		expect(ref.superseded).toBe(true);
+		expect(ref.supersededBy).toBe(v.n + 1);
+	});
+});
