@@ -3,15 +3,8 @@ import type { BatchLineKind, BatchState, DeviationKind } from '$lib/batches';
 import { lot } from './inventory.schema';
 import { component, recipe, recipeLine, recipeVersion } from './recipes.schema';
 import { user } from './schema';
+import { createdAt, id } from './columns';
 
-const id = () =>
-	text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID());
-const createdAt = () =>
-	integer('created_at', { mode: 'timestamp_ms' })
-		.notNull()
-		.$defaultFn(() => new Date());
 
 /** A batch of medium made from one approved recipe version: planned → in preparation → prepared → released | rejected. */
 export const batch = sqliteTable(

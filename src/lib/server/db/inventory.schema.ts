@@ -2,15 +2,8 @@ import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-or
 import type { LedgerKind, LotStatus, QuantityKind, DateKind } from '$lib/inventory';
 import { component } from './recipes.schema';
 import { user } from './schema';
+import { createdAt, id } from './columns';
 
-const id = () =>
-	text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID());
-const createdAt = () =>
-	integer('created_at', { mode: 'timestamp_ms' })
-		.notNull()
-		.$defaultFn(() => new Date());
 
 /**
  * A received raw-material lot. Its stock is never stored here: on-hand is the sum of its ledger,

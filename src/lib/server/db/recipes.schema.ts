@@ -2,15 +2,8 @@ import { index, integer, real, sqliteTable, text, uniqueIndex, type AnySQLiteCol
 import type { GhsHazard, IonSpec, SolubilitySpec } from '$chemistry';
 import type { LineKind, RecipeKind, VersionStatus } from '$lib/recipes';
 import { user } from './schema';
+import { createdAt, id } from './columns';
 
-const id = () =>
-	text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID());
-const createdAt = () =>
-	integer('created_at', { mode: 'timestamp_ms' })
-		.notNull()
-		.$defaultFn(() => new Date());
 
 /** The component library: the reference data loaded at start, plus what people add. */
 export const component = sqliteTable(

@@ -1,15 +1,8 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import type { Role } from '$lib/roles';
+import { createdAt, id } from './columns';
 
-const id = () =>
-	text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID());
-const createdAt = () =>
-	integer('created_at', { mode: 'timestamp_ms' })
-		.notNull()
-		.$defaultFn(() => new Date());
 
 export const user = sqliteTable('user', {
 	id: id(),

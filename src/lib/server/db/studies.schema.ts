@@ -3,15 +3,8 @@ import type { PerCellConsumption } from '$chemistry';
 import type { FeedPlanStrategy, OrganismGroup, ProfileKind, TargetBasis } from '$lib/studies';
 import { recipeVersion } from './recipes.schema';
 import { user } from './schema';
+import { createdAt, id } from './columns';
 
-const id = () =>
-	text('id')
-		.primaryKey()
-		.$defaultFn(() => crypto.randomUUID());
-const createdAt = () =>
-	integer('created_at', { mode: 'timestamp_ms' })
-		.notNull()
-		.$defaultFn(() => new Date());
 const updatedAt = () =>
 	integer('updated_at', { mode: 'timestamp_ms' })
 		.notNull()
