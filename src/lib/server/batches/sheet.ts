@@ -57,9 +57,11 @@ export interface SheetLine {
 	verdict: ReturnType<typeof checkTolerance> | null;
 }
 
+/** Shown to the resolution a bench balance reads: 1 mg up to a kilogram, then 0.1 g. */
 export function formatMassUg(ug: number): string {
 	const g = ug / 1e6;
-	if (g >= 1) return `${Number(g.toPrecision(6))} g`;
+	if (g >= 1000) return `${Number(g.toFixed(1))} g`;
+	if (g >= 1) return `${Number(g.toFixed(3))} g`;
 	return `${Number((ug / 1000).toPrecision(4))} mg`;
 }
 
