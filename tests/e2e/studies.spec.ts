@@ -1,4 +1,25 @@
-import { test, expect } from './fixtures';
+import { readFile } from 'node:fs/promises';
+import { inflateSync } from 'node:zlib';
+import { PDFDocument } from 'pdf-lib';
+import { pageAs, test, expect } from './fixtures';
+
+/** The text pdf-lib drew: its content streams are deflated and its strings hex-encoded. */
+function extractPdfText(bytes: Buffer): string {
+	const raw = bytes.toString('latin1');
+	const texts: string[] = [];
+	for (const match of raw.matchAll(/stream\r?\n/g)) {
+		const start = match.index + match[0].length;
+		const end = raw.indexOf('endstream', start);
+		let content: string;
+		try {
+			content = inflateSync(bytes.subarray(start, end)).toString('latin1');
+		} catch {
+			content = raw.slice(start, end);
+		}
+		for (const hex of content.matchAll(/<([0-9A-Fa-f]*)>\s*Tj/g)) texts.push(Buffer.from(hex[1], 'hex').toString('latin1'));
+	}
+	return texts.join(' ');
+}
 
 test.describe('an engineer runs a study', () => {
 	test.use({ role: 'engineer' });
@@ -31,6 +52,33 @@ test.describe('an engineer runs a study', () => {
 		await expect(page.getByRole('button', { name: 'Print' })).toBeHidden();
 		const pdf = await page.pdf({ format: 'A4' });
 		expect(pdf.byteLength).toBeGreaterThan(10_000);
+	});
+
+	test('downloads the report as a PDF with the verdict and the cautions', async ({ page }) => {
+		await page.goto('/studies');
+		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
+		await expect(page.getByTestId('verdict-text')).toHaveText('Supported');
+		const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download PDF' }).click()]);
+		expect(download.suggestedFilename()).toBe('Yeast glycerol fed-batch, bench (demo).pdf');
+		const bytes = await readFile(await download.path());
+		expect(bytes.subarray(0, 5).toString()).toBe('%PDF-');
+		expect(bytes.byteLength).toBeGreaterThan(2_000);
+
+		const doc = await PDFDocument.load(bytes);
+		expect(doc.getPageCount()).toBeGreaterThanOrEqual(1);
+		expect(doc.getTitle()).toBe('Sufficiency study: Yeast glycerol fed-batch, bench (demo)');
+		const text = extractPdfText(bytes);
+		expect(text).toContain('Verdict: Supported');
+		expect(text).toContain('Oxygen-enriched gas raises the risk of fire');
+		expect(text).toContain('Glycerol');
+
+		await page.getByRole('link', { name: 'Print view' }).click();
+		await expect(page.getByRole('link', { name: 'Download PDF' })).toBeVisible();
+		await page.emulateMedia({ media: 'print' });
+		await expect(page.getByRole('link', { name: 'Download PDF' })).toBeHidden();
+
+		const missing = await page.request.get('/studies/no-such-study/report.pdf');
+		expect(missing.status()).toBe(404);
 	});
 
 	test('creates a study and is told plainly about a target beyond physical sense', async ({ page }) => {
@@ -72,5 +120,17 @@ test.describe('a prep technician', () => {
 		expect(response?.status()).toBe(403);
 		const post = await page.request.post('/api/v1/studies/evaluate', { data: { studyId: 'x' } });
 		expect(post.status()).toBe(403);
+	});
+
+	test('is refused the report PDF of a real study', async ({ page, browser, baseURL }) => {
+		const engineer = await pageAs(browser, 'engineer', baseURL!);
+		await engineer.goto('/studies');
+		await engineer.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
+		await expect(engineer.getByRole('link', { name: 'Download PDF' })).toBeVisible();
+		const href = await engineer.getByRole('link', { name: 'Download PDF' }).getAttribute('href');
+		await engineer.context().close();
+		expect(href).toMatch(/^\/studies\/[^/]+\/report\.pdf$/);
+		const response = await page.request.get(href!);
+		expect(response.status()).toBe(403);
 	});
 });

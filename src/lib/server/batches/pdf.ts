@@ -1,66 +1,9 @@
-import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
+import { PDFDocument, StandardFonts } from 'pdf-lib';
 import QRCode from 'qrcode';
 import { BATCH_STATE_LABELS } from '$lib/batches';
 import { formatQuantity } from '$lib/inventory';
+import { A4, MARGIN, Writer } from '../pdf/layout';
 import type { BatchView } from './view';
-
-// The standard PDF fonts speak WinAnsi only; map what they cannot draw to plain equivalents.
-const REPLACEMENTS: Record<string, string> = { '−': '-', '→': '->', '≤': '<=', '≥': '>=', '·': '·', '₂': '2', '₃': '3', '₄': '4', '⁺': '+', '⁻': '-', 'µ': 'µ', '…': '...', '“': '"', '”': '"', '‘': "'", '’': "'", '–': '-', '—': '-' };
-export function toWinAnsi(text: string): string {
-	return [...text]
-		.map((c) => REPLACEMENTS[c] ?? c)
-		.join('')
-		.replace(/[^\x20-\x7e\xa0-\xff]/g, '?');
-}
-
-const A4: [number, number] = [595.28, 841.89];
-const MARGIN = 40;
-
-class Writer {
-	page: PDFPage;
-	y: number;
-	constructor(
-		private readonly doc: PDFDocument,
-		private readonly font: PDFFont,
-		private readonly bold: PDFFont
-	) {
-		this.page = doc.addPage(A4);
-		this.y = A4[1] - MARGIN;
-	}
-	ensure(height: number) {
-		if (this.y - height < MARGIN) {
-			this.page = this.doc.addPage(A4);
-			this.y = A4[1] - MARGIN;
-		}
-	}
-	text(text: string, options: { size?: number; bold?: boolean; x?: number; color?: [number, number, number] } = {}) {
-		const size = options.size ?? 9.5;
-		const font = options.bold ? this.bold : this.font;
-		const maxWidth = A4[0] - MARGIN - (options.x ?? MARGIN);
-		for (const line of this.wrap(toWinAnsi(text), font, size, maxWidth)) {
-			this.ensure(size + 3);
-			this.page.drawText(line, { x: options.x ?? MARGIN, y: this.y - size, size, font, color: options.color ? rgb(...options.color) : rgb(0, 0, 0) });
-			this.y -= size + 3;
-		}
-	}
-	gap(points = 6) {
-		this.y -= points;
-	}
-	private wrap(text: string, font: PDFFont, size: number, maxWidth: number): string[] {
-		const words = text.split(/\s+/);
-		const lines: string[] = [];
-		let current = '';
-		for (const word of words) {
-			const next = current ? `${current} ${word}` : word;
-			if (font.widthOfTextAtSize(next, size) > maxWidth && current) {
-				lines.push(current);
-				current = word;
-			} else current = next;
-		}
-		if (current) lines.push(current);
-		return lines.length ? lines : [''];
-	}
-}
 
 /** The batch sheet as a PDF: the same content as the printed page, with the record's QR code. */
 export async function buildBatchSheetPdf(view: BatchView): Promise<Uint8Array> {

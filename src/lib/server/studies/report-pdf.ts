@@ -1,0 +1,126 @@
+import { PDFDocument, StandardFonts } from 'pdf-lib';
+import { formatAmount, formatCells, formatDateTime } from '$lib/components/studies/format';
+import { TARGET_BASIS_UNITS } from '$lib/studies';
+import { MARGIN, Writer } from '../pdf/layout';
+import { STUDY_CAUTIONS } from './evaluate';
+import type { loadStudyReport } from './page-load';
+
+export type LoadedStudyReport = ReturnType<typeof loadStudyReport>;
+
+const CAUTION_COLOR: [number, number, number] = [0.6, 0.1, 0.1];
+
+function describeVersion(v: { recipeName: string; n: number; status: string; superseded: boolean; supersededBy: number | null }): string {
+	return `${v.recipeName} v${v.n} (${v.status}${v.superseded ? `, superseded${v.supersededBy ? ` by v${v.supersededBy}` : ''}` : ''})`;
+}
+
+/** A file name that any browser and file system accepts, from the study's name. */
+export function toSafeFileName(name: string): string {
+	const safe = name
+		.normalize('NFKD')
+		.replace(/[^\w .,()-]+/g, '_')
+		.replace(/\s+/g, ' ')
+		.trim()
+		.slice(0, 100);
+	return safe || 'study';
+}
+
+/** The sufficiency-study report as a PDF: the same content as the print view, without the chart. */
+export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt = new Date()): Promise<Uint8Array> {
+	const { study, report } = loaded;
+	const doc = await PDFDocument.create();
+	doc.setTitle(`Sufficiency study: ${study.name}`);
+	doc.setSubject(report ? `Verdict: ${report.verdict === 'supported' ? 'Supported' : 'Not supported'}` : 'Not evaluated');
+	doc.setCreator('Brothwright');
+	const font = await doc.embedFont(StandardFonts.Helvetica);
+	const bold = await doc.embedFont(StandardFonts.HelveticaBold);
+	const w = new Writer(doc, font, bold);
+
+	w.text('Brothwright sufficiency study · Pilot Plant North', { size: 8 });
+	w.text(study.name, { size: 18, bold: true });
+	w.text(`Printed ${formatDateTime(printedAt)} · target ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]} · safety factor ${study.safetyFactor}`);
+	w.gap(10);
+
+	w.text('Safety cautions', { bold: true, size: 11, color: CAUTION_COLOR });
+	for (const caution of report?.cautions ?? STUDY_CAUTIONS) w.text(`- ${caution}`, { x: MARGIN + 8, color: CAUTION_COLOR });
+	w.gap(10);
+
+	w.text('What it uses', { bold: true, size: 11 });
+	w.text(`Basal: ${describeVersion(loaded.basal)}`);
+	w.text(`Feeds: ${loaded.feeds.length ? loaded.feeds.map((f) => `${describeVersion(f)}, ${formatAmount(f.volumeL)} L`).join('; ') : 'none (batch)'}`);
+	w.text(`Organism: ${loaded.profile.name}`);
+	w.text(`Vessel: ${loaded.vessel.name}`);
+	w.text(`Target: ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]}`);
+	w.text(`Plan: ${study.feedStrategy} feed from ${study.feedStartH} h, run ${study.durationH} h, ${study.initialVolumeL} L at start`);
+	w.text(`Conditions: ${study.temperatureC} °C, ${study.pressureKPa} kPa, O2 fraction ${study.o2MoleFraction}, DO setpoint ${study.doSetpointPercent} %`);
+	if (study.notes) w.text(`Notes: ${study.notes}`);
+	w.gap(10);
+
+	if (!report) {
+		w.text(`This study cannot be evaluated: ${loaded.reportError ?? 'unknown reason'}`, { bold: true, color: CAUTION_COLOR });
+		return doc.save();
+	}
+
+	const supported = report.verdict === 'supported';
+	w.text(`Verdict: ${supported ? 'Supported' : 'Not supported'}`, { bold: true, size: 14, color: supported ? [0.1, 0.4, 0.15] : CAUTION_COLOR });
+	const cells = report.limit.maxCellsPerMl !== null ? ` (${formatCells(report.limit.maxCellsPerMl)} cells/mL)` : '';
+	w.text(`Limiting: ${report.limit.name} · maximum supportable about ${formatAmount(report.limit.maxBiomassGPerL)} g/L${cells} against the target ${formatAmount(report.inputs.targetBiomassGPerL)} g/L.`);
+	for (const reason of report.reasons) w.text(`- ${reason}`, { x: MARGIN + 8 });
+	w.gap(10);
+
+	w.text(`Nutrients: ${report.nutrients.check}`, { bold: true, size: 11 });
+	w.text(`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand.`, { size: 8.5 });
+	w.gap(3);
+	const lines = [...report.nutrients.lines].sort((a, b) => a.ratio - b.ratio);
+	w.table(
+		[
+			{ header: 'Nutrient', width: 175 },
+			{ header: 'Demand g/L', width: 70, align: 'right' },
+			{ header: 'Supply g/L', width: 70, align: 'right' },
+			{ header: 'Ratio', width: 55, align: 'right' },
+			{ header: 'Margin g/L', width: 75, align: 'right' },
+			{ header: 'Check', width: 55 }
+		],
+		lines.map((l) => [l.note ? `${l.name} (${l.note})` : l.name, formatAmount(l.demandGPerL), formatAmount(l.supplyGPerL), formatAmount(l.ratio), formatAmount(l.marginGPerL), l.sufficient ? 'OK' : 'SHORT'])
+	);
+	for (const note of report.nutrients.notes) w.text(note, { size: 8.5 });
+	w.gap(10);
+
+	const o = report.oxygen;
+	w.ensure(120);
+	w.text(`Oxygen: ${o.check}`, { bold: true, size: 11 });
+	w.text(`Total O2 needed: ${formatAmount(o.totalO2G)} g (${formatAmount(o.totalO2Mol)} mol)`);
+	w.text(`Peak OUR ${formatAmount(o.peakOurMmolPerLH)} mmol/(L·h) against max OTR at DO setpoint ${formatAmount(o.maxOtrMmolPerLH)} mmol/(L·h)`);
+	w.text(`kLa used / needed: ${formatAmount(report.inputs.kLaPerH)} / ${formatAmount(o.kLaNeededPerH)} 1/h`);
+	w.text(`O2 fraction used / needed: ${formatAmount(report.inputs.o2MoleFraction)} / ${o.enrichmentFeasible ? formatAmount(o.o2MoleFractionNeeded) : 'above 1'}${o.enrichmentAllowed ? '' : ' · enrichment not allowed'}`);
+	w.text(`Reserve at setpoint: ${o.reserveS === null ? '—' : `${formatAmount(o.reserveS)} s`}`);
+	w.text(`Peak OUR from ${o.peakOurOrigin}; kLa ${report.inputs.kLaOrigin}.`, { size: 8.5 });
+	w.gap(10);
+
+	w.ensure(60);
+	w.text(`Heat: ${report.heat.check}`, { bold: true, size: 11 });
+	w.text(`Heat load ${formatAmount(report.heat.heatLoadW)} W (metabolic ${formatAmount(report.heat.metabolicW)} W, agitation ${formatAmount(report.heat.agitationPowerW)} W) against cooling capacity ${formatAmount(report.heat.coolingCapacityW)} W: ${formatAmount(report.heat.utilisation * 100)} % used`);
+	w.gap(10);
+
+	w.ensure(60);
+	w.text(`Volume: ${report.volume.check}`, { bold: true, size: 11 });
+	w.text(`Final ${formatAmount(report.volume.finalL)} L (initial ${formatAmount(report.volume.initialL)} L + feeds ${formatAmount(report.volume.feedL)} L) against the vessel's maximum ${formatAmount(report.volume.maxL)} L (working range ${formatAmount(report.volume.minL)}–${formatAmount(report.volume.maxL)} L)`);
+	const course = report.timeCourse;
+	if (course.check !== 'unavailable') {
+		w.text(`Time course: ${course.check}, reaches ${formatAmount(course.finalBiomassGPerL)} g/L${course.stoppedAtH !== null ? `, stops at ${formatAmount(course.stoppedAtH)} h` : ''}; the chart is in the app.`);
+	} else w.text(`Time course not available: ${course.message}`);
+	w.gap(10);
+
+	w.text('Defaults used', { bold: true, size: 11 });
+	w.text('Every value this study assumed rather than read from your entries.', { size: 8.5 });
+	w.gap(3);
+	w.table(
+		[
+			{ header: 'What', width: 170 },
+			{ header: 'Value', width: 110 },
+			{ header: 'Source', width: 235 }
+		],
+		report.defaults.map((d) => [d.what, d.value, d.source])
+	);
+	for (const note of report.notes) w.text(note, { size: 8.5 });
+	return doc.save();
+}

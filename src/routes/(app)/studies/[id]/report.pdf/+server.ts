@@ -1,0 +1,14 @@
+import { requireStudyAccess } from '$lib/server/studies/access';
+import { contentDisposition } from '$lib/server/inventory/certificates';
+import { loadStudyReport } from '$lib/server/studies/page-load';
+import { buildStudyReportPdf, toSafeFileName } from '$lib/server/studies/report-pdf';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = async ({ params }) => {
+	requireStudyAccess();
+	const loaded = loadStudyReport(params.id);
+	const pdf = await buildStudyReportPdf(loaded);
+	return new Response(new Uint8Array(pdf), {
+		headers: { 'content-type': 'application/pdf', 'content-disposition': contentDisposition(`${toSafeFileName(loaded.study.name)}.pdf`), 'cache-control': 'private, no-store' }
+	});
+};
