@@ -136,11 +136,14 @@ test.describe('prep technician', () => {
 		await context.setOffline(true);
 		await card.getByRole('button', { name: 'Sign line 1 as done' }).click();
 		await expect(card.getByTestId('line-message')).toContainText('saved on this tablet, will resend');
-		await page.reload().catch(() => undefined);
+		// The tablet's page goes away with the entry unsent; a fresh page of the same browser finds it kept
+		// and sends it. (Closing the old page first means only the fresh one can be the sender.)
+		await page.close();
 		await context.setOffline(false);
-		await page.goto(`/batches/${id}`);
-		await expect(page.getByTestId('line-1').getByTestId('line-done')).toContainText(required);
-		await expect(page.getByText(/Back online: 1 saved entry was sent/)).toBeVisible();
+		const fresh = await context.newPage();
+		await fresh.goto(`/batches/${id}`);
+		await expect(fresh.getByText(/Back online: 1 saved entry was sent/)).toBeVisible();
+		await expect(fresh.getByTestId('line-1').getByTestId('line-done')).toContainText(required);
 	});
 
 	test('the batch sheet downloads as a PDF', async ({ page }) => {
