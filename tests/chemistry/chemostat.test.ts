@@ -1,18 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { computeChemostatSteadyState } from '../../chemistry/chemostat';
-import { ChemistryInputError } from '../../chemistry/errors';
 import { compareBatchWithContinuous, computeMonodBatchTimeH } from '../../chemistry/productivity';
 import { computeExhaustionThresholdGPerL, simulateRun } from '../../chemistry/simulation';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 const culture = { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5, feedSubstrateGPerL: 10 };
 

@@ -11,18 +11,8 @@ import {
 	solubilityAt
 } from '../../chemistry/components';
 import { GHS_STATEMENTS } from '../../chemistry/data/components';
-import { ChemistryInputError } from '../../chemistry/errors';
 import { parseFormula } from '../../chemistry/formula';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 function component(id: string) {
 	const found = findReferenceComponent(id);

@@ -10,12 +10,12 @@ import {
 	computeComposition,
 	type CompositionLine
 } from '../../chemistry/composition';
-import { ChemistryInputError } from '../../chemistry/errors';
 import {
 	CONCENTRATION_UNITS,
 	convertConcentration,
 	normalizeConcentrationUnit
 } from '../../chemistry/units';
+import { errorOf } from './input-error';
 
 // IUPAC 2021 standard atomic weights, conventional values (Prohaska et al., Pure Appl. Chem. 94:573, 2022).
 const W = {
@@ -36,16 +36,6 @@ function component(id: string) {
 	const found = findReferenceComponent(id);
 	if (!found) throw new Error(`no reference component ${id}`);
 	return found;
-}
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
 }
 
 function element(result: ReturnType<typeof computeComposition>, symbol: string) {

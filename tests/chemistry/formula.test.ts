@@ -4,16 +4,7 @@ import { MF } from 'mf-parser';
 import { ATOMIC_WEIGHTS } from '../../chemistry/data/atomic-weights';
 import { ChemistryInputError } from '../../chemistry/errors';
 import { DOT_RULE, formulaMolarMass, molarMassOf, parseFormula } from '../../chemistry/formula';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 describe('atomic weights', () => {
 	// IUPAC 2021 standard atomic weights, conventional values for interval elements

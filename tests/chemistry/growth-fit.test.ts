@@ -1,17 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { ChemistryInputError } from '../../chemistry/errors';
 import { computeStudentTQuantile, fitGrowthCurve } from '../../chemistry/growth-fit';
 import { simulateRun } from '../../chemistry/simulation';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 /** mulberry32, a small public-domain 32-bit seeded generator, with Box & Muller (1958) normals. */
 function createNormalSource(seed: number): () => number {

@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest';
-import { ChemistryInputError } from '../../chemistry/errors';
 import {
 	AIR_O2_MOLE_FRACTION,
 	O2_MOLAR_MASS_G_PER_MOL,
@@ -11,16 +10,7 @@ import {
 	computeOxygenUptakeRate,
 	computeWaterDensityKgPerL
 } from '../../chemistry/oxygen';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 describe('O2 saturation, Benson & Krause (1984) in the APHA 4500-O form', () => {
 	// Fresh water, moist air, 1 atm. Table values: ISO 5814 as printed by an instrument maker;

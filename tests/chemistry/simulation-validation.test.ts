@@ -8,16 +8,7 @@ import {
 	simulateRun,
 	type SimulationRequest
 } from '../../chemistry/simulation';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 const base: SimulationRequest = {
 	mode: 'fedBatch',

@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest';
-import { ChemistryInputError } from '../../chemistry/errors';
 import { computeDegreeOfReduction } from '../../chemistry/degree-of-reduction';
 import {
 	computeChiSquareQuantile,
@@ -7,16 +6,7 @@ import {
 	type StoichiometrySpecies,
 	type StoichiometrySpecification
 } from '../../chemistry/stoichiometry';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 // The worked growth balance of Shuler & Kargi, Bioprocess Engineering, 2nd ed. (2002) — location
 // from memory, as in SCIENCE-REFERENCES.md:

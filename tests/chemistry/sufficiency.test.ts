@@ -1,21 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { ChemistryInputError } from '../../chemistry/errors';
 import { BIOMASS_COMPOSITIONS, findBiomassComposition } from '../../chemistry/data/biomass';
 import {
 	DEFAULT_SAFETY_FACTOR,
 	assessSufficiency,
 	type SufficiencyInput
 } from '../../chemistry/sufficiency';
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
+import { errorOf } from './input-error';
 
 // Bacterial dry-mass fractions, Neidhardt, Ingraham & Schaechter (1990): N 14 %, P 3 %, S 1 %
 // (confirmed, SCIENCE-REFERENCES.md); Mg 0.5 % (from memory); C 50 % (from memory).

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { ChemistryInputError } from '../../chemistry/errors';
 import {
 	WATER_CONVENTION,
 	computeMassToWeigh,
 	computeStockVolume,
 	type MassToWeighInput
 } from '../../chemistry/weighing';
+import { errorOf } from './input-error';
 
 // Molar masses from IUPAC 2021 standard atomic weights (Prohaska et al., Pure Appl. Chem. 94:573, 2022):
 // MgSO4·7H2O 246.466 and CaCl2·2H2O 147.008 as derived in SCIENCE-REFERENCES.md; the anhydrous salts by hand:
@@ -14,16 +14,6 @@ const M_MGSO4_7H2O = 246.466;
 const M_MGSO4 = 120.361;
 const M_CACL2_2H2O = 147.008;
 const M_CACL2 = 110.978;
-
-function errorOf(fn: () => unknown): ChemistryInputError {
-	try {
-		fn();
-	} catch (e) {
-		if (e instanceof ChemistryInputError) return e;
-		throw e;
-	}
-	throw new Error('expected a ChemistryInputError');
-}
 
 describe('computeMassToWeigh', () => {
 	const mgso4 = { targetGPerL: 0.5, volumeL: 1, basis: { formula: 'MgSO4' } };
