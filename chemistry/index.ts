@@ -11,6 +11,7 @@ export * from './heat';
 export * from './degree-of-reduction';
 export * from './stoichiometry';
 export * from './sufficiency';
+export * from './substrate-yield';
 export {
 	AVERAGE_BIOMASS_FORMULA,
 	BIOMASS_COMPOSITIONS,

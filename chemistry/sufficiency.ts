@@ -86,8 +86,20 @@ export interface SufficiencyInput {
 	safetyFactor?: number;
 	/** Yield on the carbon source, so that respired carbon counts in the carbon demand. */
 	carbon?: CarbonDemand;
+	/**
+	 * Yields on further substrates (e.g. glutamine, or the sole nitrogen salt): each becomes the line
+	 * demand = X / Yx/s on that component, replacing any requirement the profile gives for it.
+	 */
+	substrates?: SubstrateDemand[];
 	/** Elements not assessed; default ['H', 'O']. */
 	ignoreElements?: string[];
+}
+
+export interface SubstrateDemand {
+	component: string;
+	yieldGPerG: number;
+	/** How the yield was obtained, shown on the line. */
+	note?: string;
 }
 
 export interface SufficiencyLine {
@@ -490,6 +502,31 @@ function applyCarbon(
 	fail("Carbon basis must be 'component' or 'element'", 'carbon.basis');
 }
 
+function applySubstrates(lines: Requirement[], substrates: unknown, target: Target): Requirement[] {
+	if (substrates === undefined) return lines;
+	if (!Array.isArray(substrates)) fail('substrates must be a list of { component, yieldGPerG }', 'substrates');
+	if (substrates.length === 0) return lines;
+	const x = requireBiomass(target, 'A yield on a substrate');
+	const seen = new Set<string>();
+	const added: Requirement[] = substrates.map((entry: unknown, i) => {
+		const field = `substrates.${i}`;
+		if (entry === null || typeof entry !== 'object') fail('Each substrate needs { component, yieldGPerG }', field);
+		const { component, yieldGPerG, note } = entry as SubstrateDemand;
+		if (typeof component !== 'string' || component === '') fail('Substrate component id is needed', `${field}.component`);
+		if (seen.has(component)) fail(`${component} is listed twice among the substrates`, `${field}.component`);
+		seen.add(component);
+		const y = positive(yieldGPerG, `${field}.yieldGPerG`, `Yield on ${component}`);
+		return {
+			key: component,
+			basis: 'component' as const,
+			demandGPerL: x / y,
+			molarMassGPerMol: null,
+			note: note ?? `X / Yx/s with Yx/s = ${y} g/g`
+		};
+	});
+	return [...lines.filter((l) => !(l.basis === 'component' && seen.has(l.key))), ...added];
+}
+
 /**
  * Assess a supply against a target biomass for an organism profile. See the module comment for the
  * rules; every demand, supply and margin is in g per litre of final volume.
@@ -523,9 +560,10 @@ export function assessSufficiency(input: SufficiencyInput): SufficiencyResult {
 		target,
 		notes
 	);
-	if (requirements.length === 0) fail('The profile has no requirement to assess', 'profile');
+	const withSubstrates = applySubstrates(requirements, input.substrates, target);
+	if (withSubstrates.length === 0) fail('The profile has no requirement to assess', 'profile');
 
-	const lines: SufficiencyLine[] = requirements.map((r) => {
+	const lines: SufficiencyLine[] = withSubstrates.map((r) => {
 		const supplyGPerL = (r.basis === 'element' ? supply.element : supply.component).get(r.key) ?? 0;
 		const ratio = supplyGPerL / r.demandGPerL;
 		const line: SufficiencyLine = {

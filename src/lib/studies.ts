@@ -17,6 +17,20 @@ export const PROFILE_KIND_LABELS: Record<ProfileKind, string> = {
 	perCell: 'Per-cell consumption (cell culture)'
 };
 
+/** How Yx/s on the carbon source is obtained. */
+export const YIELD_METHODS = ['entered', 'respiratoryQuotient', 'oxygenYield'] as const;
+export type YieldMethod = (typeof YIELD_METHODS)[number];
+export const YIELD_METHOD_LABELS: Record<YieldMethod, string> = {
+	entered: 'Entered (measured)',
+	respiratoryQuotient: 'Element balance from a measured RQ',
+	oxygenYield: 'Element balance from Yx/O2 (or qO2 at μmax)'
+};
+
+/** A yield on a further substrate: typed in, or from the balance of an element it alone supplies. */
+export type SubstrateYieldEntry =
+	| { componentId: string; method: 'entered'; yieldGPerG: number }
+	| { componentId: string; method: 'soleSource'; element: string; yieldGPerG: number };
+
 export const TARGET_BASES = ['biomassGPerL', 'cellsPerMl'] as const;
 export type TargetBasis = (typeof TARGET_BASES)[number];
 export const TARGET_BASIS_UNITS: Record<TargetBasis, string> = { biomassGPerL: 'g/L dry biomass', cellsPerMl: 'cells/mL' };

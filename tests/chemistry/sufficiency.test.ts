@@ -217,6 +217,47 @@ describe('nutrient sufficiency', () => {
 	});
 });
 
+describe('yields on further substrates', () => {
+	it('adds X / Yx/s for each substrate, worked by hand', () => {
+		// Glutamine in the feed only: 0.25 L × 40 g/L over 1.25 L = 8 g/L; demand 40 / 4 = 10 g/L → ratio 0.8.
+		const supply: SufficiencyInput['supply'] = {
+			finalVolumeL: 1.25,
+			sources: [...mediumAndFeed.sources.slice(0, 1), { ...mediumAndFeed.sources[1], componentsGPerL: { glucose: 500, glutamine: 40 } }]
+		};
+		const r = assessSufficiency({
+			profile: { kind: 'elementalFractions', fractions: bacterial },
+			target: { biomassGPerL: 40 },
+			supply,
+			carbon: { basis: 'component', component: 'glucose', yieldGPerG: 0.5 },
+			substrates: [{ component: 'glutamine', yieldGPerG: 4, note: 'entered' }]
+		});
+		const gln = r.lines.find((l) => l.key === 'glutamine')!;
+		expect(gln.demandGPerL).toBeCloseTo(10, 9);
+		expect(gln.supplyGPerL).toBeCloseTo(8, 9);
+		expect(gln.ratio).toBeCloseTo(0.8, 9);
+		expect(gln.note).toBe('entered');
+		// 40 × 0.8 / 1.2 = 26.7 g/L: below every element line, so glutamine limits.
+		expect(r.limiting?.key).toBe('glutamine');
+		expect(r.maximumSupportable.biomassGPerL).toBeCloseTo((40 * 0.8) / 1.2, 9);
+	});
+
+	it('replaces a component requirement of the same component and refuses duplicates', () => {
+		const base = {
+			profile: { kind: 'componentRequirements' as const, requirementsGPerG: { glutamine: 0.05, glucose: 1 } },
+			target: { biomassGPerL: 10 },
+			supply: { finalVolumeL: 1, sources: [{ componentsGPerL: { glutamine: 5, glucose: 50 } }] }
+		};
+		const r = assessSufficiency({ ...base, substrates: [{ component: 'glutamine', yieldGPerG: 2 }] });
+		const lines = r.lines.filter((l) => l.key === 'glutamine');
+		expect(lines).toHaveLength(1);
+		expect(lines[0].demandGPerL).toBeCloseTo(5, 9);
+		expect(errorOf(() => assessSufficiency({ ...base, substrates: [{ component: 'glutamine', yieldGPerG: 2 }, { component: 'glutamine', yieldGPerG: 3 }] })).field).toBe(
+			'substrates.1.component'
+		);
+		expect(errorOf(() => assessSufficiency({ ...base, substrates: [{ component: 'glutamine', yieldGPerG: 0 }] })).field).toBe('substrates.0.yieldGPerG');
+	});
+});
+
 describe('biomass composition defaults', () => {
 	it('carries the Neidhardt, Ingraham & Schaechter (1990) bacterial fractions with their confidence', () => {
 		const b = findBiomassComposition('bacterium-neidhardt-1990');

@@ -1,6 +1,6 @@
 import { index, integer, real, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import type { PerCellConsumption } from '$chemistry';
-import type { FeedPlanStrategy, OrganismGroup, ProfileKind, TargetBasis } from '$lib/studies';
+import type { FeedPlanStrategy, OrganismGroup, ProfileKind, SubstrateYieldEntry, TargetBasis, YieldMethod } from '$lib/studies';
 import { recipeVersion } from './recipes.schema';
 import { user } from './schema';
 import { createdAt, id } from './columns';
@@ -27,8 +27,13 @@ export const organismProfile = sqliteTable('organism_profile', {
 	perCellConsumption: text('per_cell_consumption', { mode: 'json' }).$type<PerCellConsumption[]>(),
 	cellDryMassPg: real('cell_dry_mass_pg'),
 	carbonSourceId: text('carbon_source_id'),
-	/** Yx/s on the carbon source, g/g; null until entered. */
+	/** Yx/s on the carbon source, g/g: entered, or worked out on save by the method below. */
 	yieldXSGPerG: real('yield_xs_g_per_g'),
+	yieldXSMethod: text('yield_xs_method').$type<YieldMethod>().notNull().default('entered'),
+	/** mol CO2 per mol O2, measured; the element balance turns it into Yx/s. */
+	respiratoryQuotient: real('respiratory_quotient'),
+	/** Yields on further substrates (beyond the carbon source), entered or by element balance. */
+	substrateYields: text('substrate_yields', { mode: 'json' }).$type<SubstrateYieldEntry[]>().notNull().default([]),
 	muMaxPerH: real('mu_max_per_h'),
 	ksGPerL: real('ks_g_per_l'),
 	maintenanceGPerGH: real('maintenance_g_per_gh'),

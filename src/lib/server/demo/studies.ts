@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { findBiomassComposition } from '$chemistry';
+import { findBiomassComposition, solveAerobicGrowth } from '$chemistry';
 import { blankLine, type DraftFieldsInput, type DraftLineInput } from '$lib/recipes';
 import { db } from '../db';
 import { organismProfile, recipe, study, vessel } from '../db/schema';
@@ -32,6 +32,9 @@ function presetFractions(id: string) {
 	};
 }
 
+/** Demo value, mol CO2 per mol O2, in the usual range for aerobic growth on glucose. */
+const BACTERIUM_RQ = 1.05;
+
 type ProfileValues = Omit<OrganismProfileRow, 'id' | 'createdAt' | 'updatedAt' | 'revision' | 'isDemo'>;
 
 export const DEMO_PROFILES: ProfileValues[] = [
@@ -46,13 +49,19 @@ export const DEMO_PROFILES: ProfileValues[] = [
 		perCellConsumption: null,
 		cellDryMassPg: 0.28,
 		carbonSourceId: 'd-glucose',
-		yieldXSGPerG: 0.45,
+		// Worked out from the measured RQ by element balance, as the profile form does on save.
+		yieldXSMethod: 'respiratoryQuotient',
+		respiratoryQuotient: BACTERIUM_RQ,
+		yieldXSGPerG: Number(
+			solveAerobicGrowth({ substrateFormula: 'C6H12O6', biomassFormula: 'CH1.8O0.5N0.2', ashFraction: 0.08, measured: { kind: 'respiratoryQuotient', molCo2PerMolO2: BACTERIUM_RQ } }).biomassOnSubstrateGPerG.toPrecision(4)
+		),
+		substrateYields: [],
 		muMaxPerH: 0.6,
 		ksGPerL: 0.05,
 		maintenanceGPerGH: 0.03,
 		yieldXO2GPerG: null,
 		qO2MmolPerGH: null,
-		notes: `${DEMO_NOTE} Yx/O2 is left to the element balance.`
+		notes: `${DEMO_NOTE} Yx/s comes from the measured RQ and Yx/O2 from the element balance.`
 	},
 	{
 		name: 'Demo yeast PPN-Y2',
@@ -63,7 +72,10 @@ export const DEMO_PROFILES: ProfileValues[] = [
 		perCellConsumption: null,
 		cellDryMassPg: 15,
 		carbonSourceId: 'glycerol',
+		yieldXSMethod: 'entered',
+		respiratoryQuotient: null,
 		yieldXSGPerG: 0.5,
+		substrateYields: [],
 		muMaxPerH: 0.2,
 		ksGPerL: 0.1,
 		maintenanceGPerGH: 0.01,
@@ -83,14 +95,18 @@ export const DEMO_PROFILES: ProfileValues[] = [
 		// Consumed per 10^9 cells formed over a fed-batch (demo values).
 		perCellConsumption: [
 			{ key: 'd-glucose', basis: 'component', mmolPer1e9Cells: 14, molarMassGPerMol: 180.156 },
-			{ key: 'l-glutamine', basis: 'component', mmolPer1e9Cells: 3, molarMassGPerMol: 146.146 },
 			{ key: 'l-leucine', basis: 'component', mmolPer1e9Cells: 0.9, molarMassGPerMol: 131.175 },
 			{ key: 'l-lysine', basis: 'component', mmolPer1e9Cells: 0.6, molarMassGPerMol: 146.19 },
 			{ key: 'l-tyrosine', basis: 'component', mmolPer1e9Cells: 0.3, molarMassGPerMol: 181.191 }
 		],
 		cellDryMassPg: 300,
 		carbonSourceId: 'd-glucose',
+		yieldXSMethod: 'entered',
+		respiratoryQuotient: null,
 		yieldXSGPerG: 0.2,
+		// Glutamine as a second substrate by its yield: 3 mmol per 10^9 cells × 146.146 g/mol over 300 pg per cell
+		// is 1.46 g glutamine per g dry biomass, Yx/gln = 0.684 g/g (demo value).
+		substrateYields: [{ componentId: 'l-glutamine', method: 'entered', yieldGPerG: 0.684 }],
 		muMaxPerH: 0.035,
 		ksGPerL: 0.15,
 		maintenanceGPerGH: 0.005,

@@ -12,7 +12,7 @@ import {
 	type SufficiencyResult
 } from '$chemistry';
 import { RuleError } from '../rule-error';
-import { requireGrowthData, resolveOxygenYield, toSufficiencyProfile } from './profiles';
+import { listYieldsUsed, requireGrowthData, resolveOxygenYield, toSufficiencyProfile } from './profiles';
 import { simulatePlan } from './time-course';
 import { computeVesselKLa } from './vessels';
 import type { DefaultUsed, StudyInputs, StudyReport, WhatIf } from './types';
@@ -96,7 +96,8 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	}
 
 	// Nutrients
-	const { profile: sufficiencyProfile, carbon } = toSufficiencyProfile(profile);
+	const { profile: sufficiencyProfile, carbon, substrates } = toSufficiencyProfile(profile);
+	defaults.push(...listYieldsUsed(profile, inputs.componentNames));
 	const growth = requireGrowthData(profile);
 	const finalVolumeL = plan.initialVolumeL + feedVolumeL;
 	const sufficiency: SufficiencyResult = asSufficiencyError(() =>
@@ -111,7 +112,8 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 				]
 			},
 			safetyFactor: plan.safetyFactor,
-			carbon
+			carbon,
+			substrates
 		})
 	);
 	if (plan.safetyFactor === 1.2) defaults.push({ what: 'Safety factor', value: '1.2', source: 'Common practice (the study keeps the suggested value)' });

@@ -77,13 +77,14 @@ export function designFeed(inputs: StudyInputs, components: Map<string, Componen
 	});
 
 	const finalVolumeL = plan.initialVolumeL + request.feedVolumeL;
-	const { profile, carbon } = toSufficiencyProfile(inputs.profile);
+	const { profile, carbon, substrates } = toSufficiencyProfile(inputs.profile);
 	const basalOnly = assessSufficiency({
 		profile,
 		target: plan.targetBasis === 'cellsPerMl' ? { cellsPerMl: plan.targetValue } : { biomassGPerL: plan.targetValue },
 		supply: { finalVolumeL, sources: [{ volumeL: plan.initialVolumeL, ...inputs.basal.composition }] },
 		safetyFactor: plan.safetyFactor,
-		carbon
+		carbon,
+		substrates
 	});
 	const nameOf = (l: SufficiencyLine) => (l.basis === 'element' ? l.key : (inputs.componentNames[l.key] ?? l.key));
 	const needs = basalOnly.lines.map((l) => ({

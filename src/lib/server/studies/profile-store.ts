@@ -1,13 +1,14 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { ATOMIC_WEIGHTS, findBiomassComposition, type PerCellConsumption } from '$chemistry';
-import { ORGANISM_GROUPS, PROFILE_KINDS } from '$lib/studies';
+import { ORGANISM_GROUPS, PROFILE_KINDS, YIELD_METHODS } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { organismProfile, type OrganismProfileRow } from '../db/schema';
 import { findComponent, molarMassOfComponent } from '../components/library';
 import { RuleError } from '../rule-error';
 import { optionalNumber, optionalText, requiredText } from './fields';
+import { formatSubstrateYields, parseSubstrateYields, resolveCarbonYield } from './profile-yields';
 
 export const profileSchema = z.object({
 	name: requiredText('Name'),
@@ -22,7 +23,10 @@ export const profileSchema = z.object({
 	perCellConsumption: optionalText(),
 	cellDryMassPg: optionalNumber('Cell dry mass', { gt: 0, max: 10000, unit: 'pg' }),
 	carbonSourceId: z.string().trim().optional().transform((v) => v || null),
+	yieldXSMethod: z.enum(YIELD_METHODS, { error: 'Choose how Yx/s is obtained' }).default('entered'),
 	yieldXSGPerG: optionalNumber('Yx/s', { gt: 0, max: 1.5, unit: 'g/g' }),
+	respiratoryQuotient: optionalNumber('RQ', { min: 0.1, max: 10, unit: 'mol/mol' }),
+	substrateYields: optionalText(),
 	muMaxPerH: optionalNumber('μmax', { gt: 0, max: 3, unit: '1/h' }),
 	ksGPerL: optionalNumber('Ks', { gt: 0, max: 100, unit: 'g/L' }),
 	maintenanceGPerGH: optionalNumber('Maintenance', { min: 0, max: 1, unit: 'g/(g·h)' }),
@@ -133,6 +137,9 @@ export function profileValues(form: ProfileForm): ProfileValues {
 	if (form.kind === 'perCell' && !perCellConsumption) throw new RuleError('This kind needs per-cell consumption rates.', { field: 'perCellConsumption' });
 	if (form.kind === 'perCell' && cellDryMassPg === null) throw new RuleError('Cell culture profiles need the cell dry mass (pg/cell).', { field: 'cellDryMassPg' });
 	if (form.carbonSourceId && !findComponent(form.carbonSourceId)) throw new RuleError('Choose the carbon source from the library.', { field: 'carbonSourceId' });
+	const yieldFields = { ...form, biomassFormula, ashFraction, elementalFractions, perCellConsumption };
+	const yieldXSGPerG = resolveCarbonYield(yieldFields);
+	const substrateYields = parseSubstrateYields(form.substrateYields, yieldFields);
 	return {
 		name: form.name,
 		group: form.group,
@@ -145,7 +152,10 @@ export function profileValues(form: ProfileForm): ProfileValues {
 		perCellConsumption,
 		cellDryMassPg,
 		carbonSourceId: form.carbonSourceId,
-		yieldXSGPerG: form.yieldXSGPerG,
+		yieldXSGPerG,
+		yieldXSMethod: form.yieldXSMethod,
+		respiratoryQuotient: form.respiratoryQuotient,
+		substrateYields,
 		muMaxPerH: form.muMaxPerH,
 		ksGPerL: form.ksGPerL,
 		maintenanceGPerGH: form.maintenanceGPerGH,
@@ -171,6 +181,9 @@ export function profileFormValues(row: OrganismProfileRow): Record<string, strin
 		cellDryMassPg: text(row.cellDryMassPg),
 		carbonSourceId: text(row.carbonSourceId),
 		yieldXSGPerG: text(row.yieldXSGPerG),
+		yieldXSMethod: row.yieldXSMethod,
+		respiratoryQuotient: text(row.respiratoryQuotient),
+		substrateYields: formatSubstrateYields(row.substrateYields),
 		muMaxPerH: text(row.muMaxPerH),
 		ksGPerL: text(row.ksGPerL),
 		maintenanceGPerGH: text(row.maintenanceGPerGH),

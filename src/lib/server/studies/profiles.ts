@@ -4,9 +4,11 @@ import {
 	STANDARD_BIOMASS_FORMULA,
 	solveStoichiometry,
 	type CarbonDemand,
-	type OrganismProfile
+	type OrganismProfile,
+	type SubstrateDemand
 } from '$chemistry';
 import { RuleError } from '../rule-error';
+import { describeCarbonYield, describeSubstrateYield } from './profile-yields';
 import type { DefaultUsed, OrganismProfileRow } from './types';
 
 function missing(profile: OrganismProfileRow, what: string, field: string): never {
@@ -30,10 +32,31 @@ export function requireGrowthData(profile: OrganismProfileRow) {
 	};
 }
 
-/** The profile as the sufficiency engine reads it, and the carbon rule that goes with it. */
-export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: OrganismProfile; carbon?: CarbonDemand } {
+/** The yields a study uses, each with where it came from, for the report's list of values used. */
+export function listYieldsUsed(profile: OrganismProfileRow, componentNames: Record<string, string>): DefaultUsed[] {
+	const growth = requireGrowthData(profile);
+	const name = (id: string) => componentNames[id] ?? id;
+	return [
+		{ what: `Yx/s on ${name(growth.carbonSourceId)}`, value: `${growth.yieldXSGPerG} g/g`, source: describeCarbonYield(profile) },
+		...profile.substrateYields.map((y) => ({ what: `Yx/s on ${name(y.componentId)}`, value: `${y.yieldGPerG} g/g`, source: describeSubstrateYield(y) }))
+	];
+}
+
+/** The yields for the profile page; none until the profile has its growth data. */
+export function listProfileYields(profile: OrganismProfileRow, componentNames: Record<string, string>): DefaultUsed[] {
+	try {
+		return listYieldsUsed(profile, componentNames);
+	} catch (cause) {
+		if (cause instanceof RuleError) return [];
+		throw cause;
+	}
+}
+
+/** The profile as the sufficiency engine reads it, with the carbon rule and the further substrates. */
+export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: OrganismProfile; carbon?: CarbonDemand; substrates: SubstrateDemand[] } {
 	const cellDryMassPg = profile.cellDryMassPg ?? undefined;
 	const growth = requireGrowthData(profile);
+	const substrates = profile.substrateYields.map((y) => ({ component: y.componentId, yieldGPerG: y.yieldGPerG, note: `X / Yx/s with Yx/s = ${y.yieldGPerG} g/g (${describeSubstrateYield(y).toLowerCase()})` }));
 	// A per-cell glucose uptake already includes what is respired; a yield-based line would count it twice.
 	const carbon: CarbonDemand = { basis: 'component', component: growth.carbonSourceId, yieldGPerG: growth.yieldXSGPerG };
 	switch (profile.kind) {
@@ -41,18 +64,18 @@ export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: Or
 			if (!profile.elementalFractions || Object.keys(profile.elementalFractions).length === 0) {
 				missing(profile, 'elemental mass fractions', 'elementalFractions');
 			}
-			return { profile: { kind: 'elementalFractions', name: profile.name, fractions: profile.elementalFractions, cellDryMassPg }, carbon };
+			return { profile: { kind: 'elementalFractions', name: profile.name, fractions: profile.elementalFractions, cellDryMassPg }, carbon, substrates };
 		case 'componentRequirements':
 			if (!profile.componentRequirements || Object.keys(profile.componentRequirements).length === 0) {
 				missing(profile, 'component requirements', 'componentRequirements');
 			}
-			return { profile: { kind: 'componentRequirements', name: profile.name, requirementsGPerG: profile.componentRequirements, cellDryMassPg }, carbon };
+			return { profile: { kind: 'componentRequirements', name: profile.name, requirementsGPerG: profile.componentRequirements, cellDryMassPg }, carbon, substrates };
 		case 'perCell':
 			if (!profile.perCellConsumption || profile.perCellConsumption.length === 0) {
 				missing(profile, 'per-cell consumption rates', 'perCellConsumption');
 			}
 			if (profile.cellDryMassPg === null) missing(profile, 'cell dry mass (pg/cell)', 'cellDryMassPg');
-			return { profile: { kind: 'perCell', name: profile.name, consumption: profile.perCellConsumption, cellDryMassPg } };
+			return { profile: { kind: 'perCell', name: profile.name, consumption: profile.perCellConsumption, cellDryMassPg }, substrates };
 	}
 }
 

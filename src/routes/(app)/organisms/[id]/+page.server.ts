@@ -5,13 +5,23 @@ import { organismProfile } from '$lib/server/db/schema';
 import { requireStudyAccess } from '$lib/server/studies/access';
 import { profileChoices, submitProfile } from '$lib/server/studies/profile-page';
 import { profileFormValues } from '$lib/server/studies/profile-store';
+import { listProfileYields } from '$lib/server/studies/profiles';
+import { listComponents } from '$lib/server/components/library';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
 	requireStudyAccess();
 	const row = db.select().from(organismProfile).where(eq(organismProfile.id, params.id)).get();
 	if (!row) error(404, { message: 'No such organism profile.' });
-	return { ...profileChoices(), values: profileFormValues(row), name: row.name, isDemo: row.isDemo, fractionsSource: row.fractionsSource };
+	const componentNames = Object.fromEntries(listComponents().map((c) => [c.id, c.name]));
+	return {
+		...profileChoices(),
+		values: profileFormValues(row),
+		name: row.name,
+		isDemo: row.isDemo,
+		fractionsSource: row.fractionsSource,
+		yields: listProfileYields(row, componentNames)
+	};
 };
 
 export const actions: Actions = {
