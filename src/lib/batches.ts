@@ -1,4 +1,5 @@
 // Words and constants of batches shared by server and browser, so this module holds no server code.
+import type { QuantityKind } from './inventory';
 export const BATCH_STATES = ['planned', 'in_preparation', 'prepared', 'released', 'rejected'] as const;
 export type BatchState = (typeof BATCH_STATES)[number];
 
@@ -90,4 +91,52 @@ function readDecimal(digits: string): { ok: true; n: number; note?: string } | {
 	const n = Number(normal);
 	if (!Number.isFinite(n)) return { ok: false, message: `“${digits}” is not a number.` };
 	return { ok: true, n, note };
+}
+
+/** A lot offered for a batch sheet line. */
+export interface LotChoice {
+	id: string;
+	code: string;
+	expiresOn: string;
+	dateKind: string;
+	status: string;
+	expired: boolean;
+	assayPercent: number | null;
+	waterContentPercent: number | null;
+	onHand: number;
+	quantityKind: QuantityKind;
+	supplier: string;
+	supplierLot: string;
+}
+
+/** One line of a batch sheet: what to weigh or add, from which lot, and what was done. */
+export interface SheetLine {
+	id: string;
+	position: number;
+	kind: 'component' | 'stock';
+	name: string;
+	/** The form the recipe gives the amount as, when the weighed form differs. */
+	basisName: string | null;
+	componentId: string | null;
+	formula: string | null;
+	amount: number;
+	unit: string;
+	note: string;
+	tolerancePercent: number;
+	/** µg to weigh (component) or µL to add (stock), for the chosen lot, else the suggested one, else nominal. */
+	requiredQuantity: number;
+	requiredFor: 'chosen' | 'suggested' | 'nominal';
+	requiredText: string;
+	steps: string[];
+	chosen: LotChoice | null;
+	suggestion: LotChoice | null;
+	/** Why nothing is suggested, when nothing is. */
+	suggestionNote: string | null;
+	actualQuantity: number | null;
+	actualText: string | null;
+	doneAt: Date | null;
+	doneById: string | null;
+	stockSource: string;
+	consumedQuantity: number | null;
+	verdict: ToleranceVerdict | null;
 }

@@ -31,6 +31,12 @@ export function navigationFor(user: RoleHolder | null): NavItem[] {
 	return NAVIGATION.filter((item) => hasRole(user, item.roles));
 }
 
-export function isCurrent(item: NavItem, pathname: string): boolean {
-	return item.href === '/' ? pathname === '/' : pathname === item.href || pathname.startsWith(`${item.href}/`);
+function matches(href: string, pathname: string): boolean {
+	return href === '/' ? pathname === '/' : pathname === href || pathname.startsWith(`${href}/`);
+}
+
+/** The one item a page belongs to: the most specific match, so /batches/open is not also under /batches. */
+export function currentHref(items: NavItem[], pathname: string): string | null {
+	const matching = items.filter((item) => matches(item.href, pathname));
+	return matching.reduce<string | null>((best, item) => (best === null || item.href.length > best.length ? item.href : best), null);
 }

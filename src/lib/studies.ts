@@ -35,13 +35,43 @@ export const TARGET_BASES = ['biomassGPerL', 'cellsPerMl'] as const;
 export type TargetBasis = (typeof TARGET_BASES)[number];
 export const TARGET_BASIS_UNITS: Record<TargetBasis, string> = { biomassGPerL: 'g/L dry biomass', cellsPerMl: 'cells/mL' };
 
-export const FEED_PLAN_STRATEGIES = ['constant', 'linear', 'exponential'] as const;
+export const FEED_PLAN_STRATEGIES = ['constant', 'linear', 'exponential', 'substrateStat', 'doStat'] as const;
 export type FeedPlanStrategy = (typeof FEED_PLAN_STRATEGIES)[number];
 export const FEED_PLAN_LABELS: Record<FeedPlanStrategy, string> = {
 	constant: 'Constant rate',
 	linear: 'Linearly rising rate (from 0)',
-	exponential: 'Exponential rate'
+	exponential: 'Exponential rate',
+	substrateStat: 'Substrate-stat (holds the carbon source at a setpoint)',
+	doStat: 'DO-stat (feeds while DO is above a setpoint)'
 };
+/** Plans whose rate follows the culture: their volume is what is available, not what is delivered. */
+export const CONTROLLED_FEED_PLANS: readonly FeedPlanStrategy[] = ['substrateStat', 'doStat'];
+
+export interface FeedPlanText {
+	strategy: FeedPlanStrategy;
+	startH: number;
+	muSetPerH: number | null;
+	setpointGPerL: number | null;
+	doSetpointPercent: number | null;
+	maxRateLPerH: number | null;
+}
+
+/** One feed's plan in words, e.g. "DO-stat above 40 % DO, at most 0.15 L/h, from 8 h; 1.5 L available". */
+export function describeFeedPlan(plan: FeedPlanText, volumeL: number): string {
+	const from = `from ${plan.startH} h`;
+	switch (plan.strategy) {
+		case 'constant':
+			return `constant rate ${from}; ${volumeL} L planned`;
+		case 'linear':
+			return `linearly rising rate ${from}; ${volumeL} L planned`;
+		case 'exponential':
+			return `exponential, μset ${plan.muSetPerH} /h, ${from}; ${volumeL} L planned`;
+		case 'substrateStat':
+			return `substrate-stat at ${plan.setpointGPerL} g/L, at most ${plan.maxRateLPerH} L/h, ${from}; ${volumeL} L available`;
+		case 'doStat':
+			return `DO-stat above ${plan.doSetpointPercent} % DO, at most ${plan.maxRateLPerH} L/h, ${from}; ${volumeL} L available`;
+	}
+}
 
 /** Who sees and edits studies, organism profiles and vessels. */
 export const STUDY_ROLES = ['engineer', 'media_scientist'] as const satisfies readonly Role[];

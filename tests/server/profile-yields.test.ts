@@ -38,7 +38,7 @@ function saved(fields: Record<string, string>) {
 
 function failure(fields: Record<string, string>) {
 	const result = submitProfile(actor, form(fields), null);
-	if (!('failure' in result)) throw new Error('saved, but should have been refused');
+	if (!result.failure) throw new Error('saved, but should have been refused');
 	return result.failure.data as { message: string; fieldErrors: Record<string, string[]>; values: Record<string, string> };
 }
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { hasRole, isRole, ROLES } from '$lib/roles';
-import { navigationFor } from '$lib/navigation';
+import { currentHref, navigationFor } from '$lib/navigation';
 
 describe('hasRole, the pure check behind every guard', () => {
 	it('refuses when there is no user at all', () => {
@@ -32,5 +32,16 @@ describe('hasRole, the pure check behind every guard', () => {
 		expect(adminLinks).toContain('/admin/people');
 		expect(engineerLinks).not.toContain('/admin/people');
 		expect(navigationFor(null)).toEqual([]);
+	});
+});
+
+describe('the current menu entry', () => {
+	it('is the most specific match, so a sub-page is not also its parent', () => {
+		const items = navigationFor({ roles: ['prep_technician'] });
+		expect(currentHref(items, '/batches/open')).toBe('/batches/open');
+		expect(currentHref(items, '/batches/abc')).toBe('/batches');
+		expect(currentHref(items, '/batches')).toBe('/batches');
+		expect(currentHref(items, '/batchesx')).toBeNull();
+		expect(currentHref(items, '/')).toBe('/');
 	});
 });

@@ -11,51 +11,9 @@ import { scaleComponentLine, scaleStockLine } from './scaling';
 
 type Reader = Pick<Db, 'select'>;
 
-export interface LotChoice {
-	id: string;
-	code: string;
-	expiresOn: string;
-	dateKind: string;
-	status: string;
-	expired: boolean;
-	assayPercent: number | null;
-	waterContentPercent: number | null;
-	onHand: number;
-	quantityKind: QuantityKind;
-	supplier: string;
-	supplierLot: string;
-}
+import type { LotChoice, SheetLine } from '$lib/batches';
 
-export interface SheetLine {
-	id: string;
-	position: number;
-	kind: 'component' | 'stock';
-	name: string;
-	/** The form the recipe gives the amount as, when the weighed form differs. */
-	basisName: string | null;
-	componentId: string | null;
-	formula: string | null;
-	amount: number;
-	unit: string;
-	note: string;
-	tolerancePercent: number;
-	/** µg to weigh (component) or µL to add (stock), for the chosen lot, else the suggested one, else nominal. */
-	requiredQuantity: number;
-	requiredFor: 'chosen' | 'suggested' | 'nominal';
-	requiredText: string;
-	steps: string[];
-	chosen: LotChoice | null;
-	suggestion: LotChoice | null;
-	/** Why nothing is suggested, when nothing is. */
-	suggestionNote: string | null;
-	actualQuantity: number | null;
-	actualText: string | null;
-	doneAt: Date | null;
-	doneById: string | null;
-	stockSource: string;
-	consumedQuantity: number | null;
-	verdict: ReturnType<typeof checkTolerance> | null;
-}
+export type { LotChoice, SheetLine };
 
 /** Shown to the resolution a bench balance reads: 1 mg up to a kilogram, then 0.1 g. */
 export function formatMassUg(ug: number): string {

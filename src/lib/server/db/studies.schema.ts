@@ -95,10 +95,6 @@ export const study = sqliteTable(
 		/** Inoculum density in the same basis as the target. */
 		inoculumDensity: real('inoculum_density').notNull(),
 		durationH: real('duration_h').notNull(),
-		feedStrategy: text('feed_strategy').$type<FeedPlanStrategy>().notNull(),
-		feedStartH: real('feed_start_h').notNull(),
-		/** Exponential plan only: the growth rate the feed is shaped for. */
-		feedMuSetPerH: real('feed_mu_set_per_h'),
 		temperatureC: real('temperature_c').notNull(),
 		pressureKPa: real('pressure_kpa').notNull(),
 		o2MoleFraction: real('o2_mole_fraction').notNull(),
@@ -126,8 +122,18 @@ export const studyFeed = sqliteTable(
 			.notNull()
 			.references(() => recipeVersion.id),
 		position: integer('position').notNull(),
-		/** Total volume of this feed over the run, L. */
-		volumeL: real('volume_l').notNull()
+		/** Planned volume over the run, L; for a controlled plan (substrate- or DO-stat), the volume available. */
+		volumeL: real('volume_l').notNull(),
+		strategy: text('strategy').$type<FeedPlanStrategy>().notNull().default('constant'),
+		startH: real('start_h').notNull().default(0),
+		/** Exponential plan: the growth rate the feed is shaped for. */
+		muSetPerH: real('mu_set_per_h'),
+		/** Substrate-stat plan: the carbon source concentration it holds, g/L. */
+		setpointGPerL: real('setpoint_g_per_l'),
+		/** DO-stat plan: it feeds while DO is above this, % of air saturation. */
+		doSetpointPercent: real('do_setpoint_percent'),
+		/** Controlled plans: the pump's top rate, L/h. */
+		maxRateLPerH: real('max_rate_l_per_h')
 	},
 	(t) => [index('study_feed_study_idx').on(t.studyId, t.position), index('study_feed_version_idx').on(t.versionId)]
 );

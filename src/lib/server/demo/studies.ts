@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { findBiomassComposition, solveAerobicGrowth } from '$chemistry';
 import { blankLine, type DraftFieldsInput, type DraftLineInput } from '$lib/recipes';
+import type { FeedPlanStrategy } from '$lib/studies';
 import { db } from '../db';
 import { organismProfile, recipe, study, vessel } from '../db/schema';
 import { findUserByEmail, rolesOf } from '../people';
@@ -175,6 +176,16 @@ const DEMO_FEEDS: { name: string; lines: Line[]; stock?: [string, number]; instr
 		instructions: 'Concentrated glycerol and salts feed for the yeast fed-batch. Dissolve the salts in 400 mL warm water, add the glycerol, make up to 1 L and filter through 0.2 µm. Add the calcium last, slowly, with stirring.'
 	},
 	{
+		name: 'PPN Salts Feed B2',
+		lines: [
+			['ammonium-sulfate', 150, 'g/L'],
+			['potassium-dihydrogen-phosphate', 40, 'g/L'],
+			['calcium-chloride-dihydrate', 2, 'g/L'],
+			['iron-ii-sulfate-heptahydrate', 1, 'g/L']
+		],
+		instructions: 'Nitrogen and mineral salts feed for the bacterial fed-batch, carrying no carbon. Dissolve in purified water in the order listed, the iron last, make up to volume and filter through 0.2 µm. Wear eye protection: the solution is acidic.'
+	},
+	{
 		name: 'PPN Glucose Feed B1',
 		lines: [
 			['d-glucose', 550, 'g/L'],
@@ -232,13 +243,19 @@ function versionIdOf(recipeName: string): string | null {
 
 const idByName = (table: typeof organismProfile | typeof vessel, name: string) => db.select({ id: table.id }).from(table).where(eq(table.name, name)).get()?.id ?? null;
 
+interface DemoFeed {
+	recipe: string;
+	volumeL: number;
+	plan: { Strategy: FeedPlanStrategy; StartH: number; MuSetPerH?: number; SetpointGPerL?: number; DoSetpointPercent?: number; MaxRateLPerH?: number };
+}
+
 interface DemoStudy {
 	name: string;
 	basal: string;
 	profile: string;
 	vessel: string;
-	feeds: [string, number][];
-	plan: Omit<StudyForm, 'name' | 'basalVersionId' | 'profileId' | 'vesselId' | `feed${number}VersionId` | `feed${number}VolumeL`>;
+	feeds: DemoFeed[];
+	plan: Omit<StudyForm, 'name' | 'basalVersionId' | 'profileId' | 'vesselId' | `feed${number}${string}`>;
 }
 
 export const DEMO_STUDIES: DemoStudy[] = [
@@ -247,16 +264,13 @@ export const DEMO_STUDIES: DemoStudy[] = [
 		basal: 'PPN Yeast-Glycerol A',
 		profile: 'Demo yeast PPN-Y2',
 		vessel: 'Bench stirred tank BST-10',
-		feeds: [['PPN Glycerol Feed Y2', 2]],
+		feeds: [{ recipe: 'PPN Glycerol Feed Y2', volumeL: 2, plan: { Strategy: 'constant', StartH: 24 } }],
 		plan: {
 			targetBasis: 'biomassGPerL',
 			targetValue: 40,
 			initialVolumeL: 6,
 			inoculumDensity: 0.2,
 			durationH: 60,
-			feedStrategy: 'constant',
-			feedStartH: 24,
-			feedMuSetPerH: null,
 			temperatureC: 30,
 			pressureKPa: 120,
 			o2MoleFraction: 0.5,
@@ -270,16 +284,13 @@ export const DEMO_STUDIES: DemoStudy[] = [
 		basal: 'NB-Min Salts 3',
 		profile: 'Demo bacterium PPN-B1',
 		vessel: 'Pilot vessel PV-200',
-		feeds: [['PPN Glucose Feed B1', 20]],
+		feeds: [{ recipe: 'PPN Glucose Feed B1', volumeL: 20, plan: { Strategy: 'exponential', StartH: 10, MuSetPerH: 0.15 } }],
 		plan: {
 			targetBasis: 'biomassGPerL',
 			targetValue: 25,
 			initialVolumeL: 120,
 			inoculumDensity: 0.1,
 			durationH: 30,
-			feedStrategy: 'exponential',
-			feedStartH: 10,
-			feedMuSetPerH: 0.15,
 			temperatureC: 37,
 			pressureKPa: 150,
 			o2MoleFraction: 0.2095,
@@ -287,8 +298,42 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			safetyFactor: 1.2,
 			notes: 'Demo study: the target is set deliberately high for this medium, to show what runs out first.'
 		}
+	},
+	{
+		name: 'Bacterium DO-stat with salts feed, bench (demo)',
+		basal: 'NB-Min Salts 3',
+		profile: 'Demo bacterium PPN-B1',
+		vessel: 'Bench stirred tank BST-10',
+		feeds: [
+			{ recipe: 'PPN Glucose Feed B1', volumeL: 1.5, plan: { Strategy: 'doStat', StartH: 8, DoSetpointPercent: 40, MaxRateLPerH: 0.15 } },
+			{ recipe: 'PPN Salts Feed B2', volumeL: 0.4, plan: { Strategy: 'constant', StartH: 8 } }
+		],
+		plan: {
+			targetBasis: 'biomassGPerL',
+			targetValue: 30,
+			initialVolumeL: 5,
+			inoculumDensity: 0.05,
+			durationH: 24,
+			temperatureC: 37,
+			pressureKPa: 130,
+			o2MoleFraction: 0.4,
+			doSetpointPercent: 30,
+			safetyFactor: 1.2,
+			notes: 'Demo study: glucose fed on DO-stat (the pump runs while DO is above 40 % of air saturation), salts fed at a constant rate alongside; O2-enriched air.'
+		}
 	}
 ];
+
+/** The form fields of a demo study's feeds, as the study form would send them. */
+function feedFormFields(feeds: (DemoFeed & { versionId: string })[]): Record<string, string | number> {
+	return Object.fromEntries(
+		feeds.flatMap((f, i) => [
+			[`feed${i + 1}VersionId`, f.versionId],
+			[`feed${i + 1}VolumeL`, f.volumeL],
+			...Object.entries(f.plan).map(([field, value]) => [`feed${i + 1}${field}`, value])
+		])
+	);
+}
 
 /** Adds the demo profiles, vessels, feeds and studies that are missing (by name); returns how many. */
 export async function seedDemoStudies(): Promise<number> {
@@ -311,16 +356,9 @@ export async function seedDemoStudies(): Promise<number> {
 		const basalVersionId = versionIdOf(s.basal);
 		const profileId = idByName(organismProfile, s.profile);
 		const vesselId = idByName(vessel, s.vessel);
-		const feedVersions = s.feeds.map(([name, volumeL]) => [versionIdOf(name), volumeL] as const);
-		if (!basalVersionId || !profileId || !vesselId || feedVersions.some(([id]) => !id)) continue;
-		const form = {
-			name: s.name,
-			basalVersionId,
-			profileId,
-			vesselId,
-			...s.plan,
-			...Object.fromEntries(feedVersions.flatMap(([id, volumeL], i) => [[`feed${i + 1}VersionId`, id], [`feed${i + 1}VolumeL`, volumeL]]))
-		} as StudyForm;
+		const feeds = s.feeds.map((f) => ({ ...f, versionId: versionIdOf(f.recipe) }));
+		if (!basalVersionId || !profileId || !vesselId || feeds.some((f) => !f.versionId)) continue;
+		const form = { name: s.name, basalVersionId, profileId, vesselId, ...s.plan, ...feedFormFields(feeds as (DemoFeed & { versionId: string })[]) } as StudyForm;
 		createStudy(actor, form);
 		added++;
 	}

@@ -13,9 +13,10 @@ import {
 } from '$chemistry';
 import { RuleError } from '../rule-error';
 import { listYieldsUsed, requireGrowthData, resolveOxygenYield, toSufficiencyProfile } from './profiles';
-import { simulatePlan } from './time-course';
+import { findEmptyTime, findRunoutTimes } from './nutrient-runout';
+import { isControlled, simulatePlan } from './time-course';
 import { computeVesselKLa } from './vessels';
-import type { DefaultUsed, StudyInputs, StudyReport, WhatIf } from './types';
+import type { DefaultUsed, FeedReport, StudyInputs, StudyReport, WhatIf } from './types';
 
 /** Denser than this is packed cells, not a broth: the densest fed-batch cultures reach about 150 g/L (common practice). */
 export const MAX_BIOMASS_G_PER_L = 200;
@@ -54,6 +55,11 @@ function targetBiomass(inputs: StudyInputs, targetValue: number): { biomassGPerL
 		);
 	}
 	return { biomassGPerL, cellsPerMl: targetValue };
+}
+
+function withoutDeliveries<T extends { deliveries: unknown }>(course: T): Omit<T, 'deliveries'> {
+	const { deliveries: _deliveries, ...rest } = course;
+	return rest;
 }
 
 function asSufficiencyError<T>(run: () => T): T {
@@ -95,11 +101,38 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		throw new RuleError(`The study's pressure ${plan.pressureKPa} kPa is above the vessel's rating of ${vessel.maxPressureKPa} kPa.`, { field: 'pressureKPa' });
 	}
 
+	// Oxygen and the time course
+	const growth = requireGrowthData(profile);
+	const carbonFormula = inputs.componentFormulas[growth.carbonSourceId] ?? null;
+	const yieldXO2GPerG = resolveOxygenYield(profile, carbonFormula, defaults);
+	const saturation = asSufficiencyError(() => computeOxygenSaturation({ temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction }));
+	const airSaturation = asSufficiencyError(() => computeOxygenSaturation({ temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction: AIR_O2_MOLE_FRACTION }));
+	defaults.push({ what: 'Oxygen solubility', value: `${saturation.mgPerL.toPrecision(3)} mg/L at ${temperatureC} °C`, source: 'Benson & Krause (1984) for fresh water (salinity 0), APHA pressure correction' });
+	if (profile.maintenanceGPerGH === null) defaults.push({ what: 'Maintenance on the carbon source', value: '0', source: 'Not entered on the profile' });
+
+	const initialBiomassGPerL =
+		plan.targetBasis === 'cellsPerMl' ? plan.inoculumDensity * (profile.cellDryMassPg ?? 0) * G_PER_L_PER_CELL_PER_ML_PER_PG : plan.inoculumDensity;
+	const course = simulatePlan({
+		inputs,
+		feeds,
+		growth,
+		yieldXO2GPerG,
+		kLaPerH,
+		saturationMgPerL: saturation.mgPerL,
+		airSaturationMgPerL: airSaturation.mgPerL,
+		initialBiomassGPerL,
+		targetBiomassGPerL: target.biomassGPerL,
+		reachesFraction: REACHES_TARGET_FRACTION,
+		defaults
+	});
+
 	// Nutrients
 	const { profile: sufficiencyProfile, carbon, substrates } = toSufficiencyProfile(profile);
 	defaults.push(...listYieldsUsed(profile, inputs.componentNames));
-	const growth = requireGrowthData(profile);
-	const finalVolumeL = plan.initialVolumeL + feedVolumeL;
+	// A controlled feed supplies what the run drew from it, at most what is available.
+	const usedL = feeds.map((f, k) => (isControlled(f) && !('message' in course) ? Math.min(course.deliveries[k].deliveredL, f.volumeL) : f.volumeL));
+	const feedUsedL = usedL.reduce((a, b) => a + b, 0);
+	const finalVolumeL = plan.initialVolumeL + feedUsedL;
 	const sufficiency: SufficiencyResult = asSufficiencyError(() =>
 		assessSufficiency({
 			profile: sufficiencyProfile,
@@ -108,7 +141,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 				finalVolumeL,
 				sources: [
 					{ name: inputs.basal.label, volumeL: plan.initialVolumeL, ...inputs.basal.composition },
-					...feeds.filter((f) => f.volumeL > 0).map((f) => ({ name: f.label, volumeL: f.volumeL, ...f.composition }))
+					...feeds.flatMap((f, k) => (usedL[k] > 0 ? [{ name: f.label, volumeL: usedL[k], ...f.composition }] : []))
 				]
 			},
 			safetyFactor: plan.safetyFactor,
@@ -124,7 +157,16 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		defaults.push({ what: 'Elemental mass fractions', value: 'from the profile', source: profile.fractionsSource });
 	}
 	const nameOf = (key: string, basis: 'element' | 'component') => (basis === 'element' ? key : (inputs.componentNames[key] ?? key));
-	const lines = sufficiency.lines.map((l) => ({ ...l, name: nameOf(l.key, l.basis) }));
+	const runouts =
+		'message' in course
+			? sufficiency.lines.map(() => null)
+			: findRunoutTimes({ lines: sufficiency.lines, targetBiomassGPerL: target.biomassGPerL, basal: inputs.basal, initialVolumeL: plan.initialVolumeL, feeds, availableL: feeds.map((f) => f.volumeL), course });
+	const lines = sufficiency.lines.map((l, i) => ({
+		...l,
+		name: nameOf(l.key, l.basis),
+		// The model follows the carbon source itself: its exhaustion is an event of the time course.
+		runsOutAtH: l.basis === 'component' && l.key === growth.carbonSourceId ? null : runouts[i]
+	}));
 	const limitLine = lines.reduce((min, l) => (l.ratio < min.ratio ? l : min), lines[0]);
 	const nutrientsOk = sufficiency.sufficient;
 	if (!nutrientsOk) {
@@ -134,27 +176,23 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		);
 	}
 
-	// Oxygen
-	const carbonFormula = inputs.componentFormulas[growth.carbonSourceId] ?? null;
-	const yieldXO2GPerG = resolveOxygenYield(profile, carbonFormula, defaults);
-	const saturation = asSufficiencyError(() => computeOxygenSaturation({ temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction }));
-	defaults.push({ what: 'Oxygen solubility', value: `${saturation.mgPerL.toPrecision(3)} mg/L at ${temperatureC} °C`, source: 'Benson & Krause (1984) for fresh water (salinity 0), APHA pressure correction' });
-	if (profile.maintenanceGPerGH === null) defaults.push({ what: 'Maintenance on the carbon source', value: '0', source: 'Not entered on the profile' });
-
-	const initialBiomassGPerL =
-		plan.targetBasis === 'cellsPerMl' ? plan.inoculumDensity * (profile.cellDryMassPg ?? 0) * G_PER_L_PER_CELL_PER_ML_PER_PG : plan.inoculumDensity;
-	const course = simulatePlan({
-		inputs,
-		feeds,
-		growth,
-		yieldXO2GPerG,
-		kLaPerH,
-		saturationMgPerL: saturation.mgPerL,
-		initialBiomassGPerL,
-		targetBiomassGPerL: target.biomassGPerL,
-		reachesFraction: REACHES_TARGET_FRACTION,
-		defaults
+	const feedReports: FeedReport[] = feeds.map((f, k) => {
+		const controlled = isControlled(f);
+		const delivery = 'message' in course ? null : course.deliveries[k];
+		const emptyAtH = controlled && delivery && !('message' in course) ? findEmptyTime(course.t, delivery.cumulativeL, f.volumeL) : null;
+		return { label: f.label, versionId: f.versionId, strategy: f.plan.strategy, startH: f.plan.startH, controlled, volumeL: f.volumeL, deliveredL: delivery?.deliveredL ?? null, usedL: usedL[k], emptyAtH };
 	});
+	for (const f of feedReports) {
+		if (f.emptyAtH !== null) {
+			reasons.push(`${f.label} runs dry at about ${f.emptyAtH.toFixed(0)} h: its plan would draw ${f.deliveredL!.toPrecision(3)} L, but ${f.volumeL} L are available.`);
+		}
+	}
+	const firstRunout = lines.filter((l) => l.runsOutAtH !== null).sort((a, b) => a.runsOutAtH! - b.runsOutAtH!)[0];
+	if (firstRunout && !('message' in course)) {
+		notes.push(
+			`The time course grows on ${nameOf(growth.carbonSourceId, 'component')} alone; by its demand per g of biomass, ${firstRunout.name} runs out at about ${firstRunout.runsOutAtH!.toFixed(0)} h, where a real run would stop growing.`
+		);
+	}
 
 	let peakOurMmolPerLH: number;
 	let peakOurOrigin: string;
@@ -278,8 +316,9 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 			coolingCapacityW: vessel.coolingCapacityW,
 			utilisation: cooling.utilisation
 		},
-		volume: { check: volumeOk ? 'ok' : 'short', initialL: plan.initialVolumeL, feedL: feedVolumeL, finalL: finalVolumeL, minL: vessel.minWorkingVolumeL, maxL: vessel.maxWorkingVolumeL },
-		timeCourse: 'message' in course ? { check: 'unavailable', message: course.message } : { ...course, check: course.reachesTarget ? 'ok' : 'short' },
+		volume: { check: volumeOk ? 'ok' : 'short', initialL: plan.initialVolumeL, feedL: feedUsedL, finalL: finalVolumeL, minL: vessel.minWorkingVolumeL, maxL: vessel.maxWorkingVolumeL },
+		feeds: feedReports,
+		timeCourse: 'message' in course ? { check: 'unavailable', message: course.message } : { ...withoutDeliveries(course), check: course.reachesTarget ? 'ok' : 'short' },
 		defaults,
 		notes,
 		cautions: STUDY_CAUTIONS

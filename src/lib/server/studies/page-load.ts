@@ -1,4 +1,5 @@
 import { error } from '@sveltejs/kit';
+import { describeFeedPlan } from '$lib/studies';
 import { RuleError } from '../rule-error';
 import { evaluateStudy } from './evaluate';
 import { findStudy, loadStudyInputs } from './queries';
@@ -27,7 +28,13 @@ export function loadStudyReport(id: string) {
 		profile: { id: inputs.profile.id, name: inputs.profile.name, group: inputs.profile.group, kind: inputs.profile.kind },
 		vessel: { id: inputs.vessel.id, name: inputs.vessel.name, o2EnrichmentAllowed: inputs.vessel.o2EnrichmentAllowed, maxWorkingVolumeL: inputs.vessel.maxWorkingVolumeL, kLaPerH: vesselKLaPerH },
 		basal: versions.get(inputs.basal.versionId)!,
-		feeds: inputs.feeds.map((f) => ({ ...versions.get(f.versionId)!, volumeL: f.volumeL, temperatureC: f.temperatureC, componentIds: Object.keys(f.composition.componentsGPerL) })),
+		feeds: inputs.feeds.map((f) => ({
+			...versions.get(f.versionId)!,
+			volumeL: f.volumeL,
+			planText: describeFeedPlan(f.plan, f.volumeL),
+			temperatureC: f.temperatureC,
+			componentIds: Object.keys(f.composition.componentsGPerL)
+		})),
 		report,
 		reportError
 	};

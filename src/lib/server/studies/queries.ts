@@ -91,7 +91,13 @@ export function loadStudyInputs(studyId: string, reader: Reader = db): { inputs:
 		inputs: {
 			plan: row,
 			basal: { versionId: row.basalVersionId, label: label(versions.get(row.basalVersionId)), ...basal },
-			feeds: feeds.map((f) => ({ versionId: f.versionId, label: label(versions.get(f.versionId)), volumeL: f.volumeL, ...composeVersion(f.versionId, components, reader) })),
+			feeds: feeds.map((f) => ({
+				versionId: f.versionId,
+				label: label(versions.get(f.versionId)),
+				volumeL: f.volumeL,
+				plan: { strategy: f.strategy, startH: f.startH, muSetPerH: f.muSetPerH, setpointGPerL: f.setpointGPerL, doSetpointPercent: f.doSetpointPercent, maxRateLPerH: f.maxRateLPerH },
+				...composeVersion(f.versionId, components, reader)
+			})),
 			profile,
 			vessel: vesselRow,
 			componentNames: Object.fromEntries([...components.values()].map((c) => [c.id, c.name])),

@@ -1,6 +1,6 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { formatAmount, formatCells, formatDateTime } from '$lib/components/studies/format';
-import { TARGET_BASIS_UNITS } from '$lib/studies';
+import { FEED_PLAN_LABELS, TARGET_BASIS_UNITS } from '$lib/studies';
 import { MARGIN, Writer } from '../pdf/layout';
 import { STUDY_CAUTIONS } from './evaluate';
 import type { loadStudyReport } from './page-load';
@@ -46,11 +46,11 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 
 	w.text('What it uses', { bold: true, size: 11 });
 	w.text(`Basal: ${describeVersion(loaded.basal)}`);
-	w.text(`Feeds: ${loaded.feeds.length ? loaded.feeds.map((f) => `${describeVersion(f)}, ${formatAmount(f.volumeL)} L`).join('; ') : 'none (batch)'}`);
+	w.text(`Feeds: ${loaded.feeds.length ? loaded.feeds.map((f) => `${describeVersion(f)}: ${f.planText}`).join('; ') : 'none (batch)'}`);
 	w.text(`Organism: ${loaded.profile.name}`);
 	w.text(`Vessel: ${loaded.vessel.name}`);
 	w.text(`Target: ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]}`);
-	w.text(`Plan: ${study.feedStrategy} feed from ${study.feedStartH} h, run ${study.durationH} h, ${study.initialVolumeL} L at start`);
+	w.text(`Plan: run ${study.durationH} h, ${study.initialVolumeL} L at start`);
 	w.text(`Conditions: ${study.temperatureC} °C, ${study.pressureKPa} kPa, O2 fraction ${study.o2MoleFraction}, DO setpoint ${study.doSetpointPercent} %`);
 	if (study.notes) w.text(`Notes: ${study.notes}`);
 	w.gap(10);
@@ -73,14 +73,23 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	const lines = [...report.nutrients.lines].sort((a, b) => a.ratio - b.ratio);
 	w.table(
 		[
-			{ header: 'Nutrient', width: 175 },
-			{ header: 'Demand g/L', width: 70, align: 'right' },
-			{ header: 'Supply g/L', width: 70, align: 'right' },
-			{ header: 'Ratio', width: 55, align: 'right' },
-			{ header: 'Margin g/L', width: 75, align: 'right' },
-			{ header: 'Check', width: 55 }
+			{ header: 'Nutrient', width: 160 },
+			{ header: 'Demand g/L', width: 65, align: 'right' },
+			{ header: 'Supply g/L', width: 65, align: 'right' },
+			{ header: 'Ratio', width: 50, align: 'right' },
+			{ header: 'Margin g/L', width: 65, align: 'right' },
+			{ header: 'Runs out', width: 55, align: 'right' },
+			{ header: 'Check', width: 45 }
 		],
-		lines.map((l) => [l.note ? `${l.name} (${l.note})` : l.name, formatAmount(l.demandGPerL), formatAmount(l.supplyGPerL), formatAmount(l.ratio), formatAmount(l.marginGPerL), l.sufficient ? 'OK' : 'SHORT'])
+		lines.map((l) => [
+			l.note ? `${l.name} (${l.note})` : l.name,
+			formatAmount(l.demandGPerL),
+			formatAmount(l.supplyGPerL),
+			formatAmount(l.ratio),
+			formatAmount(l.marginGPerL),
+			l.runsOutAtH === null ? '—' : `${formatAmount(l.runsOutAtH)} h`,
+			l.sufficient ? 'OK' : 'SHORT'
+		])
 	);
 	for (const note of report.nutrients.notes) w.text(note, { size: 8.5 });
 	w.gap(10);
@@ -104,14 +113,19 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	w.ensure(60);
 	w.text(`Volume: ${report.volume.check}`, { bold: true, size: 11 });
 	w.text(`Final ${formatAmount(report.volume.finalL)} L (initial ${formatAmount(report.volume.initialL)} L + feeds ${formatAmount(report.volume.feedL)} L) against the vessel's maximum ${formatAmount(report.volume.maxL)} L (working range ${formatAmount(report.volume.minL)}–${formatAmount(report.volume.maxL)} L)`);
+	for (const f of report.feeds) {
+		const drawn = f.deliveredL === null ? '' : `, the simulated run draws ${formatAmount(f.deliveredL)} L`;
+		const dry = f.emptyAtH === null ? '' : `; runs dry at ${formatAmount(f.emptyAtH)} h`;
+		w.text(`${f.label}: ${FEED_PLAN_LABELS[f.strategy]} from ${formatAmount(f.startH)} h, ${formatAmount(f.volumeL)} L ${f.controlled ? 'available' : 'planned'}${drawn}${dry}`, { size: 8.5, x: MARGIN + 8 });
+	}
 	const course = report.timeCourse;
 	if (course.check !== 'unavailable') {
 		w.text(`Time course: ${course.check}, reaches ${formatAmount(course.finalBiomassGPerL)} g/L${course.stoppedAtH !== null ? `, stops at ${formatAmount(course.stoppedAtH)} h` : ''}; the chart is in the app.`);
 	} else w.text(`Time course not available: ${course.message}`);
 	w.gap(10);
 
-	w.text('Defaults used', { bold: true, size: 11 });
-	w.text('Every value this study assumed rather than read from your entries.', { size: 8.5 });
+	w.text('Values and defaults used', { bold: true, size: 11 });
+	w.text('Every value this study assumed, or worked out from your entries, with where it comes from.', { size: 8.5 });
 	w.gap(3);
 	w.table(
 		[

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { AIR_O2_MOLE_FRACTION, DEFAULT_SAFETY_FACTOR } from '$chemistry';
-import { FEED_PLAN_STRATEGIES, TARGET_BASES } from '$lib/studies';
+import { FEED_PLAN_STRATEGIES, TARGET_BASES, type FeedPlanStrategy } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { organismProfile, recipe, recipeVersion, study, studyFeed, vessel } from '../db/schema';
@@ -12,15 +12,41 @@ import { loadStudyInputs } from './queries';
 
 export const FEED_SLOTS = 3;
 
-const feedVersion = z.string().optional().transform((v) => v || null);
-const feedSlots = {
-	feed1VersionId: feedVersion,
-	feed1VolumeL: optionalNumber('Feed 1 volume', { min: 0, unit: 'L' }),
-	feed2VersionId: feedVersion,
-	feed2VolumeL: optionalNumber('Feed 2 volume', { min: 0, unit: 'L' }),
-	feed3VersionId: feedVersion,
-	feed3VolumeL: optionalNumber('Feed 3 volume', { min: 0, unit: 'L' })
-};
+/** The form fields of one feed slot, `feed<N><Field>`. */
+export const FEED_SLOT_FIELDS = ['VersionId', 'VolumeL', 'Strategy', 'StartH', 'MuSetPerH', 'SetpointGPerL', 'DoSetpointPercent', 'MaxRateLPerH'] as const;
+type SlotField = (typeof FEED_SLOT_FIELDS)[number];
+
+function slotShape(slot: number) {
+	const label = `Feed ${slot}`;
+	const shape: Record<`feed${number}${SlotField}`, z.ZodType> = {
+		[`feed${slot}VersionId`]: z.string().optional().transform((v) => v || null),
+		[`feed${slot}VolumeL`]: optionalNumber(`${label} volume`, { min: 0, max: 100000, unit: 'L' }),
+		[`feed${slot}Strategy`]: z
+			.union([z.literal(''), z.enum(FEED_PLAN_STRATEGIES)], { error: `${label}: choose a feeding plan` })
+			.optional()
+			.transform((v) => v || null),
+		[`feed${slot}StartH`]: optionalNumber(`${label} start`, { min: 0, unit: 'h' }),
+		[`feed${slot}MuSetPerH`]: optionalNumber(`${label} μset`, { gt: 0, max: 3, unit: '1/h' }),
+		[`feed${slot}SetpointGPerL`]: optionalNumber(`${label} substrate setpoint`, { gt: 0, max: 500, unit: 'g/L' }),
+		[`feed${slot}DoSetpointPercent`]: optionalNumber(`${label} DO setpoint`, { gt: 0, max: 99, unit: '% of air saturation' }),
+		[`feed${slot}MaxRateLPerH`]: optionalNumber(`${label} top pump rate`, { gt: 0, max: 10000, unit: 'L/h' })
+	};
+	return shape;
+}
+
+const feedSlots = Object.assign({}, ...Array.from({ length: FEED_SLOTS }, (_, i) => slotShape(i + 1))) as ReturnType<typeof slotShape>;
+
+/** One feed of a study with its own plan, as stored in `study_feed`. */
+export interface StudyFeedPlan {
+	versionId: string;
+	volumeL: number;
+	strategy: FeedPlanStrategy;
+	startH: number;
+	muSetPerH: number | null;
+	setpointGPerL: number | null;
+	doSetpointPercent: number | null;
+	maxRateLPerH: number | null;
+}
 
 export const studySchema = z.object({
 	name: requiredText('Name'),
@@ -32,9 +58,6 @@ export const studySchema = z.object({
 	initialVolumeL: requiredNumber('Initial volume', { gt: 0, unit: 'L' }),
 	inoculumDensity: requiredNumber('Inoculum density', { gt: 0 }),
 	durationH: requiredNumber('Run duration', { gt: 0, max: 1440, unit: 'h' }),
-	feedStrategy: z.enum(FEED_PLAN_STRATEGIES, { error: 'Choose a feeding plan' }),
-	feedStartH: requiredNumber('Feed start', { min: 0, unit: 'h' }),
-	feedMuSetPerH: optionalNumber('μset of the exponential feed', { gt: 0, max: 3, unit: '1/h' }),
 	temperatureC: requiredNumber('Temperature', { min: 0, max: 40, unit: '°C' }),
 	pressureKPa: requiredNumber('Headspace pressure (absolute)', { min: 50, max: 1000, unit: 'kPa' }),
 	o2MoleFraction: requiredNumber('O2 mole fraction of the inlet gas', { gt: 0, max: 1 }),
@@ -44,12 +67,12 @@ export const studySchema = z.object({
 	...feedSlots
 });
 
-export type StudyForm = z.infer<typeof studySchema>;
+export type StudyForm = z.infer<typeof studySchema> & Partial<Record<`feed${number}${SlotField}`, string | number | null>>;
 
 export const STUDY_FORM_DEFAULTS = {
 	targetBasis: 'biomassGPerL',
-	feedStrategy: 'exponential',
-	feedStartH: '8',
+	feed1Strategy: 'exponential',
+	feed1StartH: '8',
 	temperatureC: '37',
 	pressureKPa: '101.325',
 	o2MoleFraction: String(AIR_O2_MOLE_FRACTION),
@@ -57,16 +80,46 @@ export const STUDY_FORM_DEFAULTS = {
 	safetyFactor: String(DEFAULT_SAFETY_FACTOR)
 };
 
-function feedsOfForm(form: StudyForm): { versionId: string; volumeL: number; slot: number }[] {
-	const record = form as unknown as Record<string, string | number | null>;
-	const feeds: { versionId: string; volumeL: number; slot: number }[] = [];
-	for (let i = 1; i <= FEED_SLOTS; i++) {
-		const versionId = record[`feed${i}VersionId`] as string | null;
-		const volumeL = record[`feed${i}VolumeL`] as number | null;
-		if (!versionId && volumeL == null) continue;
-		if (!versionId) throw new RuleError('Choose the feed recipe version for this volume, or clear the volume.', { field: `feed${i}VersionId` });
-		if (volumeL == null) throw new RuleError('Enter the planned volume of this feed over the run.', { field: `feed${i}VolumeL` });
-		feeds.push({ versionId, volumeL, slot: i });
+/** What each plan reads beyond volume and start; the rest of the slot is not stored. */
+const PLAN_NEEDS: Record<FeedPlanStrategy, { field: SlotField; key: keyof StudyFeedPlan; message: string }[]> = {
+	constant: [],
+	linear: [],
+	exponential: [{ field: 'MuSetPerH', key: 'muSetPerH', message: 'An exponential plan needs μset, the growth rate it is shaped for.' }],
+	substrateStat: [
+		{ field: 'SetpointGPerL', key: 'setpointGPerL', message: 'A substrate-stat plan needs the carbon source setpoint it holds, g/L.' },
+		{ field: 'MaxRateLPerH', key: 'maxRateLPerH', message: "A substrate-stat plan needs the pump's top rate, L/h." }
+	],
+	doStat: [
+		{ field: 'DoSetpointPercent', key: 'doSetpointPercent', message: 'A DO-stat plan needs the DO above which it feeds, % of air saturation.' },
+		{ field: 'MaxRateLPerH', key: 'maxRateLPerH', message: "A DO-stat plan needs the pump's top rate, L/h." }
+	]
+};
+
+function feedsOfForm(form: StudyForm): (StudyFeedPlan & { slot: number })[] {
+	const feeds: (StudyFeedPlan & { slot: number })[] = [];
+	for (let slot = 1; slot <= FEED_SLOTS; slot++) {
+		const value = (field: SlotField) => form[`feed${slot}${field}`] ?? null;
+		const versionId = value('VersionId') as string | null;
+		const volumeL = value('VolumeL') as number | null;
+		if (!versionId && volumeL === null) continue;
+		const field = (name: SlotField) => `feed${slot}${name}`;
+		if (!versionId) throw new RuleError('Choose the feed recipe version for this volume, or clear the volume.', { field: field('VersionId') });
+		const strategy = (value('Strategy') as FeedPlanStrategy | null) ?? null;
+		if (!strategy) throw new RuleError(`Choose how feed ${slot} is fed.`, { field: field('Strategy') });
+		if (volumeL === null) {
+			const what = PLAN_NEEDS[strategy].some((n) => n.key === 'maxRateLPerH') ? 'the volume of feed available for the run' : 'the planned volume of this feed over the run';
+			throw new RuleError(`Enter ${what}.`, { field: field('VolumeL') });
+		}
+		const startH = value('StartH') as number | null;
+		if (startH === null) throw new RuleError(`Enter when feed ${slot} starts, h after inoculation.`, { field: field('StartH') });
+		if (startH >= form.durationH) throw new RuleError(`Feed ${slot} must start before the end of the run at ${form.durationH} h.`, { field: field('StartH') });
+		const plan: StudyFeedPlan & { slot: number } = { slot, versionId, volumeL, strategy, startH, muSetPerH: null, setpointGPerL: null, doSetpointPercent: null, maxRateLPerH: null };
+		for (const need of PLAN_NEEDS[strategy]) {
+			const v = value(need.field) as number | null;
+			if (v === null) throw new RuleError(need.message, { field: field(need.field) });
+			(plan as unknown as Record<string, number>)[need.key] = v;
+		}
+		feeds.push(plan);
 	}
 	return feeds;
 }
@@ -90,10 +143,6 @@ function checkReferences(form: StudyForm, feeds: ReturnType<typeof feedsOfForm>,
 	if (form.pressureKPa > v.maxPressureKPa) {
 		throw new RuleError(`${form.pressureKPa} kPa is above the vessel's pressure rating of ${v.maxPressureKPa} kPa; stay within it.`, { field: 'pressureKPa' });
 	}
-	if (form.feedStrategy === 'exponential' && feeds.length > 0 && form.feedMuSetPerH === null) {
-		throw new RuleError('An exponential feeding plan needs μset.', { field: 'feedMuSetPerH' });
-	}
-	if (feeds.length > 0 && form.feedStartH >= form.durationH) throw new RuleError('The feed must start before the end of the run.', { field: 'feedStartH' });
 }
 
 const PROFILE_FIELD = /^profile\./;
@@ -111,13 +160,17 @@ function requireEvaluable(studyId: string, tx: Tx) {
 }
 
 function valuesOf(form: StudyForm) {
-	const { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, feedStrategy, feedStartH, feedMuSetPerH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, notes } = form;
-	return { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, feedStrategy, feedStartH, feedMuSetPerH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, notes };
+	const { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, notes } = form;
+	return { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, notes };
 }
 
 function nameTaken(name: string, exceptId: string | null, tx: Tx) {
 	const other = tx.select({ id: study.id }).from(study).where(eq(study.name, name)).get();
 	return other && other.id !== exceptId;
+}
+
+function insertFeeds(studyId: string, feeds: ReturnType<typeof feedsOfForm>, tx: Tx) {
+	feeds.forEach(({ slot: _slot, ...plan }, position) => tx.insert(studyFeed).values({ studyId, position, ...plan }).run());
 }
 
 export function createStudy(actor: Actor & { id: string }, form: StudyForm): string {
@@ -127,7 +180,7 @@ export function createStudy(actor: Actor & { id: string }, form: StudyForm): str
 		if (nameTaken(form.name, null, tx)) throw new RuleError('A study with this name exists; choose another name.', { field: 'name', status: 409 });
 		const id = crypto.randomUUID();
 		tx.insert(study).values({ id, ...valuesOf(form), createdById: actor.id }).run();
-		feeds.forEach((f, position) => tx.insert(studyFeed).values({ studyId: id, versionId: f.versionId, volumeL: f.volumeL, position }).run());
+		insertFeeds(id, feeds, tx);
 		requireEvaluable(id, tx);
 		recordAudit(actor, { action: 'study.created', subjectType: 'study', subjectId: id, detail: { name: form.name } }, tx);
 		return id;
@@ -144,7 +197,7 @@ export function updateStudy(actor: Actor, id: string, revision: number, form: St
 		if (nameTaken(form.name, id, tx)) throw new RuleError('A study with this name exists; choose another name.', { field: 'name', status: 409 });
 		tx.update(study).set({ ...valuesOf(form), revision: revision + 1, updatedAt: new Date() }).where(eq(study.id, id)).run();
 		tx.delete(studyFeed).where(eq(studyFeed.studyId, id)).run();
-		feeds.forEach((f, position) => tx.insert(studyFeed).values({ studyId: id, versionId: f.versionId, volumeL: f.volumeL, position }).run());
+		insertFeeds(id, feeds, tx);
 		requireEvaluable(id, tx);
 		recordAudit(actor, { action: 'study.updated', subjectType: 'study', subjectId: id, detail: { name: form.name } }, tx);
 	});
@@ -167,9 +220,17 @@ export function studyFormValues(id: string): Record<string, string> | undefined 
 	const feeds = db.select().from(studyFeed).where(eq(studyFeed.studyId, id)).all().sort((a, b) => a.position - b.position);
 	const values: Record<string, string> = {};
 	for (const [k, v] of Object.entries(valuesOf(row as unknown as StudyForm))) values[k] = v === null || v === undefined ? '' : String(v);
+	const text = (v: string | number | null) => (v === null ? '' : String(v));
 	feeds.forEach((f, i) => {
-		values[`feed${i + 1}VersionId`] = f.versionId;
-		values[`feed${i + 1}VolumeL`] = String(f.volumeL);
+		const slot = `feed${i + 1}`;
+		values[`${slot}VersionId`] = f.versionId;
+		values[`${slot}VolumeL`] = text(f.volumeL);
+		values[`${slot}Strategy`] = f.strategy;
+		values[`${slot}StartH`] = text(f.startH);
+		values[`${slot}MuSetPerH`] = text(f.muSetPerH);
+		values[`${slot}SetpointGPerL`] = text(f.setpointGPerL);
+		values[`${slot}DoSetpointPercent`] = text(f.doSetpointPercent);
+		values[`${slot}MaxRateLPerH`] = text(f.maxRateLPerH);
 	});
 	values.revision = String(row.revision);
 	return values;

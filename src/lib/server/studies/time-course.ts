@@ -1,56 +1,102 @@
 import { ChemistryInputError, SimulationFailedError, simulateRun, type FeedInput, type SimulationRequest } from '$chemistry';
-import type { DefaultUsed, StudyInputs, TimeCourse } from './types';
+import { CONTROLLED_FEED_PLANS } from '$lib/studies';
+import { RuleError } from '../rule-error';
+import type { DefaultUsed, StudyFeedSource, StudyInputs, TimeCourse } from './types';
 
 const OUTPUT_POINTS = 200;
 
-interface PlanRun {
+export interface PlanRun {
 	inputs: StudyInputs;
-	feeds: { volumeL: number; composition: { componentsGPerL: Record<string, number> } }[];
+	/** The study's feeds, volumes already scaled by the what-if. */
+	feeds: StudyFeedSource[];
 	growth: { carbonSourceId: string; yieldXSGPerG: number; muMaxPerH: number; ksGPerL: number };
 	yieldXO2GPerG: number;
 	kLaPerH: number;
 	saturationMgPerL: number;
+	/** C* of air at the run's temperature and pressure: DO setpoints are % of it. */
+	airSaturationMgPerL: number;
 	initialBiomassGPerL: number;
 	targetBiomassGPerL: number;
 	reachesFraction: number;
 	defaults: DefaultUsed[];
 }
 
+/** What each feed delivered in the simulated run, aligned with `PlanRun.feeds`. */
+export interface FeedDelivery {
+	deliveredL: number;
+	/** Volume delivered by each output time, L. */
+	cumulativeL: number[];
+}
+
+export type PlanCourse = TimeCourse & { deliveries: FeedDelivery[] };
+
+const isControlled = (feed: StudyFeedSource) => CONTROLLED_FEED_PLANS.includes(feed.plan.strategy);
+
 /**
- * The feeding plan as a simulation feed: every feed follows the plan's shape, so their sum is one
- * stream carrying their volume-weighted carbon source, and the rates deliver exactly the planned
- * volume between the feed start and the end of the run.
+ * One feed as a simulation stream. Open plans deliver exactly their planned volume between their
+ * start and the end of the run; controlled plans (substrate- or DO-stat) run as the culture asks,
+ * up to the pump's top rate.
  */
-function buildFeed(run: PlanRun, feedL: number): FeedInput | undefined {
-	const { plan } = run.inputs;
-	if (feedL <= 0) return undefined;
-	const carbonG = run.feeds.reduce((sum, f) => sum + f.volumeL * (f.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0), 0);
-	// The model needs some substrate in the feed; a feed without carbon is modelled as nearly none.
-	const substrateGPerL = Math.max(carbonG / feedL, 1e-9);
-	const spanH = plan.durationH - plan.feedStartH;
-	if (spanH <= 0) throw new ChemistryInputError(`The feed starts at ${plan.feedStartH} h, not before the end of the run at ${plan.durationH} h.`, { field: 'feedStartH' });
-	switch (plan.feedStrategy) {
+function toStream(run: PlanRun, feed: StudyFeedSource): FeedInput {
+	const { plan } = feed;
+	const { durationH } = run.inputs.plan;
+	const substrateGPerL = feed.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0;
+	const spanH = durationH - plan.startH;
+	const common = { label: feed.label, substrateGPerL, startH: plan.startH };
+	switch (plan.strategy) {
 		case 'constant':
-			return { strategy: 'constant', substrateGPerL, startH: plan.feedStartH, rateLPerH: feedL / spanH };
+			return { ...common, strategy: 'constant', rateLPerH: feed.volumeL / spanH };
 		case 'linear':
-			return { strategy: 'linear', substrateGPerL, startH: plan.feedStartH, rateLPerH: 0, slopeLPerH2: (2 * feedL) / spanH ** 2 };
+			return { ...common, strategy: 'linear', rateLPerH: 0, slopeLPerH2: (2 * feed.volumeL) / spanH ** 2 };
 		case 'exponential': {
-			const mu = plan.feedMuSetPerH;
-			if (mu === null || !(mu > 0)) throw new ChemistryInputError('An exponential feeding plan needs its growth rate μset above 0.', { field: 'feedMuSetPerH' });
-			const f0 = (feedL * mu) / Math.expm1(mu * spanH);
-			return { strategy: 'expression', substrateGPerL, startH: plan.feedStartH, expression: `${f0} * exp(${mu} * (t - ${plan.feedStartH}))` };
+			const mu = plan.muSetPerH!;
+			// F(t) = F0·e^{μ(t − t0)} with F0 chosen so that ∫ F dt over the span is the planned volume.
+			const f0 = (feed.volumeL * mu) / Math.expm1(mu * spanH);
+			return { ...common, strategy: 'expression', expression: `${f0} * exp(${mu} * (t - ${plan.startH}))` };
 		}
+		case 'substrateStat':
+			return { ...common, strategy: 'substrateStat', setpointGPerL: plan.setpointGPerL!, maxRateLPerH: plan.maxRateLPerH! };
+		case 'doStat':
+			return { ...common, strategy: 'doStat', doSetpointMgPerL: (plan.doSetpointPercent! / 100) * run.airSaturationMgPerL, maxRateLPerH: plan.maxRateLPerH! };
 	}
 }
 
-/** Simulates the study's run; a plan the model cannot run answers with the reason instead. */
-export function simulatePlan(run: PlanRun): TimeCourse | { message: string } {
+const STREAM_FIELD_TO_SLOT: Record<string, string> = {
+	startH: 'StartH',
+	setpointGPerL: 'SetpointGPerL',
+	doSetpointMgPerL: 'DoSetpointPercent',
+	maxRateLPerH: 'MaxRateLPerH',
+	muSetPerH: 'MuSetPerH',
+	substrateGPerL: 'Strategy',
+	strategy: 'Strategy'
+};
+
+/** A stream's field `feeds.N.x` as the study form's field of that feed. */
+function studyFieldOf(field: string | undefined, streamFeeds: StudyFeedSource[], feeds: StudyFeedSource[]): string | undefined {
+	const m = /^feeds\.(\d+)\.(\w+)/.exec(field ?? '');
+	if (!m) return field;
+	const slot = feeds.indexOf(streamFeeds[Number(m[1])]) + 1;
+	return `feed${slot}${STREAM_FIELD_TO_SLOT[m[2]] ?? 'Strategy'}`;
+}
+
+/** Cumulative integral of a rate series by the trapezoid rule, rescaled to the exact total. */
+function cumulative(t: number[], rate: number[], totalL: number): number[] {
+	const out = new Array<number>(t.length).fill(0);
+	for (let i = 1; i < t.length; i++) out[i] = out[i - 1] + 0.5 * (rate[i] + rate[i - 1]) * (t[i] - t[i - 1]);
+	const last = out[out.length - 1];
+	return last > 0 ? out.map((v) => (v * totalL) / last) : out;
+}
+
+/**
+ * Simulates the study's run. A plan the model cannot run answers with the reason instead, unless a
+ * controlled feed's volume depends on it: then the study cannot be assessed and the error names the field.
+ */
+export function simulatePlan(run: PlanRun): PlanCourse | { message: string } {
 	const { plan, profile, basal, vessel } = run.inputs;
-	const feedL = run.feeds.reduce((sum, f) => sum + f.volumeL, 0);
+	const streamFeeds = run.feeds.filter((f) => f.volumeL > 0);
 	try {
-		const feed = buildFeed(run, feedL);
 		const request: SimulationRequest = {
-			mode: feed ? 'fedBatch' : 'batch',
+			mode: streamFeeds.length > 0 ? 'fedBatch' : 'batch',
 			kinetics: {
 				muMaxPerH: run.growth.muMaxPerH,
 				ksGPerL: run.growth.ksGPerL,
@@ -63,7 +109,7 @@ export function simulatePlan(run: PlanRun): TimeCourse | { message: string } {
 				substrateGPerL: basal.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0,
 				volumeL: plan.initialVolumeL
 			},
-			...(feed ? { feed } : {}),
+			...(streamFeeds.length > 0 ? { feeds: streamFeeds.map((f) => toStream(run, f)) } : {}),
 			oxygen: { kLaPerH: run.kLaPerH, saturationMgPerL: run.saturationMgPerL },
 			maxVolumeL: vessel.maxWorkingVolumeL,
 			endH: plan.durationH,
@@ -71,11 +117,16 @@ export function simulatePlan(run: PlanRun): TimeCourse | { message: string } {
 		};
 		const result = simulateRun(request);
 		const last = result.biomassGPerL.length - 1;
-		const finalBiomassGPerL = result.biomassGPerL[last];
 		run.defaults.push({
 			what: 'Time course model',
-			value: 'Monod growth, Pirt maintenance, no O2 limitation of growth, O2 maintenance 0',
-			source: 'Growth is not slowed by low DO in the model, so a DO that reaches 0 shows the oxygen shortfall'
+			value: `Monod growth on ${run.inputs.componentNames[run.growth.carbonSourceId] ?? run.growth.carbonSourceId}, Pirt maintenance, no O2 limitation of growth, O2 maintenance 0`,
+			source: 'Growth is not slowed by low DO in the model, so a DO that reaches 0 shows the oxygen shortfall; other nutrients are followed by their demand per g of biomass'
+		});
+		const streams = result.feedStreams ?? [];
+		const deliveries = run.feeds.map((f) => {
+			const k = streamFeeds.indexOf(f);
+			if (k < 0) return { deliveredL: 0, cumulativeL: new Array<number>(result.t.length).fill(0) };
+			return { deliveredL: streams[k].deliveredL, cumulativeL: cumulative(result.t, streams[k].feedLPerH, streams[k].deliveredL) };
 		});
 		return {
 			t: result.t,
@@ -86,12 +137,19 @@ export function simulatePlan(run: PlanRun): TimeCourse | { message: string } {
 			ourMmolPerLH: result.ourMmolPerLH ?? [],
 			maxOtrMmolPerLH: result.maxOtrMmolPerLH ?? [],
 			events: result.events,
-			finalBiomassGPerL,
+			finalBiomassGPerL: result.biomassGPerL[last],
 			reachesTarget: result.biomassGPerL.some((x) => x >= run.targetBiomassGPerL * run.reachesFraction),
-			stoppedAtH: result.stoppedAtH ?? null
+			stoppedAtH: result.stoppedAtH ?? null,
+			deliveries
 		};
 	} catch (cause) {
-		if (cause instanceof ChemistryInputError || cause instanceof SimulationFailedError) return { message: cause.message };
-		throw cause;
+		if (!(cause instanceof ChemistryInputError || cause instanceof SimulationFailedError)) throw cause;
+		if (streamFeeds.some(isControlled)) {
+			const field = cause instanceof ChemistryInputError ? studyFieldOf(cause.field, streamFeeds, run.feeds) : undefined;
+			throw new RuleError(`A substrate- or DO-stat feed delivers what the simulated run asks for, and the run cannot be simulated: ${cause.message}`, { field, status: 422 });
+		}
+		return { message: cause.message };
 	}
 }
+
+export { isControlled };

@@ -1,5 +1,5 @@
 import type { SimulationEvent, SufficiencyLine } from '$chemistry';
-import type { OrganismProfileRow, StudyRow, VesselRow } from '../db/schema';
+import type { OrganismProfileRow, StudyFeedRow, StudyRow, VesselRow } from '../db/schema';
 
 /** What one recipe version puts into a litre of itself. */
 export interface SupplyComposition {
@@ -17,6 +17,11 @@ export interface StudySource {
 	temperatureC: number;
 }
 
+/** How one feed is fed: its own plan, start and limits. */
+export type FeedPlanFields = Pick<StudyFeedRow, 'strategy' | 'startH' | 'muSetPerH' | 'setpointGPerL' | 'doSetpointPercent' | 'maxRateLPerH'>;
+
+export type StudyFeedSource = StudySource & { volumeL: number; plan: FeedPlanFields };
+
 export type StudyPlan = Pick<
 	StudyRow,
 	| 'name'
@@ -25,9 +30,6 @@ export type StudyPlan = Pick<
 	| 'initialVolumeL'
 	| 'inoculumDensity'
 	| 'durationH'
-	| 'feedStrategy'
-	| 'feedStartH'
-	| 'feedMuSetPerH'
 	| 'temperatureC'
 	| 'pressureKPa'
 	| 'o2MoleFraction'
@@ -40,7 +42,7 @@ export type StudyPlan = Pick<
 export interface StudyInputs {
 	plan: StudyPlan;
 	basal: StudySource;
-	feeds: (StudySource & { volumeL: number })[];
+	feeds: StudyFeedSource[];
 	profile: OrganismProfileRow;
 	vessel: VesselRow;
 	componentNames: Record<string, string>;
@@ -68,6 +70,24 @@ export type Check = 'ok' | 'short';
 
 export interface NutrientRow extends SufficiencyLine {
 	name: string;
+	/** When the simulated run has taken all of it; null when it lasts (or for the modelled carbon source). */
+	runsOutAtH: number | null;
+}
+
+export interface FeedReport {
+	label: string;
+	versionId: string;
+	strategy: StudyFeedRow['strategy'];
+	startH: number;
+	/** Substrate- or DO-stat: the rate follows the culture and `volumeL` is what is available. */
+	controlled: boolean;
+	volumeL: number;
+	/** What the simulated run drew; null without a time course. */
+	deliveredL: number | null;
+	/** What the nutrient table counts. */
+	usedL: number;
+	/** A controlled feed that has given all it has; null when it lasts. */
+	emptyAtH: number | null;
 }
 
 export interface TimeCourse {
@@ -130,6 +150,7 @@ export interface StudyReport {
 	};
 	heat: { check: Check; heatLoadW: number; metabolicW: number; agitationPowerW: number; coolingCapacityW: number; utilisation: number };
 	volume: { check: Check; initialL: number; feedL: number; finalL: number; minL: number; maxL: number };
+	feeds: FeedReport[];
 	timeCourse: ({ check: Check } & TimeCourse) | { check: 'unavailable'; message: string };
 	defaults: DefaultUsed[];
 	notes: string[];

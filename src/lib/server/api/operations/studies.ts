@@ -9,7 +9,7 @@ export const evaluateRequest = z.object({
 	whatIf: z
 		.object({
 			targetValue: finite.optional().describe('g/L dry biomass or cells/mL, as the study'),
-			feedVolumeL: finite.optional().describe('Total feed volume; every feed is scaled in proportion'),
+			feedVolumeL: finite.optional().describe('Total feed volume: planned for open plans, available for substrate- and DO-stat plans; every feed is scaled in proportion'),
 			kLaPerH: finite.optional(),
 			o2MoleFraction: finite.optional().describe('O2 mole fraction of the inlet gas, 0–1'),
 			temperatureC: finite.optional()
