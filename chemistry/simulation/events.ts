@@ -70,3 +70,8 @@ export function locateCrossing(
 	}
 	return a;
 }
+
+/** Numbers in event messages: three significant digits, no trailing zeros. */
+export function formatNumber(value: number): string {
+	return Number(value.toPrecision(3)).toString();
+}

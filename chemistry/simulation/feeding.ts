@@ -66,6 +66,7 @@ export function createFeedLaw(
 		}
 		case 'expression': {
 			const { expression } = feed;
+			const field = `${feed.field}.expression`;
 			const scope = { t: 0, X: 0, S: 0, P: 0, V: 0, DO: 0, C: 0 };
 			return (tH, y) => {
 				scope.t = tH;
@@ -82,13 +83,13 @@ export function createFeedLaw(
 					if (error instanceof ChemistryInputError) throw error;
 					throw new ChemistryInputError(
 						`The feed expression failed at t = ${tH.toFixed(3)} h: ${(error as Error).message}`,
-						{ field: 'feed.expression' }
+						{ field }
 					);
 				}
 				if (!Number.isFinite(f) || f < 0) {
 					throw new ChemistryInputError(
 						`The feed expression gives ${f} L/h at t = ${tH.toFixed(3)} h; a feed rate must be a finite number ≥ 0 (wrap it in max(0, …) if it may go negative).`,
-						{ field: 'feed.expression' }
+						{ field }
 					);
 				}
 				return f > fMax ? fMax : f;

@@ -21,4 +21,5 @@ export {
 } from './expression';
 export { SUBSTRATE_STAT_GAIN_PER_MU_MAX, DO_STAT_BAND_FRACTION } from './feeding';
 export { MAX_END_H, MAX_OUTPUT_POINTS, MAX_DRAW_CYCLES } from './validate';
+export { MAX_FEED_STREAMS, MAX_FEED_LABEL_LENGTH } from './validate-feed';
 export type * from './types';

@@ -9,11 +9,14 @@
  *                                                          only when K_O > 0 and an O2 balance is solved
  *   dX/dt = μX − k_X·X                                     k_X = F_in/V (fed-batch, chemostat);
  *                                                          perfusion: k_X = b + (D − b)(1 − R)
- *   dS/dt = −(μ/Yx/s + m_s·S/(S + S_ex))·X + (F_in/V)(S_f − S)   Pirt 1965 maintenance
+ *   dS/dt = −(μ/Yx/s + m_s·S/(S + S_ex))·X + Σᵢ (Fᵢ/V)(S_f,i − S)   Pirt 1965 maintenance
  *   dP/dt = (αμ + β)·X − (F_in/V)·P                        Luedeking & Piret 1959
- *   dV/dt = F_in − F_out
+ *   dV/dt = F_in − F_out,  F_in = Σᵢ Fᵢ                    fed-batch: up to 8 streams, each with its
+ *                                                          own law; otherwise the one medium flow
  *   dC/dt = kLa(C* − C) − OUR,  OUR = 1000·μX/Yx/O2 + m_O·X   (mg O2/L/h; film theory, Lewis & Whitman 1924)
  *           or, where DO relaxes far faster than the culture changes, kLa(C* − C) = OUR (quasi-steady)
+ *   dDᵢ/dt = Fᵢ                                            with several streams, each one's delivered
+ *                                                          volume, as extra states after C
  *
  * Tolerances, events and the feeding laws are described in the help text below; this file holds
  * the right-hand side, written to allocate nothing per call (the integrator calls it ~10⁵ times).
@@ -81,10 +84,23 @@ export interface OxygenParameters {
  */
 export type FeedLaw = (tH: number, y: ArrayLike<number>, uptakeGPerLH: number) => number;
 
+/** One running fed-batch feed stream. */
+export interface FeedStreamFlow {
+	feedLaw: FeedLaw;
+	substrateGPerL: number;
+	/** the stream's index in the request, where its outputs go */
+	stream: number;
+	/**
+	 * state slot that integrates the stream's delivered volume; null with a single stream, whose
+	 * delivered volume is the volume gained (dV/dt is its rate)
+	 */
+	deliveredSlot: number | null;
+}
+
 /** What flows during one integration segment. */
 export type FlowPhase =
 	| { kind: 'closed' }
-	| { kind: 'fed'; feedLaw: FeedLaw; feedSubstrateGPerL: number }
+	| { kind: 'fed'; streams: readonly FeedStreamFlow[] }
 	| {
 			kind: 'continuous';
 			dilutionPerH: number;
@@ -174,29 +190,44 @@ export function fillEffectiveState(
 	return out;
 }
 
-/** Inflow at (t, y) during a phase, L/h; `y` is an effective state. */
+/**
+ * Inflow at (t, y) during a phase, L/h; `y` is an effective state. When fed, each stream's rate is
+ * also written to `streamRatesLPerH` at the stream's index (entries of streams not running are left
+ * as they are).
+ */
 export function computeInflowLPerH(
 	p: ModelParameters,
 	phase: FlowPhase,
 	tH: number,
 	y: ArrayLike<number>,
-	mu = computeGrowthRatePerH(p, y)
+	mu = computeGrowthRatePerH(p, y),
+	streamRatesLPerH: number[] | null = null
 ): number {
 	if (phase.kind === 'closed') return 0;
 	if (phase.kind === 'continuous') return phase.dilutionPerH * y[V];
-	return phase.feedLaw(tH, y, computeSpecificUptakePerH(p, y, mu) * y[X]);
+	const uptake = computeSpecificUptakePerH(p, y, mu) * y[X];
+	const streams = phase.streams;
+	let total = 0;
+	for (let i = 0; i < streams.length; i++) {
+		const f = streams[i].feedLaw(tH, y, uptake);
+		total += f;
+		if (streamRatesLPerH !== null) streamRatesLPerH[streams[i].stream] = f;
+	}
+	return total;
 }
 
 /**
  * The right-hand side. With `quasiSteadyOxygen`, DO is held at its quasi-steady value (dC/dt = 0 in
- * the state; the value itself is recomputed from X and S at every call).
+ * the state; the value itself is recomputed from X and S at every call). `stateCount` is
+ * STATE_COUNT plus the slots that integrate the feed streams' delivered volumes.
  */
 export function createDerivative(
 	p: ModelParameters,
 	phase: FlowPhase,
-	quasiSteadyOxygen: boolean
+	quasiSteadyOxygen: boolean,
+	stateCount = STATE_COUNT
 ): Derivative {
-	const dy = new Array<number>(STATE_COUNT).fill(0);
+	const dy = new Array<number>(stateCount).fill(0);
 	const effective = new Array<number>(STATE_COUNT).fill(0);
 	const { yieldXS, maintenanceGPerGH, exhaustionGPerL, alpha, beta } = p;
 	const o2 = p.oxygen;
@@ -206,11 +237,15 @@ export function createDerivative(
 	const oxygenMaintenance = o2?.maintenanceMgPerGH ?? 0;
 	const dynamicOxygen = o2 !== null && !quasiSteadyOxygen;
 	const continuous = phase.kind === 'continuous';
-	const fed = phase.kind === 'fed';
 	const dilution = continuous ? phase.dilutionPerH : 0;
 	const cellRemoval = continuous ? phase.cellRemovalPerH : 0;
-	const feedSubstrate = phase.kind === 'closed' ? 0 : phase.feedSubstrateGPerL;
-	const feedLaw = fed ? phase.feedLaw : null;
+	const feedSubstrate = continuous ? phase.feedSubstrateGPerL : 0;
+	// Flat arrays rather than the stream objects: the loop below runs at every call.
+	const streams = phase.kind === 'fed' ? phase.streams : [];
+	const streamCount = streams.length;
+	const laws = streams.map((stream) => stream.feedLaw);
+	const streamSubstrates = streams.map((stream) => stream.substrateGPerL);
+	const deliveredSlots = streams.map((stream) => stream.deliveredSlot ?? -1);
 
 	return (tH, state) => {
 		const y = quasiSteadyOxygen ? fillEffectiveState(p, true, state, effective) : state;
@@ -221,14 +256,27 @@ export function createDerivative(
 		let d = dilution;
 		let kx = cellRemoval;
 		let dV = 0;
-		if (feedLaw !== null) {
-			const f = feedLaw(tH, y, uptake);
-			d = f / y[V];
+		let substrateSupply: number;
+		if (streamCount > 0) {
+			// Σ F_i/V and Σ (F_i/V)(S_f,i − S), stream by stream: with one stream this is the same
+			// arithmetic, to the last bit, as a single feed term.
+			const v = y[V];
+			d = 0;
+			substrateSupply = 0;
+			for (let i = 0; i < streamCount; i++) {
+				const f = laws[i](tH, y, uptake);
+				const di = f / v;
+				d += di;
+				substrateSupply += di * (streamSubstrates[i] - y[S]);
+				dV += f;
+				if (deliveredSlots[i] >= 0) dy[deliveredSlots[i]] = f;
+			}
 			kx = d;
-			dV = f;
+		} else {
+			substrateSupply = d * (feedSubstrate - y[S]);
 		}
 		dy[X] = mu * x - kx * x;
-		dy[S] = -uptake + d * (feedSubstrate - y[S]);
+		dy[S] = -uptake + substrateSupply;
 		dy[P] = (alpha * mu + beta) * x - d * y[P];
 		dy[V] = dV;
 		dy[C] = dynamicOxygen
@@ -271,7 +319,8 @@ block is given, dissolved oxygen C (mg/L).
 
 **Modes**
 - batch: no flows.
-- fedBatch: F_out = 0; the feed follows one of the strategies below from its start time.
+- fedBatch: F_out = 0; the feed follows one of the strategies below from its start time (or several
+  feeds do, see below).
 - chemostat: F_in = F_out = D·V, constant volume. Before the feed start time the vessel runs as a batch.
 - perfusion: medium flows through at D·V; a bleed b·V leaves with the culture; the rest leaves through
   the retention device.
@@ -299,18 +348,32 @@ block is given, dissolved oxygen C (mg/L).
   functions; assignments, function definitions and unknown names are refused. A negative or
   non-finite value stops the run with an error.
 
+**Several feeds** (fed-batch): up to 8 streams, each with its own strategy, start time, bolus, maximum
+rate and substrate concentration, and an optional label that names it in the events. Their rates add
+up: F_in = Σ Fᵢ dilutes X and P and fills the vessel, and each brings its own substrate,
+dS/dt = −q_S·X + Σ (Fᵢ/V)(S_f,i − S). A stream may carry none of the modelled substrate (S_f = 0, e.g.
+an amino-acid feed; it then only dilutes), except exponential and substrate-stat streams, which need
+S_f above the initial S. Each stream's law is the one above, computed for that stream alone: an
+exponential stream meets the uptake by itself, and a substrate-stat stream sees only the uptake, so
+the substrate the other streams bring (or their dilution) is left to its proportional term, which
+leaves S off the setpoint by that supply divided by k. The result lists each stream's rate over time
+and its delivered volume (bolus included), integrated with the run.
+
 **Events**
 - substrateExhausted: S falls below S_ex = min(1 % of Ks, 0.001 g/L).
 - oxygenLimited: DO falls below 5 % of saturation, so transfer runs at ≥ 95 % of its maximum kLa·C*.
 - oxygenDepleted: DO reaches zero (demand beyond kLa·C* with no K_O to slow growth); the run stops.
-- maxVolumeReached: the volume reaches the maximum working volume; the run stops there.
+- maxVolumeReached: the volume reaches the maximum working volume; the run stops there (a later
+  stream's bolus that would go beyond it is cut to the room left).
+- feedStarted: a feed stream (named by its label when it has one) starts after t = 0 or with a bolus,
+  or continuous operation starts after a batch phase.
 - washout: in chemostat, perfusion or draw-fill runs, X falls below 1 % of its value when continuous
   operation began.
 
 **Numerics**: the ODEX extrapolation integrator (Hairer & Wanner) with adaptive steps, absolute and
-relative tolerance 1e-8 on every state, dense output at the requested times. Feed start, bolus and draws
-split the run into segments integrated one after another. Values at an output time that coincides
-with a draw or bolus are those just after it. A run the integrator cannot follow (more than 200 000
+relative tolerance 1e-8 on every state, dense output at the requested times. Feed starts (each
+stream's), boluses and draws split the run into segments integrated one after another. Values at an
+output time that coincides with a draw or bolus are those just after it. A run the integrator cannot follow (more than 200 000
 steps in one stretch, a non-finite value, or a concentration below −1e-6) fails with an error rather
 than returning numbers.
 `;

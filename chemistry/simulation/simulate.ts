@@ -1,13 +1,15 @@
 import { Outcome, Solver, type DenseInterpolant, type OutputFunction } from 'odex';
 import { SimulationFailedError } from './errors';
 import {
+	formatNumber,
 	hasCrossed,
 	locateCrossing,
 	MAX_REPORTS_PER_KIND,
 	updateArming,
 	type ThresholdEvent
 } from './events';
-import { applyAddition, applyDrawFill, createFeedLaw } from './feeding';
+import { FeedStreams } from './feed-streams';
+import { applyDrawFill } from './feeding';
 import {
 	ABSOLUTE_TOLERANCE,
 	C,
@@ -74,6 +76,8 @@ interface Output {
 	v: number[];
 	c: number[];
 	feed: number[];
+	/** each fed-batch stream's rate, with several streams (a single stream's is `feed`) */
+	streamFeeds: number[][];
 	our: number[];
 	count: number;
 }
@@ -90,6 +94,11 @@ class RunIntegrator {
 	private readonly trackers: ThresholdEvent[] = [];
 	private readonly washout: ThresholdEvent | null = null;
 	private readonly solver: Solver;
+	private readonly feedStreams: FeedStreams | null;
+	/** STATE_COUNT plus the feed streams' delivered-volume slots */
+	private readonly stateCount: number;
+	/** reused for each output point's stream rates */
+	private readonly streamRates: number[];
 	private readonly stats = { accepted: 0, rejected: 0, evaluations: 0 };
 	/** DO relaxation rate above which its balance is solved at quasi-steady state */
 	private readonly quasiSteadyAbovePerH: number;
@@ -104,7 +113,12 @@ class RunIntegrator {
 	constructor(plan: SimulationPlan) {
 		this.plan = plan;
 		this.p = plan.parameters;
-		this.y = plan.initialState.slice();
+		this.feedStreams = plan.feeds === null ? null : new FeedStreams(plan.feeds, this.p);
+		const slotCount = this.feedStreams?.slotCount ?? 0;
+		this.stateCount = STATE_COUNT + slotCount;
+		this.y = [...plan.initialState, ...new Array<number>(slotCount).fill(0)];
+		const streamCount = this.feedStreams?.count ?? 0;
+		this.streamRates = new Array<number>(streamCount).fill(0);
 		const n = plan.outputTimesH.length;
 		const series = () => new Array<number>(n);
 		this.out = {
@@ -115,10 +129,12 @@ class RunIntegrator {
 			v: series(),
 			c: series(),
 			feed: series(),
+			// A single stream's rate is the total: copied once at the end rather than at every point.
+			streamFeeds: streamCount > 1 ? Array.from({ length: streamCount }, series) : [],
 			our: series(),
 			count: 0
 		};
-		this.solver = new Solver(STATE_COUNT);
+		this.solver = new Solver(this.stateCount);
 		this.solver.denseOutput = true;
 		this.solver.absoluteTolerance = ABSOLUTE_TOLERANCE;
 		this.solver.relativeTolerance = RELATIVE_TOLERANCE;
@@ -279,7 +295,7 @@ class RunIntegrator {
 		const alreadyPast = this.stopIfAlreadyPast(fromH, phase);
 		if (alreadyPast !== null) return { kind: 'stop', tH: fromH, event: alreadyPast };
 
-		const derivative = createDerivative(p, phase, qss);
+		const derivative = createDerivative(p, phase, qss, this.stateCount);
 		const endH = segment.endH;
 		const eps = 1e-9 * Math.max(1, Math.abs(endH));
 		const times = this.plan.outputTimesH;
@@ -377,7 +393,7 @@ class RunIntegrator {
 				}
 			}
 			if (cut !== null) {
-				this.interpolate(dense, cutH, y);
+				this.interpolate(dense, cutH, y, this.stateCount);
 				if (cut.kind === 'stop') {
 					if (this.out.count === 0 || cutH - this.out.t[this.out.count - 1] > eps) {
 						this.appendPoint(cutH, this.effectiveState(y), phase);
@@ -401,7 +417,7 @@ class RunIntegrator {
 				reachedH
 			);
 		}
-		if (cut === null) for (let i = 0; i < STATE_COUNT; i++) y[i] = result.y[i];
+		if (cut === null) for (let i = 0; i < this.stateCount; i++) y[i] = result.y[i];
 		return cut;
 	}
 
@@ -411,19 +427,11 @@ class RunIntegrator {
 		const y = this.y;
 		const saturation = this.p.oxygen?.saturationMgPerL ?? null;
 		switch (segment.entry) {
-			case 'feedStart': {
-				const feed = plan.feed!;
-				if (feed.bolusL > 0) applyAddition(y, feed.bolusL, feed.substrateGPerL, saturation);
-				if (segment.startH > 0 || feed.bolusL > 0) {
-					const bolus = feed.bolusL > 0 ? ` after a bolus of ${formatNumber(feed.bolusL)} L` : '';
-					this.events.push({
-						kind: 'feedStarted',
-						tH: segment.startH,
-						message: `Feed (${feed.strategy}) started${bolus}.`
-					});
-				}
+			case 'feedStart':
+				this.events.push(
+					...this.feedStreams!.start(segment.startingFeeds, segment.startH, y, plan.maxVolumeL)
+				);
 				break;
-			}
 			case 'continuousStart':
 				this.armWashout();
 				if (segment.startH > 0) {
@@ -456,12 +464,7 @@ class RunIntegrator {
 				feedSubstrateGPerL: plan.feedSubstrateGPerL
 			};
 		}
-		const feed = plan.feed!;
-		return {
-			kind: 'fed',
-			feedLaw: createFeedLaw(feed, this.p, y),
-			feedSubstrateGPerL: feed.substrateGPerL
-		};
+		return this.feedStreams!.phase();
 	}
 
 	private armWashout(): void {
@@ -526,8 +529,14 @@ class RunIntegrator {
 		}
 	}
 
-	private interpolate(dense: DenseInterpolant, tH: number, into: number[]): number[] {
-		for (let i = 0; i < STATE_COUNT; i++) into[i] = dense(i, tH);
+	/** The first `count` states at tH (output points need the culture's, not the delivered volumes). */
+	private interpolate(
+		dense: DenseInterpolant,
+		tH: number,
+		into: number[],
+		count = STATE_COUNT
+	): number[] {
+		for (let i = 0; i < count; i++) into[i] = dense(i, tH);
 		return into;
 	}
 
@@ -558,14 +567,23 @@ class RunIntegrator {
 		o.v[i] = state[V];
 		o.c[i] = clampToZero(state[C]);
 		const mu = computeGrowthRatePerH(this.p, state);
-		o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state, mu);
+		if (o.streamFeeds.length === 0) {
+			o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state, mu);
+		} else {
+			const rates = this.streamRates;
+			rates.fill(0);
+			o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state, mu, rates);
+			for (let j = 0; j < rates.length; j++) o.streamFeeds[j][i] = rates[j];
+		}
 		o.our[i] = computeOurMgPerLH(this.p, state, mu) / O2_MOLAR_MASS_G_PER_MOL;
 	}
 
 	private buildResult(): SimulationResult {
 		const o = this.out;
 		const n = o.count;
-		for (const series of [o.t, o.x, o.s, o.p, o.v, o.c, o.feed, o.our]) series.length = n;
+		for (const series of [o.t, o.x, o.s, o.p, o.v, o.c, o.feed, o.our, ...o.streamFeeds]) {
+			series.length = n;
+		}
 		const o2 = this.p.oxygen;
 		const maxOtr = o2 === null ? 0 : (o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL;
 		const result: SimulationResult = {
@@ -576,6 +594,12 @@ class RunIntegrator {
 			volumeL: o.v,
 			dissolvedOxygenMgPerL: o2 === null ? null : o.c,
 			feedLPerH: o.feed,
+			feedStreams:
+				this.feedStreams?.results(
+					this.y,
+					this.plan.initialState[V],
+					o.streamFeeds.length > 0 ? o.streamFeeds : [o.feed.slice()]
+				) ?? null,
 			ourMmolPerLH: o2 === null ? null : o.our,
 			maxOtrMmolPerLH: o2 === null ? null : new Array<number>(n).fill(maxOtr),
 			events: this.events.slice().sort((a, b) => a.tH - b.tH),
@@ -593,8 +617,4 @@ const STATE_NAMES = ['biomass', 'substrate', 'product', 'volume', 'dissolved oxy
 /** Values within the tolerance below zero are rounding, reported as 0 (real failures throw). */
 function clampToZero(value: number): number {
 	return value < 0 ? 0 : value;
-}
-
-function formatNumber(value: number): string {
-	return Number(value.toPrecision(3)).toString();
 }

@@ -33,7 +33,12 @@ export interface InitialStateInput {
 
 export interface FeedInput {
 	strategy: FeedStrategy;
-	/** substrate in the feed (or the fresh medium in chemostat, perfusion and draw-fill) */
+	/** fed-batch only: names the stream in events and in `feedStreams`; at most 80 characters */
+	label?: string;
+	/**
+	 * substrate in the feed (or the fresh medium in chemostat, perfusion and draw-fill); a stream of
+	 * `feeds` may carry none (0) unless it is exponential or substrate-stat
+	 */
 	substrateGPerL: number;
 	rateLPerH?: number;
 	slopeLPerH2?: number;
@@ -71,6 +76,8 @@ export interface SimulationRequest {
 	kinetics: KineticsInput;
 	initial: InitialStateInput;
 	feed?: FeedInput;
+	/** fedBatch only, instead of `feed`: 1 to 8 streams, each with its own strategy and start */
+	feeds?: FeedInput[];
 	oxygen?: OxygenInput;
 	perfusion?: PerfusionInput;
 	drawFill?: DrawFillInput;
@@ -100,6 +107,15 @@ export interface IntegratorTolerances {
 	relative: number;
 }
 
+export interface FeedStreamResult {
+	label: string | null;
+	strategy: FeedStrategy;
+	/** this stream's rate at each output time (0 before its start) */
+	feedLPerH: number[];
+	/** volume the stream added over the run, its bolus included (integrated with the run, not from the outputs) */
+	deliveredL: number;
+}
+
 export interface SimulationResult {
 	t: number[];
 	biomassGPerL: number[];
@@ -108,8 +124,13 @@ export interface SimulationResult {
 	volumeL: number[];
 	/** null when the request has no `oxygen` block: no O2 balance is solved */
 	dissolvedOxygenMgPerL: number[] | null;
-	/** inflow at each output time (feed, or dilution/perfusion flow); draws are discrete and not shown */
+	/**
+	 * inflow at each output time (the sum of the feed streams, or dilution/perfusion flow); draws are
+	 * discrete and not shown
+	 */
 	feedLPerH: number[];
+	/** fed-batch: each feed stream in request order (the single `feed` as one); null in other modes */
+	feedStreams: FeedStreamResult[] | null;
 	ourMmolPerLH: number[] | null;
 	maxOtrMmolPerLH: number[] | null;
 	events: SimulationEvent[];

@@ -1,7 +1,10 @@
 import { ChemistryInputError } from '../errors';
-import { compileFeedExpression, type FeedExpression } from './expression';
 import { computeExhaustionThresholdGPerL, type ModelParameters } from './model';
-import type { FeedInput, OperatingMode, SimulationRequest } from './types';
+import { isGiven, NON_NEGATIVE, POSITIVE, readNumber, readOptional } from './read-number';
+import type { OperatingMode, SimulationRequest } from './types';
+import { FLOW_FIELDS, readFedBatchFeed, readFeedStreams, type FeedPlan } from './validate-feed';
+
+export type { FeedPlan } from './validate-feed';
 
 /** Longest run accepted: 60 days. */
 export const MAX_END_H = 1440;
@@ -12,20 +15,6 @@ export const MAX_DRAW_CYCLES = 10_000;
 
 const MODES: readonly OperatingMode[] = ['batch', 'fedBatch', 'chemostat', 'perfusion', 'drawFill'];
 
-export type FeedPlan = {
-	substrateGPerL: number;
-	startH: number;
-	bolusL: number;
-	maxRateLPerH: number;
-} & (
-	| { strategy: 'constant'; rateLPerH: number }
-	| { strategy: 'linear'; rateLPerH: number; slopeLPerH2: number }
-	| { strategy: 'exponential'; muSetPerH: number }
-	| { strategy: 'substrateStat'; setpointGPerL: number }
-	| { strategy: 'doStat'; doSetpointMgPerL: number }
-	| { strategy: 'expression'; expression: FeedExpression }
-);
-
 export interface SimulationPlan {
 	mode: OperatingMode;
 	parameters: ModelParameters;
@@ -33,80 +22,22 @@ export interface SimulationPlan {
 	initialState: number[];
 	endH: number;
 	outputTimesH: number[];
-	/** fed-batch feed; null in the other modes */
-	feed: FeedPlan | null;
-	/** when feeding (fed-batch), continuous flow (chemostat, perfusion) or draw cycles begin */
+	/** fed-batch feed streams in request order (one for the single `feed`); null in the other modes */
+	feeds: FeedPlan[] | null;
+	/**
+	 * when feeding (fed-batch: the earliest stream), continuous flow (chemostat, perfusion) or draw
+	 * cycles begin
+	 */
 	startH: number;
-	/** substrate of the feed or fresh medium; 0 in batch */
+	/**
+	 * substrate of the fresh medium (chemostat, perfusion, draw-fill) or of the single `feed`; 0 in
+	 * batch and with `feeds` (fed-batch integration reads each stream's own)
+	 */
 	feedSubstrateGPerL: number;
 	maxVolumeL: number | null;
 	continuous: { dilutionPerH: number; cellRemovalPerH: number } | null;
 	drawFill: { fraction: number; everyH: number } | null;
 }
-
-interface Bounds {
-	/** value must be > min (exclusive) or ≥ min (inclusive) */
-	min?: number;
-	minInclusive?: boolean;
-	max?: number;
-	maxInclusive?: boolean;
-}
-
-function describeBounds(b: Bounds): string {
-	const parts: string[] = [];
-	if (b.min !== undefined) parts.push(`${b.minInclusive ? 'at least' : 'greater than'} ${b.min}`);
-	if (b.max !== undefined) parts.push(`${b.maxInclusive ? 'at most' : 'less than'} ${b.max}`);
-	return parts.length ? ` ${parts.join(' and ')}` : '';
-}
-
-function readNumber(value: unknown, field: string, bounds: Bounds = {}): number {
-	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		throw new ChemistryInputError(`${field} must be a finite number${describeBounds(bounds)}.`, {
-			field
-		});
-	}
-	const { min, max, minInclusive = false, maxInclusive = false } = bounds;
-	const tooLow = min !== undefined && (minInclusive ? value < min : value <= min);
-	const tooHigh = max !== undefined && (maxInclusive ? value > max : value >= max);
-	if (tooLow || tooHigh) {
-		throw new ChemistryInputError(`${field} must be${describeBounds(bounds)} (got ${value}).`, {
-			field
-		});
-	}
-	return value;
-}
-
-function readOptional(
-	value: unknown,
-	field: string,
-	fallback: number,
-	bounds: Bounds = {}
-): number {
-	return value === undefined || value === null ? fallback : readNumber(value, field, bounds);
-}
-
-const POSITIVE: Bounds = { min: 0 };
-const NON_NEGATIVE: Bounds = { min: 0, minInclusive: true };
-
-/** Which feed fields each strategy reads, so a field it would ignore is refused rather than dropped. */
-const FEED_FIELDS: Record<FeedInput['strategy'], readonly (keyof FeedInput)[]> = {
-	constant: ['rateLPerH'],
-	linear: ['rateLPerH', 'slopeLPerH2', 'maxRateLPerH'],
-	exponential: ['muSetPerH', 'maxRateLPerH'],
-	substrateStat: ['setpointGPerL', 'maxRateLPerH'],
-	doStat: ['doSetpointMgPerL', 'maxRateLPerH'],
-	expression: ['expression', 'maxRateLPerH']
-};
-const FLOW_FIELDS: readonly (keyof FeedInput)[] = [
-	'rateLPerH',
-	'slopeLPerH2',
-	'muSetPerH',
-	'setpointGPerL',
-	'doSetpointMgPerL',
-	'expression',
-	'maxRateLPerH',
-	'bolusL'
-];
 
 export function validateSimulationRequest(request: SimulationRequest): SimulationPlan {
 	if (request === null || typeof request !== 'object') {
@@ -251,7 +182,7 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 		initialState: [x0, s0, p0, v0, c0],
 		endH,
 		outputTimesH,
-		feed: null,
+		feeds: null,
 		startH: 0,
 		feedSubstrateGPerL: 0,
 		maxVolumeL,
@@ -259,6 +190,12 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 		drawFill: null
 	};
 
+	if (isGiven(request.feeds)) {
+		const feeds = readFeedStreams(request, plan);
+		plan.feeds = feeds;
+		plan.startH = Math.min(...feeds.map((feed) => feed.startH));
+		return plan;
+	}
 	const feed = request.feed;
 	if (mode === 'batch') {
 		if (feed !== undefined && feed !== null) {
@@ -289,8 +226,14 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 				{ field: 'feed.strategy' }
 			);
 		}
+		if (isGiven(feed.label)) {
+			throw new ChemistryInputError(
+				`feed.label names a fed-batch feed stream; in ${mode} mode the feed is the fresh medium.`,
+				{ field: 'feed.label' }
+			);
+		}
 		for (const name of FLOW_FIELDS) {
-			if (feed[name] !== undefined && feed[name] !== null) {
+			if (isGiven(feed[name])) {
 				const flow =
 					mode === 'drawFill' ? 'drawFill.fraction and drawFill.everyH' : 'dilutionPerH × volume';
 				throw new ChemistryInputError(
@@ -360,136 +303,13 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 		return plan;
 	}
 
-	plan.feed = readFedBatchFeed(feed, plan, feedSubstrateGPerL, startH);
+	plan.feeds = [
+		readFedBatchFeed(feed, plan, {
+			field: 'feed',
+			substrateGPerL: feedSubstrateGPerL,
+			startH,
+			form: 'single'
+		})
+	];
 	return plan;
-}
-
-function readFedBatchFeed(
-	feed: FeedInput,
-	plan: SimulationPlan,
-	substrateGPerL: number,
-	startH: number
-): FeedPlan {
-	const strategy = feed.strategy;
-	const allowed = FEED_FIELDS[strategy];
-	if (allowed === undefined) {
-		throw new ChemistryInputError(
-			`feed.strategy must be one of ${Object.keys(FEED_FIELDS).join(', ')}.`,
-			{
-				field: 'feed.strategy'
-			}
-		);
-	}
-	for (const name of FLOW_FIELDS) {
-		if (
-			name !== 'bolusL' &&
-			!allowed.includes(name) &&
-			feed[name] !== undefined &&
-			feed[name] !== null
-		) {
-			throw new ChemistryInputError(
-				`feed.${name} is not used by the ${strategy} strategy (it reads ${allowed.map((f) => `feed.${f}`).join(', ')}).`,
-				{ field: `feed.${name}` }
-			);
-		}
-	}
-	const [, s0, , v0] = plan.initialState;
-	const { muMaxPerH } = plan.parameters;
-	const bolusL = readOptional(feed.bolusL, 'feed.bolusL', 0, NON_NEGATIVE);
-	if (plan.maxVolumeL !== null && v0 + bolusL > plan.maxVolumeL) {
-		throw new ChemistryInputError(
-			`feed.bolusL (${bolusL} L) would take the volume to ${v0 + bolusL} L, above maxVolumeL (${plan.maxVolumeL} L).`,
-			{ field: 'feed.bolusL' }
-		);
-	}
-	const maxRateLPerH = readOptional(feed.maxRateLPerH, 'feed.maxRateLPerH', Infinity, POSITIVE);
-	const common = { substrateGPerL, startH, bolusL, maxRateLPerH };
-	// Substrate only falls before the feed starts, and a bolus of feed moves it towards S_f, so
-	// checking S_f against the initial S covers the feed start as well.
-	const requireFeedAboveInitial = (why: string) => {
-		if (substrateGPerL <= s0) {
-			throw new ChemistryInputError(
-				`feed.substrateGPerL (${substrateGPerL} g/L) must exceed initial.substrateGPerL (${s0} g/L) for ${why}.`,
-				{ field: 'feed.substrateGPerL' }
-			);
-		}
-	};
-	switch (strategy) {
-		case 'constant':
-			return {
-				...common,
-				strategy,
-				rateLPerH: readNumber(feed.rateLPerH, 'feed.rateLPerH', POSITIVE)
-			};
-		case 'linear': {
-			const rateLPerH = readNumber(feed.rateLPerH, 'feed.rateLPerH', NON_NEGATIVE);
-			const slopeLPerH2 = readNumber(feed.slopeLPerH2, 'feed.slopeLPerH2');
-			if (rateLPerH === 0 && slopeLPerH2 <= 0) {
-				throw new ChemistryInputError(
-					'A linear feed starting at 0 L/h needs a positive feed.slopeLPerH2.',
-					{
-						field: 'feed.slopeLPerH2'
-					}
-				);
-			}
-			return { ...common, strategy, rateLPerH, slopeLPerH2 };
-		}
-		case 'exponential': {
-			const muSetPerH = readNumber(feed.muSetPerH, 'feed.muSetPerH', POSITIVE);
-			if (muSetPerH >= muMaxPerH) {
-				throw new ChemistryInputError(
-					`feed.muSetPerH (${muSetPerH} /h) must be below kinetics.muMaxPerH (${muMaxPerH} /h); the culture cannot grow faster than μmax.`,
-					{ field: 'feed.muSetPerH' }
-				);
-			}
-			requireFeedAboveInitial('an exponential feed');
-			return { ...common, strategy, muSetPerH };
-		}
-		case 'substrateStat': {
-			const setpointGPerL = readNumber(feed.setpointGPerL, 'feed.setpointGPerL', POSITIVE);
-			if (setpointGPerL >= substrateGPerL) {
-				throw new ChemistryInputError(
-					`feed.setpointGPerL (${setpointGPerL} g/L) must be below feed.substrateGPerL (${substrateGPerL} g/L).`,
-					{ field: 'feed.setpointGPerL' }
-				);
-			}
-			return { ...common, strategy, setpointGPerL };
-		}
-		case 'doStat': {
-			const o2 = plan.parameters.oxygen;
-			if (o2 === null) {
-				throw new ChemistryInputError(
-					'A DO-stat feed needs the oxygen block (kLaPerH, saturationMgPerL).',
-					{
-						field: 'oxygen'
-					}
-				);
-			}
-			if (!Number.isFinite(maxRateLPerH)) {
-				throw new ChemistryInputError(
-					'A DO-stat feed needs feed.maxRateLPerH, the pump rate with DO above the setpoint.',
-					{
-						field: 'feed.maxRateLPerH'
-					}
-				);
-			}
-			const doSetpointMgPerL = readNumber(feed.doSetpointMgPerL, 'feed.doSetpointMgPerL', {
-				min: 0,
-				max: o2.saturationMgPerL
-			});
-			return { ...common, strategy, doSetpointMgPerL };
-		}
-		case 'expression':
-			if (typeof feed.expression !== 'string') {
-				throw new ChemistryInputError('The expression strategy needs feed.expression.', {
-					field: 'feed.expression'
-				});
-			}
-			return {
-				...common,
-				strategy,
-				expression: compileFeedExpression(feed.expression, 'feed.expression')
-			};
-	}
-	throw new ChemistryInputError('feed.strategy is not recognised.', { field: 'feed.strategy' });
 }

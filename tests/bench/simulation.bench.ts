@@ -28,6 +28,25 @@ const request: SimulationRequest = {
 	outputEveryH: 1 / 60
 };
 
+// The same culture fed by three streams: DO-stat glucose, a constant amino-acid feed carrying no
+// modelled substrate, and a capped exponential glucose top-up from day 4.
+const { feed: glucose, ...withoutFeed } = request;
+const threeStreams: SimulationRequest = {
+	...withoutFeed,
+	feeds: [
+		{ ...glucose!, label: 'Glucose (DO-stat)' },
+		{ label: 'Amino acids', strategy: 'constant', substrateGPerL: 0, rateLPerH: 0.0005, startH: 72 },
+		{
+			label: 'Glucose top-up',
+			strategy: 'exponential',
+			substrateGPerL: 100,
+			muSetPerH: 0.005,
+			maxRateLPerH: 0.002,
+			startH: 96
+		}
+	]
+};
+
 function run(): unknown {
 	return simulateRun(request);
 }
@@ -37,6 +56,12 @@ export const benches: BenchCase[] = [
 		name: 'simulation: 14-day fed-batch, O2 balance, DO-stat, 1-min output',
 		targetMs: 50,
 		run,
+		repetitions: 20
+	},
+	{
+		name: 'simulation: 14-day fed-batch as above, three feed streams',
+		targetMs: 60,
+		run: () => simulateRun(threeStreams),
 		repetitions: 20
 	}
 ];

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_FEED_LABEL_LENGTH, MAX_FEED_STREAMS } from '$chemistry';
 import { SIMULATION_ROLES } from '$lib/simulation/roles';
 import type { ApiOperation } from '../openapi';
 
@@ -9,6 +10,21 @@ const optionalNumber = finite.optional();
 
 export const simulationModes = ['batch', 'fedBatch', 'chemostat', 'perfusion', 'drawFill'] as const;
 export const feedStrategies = ['constant', 'linear', 'exponential', 'substrateStat', 'doStat', 'expression'] as const;
+
+const feedStream = z.strictObject({
+	strategy: z.enum(feedStrategies),
+	label: z.string().max(MAX_FEED_LABEL_LENGTH).optional().describe('fed-batch only; names the stream in events'),
+	substrateGPerL: finite,
+	rateLPerH: optionalNumber,
+	slopeLPerH2: optionalNumber,
+	muSetPerH: optionalNumber,
+	setpointGPerL: optionalNumber,
+	doSetpointMgPerL: optionalNumber,
+	expression: z.string().max(2000).optional().describe('arithmetic in t, X, S, P, V, DO'),
+	startH: optionalNumber,
+	bolusL: optionalNumber,
+	maxRateLPerH: optionalNumber
+});
 
 export const simulateRequest = z.strictObject({
 	mode: z.enum(simulationModes),
@@ -29,21 +45,12 @@ export const simulateRequest = z.strictObject({
 		dissolvedOxygenMgPerL: optionalNumber,
 		productGPerL: optionalNumber
 	}),
-	feed: z
-		.strictObject({
-			strategy: z.enum(feedStrategies),
-			substrateGPerL: finite,
-			rateLPerH: optionalNumber,
-			slopeLPerH2: optionalNumber,
-			muSetPerH: optionalNumber,
-			setpointGPerL: optionalNumber,
-			doSetpointMgPerL: optionalNumber,
-			expression: z.string().max(2000).optional().describe('arithmetic in t, X, S, P, V, DO'),
-			startH: optionalNumber,
-			bolusL: optionalNumber,
-			maxRateLPerH: optionalNumber
-		})
-		.optional(),
+	feed: feedStream.optional(),
+	feeds: z
+		.array(feedStream)
+		.max(MAX_FEED_STREAMS, `Give at most ${MAX_FEED_STREAMS} feed streams.`)
+		.optional()
+		.describe('fedBatch only, instead of feed: several streams, each with its own strategy and start'),
 	oxygen: z
 		.strictObject({ kLaPerH: finite, saturationMgPerL: finite, maintenanceMgPerGH: optionalNumber })
 		.optional()
@@ -68,7 +75,18 @@ export const simulateResponse = z.object({
 	productGPerL: series,
 	volumeL: series,
 	dissolvedOxygenMgPerL: nullableSeries,
-	feedLPerH: series,
+	feedLPerH: series.describe('total inflow, L/h'),
+	feedStreams: z
+		.array(
+			z.object({
+				label: z.string().nullable(),
+				strategy: z.enum(feedStrategies),
+				feedLPerH: series,
+				deliveredL: z.number().describe('volume added by the stream over the run, bolus included')
+			})
+		)
+		.nullable()
+		.describe('fed-batch: each feed stream in request order; null in other modes'),
 	ourMmolPerLH: nullableSeries,
 	maxOtrMmolPerLH: nullableSeries.describe('kLa·C*, mmol/L/h'),
 	events: z.array(z.object({ kind: z.string(), tH: z.number(), message: z.string() })),

@@ -1,0 +1,75 @@
+import type { RequestEvent } from '@sveltejs/kit';
+import { describe, expect, it, vi } from 'vitest';
+
+// The endpoint's guard reads the request through getRequestEvent, which only the SvelteKit server
+// sets; this test hands it the event it builds.
+const current = vi.hoisted(() => ({ event: null as unknown }));
+vi.mock('$app/server', async (importOriginal) => ({
+	...(await importOriginal<typeof import('$app/server')>()),
+	getRequestEvent: () => current.event
+}));
+
+const { POST } = await import('../../src/routes/api/v1/simulate/+server');
+
+const engineer = { id: 'u-engineer', email: 'engineer@lab.test', name: 'Engineer', roles: ['engineer'] };
+
+async function postSimulate(body: unknown, user: typeof engineer | null = engineer): Promise<Response> {
+	const url = new URL('http://127.0.0.1/api/v1/simulate');
+	const request = new Request(url, {
+		method: 'POST',
+		headers: { 'content-type': 'application/json' },
+		body: JSON.stringify(body)
+	});
+	const event = { request, url, locals: { user, session: null } } as unknown as RequestEvent;
+	current.event = event;
+	return POST(event);
+}
+
+const twoStreams = {
+	mode: 'fedBatch',
+	kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 },
+	initial: { biomassGPerL: 0.5, substrateGPerL: 1, volumeL: 1 },
+	feeds: [
+		{ label: 'Glucose', strategy: 'constant', substrateGPerL: 300, rateLPerH: 0.02 },
+		{ label: 'Amino acids', strategy: 'constant', substrateGPerL: 0, rateLPerH: 0.01, startH: 4 }
+	],
+	endH: 10,
+	outputEveryH: 0.5
+};
+
+describe('POST /api/v1/simulate with several feed streams', () => {
+	it('answers each stream’s rates and delivered volume in feedStreams', async () => {
+		const response = await postSimulate(twoStreams);
+		expect(response.status).toBe(200);
+		const body = await response.json();
+		expect(body.feedStreams.map((s: { label: string }) => s.label)).toEqual(['Glucose', 'Amino acids']);
+		expect(body.feedStreams[1].feedLPerH).toHaveLength(body.t.length);
+		// ∫ of a constant rate from the stream's start (analytic): 0.02·10 and 0.01·6 L.
+		expect(body.feedStreams[0].deliveredL).toBeCloseTo(0.2, 10);
+		expect(body.feedStreams[1].deliveredL).toBeCloseTo(0.06, 10);
+		expect(body.events.map((e: { message: string }) => e.message)).toContain(
+			'Feed “Amino acids” (constant) started.'
+		);
+	});
+
+	it('refuses an unknown strategy in a stream as a problem naming feeds.0.strategy', async () => {
+		const feeds = [{ ...twoStreams.feeds[0], strategy: 'pulsed' }, twoStreams.feeds[1]];
+		const response = await postSimulate({ ...twoStreams, feeds });
+		expect(response.status).toBe(400);
+		expect(response.headers.get('content-type')).toContain('application/problem+json');
+		const body = await response.json();
+		expect(body.errors.map((e: { path: string }) => e.path)).toEqual(['feeds.0.strategy']);
+	});
+
+	it('runs behind the real guard: signed out is a 401', async () => {
+		expect((await postSimulate(twoStreams, null)).status).toBe(401);
+	});
+
+	it('passes the library’s stream errors through with their field', async () => {
+		const feeds = [twoStreams.feeds[0], { strategy: 'constant', substrateGPerL: 0 }];
+		const response = await postSimulate({ ...twoStreams, feeds });
+		expect(response.status).toBe(400);
+		const body = await response.json();
+		expect(body.errors).toEqual([{ path: 'feeds.1.rateLPerH', message: body.detail }]);
+	});
+});
