@@ -108,7 +108,7 @@ test.describe('an engineer runs a study', () => {
 		await first.getByLabel('Pump top rate, L/h').fill('0.15');
 
 		const second = page.getByTestId('feed-slot-2');
-		await second.getByLabel('Feed 2 (recipe version)').selectOption({ label: 'PPN Salts Feed B2 v1 (approved)' });
+		await second.getByLabel('Feed 2 (recipe version)').selectOption({ label: 'PPN Nitrogen Top-up N2 v1 (approved)' });
 		await second.getByLabel('Feed 2 plan').selectOption('constant');
 		await second.getByLabel('Feed 2 volume over the run, L').fill('0.4');
 		await second.getByLabel('Feed 2 starts at, h').fill('8');

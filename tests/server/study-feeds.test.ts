@@ -10,7 +10,7 @@ import { loadStudyInputs } from '$lib/server/studies/queries';
 import { createStudy, studyFormValues, type StudyForm } from '$lib/server/studies/study-store';
 import type { StudyInputs } from '$lib/server/studies/types';
 
-const TWO_FEEDS = 'Bacterium DO-stat with salts feed, bench (demo)';
+const TWO_FEEDS = 'Yeast DO-stat with nitrogen top-up, bench (demo)';
 const PILOT = 'Bacterium glucose fed-batch, pilot (demo)';
 const studyId = (name: string) => db.select().from(study).where(eq(study.name, name)).get()!.id;
 
@@ -40,45 +40,64 @@ function formOf(name: string, overrides: Record<string, string | number | null>)
 }
 
 describe('feeds with their own plans', () => {
-	it('runs a DO-stat glucose feed and a constant salts feed side by side', () => {
+	it('runs a DO-stat glycerol feed and a constant nitrogen top-up side by side', () => {
 		const report = evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
 		expect(report.feeds.map((f) => [f.strategy, f.controlled])).toEqual([
 			['doStat', true],
 			['constant', false]
 		]);
-		const [glucose, salts] = report.feeds;
+		const [glycerol, topUp] = report.feeds;
 		// An open plan delivers its planned volume between its start and the end of the run (the rate is V/(t_end − t_start)).
-		expect(salts.deliveredL).toBeCloseTo(0.4, 6);
-		expect(salts.usedL).toBe(0.4);
-		// A controlled plan counts what the run drew, at most what is available.
-		expect(glucose.deliveredL).toBeGreaterThan(0);
-		expect(glucose.usedL).toBeCloseTo(Math.min(glucose.deliveredL!, 1.5), 9);
+		expect(topUp.deliveredL).toBeCloseTo(0.4, 6);
+		expect(topUp.usedL).toBe(0.4);
+		// A controlled plan counts what the run drew, at most what is available; never more than the pump's
+		// top rate over the feeding time, 0.08 L/h × (60 − 24) h = 2.88 L.
+		expect(glycerol.deliveredL).toBeGreaterThan(0);
+		expect(glycerol.deliveredL!).toBeLessThanOrEqual(0.08 * 36 * (1 + 1e-9));
+		expect(glycerol.usedL).toBeCloseTo(Math.min(glycerol.deliveredL!, 3), 9);
 		// Volume balance: final = initial + every feed counted.
-		expect(report.volume.finalL).toBeCloseTo(5 + glucose.usedL + salts.usedL, 9);
+		expect(report.volume.finalL).toBeCloseTo(5 + glycerol.usedL + topUp.usedL, 9);
 		const course = report.timeCourse;
 		if (course.check === 'unavailable') throw new Error(course.message);
-		expect(course.volumeL.at(-1)).toBeCloseTo(5 + glucose.deliveredL! + salts.deliveredL!, 6);
+		expect(course.volumeL.at(-1)).toBeCloseTo(5 + glycerol.deliveredL! + topUp.deliveredL!, 6);
 		expect(course.events.filter((e) => e.kind === 'feedStarted')).toHaveLength(2);
 	});
 
-	it('counts the salts feed in the nitrogen supply, worked by hand', () => {
+	it('counts both feeds in the nitrogen supply, worked by hand', () => {
 		const report = evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
-		// (NH4)2SO4 is 2 N per formula unit (IUPAC 2021 weights): basal 2.4 g/L × 5 L + salts feed 150 g/L × 0.4 L;
-		// the glucose feed carries no nitrogen. Over the final volume.
+		// (NH4)2SO4 is 2 N per formula unit (IUPAC 2021 weights): basal 5 g/L × 5 L, the glycerol feed 70 g/L × what
+		// the run drew, the top-up 200 g/L × 0.4 L; over the final volume.
 		const nPerSulfate = (2 * ATOMIC_WEIGHTS.N) / formulaMolarMass('(NH4)2SO4');
 		const n = report.nutrients.lines.find((l) => l.key === 'N')!;
-		expect(n.supplyGPerL).toBeCloseTo(((2.4 * 5 + 150 * 0.4) * nPerSulfate) / report.volume.finalL, 6);
+		const drawn = report.feeds[0].usedL;
+		expect(n.supplyGPerL).toBeCloseTo(((5 * 5 + 70 * drawn + 200 * 0.4) * nPerSulfate) / report.volume.finalL, 4);
+	});
+
+	it('tells a shortfall the feeds make good from one that lasts', () => {
+		const report = evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
+		// The basal nitrogen is used up in the batch phase, before both feeds start at 24 h; they then cover it.
+		const n = report.nutrients.lines.find((l) => l.key === 'N')!;
+		expect(n.runout!.shortFromH).toBeLessThan(24);
+		expect(n.runout!.coveredAgainH!).toBeGreaterThan(24);
+		expect(report.notes.join(' ')).toMatch(/N is used up at about \d+ h and covered again from about \d+ h/);
+		// Without the feeds it stays short.
+		const batch = structuredClone(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
+		batch.feeds = [];
+		const unfed = evaluateStudy(batch).nutrients.lines.find((l) => l.key === 'N')!;
+		expect(unfed.runout!.coveredAgainH).toBeNull();
+		expect(unfed.runout!.shortFromH).toBeCloseTo(n.runout!.shortFromH, 6);
 	});
 
 	it('says when a controlled feed would run dry, and counts only what is available', () => {
-		const inputs = withFeeds((feeds) => (feeds[0].volumeL = 0.05));
+		const inputs = withFeeds((feeds) => (feeds[0].volumeL = 0.8));
 		const report = evaluateStudy(inputs);
-		const glucose = report.feeds[0];
-		expect(glucose.emptyAtH).not.toBeNull();
-		expect(glucose.deliveredL!).toBeGreaterThan(0.05);
-		expect(glucose.usedL).toBe(0.05);
+		const glycerol = report.feeds[0];
+		// At most 0.08 L/h from 24 h, 0.8 L lasts at least until 34 h.
+		expect(glycerol.emptyAtH!).toBeGreaterThanOrEqual(34 - 0.05);
+		expect(glycerol.deliveredL!).toBeGreaterThan(0.8);
+		expect(glycerol.usedL).toBe(0.8);
 		expect(report.verdict).toBe('not supported');
-		expect(report.reasons.join(' ')).toMatch(/runs dry at about \d+ h: its plan would draw [\d.]+ L, but 0.05 L are available/);
+		expect(report.reasons.join(' ')).toMatch(/runs dry at about \d+ h: its plan would draw [\d.]+ L, but 0.8 L are available/);
 	});
 
 	it('finds when a nutrient runs out along a batch run, as the crossing of X with target × ratio', () => {
@@ -92,26 +111,36 @@ describe('feeds with their own plans', () => {
 		if (course.check === 'unavailable') throw new Error(course.message);
 		const short = report.nutrients.lines.filter((l) => l.ratio < 1 && l.key !== 'd-glucose');
 		expect(short.length).toBeGreaterThan(0);
+		let crossings = 0;
 		for (const line of short) {
 			const level = report.inputs.targetBiomassGPerL * line.ratio;
 			const i = course.biomassGPerL.findIndex((x) => x >= level);
 			if (i < 0) {
-				expect(line.runsOutAtH).toBeNull();
+				expect(line.runout).toBeNull();
 				continue;
 			}
+			// Without feeds nothing covers it again.
+			expect(line.runout!.coveredAgainH).toBeNull();
+			if (i === 0) {
+				// Short even for the inoculum: out from the start.
+				expect(line.runout!.shortFromH).toBe(course.t[0]);
+				continue;
+			}
+			crossings++;
 			const [t0, t1, x0, x1] = [course.t[i - 1], course.t[i], course.biomassGPerL[i - 1], course.biomassGPerL[i]];
-			expect(line.runsOutAtH!).toBeCloseTo(t0 + ((t1 - t0) * (level - x0)) / (x1 - x0), 6);
+			expect(line.runout!.shortFromH).toBeCloseTo(t0 + ((t1 - t0) * (level - x0)) / (x1 - x0), 6);
 		}
-		expect(report.nutrients.lines.find((l) => l.key === 'd-glucose')?.runsOutAtH ?? null).toBeNull();
+		expect(crossings).toBeGreaterThan(0);
+		expect(report.nutrients.lines.find((l) => l.key === 'd-glucose')?.runout ?? null).toBeNull();
 	});
 
 	it('saves the plans and refills the form with them', () => {
 		const values = studyFormValues(studyId(TWO_FEEDS))!;
 		expect(values.feed1Strategy).toBe('doStat');
-		expect(values.feed1DoSetpointPercent).toBe('40');
-		expect(values.feed1MaxRateLPerH).toBe('0.15');
+		expect(values.feed1DoSetpointPercent).toBe('35');
+		expect(values.feed1MaxRateLPerH).toBe('0.08');
 		expect(values.feed2Strategy).toBe('constant');
-		expect(values.feed2StartH).toBe('8');
+		expect(values.feed2StartH).toBe('24');
 	});
 });
 
@@ -132,7 +161,7 @@ describe('bad feed plans', () => {
 		expect(refused({ feed2Strategy: 'exponential' }).field).toBe('feed2MuSetPerH');
 		expect(refused({ feed2Strategy: 'substrateStat', feed2MaxRateLPerH: 0.1 }).field).toBe('feed2SetpointGPerL');
 		expect(refused({ feed2Strategy: null }).field).toBe('feed2Strategy');
-		expect(refused({ feed2StartH: 30 }).message).toMatch(/must start before the end of the run at 24 h/);
+		expect(refused({ feed2StartH: 70 }).message).toMatch(/must start before the end of the run at 60 h/);
 	});
 
 	it('refuses a substrate-stat plan on a feed that carries no carbon source', () => {

@@ -8,3 +8,10 @@ export function formatCells(value: number | null | undefined): string {
 export function formatPercent(fraction: number): string {
 	return `${(fraction * 100).toFixed(0)} %`;
 }
+
+/** "16 h", or "16 h (to 24 h)" when a feed covers the nutrient again; "—" when it never runs short. */
+export function formatRunout(runout: { shortFromH: number; coveredAgainH: number | null } | null): string {
+	if (runout === null) return '—';
+	const from = `${runout.shortFromH.toFixed(0)} h`;
+	return runout.coveredAgainH === null ? from : `${from} (to ${runout.coveredAgainH.toFixed(0)} h)`;
+}

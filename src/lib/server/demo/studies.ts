@@ -176,14 +176,13 @@ const DEMO_FEEDS: { name: string; lines: Line[]; stock?: [string, number]; instr
 		instructions: 'Concentrated glycerol and salts feed for the yeast fed-batch. Dissolve the salts in 400 mL warm water, add the glycerol, make up to 1 L and filter through 0.2 µm. Add the calcium last, slowly, with stirring.'
 	},
 	{
-		name: 'PPN Salts Feed B2',
+		name: 'PPN Nitrogen Top-up N2',
 		lines: [
-			['ammonium-sulfate', 150, 'g/L'],
-			['potassium-dihydrogen-phosphate', 40, 'g/L'],
-			['calcium-chloride-dihydrate', 2, 'g/L'],
-			['iron-ii-sulfate-heptahydrate', 1, 'g/L']
+			['ammonium-sulfate', 200, 'g/L'],
+			['iron-ii-sulfate-heptahydrate', 2, 'g/L'],
+			['zinc-sulfate-heptahydrate', 0.3, 'g/L']
 		],
-		instructions: 'Nitrogen and mineral salts feed for the bacterial fed-batch, carrying no carbon. Dissolve in purified water in the order listed, the iron last, make up to volume and filter through 0.2 µm. Wear eye protection: the solution is acidic.'
+		instructions: 'Nitrogen and trace-metal top-up feed, carrying no carbon. Dissolve the ammonium sulfate in purified water, then the iron and zinc salts, make up to volume and filter through 0.2 µm. Wear eye protection: the solution is acidic. No calcium or phosphate here: with this much sulfate they would precipitate.'
 	},
 	{
 		name: 'PPN Glucose Feed B1',
@@ -243,6 +242,8 @@ function versionIdOf(recipeName: string): string | null {
 
 const idByName = (table: typeof organismProfile | typeof vessel, name: string) => db.select({ id: table.id }).from(table).where(eq(table.name, name)).get()?.id ?? null;
 
+const DEMO_DOSTAT = { glycerolL: 3, startH: 24, pumpLPerH: 0.08, topUpL: 0.4, topUpStartH: 24, target: 55 };
+
 interface DemoFeed {
 	recipe: string;
 	volumeL: number;
@@ -300,26 +301,26 @@ export const DEMO_STUDIES: DemoStudy[] = [
 		}
 	},
 	{
-		name: 'Bacterium DO-stat with salts feed, bench (demo)',
-		basal: 'NB-Min Salts 3',
-		profile: 'Demo bacterium PPN-B1',
+		name: 'Yeast DO-stat with nitrogen top-up, bench (demo)',
+		basal: 'PPN Yeast-Glycerol A',
+		profile: 'Demo yeast PPN-Y2',
 		vessel: 'Bench stirred tank BST-10',
 		feeds: [
-			{ recipe: 'PPN Glucose Feed B1', volumeL: 1.5, plan: { Strategy: 'doStat', StartH: 8, DoSetpointPercent: 40, MaxRateLPerH: 0.15 } },
-			{ recipe: 'PPN Salts Feed B2', volumeL: 0.4, plan: { Strategy: 'constant', StartH: 8 } }
+			{ recipe: 'PPN Glycerol Feed Y2', volumeL: DEMO_DOSTAT.glycerolL, plan: { Strategy: 'doStat', StartH: DEMO_DOSTAT.startH, DoSetpointPercent: 35, MaxRateLPerH: DEMO_DOSTAT.pumpLPerH } },
+			{ recipe: 'PPN Nitrogen Top-up N2', volumeL: DEMO_DOSTAT.topUpL, plan: { Strategy: 'constant', StartH: DEMO_DOSTAT.topUpStartH } }
 		],
 		plan: {
 			targetBasis: 'biomassGPerL',
-			targetValue: 30,
+			targetValue: DEMO_DOSTAT.target,
 			initialVolumeL: 5,
-			inoculumDensity: 0.05,
-			durationH: 24,
-			temperatureC: 37,
-			pressureKPa: 130,
-			o2MoleFraction: 0.4,
+			inoculumDensity: 0.2,
+			durationH: 60,
+			temperatureC: 30,
+			pressureKPa: 120,
+			o2MoleFraction: 0.5,
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
-			notes: 'Demo study: glucose fed on DO-stat (the pump runs while DO is above 40 % of air saturation), salts fed at a constant rate alongside; O2-enriched air.'
+			notes: 'Demo study: glycerol-salts feed on DO-stat (the pump runs while DO is above 35 % of air saturation, that is once the batch glycerol is gone), with a constant nitrogen and trace-metal top-up alongside; O2-enriched air.'
 		}
 	}
 ];

@@ -16,7 +16,7 @@ import { listYieldsUsed, requireGrowthData, resolveOxygenYield, toSufficiencyPro
 import { findEmptyTime, findRunoutTimes } from './nutrient-runout';
 import { isControlled, simulatePlan } from './time-course';
 import { computeVesselKLa } from './vessels';
-import type { DefaultUsed, FeedReport, StudyInputs, StudyReport, WhatIf } from './types';
+import type { DefaultUsed, FeedReport, NutrientRow, StudyInputs, StudyReport, WhatIf } from './types';
 
 /** Denser than this is packed cells, not a broth: the densest fed-batch cultures reach about 150 g/L (common practice). */
 export const MAX_BIOMASS_G_PER_L = 200;
@@ -55,6 +55,20 @@ function targetBiomass(inputs: StudyInputs, targetValue: number): { biomassGPerL
 		);
 	}
 	return { biomassGPerL, cellsPerMl: targetValue };
+}
+
+/** What the run-out times mean for a real run, one sentence per nutrient that runs short. */
+function describeRunouts(lines: NutrientRow[], carbonName: string): string[] {
+	const short = lines.filter((l) => l.runout !== null).sort((a, b) => a.runout!.shortFromH - b.runout!.shortFromH);
+	if (short.length === 0) return [];
+	return [
+		`The time course grows on ${carbonName} alone; the other nutrients are followed by their demand per g of biomass.`,
+		...short.map(({ name, runout }) =>
+			runout!.coveredAgainH === null
+				? `${name} runs out at about ${runout!.shortFromH.toFixed(0)} h and stays short: a real run would stop growing there.`
+				: `${name} is used up at about ${runout!.shortFromH.toFixed(0)} h and covered again from about ${runout!.coveredAgainH.toFixed(0)} h, when a feed brings more: growth would pause or slow in between.`
+		)
+	];
 }
 
 function withoutDeliveries<T extends { deliveries: unknown }>(course: T): Omit<T, 'deliveries'> {
@@ -165,7 +179,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		...l,
 		name: nameOf(l.key, l.basis),
 		// The model follows the carbon source itself: its exhaustion is an event of the time course.
-		runsOutAtH: l.basis === 'component' && l.key === growth.carbonSourceId ? null : runouts[i]
+		runout: l.basis === 'component' && l.key === growth.carbonSourceId ? null : runouts[i]
 	}));
 	const limitLine = lines.reduce((min, l) => (l.ratio < min.ratio ? l : min), lines[0]);
 	const nutrientsOk = sufficiency.sufficient;
@@ -187,12 +201,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 			reasons.push(`${f.label} runs dry at about ${f.emptyAtH.toFixed(0)} h: its plan would draw ${f.deliveredL!.toPrecision(3)} L, but ${f.volumeL} L are available.`);
 		}
 	}
-	const firstRunout = lines.filter((l) => l.runsOutAtH !== null).sort((a, b) => a.runsOutAtH! - b.runsOutAtH!)[0];
-	if (firstRunout && !('message' in course)) {
-		notes.push(
-			`The time course grows on ${nameOf(growth.carbonSourceId, 'component')} alone; by its demand per g of biomass, ${firstRunout.name} runs out at about ${firstRunout.runsOutAtH!.toFixed(0)} h, where a real run would stop growing.`
-		);
-	}
+	if (!('message' in course)) notes.push(...describeRunouts(lines, nameOf(growth.carbonSourceId, 'component')));
 
 	let peakOurMmolPerLH: number;
 	let peakOurOrigin: string;

@@ -13,17 +13,25 @@ export interface RunoutInput {
 	course: PlanCourse;
 }
 
+export interface Runout {
+	/** When the culture has first taken all that was supplied by then. */
+	shortFromH: number;
+	/** When later feeding covers it again; null when it stays short to the end. */
+	coveredAgainH: number | null;
+}
+
 /**
  * When each nutrient runs out along the simulated run. Every requirement line is linear in biomass
  * (g per g dry biomass, or per cell at a fixed cell mass), so by time t the culture has taken
  * r·X(t)·V(t) with r = demand / target biomass, as the sufficiency table counts it; the supply by
  * then is the basal amount plus each feed's concentration times the volume it has delivered. The
- * first time the first exceeds the second (linearly interpolated between output points) is the
- * run-out time; null when it never does.
+ * first time the first exceeds the second (linearly interpolated between output points) is when it
+ * runs short; a feed may cover it again later. Null when it never runs short.
  */
-export function findRunoutTimes(input: RunoutInput): (number | null)[] {
+export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
 	const { course } = input;
 	const { t, biomassGPerL, volumeL } = course;
+	const crossing = (i: number, before: number, after: number) => t[i - 1] + ((t[i] - t[i - 1]) * -before) / (after - before);
 	return input.lines.map((line) => {
 		const perGBiomass = line.demandGPerL / input.targetBiomassGPerL;
 		const conc = (source: StudySource) => (line.basis === 'element' ? source.composition.elementsGPerL : source.composition.componentsGPerL)[line.key] ?? 0;
@@ -34,14 +42,19 @@ export function findRunoutTimes(input: RunoutInput): (number | null)[] {
 			input.feeds.forEach((_, k) => (supply += feedConc[k] * Math.min(course.deliveries[k].cumulativeL[i], input.availableL[k])));
 			return perGBiomass * biomassGPerL[i] * volumeL[i] - supply;
 		};
+		let shortFromH: number | null = null;
+		let coveredAgainH: number | null = null;
 		let previous = deficit(0);
-		if (previous > 0) return t[0];
+		if (previous > 0) shortFromH = t[0];
 		for (let i = 1; i < t.length; i++) {
 			const current = deficit(i);
-			if (current > 0) return t[i - 1] + ((t[i] - t[i - 1]) * -previous) / (current - previous);
+			if (current > 0 && previous <= 0) {
+				shortFromH ??= crossing(i, previous, current);
+				coveredAgainH = null;
+			} else if (current <= 0 && previous > 0) coveredAgainH = crossing(i, previous, current);
 			previous = current;
 		}
-		return null;
+		return shortFromH === null ? null : { shortFromH, coveredAgainH };
 	});
 }
 

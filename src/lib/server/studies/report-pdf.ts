@@ -1,5 +1,5 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
-import { formatAmount, formatCells, formatDateTime } from '$lib/components/studies/format';
+import { formatAmount, formatCells, formatDateTime, formatRunout } from '$lib/components/studies/format';
 import { FEED_PLAN_LABELS, TARGET_BASIS_UNITS } from '$lib/studies';
 import { MARGIN, Writer } from '../pdf/layout';
 import { STUDY_CAUTIONS } from './evaluate';
@@ -78,7 +78,7 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 			{ header: 'Supply g/L', width: 65, align: 'right' },
 			{ header: 'Ratio', width: 50, align: 'right' },
 			{ header: 'Margin g/L', width: 65, align: 'right' },
-			{ header: 'Runs out', width: 55, align: 'right' },
+			{ header: 'Short from', width: 55, align: 'right' },
 			{ header: 'Check', width: 45 }
 		],
 		lines.map((l) => [
@@ -87,7 +87,7 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 			formatAmount(l.supplyGPerL),
 			formatAmount(l.ratio),
 			formatAmount(l.marginGPerL),
-			l.runsOutAtH === null ? '—' : `${formatAmount(l.runsOutAtH)} h`,
+			formatRunout(l.runout),
 			l.sufficient ? 'OK' : 'SHORT'
 		])
 	);

@@ -79,10 +79,16 @@ function studyFieldOf(field: string | undefined, streamFeeds: StudyFeedSource[],
 	return `feed${slot}${STREAM_FIELD_TO_SLOT[m[2]] ?? 'Strategy'}`;
 }
 
-/** Cumulative integral of a rate series by the trapezoid rule, rescaled to the exact total. */
-function cumulative(t: number[], rate: number[], totalL: number): number[] {
+/**
+ * Cumulative integral of a rate series by the trapezoid rule, rescaled to the exact total. The rate
+ * jumps from 0 at the stream's start, so the step that holds the start counts only from it.
+ */
+function cumulative(t: number[], rate: number[], startH: number, totalL: number): number[] {
 	const out = new Array<number>(t.length).fill(0);
-	for (let i = 1; i < t.length; i++) out[i] = out[i - 1] + 0.5 * (rate[i] + rate[i - 1]) * (t[i] - t[i - 1]);
+	for (let i = 1; i < t.length; i++) {
+		const step = t[i - 1] < startH ? rate[i] * Math.max(0, t[i] - startH) : 0.5 * (rate[i] + rate[i - 1]) * (t[i] - t[i - 1]);
+		out[i] = out[i - 1] + step;
+	}
 	const last = out[out.length - 1];
 	return last > 0 ? out.map((v) => (v * totalL) / last) : out;
 }
@@ -126,7 +132,7 @@ export function simulatePlan(run: PlanRun): PlanCourse | { message: string } {
 		const deliveries = run.feeds.map((f) => {
 			const k = streamFeeds.indexOf(f);
 			if (k < 0) return { deliveredL: 0, cumulativeL: new Array<number>(result.t.length).fill(0) };
-			return { deliveredL: streams[k].deliveredL, cumulativeL: cumulative(result.t, streams[k].feedLPerH, streams[k].deliveredL) };
+			return { deliveredL: streams[k].deliveredL, cumulativeL: cumulative(result.t, streams[k].feedLPerH, f.plan.startH, streams[k].deliveredL) };
 		});
 		return {
 			t: result.t,

@@ -1,5 +1,6 @@
 import type { SimulationEvent, SufficiencyLine } from '$chemistry';
 import type { OrganismProfileRow, StudyFeedRow, StudyRow, VesselRow } from '../db/schema';
+import type { Runout } from './nutrient-runout';
 
 /** What one recipe version puts into a litre of itself. */
 export interface SupplyComposition {
@@ -70,8 +71,8 @@ export type Check = 'ok' | 'short';
 
 export interface NutrientRow extends SufficiencyLine {
 	name: string;
-	/** When the simulated run has taken all of it; null when it lasts (or for the modelled carbon source). */
-	runsOutAtH: number | null;
+	/** When the simulated run has taken all of it (and when a feed covers it again); null when it lasts, and for the modelled carbon source. */
+	runout: Runout | null;
 }
 
 export interface FeedReport {
