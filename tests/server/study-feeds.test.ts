@@ -79,7 +79,7 @@ describe('feeds with their own plans', () => {
 		const n = report.nutrients.lines.find((l) => l.key === 'N')!;
 		expect(n.runout!.shortFromH).toBeLessThan(24);
 		expect(n.runout!.coveredAgainH!).toBeGreaterThan(24);
-		expect(report.notes.join(' ')).toMatch(/N is used up at about \d+ h and covered again from about \d+ h/);
+		expect(report.warnings.join(' ')).toMatch(/N is used up at about \d+ h and covered again from about \d+ h/);
 		// Without the feeds it stays short.
 		const batch = structuredClone(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
 		batch.feeds = [];

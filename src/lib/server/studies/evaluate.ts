@@ -57,18 +57,26 @@ function targetBiomass(inputs: StudyInputs, targetValue: number): { biomassGPerL
 	return { biomassGPerL, cellsPerMl: targetValue };
 }
 
-/** What the run-out times mean for a real run, one sentence per nutrient that runs short. */
-function describeRunouts(lines: NutrientRow[], carbonName: string): string[] {
+/**
+ * What the run-out times mean for a real run. A lasting shortfall is already a reason (its ratio is
+ * below 1); one the feeds make good later is a warning: the totals hold, but growth would pause or
+ * slow in between, which the time course (growing on the carbon source alone) does not show.
+ */
+function describeRunouts(lines: NutrientRow[], carbonName: string): { notes: string[]; warnings: string[] } {
 	const short = lines.filter((l) => l.runout !== null).sort((a, b) => a.runout!.shortFromH - b.runout!.shortFromH);
-	if (short.length === 0) return [];
-	return [
-		`The time course grows on ${carbonName} alone; the other nutrients are followed by their demand per g of biomass.`,
-		...short.map(({ name, runout }) =>
-			runout!.coveredAgainH === null
-				? `${name} runs out at about ${runout!.shortFromH.toFixed(0)} h and stays short: a real run would stop growing there.`
-				: `${name} is used up at about ${runout!.shortFromH.toFixed(0)} h and covered again from about ${runout!.coveredAgainH.toFixed(0)} h, when a feed brings more: growth would pause or slow in between.`
+	if (short.length === 0) return { notes: [], warnings: [] };
+	const lasting = short.filter((l) => l.runout!.coveredAgainH === null);
+	const passing = short.filter((l) => l.runout!.coveredAgainH !== null);
+	return {
+		notes: [
+			`The time course grows on ${carbonName} alone; the other nutrients are followed by their demand per g of biomass.`,
+			...lasting.map(({ name, runout }) => `${name} runs out at about ${runout!.shortFromH.toFixed(0)} h and stays short: a real run would stop growing there.`)
+		],
+		warnings: passing.map(
+			({ name, runout }) =>
+				`${name} is used up at about ${runout!.shortFromH.toFixed(0)} h and covered again from about ${runout!.coveredAgainH!.toFixed(0)} h, when a feed brings more: growth would pause or slow in between, so the run may take longer than simulated.`
 		)
-	];
+	};
 }
 
 function withoutDeliveries<T extends { deliveries: unknown }>(course: T): Omit<T, 'deliveries'> {
@@ -201,7 +209,12 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 			reasons.push(`${f.label} runs dry at about ${f.emptyAtH.toFixed(0)} h: its plan would draw ${f.deliveredL!.toPrecision(3)} L, but ${f.volumeL} L are available.`);
 		}
 	}
-	if (!('message' in course)) notes.push(...describeRunouts(lines, nameOf(growth.carbonSourceId, 'component')));
+	const warnings: string[] = [];
+	if (!('message' in course)) {
+		const runouts = describeRunouts(lines, nameOf(growth.carbonSourceId, 'component'));
+		notes.push(...runouts.notes);
+		warnings.push(...runouts.warnings);
+	}
 
 	let peakOurMmolPerLH: number;
 	let peakOurOrigin: string;
@@ -277,6 +290,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	return {
 		verdict: reasons.length === 0 ? 'supported' : 'not supported',
 		reasons,
+		warnings,
 		inputs: {
 			targetValue,
 			targetBasis: plan.targetBasis,

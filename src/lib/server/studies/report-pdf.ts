@@ -65,6 +65,11 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	const cells = report.limit.maxCellsPerMl !== null ? ` (${formatCells(report.limit.maxCellsPerMl)} cells/mL)` : '';
 	w.text(`Limiting: ${report.limit.name} · maximum supportable about ${formatAmount(report.limit.maxBiomassGPerL)} g/L${cells} against the target ${formatAmount(report.inputs.targetBiomassGPerL)} g/L.`);
 	for (const reason of report.reasons) w.text(`- ${reason}`, { x: MARGIN + 8 });
+	if (report.warnings.length > 0) {
+		w.gap(4);
+		w.text('Watch during the run', { bold: true, color: CAUTION_COLOR });
+		for (const warning of report.warnings) w.text(`- ${warning}`, { x: MARGIN + 8, color: CAUTION_COLOR });
+	}
 	w.gap(10);
 
 	w.text(`Nutrients: ${report.nutrients.check}`, { bold: true, size: 11 });

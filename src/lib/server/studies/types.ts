@@ -109,6 +109,8 @@ export interface StudyReport {
 	verdict: 'supported' | 'not supported';
 	/** Why not, one sentence each; empty when supported. */
 	reasons: string[];
+	/** What holds in total but not all along, e.g. a nutrient used up before a feed brings more. */
+	warnings: string[];
 	inputs: {
 		targetValue: number;
 		targetBasis: StudyRow['targetBasis'];
