@@ -1,5 +1,5 @@
 import { ChemistryInputError } from '../errors';
-import { C, P, S, V, X, type FeedLaw, type ModelParameters } from './model';
+import { C, MAX_INFLOW_VOLUMES_PER_H, P, S, V, X, type FeedLaw, type ModelParameters } from './model';
 import type { FeedPlan } from './validate';
 
 /** Substrate-stat correction rate k = 10·μmax: S settles on the setpoint much faster than X grows. */
@@ -92,7 +92,14 @@ export function createFeedLaw(
 						{ field }
 					);
 				}
-				return f > fMax ? fMax : f;
+				const rate = f > fMax ? fMax : f;
+				if (rate > MAX_INFLOW_VOLUMES_PER_H * y[V]) {
+					throw new ChemistryInputError(
+						`The feed expression gives ${rate.toPrecision(3)} L/h at t = ${tH.toFixed(3)} h, more than ${MAX_INFLOW_VOLUMES_PER_H} times the culture volume (${y[V].toPrecision(3)} L) per hour: check its units (L/h) or give feed.maxRateLPerH.`,
+						{ field }
+					);
+				}
+				return rate;
 			};
 		}
 	}

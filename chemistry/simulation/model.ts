@@ -46,6 +46,12 @@ export const OXYGEN_LIMITED_FRACTION_OF_SATURATION = 0.05;
  */
 export const OXYGEN_QUASI_STEADY_RATIO = 1000;
 
+/**
+ * A typed feed law that brings in more than this many culture volumes per hour is a unit slip, not a
+ * plan (a plausibility guard; real fed-batch feeds run far below one volume per hour).
+ */
+export const MAX_INFLOW_VOLUMES_PER_H = 1000;
+
 /** Washout: biomass below 1 % of its value when continuous operation (or the first draw cycle) began. */
 export const WASHOUT_FRACTION = 0.01;
 

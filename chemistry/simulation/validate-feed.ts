@@ -1,7 +1,7 @@
 // Reading the fed-batch feed: the single `feed`, or the several streams of `feeds`.
 import { ChemistryInputError } from '../errors';
 import { compileFeedExpression, type FeedExpression } from './expression';
-import { V } from './model';
+import { MAX_INFLOW_VOLUMES_PER_H, V } from './model';
 import { isGiven, NON_NEGATIVE, POSITIVE, readNumber, readOptional } from './read-number';
 import type { FeedInput, SimulationRequest } from './types';
 import type { SimulationPlan } from './validate';
@@ -192,12 +192,16 @@ export function readFedBatchFeed(
 		}
 	};
 	switch (strategy) {
-		case 'constant':
-			return {
-				...common,
-				strategy,
-				rateLPerH: readNumber(feed.rateLPerH, `${field}.rateLPerH`, POSITIVE)
-			};
+		case 'constant': {
+			const rateLPerH = readNumber(feed.rateLPerH, `${field}.rateLPerH`, POSITIVE);
+			if (rateLPerH > MAX_INFLOW_VOLUMES_PER_H * v0) {
+				throw new ChemistryInputError(
+					`${field}.rateLPerH (${rateLPerH} L/h) would bring in more than ${MAX_INFLOW_VOLUMES_PER_H} times the initial volume (${v0} L) per hour: check its units (L/h).`,
+					{ field: `${field}.rateLPerH` }
+				);
+			}
+			return { ...common, strategy, rateLPerH };
+		}
 		case 'linear': {
 			const rateLPerH = readNumber(feed.rateLPerH, `${field}.rateLPerH`, NON_NEGATIVE);
 			const slopeLPerH2 = readNumber(feed.slopeLPerH2, `${field}.slopeLPerH2`);

@@ -47,7 +47,8 @@ export const FEED_PLAN_LABELS: Record<FeedPlanStrategy, string> = {
 /** Plans whose rate follows the culture: their volume is what is available, not what is delivered. */
 export const CONTROLLED_FEED_PLANS: readonly FeedPlanStrategy[] = ['substrateStat', 'doStat'];
 
-export interface FeedPlanText {
+/** How one feed is fed: its plan, its start and the plan's own settings. */
+export interface FeedPlan {
 	strategy: FeedPlanStrategy;
 	startH: number;
 	muSetPerH: number | null;
@@ -57,7 +58,7 @@ export interface FeedPlanText {
 }
 
 /** One feed's plan in words, e.g. "DO-stat above 40 % DO, at most 0.15 L/h, from 8 h; 1.5 L available". */
-export function describeFeedPlan(plan: FeedPlanText, volumeL: number): string {
+export function describeFeedPlan(plan: FeedPlan, volumeL: number): string {
 	const from = `from ${plan.startH} h`;
 	switch (plan.strategy) {
 		case 'constant':

@@ -33,3 +33,17 @@ describe('openapi.json stays true to the endpoints', () => {
 		expect(Object.keys(session.requestBody.content['application/json'].schema.properties)).toEqual(['email', 'password']);
 	});
 });
+
+describe('the error responses it documents', () => {
+	it('lists 404 for a path with an id, and the 409 and 422 an operation can answer', () => {
+		const doc = buildOpenApiDocument('http://localhost') as { paths: Record<string, Record<string, { responses: Record<string, unknown> }>> };
+		const codes = (path: string, method: string) => Object.keys(doc.paths[path][method].responses);
+		expect(codes('/api/v1/lots/{id}', 'get')).toContain('404');
+		expect(codes('/api/v1/simulate', 'post')).toEqual(expect.arrayContaining(['200', '400', '401', '422']));
+		expect(codes('/api/v1/studies/evaluate', 'post')).toEqual(expect.arrayContaining(['400', '401', '403', '404', '422']));
+		expect(codes('/api/v1/scenarios', 'post')).toContain('409');
+		expect(codes('/api/v1/health', 'get')).not.toContain('404');
+		const doc2 = doc as unknown as { components: { responses: Record<string, unknown> } };
+		for (const status of ['404', '409', '422']) expect(doc2.components.responses[`Problem${status}`]).toBeDefined();
+	});
+});

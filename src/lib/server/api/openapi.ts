@@ -19,6 +19,8 @@ export interface ApiOperation {
 	response?: z.ZodType;
 	responseDescription?: string;
 	successStatus?: number;
+	/** Problems beyond the ones every operation of its kind has (400, 401, 403; 404 with a path id). */
+	errors?: (404 | 409 | 422)[];
 }
 
 const problemSchema = {
@@ -66,10 +68,14 @@ export function buildOpenApiDocument(origin: string) {
 				statuses.map((s) => [String(s), { $ref: `#/components/responses/Problem${s}` }])
 			);
 		const errorStatuses = [
-			...(op.request ? [400] : []),
-			...(op.access === 'public' ? [] : [401]),
-			...(Array.isArray(op.access) ? [403] : [])
-		];
+			...new Set([
+				...(op.request ? [400] : []),
+				...(op.access === 'public' ? [] : [401]),
+				...(Array.isArray(op.access) ? [403] : []),
+				...(op.path.includes('{') ? [404] : []),
+				...(op.errors ?? [])
+			])
+		].sort();
 		paths[op.path] ??= {};
 		paths[op.path][op.method] = {
 			summary: op.summary,
@@ -119,7 +125,10 @@ export function buildOpenApiDocument(origin: string) {
 			responses: {
 				Problem400: problemResponse('Invalid input; `errors` lists each field path'),
 				Problem401: problemResponse('Not signed in'),
-				Problem403: problemResponse('Signed in without a role this needs')
+				Problem403: problemResponse('Signed in without a role this needs'),
+				Problem404: problemResponse('No such record (or not one this person may see)'),
+				Problem409: problemResponse('Changed by someone else meanwhile, or in a state that forbids this; reload and retry'),
+				Problem422: problemResponse('Well-formed input that the science cannot use, e.g. a run the integrator cannot follow or a profile missing data; `detail` says why')
 			}
 		}
 	};

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { AIR_O2_MOLE_FRACTION, DEFAULT_SAFETY_FACTOR } from '$chemistry';
-import { FEED_PLAN_STRATEGIES, TARGET_BASES, type FeedPlanStrategy } from '$lib/studies';
+import { FEED_PLAN_STRATEGIES, TARGET_BASES, type FeedPlan, type FeedPlanStrategy } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { organismProfile, recipe, recipeVersion, study, studyFeed, vessel } from '../db/schema';
@@ -37,15 +37,9 @@ function slotShape(slot: number) {
 const feedSlots = Object.assign({}, ...Array.from({ length: FEED_SLOTS }, (_, i) => slotShape(i + 1))) as ReturnType<typeof slotShape>;
 
 /** One feed of a study with its own plan, as stored in `study_feed`. */
-export interface StudyFeedPlan {
+export interface StudyFeedPlan extends FeedPlan {
 	versionId: string;
 	volumeL: number;
-	strategy: FeedPlanStrategy;
-	startH: number;
-	muSetPerH: number | null;
-	setpointGPerL: number | null;
-	doSetpointPercent: number | null;
-	maxRateLPerH: number | null;
 }
 
 export const studySchema = z.object({

@@ -1,6 +1,7 @@
 import type { SimulationEvent, SufficiencyLine } from '$chemistry';
 import type { OrganismProfileRow, StudyFeedRow, StudyRow, VesselRow } from '../db/schema';
 import type { Runout } from './nutrient-runout';
+import type { FeedPlan } from '$lib/studies';
 
 /** What one recipe version puts into a litre of itself. */
 export interface SupplyComposition {
@@ -18,10 +19,7 @@ export interface StudySource {
 	temperatureC: number;
 }
 
-/** How one feed is fed: its own plan, start and limits. */
-export type FeedPlanFields = Pick<StudyFeedRow, 'strategy' | 'startH' | 'muSetPerH' | 'setpointGPerL' | 'doSetpointPercent' | 'maxRateLPerH'>;
-
-export type StudyFeedSource = StudySource & { volumeL: number; plan: FeedPlanFields };
+export type StudyFeedSource = StudySource & { volumeL: number; plan: FeedPlan };
 
 export type StudyPlan = Pick<
 	StudyRow,

@@ -29,7 +29,8 @@ export const batchesOperations: ApiOperation[] = [
 		summary: 'Plans a batch from an approved recipe version and a volume; the number follows the site pattern',
 		access: ['prep_technician', 'media_scientist', 'engineer'],
 		request: batchCreateRequest,
-		successStatus: 201
+		successStatus: 201,
+		errors: [404, 409]
 	},
 	{
 		method: 'get',

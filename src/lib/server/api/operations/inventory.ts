@@ -44,7 +44,8 @@ export const inventoryOperations: ApiOperation[] = [
 		summary: 'Receives a lot into quarantine with its receipt ledger entry. Field problems come back as errors at their field',
 		access: ['inventory_lead'],
 		request: lotCreateRequest,
-		successStatus: 201
+		successStatus: 201,
+		errors: [404, 409]
 	},
 	{ method: 'get', path: '/api/v1/lots/{id}', summary: 'One lot with its ledger, certificates and where-used (batches that used it)', access: 'signed-in' }
 ];

@@ -184,7 +184,8 @@ export const simulationOperations: ApiOperation[] = [
 			'Simulates a batch, fed-batch, chemostat, perfusion or draw-fill run (Monod growth, Pirt maintenance, Luedeking–Piret product, optional O2 balance) and returns the series at the output times with the events. A run that cannot be integrated answers 422. Results are model estimates',
 		access: 'signed-in',
 		request: simulateRequest,
-		response: simulateResponse
+		response: simulateResponse,
+		errors: [422]
 	},
 	{
 		method: 'post',
@@ -225,7 +226,8 @@ export const simulationOperations: ApiOperation[] = [
 		access: simulationRoles,
 		request: scenarioCreateRequest,
 		response: scenarioResponse,
-		successStatus: 201
+		successStatus: 201,
+		errors: [409]
 	},
 	{
 		method: 'get',
@@ -240,7 +242,8 @@ export const simulationOperations: ApiOperation[] = [
 		summary: 'Renames a scenario or changes its notes',
 		access: simulationRoles,
 		request: scenarioUpdateRequest,
-		response: scenarioResponse
+		response: scenarioResponse,
+		errors: [409]
 	},
 	{
 		method: 'delete',

@@ -33,13 +33,15 @@ export const studiesOperations: ApiOperation[] = [
 		path: '/api/v1/studies/evaluate',
 		summary: 'Evaluates a saved study with what-if changes (target, feed volume, kLa, O2 fraction, temperature): verdict, limit, per-nutrient table, oxygen, heat, volume, time course, defaults used',
 		access: roles,
-		request: evaluateRequest
+		request: evaluateRequest,
+		errors: [404, 422]
 	},
 	{
 		method: 'post',
 		path: '/api/v1/studies/{id}/feed-design',
 		summary: "Proposes a feed concentrate (g/L per component) that covers every nutrient at the study's target and safety factor within solubility and vessel volume, or says why it cannot",
 		access: roles,
-		request: feedDesignRequest
+		request: feedDesignRequest,
+		errors: [422]
 	}
 ];
