@@ -167,6 +167,9 @@ describe('bad feed plans', () => {
 	it('refuses a substrate-stat plan on a feed that carries no carbon source', () => {
 		const e = refused({ feed2Strategy: 'substrateStat', feed2SetpointGPerL: 0.5, feed2MaxRateLPerH: 0.1 });
 		expect(e.field).toBe('feed2Strategy');
-		expect(e.message).toMatch(/substrate- or DO-stat feed/);
+		expect(e.message).toMatch(/PPN Nitrogen Top-up N2 v1 carries no Glycerol, so a substrate-stat plan cannot hold Glycerol at its setpoint/);
+		const high = refused({ feed1Strategy: 'substrateStat', feed1SetpointGPerL: 600, feed1MaxRateLPerH: 0.1 });
+		expect(high.field).toBe('feed1Strategy');
+		expect(high.message).toMatch(/not more than the setpoint of 600 g\/L/);
 	});
 });

@@ -54,8 +54,19 @@ function toStream(run: PlanRun, feed: StudyFeedSource): FeedInput {
 			const f0 = (feed.volumeL * mu) / Math.expm1(mu * spanH);
 			return { ...common, strategy: 'expression', expression: `${f0} * exp(${mu} * (t - ${plan.startH}))` };
 		}
-		case 'substrateStat':
+		case 'substrateStat': {
+			const slot = run.feeds.indexOf(feed) + 1;
+			const carbon = run.inputs.componentNames[run.growth.carbonSourceId] ?? run.growth.carbonSourceId;
+			const initialGPerL = run.inputs.basal.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0;
+			if (substrateGPerL <= plan.setpointGPerL! || substrateGPerL <= initialGPerL) {
+				const what = substrateGPerL === 0 ? `carries no ${carbon}` : `carries ${substrateGPerL.toPrecision(3)} g/L ${carbon}, not more than ${substrateGPerL <= plan.setpointGPerL! ? `the setpoint of ${plan.setpointGPerL} g/L` : `the basal medium's ${initialGPerL.toPrecision(3)} g/L`}`;
+				throw new RuleError(`${feed.label} ${what}, so a substrate-stat plan cannot hold ${carbon} at its setpoint with it. Choose another plan for this feed, or a feed that carries more ${carbon}.`, {
+					field: `feed${slot}Strategy`,
+					status: 422
+				});
+			}
 			return { ...common, strategy: 'substrateStat', setpointGPerL: plan.setpointGPerL!, maxRateLPerH: plan.maxRateLPerH! };
+		}
 		case 'doStat':
 			return { ...common, strategy: 'doStat', doSetpointMgPerL: (plan.doSetpointPercent! / 100) * run.airSaturationMgPerL, maxRateLPerH: plan.maxRateLPerH! };
 	}
