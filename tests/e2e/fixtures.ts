@@ -22,11 +22,22 @@ export async function signInWithForm(page: Page, email: string, password = DEMO_
 
 /**
  * `test.use({ role: 'engineer' })` gives a page already signed in as that demo account
- * (through the session endpoint, which sets the same cookie as the form).
+ * (through the session endpoint, which sets the same cookie as the form). Every test also fails
+ * on an uncaught error in the page: a broken render can otherwise pass as a slow one.
  */
 export const test = base.extend<{ role: DemoRole | null }>({
 	role: [null, { option: true }],
 	page: async ({ page, role }, use) => {
+		const pageErrors: string[] = [];
+		page.on('pageerror', (error) => pageErrors.push(error.message));
+		// Typing into the server-rendered page before its scripts take over can be lost, so every
+		// page opened with goto is awaited until the app marks itself hydrated (root layout).
+		const goto = page.goto.bind(page);
+		page.goto = async (url, options) => {
+			const response = await goto(url, options);
+			if (response?.headers()['content-type']?.includes('text/html')) await page.locator('html[data-hydrated]').waitFor({ state: 'attached' });
+			return response;
+		};
 		if (role) {
 			const response = await page.request.post('/api/v1/session', {
 				data: { email: DEMO[role], password: DEMO_PASSWORD }
@@ -34,6 +45,7 @@ export const test = base.extend<{ role: DemoRole | null }>({
 			expect(response.status(), await response.text()).toBe(200);
 		}
 		await use(page);
+		expect(pageErrors, 'uncaught errors in the page').toEqual([]);
 	}
 });
 

@@ -33,9 +33,13 @@ test.describe('a media scientist', () => {
 		test.setTimeout(90_000);
 		const name = `E2E salts ${Date.now()}`;
 		await page.goto('/recipes');
+		await expect(page.locator('html[data-hydrated]')).toBeAttached();
 		await page.getByRole('link', { name: 'New recipe' }).click();
+		// The link navigates in the page: type only once the new page is there, or the typing is lost.
+		await expect(page.getByRole('heading', { name: 'New recipe', level: 1 })).toBeVisible();
 		await page.getByLabel('Name').fill(name);
 		await page.getByLabel('Kind').selectOption('basal');
+		await expect(page.getByLabel('Name')).toHaveValue(name);
 		await page.getByRole('button', { name: 'Create and edit' }).click();
 		await expect(page.getByRole('heading', { name: `Edit ${name} · version 1` })).toBeVisible();
 

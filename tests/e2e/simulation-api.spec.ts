@@ -60,13 +60,28 @@ test.describe('simulation endpoints, signed in', () => {
 	}
 
 	test('simulate: a run the integrator cannot follow is a 422 that says so, not numbers', async ({ page }) => {
+		// The feed switches on at S = 0.2 and uptake pulls S straight back: the state chatters on the
+		// switch and the step size collapses.
 		const response = await page.request.post('/api/v1/simulate', {
-			data: { ...fedBatch, maxVolumeL: undefined, feed: { strategy: 'expression', substrateGPerL: 500, expression: '1e300 * exp(t)' } }
+			data: {
+				mode: 'fedBatch',
+				kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 },
+				initial: { biomassGPerL: 0.5, substrateGPerL: 1, volumeL: 1 },
+				feed: { strategy: 'expression', substrateGPerL: 200, expression: 'S < 0.2 ? 0.05 : 0' },
+				endH: 20,
+				outputEveryH: 1
+			}
 		});
 		expect(response.status()).toBe(422);
 		const body = await response.json();
 		expect(body.detail).toMatch(/did not converge/);
 		expect(body).not.toHaveProperty('t');
+		// An absurd rate is an input mistake, named at its field, not a failed integration.
+		const absurd = await page.request.post('/api/v1/simulate', {
+			data: { ...fedBatch, maxVolumeL: undefined, feed: { strategy: 'expression', substrateGPerL: 500, expression: '1e300 * exp(t)' } }
+		});
+		expect(absurd.status()).toBe(400);
+		expect(JSON.stringify(await absurd.json())).toContain('feed.expression');
 	});
 
 	test('chemostat: the steady state matches the closed form and comes with a sweep', async ({ page }) => {
