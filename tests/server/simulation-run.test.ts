@@ -34,7 +34,15 @@ describe('the simulate endpoint’s mapping', () => {
 	});
 
 	it('turns an integration that cannot go on into a 422 problem that says where it stopped', () => {
-		const body = simulateRequest.parse({ ...fedBatch, feed: { ...fedBatch.feed, expression: '1e300 * exp(t)' } });
+		// The feed switches on at S = 0.2 and uptake pulls S straight back: the state chatters on the switch.
+		const body = simulateRequest.parse({
+			mode: 'fedBatch',
+			kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 },
+			initial: { biomassGPerL: 0.5, substrateGPerL: 1, volumeL: 1 },
+			feed: { strategy: 'expression', substrateGPerL: 200, expression: 'S < 0.2 ? 0.05 : 0' },
+			endH: 20,
+			outputEveryH: 1
+		});
 		const failure = failureOf(() => runSimulation(body));
 		expect(failure).toBeInstanceOf(ApiProblem);
 		expect((failure as ApiProblem).status).toBe(422);
