@@ -1,5 +1,6 @@
 import type { SimulationEvent, SimulationEventKind } from '$chemistry';
 import { SCENARIO_DASHES, SERIES_COLOURS, type ChartMarker, type ChartSeries } from '$lib/components/charts/chart-types';
+import { feedStreamName, separateFeedStreams } from './feed-stream-results';
 import type { SimulationSeries } from './series-csv';
 
 export interface SimulationRunView {
@@ -33,6 +34,30 @@ function toPoints(t: number[], values: number[] | null): { x: number; y: number 
 	return t.map((x, i) => ({ x, y: values[i] }));
 }
 
+/** Colours of the separate feed streams, apart from the volume's blue and the total feed's brick. */
+const [green, grain, blue, brick, moss, plum] = SERIES_COLOURS;
+const STREAM_COLOURS = [green, grain, moss, plum];
+
+/**
+ * Each feed stream's rate beside the total, on the feed-rate axis; only runs with several streams
+ * have them (a lone stream's rate is the total).
+ */
+function feedStreamSeries(runs: SimulationRunView[]): ChartSeries[] {
+	const many = runs.length > 1;
+	return runs.flatMap((run, r) =>
+		separateFeedStreams(run.result).map((stream, i) => {
+			const name = feedStreamName(stream, i);
+			return {
+				label: many ? `${run.label}: ${name}` : name,
+				points: toPoints(run.result.t, stream.feedLPerH),
+				colour: STREAM_COLOURS[i % STREAM_COLOURS.length],
+				dash: SCENARIO_DASHES[r % SCENARIO_DASHES.length],
+				axis: 'y2' as const
+			};
+		})
+	);
+}
+
 /** The four chart groups; a second run is drawn in the same colours with a dashed line. */
 export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 	const many = runs.length > 1;
@@ -59,23 +84,25 @@ export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 				}))
 		)
 	});
-	const [green, grain, blue, brick, moss] = SERIES_COLOURS;
+	const streams = feedStreamSeries(runs);
+	const volume = chart(
+		'volume',
+		'Volume and feed rate',
+		'Volume (L)',
+		[
+			{ key: 'volumeL', label: 'Volume V', colour: blue },
+			{ key: 'feedLPerH', label: streams.length ? 'Total feed rate F' : 'Feed rate F', colour: brick, axis: 'y2' }
+		],
+		'Feed rate (L/h)'
+	);
+	volume.series.push(...streams);
 	const specs = [
 		chart('concentrations', 'Biomass, substrate and product', 'Concentration (g/L)', [
 			{ key: 'biomassGPerL', label: 'Biomass X', colour: green },
 			{ key: 'substrateGPerL', label: 'Substrate S', colour: grain },
 			{ key: 'productGPerL', label: 'Product P', colour: moss }
 		]),
-		chart(
-			'volume',
-			'Volume and feed rate',
-			'Volume (L)',
-			[
-				{ key: 'volumeL', label: 'Volume V', colour: blue },
-				{ key: 'feedLPerH', label: 'Feed rate F', colour: brick, axis: 'y2' }
-			],
-			'Feed rate (L/h)'
-		)
+		volume
 	];
 	if (runs.some((run) => run.result.dissolvedOxygenMgPerL !== null)) {
 		specs.push(chart('oxygen', 'Dissolved oxygen', 'DO (mg/L)', [{ key: 'dissolvedOxygenMgPerL', label: 'DO', colour: blue }]));

@@ -1,16 +1,32 @@
 // The simulation form's state and its translation to and from the request of POST /api/v1/simulate.
-// One table of fields drives rendering, request building and scenario loading, so they cannot drift.
-import type { FeedStrategy, OperatingMode, SimulationRequest } from '$chemistry';
+// One table of fields drives rendering, request building and scenario loading, so they cannot drift;
+// the feed streams' own table is in feed-stream-values.ts.
+import type { FeedInput, OperatingMode, SimulationRequest } from '$chemistry';
+import {
+	buildFeedInput,
+	createFeedStream,
+	MAX_FORM_FEED_STREAMS,
+	readFeedInput,
+	type FeedStreamValues
+} from './feed-stream-values';
+import { readNumberText } from './number-text';
+
+export { STRATEGY_LABELS } from './feed-stream-values';
 
 export type FieldGroup = 'kinetics' | 'initial' | 'feed' | 'oxygen' | 'operation';
 
 export interface SimulationFormValues {
 	mode: OperatingMode;
-	strategy: FeedStrategy;
 	oxygenBalance: boolean;
-	expression: string;
 	/** keyed by request path, e.g. `kinetics.muMaxPerH`; kept as typed so nothing is lost on error */
 	numbers: Record<string, string>;
+	/** at least one; fed-batch uses them all, the other modes only the first (their fresh medium) */
+	feeds: FeedStreamValues[];
+	/**
+	 * the streams go as `feeds` even when there is one: set when a scenario saved that way is loaded,
+	 * since a lone stream of `feeds` may carry no substrate, which the single `feed` refuses
+	 */
+	feedsAsList: boolean;
 }
 
 export interface NumberField {
@@ -23,10 +39,6 @@ export interface NumberField {
 }
 
 const fed = (v: SimulationFormValues) => v.mode === 'fedBatch';
-const fedWith =
-	(...strategies: FeedStrategy[]) =>
-	(v: SimulationFormValues) =>
-		fed(v) && strategies.includes(v.strategy);
 const continuous = (v: SimulationFormValues) => v.mode === 'chemostat' || v.mode === 'perfusion';
 
 export const MODE_LABELS: Record<OperatingMode, string> = {
@@ -35,15 +47,6 @@ export const MODE_LABELS: Record<OperatingMode, string> = {
 	chemostat: 'Chemostat',
 	perfusion: 'Perfusion',
 	drawFill: 'Draw-fill (repeated batch)'
-};
-
-export const STRATEGY_LABELS: Record<FeedStrategy, string> = {
-	constant: 'Constant rate',
-	linear: 'Linear ramp',
-	exponential: 'Exponential (μset)',
-	substrateStat: 'Substrate-stat',
-	doStat: 'DO-stat',
-	expression: 'Expression F(t, X, S, …)'
 };
 
 export const GROUP_LEGENDS: Record<FieldGroup, string> = {
@@ -65,28 +68,6 @@ export const NUMBER_FIELDS: NumberField[] = [
 	{ path: 'initial.substrateGPerL', label: 'Substrate S₀ (g/L)', group: 'initial', required: true },
 	{ path: 'initial.volumeL', label: 'Volume V₀ (L)', group: 'initial', required: true },
 	{ path: 'initial.productGPerL', label: 'Product P₀ (g/L)', group: 'initial', required: false, hint: 'Optional; default 0' },
-	{
-		path: 'feed.substrateGPerL',
-		label: 'Substrate in feed or fresh medium Sf (g/L)',
-		group: 'feed',
-		required: true,
-		shows: (v) => v.mode !== 'batch'
-	},
-	{ path: 'feed.startH', label: 'Start (h)', group: 'feed', required: false, hint: 'Batch phase before it; default 0', shows: (v) => v.mode !== 'batch' },
-	{ path: 'feed.rateLPerH', label: 'Feed rate F (L/h)', group: 'feed', required: true, shows: fedWith('constant', 'linear') },
-	{ path: 'feed.slopeLPerH2', label: 'Ramp slope (L/h²)', group: 'feed', required: true, shows: fedWith('linear') },
-	{ path: 'feed.muSetPerH', label: 'Set growth rate μset (1/h)', group: 'feed', required: true, shows: fedWith('exponential') },
-	{ path: 'feed.setpointGPerL', label: 'Substrate setpoint (g/L)', group: 'feed', required: true, shows: fedWith('substrateStat') },
-	{ path: 'feed.doSetpointMgPerL', label: 'DO setpoint (mg/L)', group: 'feed', required: true, shows: fedWith('doStat') },
-	{
-		path: 'feed.maxRateLPerH',
-		label: 'Pump maximum (L/h)',
-		group: 'feed',
-		required: (v) => v.strategy === 'doStat',
-		hint: 'Caps the feed rate',
-		shows: fedWith('linear', 'exponential', 'substrateStat', 'doStat', 'expression')
-	},
-	{ path: 'feed.bolusL', label: 'Bolus at start (L)', group: 'feed', required: false, hint: 'Optional', shows: fed },
 	{ path: 'oxygen.kLaPerH', label: 'kLa (1/h)', group: 'oxygen', required: true, shows: (v) => v.oxygenBalance },
 	{ path: 'oxygen.saturationMgPerL', label: 'DO saturation C* (mg/L)', group: 'oxygen', required: true, shows: (v) => v.oxygenBalance },
 	{ path: 'kinetics.yieldXO2', label: 'Yx/O₂ (g biomass / g O₂)', group: 'oxygen', required: true, shows: (v) => v.oxygenBalance },
@@ -116,15 +97,29 @@ export const NUMBER_FIELDS: NumberField[] = [
 	{ path: 'outputEveryH', label: 'Output every (h)', group: 'operation', required: true }
 ];
 
-export const EXPRESSION_PATH = 'feed.expression';
-
 /** A bacterium on glucose, exponentially fed after an 8 h batch, with an O2 balance. */
 export function createDemoValues(): SimulationFormValues {
 	return {
 		mode: 'fedBatch',
-		strategy: 'exponential',
 		oxygenBalance: true,
-		expression: '0.05 * exp(0.2 * (t - 8))',
+		feeds: [
+			createFeedStream({
+				strategy: 'exponential',
+				expression: '0.05 * exp(0.2 * (t - 8))',
+				numbers: {
+					substrateGPerL: '500',
+					startH: '8',
+					rateLPerH: '0.1',
+					slopeLPerH2: '0.02',
+					muSetPerH: '0.2',
+					setpointGPerL: '0.1',
+					doSetpointMgPerL: '2',
+					maxRateLPerH: '',
+					bolusL: ''
+				}
+			})
+		],
+		feedsAsList: false,
 		numbers: {
 			'kinetics.muMaxPerH': '0.6',
 			'kinetics.ksGPerL': '0.05',
@@ -136,15 +131,6 @@ export function createDemoValues(): SimulationFormValues {
 			'initial.substrateGPerL': '20',
 			'initial.volumeL': '5',
 			'initial.productGPerL': '',
-			'feed.substrateGPerL': '500',
-			'feed.startH': '8',
-			'feed.rateLPerH': '0.1',
-			'feed.slopeLPerH2': '0.02',
-			'feed.muSetPerH': '0.2',
-			'feed.setpointGPerL': '0.1',
-			'feed.doSetpointMgPerL': '2',
-			'feed.maxRateLPerH': '',
-			'feed.bolusL': '',
 			'oxygen.kLaPerH': '500',
 			'oxygen.saturationMgPerL': '7',
 			'kinetics.yieldXO2': '1',
@@ -182,14 +168,23 @@ function getPath(source: unknown, path: string): unknown {
 	return path.split('.').reduce<unknown>((node, key) => (node && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined), source);
 }
 
-/** Reads a number as people type it; a decimal comma is accepted, anything else is refused. */
-export function readNumberText(text: string): number | null {
-	const cleaned = text.trim().replace(/^([+-]?\d*),(\d+)$/, '$1.$2');
-	if (cleaned === '' || !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(cleaned)) return null;
-	return Number(cleaned);
+export type BuiltRequest = { ok: true; request: SimulationRequest } | { ok: false; fieldErrors: Record<string, string> };
+
+/** Whether the request carries the streams as `feeds` (so their fields are `feeds.N.…`) rather than `feed`. */
+export function usesFeedsList(values: SimulationFormValues): boolean {
+	return values.mode === 'fedBatch' && (values.feeds.length > 1 || values.feedsAsList);
 }
 
-export type BuiltRequest = { ok: true; request: SimulationRequest } | { ok: false; fieldErrors: Record<string, string> };
+/** The request path of a stream's fields: `feed`, or `feeds.N` with several streams. */
+export function feedStreamPath(values: SimulationFormValues, index: number): string {
+	return usesFeedsList(values) ? `feeds.${index}` : 'feed';
+}
+
+/** The streams the request carries: all of them in fed-batch, the fresh medium's in the other feeding modes. */
+export function feedStreamsUsed(values: SimulationFormValues): FeedStreamValues[] {
+	if (values.mode === 'batch') return [];
+	return values.mode === 'fedBatch' ? values.feeds : values.feeds.slice(0, 1);
+}
 
 /** The request for the fields now shown; a blank required field or a non-number is a field error. */
 export function buildSimulationRequest(values: SimulationFormValues): BuiltRequest {
@@ -206,23 +201,42 @@ export function buildSimulationRequest(values: SimulationFormValues): BuiltReque
 		if (value === null) fieldErrors[field.path] = `Enter a number (got “${text}”).`;
 		else setPath(request, field.path, value);
 	}
-	if (values.mode !== 'batch') setPath(request, 'feed.strategy', values.mode === 'fedBatch' ? values.strategy : 'constant');
-	if (values.mode === 'fedBatch' && values.strategy === 'expression') setPath(request, EXPRESSION_PATH, values.expression);
+	const feeds: FeedInput[] = [];
+	feedStreamsUsed(values).forEach((stream, i) => {
+		const built = buildFeedInput(stream, values.mode, feedStreamPath(values, i));
+		if (built.ok) feeds.push(built.feed);
+		else Object.assign(fieldErrors, built.fieldErrors);
+	});
 	if (Object.keys(fieldErrors).length) return { ok: false, fieldErrors };
+	if (usesFeedsList(values)) request.feeds = feeds;
+	else if (feeds.length) request.feed = feeds[0];
 	return { ok: true, request: request as unknown as SimulationRequest };
 }
 
-/** The form as it was when a scenario was saved; fields the scenario does not use keep the demo values. */
-export function readSimulationRequest(request: SimulationRequest): SimulationFormValues {
+export type ReadRequest = { ok: true; values: SimulationFormValues } | { ok: false; message: string };
+
+/**
+ * The form as it was when a scenario was saved; fields the scenario does not use keep the demo values.
+ * A scenario with more feed streams than the page edits is refused rather than cut.
+ */
+export function readSimulationRequest(request: SimulationRequest): ReadRequest {
+	const asList = request.mode === 'fedBatch' && Array.isArray(request.feeds) && request.feeds.length > 0;
+	const streams = asList ? request.feeds! : request.feed ? [request.feed] : [];
+	if (streams.length > MAX_FORM_FEED_STREAMS) {
+		return {
+			ok: false,
+			message: `This scenario has ${streams.length} feed streams and this page edits at most ${MAX_FORM_FEED_STREAMS}: the form is as you left it and the saved scenario is unchanged. To see its run, tick it and another scenario and overlay them.`
+		};
+	}
 	const values = createDemoValues();
 	values.mode = request.mode;
-	values.strategy = request.mode === 'fedBatch' && request.feed ? request.feed.strategy : values.strategy;
 	values.oxygenBalance = request.oxygen !== undefined && request.oxygen !== null;
-	if (typeof request.feed?.expression === 'string') values.expression = request.feed.expression;
+	values.feedsAsList = asList;
+	if (streams.length) values.feeds = streams.map((feed, i) => readFeedInput(feed, request.mode, i === 0 ? values.feeds[0] : createFeedStream()));
 	for (const field of NUMBER_FIELDS) {
 		if (!isFieldShown(field, values)) continue;
 		const value = getPath(request, field.path);
 		values.numbers[field.path] = typeof value === 'number' ? String(value) : '';
 	}
-	return values;
+	return { ok: true, values };
 }

@@ -1,4 +1,4 @@
-import { readNumberText } from './form-values';
+import { readNumberText } from './number-text';
 
 export interface SimpleField {
 	key: string;

@@ -1,7 +1,7 @@
 // Reading a run's CSV for the growth fit: file checks, column mapping and a verdict per row.
 // Runs in the browser (preview before anything is sent) and in tests.
 import Papa from 'papaparse';
-import { readNumberText } from './form-values';
+import { readNumberText } from './number-text';
 
 export const MAX_UPLOAD_BYTES = 2 * 1024 * 1024;
 const TEXT_TYPES = new Set(['', 'text/csv', 'text/plain', 'application/csv', 'application/vnd.ms-excel', 'text/comma-separated-values']);

@@ -1,0 +1,164 @@
+// One feed stream as the simulation form holds it, and its translation to and from a FeedInput.
+// The table of feed fields drives the stream's inputs, its part of the request and scenario loading.
+import type { FeedInput, FeedStrategy, OperatingMode } from '$chemistry';
+import { readNumberText } from './number-text';
+
+/** Streams the simulation page edits; the API takes more (the science library's MAX_FEED_STREAMS). */
+export const MAX_FORM_FEED_STREAMS = 3;
+/** The science library's MAX_FEED_LABEL_LENGTH, repeated so the browser does not load the solver. */
+export const FEED_LABEL_MAX_LENGTH = 80;
+
+export type FeedNumberKey =
+	| 'substrateGPerL'
+	| 'startH'
+	| 'rateLPerH'
+	| 'slopeLPerH2'
+	| 'muSetPerH'
+	| 'setpointGPerL'
+	| 'doSetpointMgPerL'
+	| 'maxRateLPerH'
+	| 'bolusL';
+
+export interface FeedStreamValues {
+	/** stays with the stream when others are added or removed: list key and focus target */
+	key: string;
+	label: string;
+	strategy: FeedStrategy;
+	expression: string;
+	/** kept as typed so nothing is lost on error */
+	numbers: Record<FeedNumberKey, string>;
+}
+
+export interface FeedNumberField {
+	key: FeedNumberKey;
+	label: string;
+	required: boolean | ((stream: FeedStreamValues) => boolean);
+	hint?: string;
+	shows: (stream: FeedStreamValues, mode: OperatingMode) => boolean;
+}
+
+export const STRATEGY_LABELS: Record<FeedStrategy, string> = {
+	constant: 'Constant rate',
+	linear: 'Linear ramp',
+	exponential: 'Exponential (μset)',
+	substrateStat: 'Substrate-stat',
+	doStat: 'DO-stat',
+	expression: 'Expression F(t, X, S, …)'
+};
+
+const fedWith =
+	(...strategies: FeedStrategy[]) =>
+	(stream: FeedStreamValues, mode: OperatingMode) =>
+		mode === 'fedBatch' && strategies.includes(stream.strategy);
+
+export const FEED_NUMBER_FIELDS: FeedNumberField[] = [
+	{ key: 'substrateGPerL', label: 'Substrate in feed or fresh medium Sf (g/L)', required: true, shows: (_, mode) => mode !== 'batch' },
+	{ key: 'startH', label: 'Start (h)', required: false, hint: 'Batch phase before it; default 0', shows: (_, mode) => mode !== 'batch' },
+	{ key: 'rateLPerH', label: 'Feed rate F (L/h)', required: true, shows: fedWith('constant', 'linear') },
+	{ key: 'slopeLPerH2', label: 'Ramp slope (L/h²)', required: true, shows: fedWith('linear') },
+	{ key: 'muSetPerH', label: 'Set growth rate μset (1/h)', required: true, shows: fedWith('exponential') },
+	{ key: 'setpointGPerL', label: 'Substrate setpoint (g/L)', required: true, shows: fedWith('substrateStat') },
+	{ key: 'doSetpointMgPerL', label: 'DO setpoint (mg/L)', required: true, shows: fedWith('doStat') },
+	{
+		key: 'maxRateLPerH',
+		label: 'Pump maximum (L/h)',
+		required: (stream) => stream.strategy === 'doStat',
+		hint: 'Caps the feed rate',
+		shows: fedWith('linear', 'exponential', 'substrateStat', 'doStat', 'expression')
+	},
+	{ key: 'bolusL', label: 'Bolus at start (L)', required: false, hint: 'Optional', shows: (_, mode) => mode === 'fedBatch' }
+];
+
+let lastStreamKey = 0;
+
+function blankNumbers(): Record<FeedNumberKey, string> {
+	return Object.fromEntries(FEED_NUMBER_FIELDS.map((field) => [field.key, ''])) as Record<FeedNumberKey, string>;
+}
+
+/** A stream as "Add a feed stream" gives it: constant, nothing typed yet. */
+export function createFeedStream(start: Partial<Omit<FeedStreamValues, 'key'>> = {}): FeedStreamValues {
+	lastStreamKey += 1;
+	return {
+		key: `feed-stream-${lastStreamKey}`,
+		label: '',
+		strategy: 'constant',
+		expression: '',
+		...start,
+		numbers: { ...blankNumbers(), ...start.numbers }
+	};
+}
+
+export function feedFieldsShown(stream: FeedStreamValues, mode: OperatingMode): FeedNumberField[] {
+	return FEED_NUMBER_FIELDS.filter((field) => field.shows(stream, mode));
+}
+
+export type BuiltFeed = { ok: true; feed: FeedInput } | { ok: false; fieldErrors: Record<string, string> };
+
+/** One stream's FeedInput; `path` (`feed` or `feeds.N`) names its fields in the errors. */
+export function buildFeedInput(stream: FeedStreamValues, mode: OperatingMode, path: string): BuiltFeed {
+	const feed: Record<string, unknown> = {};
+	const fieldErrors: Record<string, string> = {};
+	for (const field of feedFieldsShown(stream, mode)) {
+		const text = (stream.numbers[field.key] ?? '').trim();
+		const required = typeof field.required === 'function' ? field.required(stream) : field.required;
+		if (text === '') {
+			if (required) fieldErrors[`${path}.${field.key}`] = 'Required.';
+			continue;
+		}
+		const value = readNumberText(text);
+		if (value === null) fieldErrors[`${path}.${field.key}`] = `Enter a number (got “${text}”).`;
+		else feed[field.key] = value;
+	}
+	feed.strategy = mode === 'fedBatch' ? stream.strategy : 'constant';
+	if (mode === 'fedBatch') {
+		if (stream.strategy === 'expression') feed.expression = stream.expression;
+		const label = stream.label.trim();
+		if (label.length > FEED_LABEL_MAX_LENGTH) {
+			fieldErrors[`${path}.label`] = `At most ${FEED_LABEL_MAX_LENGTH} characters (this one has ${label.length}).`;
+		} else if (label !== '') feed.label = label;
+	}
+	if (Object.keys(fieldErrors).length) return { ok: false, fieldErrors };
+	return { ok: true, feed: feed as unknown as FeedInput };
+}
+
+/**
+ * A request's stream in the form, on top of `base`: the fields this stream's strategy shows are
+ * taken from the request (blank when it has none), the others keep what `base` holds.
+ */
+export function readFeedInput(feed: FeedInput, mode: OperatingMode, base: FeedStreamValues): FeedStreamValues {
+	const stream: FeedStreamValues = {
+		...base,
+		numbers: { ...base.numbers },
+		strategy: mode === 'fedBatch' ? feed.strategy : base.strategy,
+		label: typeof feed.label === 'string' ? feed.label : ''
+	};
+	if (typeof feed.expression === 'string') stream.expression = feed.expression;
+	for (const field of feedFieldsShown(stream, mode)) {
+		const value = feed[field.key];
+		stream.numbers[field.key] = typeof value === 'number' ? String(value) : '';
+	}
+	return stream;
+}
+
+/**
+ * Field errors follow their stream when streams are added or removed, so the paths that move
+ * (`feed.x` to `feeds.0.x` and back, `feeds.2.x` to `feeds.1.x`) keep pointing at the same inputs;
+ * a removed stream's errors go with it. `moves` pairs each stream's path before with its path after
+ * (null: removed). A bare `feed` stays: it is the feed block's own error.
+ */
+export function moveFeedStreamErrors(errors: Record<string, string>, moves: { from: string; to: string | null }[]): Record<string, string> {
+	const moved: Record<string, string> = {};
+	for (const [path, text] of Object.entries(errors)) {
+		const move = moves.find(({ from }) => path.startsWith(`${from}.`) || (from !== 'feed' && path === from));
+		if (!move) moved[path] = text;
+		else if (move.to !== null) moved[move.to + path.slice(move.from.length)] = text;
+	}
+	return moved;
+}
+
+/** The request's `feeds.N.field` paths in words a person reads, with streams counted from 1 as on the page. */
+export function nameFeedStreamsIn(text: string): string {
+	return text.replace(/\bfeeds\.(\d+)(?:\.([A-Za-z]+))?/g, (_, index: string, field?: string) =>
+		`${field ? `${field} of ` : ''}feed stream ${Number(index) + 1}`
+	);
+}
