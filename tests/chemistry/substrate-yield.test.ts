@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ATOMIC_WEIGHTS, computeSoleSourceYield, formulaMolarMass, solveAerobicGrowth } from '../../chemistry';
+import { ATOMIC_WEIGHTS, balanceAerobicGrowth, computeSoleSourceYield, formulaMolarMass, solveAerobicGrowth } from '../../chemistry';
 import { errorOf } from './input-error';
 
 /*
@@ -24,6 +24,13 @@ describe('Yx/s from the element balance (Shuler & Kargi 2002 worked example)', (
 		const yxo = (0.48 * formulaMolarMass('C6H10NO3')) / (3 * formulaMolarMass('O2'));
 		const y = solveAerobicGrowth({ substrateFormula: GLUCOSE, biomassFormula: SK_BIOMASS, measured: { kind: 'oxygenYield', gBiomassPerGO2: yxo } });
 		expect(y.biomassOnSubstrateGPerG).toBeCloseTo(0.384, 3);
+		expect(y.respiratoryQuotient).toBeCloseTo(1.04, 2);
+	});
+
+	it('gives Yx/O2 0.721 and RQ 1.04 from Yx/s 0.384, the same balance read the other way', () => {
+		const yxs = (0.48 * formulaMolarMass('C6H10NO3')) / formulaMolarMass(GLUCOSE);
+		const y = balanceAerobicGrowth({ substrateFormula: GLUCOSE, biomassFormula: SK_BIOMASS, measured: { kind: 'substrateYield', gBiomassPerGSubstrate: yxs } });
+		expect(y.biomassOnOxygenGPerG).toBeCloseTo(0.721, 3);
 		expect(y.respiratoryQuotient).toBeCloseTo(1.04, 2);
 	});
 

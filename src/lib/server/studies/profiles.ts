@@ -2,7 +2,7 @@ import {
 	ChemistryInputError,
 	O2_MOLAR_MASS_G_PER_MOL,
 	STANDARD_BIOMASS_FORMULA,
-	solveStoichiometry,
+	balanceAerobicGrowth,
 	type CarbonDemand,
 	type OrganismProfile,
 	type SubstrateDemand
@@ -107,22 +107,12 @@ export function resolveOxygenYield(
 	}
 	if (profile.ashFraction === null) defaults.push({ what: 'Ash fraction for the element balance', value: '0', source: 'Not entered on the profile' });
 	try {
-		const solved = solveStoichiometry({
-			species: [
-				{ id: 'substrate', formula: carbonSourceFormula, role: 'substrate' },
-				{ id: 'ammonia', formula: 'NH3', role: 'nitrogen' },
-				{ id: 'oxygen', formula: 'O2', role: 'oxygen' },
-				{ id: 'biomass', formula: biomassFormula, ashFraction: ash, role: 'biomass' },
-				{ id: 'co2', formula: 'CO2', role: 'carbonDioxide' },
-				{ id: 'water', formula: 'H2O', role: 'water' }
-			],
-			specifications: [
-				{ kind: 'rate', species: 'substrate', mol: -1 },
-				{ kind: 'massYield', product: 'biomass', substrate: 'substrate', gPerG: growth.yieldXSGPerG }
-			]
-		});
-		const y = solved.yields.biomassOnOxygenGPerG;
-		if (y === null || !(y > 0)) throw new ChemistryInputError('no oxygen uptake in the balance');
+		const y = balanceAerobicGrowth({
+			substrateFormula: carbonSourceFormula,
+			biomassFormula,
+			ashFraction: ash,
+			measured: { kind: 'substrateYield', gBiomassPerGSubstrate: growth.yieldXSGPerG }
+		}).biomassOnOxygenGPerG;
 		defaults.push({
 			what: 'Yx/O2',
 			value: `${y.toPrecision(3)} g/g`,
