@@ -47,7 +47,7 @@ describe('Yx/s worked out on the profile form', () => {
 		const row = saved({ yieldXSMethod: 'respiratoryQuotient', respiratoryQuotient: '1.04' });
 		expect(row.yieldXSMethod).toBe('respiratoryQuotient');
 		expect(row.yieldXSGPerG).toBeCloseTo(0.384, 3);
-		const used = listYieldsUsed(row, { 'd-glucose': 'D-Glucose' });
+		const used = listYieldsUsed(row, { componentNames: { 'd-glucose': 'D-Glucose' }, componentFormulas: { 'd-glucose': 'C6H12O6' } });
 		expect(used[0].source).toMatch(/Element balance .* from RQ 1.04; a 1 % error in it moves Yx\/s by about 13 %/);
 	});
 
@@ -81,7 +81,7 @@ describe('yields on further substrates', () => {
 			{ componentId: 'l-glutamine', method: 'entered', yieldGPerG: 0.7 },
 			{ componentId: 'ammonium-sulfate', method: 'soleSource', element: 'N', yieldGPerG: Number(expected.toPrecision(4)) }
 		]);
-		const used = listYieldsUsed(row, {});
+		const used = listYieldsUsed(row, { componentNames: {}, componentFormulas: {} });
 		expect(used.map((u) => u.what)).toEqual(['Yx/s on d-glucose', 'Yx/s on l-glutamine', 'Yx/s on ammonium-sulfate']);
 		expect(used[2].source).toMatch(/only source of N/);
 	});

@@ -1,6 +1,5 @@
 import {
 	AIR_O2_MOLE_FRACTION,
-	ChemistryInputError,
 	DEFAULT_HEAT_PER_MOL_O2_KJ,
 	DEFAULT_IGNORED_ELEMENTS,
 	O2_MOLAR_MASS_G_PER_MOL,
@@ -11,7 +10,7 @@ import {
 	computeOxygenSaturation,
 	type SufficiencyResult
 } from '$chemistry';
-import { RuleError } from '../rule-error';
+import { RuleError, withRuleErrors } from '../rule-error';
 import { listYieldsUsed, requireGrowthData, resolveOxygenYield, toSufficiencyProfile } from './profiles';
 import { findEmptyTime, findRunoutTimes } from './nutrient-runout';
 import { isControlled, simulatePlan } from './time-course';
@@ -84,14 +83,8 @@ function withoutDeliveries<T extends { deliveries: unknown }>(course: T): Omit<T
 	return rest;
 }
 
-function asSufficiencyError<T>(run: () => T): T {
-	try {
-		return run();
-	} catch (cause) {
-		if (cause instanceof ChemistryInputError) throw new RuleError(cause.message, { field: cause.field, status: 422 });
-		throw cause;
-	}
-}
+/** Science input errors inside a study are 422s: the study's own data, not the request, is at fault. */
+const asSufficiencyError = <T>(run: () => T): T => withRuleErrors(run, { status: 422 });
 
 /**
  * The study report: nutrients, oxygen, heat, volume and the time course, from loaded data and the
@@ -150,7 +143,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 
 	// Nutrients
 	const { profile: sufficiencyProfile, carbon, substrates } = toSufficiencyProfile(profile);
-	defaults.push(...listYieldsUsed(profile, inputs.componentNames));
+	defaults.push(...listYieldsUsed(profile, inputs));
 	// A controlled feed supplies what the run drew from it, at most what is available.
 	const usedL = feeds.map((f, k) => (isControlled(f) && !('message' in course) ? Math.min(course.deliveries[k].deliveredL, f.volumeL) : f.volumeL));
 	const feedUsedL = usedL.reduce((a, b) => a + b, 0);

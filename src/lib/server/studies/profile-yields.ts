@@ -1,7 +1,7 @@
-import { ATOMIC_WEIGHTS, ChemistryInputError, O2_MOLAR_MASS_G_PER_MOL, computeSoleSourceYield, solveAerobicGrowth, type PerCellConsumption } from '$chemistry';
+import { ATOMIC_WEIGHTS, O2_MOLAR_MASS_G_PER_MOL, computeSoleSourceYield, solveAerobicGrowth, type PerCellConsumption } from '$chemistry';
 import type { SubstrateYieldEntry, YieldMethod } from '$lib/studies';
 import { findComponent } from '../components/library';
-import { RuleError } from '../rule-error';
+import { RuleError, withRuleErrors } from '../rule-error';
 
 /** What the yield rules read from the profile form, already checked field by field. */
 export interface YieldFields {
@@ -26,15 +26,6 @@ function formulaOf(componentId: string, field: string): string {
 	return component.formula;
 }
 
-function asRuleError<T>(field: string, run: () => T): T {
-	try {
-		return run();
-	} catch (cause) {
-		if (cause instanceof ChemistryInputError) throw new RuleError(cause.message, { field });
-		throw cause;
-	}
-}
-
 export interface BalancedCarbonYield {
 	yieldGPerG: number;
 	/** % change of Yx/s per 1 % error in the measured value. */
@@ -44,13 +35,11 @@ export interface BalancedCarbonYield {
 }
 
 /**
- * Yx/s on the carbon source from the C/H/O/N balance of growth on it with NH3 and one measured
- * quantity: the RQ, or the yield on O2 (qO2 stands for Yx/O2 = μmax/qO2 at μmax).
+ * Yx/s on the carbon source (of formula `substrateFormula`) from the C/H/O/N balance of growth on it
+ * with NH3 and one measured quantity: the RQ, or the yield on O2 (qO2 stands for Yx/O2 = μmax/qO2 at μmax).
  */
-export function balanceCarbonYield(f: YieldFields): BalancedCarbonYield {
-	if (!f.carbonSourceId) throw new RuleError('Choose the carbon source: its formula is needed for the element balance.', { field: 'carbonSourceId' });
+export function balanceCarbonYield(f: YieldFields, substrateFormula: string): BalancedCarbonYield {
 	if (!f.biomassFormula) throw new RuleError('Enter the biomass formula: the element balance that gives Yx/s needs it.', { field: 'biomassFormula' });
-	const substrateFormula = formulaOf(f.carbonSourceId, 'carbonSourceId');
 	let measured: Parameters<typeof solveAerobicGrowth>[0]['measured'];
 	let from: string;
 	if (f.yieldXSMethod === 'respiratoryQuotient') {
@@ -66,22 +55,28 @@ export function balanceCarbonYield(f: YieldFields): BalancedCarbonYield {
 	} else {
 		throw new RuleError('Enter Yx/O2, or qO2 with μmax, to work out Yx/s from the oxygen yield.', { field: 'yieldXO2GPerG' });
 	}
-	const solved = asRuleError('yieldXSMethod', () =>
-		solveAerobicGrowth({ substrateFormula, biomassFormula: f.biomassFormula!, ashFraction: f.ashFraction ?? 0, measured })
-	);
+	const solved = withRuleErrors(() => solveAerobicGrowth({ substrateFormula, biomassFormula: f.biomassFormula!, ashFraction: f.ashFraction ?? 0, measured }), {
+		field: 'yieldXSMethod'
+	});
 	return { yieldGPerG: Number(solved.biomassOnSubstrateGPerG.toPrecision(4)), elasticity: solved.yieldElasticity, from };
 }
 
-/** Yx/s as stored: typed in, or worked out on save. */
+/** Yx/s as stored: typed in, or worked out on save with the carbon source's formula from the library. */
 export function resolveCarbonYield(f: YieldFields): number | null {
-	return f.yieldXSMethod === 'entered' ? f.yieldXSGPerG : balanceCarbonYield(f).yieldGPerG;
+	if (f.yieldXSMethod === 'entered') return f.yieldXSGPerG;
+	if (!f.carbonSourceId) throw new RuleError('Choose the carbon source: its formula is needed for the element balance.', { field: 'carbonSourceId' });
+	return balanceCarbonYield(f, formulaOf(f.carbonSourceId, 'carbonSourceId')).yieldGPerG;
 }
 
-/** Where Yx/s on the carbon source came from, in one line for the profile page and the report. */
-export function describeCarbonYield(f: YieldFields): string {
+/**
+ * Where Yx/s on the carbon source came from, in one line for the profile page and the report. The
+ * formula comes with the caller's loaded data, so a study's evaluation reads no database.
+ */
+export function describeCarbonYield(f: YieldFields, carbonSourceFormula: string | null): string {
 	if (f.yieldXSMethod === 'entered') return 'Entered on the profile';
 	try {
-		const b = balanceCarbonYield(f);
+		if (!carbonSourceFormula) throw new RuleError('the carbon source has no formula in the library.');
+		const b = balanceCarbonYield(f, carbonSourceFormula);
 		const sensitivity = Number.isFinite(b.elasticity) ? `; a 1 % error in it moves Yx/s by about ${Math.abs(b.elasticity).toPrecision(2)} %` : '; the value sits at the edge of what the balance allows';
 		return `Element balance (C, H, O, N; NH3 as N source) from ${b.from}${sensitivity}`;
 	} catch (cause) {
@@ -121,12 +116,14 @@ export function parseSubstrateYields(text: string, f: YieldFields): SubstrateYie
 			if (!(element in ATOMIC_WEIGHTS)) throw new RuleError(`“${element}” is not an element symbol.`, { field });
 			const substrateFormula = formulaOf(componentId, field);
 			const fraction = f.elementalFractions?.[element];
-			const yieldGPerG = asRuleError(field, () =>
-				computeSoleSourceYield(
-					fraction !== undefined && fraction > 0
-						? { substrateFormula, element, biomassElementFraction: fraction }
-						: { substrateFormula, element, biomassFormula: f.biomassFormula ?? undefined, ashFraction: f.ashFraction ?? 0 }
-				)
+			const yieldGPerG = withRuleErrors(
+				() =>
+					computeSoleSourceYield(
+						fraction !== undefined && fraction > 0
+							? { substrateFormula, element, biomassElementFraction: fraction }
+							: { substrateFormula, element, biomassFormula: f.biomassFormula ?? undefined, ashFraction: f.ashFraction ?? 0 }
+					),
+				{ field }
 			);
 			return { componentId, method: 'soleSource', element, yieldGPerG: Number(yieldGPerG.toPrecision(4)) };
 		});

@@ -32,20 +32,26 @@ export function requireGrowthData(profile: OrganismProfileRow) {
 	};
 }
 
+/** Names and formulas of the library's components, as a study's loaded data carries them. */
+export interface ComponentFacts {
+	componentNames: Record<string, string>;
+	componentFormulas: Record<string, string | null>;
+}
+
 /** The yields a study uses, each with where it came from, for the report's list of values used. */
-export function listYieldsUsed(profile: OrganismProfileRow, componentNames: Record<string, string>): DefaultUsed[] {
+export function listYieldsUsed(profile: OrganismProfileRow, { componentNames, componentFormulas }: ComponentFacts): DefaultUsed[] {
 	const growth = requireGrowthData(profile);
 	const name = (id: string) => componentNames[id] ?? id;
 	return [
-		{ what: `Yx/s on ${name(growth.carbonSourceId)}`, value: `${growth.yieldXSGPerG} g/g`, source: describeCarbonYield(profile) },
+		{ what: `Yx/s on ${name(growth.carbonSourceId)}`, value: `${growth.yieldXSGPerG} g/g`, source: describeCarbonYield(profile, componentFormulas[growth.carbonSourceId] ?? null) },
 		...profile.substrateYields.map((y) => ({ what: `Yx/s on ${name(y.componentId)}`, value: `${y.yieldGPerG} g/g`, source: describeSubstrateYield(y) }))
 	];
 }
 
 /** The yields for the profile page; none until the profile has its growth data. */
-export function listProfileYields(profile: OrganismProfileRow, componentNames: Record<string, string>): DefaultUsed[] {
+export function listProfileYields(profile: OrganismProfileRow, components: ComponentFacts): DefaultUsed[] {
 	try {
-		return listYieldsUsed(profile, componentNames);
+		return listYieldsUsed(profile, components);
 	} catch (cause) {
 		if (cause instanceof RuleError) return [];
 		throw cause;

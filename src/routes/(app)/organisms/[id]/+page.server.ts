@@ -13,14 +13,15 @@ export const load: PageServerLoad = async ({ params }) => {
 	requireStudyAccess();
 	const row = db.select().from(organismProfile).where(eq(organismProfile.id, params.id)).get();
 	if (!row) error(404, { message: 'No such organism profile.' });
-	const componentNames = Object.fromEntries(listComponents().map((c) => [c.id, c.name]));
+	const components = listComponents();
+	const facts = { componentNames: Object.fromEntries(components.map((c) => [c.id, c.name])), componentFormulas: Object.fromEntries(components.map((c) => [c.id, c.formula])) };
 	return {
 		...profileChoices(),
 		values: profileFormValues(row),
 		name: row.name,
 		isDemo: row.isDemo,
 		fractionsSource: row.fractionsSource,
-		yields: listProfileYields(row, componentNames)
+		yields: listProfileYields(row, facts)
 	};
 };
 
