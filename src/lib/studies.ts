@@ -44,8 +44,12 @@ export const FEED_PLAN_LABELS: Record<FeedPlanStrategy, string> = {
 	substrateStat: 'Substrate-stat (holds the carbon source at a setpoint)',
 	doStat: 'DO-stat (feeds while DO is above a setpoint)'
 };
-/** Plans whose rate follows the culture: their volume is what is available, not what is delivered. */
-export const CONTROLLED_FEED_PLANS: readonly FeedPlanStrategy[] = ['substrateStat', 'doStat'];
+const CONTROLLED_FEED_PLANS: readonly string[] = ['substrateStat', 'doStat'];
+
+/** A plan whose rate follows the culture: its volume is what is available, not what is delivered. */
+export function isControlledPlan(strategy: string): boolean {
+	return CONTROLLED_FEED_PLANS.includes(strategy);
+}
 
 /** How one feed is fed: its plan, its start and the plan's own settings. */
 export interface FeedPlan {

@@ -242,8 +242,6 @@ function versionIdOf(recipeName: string): string | null {
 
 const idByName = (table: typeof organismProfile | typeof vessel, name: string) => db.select({ id: table.id }).from(table).where(eq(table.name, name)).get()?.id ?? null;
 
-const DEMO_DOSTAT = { glycerolL: 3, startH: 24, pumpLPerH: 0.08, topUpL: 0.4, topUpStartH: 24, target: 55 };
-
 interface DemoFeed {
 	recipe: string;
 	volumeL: number;
@@ -306,12 +304,12 @@ export const DEMO_STUDIES: DemoStudy[] = [
 		profile: 'Demo yeast PPN-Y2',
 		vessel: 'Bench stirred tank BST-10',
 		feeds: [
-			{ recipe: 'PPN Glycerol Feed Y2', volumeL: DEMO_DOSTAT.glycerolL, plan: { Strategy: 'doStat', StartH: DEMO_DOSTAT.startH, DoSetpointPercent: 35, MaxRateLPerH: DEMO_DOSTAT.pumpLPerH } },
-			{ recipe: 'PPN Nitrogen Top-up N2', volumeL: DEMO_DOSTAT.topUpL, plan: { Strategy: 'constant', StartH: DEMO_DOSTAT.topUpStartH } }
+			{ recipe: 'PPN Glycerol Feed Y2', volumeL: 3, plan: { Strategy: 'doStat', StartH: 24, DoSetpointPercent: 35, MaxRateLPerH: 0.08 } },
+			{ recipe: 'PPN Nitrogen Top-up N2', volumeL: 0.4, plan: { Strategy: 'constant', StartH: 24 } }
 		],
 		plan: {
 			targetBasis: 'biomassGPerL',
-			targetValue: DEMO_DOSTAT.target,
+			targetValue: 55,
 			initialVolumeL: 5,
 			inoculumDensity: 0.2,
 			durationH: 60,

@@ -140,12 +140,13 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		reachesFraction: REACHES_TARGET_FRACTION,
 		defaults
 	});
+	const simulated = 'message' in course ? null : course;
 
 	// Nutrients
 	const { profile: sufficiencyProfile, carbon, substrates } = toSufficiencyProfile(profile);
 	defaults.push(...listYieldsUsed(profile, inputs));
 	// A controlled feed supplies what the run drew from it, at most what is available.
-	const usedL = feeds.map((f, k) => (isControlled(f) && !('message' in course) ? Math.min(course.deliveries[k].deliveredL, f.volumeL) : f.volumeL));
+	const usedL = feeds.map((f, k) => (isControlled(f) && simulated ? Math.min(simulated.deliveries[k].deliveredL, f.volumeL) : f.volumeL));
 	const feedUsedL = usedL.reduce((a, b) => a + b, 0);
 	const finalVolumeL = plan.initialVolumeL + feedUsedL;
 	const sufficiency: SufficiencyResult = asSufficiencyError(() =>
@@ -172,10 +173,9 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		defaults.push({ what: 'Elemental mass fractions', value: 'from the profile', source: profile.fractionsSource });
 	}
 	const nameOf = (key: string, basis: 'element' | 'component') => (basis === 'element' ? key : (inputs.componentNames[key] ?? key));
-	const runouts =
-		'message' in course
-			? sufficiency.lines.map(() => null)
-			: findRunoutTimes({ lines: sufficiency.lines, targetBiomassGPerL: target.biomassGPerL, basal: inputs.basal, initialVolumeL: plan.initialVolumeL, feeds, availableL: feeds.map((f) => f.volumeL), course });
+	const runouts = simulated
+		? findRunoutTimes({ lines: sufficiency.lines, targetBiomassGPerL: target.biomassGPerL, basal: inputs.basal, initialVolumeL: plan.initialVolumeL, feeds, availableL: feeds.map((f) => f.volumeL), course: simulated })
+		: sufficiency.lines.map(() => null);
 	const lines = sufficiency.lines.map((l, i) => ({
 		...l,
 		name: nameOf(l.key, l.basis),
@@ -193,8 +193,8 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 
 	const feedReports: FeedReport[] = feeds.map((f, k) => {
 		const controlled = isControlled(f);
-		const delivery = 'message' in course ? null : course.deliveries[k];
-		const emptyAtH = controlled && delivery && !('message' in course) ? findEmptyTime(course.t, delivery.cumulativeL, f.volumeL) : null;
+		const delivery = simulated?.deliveries[k] ?? null;
+		const emptyAtH = controlled && simulated && delivery ? findEmptyTime(simulated.t, delivery.cumulativeL, f.volumeL) : null;
 		return { label: f.label, versionId: f.versionId, strategy: f.plan.strategy, startH: f.plan.startH, controlled, volumeL: f.volumeL, deliveredL: delivery?.deliveredL ?? null, usedL: usedL[k], emptyAtH };
 	});
 	for (const f of feedReports) {
@@ -202,21 +202,17 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 			reasons.push(`${f.label} runs dry at about ${f.emptyAtH.toFixed(0)} h: its plan would draw ${f.deliveredL!.toPrecision(3)} L, but ${f.volumeL} L are available.`);
 		}
 	}
-	const warnings: string[] = [];
-	if (!('message' in course)) {
-		const runouts = describeRunouts(lines, nameOf(growth.carbonSourceId, 'component'));
-		notes.push(...runouts.notes);
-		warnings.push(...runouts.warnings);
-	}
+	const { notes: runoutNotes, warnings } = describeRunouts(lines, nameOf(growth.carbonSourceId, 'component'));
+	notes.push(...runoutNotes);
 
 	let peakOurMmolPerLH: number;
 	let peakOurOrigin: string;
-	if ('message' in course) {
+	if (!simulated) {
 		peakOurMmolPerLH = ((growth.muMaxPerH / yieldXO2GPerG) * target.biomassGPerL * 1000) / O2_MOLAR_MASS_G_PER_MOL;
 		peakOurOrigin = 'μmax · X_target / Yx/O2 (the time course could not be simulated)';
 		defaults.push({ what: 'Peak OUR', value: `${peakOurMmolPerLH.toPrecision(3)} mmol/(L·h)`, source: peakOurOrigin });
 	} else {
-		peakOurMmolPerLH = Math.max(...course.ourMmolPerLH);
+		peakOurMmolPerLH = Math.max(...simulated.ourMmolPerLH);
 		peakOurOrigin = 'the simulated time course';
 	}
 	const transfer = asSufficiencyError(() =>
@@ -272,9 +268,9 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	if (finalVolumeL > vessel.maxWorkingVolumeL) reasons.push(`Final volume ${finalVolumeL.toFixed(1)} L is above the vessel's maximum working volume of ${vessel.maxWorkingVolumeL} L.`);
 	if (plan.initialVolumeL < vessel.minWorkingVolumeL) reasons.push(`Initial volume ${plan.initialVolumeL} L is below the vessel's minimum working volume of ${vessel.minWorkingVolumeL} L.`);
 
-	if (!('message' in course) && !course.reachesTarget) {
+	if (simulated && !simulated.reachesTarget) {
 		reasons.push(
-			`The simulated run reaches ${course.finalBiomassGPerL.toPrecision(3)} g/L${course.stoppedAtH !== null ? ` and stops at ${course.stoppedAtH.toFixed(1)} h` : ''}, short of the target ${target.biomassGPerL.toPrecision(3)} g/L within ${plan.durationH} h.`
+			`The simulated run reaches ${simulated.finalBiomassGPerL.toPrecision(3)} g/L${simulated.stoppedAtH !== null ? ` and stops at ${simulated.stoppedAtH.toFixed(1)} h` : ''}, short of the target ${target.biomassGPerL.toPrecision(3)} g/L within ${plan.durationH} h.`
 		);
 	}
 	if ('message' in course) notes.push(`Time course not available: ${course.message}`);

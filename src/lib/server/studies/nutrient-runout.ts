@@ -31,7 +31,6 @@ export interface Runout {
 export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
 	const { course } = input;
 	const { t, biomassGPerL, volumeL } = course;
-	const crossing = (i: number, before: number, after: number) => t[i - 1] + ((t[i] - t[i - 1]) * -before) / (after - before);
 	return input.lines.map((line) => {
 		const perGBiomass = line.demandGPerL / input.targetBiomassGPerL;
 		const conc = (source: StudySource) => (line.basis === 'element' ? source.composition.elementsGPerL : source.composition.componentsGPerL)[line.key] ?? 0;
@@ -49,9 +48,9 @@ export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
 		for (let i = 1; i < t.length; i++) {
 			const current = deficit(i);
 			if (current > 0 && previous <= 0) {
-				shortFromH ??= crossing(i, previous, current);
+				shortFromH ??= zeroCrossingH(t, i, previous, current);
 				coveredAgainH = null;
-			} else if (current <= 0 && previous > 0) coveredAgainH = crossing(i, previous, current);
+			} else if (current <= 0 && previous > 0) coveredAgainH = zeroCrossingH(t, i, previous, current);
 			previous = current;
 		}
 		return shortFromH === null ? null : { shortFromH, coveredAgainH };
@@ -61,10 +60,12 @@ export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
 /** When a feed with a limited volume has delivered all of it; null when it never empties. */
 export function findEmptyTime(t: number[], cumulativeL: number[], availableL: number): number | null {
 	for (let i = 1; i < t.length; i++) {
-		if (cumulativeL[i] > availableL) {
-			const before = cumulativeL[i - 1];
-			return t[i - 1] + ((t[i] - t[i - 1]) * (availableL - before)) / (cumulativeL[i] - before);
-		}
+		if (cumulativeL[i] > availableL) return zeroCrossingH(t, i, cumulativeL[i - 1] - availableL, cumulativeL[i] - availableL);
 	}
 	return null;
+}
+
+/** Where a quantity of `before` at t[i − 1] and `after` at t[i] passes 0, linearly interpolated. */
+function zeroCrossingH(t: number[], i: number, before: number, after: number): number {
+	return t[i - 1] + ((t[i] - t[i - 1]) * -before) / (after - before);
 }

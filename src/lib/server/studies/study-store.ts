@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { AIR_O2_MOLE_FRACTION, DEFAULT_SAFETY_FACTOR } from '$chemistry';
-import { FEED_PLAN_STRATEGIES, TARGET_BASES, type FeedPlan, type FeedPlanStrategy } from '$lib/studies';
+import { FEED_PLAN_STRATEGIES, isControlledPlan, TARGET_BASES, type FeedPlan, type FeedPlanStrategy } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { organismProfile, recipe, recipeVersion, study, studyFeed, vessel } from '../db/schema';
@@ -101,7 +101,7 @@ function feedsOfForm(form: StudyForm): (StudyFeedPlan & { slot: number })[] {
 		const strategy = (value('Strategy') as FeedPlanStrategy | null) ?? null;
 		if (!strategy) throw new RuleError(`Choose how feed ${slot} is fed.`, { field: field('Strategy') });
 		if (volumeL === null) {
-			const what = PLAN_NEEDS[strategy].some((n) => n.key === 'maxRateLPerH') ? 'the volume of feed available for the run' : 'the planned volume of this feed over the run';
+			const what = isControlledPlan(strategy) ? 'the volume of feed available for the run' : 'the planned volume of this feed over the run';
 			throw new RuleError(`Enter ${what}.`, { field: field('VolumeL') });
 		}
 		const startH = value('StartH') as number | null;

@@ -1,5 +1,5 @@
 import { ChemistryInputError, SimulationFailedError, simulateRun, type FeedInput, type SimulationRequest } from '$chemistry';
-import { CONTROLLED_FEED_PLANS } from '$lib/studies';
+import { isControlledPlan } from '$lib/studies';
 import { RuleError } from '../rule-error';
 import type { DefaultUsed, StudyFeedSource, StudyInputs, TimeCourse } from './types';
 
@@ -30,7 +30,7 @@ export interface FeedDelivery {
 
 export type PlanCourse = TimeCourse & { deliveries: FeedDelivery[] };
 
-const isControlled = (feed: StudyFeedSource) => CONTROLLED_FEED_PLANS.includes(feed.plan.strategy);
+export const isControlled = (feed: StudyFeedSource) => isControlledPlan(feed.plan.strategy);
 
 /**
  * One feed as a simulation stream. Open plans deliver exactly their planned volume between their
@@ -169,4 +169,3 @@ export function simulatePlan(run: PlanRun): PlanCourse | { message: string } {
 	}
 }
 
-export { isControlled };
