@@ -1,5 +1,5 @@
 export type SimulationFailureReason =
-	'stepLimit' | 'nonFinite' | 'negativeState' | 'integratorMissing';
+	'stepLimit' | 'nonFinite' | 'negativeState' | 'integratorMissing' | 'regimeChatter';
 
 /**
  * The integration could not produce a trustworthy result (too many steps, a non-finite value, or a

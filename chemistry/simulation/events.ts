@@ -36,14 +36,16 @@ export function updateArming(event: ThresholdEvent, value: number): void {
  * Locates the zero of g (here a measured quantity minus its threshold along the dense-output
  * interpolant) inside [tA, tB], given opposite signs at the ends, by the Illinois variant of regula
  * falsi (Dowell & Jarratt 1971). Returns the bracket's side before the crossing, so a state stopped
- * there has not yet crossed.
+ * there has not yet crossed, or with `side` 'after' the side past it, where the crossed condition
+ * already holds (a regime entered there is not left again at once).
  */
 export function locateCrossing(
 	g: (tH: number) => number,
 	tA: number,
 	gA: number,
 	tB: number,
-	gB: number
+	gB: number,
+	side: 'before' | 'after' = 'before'
 ): number {
 	let a = tA;
 	let b = tB;
@@ -55,8 +57,9 @@ export function locateCrossing(
 		let c = b - (fb * (b - a)) / (fb - fa);
 		if (!(c > a && c < b)) c = 0.5 * (a + b);
 		const fc = g(c);
-		if (fc === 0) return c;
-		if (fc * fa > 0) {
+		if (fc === 0 && side === 'before') return c;
+		// With 'after', g ≤ 0 is not yet crossed (a regime switch needs g > 0).
+		if (side === 'after' ? fc <= 0 : fc * fa > 0) {
 			a = c;
 			fa = fc;
 			if (lastMoved === -1) fb *= 0.5;
@@ -68,7 +71,7 @@ export function locateCrossing(
 			lastMoved = 1;
 		}
 	}
-	return a;
+	return side === 'before' ? a : b;
 }
 
 /** Numbers in event messages: three significant digits, no trailing zeros. */

@@ -13,13 +13,17 @@ import { applyDrawFill } from './feeding';
 import {
 	ABSOLUTE_TOLERANCE,
 	C,
+	computeExhaustionThresholdGPerL,
 	computeGrowthRatePerH,
 	computeInflowLPerH,
 	computeOurMgPerLH,
 	computeOxygenRelaxationPerH,
+	computeOxygenSurplusAtZeroMgPerLH,
 	computeQuasiSteadyOxygenMgPerL,
+	computeSubstrateSurplusAtZeroGPerLH,
 	createDerivative,
 	fillEffectiveState,
+	NORMAL_REGIME,
 	O2_MOLAR_MASS_G_PER_MOL,
 	OXYGEN_LIMITED_FRACTION_OF_SATURATION,
 	OXYGEN_QUASI_STEADY_RATIO,
@@ -31,7 +35,8 @@ import {
 	WASHOUT_FRACTION,
 	X,
 	type FlowPhase,
-	type ModelParameters
+	type ModelParameters,
+	type Regime
 } from './model';
 import { planSegments, type Segment } from './modes';
 import type { SimulationEvent, SimulationRequest, SimulationResult } from './types';
@@ -43,8 +48,13 @@ export const MAX_STEPS_PER_SEGMENT = 200_000;
 export const EXTRAPOLATION_COLUMNS = 4;
 /** A concentration or volume below −this (in its own unit) is a failed integration, not rounding. */
 export const NEGATIVE_STATE_TOLERANCE = 1e-6;
-/** DO below −this ends the run as oxygen-depleted (see the event list in the model help). */
-const DEPLETED_DO_MG_PER_L = -1e-6;
+/** Regime changes settled at one instant before integration goes on (each one enables the next). */
+const MAX_REGIME_CHANGES_AT_ONCE = 4;
+/**
+ * Regime changes allowed in one segment. A culture enters and leaves exhaustion or O2 limitation a
+ * few times per feed or draw; thousands means the run chatters at a boundary it cannot settle on.
+ */
+export const MAX_REGIME_CHANGES_PER_SEGMENT = 2000;
 
 /**
  * Simulates one culture run. Throws `ChemistryInputError` (with the request field) for input the
@@ -83,7 +93,18 @@ interface Output {
 }
 
 /** Why an integration stretch ended before its end time. */
-type Cut = { kind: 'stop'; tH: number; event: ThresholdEvent } | { kind: 'switch'; tH: number };
+type Cut =
+	| { kind: 'stop'; tH: number; event: ThresholdEvent }
+	| { kind: 'switch'; tH: number; apply: (tH: number) => void };
+
+/**
+ * A change of regime that ends a stretch where `value` (on the effective state) turns from ≤ 0 to
+ * positive; `apply` then changes the regime (and the state it holds) at the located time.
+ */
+interface RegimeSwitch {
+	value: (tH: number, state: ArrayLike<number>) => number;
+	apply: (tH: number) => void;
+}
 
 class RunIntegrator {
 	private readonly plan: SimulationPlan;
@@ -102,8 +123,12 @@ class RunIntegrator {
 	private readonly stats = { accepted: 0, rejected: 0, evaluations: 0 };
 	/** DO relaxation rate above which its balance is solved at quasi-steady state */
 	private readonly quasiSteadyAbovePerH: number;
-	private quasiSteadyOxygen = false;
+	private readonly regime: Regime = { ...NORMAL_REGIME };
 	private readonly quasiSteadyIntervals: { fromH: number; toH: number }[] = [];
+	private readonly oxygenLimitedIntervals: { fromH: number; toH: number }[] = [];
+	private oxygenLimitedReports = 0;
+	/** the effective state with S at 0, for the exhaustion guards */
+	private readonly atZeroSubstrate = new Array<number>(STATE_COUNT).fill(0);
 	/** reused for effective states and dense output points */
 	private readonly scratch = new Array<number>(STATE_COUNT).fill(0);
 	private readonly effective = new Array<number>(STATE_COUNT).fill(0);
@@ -146,7 +171,7 @@ class RunIntegrator {
 		this.quasiSteadyAbovePerH =
 			OXYGEN_QUASI_STEADY_RATIO * Math.max(this.p.muMaxPerH, plan.continuous?.dilutionPerH ?? 0);
 
-		const sEx = this.p.exhaustionGPerL;
+		const sEx = computeExhaustionThresholdGPerL(this.p.ksGPerL);
 		this.trackers.push({
 			kind: 'substrateExhausted',
 			measure: (y) => y[S],
@@ -173,20 +198,6 @@ class RunIntegrator {
 				count: 0,
 				describe: () =>
 					`Oxygen-limited: DO fell below ${formatNumber(limit)} mg/L (5 % of saturation); transfer is at its maximum, about ${formatNumber(maxOtr)} mmol/L/h.`
-			});
-			this.trackers.push({
-				kind: 'oxygenDepleted',
-				measure: (y) => y[C],
-				threshold: DEPLETED_DO_MG_PER_L,
-				direction: 'falling',
-				rearmAbove: null,
-				stops: true,
-				armed: true,
-				count: 0,
-				describe: () =>
-					o2.koMgPerL > 0
-						? 'Oxygen depleted: maintenance demand alone exceeds the maximum transfer kLa·C*; the run stops here.'
-						: 'Oxygen depleted: demand exceeds the maximum transfer kLa·C*, and without kinetics.koMgPerL growth cannot slow as DO falls; the run stops here.'
 			});
 		}
 		if (plan.maxVolumeL !== null && plan.mode === 'fedBatch') {
@@ -233,25 +244,29 @@ class RunIntegrator {
 		for (let i = 0; i < segments.length && this.stoppedAtH === null; i++) {
 			this.integrateSegment(segments[i], i === segments.length - 1);
 		}
-		const last = this.quasiSteadyIntervals.at(-1);
-		if (last !== undefined && Number.isNaN(last.toH)) last.toH = this.stoppedAtH ?? this.plan.endH;
+		const endH = this.stoppedAtH ?? this.plan.endH;
+		for (const intervals of [this.quasiSteadyIntervals, this.oxygenLimitedIntervals]) {
+			const last = intervals.at(-1);
+			if (last !== undefined && Number.isNaN(last.toH)) last.toH = endH;
+		}
 		return this.buildResult();
 	}
 
 	private effectiveState(y: ArrayLike<number>): number[] {
-		return fillEffectiveState(this.p, this.quasiSteadyOxygen, y, this.effective);
+		return fillEffectiveState(this.p, this.regime, y, this.effective);
 	}
 
 	/**
 	 * Picks the dynamic or the quasi-steady O2 balance for the state at tH, with hysteresis (see
 	 * OXYGEN_QUASI_STEADY_RATIO); entering the dynamic balance starts DO from its quasi-steady value.
+	 * While DO is held at 0 (O2-limited) neither applies.
 	 */
 	private chooseOxygenBalance(tH: number): void {
-		if (this.p.oxygen === null) return;
+		if (this.p.oxygen === null || this.regime.oxygenLimited) return;
 		const lambda = computeOxygenRelaxationPerH(this.p, this.effectiveState(this.y));
-		if (!this.quasiSteadyOxygen && lambda > this.quasiSteadyAbovePerH)
+		if (!this.regime.quasiSteadyOxygen && lambda > this.quasiSteadyAbovePerH)
 			this.setQuasiSteady(true, tH);
-		else if (this.quasiSteadyOxygen && lambda < 0.5 * this.quasiSteadyAbovePerH)
+		else if (this.regime.quasiSteadyOxygen && lambda < 0.5 * this.quasiSteadyAbovePerH)
 			this.setQuasiSteady(false, tH);
 	}
 
@@ -259,21 +274,142 @@ class RunIntegrator {
 		if (on) {
 			this.quasiSteadyIntervals.push({ fromH: tH, toH: Number.NaN });
 		} else {
-			this.y[C] = computeQuasiSteadyOxygenMgPerL(this.p, this.y);
+			this.y[C] = computeQuasiSteadyOxygenMgPerL(this.p, this.effectiveState(this.y));
 			this.quasiSteadyIntervals[this.quasiSteadyIntervals.length - 1].toH = tH;
 		}
-		this.quasiSteadyOxygen = on;
+		this.regime.quasiSteadyOxygen = on;
+	}
+
+	/** Substrate surplus over maintenance at S = 0 (see computeSubstrateSurplusAtZeroGPerLH). */
+	private substrateSurplusAtZero(phase: FlowPhase, tH: number, state: ArrayLike<number>): number {
+		const atZero = this.atZeroSubstrate;
+		for (let i = 0; i < STATE_COUNT; i++) atZero[i] = state[i];
+		atZero[S] = 0;
+		return computeSubstrateSurplusAtZeroGPerLH(this.p, phase, tH, atZero);
+	}
+
+	private setSubstrateExhausted(on: boolean): void {
+		if (on) this.y[S] = 0;
+		this.regime.substrateExhausted = on;
+	}
+
+	private setOxygenLimited(on: boolean, tH: number): void {
+		if (on) {
+			if (this.regime.quasiSteadyOxygen) this.setQuasiSteady(false, tH);
+			this.oxygenLimitedIntervals.push({ fromH: tH, toH: Number.NaN });
+			this.oxygenLimitedReports++;
+			if (this.oxygenLimitedReports <= MAX_REPORTS_PER_KIND) {
+				this.events.push({ kind: 'oxygenDepleted', tH, message: this.describeOxygenDepletion() });
+			}
+		} else {
+			this.oxygenLimitedIntervals[this.oxygenLimitedIntervals.length - 1].toH = tH;
+		}
+		this.y[C] = 0;
+		this.regime.oxygenLimited = on;
+	}
+
+	private describeOxygenDepletion(): string {
+		const o2 = this.p.oxygen!;
+		const maxOtr = formatNumber((o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL);
+		return o2.koMgPerL > 0
+			? `DO reached 0: maintenance alone asks for more O2 than the maximum transfer kLa·C* (${maxOtr} mmol/L/h); growth stops until demand falls.`
+			: `DO reached 0: demand exceeds the maximum transfer kLa·C* (${maxOtr} mmol/L/h), so growth runs only as fast as transfer supplies O2 (OTR = OUR at DO = 0).`;
+	}
+
+	/**
+	 * Brings the regime in line with the state at tH (at the start, after a segment's jump, after a
+	 * switch): S or DO at 0 with a supply short of demand holds it there; a jump above 0, or a supply
+	 * that now covers the demand, releases it. Then picks the O2 balance.
+	 */
+	private settleRegime(tH: number, phase: FlowPhase): void {
+		const p = this.p;
+		const regime = this.regime;
+		for (let i = 0; i < MAX_REGIME_CHANGES_AT_ONCE; i++) {
+			const state = this.effectiveState(this.y);
+			if (!regime.substrateExhausted) {
+				if (this.y[S] <= 0 && this.substrateSurplusAtZero(phase, tH, state) < 0) {
+					this.setSubstrateExhausted(true);
+					continue;
+				}
+			} else if (this.y[S] > 0 || this.substrateSurplusAtZero(phase, tH, state) > 0) {
+				this.setSubstrateExhausted(false);
+				continue;
+			}
+			if (p.oxygen !== null) {
+				if (!regime.oxygenLimited) {
+					if (state[C] <= 0 && computeOxygenSurplusAtZeroMgPerLH(p, state) < 0) {
+						this.setOxygenLimited(true, tH);
+						continue;
+					}
+				} else if (this.y[C] > 0 || computeOxygenSurplusAtZeroMgPerLH(p, state) > 0) {
+					const jumpedC = this.y[C];
+					this.setOxygenLimited(false, tH);
+					this.y[C] = jumpedC;
+					continue;
+				}
+			}
+			break;
+		}
+		this.chooseOxygenBalance(tH);
+	}
+
+	/** The switches that can end a stretch in the current regime. */
+	private regimeSwitches(phase: FlowPhase): RegimeSwitch[] {
+		const p = this.p;
+		const regime = this.regime;
+		const switches: RegimeSwitch[] = [];
+		if (regime.substrateExhausted) {
+			switches.push({
+				value: (tH, state) => this.substrateSurplusAtZero(phase, tH, state),
+				apply: () => this.setSubstrateExhausted(false)
+			});
+		} else {
+			// S below 0 while the supply at S = 0 falls short of maintenance; a dip within the
+			// integrator's tolerance while the supply covers it is rounding, not exhaustion.
+			switches.push({
+				value: (tH, state) => Math.min(-state[S], -this.substrateSurplusAtZero(phase, tH, state)),
+				apply: () => this.setSubstrateExhausted(true)
+			});
+		}
+		if (p.oxygen === null) return switches;
+		if (regime.oxygenLimited) {
+			switches.push({
+				value: (_tH, state) => computeOxygenSurplusAtZeroMgPerLH(p, state),
+				apply: (tH) => this.setOxygenLimited(false, tH)
+			});
+			return switches;
+		}
+		switches.push({
+			value: (_tH, state) => Math.min(-state[C], -computeOxygenSurplusAtZeroMgPerLH(p, state)),
+			apply: (tH) => this.setOxygenLimited(true, tH)
+		});
+		const quasiSteady = regime.quasiSteadyOxygen;
+		const switchAt = quasiSteady ? 0.5 * this.quasiSteadyAbovePerH : this.quasiSteadyAbovePerH;
+		const switchSign = quasiSteady ? -1 : 1;
+		switches.push({
+			value: (_tH, state) => switchSign * (computeOxygenRelaxationPerH(p, state) - switchAt),
+			apply: (tH) => this.setQuasiSteady(!quasiSteady, tH)
+		});
+		return switches;
 	}
 
 	private integrateSegment(segment: Segment, isLast: boolean): void {
 		const phase = this.enterSegment(segment);
 		let fromH = segment.startH;
-		this.chooseOxygenBalance(fromH);
-		for (;;) {
+		this.settleRegime(fromH, phase);
+		for (let changes = 0; ; changes++) {
+			if (changes > MAX_REGIME_CHANGES_PER_SEGMENT) {
+				throw new SimulationFailedError(
+					`The run switched between limited and unlimited growth more than ${MAX_REGIME_CHANGES_PER_SEGMENT} times before t = ${fromH.toFixed(3)} h: it keeps hitting a limit it cannot settle on (typically a feed law that switches abruptly at exhaustion). Try a smoother feed law.`,
+					'regimeChatter',
+					fromH
+				);
+			}
 			const cut = this.integrateStretch(segment, phase, fromH, isLast);
 			if (cut === null || cut.kind === 'stop') return;
 			fromH = cut.tH;
-			this.setQuasiSteady(!this.quasiSteadyOxygen, fromH);
+			cut.apply(fromH);
+			this.settleRegime(fromH, phase);
 		}
 	}
 
@@ -289,25 +425,20 @@ class RunIntegrator {
 	): Cut | null {
 		const y = this.y;
 		const p = this.p;
-		const qss = this.quasiSteadyOxygen;
 		const startState = this.effectiveState(y);
 		for (const event of this.trackers) updateArming(event, event.measure(startState));
 		const alreadyPast = this.stopIfAlreadyPast(fromH, phase);
 		if (alreadyPast !== null) return { kind: 'stop', tH: fromH, event: alreadyPast };
 
-		const derivative = createDerivative(p, phase, qss, this.stateCount);
+		const derivative = createDerivative(p, phase, { ...this.regime }, this.stateCount);
 		const endH = segment.endH;
 		const eps = 1e-9 * Math.max(1, Math.abs(endH));
 		const times = this.plan.outputTimesH;
 		const trackers = this.trackers;
 		const previous = trackers.map((event) => event.measure(startState));
 		const current = previous.slice();
-		const o2 = p.oxygen;
-		const switchAt = qss ? 0.5 * this.quasiSteadyAbovePerH : this.quasiSteadyAbovePerH;
-		const switchSign = qss ? -1 : 1;
-		const switchValue = (state: ArrayLike<number>) =>
-			switchSign * (computeOxygenRelaxationPerH(p, state) - switchAt);
-		let previousSwitch = o2 === null ? -1 : switchValue(startState);
+		const switches = this.regimeSwitches(phase);
+		const previousSwitch = switches.map((change) => change.value(fromH, startState));
 		let reachedH = fromH;
 		// One closure per stretch rather than per step (the observer runs at every step).
 		let currentDense: DenseInterpolant | null = null;
@@ -324,7 +455,7 @@ class RunIntegrator {
 				return;
 			}
 			reachedH = x;
-			this.checkState(yNew, x);
+			this.checkFinite(yNew, x);
 			const state = this.effectiveState(yNew);
 			for (let i = 0; i < trackers.length; i++) current[i] = trackers[i].measure(state);
 			currentDense = dense;
@@ -348,16 +479,18 @@ class RunIntegrator {
 					cut = { kind: 'stop', tH, event };
 				}
 			}
-			if (o2 !== null) {
-				const now = switchValue(state);
-				if (now > 0 && previousSwitch <= 0) {
-					const tH = locateCrossing((t) => switchValue(at(t)), xOld, previousSwitch, x, now);
+			for (let i = 0; i < switches.length; i++) {
+				const change = switches[i];
+				const now = change.value(x, state);
+				if (now > 0 && previousSwitch[i] <= 0) {
+					const g = (t: number) => change.value(t, at(t));
+					const tH = locateCrossing(g, xOld, previousSwitch[i], x, now, 'after');
 					if (tH < cutH) {
 						cutH = tH;
-						cut = { kind: 'switch', tH };
+						cut = { kind: 'switch', tH, apply: change.apply };
 					}
 				}
-				previousSwitch = now;
+				previousSwitch[i] = now;
 			}
 			for (let i = 0; i < trackers.length; i++) {
 				const event = trackers[i];
@@ -374,6 +507,7 @@ class RunIntegrator {
 				if (tH < cutH) this.report(event, tH);
 			}
 			if (cut === null) {
+				this.checkNonNegative(yNew, x);
 				for (let i = 0; i < trackers.length; i++) updateArming(trackers[i], current[i]);
 			}
 
@@ -500,7 +634,7 @@ class RunIntegrator {
 		return null;
 	}
 
-	private checkState(y: number[], tH: number): void {
+	private checkFinite(y: number[], tH: number): void {
 		for (let i = 0; i < STATE_COUNT; i++) {
 			if (!Number.isFinite(y[i])) {
 				throw new SimulationFailedError(
@@ -510,6 +644,10 @@ class RunIntegrator {
 				);
 			}
 		}
+	}
+
+	/** Checked only on a step that ends the stretch nowhere earlier: a step past a regime change (S below 0 at exhaustion) is cut back to it. */
+	private checkNonNegative(y: number[], tH: number): void {
 		for (const i of [X, S, P, V]) {
 			if (y[i] < -NEGATIVE_STATE_TOLERANCE) {
 				throw new SimulationFailedError(
@@ -566,7 +704,7 @@ class RunIntegrator {
 		o.p[i] = clampToZero(state[P]);
 		o.v[i] = state[V];
 		o.c[i] = clampToZero(state[C]);
-		const mu = computeGrowthRatePerH(this.p, state);
+		const mu = computeGrowthRatePerH(this.p, state, this.regime);
 		if (o.streamFeeds.length === 0) {
 			o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state, mu);
 		} else {
@@ -600,11 +738,12 @@ class RunIntegrator {
 					this.plan.initialState[V],
 					o.streamFeeds.length > 0 ? o.streamFeeds : [o.feed.slice()]
 				) ?? null,
-			ourMmolPerLH: o2 === null ? null : o.our,
+			ourMmolPerLH: o2 === null && this.p.demandYieldXO2 === null ? null : o.our,
 			maxOtrMmolPerLH: o2 === null ? null : new Array<number>(n).fill(maxOtr),
 			events: this.events.slice().sort((a, b) => a.tH - b.tH),
 			tolerances: { absolute: ABSOLUTE_TOLERANCE, relative: RELATIVE_TOLERANCE },
 			quasiSteadyOxygenH: o2 === null ? null : this.quasiSteadyIntervals,
+			oxygenLimitedH: o2 === null ? null : this.oxygenLimitedIntervals,
 			integratorSteps: { ...this.stats }
 		};
 		if (this.stoppedAtH !== null) result.stoppedAtH = this.stoppedAtH;

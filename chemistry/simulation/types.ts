@@ -12,9 +12,15 @@ export interface KineticsInput {
 	yieldXS: number;
 	/** substrate for maintenance, g substrate per g biomass per h (Pirt) */
 	maintenanceGPerGH?: number;
-	/** g biomass per g O2; required when `oxygen` is given */
+	/**
+	 * g biomass per g O2; required when `oxygen` is given. Without `oxygen`, the result's
+	 * `ourMmolPerLH` is the O2 demand of the simulated growth (transfer unlimited).
+	 */
 	yieldXO2?: number;
-	/** O2 half-saturation constant; growth is O2-limited only when it is above 0 */
+	/**
+	 * O2 half-saturation constant: above 0, growth slows as DO falls (C/(K_O + C)); at 0, growth runs at
+	 * full speed until DO reaches 0 and then at the rate transfer can supply
+	 */
 	koMgPerL?: number;
 	/** Luedeking–Piret growth-associated term, g product per g biomass */
 	alpha?: number;
@@ -131,6 +137,10 @@ export interface SimulationResult {
 	feedLPerH: number[];
 	/** fed-batch: each feed stream in request order (the single `feed` as one); null in other modes */
 	feedStreams: FeedStreamResult[] | null;
+	/**
+	 * with `oxygen`, the uptake (limited by transfer where DO reaches 0); without `oxygen` but with
+	 * `kinetics.yieldXO2`, the demand of the simulated growth; otherwise null
+	 */
 	ourMmolPerLH: number[] | null;
 	maxOtrMmolPerLH: number[] | null;
 	events: SimulationEvent[];
@@ -140,7 +150,12 @@ export interface SimulationResult {
 	 * state (dC/dt = 0) rather than integrated; null without an oxygen block.
 	 */
 	quasiSteadyOxygenH: { fromH: number; toH: number }[] | null;
-	/** set when the run ended before `endH` (maximum volume reached, or oxygen depleted) */
+	/**
+	 * Stretches in which DO was held at 0 and growth ran at what transfer supplies (OTR = OUR at
+	 * DO = 0); null without an oxygen block.
+	 */
+	oxygenLimitedH: { fromH: number; toH: number }[] | null;
+	/** set when the run ended before `endH` (the maximum working volume reached) */
 	stoppedAtH?: number;
 	integratorSteps: { accepted: number; rejected: number; evaluations: number };
 }

@@ -1,5 +1,5 @@
 import { ChemistryInputError } from '../errors';
-import { computeExhaustionThresholdGPerL, type ModelParameters } from './model';
+import type { ModelParameters } from './model';
 import { isGiven, NON_NEGATIVE, POSITIVE, readNumber, readOptional } from './read-number';
 import type { OperatingMode, SimulationRequest } from './types';
 import { FLOW_FIELDS, readFedBatchFeed, readFeedStreams, type FeedPlan } from './validate-feed';
@@ -71,6 +71,7 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 	const p0 = readOptional(init.productGPerL, 'initial.productGPerL', 0, NON_NEGATIVE);
 
 	let oxygen: ModelParameters['oxygen'] = null;
+	let demandYieldXO2: number | null = null;
 	let c0 = 0;
 	if (request.oxygen !== undefined && request.oxygen !== null) {
 		const o = request.oxygen;
@@ -104,13 +105,15 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 			NON_NEGATIVE
 		);
 	} else {
-		for (const field of ['yieldXO2', 'koMgPerL'] as const) {
-			if (k[field] !== undefined && k[field] !== null) {
-				throw new ChemistryInputError(
-					`kinetics.${field} needs an oxygen block (kLaPerH, saturationMgPerL) to have any effect.`,
-					{ field: `kinetics.${field}` }
-				);
-			}
+		if (k.koMgPerL !== undefined && k.koMgPerL !== null) {
+			throw new ChemistryInputError(
+				'kinetics.koMgPerL needs an oxygen block (kLaPerH, saturationMgPerL) to have any effect.',
+				{ field: 'kinetics.koMgPerL' }
+			);
+		}
+		// Without a transfer balance, Yx/O2 gives the O2 demand of the simulated growth.
+		if (k.yieldXO2 !== undefined && k.yieldXO2 !== null) {
+			demandYieldXO2 = readNumber(k.yieldXO2, 'kinetics.yieldXO2', { ...POSITIVE, max: 10 });
 		}
 		if (init.dissolvedOxygenMgPerL !== undefined && init.dissolvedOxygenMgPerL !== null) {
 			throw new ChemistryInputError(
@@ -171,10 +174,10 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 		ksGPerL,
 		yieldXS,
 		maintenanceGPerGH,
-		exhaustionGPerL: computeExhaustionThresholdGPerL(ksGPerL),
 		alpha,
 		beta,
-		oxygen
+		oxygen,
+		demandYieldXO2
 	};
 	const plan: SimulationPlan = {
 		mode,

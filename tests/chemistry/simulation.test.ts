@@ -219,27 +219,56 @@ describe('oxygen', () => {
 	it.each([
 		// Integrated DO reaches 0 while still falling, so OUR then exceeds kLa·C* by −dC/dt (< 1 %).
 		['integrated', 100, 0.01],
-		// kLa = 600 /h is above 1000·μmax = 500 /h from the start: DO is quasi-steady throughout.
+		// kLa = 600 /h is above 1000·μmax = 500 /h from the start: DO is quasi-steady until it reaches 0.
 		['quasi-steady', 600, 1e-4]
 	])(
-		'stops when DO runs out with no K_O to slow growth (%s DO)',
+		'runs on at the transfer limit once DO reaches 0 with no K_O (%s DO)',
 		(_balance, kLaPerH, tolerance) => {
-			const r = simulateRun({
-				...oxygenBatch,
-				kinetics: { ...kinetics, yieldXO2: 1 },
-				oxygen: { kLaPerH, saturationMgPerL: 7 }
-			});
-			expect(r.quasiSteadyOxygenH).toEqual(kLaPerH > 500 ? [{ fromH: 0, toH: r.stoppedAtH }] : []);
-			expect(r.stoppedAtH).toBeDefined();
-			expect(r.events.at(-1)?.kind).toBe('oxygenDepleted');
-			expect(r.stoppedAtH).toBeLessThan(16);
-			expect(r.t.at(-1)).toBeCloseTo(r.stoppedAtH!, 12);
+			const run = (endH: number, outputEveryH: number) =>
+				simulateRun({
+					...oxygenBatch,
+					kinetics: { ...kinetics, yieldXO2: 1 },
+					oxygen: { kLaPerH, saturationMgPerL: 7 },
+					endH,
+					outputEveryH
+				});
+			const r = run(oxygenBatch.endH, 0.05);
+			expect(r.stoppedAtH).toBeUndefined();
+			expect(r.t.at(-1)).toBe(oxygenBatch.endH);
+			const depleted = r.events.find((e) => e.kind === 'oxygenDepleted');
+			expect(depleted).toBeDefined();
+			const tD = depleted!.tH;
+			expect(tD).toBeLessThan(16);
+			expect(r.oxygenLimitedH![0].fromH).toBe(tD);
 			expect(Math.min(...r.dissolvedOxygenMgPerL!)).toBeGreaterThanOrEqual(0);
-			// Without K_O growth is unlimited by O2, so X at the stop meets OUR = kLa·C*: μmax·S/(Ks+S)·X·1000/Y = kLa·C*.
-			const i = r.t.length - 1;
-			const s = r.substrateGPerL[i];
-			const demand = 1000 * ((0.5 * s) / (0.1 + s)) * r.biomassGPerL[i];
+			// Without K_O growth is unlimited by O2 until DO reaches 0, so X there meets OUR = kLa·C*:
+			// μmax·S/(Ks+S)·X·1000/Yx/O2 = kLa·C* (the O2 balance at C = 0).
+			const atDepletion = run(tD, tD);
+			const xD = atDepletion.biomassGPerL.at(-1)!;
+			const sD = atDepletion.substrateGPerL.at(-1)!;
+			const demand = 1000 * ((0.5 * sD) / (0.1 + sD)) * xD;
 			expect(Math.abs(demand / (kLaPerH * 7) - 1)).toBeLessThan(tolerance);
+			// From there OTR = OUR = kLa·C* at DO = 0 (no maintenance), so biomass grows linearly,
+			// dX/dt = Yx/O2·kLa·C*/1000, and substrate falls by X/Yx/s (the O2-limited regime of aerobic
+			// culture; textbook, from memory) until μmax·S/(Ks + S) falls below what transfer carries and
+			// DO rises again.
+			const slope = (1 * kLaPerH * 7) / 1000;
+			const { toH } = r.oxygenLimitedH![0];
+			const limited = r.t.map((t, i) => ({ t, i })).filter(({ t }) => t > tD && t < toH);
+			expect(limited.length).toBeGreaterThanOrEqual(4);
+			if (toH < oxygenBatch.endH) {
+				const atRelease = run(toH, toH);
+				const sR = atRelease.substrateGPerL.at(-1)!;
+				const growthDemand = 1000 * ((0.5 * sR) / (0.1 + sR)) * atRelease.biomassGPerL.at(-1)!;
+				expect(growthDemand / (kLaPerH * 7) - 1).toBeCloseTo(0, 6);
+			}
+			for (const { t, i } of limited) {
+				expect(r.dissolvedOxygenMgPerL![i]).toBe(0);
+				expect(r.ourMmolPerLH![i]).toBeCloseTo((kLaPerH * 7) / 31.998, 6);
+				expect(r.biomassGPerL[i] / (xD + slope * (t - tD)) - 1).toBeCloseTo(0, 6);
+				// Yx/s = 0.5 g/g without maintenance: X − X0 = Yx/s·(S0 − S) holds in every regime.
+				expect(r.biomassGPerL[i] - 0.1 - 0.5 * (20 - r.substrateGPerL[i])).toBeCloseTo(0, 6);
+			}
 		}
 	);
 });
