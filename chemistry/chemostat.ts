@@ -1,17 +1,32 @@
 /**
- * Chemostat steady state of a Monod culture without maintenance (Monod 1949; Herbert, Elsworth &
- * Telling 1956, J. Gen. Microbiol. 14:601; citations from memory):
- *   S = Ks·D/(μmax − D),  X = Yx/s·(S0 − S),  productivity D·X,
- *   D_crit = μmax·S0/(Ks + S0)  (above it the culture washes out),
- *   D_opt  = μmax·(1 − √(Ks/(Ks + S0)))  (maximum productivity).
+ * Chemostat steady state of a Monod culture (Monod 1949; Herbert, Elsworth & Telling 1956,
+ * J. Gen. Microbiol. 14:601; citations from memory) with Pirt's maintenance (Pirt 1965, "The
+ * maintenance energy of bacteria in growing cultures", Proc. R. Soc. Lond. B 163:224–231):
+ * substrate is taken up for growth at μ/Y_G and for maintenance at m_s, whatever the growth rate.
+ * At steady state μ = D, and the two balances give
+ *   S = Ks·D/(μmax − D)                      (from μ(S) = D; maintenance does not enter),
+ *   X = D·Y_G·(S0 − S)/(D + m_s·Y_G)         (from D·(S0 − S) = (D/Y_G + m_s)·X),
+ *   productivity D·X,
+ *   D_crit = μmax·S0/(Ks + S0)                (S reaches S0: washout; unchanged by m_s, which draws
+ *                                             substrate but does not slow growth).
+ * Y_G is the true growth yield; the observed yield X/(S0 − S) = Y_G·D/(D + m_s·Y_G) is lower at low D.
+ * Without maintenance X = Y_G·(S0 − S) and D_opt = μmax·(1 − √(Ks/(Ks + S0))) in closed form.
+ * With maintenance there is no such short form: P = Y_G·D²·(S0·(μmax − D) − Ks·D)/((μmax − D)(D + m_s·Y_G)),
+ * and the numerator of dP/dD is D times a cubic in D. Cardano's formula would solve the cubic, but
+ * picking the right one of its three roots and its cancellation as m_s → 0 make that fragile, so D_opt
+ * is found by golden-section search on P over (0, D_crit). That search is sound because ln P is concave there:
+ * 2·ln D − ln(D + m_s·Y_G) and ln(S0 − S(D)) are each concave, so P has a single maximum.
  */
 import { ChemistryInputError } from './errors';
 
 export interface MonodChemostatParameters {
 	muMaxPerH: number;
 	ksGPerL: number;
+	/** true growth yield Y_G, g biomass / g substrate */
 	yieldXS: number;
 	feedSubstrateGPerL: number;
+	/** Pirt's maintenance coefficient m_s, g substrate / g biomass / h; default 0 */
+	maintenanceGPerGH?: number;
 }
 
 export interface ChemostatSteadyStateInput extends MonodChemostatParameters {
@@ -61,14 +76,63 @@ export function validateMonodChemostatParameters(p: MonodChemostatParameters): v
 	requirePositive(p.ksGPerL, 'ksGPerL');
 	requirePositive(p.yieldXS, 'yieldXS');
 	requirePositive(p.feedSubstrateGPerL, 'feedSubstrateGPerL');
+	const m = p.maintenanceGPerGH;
+	if (m !== undefined && m !== null && (typeof m !== 'number' || !Number.isFinite(m) || m < 0)) {
+		throw new ChemistryInputError(
+			`maintenanceGPerGH must be a finite number ≥ 0, in g substrate per g biomass per hour (got ${String(m)}).`,
+			{ field: 'maintenanceGPerGH' }
+		);
+	}
 }
 
 export function computeCriticalDilutionPerH(p: MonodChemostatParameters): number {
 	return (p.muMaxPerH * p.feedSubstrateGPerL) / (p.ksGPerL + p.feedSubstrateGPerL);
 }
 
+/** Golden-section steps stop once the bracket is this fraction of D_crit (≈ 58 steps). */
+const OPTIMUM_BRACKET_FRACTION = 1e-12;
+
+/**
+ * The x of the largest f on [lo, hi] for a unimodal f, by golden-section search. Written here rather
+ * than taken from a package: the project has no bounded 1-D optimiser (mathjs has none), and the
+ * method is a dozen lines. Accuracy is limited by how flat f is at its top: about √ε·(hi − lo).
+ */
+function maximiseUnimodal(f: (x: number) => number, lo: number, hi: number, tolerance: number): number {
+	const invPhi = (Math.sqrt(5) - 1) / 2;
+	let a = lo;
+	let b = hi;
+	let c = b - invPhi * (b - a);
+	let d = a + invPhi * (b - a);
+	let fc = f(c);
+	let fd = f(d);
+	while (b - a > tolerance) {
+		if (fc >= fd) {
+			b = d;
+			d = c;
+			fd = fc;
+			c = b - invPhi * (b - a);
+			fc = f(c);
+		} else {
+			a = c;
+			c = d;
+			fc = fd;
+			d = a + invPhi * (b - a);
+			fd = f(d);
+		}
+	}
+	return (a + b) / 2;
+}
+
 export function computeOptimalDilutionPerH(p: MonodChemostatParameters): number {
-	return p.muMaxPerH * (1 - Math.sqrt(p.ksGPerL / (p.ksGPerL + p.feedSubstrateGPerL)));
+	const m = p.maintenanceGPerGH ?? 0;
+	if (m === 0) return p.muMaxPerH * (1 - Math.sqrt(p.ksGPerL / (p.ksGPerL + p.feedSubstrateGPerL)));
+	const dCrit = computeCriticalDilutionPerH(p);
+	return maximiseUnimodal(
+		(d) => computeChemostatOperatingPoint(p, d).productivityGPerLH,
+		0,
+		dCrit,
+		OPTIMUM_BRACKET_FRACTION * dCrit
+	);
 }
 
 /** Steady state at one dilution rate; at or above D_crit the culture is washed out (X = 0, S = S0). */
@@ -89,7 +153,10 @@ export function computeChemostatOperatingPoint(
 			washout: true
 		};
 	}
-	const x = p.yieldXS * (p.feedSubstrateGPerL - s);
+	const m = p.maintenanceGPerGH ?? 0;
+	// Share of the uptake that goes to growth, (D/Y_G)/(D/Y_G + m_s); exactly 1 without maintenance.
+	const growthShare = m === 0 ? 1 : dilutionPerH / (dilutionPerH + m * p.yieldXS);
+	const x = p.yieldXS * (p.feedSubstrateGPerL - s) * growthShare;
 	return {
 		dilutionPerH,
 		biomassGPerL: x,

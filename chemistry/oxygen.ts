@@ -4,7 +4,8 @@
  * Saturation C* is for water in equilibrium with a water-saturated gas at total pressure P whose dry
  * part holds O2 at mole fraction x. Both fits give C* for moist air at 1 atm; the APHA/USGS correction
  * (APHA Standard Methods 4500-O, as also used by the USGS) takes it to P, and because C* is proportional to the O2 partial pressure in the dry gas (Henry's law), another O2
- * content scales it by x / 0.20946 at the same total pressure: C*(x) = C*_air · x / 0.20946.
+ * content scales it by x / x_air at the same total pressure: C*(x) = C*_air · x / x_air, with
+ * x_air = AIR_O2_MOLE_FRACTION = 0.20946 (data/oxygen-solubility.ts).
  */
 import { ChemistryInputError } from './errors';
 import { molarMassOf } from './formula';
@@ -17,7 +18,7 @@ import {
 	SEAWATER_DENSITY_MILLERO_POISSON
 } from './data/oxygen-solubility';
 
-export { AIR_O2_MOLE_FRACTION } from './data/oxygen-solubility';
+export { AIR_O2_MOLE_FRACTION, AIR_O2_MOLE_FRACTION_SOURCE } from './data/oxygen-solubility';
 
 /** g/mol of O2 from IUPAC 2021 atomic weights (2 × 15.999 = 31.998). */
 export const O2_MOLAR_MASS_G_PER_MOL = molarMassOf({ O: 2 });

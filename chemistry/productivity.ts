@@ -5,10 +5,16 @@
  * Batch time from the closed-form Monod batch without maintenance, X = X0 + Y(S0 − S), which
  * integrates to (textbook form, from memory):
  *   μmax·t = (1 + Ks·Y/A)·ln(X/X0) − (Ks·Y/A)·ln(S/S0),   A = X0 + Y·S0.
+ * With Pirt's maintenance m_s (Pirt 1965, Proc. R. Soc. Lond. B 163:224), the same organism draws
+ * substrate at (μ/Y_G + m_s)·X in the batch too, so both sides of the comparison carry it: the batch
+ * is integrated (odex) over the substrate used, σ = S0 − S, from 0 to the harvest conversion:
+ *   dX/dσ = μ/(μ/Y_G + m_s),   dt/dσ = 1/((μ/Y_G + m_s)·X),
+ * which has no closed form for t. Without maintenance the closed form above is kept.
  * Batch productivity counts the biomass made in one cycle over the growth time plus turnaround;
- * continuous productivity is the chemostat's D·X at steady state (chemostat.ts). With Ks ≪ S0 and D
- * near μmax their ratio approaches ln(Xm/X0) + μmax·t_turnaround.
+ * continuous productivity is the chemostat's D·X at steady state (chemostat.ts), with the same m_s.
+ * With Ks ≪ S0, D near μmax and no maintenance their ratio approaches ln(Xm/X0) + μmax·t_turnaround.
  */
+import { Outcome, Solver } from 'odex';
 import { computeChemostatOperatingPoint, validateMonodChemostatParameters } from './chemostat';
 import { ChemistryInputError } from './errors';
 
@@ -32,6 +38,8 @@ export interface BatchVersusContinuousInput {
 	turnaround: TurnaroundInput;
 	/** fraction of the substrate consumed when the batch is harvested; default 0.99 */
 	conversion?: number;
+	/** Pirt's maintenance coefficient m_s, g substrate / g biomass / h, in batch and chemostat; default 0 */
+	maintenanceGPerGH?: number;
 }
 
 export interface BatchVersusContinuous {
@@ -51,7 +59,10 @@ export interface BatchVersusContinuous {
 	};
 	/** continuous over batch productivity */
 	continuousToBatchRatio: number;
-	/** ln(Xm/X0) + μmax·t_turnaround, the Ks ≪ S0 estimate of the best attainable ratio */
+	/**
+	 * ln(Xm/X0) + μmax·t_turnaround with Xm = X0 + Y·S0, the Ks ≪ S0 estimate of the best attainable
+	 * ratio without maintenance
+	 */
 	textbookRatioEstimate: number;
 }
 
@@ -72,6 +83,49 @@ export function computeMonodBatchTimeH(
 	);
 }
 
+/** Integrator tolerances (hours and g/L alike) for the batch with maintenance. */
+const BATCH_TOLERANCE = 1e-10;
+const BATCH_MAX_STEPS = 100_000;
+
+/**
+ * Monod batch with Pirt maintenance from S0 to S, integrated over the substrate used (see the top
+ * of this file): growth time, h, and biomass at S, g/L.
+ */
+export function computeMonodBatchWithMaintenance(
+	p: { muMaxPerH: number; ksGPerL: number; yieldXS: number; maintenanceGPerGH: number },
+	initialBiomassGPerL: number,
+	initialSubstrateGPerL: number,
+	substrateGPerL: number
+): { growthTimeH: number; biomassGPerL: number } {
+	if (typeof Solver !== 'function' || typeof Solver.prototype?.solve !== 'function') {
+		// Under tsx the tsconfig path mapping sends `odex` to its type declaration; say so plainly.
+		throw new Error('The odex integrator did not load (the module "odex" resolved to its type declaration).');
+	}
+	const { muMaxPerH, ksGPerL, yieldXS, maintenanceGPerGH } = p;
+	const rates = [0, 0];
+	// state: [t, X]; independent variable σ = S0 − S
+	const derivative = (sigma: number, y: number[]) => {
+		const s = Math.max(initialSubstrateGPerL - sigma, 0);
+		const mu = (muMaxPerH * s) / (ksGPerL + s);
+		const uptakePerBiomass = mu / yieldXS + maintenanceGPerGH;
+		rates[0] = 1 / (uptakePerBiomass * y[1]);
+		rates[1] = mu / uptakePerBiomass;
+		return rates;
+	};
+	const solver = new Solver(2);
+	solver.absoluteTolerance = BATCH_TOLERANCE;
+	solver.relativeTolerance = BATCH_TOLERANCE;
+	solver.maxSteps = BATCH_MAX_STEPS;
+	const result = solver.solve(derivative, 0, [0, initialBiomassGPerL], initialSubstrateGPerL - substrateGPerL);
+	if (result.outcome !== Outcome.Converged) {
+		throw new ChemistryInputError(
+			`The batch with maintenance could not be integrated to the harvest conversion in ${BATCH_MAX_STEPS} steps; check maintenanceGPerGH and the kinetics.`,
+			{ field: 'maintenanceGPerGH' }
+		);
+	}
+	return { growthTimeH: result.y[0], biomassGPerL: result.y[1] };
+}
+
 function readHours(value: unknown, field: string): number {
 	if (value === undefined || value === null) return 0;
 	if (typeof value !== 'number' || !Number.isFinite(value) || value < 0) {
@@ -90,7 +144,8 @@ export function compareBatchWithContinuous(
 		muMaxPerH: input.muMaxPerH,
 		ksGPerL: input.ksGPerL,
 		yieldXS: input.yieldXS,
-		feedSubstrateGPerL: input.substrateGPerL
+		feedSubstrateGPerL: input.substrateGPerL,
+		maintenanceGPerGH: input.maintenanceGPerGH
 	};
 	try {
 		validateMonodChemostatParameters(chemostat);
@@ -138,8 +193,14 @@ export function compareBatchWithContinuous(
 
 	const s0 = input.substrateGPerL;
 	const sEnd = (1 - conversion) * s0;
-	const growthTimeH = computeMonodBatchTimeH(input, x0, s0, sEnd);
-	const finalBiomassGPerL = x0 + input.yieldXS * (s0 - sEnd);
+	const maintenanceGPerGH = input.maintenanceGPerGH ?? 0;
+	const { growthTimeH, biomassGPerL: finalBiomassGPerL } =
+		maintenanceGPerGH === 0
+			? {
+					growthTimeH: computeMonodBatchTimeH(input, x0, s0, sEnd),
+					biomassGPerL: x0 + input.yieldXS * (s0 - sEnd)
+				}
+			: computeMonodBatchWithMaintenance({ ...input, maintenanceGPerGH }, x0, s0, sEnd);
 	const cycleTimeH = growthTimeH + turnaroundH;
 	const batchProductivity = (finalBiomassGPerL - x0) / cycleTimeH;
 	const { washout, ...point } = computeChemostatOperatingPoint(chemostat, d);

@@ -37,10 +37,17 @@ export const SEAWATER_DENSITY_MILLERO_POISSON = {
 } as const;
 
 /**
- * Mole fraction of O2 in dry air on which both fits rest (Benson & Krause 1984 use 0.20946);
- * it rounds to the usual 0.2095.
+ * Mole fraction of O2 in dry air, 0.20946 (20.946 % by volume): the tabulated composition of dry air
+ * (Glueckauf 1951, Compendium of Meteorology, as reprinted in the CRC Handbook; from memory) and the
+ * value on which the Benson & Krause (1984) air-saturation fits rest (from memory). The U.S. Standard
+ * Atmosphere 1962 lists 20.9476 % (checked; the 1976 edition the same, from memory), 2·10⁻⁵ higher,
+ * far below the fits' own uncertainty. Use this constant wherever "air" means an O2 fraction.
  */
 export const AIR_O2_MOLE_FRACTION = 0.20946;
+
+/** Where AIR_O2_MOLE_FRACTION comes from, in words a reader of the API or a report can check. */
+export const AIR_O2_MOLE_FRACTION_SOURCE =
+	'composition of dry air, 20.946 % O2 by volume (Glueckauf 1951, as tabulated in the CRC Handbook; from memory), the basis of the Benson & Krause 1984 air-saturation values';
 
 /** kPa per standard atmosphere (exact by definition). */
 export const KPA_PER_ATM = 101.325;

@@ -1,8 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { computeChemostatSteadyState } from '../../chemistry/chemostat';
-import { compareBatchWithContinuous, computeMonodBatchTimeH } from '../../chemistry/productivity';
+import {
+	compareBatchWithContinuous,
+	computeMonodBatchTimeH,
+	computeMonodBatchWithMaintenance
+} from '../../chemistry/productivity';
 import { computeExhaustionThresholdGPerL, simulateRun } from '../../chemistry/simulation';
 import { errorOf } from './input-error';
+// Independent computation with SciPy on the model's balances (root finding, bounded Brent, DOP853),
+// never the library's closed forms. Regenerate from the repository root with:
+//   python3 tests/chemistry/reference/chemostat-maintenance.py > tests/chemistry/reference/chemostat-maintenance.json
+import scipyReference from './reference/chemostat-maintenance.json';
 
 const culture = { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5, feedSubstrateGPerL: 10 };
 
@@ -113,6 +121,138 @@ describe('computeChemostatSteadyState', () => {
 	});
 });
 
+/** |actual/expected − 1|, so a check reads as a relative tolerance */
+const relativeError = (actual: number, expected: number) => Math.abs(actual / expected - 1);
+
+describe('computeChemostatSteadyState with Pirt maintenance', () => {
+	const cultures = Object.entries(scipyReference.chemostat);
+
+	it('drops the biomass by a third at m_s = 0.05 g/g/h, D = 0.05 /h, Y_G = 0.5', () => {
+		// Pirt 1965 (Proc. R. Soc. Lond. B 163:224): X = D·Y_G(S0 − S)/(D + m_s·Y_G), so X/X(m_s = 0) =
+		// D/(D + m_s·Y_G) = 0.05/(0.05 + 0.025) = 2/3, worked by hand.
+		const base = { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5, feedSubstrateGPerL: 20, dilutionPerH: 0.05 };
+		const without = computeChemostatSteadyState(base);
+		const withMaintenance = computeChemostatSteadyState({ ...base, maintenanceGPerGH: 0.05 });
+		expect(withMaintenance.biomassGPerL / without.biomassGPerL).toBeCloseTo(2 / 3, 12);
+		// S depends only on μ(S) = D (Monod 1949), so maintenance leaves it as it was.
+		expect(withMaintenance.substrateGPerL).toBe(without.substrateGPerL);
+	});
+
+	for (const [name, reference] of cultures) {
+		it(`matches SciPy's steady states, D_crit and D_opt (${name})`, () => {
+			const { input } = reference;
+			for (const point of reference.points) {
+				const r = computeChemostatSteadyState({ ...input, dilutionPerH: point.dilutionPerH });
+				// SciPy brentq on μ(S) = D, then the substrate balance (chemostat-maintenance.json).
+				expect(relativeError(r.substrateGPerL, point.substrateGPerL)).toBeLessThan(1e-9);
+				expect(relativeError(r.biomassGPerL, point.biomassGPerL)).toBeLessThan(1e-9);
+				expect(relativeError(r.productivityGPerLH, point.productivityGPerLH)).toBeLessThan(1e-9);
+				expect(r.washout).toBe(point.washout);
+			}
+			const r = computeChemostatSteadyState({ ...input, dilutionPerH: reference.points[0].dilutionPerH });
+			// SciPy: μ(S0) = D, the largest D with a steady state X > 0 (chemostat-maintenance.json).
+			expect(relativeError(r.criticalDilutionPerH, reference.criticalDilutionPerH)).toBeLessThan(1e-12);
+			// SciPy: bounded Brent on −D·X refined by brentq on the slope (chemostat-maintenance.json);
+			// the golden section here is limited by the flat top to about √ε.
+			expect(relativeError(r.optimalDilutionPerH, reference.optimalDilutionPerH)).toBeLessThan(1e-7);
+			const atOptimum = computeChemostatSteadyState({ ...input, dilutionPerH: r.optimalDilutionPerH });
+			expect(relativeError(atOptimum.productivityGPerLH, reference.optimalProductivityGPerLH)).toBeLessThan(1e-12);
+		});
+	}
+
+	it('moves D_opt towards D_crit as maintenance grows, and tends to the closed form as m_s → 0', () => {
+		const culture10 = { ...culture, dilutionPerH: 0.3 };
+		// D_opt without maintenance: μmax(1 − √(Ks/(Ks + S0))) (Herbert, Elsworth & Telling 1956).
+		const closedForm = 0.5 * (1 - Math.sqrt(0.2 / 10.2));
+		const tiny = computeChemostatSteadyState({ ...culture10, maintenanceGPerGH: 1e-9 });
+		expect(relativeError(tiny.optimalDilutionPerH, closedForm)).toBeLessThan(1e-6);
+		const optima = [0.01, 0.05, 0.2].map(
+			(m) => computeChemostatSteadyState({ ...culture10, maintenanceGPerGH: m }).optimalDilutionPerH
+		);
+		expect(optima[0]).toBeGreaterThan(closedForm);
+		expect(optima[1]).toBeGreaterThan(optima[0]);
+		expect(optima[2]).toBeGreaterThan(optima[1]);
+		expect(optima[2]).toBeLessThan(tiny.criticalDilutionPerH);
+	});
+
+	it('puts D_opt at the top of a dense grid of D·X computed from the balances', () => {
+		// A second method: D·X on a grid of 10⁶ points, X from the substrate balance
+		// D(S0 − S) = (D/Y_G + m_s)X (Pirt 1965) with S = Ks·D/(μmax − D) (Monod 1949).
+		const m = 0.1;
+		const r = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.1, maintenanceGPerGH: m });
+		let bestD = 0;
+		let best = -Infinity;
+		const steps = 1_000_000;
+		for (let i = 1; i < steps; i++) {
+			const d = (r.criticalDilutionPerH * i) / steps;
+			const s = (0.2 * d) / (0.5 - d);
+			const p = (d * d * (10 - s)) / (d / 0.5 + m);
+			if (p > best) [best, bestD] = [p, d];
+		}
+		expect(Math.abs(r.optimalDilutionPerH - bestD)).toBeLessThan(r.criticalDilutionPerH / steps);
+		expect(Math.max(...r.sweep.map((p) => p.productivityGPerLH))).toBeLessThanOrEqual(best + 1e-12);
+	});
+
+	it('sweeps from D = 0, where maintenance takes all the substrate, to D_crit', () => {
+		const r = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.3, maintenanceGPerGH: 0.05, sweepPoints: 11 });
+		// X = D·Y_G(S0 − S)/(D + m_s·Y_G) is 0 at D = 0 and at D_crit (Pirt 1965).
+		expect(r.sweep[0]).toEqual({ dilutionPerH: 0, biomassGPerL: 0, substrateGPerL: 0, productivityGPerLH: 0 });
+		expect(r.sweep[10].biomassGPerL).toBeCloseTo(0, 9);
+		const d = r.sweep[5].dilutionPerH;
+		const s = (0.2 * d) / (0.5 - d);
+		expect(r.sweep[5].biomassGPerL).toBeCloseTo((d * 0.5 * (10 - s)) / (d + 0.05 * 0.5), 12);
+	});
+
+	it('prices the safety margin against the D_opt with maintenance', () => {
+		const reference = scipyReference.chemostat.slowerCulture;
+		const r = computeChemostatSteadyState({ ...reference.input, dilutionPerH: 0.1, safetyMargin: 0.3 });
+		const dMargin = 0.7 * reference.criticalDilutionPerH;
+		expect(r.marginDilutionPerH).toBeCloseTo(dMargin, 12);
+		// D·X at the margin from the balances (Pirt 1965), against SciPy's optimum (chemostat-maintenance.json).
+		const s = (0.2 * dMargin) / (0.5 - dMargin);
+		const atMargin = (dMargin * dMargin * (10 - s)) / (dMargin / 0.5 + 0.1);
+		expect(r.productivityLostToMargin).toBeCloseTo(1 - atMargin / reference.optimalProductivityGPerLH, 9);
+	});
+
+	it('agrees with the dynamic simulation with maintenance at steady state', () => {
+		// The integrator (odex) reaches the steady state of the same balances. Its maintenance is
+		// scaled by S/(S + S_ex) (see the simulation help), so the closed form gets that effective m_s.
+		const m = 0.05;
+		const steadyS = (0.2 * 0.25) / (0.5 - 0.25);
+		const sEx = computeExhaustionThresholdGPerL(0.2);
+		const steady = computeChemostatSteadyState({
+			...culture,
+			dilutionPerH: 0.25,
+			maintenanceGPerGH: (m * steadyS) / (steadyS + sEx)
+		});
+		const run = simulateRun({
+			mode: 'chemostat',
+			kinetics: { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5, maintenanceGPerGH: m },
+			initial: { biomassGPerL: 0.2, substrateGPerL: 5, volumeL: 1 },
+			feed: { strategy: 'constant', substrateGPerL: 10 },
+			dilutionPerH: 0.25,
+			endH: 300,
+			outputEveryH: 10
+		});
+		expect(run.substrateGPerL.at(-1)! / steady.substrateGPerL - 1).toBeCloseTo(0, 6);
+		expect(run.biomassGPerL.at(-1)! / steady.biomassGPerL - 1).toBeCloseTo(0, 6);
+	});
+
+	it('leaves every result exactly as before when m_s is 0', () => {
+		const plain = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.3, safetyMargin: 0.3 });
+		const zero = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.3, safetyMargin: 0.3, maintenanceGPerGH: 0 });
+		expect(zero).toEqual(plain);
+	});
+
+	it('names maintenanceGPerGH when it is negative or not a number', () => {
+		for (const bad of [-0.01, Number.NaN, Number.POSITIVE_INFINITY]) {
+			expect(
+				errorOf(() => computeChemostatSteadyState({ ...culture, dilutionPerH: 0.1, maintenanceGPerGH: bad })).field
+			).toBe('maintenanceGPerGH');
+		}
+	});
+});
+
 describe('compareBatchWithContinuous', () => {
 	const input = {
 		muMaxPerH: 0.5,
@@ -172,7 +312,42 @@ describe('compareBatchWithContinuous', () => {
 		expect(r.continuousToBatchRatio).toBe(0);
 	});
 
+	it('carries maintenance into the batch and the chemostat alike', () => {
+		const reference = scipyReference.batch.testCulture;
+		const m = reference.input.maintenanceGPerGH;
+		const r = compareBatchWithContinuous({ ...input, maintenanceGPerGH: m });
+		// Batch: SciPy solve_ivp (DOP853) of dX/dt = μX, dS/dt = −(μ/Y_G + m_s)X to S = 0.01·S0
+		// (chemostat-maintenance.json).
+		expect(relativeError(r.batch.growthTimeH, reference.growthTimeH)).toBeLessThan(1e-8);
+		expect(relativeError(r.batch.finalBiomassGPerL, reference.finalBiomassGPerL)).toBeLessThan(1e-8);
+		expect(r.batch.productivityGPerLH).toBeCloseTo((reference.finalBiomassGPerL - 0.1) / (reference.growthTimeH + 7), 9);
+		// Chemostat: X = D·Y_G(S0 − S)/(D + m_s·Y_G) (Pirt 1965), by hand at D = 0.4.
+		const s = (0.2 * 0.4) / (0.5 - 0.4);
+		const x = (0.4 * 0.5 * (10 - s)) / (0.4 + m * 0.5);
+		expect(r.continuous.biomassGPerL).toBeCloseTo(x, 12);
+		expect(r.continuous.productivityGPerLH).toBeCloseTo(0.4 * x, 12);
+		expect(r.continuousToBatchRatio).toBeCloseTo(r.continuous.productivityGPerLH / r.batch.productivityGPerLH, 12);
+	});
+
+	it('integrates the batch with maintenance as SciPy does for the page defaults too', () => {
+		const { input: b, growthTimeH, finalBiomassGPerL } = scipyReference.batch.pageDefaults;
+		const r = computeMonodBatchWithMaintenance(b, b.inoculumGPerL, b.substrateGPerL, (1 - b.conversion) * b.substrateGPerL);
+		// SciPy solve_ivp DOP853 with a terminal event (chemostat-maintenance.json).
+		expect(relativeError(r.growthTimeH, growthTimeH)).toBeLessThan(1e-8);
+		expect(relativeError(r.biomassGPerL, finalBiomassGPerL)).toBeLessThan(1e-8);
+	});
+
+	it('tends to the batch without maintenance as m_s → 0', () => {
+		// Closed-form Monod batch (textbook form, from memory) against the integration at a tiny m_s.
+		const r = computeMonodBatchWithMaintenance({ ...input, maintenanceGPerGH: 1e-12 }, 0.1, 10, 0.1);
+		expect(relativeError(r.growthTimeH, computeMonodBatchTimeH(input, 0.1, 10, 0.1))).toBeLessThan(1e-8);
+		expect(relativeError(r.biomassGPerL, 0.1 + 0.5 * 9.9)).toBeLessThan(1e-8);
+	});
+
 	it('names the bad field', () => {
+		expect(errorOf(() => compareBatchWithContinuous({ ...input, maintenanceGPerGH: -1 })).field).toBe(
+			'maintenanceGPerGH'
+		);
 		expect(errorOf(() => compareBatchWithContinuous({ ...input, inoculumGPerL: 0 })).field).toBe(
 			'inoculumGPerL'
 		);

@@ -46,7 +46,22 @@ test.describe('science endpoints, signed in', () => {
 		// 8.26 mg/L at 25 °C (ISO 5814 table; Montgomery et al. 1964), SCIENCE-REFERENCES.md
 		expect(Math.abs(body.mgPerL - 8.26)).toBeLessThan(0.02);
 		expect(body.method).toBe('benson-krause-1984');
-		expect(body.oxygenMoleFraction).toBe(0.2095);
+		// Absent, the O2 fraction is dry air's, 0.20946 (composition of dry air; from memory).
+		expect(body.o2MoleFraction).toBe(0.20946);
+	});
+
+	test('oxygen saturation under pure O2 scales by 1/0.20946, and a misspelt key is refused by name', async ({ page }) => {
+		const response = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 37, o2MoleFraction: 1 } });
+		expect(response.status()).toBe(200);
+		const body = await response.json();
+		// 6.727 mg/L for air at 37 °C (Benson & Krause 1984, SCIENCE-REFERENCES.md) × 1/0.20946 (Henry's law) = 32.1 mg/L.
+		expect(body.mgPerL).toBeCloseTo(32.12, 1);
+		expect(body.o2MoleFraction).toBe(1);
+		const misspelt = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 37, o2MoleFractin: 1 } });
+		expect(misspelt.status()).toBe(400);
+		const problem = await misspelt.json();
+		expect(problem.errors[0].path).toBe('o2MoleFractin');
+		expect(problem.detail).toContain('o2MoleFractin');
 	});
 
 	test('oxygen saturation outside the valid range says the range', async ({ page }) => {

@@ -117,6 +117,22 @@ test.describe('simulation endpoints, signed in', () => {
 		expect((await bad.json()).errors[0].path).toBe('safetyMargin');
 	});
 
+	test('chemostat: Pirt maintenance lowers X at low D and moves D_opt; a negative m_s names the field', async ({ page }) => {
+		const base = { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5, feedSubstrateGPerL: 20, dilutionPerH: 0.05 };
+		const without = await (await page.request.post('/api/v1/chemostat/steady-state', { data: base })).json();
+		const response = await page.request.post('/api/v1/chemostat/steady-state', { data: { ...base, maintenanceGPerGH: 0.05 } });
+		expect(response.status()).toBe(200);
+		const body = await response.json();
+		// Pirt 1965: X = D·Y_G(S0 − S)/(D + m_s·Y_G), so X/X(m_s = 0) = 0.05/(0.05 + 0.025) = 2/3 (by hand).
+		expect(body.biomassGPerL / without.biomassGPerL).toBeCloseTo(2 / 3, 10);
+		expect(body.criticalDilutionPerH).toBeCloseTo(without.criticalDilutionPerH, 12);
+		// D_opt 0.570617 /h with maintenance (SciPy, tests/chemistry/reference/chemostat-maintenance.json).
+		expect(body.optimalDilutionPerH).toBeCloseTo(0.570617, 5);
+		const bad = await page.request.post('/api/v1/chemostat/steady-state', { data: { ...base, maintenanceGPerGH: -1 } });
+		expect(bad.status()).toBe(400);
+		expect((await bad.json()).errors[0].path).toBe('maintenanceGPerGH');
+	});
+
 	test('batch against continuous: the ratio is continuous over batch productivity, turnaround included', async ({ page }) => {
 		const response = await page.request.post('/api/v1/productivity/batch-vs-continuous', {
 			data: { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5, substrateGPerL: 20, inoculumGPerL: 0.1, dilutionPerH: 0.4, turnaround: { cleaningH: 4, sterilisingH: 3, fillingH: 1, lagH: 2 } }

@@ -112,6 +112,37 @@ test('the chemostat tab shows the steady state, the sweep and the productivity l
 	await expect(page.getByTestId('productivity-ratio')).toHaveText(/^\d+(\.\d+)?$/);
 });
 
+test('the chemostat tab takes Pirt maintenance, shows its D_opt, and names a bad value by its label', async ({ page }) => {
+	await page.goto('/simulation/continuous');
+	const maintenance = page.getByLabel('Maintenance m_s (g/g/h)').first();
+	await expect(maintenance).toHaveAccessibleDescription(/g substrate per g biomass per hour/);
+	await page.getByLabel('Dilution rate D (1/h)').fill('0.05');
+	await maintenance.fill('0.05');
+	await page.getByRole('button', { name: 'Calculate steady state' }).click();
+	// μmax 0.6, Ks 0.05, Yx/s 0.5, Sf 20, D 0.05, m_s 0.05: X = D·Y(Sf − S)/(D + m_s·Y) = 6.665 g/L, two
+	// thirds of the 10.0 g/L without maintenance (Pirt 1965; SciPy in tests/chemistry/reference).
+	await expect(page.getByTestId('chemostat-result')).toContainText('6.67 g/L');
+	// D_opt with maintenance 0.5706 /h (SciPy, chemostat-maintenance.json), above 0.5699 without it.
+	await expect(page.getByTestId('chart-chemostat').locator('canvas')).toHaveAttribute('aria-label', /D_opt 0\.571.*D_crit 0\.599/);
+	await expect(page.getByTestId('chemostat-maintenance-note')).toContainText('golden-section search');
+
+	await maintenance.fill('-0.05');
+	await page.getByLabel('Feed substrate Sf (g/L)').fill('25');
+	await page.getByRole('button', { name: 'Calculate steady state' }).click();
+	await expect(maintenance).toHaveAccessibleDescription(/^Maintenance m_s \(g\/g\/h\) must be a finite number ≥ 0/);
+	await expect(maintenance).toHaveValue('-0.05');
+	await expect(page.getByLabel('Feed substrate Sf (g/L)')).toHaveValue('25');
+
+	const batchMaintenance = page.getByLabel('Maintenance m_s (g/g/h)').nth(1);
+	await batchMaintenance.fill('lots');
+	await page.getByRole('button', { name: 'Compare productivities' }).click();
+	await expect(batchMaintenance).toHaveAccessibleDescription(/Enter a number/);
+	await expect(batchMaintenance).toHaveValue('lots');
+	await batchMaintenance.fill('0.05');
+	await page.getByRole('button', { name: 'Compare productivities' }).click();
+	await expect(page.getByTestId('productivity-ratio')).toHaveText(/^\d+(\.\d+)?$/);
+});
+
 test('a run-data upload shows the bad row and still fits the rest', async ({ page }) => {
 	// Data from the model itself (Monod 1949 batch, μmax 0.6 /h), reported as OD at 0.5 g/L per OD.
 	const simulated = await page.request.post('/api/v1/simulate', {

@@ -47,3 +47,18 @@ describe('the error responses it documents', () => {
 		for (const status of ['404', '409', '422']) expect(doc2.components.responses[`Problem${status}`]).toBeDefined();
 	});
 });
+
+describe('the oxygen saturation operation', () => {
+	it('names the O2 fraction o2MoleFraction both ways and states the air default, 0.20946', () => {
+		const doc = buildOpenApiDocument('http://localhost') as unknown as {
+			paths: Record<string, { post: { summary: string; requestBody: { content: Record<string, { schema: { properties: object } }> }; responses: Record<string, { content?: Record<string, { schema: { properties: object } }> }> } }>;
+		};
+		const operation = doc.paths['/api/v1/oxygen/saturation'].post;
+		expect(Object.keys(operation.requestBody.content['application/json'].schema.properties)).toContain('o2MoleFraction');
+		expect(Object.keys(operation.requestBody.content['application/json'].schema.properties)).not.toContain('oxygenMoleFraction');
+		expect(Object.keys(operation.responses['200'].content!['application/json'].schema.properties)).toContain('o2MoleFraction');
+		// Dry air, 20.946 % O2 by volume (composition of dry air; from memory).
+		expect(operation.summary).toContain('0.20946');
+		expect(operation.summary).not.toMatch(/0\.2095(?!\d)/);
+	});
+});

@@ -26,3 +26,18 @@ export function readSimpleFields(
 	}
 	return Object.keys(fieldErrors).length ? { ok: false, fieldErrors } : { ok: true, numbers };
 }
+
+const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+
+/** The API's messages name a field by its key; on a form they read by its label. */
+export function relabelMessage(fields: SimpleField[], message: string): string {
+	return fields.reduce(
+		(text, field) => text.replace(new RegExp(`(?<![\\w.])${escapeRegExp(field.key)}(?!\\w)`, 'g'), field.label),
+		message
+	);
+}
+
+/** Field errors keyed by field, each message relabelled. */
+export function relabelFieldErrors(fields: SimpleField[], fieldErrors: Record<string, string>): Record<string, string> {
+	return Object.fromEntries(Object.entries(fieldErrors).map(([key, message]) => [key, relabelMessage(fields, message)]));
+}

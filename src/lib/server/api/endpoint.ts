@@ -17,11 +17,28 @@ export class ApiProblem extends Error {
 	}
 }
 
-export function zodProblems(issues: z.core.$ZodIssue[]): FieldProblem[] {
-	return issues.map((issue) => ({
-		path: issue.path.map(String).join('.') || '(body)',
-		message: issue.message
-	}));
+const joinPath = (path: readonly PropertyKey[]) => path.map(String).join('.') || '(body)';
+
+/**
+ * One problem per offending input at the dotted path a client can act on. An unknown key comes out
+ * at its own path (`oxygen.o2MoleFractin`), not at the object holding it; a value that fits none of
+ * a union's shapes is reported against the closest shape, the one with the fewest problems.
+ */
+export function zodProblems(issues: readonly z.core.$ZodIssue[], prefix: readonly PropertyKey[] = []): FieldProblem[] {
+	return issues.flatMap((issue): FieldProblem[] => {
+		const path = [...prefix, ...issue.path];
+		if (issue.code === 'unrecognized_keys') {
+			return issue.keys.map((key) => ({
+				path: joinPath([...path, key]),
+				message: `Unknown field "${key}": this request has no such field; check its spelling.`
+			}));
+		}
+		if (issue.code === 'invalid_union' && issue.errors.length > 0) {
+			const candidates = issue.errors.map((memberIssues) => zodProblems(memberIssues, path));
+			return candidates.reduce((closest, problems) => (problems.length < closest.length ? problems : closest));
+		}
+		return [{ path: joinPath(path), message: issue.message }];
+	});
 }
 
 type Access = { public: true } | { roles: Role[] };

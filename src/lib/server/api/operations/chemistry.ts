@@ -1,10 +1,14 @@
 import { z } from 'zod';
+import { AIR_O2_MOLE_FRACTION, AIR_O2_MOLE_FRACTION_SOURCE } from '$chemistry';
 import type { ApiOperation } from '../openapi';
+
+// Request shapes are strict objects at every level, union members included: a misspelt key is a 400
+// naming it, never silently ignored.
 
 const finite = z.number({ error: 'Give a number.' });
 const speciesId = z.string().min(1).max(60);
 
-export const formulaRequest = z.object({ formula: z.string().max(500) });
+export const formulaRequest = z.strictObject({ formula: z.string().max(500) });
 
 export const formulaResponse = z.object({
 	formula: z.string(),
@@ -16,15 +20,15 @@ export const formulaResponse = z.object({
 });
 
 const specification = z.discriminatedUnion('kind', [
-	z.object({ kind: z.literal('rate'), species: speciesId, mol: finite, relativeError: finite.positive().optional() }),
-	z.object({
+	z.strictObject({ kind: z.literal('rate'), species: speciesId, mol: finite, relativeError: finite.positive().optional() }),
+	z.strictObject({
 		kind: z.literal('massYield'),
 		product: speciesId,
 		substrate: speciesId,
 		gPerG: finite,
 		relativeError: finite.positive().optional()
 	}),
-	z.object({
+	z.strictObject({
 		kind: z.literal('molarRatio'),
 		numerator: speciesId,
 		denominator: speciesId,
@@ -33,10 +37,10 @@ const specification = z.discriminatedUnion('kind', [
 	})
 ]);
 
-export const stoichiometryRequest = z.object({
+export const stoichiometryRequest = z.strictObject({
 	species: z
 		.array(
-			z.object({
+			z.strictObject({
 				id: speciesId,
 				formula: z.string().max(200),
 				ashFraction: finite.min(0).max(0.5).optional(),
@@ -50,11 +54,13 @@ export const stoichiometryRequest = z.object({
 	consistencyConfidence: finite.gt(0).lt(1).optional()
 });
 
-export const oxygenSaturationRequest = z.object({
+export const oxygenSaturationRequest = z.strictObject({
 	temperatureC: finite,
 	salinityGPerKg: finite.optional(),
 	pressureKPa: finite.optional(),
-	oxygenMoleFraction: finite.optional(),
+	o2MoleFraction: finite
+		.optional()
+		.describe(`O2 mole fraction of the dry gas, 0–1; default air, ${AIR_O2_MOLE_FRACTION}`),
 	method: z.enum(['benson-krause-1984', 'garcia-gordon-1992']).optional()
 });
 
@@ -67,28 +73,28 @@ export const oxygenSaturationResponse = z.object({
 	temperatureC: z.number(),
 	salinityGPerKg: z.number(),
 	pressureKPa: z.number(),
-	oxygenMoleFraction: z.number()
+	o2MoleFraction: z.number()
 });
 
 const amounts = z.record(z.string().max(80), finite);
 
-export const sufficiencyRequest = z.object({
+export const sufficiencyRequest = z.strictObject({
 	profile: z.discriminatedUnion('kind', [
-		z.object({ kind: z.literal('preset'), id: z.string() }),
-		z.object({ kind: z.literal('elementalFractions'), name: z.string().optional(), fractions: amounts, cellDryMassPg: finite.optional() }),
-		z.object({
+		z.strictObject({ kind: z.literal('preset'), id: z.string() }),
+		z.strictObject({ kind: z.literal('elementalFractions'), name: z.string().optional(), fractions: amounts, cellDryMassPg: finite.optional() }),
+		z.strictObject({
 			kind: z.literal('componentRequirements'),
 			name: z.string().optional(),
 			requirementsGPerG: amounts,
 			cellDryMassPg: finite.optional()
 		}),
-		z.object({
+		z.strictObject({
 			kind: z.literal('perCell'),
 			name: z.string().optional(),
 			cellDryMassPg: finite.optional(),
 			consumption: z
 				.array(
-					z.object({
+					z.strictObject({
 						key: z.string().min(1),
 						basis: z.enum(['element', 'component']),
 						pgPerCell: finite.optional(),
@@ -101,14 +107,14 @@ export const sufficiencyRequest = z.object({
 		})
 	]),
 	target: z.union([
-		z.object({ biomassGPerL: finite }),
-		z.object({ cellsPerMl: finite, cellDryMassPg: finite.optional() })
+		z.strictObject({ biomassGPerL: finite }),
+		z.strictObject({ cellsPerMl: finite, cellDryMassPg: finite.optional() })
 	]),
-	supply: z.object({
+	supply: z.strictObject({
 		finalVolumeL: finite.optional(),
 		sources: z
 			.array(
-				z.object({
+				z.strictObject({
 					name: z.string().optional(),
 					volumeL: finite.optional(),
 					elementsGPerL: amounts.optional(),
@@ -122,9 +128,9 @@ export const sufficiencyRequest = z.object({
 	}),
 	safetyFactor: finite.optional(),
 	carbon: z
-		.union([
-			z.object({ basis: z.literal('component'), component: z.string(), yieldGPerG: finite }),
-			z.object({ basis: z.literal('element'), yieldGPerGCarbon: finite })
+		.discriminatedUnion('basis', [
+			z.strictObject({ basis: z.literal('component'), component: z.string(), yieldGPerG: finite }),
+			z.strictObject({ basis: z.literal('element'), yieldGPerGCarbon: finite })
 		])
 		.optional(),
 	ignoreElements: z.array(z.string()).optional()
@@ -151,7 +157,7 @@ export const chemistryOperations: ApiOperation[] = [
 		method: 'post',
 		path: '/api/v1/oxygen/saturation',
 		summary:
-			'Dissolved-oxygen saturation: Benson & Krause (1984) as given in APHA Standard Methods 4500-O by default, or Garcia & Gordon (1992). Defaults: salinity 0 g/kg, 101.325 kPa, O2 mole fraction 0.2095',
+			`Dissolved-oxygen saturation: Benson & Krause (1984) as given in APHA Standard Methods 4500-O by default, or Garcia & Gordon (1992). Defaults: salinity 0 g/kg, 101.325 kPa, o2MoleFraction ${AIR_O2_MOLE_FRACTION} (dry air; ${AIR_O2_MOLE_FRACTION_SOURCE})`,
 		access: 'signed-in',
 		request: oxygenSaturationRequest,
 		response: oxygenSaturationResponse

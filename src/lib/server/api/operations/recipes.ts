@@ -4,14 +4,15 @@ import type { ApiOperation } from '../openapi';
 
 const numberOrText = z.union([z.number(), z.string().max(40)]);
 
-export const previewRequest = z.object({
+// Strict at every level: a misspelt key is a 400 naming it, never silently ignored.
+export const previewRequest = z.strictObject({
 	recipeId: z.string().max(80).optional().describe('The recipe being edited, so a stock cannot contain it'),
 	preparationTemperatureC: numberOrText.optional().describe('°C; 25 when omitted'),
 	osmolalityMinMOsmPerKg: numberOrText.optional(),
 	osmolalityMaxMOsmPerKg: numberOrText.optional(),
 	lines: z
 		.array(
-			z.object({
+			z.strictObject({
 				kind: z.enum(LINE_KINDS).default('component'),
 				componentId: z.string().max(80).optional(),
 				shelfFormId: z.string().max(80).optional(),

@@ -93,11 +93,16 @@ export const simulateResponse = z.object({
 	stoppedAtH: z.number().optional()
 }).loose();
 
+const maintenance = finite
+	.optional()
+	.describe('Pirt maintenance coefficient m_s, g substrate / g biomass / h; default 0');
+
 export const chemostatRequest = z.strictObject({
 	muMaxPerH: finite,
 	ksGPerL: finite,
-	yieldXS: finite,
+	yieldXS: finite.describe('true growth yield Y_G, g biomass / g substrate'),
 	feedSubstrateGPerL: finite,
+	maintenanceGPerGH: maintenance,
 	dilutionPerH: finite,
 	safetyMargin: finite.optional().describe('fraction below D_crit, 0 ≤ margin < 1'),
 	sweepPoints: z.int().optional()
@@ -125,7 +130,8 @@ export const chemostatResponse = z.object({
 export const batchVersusContinuousRequest = z.strictObject({
 	muMaxPerH: finite,
 	ksGPerL: finite,
-	yieldXS: finite,
+	yieldXS: finite.describe('true growth yield Y_G, g biomass / g substrate'),
+	maintenanceGPerGH: maintenance.describe('Pirt maintenance coefficient m_s, g substrate / g biomass / h, in the batch and the chemostat; default 0'),
 	substrateGPerL: finite.describe('batch initial substrate and chemostat feed, g/L'),
 	inoculumGPerL: finite,
 	dilutionPerH: finite,
@@ -191,7 +197,7 @@ export const simulationOperations: ApiOperation[] = [
 		method: 'post',
 		path: '/api/v1/chemostat/steady-state',
 		summary:
-			'Monod chemostat steady state at a dilution rate (Herbert, Elsworth & Telling 1956): X, S, D·X, D_crit, D_opt, washout, a sweep from D = 0 to D_crit, and the productivity lost to a safety margin below D_crit',
+			'Monod chemostat steady state at a dilution rate (Herbert, Elsworth & Telling 1956) with optional Pirt (1965) maintenance: X = D·Y_G(S0 − S)/(D + m_s·Y_G), S, D·X, D_crit, D_opt (closed form without maintenance, golden-section search with it), washout, a sweep from D = 0 to D_crit, and the productivity lost to a safety margin below D_crit',
 		access: 'signed-in',
 		request: chemostatRequest,
 		response: chemostatResponse
@@ -200,7 +206,7 @@ export const simulationOperations: ApiOperation[] = [
 		method: 'post',
 		path: '/api/v1/productivity/batch-vs-continuous',
 		summary:
-			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio',
+			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio; Pirt maintenance, when given, applies to both',
 		access: 'signed-in',
 		request: batchVersusContinuousRequest
 	},

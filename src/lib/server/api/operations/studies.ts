@@ -4,21 +4,21 @@ import type { ApiOperation } from '../openapi';
 
 const finite = z.number({ error: 'Give a number.' });
 
-export const evaluateRequest = z.object({
+// Strict at every level: a misspelt key is a 400 naming it, never silently ignored.
+export const evaluateRequest = z.strictObject({
 	studyId: z.string().min(1).max(80),
 	whatIf: z
-		.object({
+		.strictObject({
 			targetValue: finite.optional().describe('g/L dry biomass or cells/mL, as the study'),
 			feedVolumeL: finite.optional().describe('Total feed volume: planned for open plans, available for substrate- and DO-stat plans; every feed is scaled in proportion'),
 			kLaPerH: finite.optional(),
 			o2MoleFraction: finite.optional().describe('O2 mole fraction of the inlet gas, 0–1'),
 			temperatureC: finite.optional()
 		})
-		.strict()
 		.default({})
 });
 
-export const feedDesignRequest = z.object({
+export const feedDesignRequest = z.strictObject({
 	componentIds: z.array(z.string().min(1).max(80)).min(1, 'Choose at least one component.').max(40),
 	feedVolumeL: finite,
 	temperatureC: finite.min(0, 'At least 0 °C').max(60, 'At most 60 °C')
