@@ -215,16 +215,9 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 	});
 
 	it('agrees with the dynamic simulation with maintenance at steady state', () => {
-		// The integrator (odex) reaches the steady state of the same balances. Its maintenance is
-		// scaled by S/(S + S_ex) (see the simulation help), so the closed form gets that effective m_s.
+		// The integrator (odex) reaches the steady state of the same balances, maintenance in full.
 		const m = 0.05;
-		const steadyS = (0.2 * 0.25) / (0.5 - 0.25);
-		const sEx = computeExhaustionThresholdGPerL(0.2);
-		const steady = computeChemostatSteadyState({
-			...culture,
-			dilutionPerH: 0.25,
-			maintenanceGPerGH: (m * steadyS) / (steadyS + sEx)
-		});
+		const steady = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.25, maintenanceGPerGH: m });
 		const run = simulateRun({
 			mode: 'chemostat',
 			kinetics: { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5, maintenanceGPerGH: m },
