@@ -31,6 +31,15 @@ export const HEAT_PER_OXYGEN_FACTORS: readonly HeatFactor[] = [
 ];
 
 export const DEFAULT_HEAT_PER_MOL_O2_KJ = 440;
+export const DEFAULT_HEAT_PER_MOL_O2_SOURCE =
+	'Birou, Marison & von Stockar, Biotechnol. Bioeng. 30:650 (1987)';
+
+/**
+ * Accepted oxycaloric factors, kJ/mol O2. Published values cluster near 440–460 kJ/mol (see
+ * HEAT_PER_OXYGEN_FACTORS); this wider band is a guard against unit slips (kcal/mol is ×4.184 off,
+ * J/mol ×1000), not a published range.
+ */
+export const HEAT_PER_MOL_O2_RANGE_KJ = { min: 300, max: 600 } as const;
 
 export interface MetabolicHeatInput {
 	/** Oxygen uptake rate, mmol O2 per litre per hour. */
@@ -75,10 +84,9 @@ export function computeMetabolicHeat(input: MetabolicHeatInput): MetabolicHeatRe
 		'heatPerMolO2KJ',
 		'Heat per mol O2'
 	);
-	if (q < 300 || q > 600) {
-		// Published oxycaloric factors cluster near 440–460 kJ/mol; far outside is a unit slip (kcal, J).
+	if (q < HEAT_PER_MOL_O2_RANGE_KJ.min || q > HEAT_PER_MOL_O2_RANGE_KJ.max) {
 		throw new ChemistryInputError(
-			`Heat per mol O2 ${q} kJ/mol is outside the plausible range 300 to 600 kJ/mol`,
+			`Heat per mol O2 ${q} kJ/mol is outside the plausible range ${HEAT_PER_MOL_O2_RANGE_KJ.min} to ${HEAT_PER_MOL_O2_RANGE_KJ.max} kJ/mol`,
 			{
 				field: 'heatPerMolO2KJ'
 			}

@@ -8,6 +8,7 @@ export * from './composition';
 export * from './weighing';
 export * from './oxygen';
 export * from './heat';
+export * from './oxygen-load';
 export * from './degree-of-reduction';
 export * from './stoichiometry';
 export * from './sufficiency';

@@ -93,6 +93,11 @@ export interface OxygenParameters {
 	/** 0: growth does not slow as DO falls until DO reaches 0 (then transfer limits it) */
 	koMgPerL: number;
 	maintenanceMgPerGH: number;
+	/**
+	 * false: DO is followed (feed laws read it; it is held at 0 where transfer falls short) but never
+	 * slows growth, so OUR is the demand of the plan rather than what the vessel supplies
+	 */
+	limitsGrowth: boolean;
 }
 
 /**
@@ -174,7 +179,7 @@ export function computeGrowthRatePerH(
 	if (regime.substrateExhausted) return 0;
 	const mu = computeSubstrateGrowthRatePerH(p, y);
 	const o2 = p.oxygen;
-	if (o2 === null) return mu;
+	if (o2 === null || !o2.limitsGrowth) return mu;
 	if (o2.koMgPerL > 0) {
 		if (regime.oxygenLimited) return 0;
 		const c = y[C] > 0 ? y[C] : 0;

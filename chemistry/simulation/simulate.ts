@@ -311,6 +311,9 @@ class RunIntegrator {
 	private describeOxygenDepletion(): string {
 		const o2 = this.p.oxygen!;
 		const maxOtr = formatNumber((o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL);
+		if (!o2.limitsGrowth) {
+			return `DO reached 0: the demand exceeds the maximum transfer kLa·C* (${maxOtr} mmol/L/h). Growth is not held back by O2 in this run, so OUR shows the demand the vessel would have to meet.`;
+		}
 		return o2.koMgPerL > 0
 			? `DO reached 0: maintenance alone asks for more O2 than the maximum transfer kLa·C* (${maxOtr} mmol/L/h); growth stops until demand falls.`
 			: `DO reached 0: demand exceeds the maximum transfer kLa·C* (${maxOtr} mmol/L/h), so growth runs only as fast as transfer supplies O2 (OTR = OUR at DO = 0).`;

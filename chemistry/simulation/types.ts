@@ -62,6 +62,12 @@ export interface OxygenInput {
 	saturationMgPerL: number;
 	/** O2 for maintenance, mg O2 per g biomass per h */
 	maintenanceMgPerGH?: number;
+	/**
+	 * default true. false: DO is followed (a DO-stat feed reads it, and it is held at 0 where transfer
+	 * falls short) but never slows growth, so `ourMmolPerLH` is the demand of the plan as written, not
+	 * what this kLa supplies; K_O must then be absent
+	 */
+	limitsGrowth?: boolean;
 }
 
 export interface PerfusionInput {

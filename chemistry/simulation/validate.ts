@@ -39,6 +39,16 @@ export interface SimulationPlan {
 	drawFill: { fraction: number; everyH: number } | null;
 }
 
+function readLimitsGrowth(value: unknown): boolean {
+	if (value === undefined || value === null) return true;
+	if (typeof value !== 'boolean') {
+		throw new ChemistryInputError('oxygen.limitsGrowth must be true or false.', {
+			field: 'oxygen.limitsGrowth'
+		});
+	}
+	return value;
+}
+
 export function validateSimulationRequest(request: SimulationRequest): SimulationPlan {
 	if (request === null || typeof request !== 'object') {
 		throw new ChemistryInputError('The simulation request must be an object.', {});
@@ -96,8 +106,15 @@ export function validateSimulationRequest(request: SimulationRequest): Simulatio
 				'oxygen.maintenanceMgPerGH',
 				0,
 				NON_NEGATIVE
-			)
+			),
+			limitsGrowth: readLimitsGrowth(o.limitsGrowth)
 		};
+		if (!oxygen.limitsGrowth && oxygen.koMgPerL > 0) {
+			throw new ChemistryInputError(
+				'kinetics.koMgPerL slows growth as DO falls, which oxygen.limitsGrowth: false rules out; give one or the other.',
+				{ field: 'kinetics.koMgPerL' }
+			);
+		}
 		c0 = readOptional(
 			init.dissolvedOxygenMgPerL,
 			'initial.dissolvedOxygenMgPerL',

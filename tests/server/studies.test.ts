@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { ATOMIC_WEIGHTS, formulaMolarMass } from '$chemistry';
+import { AIR_O2_MOLE_FRACTION, ATOMIC_WEIGHTS, formulaMolarMass } from '$chemistry';
 import { db } from '$lib/server/db';
 import { recipe, recipeVersion, study } from '$lib/server/db/schema';
 import { seedDemo } from '$lib/server/demo/seed';
@@ -125,9 +125,10 @@ describe('the feed designer', () => {
 			durationH: 336,
 			temperatureC: 37,
 			pressureKPa: 101.325,
-			o2MoleFraction: 0.2095,
+			o2MoleFraction: AIR_O2_MOLE_FRACTION,
 			doSetpointPercent: 40,
 			safetyFactor: 1.2,
+			heatPerMolO2KJ: null,
 			notes: '',
 			feed1VersionId: feed,
 			feed1VolumeL: 1,

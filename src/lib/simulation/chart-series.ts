@@ -11,7 +11,7 @@ export interface SimulationRunView {
 export const EVENT_LABELS: Record<SimulationEventKind, string> = {
 	substrateExhausted: 'Substrate exhausted',
 	oxygenLimited: 'Oxygen-limited',
-	oxygenDepleted: 'Oxygen depleted',
+	oxygenDepleted: 'DO at 0: growth held to transfer',
 	maxVolumeReached: 'Maximum volume',
 	washout: 'Washout',
 	feedStarted: 'Feed started',

@@ -100,6 +100,8 @@ export const study = sqliteTable(
 		o2MoleFraction: real('o2_mole_fraction').notNull(),
 		doSetpointPercent: real('do_setpoint_percent').notNull(),
 		safetyFactor: real('safety_factor').notNull(),
+		/** Oxycaloric factor, kJ per mol O2 consumed; null: the default of the science library, with its source. */
+		heatPerMolO2KJ: real('heat_per_mol_o2_kj'),
 		notes: text('notes').notNull().default(''),
 		createdById: text('created_by_id')
 			.notNull()

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { findBiomassComposition, solveAerobicGrowth } from '$chemistry';
+import { AIR_O2_MOLE_FRACTION, findBiomassComposition, solveAerobicGrowth } from '$chemistry';
 import { blankLine, type DraftFieldsInput, type DraftLineInput } from '$lib/recipes';
 import type { FeedPlanStrategy } from '$lib/studies';
 import { db } from '../db';
@@ -275,6 +275,7 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			o2MoleFraction: 0.5,
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
+			heatPerMolO2KJ: null,
 			notes: 'Demo study: glycerol batch, then a constant glycerol-salts feed; O2-enriched air from the batch phase on.'
 		}
 	},
@@ -292,9 +293,10 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			durationH: 30,
 			temperatureC: 37,
 			pressureKPa: 150,
-			o2MoleFraction: 0.2095,
+			o2MoleFraction: AIR_O2_MOLE_FRACTION,
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
+			heatPerMolO2KJ: null,
 			notes: 'Demo study: the target is set deliberately high for this medium, to show what runs out first.'
 		}
 	},
@@ -318,6 +320,7 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			o2MoleFraction: 0.5,
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
+			heatPerMolO2KJ: null,
 			notes: 'Demo study: glycerol-salts feed on DO-stat (the pump runs while DO is above 35 % of air saturation, that is once the batch glycerol is gone), with a constant nitrogen and trace-metal top-up alongside; O2-enriched air.'
 		}
 	}

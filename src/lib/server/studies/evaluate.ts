@@ -1,6 +1,7 @@
 import {
 	AIR_O2_MOLE_FRACTION,
 	DEFAULT_HEAT_PER_MOL_O2_KJ,
+	DEFAULT_HEAT_PER_MOL_O2_SOURCE,
 	DEFAULT_IGNORED_ELEMENTS,
 	O2_MOLAR_MASS_G_PER_MOL,
 	assessCooling,
@@ -8,6 +9,8 @@ import {
 	assessSufficiency,
 	computeOxygenDemand,
 	computeOxygenSaturation,
+	findPeakOxygenLoad,
+	roundUpToSignificant,
 	type SufficiencyResult
 } from '$chemistry';
 import { RuleError, withRuleErrors } from '../rule-error';
@@ -83,6 +86,9 @@ function withoutDeliveries<T extends { deliveries: unknown }>(course: T): Omit<T
 	return rest;
 }
 
+/** Hours as a report shows them. */
+const hours = (h: number) => `${h.toFixed(h < 10 ? 1 : 0)} h`;
+
 /** Science input errors inside a study are 422s: the study's own data, not the request, is at fault. */
 const asSufficiencyError = <T>(run: () => T): T => withRuleErrors(run, { status: 422 });
 
@@ -127,7 +133,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 
 	const initialBiomassGPerL =
 		plan.targetBasis === 'cellsPerMl' ? plan.inoculumDensity * (profile.cellDryMassPg ?? 0) * G_PER_L_PER_CELL_PER_ML_PER_PG : plan.inoculumDensity;
-	const course = simulatePlan({
+	const courses = simulatePlan({
 		inputs,
 		feeds,
 		growth,
@@ -140,7 +146,11 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		reachesFraction: REACHES_TARGET_FRACTION,
 		defaults
 	});
-	const simulated = 'message' in course ? null : course;
+	// The oxygen and heat load follow the plan as written (its demand); everything else, the time
+	// course, the run-out times and what controlled feeds deliver, follows the plan in this vessel,
+	// where oxygen may hold growth back. When transfer keeps up, the two runs are the same.
+	const demandCourse = 'message' in courses.demand ? null : courses.demand;
+	const simulated = 'message' in courses.vessel ? null : courses.vessel;
 
 	// Nutrients
 	const { profile: sufficiencyProfile, carbon, substrates } = toSufficiencyProfile(profile);
@@ -205,41 +215,66 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	const { notes: runoutNotes, warnings } = describeRunouts(lines, nameOf(growth.carbonSourceId, 'component'));
 	notes.push(...runoutNotes);
 
-	let peakOurMmolPerLH: number;
+	// Oxygen: the demand of the plan as written against what the vessel transfers at the DO setpoint.
+	const heatPerMolO2KJ = plan.heatPerMolO2KJ ?? DEFAULT_HEAT_PER_MOL_O2_KJ;
+	let load: { peakOurMmolPerLH: number; uptakeOurMmolPerLH: number; uptakeVolumeL: number; atH: number | null };
 	let peakOurOrigin: string;
-	if (!simulated) {
-		peakOurMmolPerLH = ((growth.muMaxPerH / yieldXO2GPerG) * target.biomassGPerL * 1000) / O2_MOLAR_MASS_G_PER_MOL;
-		peakOurOrigin = 'μmax · X_target / Yx/O2 (the time course could not be simulated)';
-		defaults.push({ what: 'Peak OUR', value: `${peakOurMmolPerLH.toPrecision(3)} mmol/(L·h)`, source: peakOurOrigin });
+	/** The figures could not cover the whole plan: the demand can only be higher. */
+	let lowerBound = false;
+	if (!demandCourse) {
+		const estimate = ((growth.muMaxPerH / yieldXO2GPerG) * target.biomassGPerL * 1000) / O2_MOLAR_MASS_G_PER_MOL;
+		load = { peakOurMmolPerLH: estimate, uptakeOurMmolPerLH: estimate, uptakeVolumeL: finalVolumeL, atH: null };
+		peakOurOrigin = 'μmax · X_target / Yx/O2, a rough estimate: the plan could not be simulated';
+		lowerBound = true;
+		defaults.push({ what: 'Peak OUR', value: `${estimate.toPrecision(3)} mmol/(L·h)`, source: peakOurOrigin });
+		reasons.push(`The plan cannot be simulated (${'message' in courses.demand ? courses.demand.message : 'no time course'}), so its oxygen and heat load are rough estimates and it cannot be called supported.`);
 	} else {
-		peakOurMmolPerLH = Math.max(...simulated.ourMmolPerLH);
-		peakOurOrigin = 'the simulated time course';
+		const peak = findPeakOxygenLoad(demandCourse);
+		load = { peakOurMmolPerLH: peak.peakOurMmolPerLH, uptakeOurMmolPerLH: peak.peakUptakeOurMmolPerLH, uptakeVolumeL: peak.peakUptakeVolumeL, atH: peak.peakOurAtH };
+		peakOurOrigin = `the O2 demand of the plan as written, at ${hours(peak.peakOurAtH)}: the growth the feeds support, not held back by this vessel's transfer`;
+		if (demandCourse.stoppedAtH !== null) {
+			lowerBound = true;
+			reasons.push(
+				`The plan fills the vessel at ${hours(demandCourse.stoppedAtH)}, before its end at ${hours(plan.durationH)}; the oxygen and heat figures cover the run only that far, so they are lower bounds.`
+			);
+		}
 	}
 	const transfer = asSufficiencyError(() =>
 		assessOxygenTransfer({
 			conditions: { temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction },
 			kLaPerH,
 			setpoint: { percentAirSaturation: plan.doSetpointPercent },
-			uptake: { ourMmolPerLH: peakOurMmolPerLH }
+			uptake: { ourMmolPerLH: load.peakOurMmolPerLH }
 		})
 	);
+	// Rounded up, so that the figure typed back in as a what-if meets the demand.
+	const kLaRecommendedPerH = roundUpToSignificant(transfer.kLaNeededPerH);
+	const o2MoleFractionRecommended = roundUpToSignificant(transfer.o2MoleFractionNeeded);
 	const enriched = o2MoleFraction > AIR_O2_MOLE_FRACTION + 1e-4;
 	const biomassFormedG = target.biomassGPerL * finalVolumeL - initialBiomassGPerL * plan.initialVolumeL;
-	const demand = computeOxygenDemand({
+	const oxygenDemand = computeOxygenDemand({
 		yieldBiomassOnOxygenGPerG: yieldXO2GPerG,
 		biomassProducedGPerL: Math.max(0, biomassFormedG / finalVolumeL),
 		workingVolumeL: finalVolumeL
 	});
-	let oxygenOk = transfer.verdict === 'sufficient';
-	if (!oxygenOk) {
+	let oxygenOk = transfer.verdict === 'sufficient' && !lowerBound;
+	if (transfer.verdict !== 'sufficient') {
 		const remedy = !transfer.enrichmentFeasible
 			? 'even pure O2 would not close the gap at this kLa'
 			: vessel.o2EnrichmentAllowed
-				? `an O2 fraction of ${transfer.o2MoleFractionNeeded.toFixed(2)} would`
+				? `an O2 fraction of ${o2MoleFractionRecommended}`
 				: 'this vessel does not allow O2 enrichment';
 		reasons.push(
-			`Peak OUR ${peakOurMmolPerLH.toFixed(0)} mmol/(L·h) exceeds the maximum OTR ${transfer.maxOtr.mmolPerLH.toFixed(0)} mmol/(L·h) at the DO setpoint: it needs kLa ${transfer.kLaNeededPerH.toFixed(0)} 1/h, or ${remedy}.`
+			`Peak OUR ${load.peakOurMmolPerLH.toFixed(0)} mmol/(L·h) exceeds the maximum OTR ${transfer.maxOtr.mmolPerLH.toFixed(0)} mmol/(L·h) at the DO setpoint: the plan needs kLa ${kLaRecommendedPerH} 1/h, or ${remedy}.`
 		);
+	}
+	for (const f of feeds) {
+		if (f.plan.strategy === 'doStat' && f.plan.doSetpointPercent! < plan.doSetpointPercent) {
+			oxygenOk = false;
+			reasons.push(
+				`${f.label} feeds on DO-stat down to ${f.plan.doSetpointPercent} % of air saturation, below the study's DO setpoint of ${plan.doSetpointPercent} %: the controller would hold DO there whatever the kLa. Raise the feed's DO setpoint to at least ${plan.doSetpointPercent} %.`
+			);
+		}
 	}
 	if (enriched && !vessel.o2EnrichmentAllowed) {
 		oxygenOk = false;
@@ -249,31 +284,46 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		defaults.push({ what: 'Inlet gas', value: `air, O2 mole fraction ${AIR_O2_MOLE_FRACTION}`, source: 'Dry air' });
 	}
 
-	// Heat
+	// Heat: at the peak of the whole culture's uptake, OUR·V
 	const agitationPowerW = vessel.agitationPowerW ?? 0;
 	if (vessel.agitationPowerW === null) defaults.push({ what: 'Agitation power added to the heat load', value: '0 W', source: 'Not entered for the vessel' });
 	const cooling = assessCooling({
-		ourMmolPerLH: peakOurMmolPerLH,
-		workingVolumeL: finalVolumeL,
+		ourMmolPerLH: load.uptakeOurMmolPerLH,
+		workingVolumeL: load.uptakeVolumeL,
+		heatPerMolO2KJ,
 		coolingCapacityW: vessel.coolingCapacityW,
 		agitationPowerW
 	});
-	defaults.push({ what: 'Heat per mol O2 consumed', value: `${DEFAULT_HEAT_PER_MOL_O2_KJ} kJ/mol`, source: 'Birou, Marison & von Stockar, Biotechnol. Bioeng. 30:650 (1987)' });
-	defaults.push({ what: 'Volume for the heat load', value: 'final volume', source: 'Peak OUR taken over the whole final volume (the larger of the two)' });
-	const heatOk = cooling.verdict === 'sufficient';
-	if (!heatOk) reasons.push(`Heat load ${cooling.heatLoadW.toFixed(0)} W exceeds the cooling capacity of ${vessel.coolingCapacityW} W.`);
+	if (plan.heatPerMolO2KJ === null) {
+		defaults.push({ what: 'Heat per mol O2 consumed', value: `${DEFAULT_HEAT_PER_MOL_O2_KJ} kJ/mol`, source: DEFAULT_HEAT_PER_MOL_O2_SOURCE });
+	}
+	defaults.push({
+		what: 'Heat load taken at',
+		value: demandCourse ? `the peak of OUR × volume, ${load.uptakeOurMmolPerLH.toPrecision(3)} mmol/(L·h) in ${load.uptakeVolumeL.toPrecision(3)} L` : 'the estimated peak OUR over the final volume',
+		source: 'Metabolic heat in proportion to the O2 consumed (Cooney, Wang & Mateles 1969), plus the agitator power'
+	});
+	const heatOk = cooling.verdict === 'sufficient' && !lowerBound;
+	if (cooling.verdict !== 'sufficient') reasons.push(`Heat load ${cooling.heatLoadW.toFixed(0)} W exceeds the cooling capacity of ${vessel.coolingCapacityW} W.`);
 
 	// Volume
 	const volumeOk = finalVolumeL <= vessel.maxWorkingVolumeL && plan.initialVolumeL >= vessel.minWorkingVolumeL;
 	if (finalVolumeL > vessel.maxWorkingVolumeL) reasons.push(`Final volume ${finalVolumeL.toFixed(1)} L is above the vessel's maximum working volume of ${vessel.maxWorkingVolumeL} L.`);
 	if (plan.initialVolumeL < vessel.minWorkingVolumeL) reasons.push(`Initial volume ${plan.initialVolumeL} L is below the vessel's minimum working volume of ${vessel.minWorkingVolumeL} L.`);
 
-	if (simulated && !simulated.reachesTarget) {
+	if (demandCourse && !demandCourse.reachesTarget) {
 		reasons.push(
-			`The simulated run reaches ${simulated.finalBiomassGPerL.toPrecision(3)} g/L${simulated.stoppedAtH !== null ? ` and stops at ${simulated.stoppedAtH.toFixed(1)} h` : ''}, short of the target ${target.biomassGPerL.toPrecision(3)} g/L within ${plan.durationH} h.`
+			`The plan as written reaches ${demandCourse.finalBiomassGPerL.toPrecision(3)} g/L${demandCourse.stoppedAtH !== null ? ` and stops at ${hours(demandCourse.stoppedAtH)}` : ''}, short of the target ${target.biomassGPerL.toPrecision(3)} g/L within ${plan.durationH} h.`
+		);
+	} else if (simulated && !simulated.reachesTarget) {
+		const limited = simulated.oxygenLimitedH[0];
+		reasons.push(
+			`In this vessel the run reaches ${simulated.finalBiomassGPerL.toPrecision(3)} g/L, short of the target ${target.biomassGPerL.toPrecision(3)} g/L within ${plan.durationH} h${limited ? `: DO reaches 0 at ${hours(limited.fromH)} and oxygen transfer then sets the pace of growth` : ''}.`
 		);
 	}
-	if ('message' in course) notes.push(`Time course not available: ${course.message}`);
+	if (simulated && simulated.oxygenLimitedH.length > 0 && simulated.reachesTarget) {
+		notes.push(`In this vessel DO reaches 0 at ${hours(simulated.oxygenLimitedH[0].fromH)}; growth then runs at what oxygen transfer supplies.`);
+	}
+	if ('message' in courses.vessel) notes.push(`Time course not available: ${courses.vessel.message}`);
 	notes.push(...sufficiency.notes);
 
 	return {
@@ -305,17 +355,21 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		nutrients: { check: nutrientsOk ? 'ok' : 'short', lines, notes: sufficiency.notes },
 		oxygen: {
 			check: oxygenOk ? 'ok' : 'short',
-			totalO2G: demand.totalG,
-			totalO2Mol: demand.totalMol,
+			totalO2G: oxygenDemand.totalG,
+			totalO2Mol: oxygenDemand.totalMol,
 			yieldXO2GPerG,
-			peakOurMmolPerLH,
+			peakOurMmolPerLH: load.peakOurMmolPerLH,
+			peakOurAtH: load.atH,
 			peakOurOrigin,
+			lowerBound,
 			maxOtrMmolPerLH: transfer.maxOtr.mmolPerLH,
 			utilisation: transfer.utilisation,
 			saturationMgPerL: transfer.saturation.mgPerL,
 			setpointMgPerL: transfer.setpointMgPerL,
 			kLaNeededPerH: transfer.kLaNeededPerH,
+			kLaRecommendedPerH,
 			o2MoleFractionNeeded: transfer.o2MoleFractionNeeded,
+			o2MoleFractionRecommended,
 			enrichmentFeasible: transfer.enrichmentFeasible,
 			enrichmentAllowed: vessel.o2EnrichmentAllowed,
 			reserveS: transfer.reserveS
@@ -323,6 +377,8 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		heat: {
 			check: heatOk ? 'ok' : 'short',
 			heatLoadW: cooling.heatLoadW,
+			heatPerMolO2KJ,
+			lowerBound,
 			metabolicW: cooling.totalW,
 			agitationPowerW,
 			coolingCapacityW: vessel.coolingCapacityW,
@@ -330,7 +386,9 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		},
 		volume: { check: volumeOk ? 'ok' : 'short', initialL: plan.initialVolumeL, feedL: feedUsedL, finalL: finalVolumeL, minL: vessel.minWorkingVolumeL, maxL: vessel.maxWorkingVolumeL },
 		feeds: feedReports,
-		timeCourse: 'message' in course ? { check: 'unavailable', message: course.message } : { ...withoutDeliveries(course), check: course.reachesTarget ? 'ok' : 'short' },
+		timeCourse: !simulated
+			? { check: 'unavailable', message: 'message' in courses.vessel ? courses.vessel.message : '' }
+			: { ...withoutDeliveries(simulated), demandOurMmolPerLH: demandCourse?.ourMmolPerLH ?? null, check: simulated.reachesTarget ? 'ok' : 'short' },
 		defaults,
 		notes,
 		cautions: STUDY_CAUTIONS

@@ -103,16 +103,17 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	w.ensure(120);
 	w.text(`Oxygen: ${o.check}`, { bold: true, size: 11 });
 	w.text(`Total O2 needed: ${formatAmount(o.totalO2G)} g (${formatAmount(o.totalO2Mol)} mol)`);
-	w.text(`Peak OUR ${formatAmount(o.peakOurMmolPerLH)} mmol/(L·h) against max OTR at DO setpoint ${formatAmount(o.maxOtrMmolPerLH)} mmol/(L·h)`);
-	w.text(`kLa used / needed: ${formatAmount(report.inputs.kLaPerH)} / ${formatAmount(o.kLaNeededPerH)} 1/h`);
-	w.text(`O2 fraction used / needed: ${formatAmount(report.inputs.o2MoleFraction)} / ${o.enrichmentFeasible ? formatAmount(o.o2MoleFractionNeeded) : 'above 1'}${o.enrichmentAllowed ? '' : ' · enrichment not allowed'}`);
+	const atLeast = o.lowerBound ? 'at least ' : '';
+	w.text(`Peak OUR of the plan ${atLeast}${formatAmount(o.peakOurMmolPerLH)} mmol/(L·h) against max OTR at DO setpoint ${formatAmount(o.maxOtrMmolPerLH)} mmol/(L·h)`);
+	w.text(`kLa used / needed: ${formatAmount(report.inputs.kLaPerH)} / ${atLeast}${o.kLaRecommendedPerH} 1/h`);
+	w.text(`O2 fraction used / needed: ${formatAmount(report.inputs.o2MoleFraction)} / ${o.enrichmentFeasible ? `${atLeast}${o.o2MoleFractionRecommended}` : 'above 1'}${o.enrichmentAllowed ? '' : ' · enrichment not allowed'}`);
 	w.text(`Reserve at setpoint: ${o.reserveS === null ? '—' : `${formatAmount(o.reserveS)} s`}`);
-	w.text(`Peak OUR from ${o.peakOurOrigin}; kLa ${report.inputs.kLaOrigin}.`, { size: 8.5 });
+	w.text(`Peak OUR from ${o.peakOurOrigin}; kLa ${report.inputs.kLaOrigin}. Needed values are rounded up.${o.lowerBound ? ' The run could not cover the whole plan, so these are lower bounds.' : ''}`, { size: 8.5 });
 	w.gap(10);
 
 	w.ensure(60);
 	w.text(`Heat: ${report.heat.check}`, { bold: true, size: 11 });
-	w.text(`Heat load ${formatAmount(report.heat.heatLoadW)} W (metabolic ${formatAmount(report.heat.metabolicW)} W, agitation ${formatAmount(report.heat.agitationPowerW)} W) against cooling capacity ${formatAmount(report.heat.coolingCapacityW)} W: ${formatAmount(report.heat.utilisation * 100)} % used`);
+	w.text(`Heat load ${report.heat.lowerBound ? 'at least ' : ''}${formatAmount(report.heat.heatLoadW)} W (metabolic ${formatAmount(report.heat.metabolicW)} W at ${formatAmount(report.heat.heatPerMolO2KJ)} kJ/mol O2, agitation ${formatAmount(report.heat.agitationPowerW)} W) against cooling capacity ${formatAmount(report.heat.coolingCapacityW)} W: ${formatAmount(report.heat.utilisation * 100)} % used`);
 	w.gap(10);
 
 	w.ensure(60);

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { AIR_O2_MOLE_FRACTION, DEFAULT_SAFETY_FACTOR } from '$chemistry';
+import { AIR_O2_MOLE_FRACTION, DEFAULT_SAFETY_FACTOR, HEAT_PER_MOL_O2_RANGE_KJ } from '$chemistry';
 import { FEED_PLAN_STRATEGIES, isControlledPlan, TARGET_BASES, type FeedPlan, type FeedPlanStrategy } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
@@ -57,6 +57,7 @@ export const studySchema = z.object({
 	o2MoleFraction: requiredNumber('O2 mole fraction of the inlet gas', { gt: 0, max: 1 }),
 	doSetpointPercent: requiredNumber('DO setpoint', { min: 0, max: 99, unit: '% of air saturation' }),
 	safetyFactor: requiredNumber('Safety factor', { min: 1, max: 5 }),
+	heatPerMolO2KJ: optionalNumber('Heat per mol O2 consumed', { ...HEAT_PER_MOL_O2_RANGE_KJ, unit: 'kJ/mol' }),
 	notes: optionalText(),
 	...feedSlots
 });
@@ -154,8 +155,8 @@ function requireEvaluable(studyId: string, tx: Tx) {
 }
 
 function valuesOf(form: StudyForm) {
-	const { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, notes } = form;
-	return { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, notes };
+	const { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, heatPerMolO2KJ, notes } = form;
+	return { name, basalVersionId, profileId, vesselId, targetBasis, targetValue, initialVolumeL, inoculumDensity, durationH, temperatureC, pressureKPa, o2MoleFraction, doSetpointPercent, safetyFactor, heatPerMolO2KJ, notes };
 }
 
 function nameTaken(name: string, exceptId: string | null, tx: Tx) {

@@ -1,4 +1,11 @@
-import { ChemistryInputError, SimulationFailedError, simulateRun, type FeedInput, type SimulationRequest } from '$chemistry';
+import {
+	ChemistryInputError,
+	SimulationFailedError,
+	simulateRun,
+	type FeedInput,
+	type SimulationRequest,
+	type SimulationResult
+} from '$chemistry';
 import { isControlledPlan } from '$lib/studies';
 import { RuleError } from '../rule-error';
 import type { DefaultUsed, StudyFeedSource, StudyInputs, TimeCourse } from './types';
@@ -29,6 +36,16 @@ export interface FeedDelivery {
 }
 
 export type PlanCourse = TimeCourse & { deliveries: FeedDelivery[] };
+
+/**
+ * The study's two runs. `demand`: the plan as written, growth never held back by oxygen (DO is still
+ * followed, so a DO-stat feed reads it), whose OUR is what the vessel must supply. `vessel`: the same
+ * plan in this vessel, growth held to what transfer supplies wherever DO reaches 0.
+ */
+export interface PlanCourses {
+	demand: PlanCourse | { message: string };
+	vessel: PlanCourse | { message: string };
+}
 
 export const isControlled = (feed: StudyFeedSource) => isControlledPlan(feed.plan.strategy);
 
@@ -104,68 +121,83 @@ function cumulative(t: number[], rate: number[], startH: number, totalL: number)
 	return last > 0 ? out.map((v) => (v * totalL) / last) : out;
 }
 
-/**
- * Simulates the study's run. A plan the model cannot run answers with the reason instead, unless a
- * controlled feed's volume depends on it: then the study cannot be assessed and the error names the field.
- */
-export function simulatePlan(run: PlanRun): PlanCourse | { message: string } {
-	const { plan, profile, basal, vessel } = run.inputs;
-	const streamFeeds = run.feeds.filter((f) => f.volumeL > 0);
-	try {
-		const request: SimulationRequest = {
-			mode: streamFeeds.length > 0 ? 'fedBatch' : 'batch',
-			kinetics: {
-				muMaxPerH: run.growth.muMaxPerH,
-				ksGPerL: run.growth.ksGPerL,
-				yieldXS: run.growth.yieldXSGPerG,
-				maintenanceGPerGH: profile.maintenanceGPerGH ?? 0,
-				yieldXO2: run.yieldXO2GPerG
-			},
-			initial: {
-				biomassGPerL: run.initialBiomassGPerL,
-				substrateGPerL: basal.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0,
-				volumeL: plan.initialVolumeL
-			},
-			...(streamFeeds.length > 0 ? { feeds: streamFeeds.map((f) => toStream(run, f)) } : {}),
-			oxygen: { kLaPerH: run.kLaPerH, saturationMgPerL: run.saturationMgPerL },
-			maxVolumeL: vessel.maxWorkingVolumeL,
-			endH: plan.durationH,
-			outputEveryH: plan.durationH / OUTPUT_POINTS
-		};
-		const result = simulateRun(request);
-		const last = result.biomassGPerL.length - 1;
-		run.defaults.push({
-			what: 'Time course model',
-			value: `Monod growth on ${run.inputs.componentNames[run.growth.carbonSourceId] ?? run.growth.carbonSourceId}, Pirt maintenance, no O2 limitation of growth, O2 maintenance 0`,
-			source: 'Growth is not slowed by low DO in the model, so a DO that reaches 0 shows the oxygen shortfall; other nutrients are followed by their demand per g of biomass'
-		});
-		const streams = result.feedStreams ?? [];
-		const deliveries = run.feeds.map((f) => {
-			const k = streamFeeds.indexOf(f);
-			if (k < 0) return { deliveredL: 0, cumulativeL: new Array<number>(result.t.length).fill(0) };
-			return { deliveredL: streams[k].deliveredL, cumulativeL: cumulative(result.t, streams[k].feedLPerH, f.plan.startH, streams[k].deliveredL) };
-		});
-		return {
-			t: result.t,
-			biomassGPerL: result.biomassGPerL,
-			substrateGPerL: result.substrateGPerL,
-			volumeL: result.volumeL,
-			dissolvedOxygenMgPerL: result.dissolvedOxygenMgPerL ?? [],
-			ourMmolPerLH: result.ourMmolPerLH ?? [],
-			maxOtrMmolPerLH: result.maxOtrMmolPerLH ?? [],
-			events: result.events,
-			finalBiomassGPerL: result.biomassGPerL[last],
-			reachesTarget: result.biomassGPerL.some((x) => x >= run.targetBiomassGPerL * run.reachesFraction),
-			stoppedAtH: result.stoppedAtH ?? null,
-			deliveries
-		};
-	} catch (cause) {
-		if (!(cause instanceof ChemistryInputError || cause instanceof SimulationFailedError)) throw cause;
-		if (streamFeeds.some(isControlled)) {
-			const field = cause instanceof ChemistryInputError ? studyFieldOf(cause.field, streamFeeds, run.feeds) : undefined;
-			throw new RuleError(`A substrate- or DO-stat feed delivers what the simulated run asks for, and the run cannot be simulated: ${cause.message}`, { field, status: 422 });
-		}
-		return { message: cause.message };
-	}
+/** The run's series as the report keeps them, with each feed's delivery. */
+function toCourse(run: PlanRun, result: SimulationResult, streamFeeds: StudyFeedSource[]): PlanCourse {
+	const last = result.biomassGPerL.length - 1;
+	const streams = result.feedStreams ?? [];
+	const deliveries = run.feeds.map((f) => {
+		const k = streamFeeds.indexOf(f);
+		if (k < 0) return { deliveredL: 0, cumulativeL: new Array<number>(result.t.length).fill(0) };
+		return { deliveredL: streams[k].deliveredL, cumulativeL: cumulative(result.t, streams[k].feedLPerH, f.plan.startH, streams[k].deliveredL) };
+	});
+	return {
+		t: result.t,
+		biomassGPerL: result.biomassGPerL,
+		substrateGPerL: result.substrateGPerL,
+		volumeL: result.volumeL,
+		dissolvedOxygenMgPerL: result.dissolvedOxygenMgPerL ?? [],
+		ourMmolPerLH: result.ourMmolPerLH ?? [],
+		maxOtrMmolPerLH: result.maxOtrMmolPerLH ?? [],
+		oxygenLimitedH: result.oxygenLimitedH ?? [],
+		events: result.events,
+		finalBiomassGPerL: result.biomassGPerL[last],
+		reachesTarget: result.biomassGPerL.some((x) => x >= run.targetBiomassGPerL * run.reachesFraction),
+		stoppedAtH: result.stoppedAtH ?? null,
+		deliveries
+	};
 }
 
+/**
+ * Simulates the study's plan twice (see `PlanCourses`). A plan the model cannot run answers with the
+ * reason instead, unless a controlled feed's volume depends on it: then the study cannot be assessed
+ * and the error names the field.
+ */
+export function simulatePlan(run: PlanRun): PlanCourses {
+	const { plan, profile, basal, vessel } = run.inputs;
+	const streamFeeds = run.feeds.filter((f) => f.volumeL > 0);
+	const request = (limitsGrowth: boolean): SimulationRequest => ({
+		mode: streamFeeds.length > 0 ? 'fedBatch' : 'batch',
+		kinetics: {
+			muMaxPerH: run.growth.muMaxPerH,
+			ksGPerL: run.growth.ksGPerL,
+			yieldXS: run.growth.yieldXSGPerG,
+			maintenanceGPerGH: profile.maintenanceGPerGH ?? 0,
+			yieldXO2: run.yieldXO2GPerG
+		},
+		initial: {
+			biomassGPerL: run.initialBiomassGPerL,
+			substrateGPerL: basal.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0,
+			volumeL: plan.initialVolumeL
+		},
+		...(streamFeeds.length > 0 ? { feeds: streamFeeds.map((f) => toStream(run, f)) } : {}),
+		oxygen: { kLaPerH: run.kLaPerH, saturationMgPerL: run.saturationMgPerL, limitsGrowth },
+		maxVolumeL: vessel.maxWorkingVolumeL,
+		endH: plan.durationH,
+		outputEveryH: plan.durationH / OUTPUT_POINTS
+	});
+	const attempt = (limitsGrowth: boolean): PlanCourse | { message: string } => {
+		try {
+			return toCourse(run, simulateRun(request(limitsGrowth)), streamFeeds);
+		} catch (cause) {
+			if (!(cause instanceof ChemistryInputError || cause instanceof SimulationFailedError)) throw cause;
+			if (streamFeeds.some(isControlled)) {
+				const field = cause instanceof ChemistryInputError ? studyFieldOf(cause.field, streamFeeds, run.feeds) : undefined;
+				throw new RuleError(`A substrate- or DO-stat feed delivers what the simulated run asks for, and the run cannot be simulated: ${cause.message}`, { field, status: 422 });
+			}
+			return { message: cause.message };
+		}
+	};
+	const demand = attempt(false);
+	const carbon = run.inputs.componentNames[run.growth.carbonSourceId] ?? run.growth.carbonSourceId;
+	run.defaults.push({
+		what: 'Time course model',
+		value: `Monod growth on ${carbon}, Pirt maintenance to exhaustion, O2 maintenance 0; DO falls with uptake and, at 0, holds growth to what transfer supplies (OTR = OUR)`,
+		source: 'The model help of the simulation; other nutrients are followed by their demand per g of biomass'
+	});
+	run.defaults.push({
+		what: 'Oxygen and heat figures',
+		value: 'from the O2 demand of the plan as written',
+		source: 'A second run of the same plan whose growth oxygen never holds back: the growth the feeds would support, and the O2 the vessel must supply for it'
+	});
+	return { demand, vessel: attempt(true) };
+}

@@ -34,6 +34,7 @@ export type StudyPlan = Pick<
 	| 'o2MoleFraction'
 	| 'doSetpointPercent'
 	| 'safetyFactor'
+	| 'heatPerMolO2KJ'
 	| 'notes'
 >;
 
@@ -97,6 +98,8 @@ export interface TimeCourse {
 	dissolvedOxygenMgPerL: number[];
 	ourMmolPerLH: number[];
 	maxOtrMmolPerLH: number[];
+	/** Stretches with DO at 0, where growth ran at what transfer supplies. */
+	oxygenLimitedH: { fromH: number; toH: number }[];
 	events: SimulationEvent[];
 	finalBiomassGPerL: number;
 	reachesTarget: boolean;
@@ -137,22 +140,40 @@ export interface StudyReport {
 		totalO2G: number;
 		totalO2Mol: number;
 		yieldXO2GPerG: number;
+		/** the O2 demand of the plan as written (growth not held back by transfer) */
 		peakOurMmolPerLH: number;
+		/** null when the plan could not be simulated and the peak is an estimate */
+		peakOurAtH: number | null;
 		peakOurOrigin: string;
+		/** the run could not cover the whole plan (it filled the vessel, or failed): the demand can only be higher */
+		lowerBound: boolean;
 		maxOtrMmolPerLH: number;
 		utilisation: number;
 		saturationMgPerL: number;
 		setpointMgPerL: number;
 		kLaNeededPerH: number;
+		/** kLa needed rounded up to 3 significant digits: typed back in, it meets the demand */
+		kLaRecommendedPerH: number;
 		o2MoleFractionNeeded: number;
+		o2MoleFractionRecommended: number;
 		enrichmentFeasible: boolean;
 		enrichmentAllowed: boolean;
 		reserveS: number | null;
 	};
-	heat: { check: Check; heatLoadW: number; metabolicW: number; agitationPowerW: number; coolingCapacityW: number; utilisation: number };
+	heat: {
+		check: Check;
+		heatLoadW: number;
+		metabolicW: number;
+		agitationPowerW: number;
+		coolingCapacityW: number;
+		utilisation: number;
+		heatPerMolO2KJ: number;
+		lowerBound: boolean;
+	};
 	volume: { check: Check; initialL: number; feedL: number; finalL: number; minL: number; maxL: number };
 	feeds: FeedReport[];
-	timeCourse: ({ check: Check } & TimeCourse) | { check: 'unavailable'; message: string };
+	/** The plan in this vessel (oxygen may hold growth back), with the demand run's OUR beside it. */
+	timeCourse: ({ check: Check; demandOurMmolPerLH: number[] | null } & TimeCourse) | { check: 'unavailable'; message: string };
 	defaults: DefaultUsed[];
 	notes: string[];
 	cautions: string[];

@@ -52,7 +52,7 @@ export const simulateRequest = z.strictObject({
 		.optional()
 		.describe('fedBatch only, instead of feed: several streams, each with its own strategy and start'),
 	oxygen: z
-		.strictObject({ kLaPerH: finite, saturationMgPerL: finite, maintenanceMgPerGH: optionalNumber })
+		.strictObject({ kLaPerH: finite, saturationMgPerL: finite, maintenanceMgPerGH: optionalNumber, limitsGrowth: z.boolean().optional() })
 		.optional()
 		.describe('absent: no O2 balance and no O2 limitation'),
 	perfusion: z.strictObject({ retentionEfficiency: finite, bleedPerH: finite }).optional(),
@@ -87,10 +87,16 @@ export const simulateResponse = z.object({
 		)
 		.nullable()
 		.describe('fed-batch: each feed stream in request order; null in other modes'),
-	ourMmolPerLH: nullableSeries,
+	ourMmolPerLH: nullableSeries.describe(
+		'mmol/L/h: the uptake with an oxygen block (held to kLa·C* where DO is at 0); without one but with kinetics.yieldXO2, the O2 demand of the simulated growth'
+	),
 	maxOtrMmolPerLH: nullableSeries.describe('kLa·C*, mmol/L/h'),
 	events: z.array(z.object({ kind: z.string(), tH: z.number(), message: z.string() })),
-	stoppedAtH: z.number().optional()
+	oxygenLimitedH: z
+		.array(z.object({ fromH: z.number(), toH: z.number() }))
+		.nullable()
+		.describe('stretches with DO held at 0 and growth at what transfer supplies; null without an oxygen block'),
+	stoppedAtH: z.number().optional().describe('set when the run ended early: the maximum working volume was reached')
 }).loose();
 
 const maintenance = finite

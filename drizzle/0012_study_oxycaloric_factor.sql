@@ -1,0 +1,1 @@
+ALTER TABLE `study` ADD `heat_per_mol_o2_kj` real;
