@@ -126,6 +126,11 @@ describe('saving a proposal as feed drafts', () => {
 			expect(response.status, JSON.stringify(body)).toBe(status);
 			expect(response.headers.get('content-type')).toContain('application/problem+json');
 			expect((await response.json()).errors.map((e: { path: string }) => e.path)).toContain(path);
+			// The proposal itself answers the same, names aside.
+			if (path.startsWith('names')) continue;
+			const proposed = await post(propose, 'feed-design', studyId, body, engineer);
+			expect(proposed.status, JSON.stringify(body)).toBe(status);
+			expect((await proposed.json()).errors.map((e: { path: string }) => e.path)).toContain(path);
 		}
 		// A proposal that does not meet every demand (20 L is too little within 4000 mOsm/kg) is not saved.
 		const short = await post(saveDrafts, 'feed-design/drafts', studyId, { ...request, feedVolumeL: 20, names: ['x', 'y'] }, scientist);
