@@ -3,7 +3,13 @@
  * osmolality estimate Σ c·ν·φ, ionic strength ½ Σ c z², and solubility and precipitation warnings.
  */
 import { ChemistryInputError } from './errors';
-import { type ComponentSpec, ionBase, resolveComponent, solubilityAt } from './components';
+import {
+	type ComponentSpec,
+	type IonSpec,
+	ionBase,
+	resolveComponent,
+	solubilityAt
+} from './components';
 import { checkAmount, toGramsPerLitre } from './units';
 
 export interface CompositionLine {
@@ -50,6 +56,8 @@ export interface CompositionWarning {
 	message: string;
 	componentIds: string[];
 	lineIndexes: number[];
+	/** Precipitation warnings: the product of the rule that flagged it. */
+	precipitate?: (typeof PRECIPITATION_RULES)[number]['product'];
 }
 
 export interface CompositionResult {
@@ -65,6 +73,8 @@ export interface CompositionResult {
 		note: string;
 	};
 	ionicStrengthMolPerL: number;
+	/** Σ g/L of every line as weighed (hydrate water included): what a litre carries in solution. */
+	dissolvedSolidsGPerL: number;
 	temperatureC: number;
 	warnings: CompositionWarning[];
 }
@@ -119,6 +129,8 @@ export const PRECIPITATION_RULES = [
 	{ cation: 'Fe', anion: 'phosphate', cationMinMM: 0.01, anionMinMM: 1, product: 'iron phosphate' }
 ] as const;
 
+export type PrecipitationSpecies = (typeof PRECIPITATION_RULES)[number]['cation' | 'anion'];
+
 const ANION_GROUPS: Record<string, 'phosphate' | 'carbonate'> = {
 	PO4: 'phosphate',
 	HPO4: 'phosphate',
@@ -126,7 +138,23 @@ const ANION_GROUPS: Record<string, 'phosphate' | 'carbonate'> = {
 	CO3: 'carbonate',
 	HCO3: 'carbonate'
 };
-const CATIONS = new Set(['Ca', 'Mg', 'Fe']);
+const CATIONS = new Set<string>(PRECIPITATION_RULES.map((r) => r.cation));
+
+/**
+ * The species of the precipitation rules a salt gives, with how many per formula unit: Ca, Mg, Fe
+ * as cations, phosphate and carbonate in any protonation.
+ */
+export function precipitationSpeciesOf(
+	ions: readonly IonSpec[]
+): { species: PrecipitationSpecies; count: number }[] {
+	const out: { species: PrecipitationSpecies; count: number }[] = [];
+	for (const ion of ions) {
+		const base = ionBase(ion.ion);
+		const species = CATIONS.has(base) && ion.charge > 0 ? base : ANION_GROUPS[base];
+		if (species) out.push({ species: species as PrecipitationSpecies, count: ion.count });
+	}
+	return out;
+}
 
 function formatNumber(value: number): string {
 	return Number(value.toPrecision(3)).toString();
@@ -164,6 +192,7 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 	let osmolality = 0;
 	let idealOsmolarity = 0;
 	let ionicStrength = 0;
+	let dissolvedSolids = 0;
 
 	input.lines.forEach((line, index) => {
 		const prefix = `lines.${index}`;
@@ -189,6 +218,7 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 			`${prefix}.amount`,
 			`${prefix}.unit`
 		);
+		dissolvedSolids += gPerL;
 		const molarMass = resolved.molarMassGPerMol;
 		const mM = molarMass === null ? null : (gPerL / molarMass) * 1000;
 
@@ -204,14 +234,11 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 			contribution = mM * resolved.particlesPerUnit * resolved.osmoticCoefficient;
 			osmolality += contribution;
 			ionicStrength += (mM / 1000) * resolved.ionicStrengthPerMolar;
-			for (const ion of resolved.ions) {
-				const base = ionBase(ion.ion);
-				const group = CATIONS.has(base) && ion.charge > 0 ? base : ANION_GROUPS[base];
-				if (!group) continue;
-				const entry = speciesMM.get(group) ?? { mM: 0, lines: new Set<number>() };
-				entry.mM += mM * ion.count;
+			for (const { species, count } of precipitationSpeciesOf(resolved.ions)) {
+				const entry = speciesMM.get(species) ?? { mM: 0, lines: new Set<number>() };
+				entry.mM += mM * count;
 				entry.lines.add(index);
-				speciesMM.set(group, entry);
+				speciesMM.set(species, entry);
 			}
 		} else {
 			excludedComponentIds.push(spec.id);
@@ -267,7 +294,8 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 			basis: 'common practice',
 			message: `Risk of ${rule.product} precipitating: ${rule.cation} ${formatNumber(cation.mM)} mM with ${rule.anion} ${formatNumber(anion.mM)} mM (flagged from ${rule.cationMinMM} mM ${rule.cation} and ${rule.anionMinMM} mM ${rule.anion}, common practice). Dissolve and sterilise them apart, add the ${rule.cation} salt last to the diluted medium, and watch pH and heating.`,
 			componentIds: lineIndexes.map((i) => components[i].id),
-			lineIndexes
+			lineIndexes,
+			precipitate: rule.product
 		});
 	}
 
@@ -295,6 +323,7 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 			note: OSMOLALITY_NOTE
 		},
 		ionicStrengthMolPerL: ionicStrength,
+		dissolvedSolidsGPerL: dissolvedSolids,
 		temperatureC,
 		warnings
 	};

@@ -5,6 +5,7 @@ export { ATOMIC_WEIGHTS, ELEMENT_NAMES } from './data/atomic-weights';
 export * from './units';
 export * from './components';
 export * from './composition';
+export * from './feed-design';
 export * from './weighing';
 export * from './oxygen';
 export * from './heat';

@@ -1,3 +1,4 @@
+import { RECIPE_EDITORS } from './recipes';
 import type { Role } from './roles';
 
 // Study vocabulary shared by server and pages; no server code here.
@@ -80,3 +81,6 @@ export function describeFeedPlan(plan: FeedPlan, volumeL: number): string {
 
 /** Who sees and edits studies, organism profiles and vessels. */
 export const STUDY_ROLES = ['engineer', 'media_scientist'] as const satisfies readonly Role[];
+
+/** Who may save a feed designer's proposal as recipe drafts: those who both use studies and write recipe drafts. */
+export const FEED_DRAFT_ROLES: readonly Role[] = RECIPE_EDITORS.filter((role) => (STUDY_ROLES as readonly Role[]).includes(role));

@@ -163,6 +163,18 @@ describe('element sums', () => {
 		});
 		expect(result.components[0].massG).toBeCloseTo(16, 12);
 	});
+
+	it('sums the dissolved solids as weighed, hydrate water included', () => {
+		// 6 g/L NaCl + 20 mM glucose (20 × 180.156 / 1000 = 3.603 g/L) + 1 g/L MgSO4·7H2O = 10.603 g/L.
+		const result = computeComposition({
+			lines: [
+				{ component: component('sodium-chloride'), amount: 6, unit: 'g/L' },
+				{ component: component('d-glucose'), amount: 20, unit: 'mM' },
+				{ component: component('magnesium-sulfate-heptahydrate'), amount: 1, unit: 'g/L' }
+			]
+		});
+		expect(result.dissolvedSolidsGPerL).toBeCloseTo(6 + (20 * (6 * W.C + 12 * W.H + 6 * W.O)) / 1000 + 1, 9);
+	});
 });
 
 describe('units', () => {
@@ -263,7 +275,7 @@ describe('warnings', () => {
 			]
 		});
 		const warning = result.warnings.find((w) => w.kind === 'precipitation');
-		expect(warning).toMatchObject({ basis: 'common practice', lineIndexes: [0, 2] });
+		expect(warning).toMatchObject({ basis: 'common practice', lineIndexes: [0, 2], precipitate: 'calcium phosphate' });
 		expect(warning?.message).toMatch(/Ca 2 mM with phosphate 3 mM/);
 		expect(warning?.message).toMatch(/common practice/);
 	});

@@ -226,9 +226,11 @@ test.describe('the recipes API', () => {
 		expect(bad.status()).toBe(400);
 		expect(bad.headers()['content-type']).toContain('application/problem+json');
 
-		const recipe = await (await page.request.get(`/api/v1/recipes/${feeds.items[0].id}`)).json();
+		// Other specs add feeds of their own to the shared database: read this one by name.
+		const gaId = feeds.items.find((r: { name: string }) => r.name === 'PPN Feed GA-12').id;
+		const recipe = await (await page.request.get(`/api/v1/recipes/${gaId}`)).json();
 		expect(recipe.versions[0]).toMatchObject({ n: 1, status: 'draft' });
-		const version = await (await page.request.get(`/api/v1/recipes/${feeds.items[0].id}/versions/1`)).json();
+		const version = await (await page.request.get(`/api/v1/recipes/${gaId}/versions/1`)).json();
 		expect(version.lines.length).toBe(11);
 		expect(version.composition.warnings[0].kind).toBe('solubility');
 

@@ -146,7 +146,7 @@ test.describe('an engineer runs a study', () => {
 	test('the feed designer explains what it cannot do', async ({ page }) => {
 		await page.goto('/studies');
 		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
-		await page.getByLabel('Feed volume, L').last().fill('0.05');
+		await page.getByLabel('Feed volume in all, L').fill('0.05');
 		await page.getByRole('button', { name: 'Propose a feed' }).click();
 		await expect(page.getByTestId('feed-design-problems')).toContainText('above its solubility');
 		await expect(page.getByTestId('feed-design-problems')).toContainText('Ammonium sulfate');

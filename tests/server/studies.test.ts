@@ -7,7 +7,8 @@ import { seedDemo } from '$lib/server/demo/seed';
 import { RuleError } from '$lib/server/rule-error';
 import { listComponents } from '$lib/server/components/library';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
-import { designFeed } from '$lib/server/studies/feed-designer';
+import { designFeed, listSubstanceChoices, oneFormPerSubstance, substanceIdOf, type FeedDesign } from '$lib/server/studies/feed-designer';
+import { previewDraft } from '$lib/server/recipes/preview';
 import { describeVersions, listProfiles, listStudies, loadStudyInputs } from '$lib/server/studies/queries';
 import { createStudy, type StudyForm } from '$lib/server/studies/study-store';
 
@@ -18,6 +19,16 @@ function studyId(name: string): string {
 	return db.select().from(study).where(eq(study.name, name)).get()!.id;
 }
 const components = () => new Map(listComponents().map((c) => [c.id, c]));
+
+function ruleErrorOf(run: () => unknown): RuleError {
+	try {
+		run();
+	} catch (cause) {
+		if (cause instanceof RuleError) return cause;
+		throw cause;
+	}
+	throw new Error('expected a RuleError');
+}
 
 beforeAll(async () => {
 	await seedDemo();
@@ -97,15 +108,81 @@ describe('the what-if', () => {
 	});
 });
 
+/** A proposed feed as the recipe editor would send it, through the recipe preview (what the editor shows). */
+function previewFeed(feed: FeedDesign['feeds'][number], design: FeedDesign) {
+	return previewDraft({
+		lines: feed.lines.map((l) => ({ kind: 'component', componentId: l.componentId, amount: l.gPerL, unit: 'g/L' })),
+		preparationTemperatureC: design.temperatureC,
+		osmolalityMaxMOsmPerKg: design.osmolalityMaxMOsmPerKg
+	});
+}
+
+// The feed an engineer first tried for the bacterial study: glucose, ammonium, calcium, iron, phosphate and magnesium salts.
+const BACTERIUM_FEED = ['d-glucose', 'ammonium-sulfate', 'calcium-chloride', 'iron-ii-sulfate', 'sodium-dihydrogen-phosphate', 'magnesium-sulfate'];
+
 describe('the feed designer', () => {
-	it('meets every demand of the yeast study with the feed components', () => {
+	it('splits the bacterial feed in two that the recipe preview passes, within the limits and the vessel', () => {
+		const { inputs } = loadStudyInputs(studyId(BACTERIUM_STUDY));
+		const design = designFeed(inputs, components(), { componentIds: BACTERIUM_FEED, feedVolumeL: 30, temperatureC: 25 });
+		expect(design.problems).toEqual([]);
+		expect(design.feasible).toBe(true);
+		// In one feed the recipe analysis flags all three phosphates: Ca and Fe from 1 and 0.01 mM with 1 mM phosphate, Mg from 1 mM with 10 mM.
+		expect(design.split?.precipitates).toEqual(['calcium phosphate', 'magnesium phosphate', 'iron phosphate']);
+		expect(design.feeds.map((f) => f.label)).toEqual(['Feed A', 'Feed B']);
+		expect(design.feeds[0].lines.map((l) => l.componentId).sort()).toEqual(['calcium-chloride', 'iron-ii-sulfate', 'magnesium-sulfate']);
+		expect(design.feeds[1].lines.map((l) => l.componentId)).toContain('sodium-dihydrogen-phosphate');
+		// Pilot vessel 200 L with 120 L of culture: 80 L of room.
+		expect(design.feeds.reduce((s, f) => s + f.volumeL, 0)).toBeCloseTo(30, 9);
+		// Microbial defaults, common practice: 4000 mOsm/kg and 700 g/L per feed.
+		expect(design.osmolalityMaxMOsmPerKg).toBe(4000);
+		expect(design.limitsSource).toMatch(/common practice/i);
+		for (const feed of design.feeds) {
+			const preview = previewFeed(feed, design);
+			expect(preview.warnings.filter((w) => w.kind === 'precipitation')).toEqual([]);
+			expect(preview.warnings.filter((w) => w.kind === 'solubility')).toEqual([]);
+			expect(preview.osmolality.verdict).toBe('within');
+			expect(preview.osmolality.estimateMOsmPerKg).toBeLessThanOrEqual(4000);
+			expect(preview.dissolvedSolidsGPerL).toBeLessThanOrEqual(700);
+			// The designer shows the preview's own numbers for the feed.
+			expect(feed.osmolalityMOsmPerKg).toBeCloseTo(preview.osmolality.estimateMOsmPerKg, 9);
+			expect(feed.dissolvedSolidsGPerL).toBeCloseTo(preview.dissolvedSolidsGPerL, 9);
+		}
+		for (const c of design.coverage) expect(c.providedG).toBeGreaterThanOrEqual(c.neededG);
+	});
+
+	it('says why 20 L will not do and how much would', () => {
+		const { inputs } = loadStudyInputs(studyId(BACTERIUM_STUDY));
+		const design = designFeed(inputs, components(), { componentIds: BACTERIUM_FEED, feedVolumeL: 20, temperatureC: 25 });
+		expect(design.feasible).toBe(false);
+		expect(design.problems[0]).toMatch(/osmolality limit of 4000 mOsm\/kg/);
+		expect(design.problems.at(-1)).toMatch(/split in two\. With these components and limits, two feeds of at least [\d.]+ L in all would work/);
+		expect(design.minimumFeedVolumeL).toBeGreaterThan(20);
+		const atLeast = designFeed(inputs, components(), { componentIds: BACTERIUM_FEED, feedVolumeL: Math.ceil(design.minimumFeedVolumeL! * 10) / 10, temperatureC: 25 });
+		expect(atLeast.feasible).toBe(true);
+	});
+
+	it('meets every demand of the yeast study with its feed components, apart from calcium and phosphate', () => {
 		const { inputs } = loadStudyInputs(studyId(YEAST_STUDY));
 		const ids = ['glycerol', 'ammonium-sulfate', 'potassium-dihydrogen-phosphate', 'magnesium-sulfate-heptahydrate', 'calcium-chloride-dihydrate', 'zinc-sulfate-heptahydrate', 'iron-ii-sulfate-heptahydrate'];
 		const design = designFeed(inputs, components(), { componentIds: ids, feedVolumeL: 2, temperatureC: 25 });
 		expect(design.problems).toEqual([]);
+		expect(design.split?.precipitates).toContain('calcium phosphate');
+		for (const c of design.coverage) expect(c.providedG).toBeGreaterThanOrEqual(c.neededG);
+		for (const feed of design.feeds) {
+			for (const l of feed.lines) if (l.solubilityGPerL !== null) expect(l.gPerL).toBeLessThanOrEqual(l.solubilityGPerL);
+			expect(previewFeed(feed, design).warnings).toEqual([]);
+		}
+	});
+
+	it('takes the limits the user sets', () => {
+		const { inputs } = loadStudyInputs(studyId(BACTERIUM_STUDY));
+		const design = designFeed(inputs, components(), { componentIds: BACTERIUM_FEED, feedVolumeL: 40, temperatureC: 25, osmolalityMaxMOsmPerKg: 3000, dissolvedSolidsMaxGPerL: 500 });
 		expect(design.feasible).toBe(true);
-		for (const c of design.coverage) expect(c.providedGPerLFeed).toBeGreaterThanOrEqual(c.neededGPerLFeed * (1 - 1e-6));
-		for (const c of design.components) if (c.solubilityGPerL !== null) expect(c.gPerL).toBeLessThanOrEqual(c.solubilityGPerL * (1 + 1e-9));
+		expect(design.limitsSource).toBeNull();
+		for (const feed of design.feeds) {
+			expect(feed.osmolalityMOsmPerKg).toBeLessThanOrEqual(3000);
+			expect(feed.dissolvedSolidsGPerL).toBeLessThanOrEqual(500);
+		}
 	});
 
 	it('explains why tyrosine cannot go in a neutral concentrate', () => {
@@ -141,13 +218,47 @@ describe('the feed designer', () => {
 		} as StudyForm);
 		const design = designFeed(loadStudyInputs(id).inputs, components(), { componentIds: ['d-glucose', 'l-glutamine', 'l-leucine', 'l-lysine-hydrochloride', 'l-tyrosine'], feedVolumeL: 0.5, temperatureC: 25 });
 		expect(design.feasible).toBe(false);
+		// Cell-culture defaults, common practice: 1500 mOsm/kg.
+		expect(design.osmolalityMaxMOsmPerKg).toBe(1500);
 		// Tyrosine 0.453 g/L at 25 °C (CRC Handbook, as stored in the component library)
-		expect(design.problems.join(' ')).toMatch(/L-Tyrosine would need [\d.]+ g\/L, above its solubility of 0.45 g\/L at 25 °C; use a soluble salt form or a separate alkaline feed/);
+		expect(design.problems.join(' ')).toMatch(/L-Tyrosine would need [\d.]+ g\/L, above its solubility of 0.453 g\/L at 25 °C; use a soluble salt form or a separate alkaline feed/);
 	});
 
-	it('refuses a feed that would overfill the vessel', () => {
+	it('refuses a feed that would overfill the vessel, naming the field', () => {
 		const { inputs } = loadStudyInputs(studyId(YEAST_STUDY));
-		expect(() => designFeed(inputs, components(), { componentIds: ['glycerol'], feedVolumeL: 5, temperatureC: 25 })).toThrow(/maximum working volume of 10 L; at most 4 L fits/);
+		const refused = ruleErrorOf(() => designFeed(inputs, components(), { componentIds: ['glycerol'], feedVolumeL: 5, temperatureC: 25 }));
+		expect(refused.message).toMatch(/maximum working volume of 10 L; at most 4 L fits/);
+		expect(refused.field).toBe('feedVolumeL');
+	});
+
+	it('takes one form of each substance, and says so of a second', () => {
+		const { inputs } = loadStudyInputs(studyId(BACTERIUM_STUDY));
+		const twoForms = ruleErrorOf(() => designFeed(inputs, components(), { componentIds: ['d-glucose', 'magnesium-sulfate', 'magnesium-sulfate-heptahydrate'], feedVolumeL: 30, temperatureC: 25 }));
+		expect(twoForms.field).toBe('componentIds.2');
+		expect(twoForms.message).toBe('Magnesium sulfate heptahydrate and Magnesium sulfate, anhydrous are two forms of one substance; a feed takes one form of each. Keep one of them.');
+		expect(ruleErrorOf(() => designFeed(inputs, components(), { componentIds: ['d-glucose', 'd-glucose'], feedVolumeL: 30, temperatureC: 25 })).field).toBe('componentIds.1');
+		const unknown = ruleErrorOf(() => designFeed(inputs, components(), { componentIds: ['unobtainium'], feedVolumeL: 30, temperatureC: 25 }));
+		expect(unknown.field).toBe('componentIds.0');
+		expect(unknown.message).toBe('No component “unobtainium” in the library.');
+	});
+
+	it("offers each substance once, in the form the study's feeds weigh, else its basis form", () => {
+		const library = listComponents();
+		const byId = new Map(library.map((c) => [c.id, c]));
+		const loaded = loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs;
+		// The glucose feed's composition lists MgSO4·7H2O and its MgSO4 equivalent; the feed weighs the first.
+		const feedIds = loaded.feeds.flatMap((f) => Object.keys(f.composition.componentsGPerL));
+		expect(feedIds).toEqual(expect.arrayContaining(['magnesium-sulfate', 'magnesium-sulfate-heptahydrate']));
+		const preselected = oneFormPerSubstance(feedIds, byId);
+		expect(preselected).toEqual(['d-glucose', 'magnesium-sulfate-heptahydrate']);
+		const choices = listSubstanceChoices(library, preselected);
+		const substances = choices.map((c) => c.substanceId);
+		expect(new Set(substances).size).toBe(substances.length);
+		expect(choices.flatMap((c) => c.forms.map((f) => f.id)).sort()).toEqual(library.map((c) => c.id).sort());
+		expect(choices.find((c) => c.substanceId === 'magnesium-sulfate')!.offeredId).toBe('magnesium-sulfate-heptahydrate');
+		expect(choices.find((c) => c.substanceId === 'l-lysine')).toMatchObject({ offeredId: 'l-lysine' });
+		expect(choices.find((c) => c.substanceId === 'l-lysine')!.forms.map((f) => f.id)).toEqual(expect.arrayContaining(['l-lysine', 'l-lysine-hydrochloride']));
+		for (const c of choices) expect(substanceIdOf(c.offeredId, byId)).toBe(c.substanceId);
 	});
 });
 

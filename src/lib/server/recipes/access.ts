@@ -1,9 +1,10 @@
+import { RECIPE_EDITORS } from '$lib/recipes';
 import type { Role } from '$lib/roles';
 import { RuleError } from '../rule-error';
 import type { Actor } from '../audit';
 import { clientAddress, requireRole, type SignedInUser } from '../guard';
 
-export const RECIPE_EDITORS = ['media_scientist'] as const satisfies readonly Role[];
+export { RECIPE_EDITORS };
 
 export function actorOf(user: SignedInUser): Actor & { id: string; email: string; address: string; roles: Role[] } {
 	return { id: user.id, email: user.email, address: clientAddress(), roles: user.roles };

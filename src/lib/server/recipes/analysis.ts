@@ -57,6 +57,8 @@ export interface RecipeAnalysis {
 		verdict: OsmolalityVerdict;
 	};
 	ionicStrengthMolPerL: number;
+	/** Σ g/L of the components as weighed. */
+	dissolvedSolidsGPerL: number;
 	temperatureC: number;
 	warnings: { kind: 'solubility' | 'precipitation'; basis: string; message: string; lines: number[] }[];
 	/** Which stock versions were used, and anything provisional about them. */
@@ -222,6 +224,7 @@ export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, re
 			verdict: verdictOf(result.osmolality.estimateMOsmPerKg, options.osmolalityMinMOsmPerKg, options.osmolalityMaxMOsmPerKg)
 		},
 		ionicStrengthMolPerL: result.ionicStrengthMolPerL,
+		dissolvedSolidsGPerL: result.dissolvedSolidsGPerL,
 		temperatureC: result.temperatureC,
 		warnings: result.warnings.map((w) => ({ kind: w.kind, basis: w.basis, message: w.message, lines: linesOfEntries(w.lineIndexes) })),
 		notes: [...new Set(expander.notes)],

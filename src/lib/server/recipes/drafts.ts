@@ -69,17 +69,51 @@ function insertLines(tx: Tx, versionId: string, lines: CheckedLine[]) {
 	}
 }
 
+function insertRecipe(
+	tx: Tx,
+	actor: Actor,
+	head: { name: string; kind: RecipeKind },
+	draft: { fields?: Partial<CheckedFields>; lines?: CheckedLine[]; origin?: Record<string, unknown> } = {}
+): string {
+	const recipeId = crypto.randomUUID();
+	tx.insert(recipe).values({ id: recipeId, name: head.name, kind: head.kind, ownerId: actor.id! }).run();
+	const versionId = crypto.randomUUID();
+	tx.insert(recipeVersion).values({ id: versionId, recipeId, n: 1, authorId: actor.id!, updatedById: actor.id, ...draft.fields }).run();
+	const lines = draft.lines ?? [];
+	insertLines(tx, versionId, lines);
+	const detail = { name: head.name, kind: head.kind, versionId, ...(lines.length ? { lines: lines.length } : {}), ...(draft.origin ? { origin: draft.origin } : {}) };
+	recordAudit(actor, { action: 'recipe.created', subjectType: 'recipe', subjectId: recipeId, detail }, tx);
+	return recipeId;
+}
+
 /** A new recipe with an empty draft, version 1. Returns the recipe id. */
 export function createRecipe(actor: Actor, input: { name: string; kind: string }, fields?: Partial<CheckedFields>): string {
 	const head = checkRecipeHead(input);
-	return db.transaction((tx) => {
-		const recipeId = crypto.randomUUID();
-		tx.insert(recipe).values({ id: recipeId, name: head.name, kind: head.kind, ownerId: actor.id! }).run();
-		const versionId = crypto.randomUUID();
-		tx.insert(recipeVersion).values({ id: versionId, recipeId, n: 1, authorId: actor.id!, updatedById: actor.id, ...fields }).run();
-		recordAudit(actor, { action: 'recipe.created', subjectType: 'recipe', subjectId: recipeId, detail: { name: head.name, kind: head.kind, versionId } }, tx);
-		return recipeId;
-	});
+	return db.transaction((tx) => insertRecipe(tx, actor, head, { fields }));
+}
+
+/**
+ * New recipes whose version 1 drafts already hold checked lines, all or none. A name problem is
+ * reported at `nameField` (default `name`). `origin` goes into each creation's audit entry.
+ */
+export function createRecipesWithDrafts(
+	actor: Actor,
+	drafts: { name: string; kind: string; nameField?: string; fields: CheckedFields; lines: CheckedLine[] }[],
+	origin?: Record<string, unknown>
+): string[] {
+	return db.transaction((tx) =>
+		drafts.map((draft) => {
+			let head: { name: string; kind: RecipeKind };
+			try {
+				// Inside the transaction, so two new recipes of one call cannot share a name either.
+				head = checkRecipeHead(draft);
+			} catch (cause) {
+				if (cause instanceof RuleError && cause.field === 'name' && draft.nameField) throw new RuleError(cause.message, { field: draft.nameField, status: cause.status });
+				throw cause;
+			}
+			return insertRecipe(tx, actor, head, { fields: draft.fields, lines: draft.lines, origin });
+		})
+	);
 }
 
 function requireDraft(version: RecipeVersion | undefined): RecipeVersion {

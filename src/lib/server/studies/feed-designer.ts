@@ -1,5 +1,14 @@
-import solver from 'javascript-lp-solver';
-import { assessSufficiency, computeComposition, formulaMolarMass, solubilityAt, type SufficiencyLine } from '$chemistry';
+import {
+	ChemistryInputError,
+	FEED_LIMIT_DEFAULTS,
+	assessSufficiency,
+	designFeeds,
+	type FeedCandidate,
+	type FeedDesignResult,
+	type FeedLimits,
+	type SufficiencyLine
+} from '$chemistry';
+import type { OrganismGroup } from '$lib/studies';
 import type { Component } from '../db/schema';
 import { componentSpecOf, molarMassOfComponent } from '../components/library';
 import { RuleError } from '../rule-error';
@@ -8,60 +17,126 @@ import type { StudyInputs } from './types';
 
 export interface FeedDesignRequest {
 	componentIds: string[];
+	/** All proposed feeds together. */
 	feedVolumeL: number;
 	temperatureC: number;
+	/** Per feed; the organism group's default when omitted. */
+	osmolalityMaxMOsmPerKg?: number;
+	dissolvedSolidsMaxGPerL?: number;
 }
 
-export interface FeedDesign {
-	feasible: boolean;
-	feedVolumeL: number;
-	temperatureC: number;
-	/** Largest feed the vessel holds on top of the initial volume. */
-	maxFeedVolumeL: number;
-	components: { id: string; name: string; gPerL: number; solubilityGPerL: number | null; atSolubilityLimit: boolean }[];
-	coverage: { key: string; name: string; neededGPerLFeed: number; providedGPerLFeed: number; coveredByBasal: boolean }[];
-	/** Why it cannot be done, one sentence per nutrient; empty when feasible. */
-	problems: string[];
-	notes: string[];
-}
+export type FeedDesign = FeedDesignResult & { limitsSource: string | null };
 
-/** g of each nutrient (element symbol or component id) per g of the component. */
-function contentOf(component: Component, components: Map<string, Component>): Record<string, number> {
-	const out: Record<string, number> = { [component.id]: 1 };
-	const basis = component.basisComponentId ? components.get(component.basisComponentId) : undefined;
-	const own = molarMassOfComponent(component);
-	const basisMass = basis ? molarMassOfComponent(basis) : null;
-	if (basis && own && basisMass) out[basis.id] = basisMass / own;
-	const composition = computeComposition({ lines: [{ component: componentSpecOf(component), amount: 1, unit: 'g/L' }], temperatureC: 25 });
-	for (const e of composition.elements) if (e.gPerL > 0) out[e.symbol] = e.gPerL;
-	return out;
-}
+export type DefaultFeedLimits = FeedLimits & { source: string };
 
-/** Solubility of the component itself in g/L at the temperature, when the library has one. */
-function solubilityOf(component: Component, temperatureC: number): number | null {
-	const spec = component.solubility;
-	if (!spec || spec.points.length === 0) return null;
-	const limit = solubilityAt(spec.points, temperatureC).gPerL;
-	const own = molarMassOfComponent(component);
-	if (spec.basisFormula && own) return (limit / formulaMolarMass(spec.basisFormula)) * own;
-	return limit;
-}
-
-function adviceFor(nutrientName: string, componentName: string): string {
-	if (/tyrosine|cystine/i.test(componentName)) return 'use a soluble salt form or a separate alkaline feed';
-	return `use a more soluble form of ${nutrientName}, a larger feed volume, or a separate feed`;
+/** The limits offered for a study's organism, with where they come from. */
+export function defaultFeedLimits(group: OrganismGroup): DefaultFeedLimits {
+	return { ...FEED_LIMIT_DEFAULTS[group === 'mammalian' ? 'cellCulture' : 'microbial'] };
 }
 
 /**
- * Proposes g/L of each candidate component in one feed concentrate so that basal + feed covers every
- * nutrient at safety factor × demand, by a linear program (least total mass) under each component's
- * solubility at the feed temperature. All coefficients are non-negative and the only other limits are
- * upper bounds, so the design is possible exactly when every nutrient is covered with every component
- * at its solubility: which gives an exact reason per nutrient when it is not.
+ * The substance a component is a form of: the end of its basis chain (MgSO4·7H2O → MgSO4,
+ * L-lysine·HCl → L-lysine), or itself.
+ */
+export function substanceIdOf(id: string, components: Map<string, Component>): string {
+	let current = id;
+	for (let depth = 0; depth < 5; depth++) {
+		const basis = components.get(current)?.basisComponentId;
+		if (!basis || !components.has(basis)) break;
+		current = basis;
+	}
+	return current;
+}
+
+/**
+ * One form per substance, in the order given: a form that is weighed wins over the basis form it is
+ * counted as (a feed's composition lists MgSO4·7H2O and its MgSO4 equivalent; the feed weighs the first).
+ */
+export function oneFormPerSubstance(ids: string[], components: Map<string, Component>): string[] {
+	const chosen = new Map<string, string>();
+	for (const id of ids) {
+		if (!components.has(id)) continue;
+		const substance = substanceIdOf(id, components);
+		const held = chosen.get(substance);
+		if (held === undefined || (held === substance && id !== substance)) chosen.set(substance, id);
+	}
+	return [...chosen.values()];
+}
+
+export interface SubstanceChoice {
+	substanceId: string;
+	/** The form offered first: the one the study's recipes use, else the basis form. */
+	offeredId: string;
+	forms: { id: string; name: string }[];
+}
+
+/**
+ * The designer's list: each substance once, offered in the form the study's recipes use (feeds first,
+ * then the basal medium), else in its basis form, the form the library's solubility is stated for.
+ */
+export function listSubstanceChoices(components: Component[], studyFormIds: string[]): SubstanceChoice[] {
+	const byId = new Map(components.map((c) => [c.id, c]));
+	const groups = new Map<string, Component[]>();
+	for (const c of components) {
+		const substance = substanceIdOf(c.id, byId);
+		groups.set(substance, [...(groups.get(substance) ?? []), c]);
+	}
+	const used = oneFormPerSubstance(studyFormIds, byId);
+	return [...groups.entries()]
+		.map(([substanceId, forms]) => ({
+			substanceId,
+			offeredId: used.find((id) => substanceIdOf(id, byId) === substanceId) ?? substanceId,
+			forms: forms.map((f) => ({ id: f.id, name: f.name })).sort((a, b) => a.name.localeCompare(b.name))
+		}))
+		.sort((a, b) => byId.get(a.offeredId)!.name.localeCompare(byId.get(b.offeredId)!.name));
+}
+
+function checkCandidates(componentIds: string[], components: Map<string, Component>): Component[] {
+	if (componentIds.length === 0) throw new RuleError('Choose at least one component for the feed.', { field: 'componentIds' });
+	const firstOfSubstance = new Map<string, number>();
+	return componentIds.map((id, i) => {
+		const c = components.get(id);
+		if (!c) throw new RuleError(`No component “${id}” in the library.`, { field: `componentIds.${i}` });
+		const substance = substanceIdOf(id, components);
+		const earlier = firstOfSubstance.get(substance);
+		if (earlier !== undefined) {
+			const other = components.get(componentIds[earlier])!;
+			throw new RuleError(
+				other.id === c.id
+					? `${c.name} is chosen twice; keep it once.`
+					: `${c.name} and ${other.name} are two forms of one substance; a feed takes one form of each. Keep one of them.`,
+				{ field: `componentIds.${i}` }
+			);
+		}
+		firstOfSubstance.set(substance, i);
+		return c;
+	});
+}
+
+function candidateOf(component: Component, components: Map<string, Component>): FeedCandidate {
+	const basis = component.basisComponentId ? components.get(component.basisComponentId) : undefined;
+	const basisMolarMass = basis ? molarMassOfComponent(basis) : null;
+	return {
+		component: componentSpecOf(component),
+		basis: basis && basisMolarMass ? { id: basis.id, molarMassGPerMol: basisMolarMass } : null
+	};
+}
+
+/** The science's field names are the request's, except candidates, which the request names by id. */
+function requestField(field: string | undefined): string | undefined {
+	if (!field) return undefined;
+	const candidate = /^candidates\.(\d+)/.exec(field);
+	if (candidate) return `componentIds.${candidate[1]}`;
+	return field.startsWith('needs') ? undefined : field;
+}
+
+/**
+ * Loads what the science needs from a study and a request, and proposes the feed(s): needs are what
+ * the basal medium leaves short of safety factor × demand at the final volume.
  */
 export function designFeed(inputs: StudyInputs, components: Map<string, Component>, request: FeedDesignRequest): FeedDesign {
 	const { plan, vessel } = inputs;
-	const maxFeedVolumeL = vessel.maxWorkingVolumeL - plan.initialVolumeL;
+	const maxFeedVolumeL = Math.max(0, vessel.maxWorkingVolumeL - plan.initialVolumeL);
 	if (!(request.feedVolumeL > 0)) throw new RuleError('The feed volume must be greater than 0 L.', { field: 'feedVolumeL' });
 	if (request.feedVolumeL > maxFeedVolumeL + 1e-9) {
 		throw new RuleError(
@@ -69,12 +144,13 @@ export function designFeed(inputs: StudyInputs, components: Map<string, Componen
 			{ field: 'feedVolumeL' }
 		);
 	}
-	if (request.componentIds.length === 0) throw new RuleError('Choose at least one component for the feed.', { field: 'componentIds' });
-	const candidates = request.componentIds.map((id, i) => {
-		const c = components.get(id);
-		if (!c) throw new RuleError(`No component “${id}” in the library.`, { field: `componentIds.${i}` });
-		return { component: c, content: contentOf(c, components), solubility: solubilityOf(c, request.temperatureC) };
-	});
+	const chosen = checkCandidates(request.componentIds, components);
+	const defaults = defaultFeedLimits(inputs.profile.group);
+	const limits = {
+		osmolalityMaxMOsmPerKg: request.osmolalityMaxMOsmPerKg ?? defaults.osmolalityMaxMOsmPerKg,
+		dissolvedSolidsMaxGPerL: request.dissolvedSolidsMaxGPerL ?? defaults.dissolvedSolidsMaxGPerL
+	};
+	const usesDefault = request.osmolalityMaxMOsmPerKg === undefined || request.dissolvedSolidsMaxGPerL === undefined;
 
 	const finalVolumeL = plan.initialVolumeL + request.feedVolumeL;
 	const { profile, carbon, substrates } = toSufficiencyProfile(inputs.profile);
@@ -87,77 +163,27 @@ export function designFeed(inputs: StudyInputs, components: Map<string, Componen
 		substrates
 	});
 	const nameOf = (l: SufficiencyLine) => (l.basis === 'element' ? l.key : (inputs.componentNames[l.key] ?? l.key));
-	const needs = basalOnly.lines.map((l) => ({
-		line: l,
-		name: nameOf(l),
-		neededGPerLFeed: Math.max(0, ((plan.safetyFactor * l.demandGPerL - l.supplyGPerL) * finalVolumeL) / request.feedVolumeL)
-	}));
-
-	const variables: Record<string, Record<string, number>> = {};
-	const constraints: Record<string, { min?: number; max?: number }> = {};
-	candidates.forEach(({ component, content, solubility }, j) => {
-		const v: Record<string, number> = { mass: 1 };
-		if (solubility !== null) {
-			v[`cap${j}`] = 1;
-			constraints[`cap${j}`] = { max: solubility };
-		}
-		needs.forEach((n, i) => {
-			const a = content[n.line.key];
-			if (a) v[`need${i}`] = a;
+	try {
+		const result = designFeeds({
+			candidates: chosen.map((c) => candidateOf(c, components)),
+			needs: basalOnly.lines.map((l) => ({
+				key: l.key,
+				name: nameOf(l),
+				requiredGPerLFinal: plan.safetyFactor * l.demandGPerL,
+				presentG: l.supplyGPerL * finalVolumeL
+			})),
+			initialVolumeL: plan.initialVolumeL,
+			feedVolumeL: request.feedVolumeL,
+			maxFeedVolumeL,
+			temperatureC: request.temperatureC,
+			...limits
 		});
-		variables[`c${j}`] = v;
-	});
-	needs.forEach((n, i) => {
-		if (n.neededGPerLFeed > 0) constraints[`need${i}`] = { min: n.neededGPerLFeed };
-	});
-
-	const problems: string[] = [];
-	for (const n of needs) {
-		if (n.neededGPerLFeed <= 0) continue;
-		const carriers = candidates.filter((c) => c.content[n.line.key]);
-		if (carriers.length === 0) {
-			problems.push(`No chosen component provides ${n.name}; the feed needs ${n.neededGPerLFeed.toPrecision(3)} g/L of it. Add a component that carries it.`);
-			continue;
+		return { ...result, limitsSource: usesDefault ? defaults.source : null };
+	} catch (cause) {
+		if (cause instanceof ChemistryInputError) {
+			const field = requestField(cause.field);
+			throw new RuleError(cause.message, { field, status: field ? 400 : 422 });
 		}
-		if (carriers.some((c) => c.solubility === null)) continue;
-		const reachable = carriers.reduce((sum, c) => sum + c.content[n.line.key] * c.solubility!, 0);
-		if (reachable + 1e-12 >= n.neededGPerLFeed) continue;
-		const main = carriers.reduce((best, c) => (c.content[n.line.key] * c.solubility! > best.content[n.line.key] * best.solubility! ? c : best), carriers[0]);
-		const mainNeed = n.neededGPerLFeed / main.content[n.line.key];
-		const minimumVolumeL = (n.neededGPerLFeed * request.feedVolumeL) / reachable;
-		problems.push(
-			`${main.component.name} would need ${mainNeed.toPrecision(2)} g/L, above its solubility of ${main.solubility!.toPrecision(2)} g/L at ${request.temperatureC} °C; ${adviceFor(n.name, main.component.name)}.` +
-				(minimumVolumeL > maxFeedVolumeL ? ` Even the largest feed that fits the vessel (${maxFeedVolumeL.toPrecision(3)} L) is too small.` : ` A feed of ${minimumVolumeL.toPrecision(3)} L would dissolve it.`)
-		);
+		throw cause;
 	}
-
-	const notes = candidates.filter((c) => c.solubility === null).map((c) => `${c.component.name}: no solubility data in the library, so it is not limited here; check it dissolves.`);
-	let amounts = candidates.map(() => 0);
-	if (problems.length === 0) {
-		const solution = solver.Solve({ optimize: 'mass', opType: 'min', constraints, variables }) as { feasible: boolean; [k: string]: number | boolean | undefined };
-		if (!solution.feasible) problems.push('No feed composition meets every demand within the solubility limits.');
-		else amounts = candidates.map((_, j) => Number(solution[`c${j}`] ?? 0));
-	}
-	return {
-		feasible: problems.length === 0,
-		feedVolumeL: request.feedVolumeL,
-		temperatureC: request.temperatureC,
-		maxFeedVolumeL,
-		components: candidates.map((c, j) => ({
-			id: c.component.id,
-			name: c.component.name,
-			gPerL: amounts[j],
-			solubilityGPerL: c.solubility,
-			atSolubilityLimit: c.solubility !== null && amounts[j] >= c.solubility * 0.999
-		})),
-		coverage: needs.map((n) => ({
-			key: n.line.key,
-			name: n.name,
-			neededGPerLFeed: n.neededGPerLFeed,
-			providedGPerLFeed: candidates.reduce((sum, c, j) => sum + (c.content[n.line.key] ?? 0) * amounts[j], 0),
-			coveredByBasal: n.neededGPerLFeed === 0
-		})),
-		problems,
-		notes
-	};
 }

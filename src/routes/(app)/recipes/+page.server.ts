@@ -1,4 +1,4 @@
-import { RECIPE_KINDS, VERSION_STATUSES, type RecipeKind, type VersionStatus } from '$lib/recipes';
+import { RECIPE_EDITORS, RECIPE_KINDS, VERSION_STATUSES, type RecipeKind, type VersionStatus } from '$lib/recipes';
 import { listComponents } from '$lib/server/components/library';
 import { requireUser } from '$lib/server/guard';
 import { pageFrom } from '$lib/server/paging';
@@ -29,6 +29,6 @@ export const load: PageServerLoad = async ({ url }) => {
 		pageSize: PAGE_SIZE,
 		filter: { kind: filter.kind ?? '', status: filter.status ?? '', component: filter.componentId ?? '', q: filter.search ?? '' },
 		components: listComponents().map((c) => ({ id: c.id, name: c.name })),
-		canCreate: hasRole(user, ['media_scientist'])
+		canCreate: hasRole(user, RECIPE_EDITORS)
 	};
 };

@@ -64,6 +64,7 @@ export const analysisResponse = z.object({
 		})
 		.loose(),
 	ionicStrengthMolPerL: z.number(),
+	dissolvedSolidsGPerL: z.number().describe('Σ g/L of the components as weighed'),
 	temperatureC: z.number(),
 	warnings: z.array(z.object({ kind: z.enum(['solubility', 'precipitation']), basis: z.string(), message: z.string(), lines: z.array(z.number()) })),
 	notes: z.array(z.string()),

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { STUDY_ROLES } from '$lib/studies';
+import { FEED_DRAFT_ROLES, STUDY_ROLES } from '$lib/studies';
 import type { ApiOperation } from '../openapi';
 
 const finite = z.number({ error: 'Give a number.' });
@@ -19,9 +19,23 @@ export const evaluateRequest = z.strictObject({
 });
 
 export const feedDesignRequest = z.strictObject({
-	componentIds: z.array(z.string().min(1).max(80)).min(1, 'Choose at least one component.').max(40),
-	feedVolumeL: finite,
-	temperatureC: finite.min(0, 'At least 0 °C').max(60, 'At most 60 °C')
+	componentIds: z.array(z.string().min(1, 'Choose a component.').max(80)).min(1, 'Choose at least one component.').max(40, 'At most 40 components.'),
+	feedVolumeL: finite.describe('All proposed feeds together, L'),
+	temperatureC: finite.min(0, 'At least 0 °C').max(60, 'At most 60 °C'),
+	osmolalityMaxMOsmPerKg: finite
+		.gt(0, 'Above 0 mOsm/kg')
+		.max(10000, 'At most 10 000 mOsm/kg')
+		.optional()
+		.describe("Highest osmolality of each feed (the recipe analysis's estimate); the organism group's default when omitted"),
+	dissolvedSolidsMaxGPerL: finite.gt(0, 'Above 0 g/L').max(2000, 'At most 2 000 g/L').optional().describe("Highest Σ g/L of each feed; the organism group's default when omitted")
+});
+
+export const feedDesignDraftsRequest = feedDesignRequest.extend({
+	names: z
+		.array(z.string().trim().min(1, 'Give the draft a name.').max(120, 'Keep the name to 120 characters.'))
+		.min(1, 'Give each proposed feed a name.')
+		.max(2, 'A proposal has at most two feeds.')
+		.describe('One recipe name per proposed feed, in the order of the proposal')
 });
 
 const roles = [...STUDY_ROLES];
@@ -42,6 +56,16 @@ export const studiesOperations: ApiOperation[] = [
 		summary: "Proposes a feed concentrate (g/L per component) that covers every nutrient at the study's target and safety factor within solubility and vessel volume, or says why it cannot",
 		access: roles,
 		request: feedDesignRequest,
+		errors: [422]
+	},
+	{
+		method: 'post',
+		path: '/api/v1/studies/{id}/feed-design/drafts',
+		summary:
+			'Designs the feed(s) again from the same request and saves each proposed feed as a new feed recipe whose version 1 draft holds its lines, with the recipe editor\'s checks and audit; answers the drafts and their editor links',
+		access: [...FEED_DRAFT_ROLES],
+		request: feedDesignDraftsRequest,
+		successStatus: 201,
 		errors: [422]
 	}
 ];

@@ -1,12 +1,10 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { RECIPE_KINDS } from '$lib/recipes';
+import { RECIPE_EDITORS, RECIPE_KINDS } from '$lib/recipes';
 import { parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requireRole } from '$lib/server/guard';
 import { createRecipe } from '$lib/server/recipes/drafts';
 import type { Actions, PageServerLoad } from './$types';
-
-const EDITORS = ['media_scientist'] as const;
 
 const newRecipeForm = z.object({
 	name: z.string().trim().min(1, 'Give the recipe a name.').max(120, 'Keep the name to 120 characters.'),
@@ -14,13 +12,13 @@ const newRecipeForm = z.object({
 });
 
 export const load: PageServerLoad = async () => {
-	requireRole(...EDITORS);
+	requireRole(...RECIPE_EDITORS);
 	return {};
 };
 
 export const actions: Actions = {
 	default: async ({ request }) => {
-		const user = requireRole(...EDITORS);
+		const user = requireRole(...RECIPE_EDITORS);
 		const formData = await request.formData();
 		const parsed = parseForm(newRecipeForm, formData);
 		if (!parsed.ok) return parsed.failure;
