@@ -369,8 +369,10 @@ class RunIntegrator {
 		} else {
 			// S below 0 while the supply at S = 0 falls short of maintenance; a dip within the
 			// integrator's tolerance while the supply covers it is rounding, not exhaustion.
+			// (The supply is asked for only once S is below 0: at every step it would cost the feed laws again.)
 			switches.push({
-				value: (tH, state) => Math.min(-state[S], -this.substrateSurplusAtZero(phase, tH, state)),
+				value: (tH, state) =>
+					state[S] >= 0 ? -state[S] : Math.min(-state[S], -this.substrateSurplusAtZero(phase, tH, state)),
 				apply: () => this.setSubstrateExhausted(true)
 			});
 		}

@@ -54,6 +54,28 @@ test.describe('an engineer runs a study', () => {
 		expect(pdf.byteLength).toBeGreaterThan(10_000);
 	});
 
+	test('follows the oxygen advice with one click, and the oxygen check then passes', async ({ page }) => {
+		await page.goto('/studies');
+		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
+		await expect(page.getByTestId('verdict-text')).toHaveText('Supported');
+		await page.getByLabel('kLa, 1/h', { exact: true }).fill('60');
+		const oxygen = page.getByTestId('oxygen');
+		await expect(oxygen.getByText('Short', { exact: true })).toBeVisible();
+		const advice = oxygen.getByRole('button', { name: /^Try kLa / });
+		const advised = (await advice.textContent())!.match(/Try kLa ([\d.]+)/)![1];
+		await advice.click();
+		await expect(page.getByLabel('kLa, 1/h', { exact: true })).toHaveValue(advised);
+		await expect(oxygen.getByText('OK', { exact: true })).toBeVisible();
+		await expect(page.getByTestId('verdict-text')).toHaveText('Supported');
+
+		// The same with the O2 fraction: this bench vessel allows enrichment.
+		await page.getByLabel('kLa, 1/h', { exact: true }).fill('150');
+		await expect(oxygen.getByText('Short', { exact: true })).toBeVisible();
+		await oxygen.getByRole('button', { name: /^Try O2 fraction / }).click();
+		await expect(oxygen.getByText('OK', { exact: true })).toBeVisible();
+		await expect(page.getByText('Oxygen-enriched gas raises the risk of fire.')).toBeVisible();
+	});
+
 	test('downloads the report as a PDF with the verdict and the cautions', async ({ page }) => {
 		await page.goto('/studies');
 		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();

@@ -260,12 +260,12 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	let oxygenOk = transfer.verdict === 'sufficient' && !lowerBound;
 	if (transfer.verdict !== 'sufficient') {
 		const remedy = !transfer.enrichmentFeasible
-			? 'even pure O2 would not close the gap at this kLa'
+			? ' (even pure O2 would not close the gap at this kLa)'
 			: vessel.o2EnrichmentAllowed
-				? `an O2 fraction of ${o2MoleFractionRecommended}`
-				: 'this vessel does not allow O2 enrichment';
+				? `, or an O2 fraction of ${o2MoleFractionRecommended}`
+				: ' (this vessel does not allow O2 enrichment)';
 		reasons.push(
-			`Peak OUR ${load.peakOurMmolPerLH.toFixed(0)} mmol/(L·h) exceeds the maximum OTR ${transfer.maxOtr.mmolPerLH.toFixed(0)} mmol/(L·h) at the DO setpoint: the plan needs kLa ${kLaRecommendedPerH} 1/h, or ${remedy}.`
+			`Peak OUR ${load.peakOurMmolPerLH.toFixed(0)} mmol/(L·h) exceeds the maximum OTR ${transfer.maxOtr.mmolPerLH.toFixed(0)} mmol/(L·h) at the DO setpoint: the plan needs kLa ${kLaRecommendedPerH} 1/h${remedy}.`
 		);
 	}
 	for (const f of feeds) {
@@ -337,7 +337,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 			targetCellsPerMl: target.cellsPerMl,
 			feedVolumeL,
 			kLaPerH,
-			kLaOrigin: whatIf.kLaPerH === undefined ? vesselKLa.origin : 'what-if',
+			kLaOrigin: whatIf.kLaPerH === undefined ? vesselKLa.origin : 'from the what-if',
 			o2MoleFraction,
 			temperatureC,
 			pressureKPa: plan.pressureKPa,

@@ -27,6 +27,6 @@ export function computeVesselKLa(vessel: VesselRow): { kLaPerH: number; origin: 
 	}
 	return {
 		kLaPerH,
-		origin: `kLa = ${k}·(P/V)^${a}·(v_s)^${b} with P/V ${pv} W/m³, v_s ${vs} m/s (van 't Riet 1979 form; constants entered for the vessel)`
+		origin: `from the correlation kLa = ${k}·(P/V)^${a}·(v_s)^${b} with P/V ${pv} W/m³, v_s ${vs} m/s (van 't Riet 1979 form; constants entered for the vessel)`
 	};
 }
