@@ -169,6 +169,47 @@ test('a run-data upload shows the bad row and still fits the rest', async ({ pag
 	const mu = Number(await page.getByTestId('fit-mu-max').textContent());
 	expect(Math.abs(mu - 0.6)).toBeLessThan(0.02);
 	await expect(page.getByTestId('chart-fit').locator('canvas')).toHaveAttribute('data-series', /Monod model X/);
+	// The whole-curve parameters come with their 95 % intervals.
+	for (const key of ['mu-max', 'ks', 'yield']) {
+		await expect(page.getByTestId(`fit-monod-${key}-interval`)).toHaveText(/^[\d.e+-]+ – [\d.e+-]+$|^unbounded$/);
+	}
+	await page.getByText('How the fit works').click();
+	await expect(page.getByTestId('model-help')).toContainText('steepest straight run');
+});
+
+test('a sparse run says which whole-curve parameter the data do not pin down', async ({ page }) => {
+	// Noisy samples every 2 h from an independent script (tests/chemistry/fixtures/growth-curves.py):
+	// the substrate runs out between two samples, so Ks is not determined.
+	const reference = JSON.parse(readFileSync('tests/chemistry/fixtures/growth-curves.json', 'utf8'));
+	const sparse = reference.monodFits.find((c: { label: string }) => c.label === 'every 2 h');
+	const rows = sparse.timeH.map((t: number, i: number) => `${t},${sparse.biomassGPerL[i]},${sparse.substrateGPerL[i]}`);
+	await page.goto('/simulation/fit');
+	await page.getByLabel('CSV file of the run (header row; time in hours)').setInputFiles({ name: 'sparse.csv', mimeType: 'text/csv', buffer: Buffer.from(['time_h,biomass_g_per_l,glucose_g_per_l', ...rows].join('\n')) });
+	await page.getByRole('button', { name: 'Fit growth parameters' }).click();
+	await expect(page.getByTestId('fit-warnings')).toContainText('Ks is not determined by these data: its 95 % interval is unbounded');
+	await expect(page.getByTestId('fit-monod-ks')).toContainText('poorly determined');
+	await expect(page.getByTestId('fit-monod-ks-interval')).toHaveText('unbounded');
+	await expect(page.getByTestId('fit-monod-mu-max')).not.toContainText('poorly determined');
+});
+
+test('run data that cannot be fitted is refused with the reason, and nothing typed is lost', async ({ page }) => {
+	await page.goto('/simulation/fit');
+	const upload = page.getByLabel('CSV file of the run (header row; time in hours)');
+	// A culture that never grew: the same OD at every time.
+	const flat = ['time_h,OD600', ...Array.from({ length: 8 }, (_, i) => `${i},0.250`)].join('\n');
+	await upload.setInputFiles({ name: 'flat.csv', mimeType: 'text/csv', buffer: Buffer.from(flat) });
+	await page.getByLabel('Conversion (g/L per OD unit)').fill('0.45');
+	await page.getByRole('button', { name: 'Fit growth parameters' }).click();
+	await expect(page.getByTestId('fit-message')).toContainText('at every point: the culture did not grow, so there is nothing to fit. (the biomass column)');
+	await expect(page.getByLabel('Conversion (g/L per OD unit)')).toHaveValue('0.45');
+	await expect(page.getByTestId('row-summary')).toContainText('8 of 8 rows accepted');
+
+	// Time that goes back: the row is left out with its reason, and 3 rows are too few to fit.
+	const backwards = ['time_h,OD600', '0,0.05', '1,0.1', '2,0.2', '1.5,0.3'].join('\n');
+	await upload.setInputFiles({ name: 'backwards.csv', mimeType: 'text/csv', buffer: Buffer.from(backwards) });
+	await expect(page.getByTestId('row-errors')).toContainText('Line 5: time 1.5 h does not come after 2 h');
+	await expect(page.getByTestId('fit-not-ready')).toHaveText('At least 4 accepted rows are needed (3 accepted).');
+	await expect(page.getByRole('button', { name: 'Fit growth parameters' })).toBeDisabled();
 });
 
 test('a file that is not text is refused with a reason', async ({ page }) => {

@@ -62,3 +62,20 @@ describe('the oxygen saturation operation', () => {
 		expect(operation.summary).not.toMatch(/0\.2095(?!\d)/);
 	});
 });
+
+describe('the growth fit’s documented response', () => {
+	it('carries the whole-curve intervals, the poorly-determined flag and the warnings', () => {
+		type Schema = { properties: Record<string, Schema>; anyOf?: Schema[]; required?: string[] };
+		const doc = buildOpenApiDocument('http://localhost') as unknown as {
+			paths: Record<string, { post: { responses: { '200': { content: Record<string, { schema: Schema }> } } } }>;
+		};
+		const schema = doc.paths['/api/v1/fit/growth'].post.responses['200'].content['application/json'].schema;
+		expect(schema.required).toEqual(expect.arrayContaining(['exponentialPhase', 'monodFit', 'warnings']));
+		const monod = schema.properties.monodFit.anyOf!.find((s) => s.properties)!;
+		const ks = monod.properties.estimates.properties.ksGPerL;
+		expect(Object.keys(ks.properties)).toEqual(['value', 'standardError', 'lower95', 'upper95', 'poorlyDetermined']);
+		expect(Object.keys(schema.properties.exponentialPhase.properties)).toEqual(
+			expect.arrayContaining(['muMaxPerH', 'doublingTimeH', 'longestStraightPointCount', 'noiseSdLn'])
+		);
+	});
+});

@@ -34,6 +34,8 @@ describe('run-data upload', () => {
 		expect(checked.series.biomassGPerL).toEqual([0.1, 0.2, 1.25, 2.5]);
 		expect(checked.lines).toEqual([2, 3, 8, 10]);
 		expect(describeFitFieldPath('biomassGPerL.2', checked.lines)).toBe('line 8 of the file');
+		expect(describeFitFieldPath('biomassGPerL', checked.lines)).toBe('the biomass column');
+		expect(describeFitFieldPath('minRSquared', checked.lines)).toBeNull();
 	});
 
 	it('asks for a positive OD conversion factor', () => {

@@ -160,10 +160,20 @@ export function checkRunData(table: RunDataTable, mapping: ColumnMapping): Check
 	return result;
 }
 
-/** Turns a fit error about point i (`biomassGPerL.3`) into the line of the file it came from. */
+const FIT_SERIES_COLUMNS: Record<string, string> = {
+	timeH: 'time',
+	biomassGPerL: 'biomass',
+	substrateGPerL: 'substrate',
+	dissolvedOxygenMgPerL: 'dissolved oxygen'
+};
+
+/**
+ * Turns a fit error's field into words from the file: about point i (`biomassGPerL.3`), the line it
+ * came from; about a whole series (`biomassGPerL`), its column.
+ */
 export function describeFitFieldPath(path: string, lines: number[]): string | null {
 	const match = /^(\w+)\.(\d+)$/.exec(path);
-	if (!match) return null;
+	if (!match) return FIT_SERIES_COLUMNS[path] ? `the ${FIT_SERIES_COLUMNS[path]} column` : null;
 	const line = lines[Number(match[2])];
 	return line === undefined ? null : `line ${line} of the file`;
 }

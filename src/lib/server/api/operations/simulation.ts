@@ -159,6 +159,61 @@ export const fitGrowthRequest = z.strictObject({
 	fitYield: z.boolean().optional()
 });
 
+const estimate = z.object({
+	value: z.number(),
+	standardError: z.number(),
+	lower95: z.number().nullable().describe('95 % bound; null when unbounded'),
+	upper95: z.number().nullable().describe('95 % bound; null when unbounded')
+});
+
+const parameterEstimate = z.object({
+	value: z.number(),
+	standardError: z.number().nullable().describe('θ·SE(ln θ); null when the data do not determine θ'),
+	lower95: z.number().nullable().describe('95 % bound from ln θ; null when unbounded'),
+	upper95: z.number().nullable().describe('95 % bound from ln θ; null when unbounded'),
+	poorlyDetermined: z.boolean().describe('the interval spans more than a factor of 3, or is unbounded')
+});
+
+export const fitGrowthResponse = z.object({
+	exponentialPhase: z.object({
+		startIndex: z.int(),
+		endIndex: z.int(),
+		startH: z.number(),
+		endH: z.number(),
+		pointCount: z.int(),
+		rSquared: z.number(),
+		longestStraightPointCount: z.int().describe('the reported window holds at least 60 % of these points'),
+		noiseSdLn: z.number().describe('measurement noise of ln X used by the window tests'),
+		muMaxPerH: estimate.describe('slope of ln X over the window; Student-t interval'),
+		doublingTimeH: estimate,
+		curve: z.object({ t: series, biomassGPerL: series })
+	}),
+	oxygenLimitedIndices: z.array(z.int()),
+	yieldXS: estimate.nullable().describe('−dX/dS; null without falling substrate data'),
+	monodFit: z
+		.object({
+			muMaxPerH: z.number(),
+			ksGPerL: z.number(),
+			yieldXS: z.number(),
+			initialBiomassGPerL: z.number().describe('at startH'),
+			initialSubstrateGPerL: z.number().describe('at startH'),
+			startH: z.number().describe('the fit starts at the exponential phase’s first point'),
+			biomassRmsGPerL: z.number(),
+			substrateRmsGPerL: z.number(),
+			iterations: z.int(),
+			estimates: z.object({
+				muMaxPerH: parameterEstimate,
+				ksGPerL: parameterEstimate,
+				yieldXS: parameterEstimate.nullable().describe('null when Yx/s was held at −dX/dS')
+			}),
+			degreesOfFreedom: z.int(),
+			curve: z.object({ t: series, biomassGPerL: series, substrateGPerL: series })
+		})
+		.nullable()
+		.describe('whole-curve Monod batch fit; null without substrate data or when it failed (see warnings)'),
+	warnings: z.array(z.string()).describe('plain-words cautions, e.g. a poorly determined Ks')
+});
+
 const scenarioName = z
 	.string({ error: 'Give the scenario a name.' })
 	.trim()
@@ -220,9 +275,10 @@ export const simulationOperations: ApiOperation[] = [
 		method: 'post',
 		path: '/api/v1/fit/growth',
 		summary:
-			'Fits run data: exponential phase, μmax and doubling time with 95 % intervals, Yx/s from −dX/dS, and μmax, Ks, Yx/s over the whole curve (needs substrate data)',
+			'Fits run data: exponential phase (straight windows of ln X: R², lack of fit against the run’s noise, no significant bend), μmax and doubling time with Student-t 95 % intervals, Yx/s from −dX/dS, and μmax, Ks, Yx/s over the whole curve (needs substrate data) with 95 % intervals from the linearised covariance and warnings for poorly determined parameters. Data it cannot fit answer 400 naming the field and the test that failed',
 		access: 'signed-in',
-		request: fitGrowthRequest
+		request: fitGrowthRequest,
+		response: fitGrowthResponse
 	},
 	{
 		method: 'get',
