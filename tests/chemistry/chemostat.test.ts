@@ -14,6 +14,19 @@ import scipyReference from './reference/chemostat-maintenance.json';
 
 const culture = { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5, feedSubstrateGPerL: 10 };
 
+/** The dynamic chemostat (μmax 0.5, Ks 0.2, Yx/s 0.5, S0 10 g/L) at D = 0.25 /h, run 300 h to its steady state. */
+function simulateChemostatAtQuarterPerHour(maintenanceGPerGH: number) {
+	return simulateRun({
+		mode: 'chemostat',
+		kinetics: { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5, maintenanceGPerGH },
+		initial: { biomassGPerL: 0.2, substrateGPerL: 5, volumeL: 1 },
+		feed: { strategy: 'constant', substrateGPerL: 10 },
+		dilutionPerH: 0.25,
+		endH: 300,
+		outputEveryH: 10
+	});
+}
+
 describe('computeChemostatSteadyState', () => {
 	it('matches the closed-form steady state', () => {
 		// Monod 1949; Herbert, Elsworth & Telling 1956: S = Ks·D/(μmax − D), X = Y(S0 − S).
@@ -84,15 +97,7 @@ describe('computeChemostatSteadyState', () => {
 
 	it('agrees with the dynamic simulation at steady state', () => {
 		const steady = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.25 });
-		const run = simulateRun({
-			mode: 'chemostat',
-			kinetics: { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5 },
-			initial: { biomassGPerL: 0.2, substrateGPerL: 5, volumeL: 1 },
-			feed: { strategy: 'constant', substrateGPerL: 10 },
-			dilutionPerH: 0.25,
-			endH: 300,
-			outputEveryH: 10
-		});
+		const run = simulateChemostatAtQuarterPerHour(0);
 		expect(run.substrateGPerL.at(-1)! / steady.substrateGPerL - 1).toBeCloseTo(0, 6);
 		expect(run.biomassGPerL.at(-1)! / steady.biomassGPerL - 1).toBeCloseTo(0, 6);
 	});
@@ -218,15 +223,7 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 		// The integrator (odex) reaches the steady state of the same balances, maintenance in full.
 		const m = 0.05;
 		const steady = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.25, maintenanceGPerGH: m });
-		const run = simulateRun({
-			mode: 'chemostat',
-			kinetics: { muMaxPerH: 0.5, ksGPerL: 0.2, yieldXS: 0.5, maintenanceGPerGH: m },
-			initial: { biomassGPerL: 0.2, substrateGPerL: 5, volumeL: 1 },
-			feed: { strategy: 'constant', substrateGPerL: 10 },
-			dilutionPerH: 0.25,
-			endH: 300,
-			outputEveryH: 10
-		});
+		const run = simulateChemostatAtQuarterPerHour(m);
 		expect(run.substrateGPerL.at(-1)! / steady.substrateGPerL - 1).toBeCloseTo(0, 6);
 		expect(run.biomassGPerL.at(-1)! / steady.biomassGPerL - 1).toBeCloseTo(0, 6);
 	});

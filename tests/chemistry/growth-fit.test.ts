@@ -22,6 +22,27 @@ function createNormalSource(seed: number): () => number {
 	return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
 }
 
+/** A Monod batch from 0.05 g/L on 20 g/L, sampled every 15 min over 24 h. */
+function simulateMonodBatch(kinetics: { muMaxPerH: number; ksGPerL: number; yieldXS: number }) {
+	return simulateRun({
+		mode: 'batch',
+		kinetics,
+		initial: { biomassGPerL: 0.05, substrateGPerL: 20, volumeL: 1 },
+		endH: 24,
+		outputEveryH: 0.25
+	});
+}
+
+/** The run's X and S with seeded multiplicative normal noise (S never below 0). */
+function withRelativeNoise(run: ReturnType<typeof simulateRun>, seed: number, relativeNoise: number) {
+	const normal = createNormalSource(seed);
+	return {
+		timeH: run.t,
+		biomassGPerL: run.biomassGPerL.map((x) => x * (1 + relativeNoise * normal())),
+		substrateGPerL: run.substrateGPerL.map((s) => Math.max(0, s * (1 + relativeNoise * normal())))
+	};
+}
+
 describe('computeStudentTQuantile', () => {
 	it.each([
 		[1, 12.706],
@@ -59,23 +80,9 @@ describe('computeStudentTQuantile', () => {
 
 describe('fitGrowthCurve', () => {
 	const truth = { muMaxPerH: 0.4, ksGPerL: 0.3, yieldXS: 0.45 };
-	const run = simulateRun({
-		mode: 'batch',
-		kinetics: truth,
-		initial: { biomassGPerL: 0.05, substrateGPerL: 20, volumeL: 1 },
-		endH: 24,
-		// Every 15 min: Ks is only seen in the last hour before exhaustion, and μmax is tied to Ks.
-		outputEveryH: 0.25
-	});
-
-	function noisyData(seed: number, relativeNoise: number) {
-		const normal = createNormalSource(seed);
-		return {
-			timeH: run.t,
-			biomassGPerL: run.biomassGPerL.map((x) => x * (1 + relativeNoise * normal())),
-			substrateGPerL: run.substrateGPerL.map((s) => Math.max(0, s * (1 + relativeNoise * normal())))
-		};
-	}
+	// Every 15 min: Ks is only seen in the last hour before exhaustion, and μmax is tied to Ks.
+	const run = simulateMonodBatch(truth);
+	const noisyData = (seed: number, relativeNoise: number) => withRelativeNoise(run, seed, relativeNoise);
 
 	it('recovers μmax and Yx/s within 2 % from model data with 2 % noise', () => {
 		// Data from the integrated model (simulateRun); the fit uses the implicit closed form, so the
@@ -468,21 +475,5 @@ describe('whole-curve Monod fit: 95 % intervals and warnings', () => {
 });
 
 const monodTruth = { muMaxPerH: 0.4, ksGPerL: 0.2, yieldXS: 0.45 };
-const monodRun = simulateRun({
-	mode: 'batch',
-	kinetics: monodTruth,
-	initial: { biomassGPerL: 0.05, substrateGPerL: 20, volumeL: 1 },
-	endH: 24,
-	outputEveryH: 0.25
-});
-
-function noisyMonodData(seed: number, relativeNoise: number) {
-	const normal = createNormalSource(seed);
-	return {
-		timeH: monodRun.t,
-		biomassGPerL: monodRun.biomassGPerL.map((x) => x * (1 + relativeNoise * normal())),
-		substrateGPerL: monodRun.substrateGPerL.map((s) =>
-			Math.max(0, s * (1 + relativeNoise * normal()))
-		)
-	};
-}
+const monodRun = simulateMonodBatch(monodTruth);
+const noisyMonodData = (seed: number, relativeNoise: number) => withRelativeNoise(monodRun, seed, relativeNoise);

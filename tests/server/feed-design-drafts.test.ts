@@ -1,4 +1,3 @@
-import type { RequestEvent } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { db } from '$lib/server/db';
@@ -7,13 +6,12 @@ import { seedDemo } from '$lib/server/demo/seed';
 import { findUserByEmail, rolesOf } from '$lib/server/people';
 import { analyseVersion } from '$lib/server/recipes/analysis';
 import { linesOf } from '$lib/server/recipes/queries';
+import { postJson } from './endpoint-call';
 
-// The endpoint's guard reads the request through getRequestEvent, which only the SvelteKit server
-// sets; this test hands it the event it builds.
-const current = vi.hoisted(() => ({ event: null as unknown }));
+// The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.
 vi.mock('$app/server', async (importOriginal) => ({
 	...(await importOriginal<typeof import('$app/server')>()),
-	getRequestEvent: () => current.event
+	getRequestEvent: (await import('./endpoint-call')).currentEvent
 }));
 
 const { POST: saveDrafts } = await import('../../src/routes/api/v1/studies/[id]/feed-design/drafts/+server');
@@ -27,12 +25,8 @@ function demoUser(email: string) {
 	return { id: row.id, email: row.email, name: row.name, roles: rolesOf(row.id) };
 }
 
-async function post(handler: typeof saveDrafts, path: string, studyId: string, body: unknown, user: ReturnType<typeof demoUser>): Promise<Response> {
-	const url = new URL(`http://127.0.0.1/api/v1/studies/${studyId}/${path}`);
-	const request = new Request(url, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-	const event = { request, url, params: { id: studyId }, locals: { user, session: null }, getClientAddress: () => '127.0.0.1' } as unknown as RequestEvent;
-	current.event = event;
-	return handler(event);
+function post(handler: typeof saveDrafts, path: string, studyId: string, body: unknown, user: ReturnType<typeof demoUser>): Promise<Response> {
+	return postJson(handler, `/api/v1/studies/${studyId}/${path}`, body, { user, params: { id: studyId } });
 }
 
 let studyId: string;

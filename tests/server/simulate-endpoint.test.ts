@@ -1,29 +1,17 @@
-import type { RequestEvent } from '@sveltejs/kit';
 import { describe, expect, it, vi } from 'vitest';
+import { postJson } from './endpoint-call';
 
-// The endpoint's guard reads the request through getRequestEvent, which only the SvelteKit server
-// sets; this test hands it the event it builds.
-const current = vi.hoisted(() => ({ event: null as unknown }));
+// The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.
 vi.mock('$app/server', async (importOriginal) => ({
 	...(await importOriginal<typeof import('$app/server')>()),
-	getRequestEvent: () => current.event
+	getRequestEvent: (await import('./endpoint-call')).currentEvent
 }));
 
 const { POST } = await import('../../src/routes/api/v1/simulate/+server');
 
 const engineer = { id: 'u-engineer', email: 'engineer@lab.test', name: 'Engineer', roles: ['engineer'] };
 
-async function postSimulate(body: unknown, user: typeof engineer | null = engineer): Promise<Response> {
-	const url = new URL('http://127.0.0.1/api/v1/simulate');
-	const request = new Request(url, {
-		method: 'POST',
-		headers: { 'content-type': 'application/json' },
-		body: JSON.stringify(body)
-	});
-	const event = { request, url, locals: { user, session: null } } as unknown as RequestEvent;
-	current.event = event;
-	return POST(event);
-}
+const postSimulate = (body: unknown, user: typeof engineer | null = engineer) => postJson(POST, '/api/v1/simulate', body, { user });
 
 const twoStreams = {
 	mode: 'fedBatch',

@@ -1,4 +1,3 @@
-import type { RequestEvent } from '@sveltejs/kit';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { MAX_FEED_LABEL_LENGTH, MAX_FEED_STREAMS, simulateRun, type FeedInput, type SimulationRequest } from '$chemistry';
 import { callApi } from '$lib/simulation/api-client';
@@ -13,12 +12,12 @@ import {
 } from '$lib/simulation/feed-stream-values';
 import { buildSimulationRequest, createDemoValues, feedStreamPath, readSimulationRequest, type SimulationFormValues } from '$lib/simulation/form-values';
 import { formatSeriesCsv } from '$lib/simulation/series-csv';
+import { enterEvent } from './endpoint-call';
 
-// The endpoint's guard reads the request through getRequestEvent, which only the SvelteKit server sets.
-const current = vi.hoisted(() => ({ event: null as unknown }));
+// The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.
 vi.mock('$app/server', async (importOriginal) => ({
 	...(await importOriginal<typeof import('$app/server')>()),
-	getRequestEvent: () => current.event
+	getRequestEvent: (await import('./endpoint-call')).currentEvent
 }));
 const { POST } = await import('../../src/routes/api/v1/simulate/+server');
 
@@ -27,10 +26,7 @@ const engineer = { id: 'u-engineer', email: 'engineer@lab.test', name: 'Engineer
 /** The browser's fetch answered by the real simulate endpoint, so callApi reads a real problem+json. */
 function answerFetchWithEndpoint() {
 	vi.stubGlobal('fetch', async (path: string, init: RequestInit) => {
-		const url = new URL(path, 'http://127.0.0.1');
-		const request = new Request(url, init);
-		current.event = { request, url, locals: { user: engineer, session: null } } as unknown as RequestEvent;
-		return POST(current.event as RequestEvent);
+		return POST(enterEvent(new Request(new URL(path, 'http://127.0.0.1'), init), { user: engineer }));
 	});
 }
 

@@ -1,12 +1,11 @@
-import type { RequestEvent, RequestHandler } from '@sveltejs/kit';
+import type { RequestHandler } from '@sveltejs/kit';
 import { describe, expect, it, vi } from 'vitest';
+import { postJson } from './endpoint-call';
 
-// The endpoints' guard reads the request through getRequestEvent, which only the SvelteKit server
-// sets; this test hands it the event it builds.
-const current = vi.hoisted(() => ({ event: null as unknown }));
+// The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.
 vi.mock('$app/server', async (importOriginal) => ({
 	...(await importOriginal<typeof import('$app/server')>()),
-	getRequestEvent: () => current.event
+	getRequestEvent: (await import('./endpoint-call')).currentEvent
 }));
 
 const routes: Record<string, () => Promise<{ POST: RequestHandler }>> = {
@@ -29,15 +28,7 @@ const scientist = { id: 'u-strict', email: 'strict@lab.test', name: 'Strict', ro
 
 async function post(route: string, body: unknown): Promise<Response> {
 	const { POST } = await routes[route]();
-	const url = new URL(`http://127.0.0.1${route.replace('{id}', 'study-1')}`);
-	const request = new Request(url, {
-		method: 'POST',
-		headers: { 'content-type': 'application/json' },
-		body: JSON.stringify(body)
-	});
-	const event = { request, url, params: { id: 'study-1' }, locals: { user: scientist, session: null } } as unknown as RequestEvent;
-	current.event = event;
-	return POST(event);
+	return postJson(POST, route.replace('{id}', 'study-1'), body, { user: scientist, params: { id: 'study-1' } });
 }
 
 const species = [
