@@ -131,6 +131,18 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		expect(report.heat.lowerBound).toBe(false);
 	});
 
+	it('a plan that cannot be simulated says why and is never supported', () => {
+		const inputs = structuredClone(inputsOf(YEAST_STUDY));
+		// 60 /h is beyond what the simulation accepts (at most 50 /h): the model refuses the run.
+		inputs.profile.muMaxPerH = 60;
+		const report = evaluateStudy(inputs);
+		expect(report.verdict).toBe('not supported');
+		expect(report.reasons.join(' ')).toMatch(/cannot be simulated \(kinetics\.muMaxPerH/);
+		expect(report.timeCourse.check).toBe('unavailable');
+		expect(report.oxygen.lowerBound).toBe(true);
+		expect(report.oxygen.check).toBe('short');
+	});
+
 	it('a plan that fills the vessel early gives lower bounds and never a supported verdict', () => {
 		const inputs = inputsOf(YEAST_STUDY);
 		const report = evaluateStudy(inputs, { feedVolumeL: 8 });
