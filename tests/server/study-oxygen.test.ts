@@ -131,6 +131,15 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		expect(report.heat.lowerBound).toBe(false);
 	});
 
+	it('a DO-stat feed set below the DO setpoint of the study is named: no kLa would fix it', () => {
+		const inputs = structuredClone(inputsOf('Yeast DO-stat with nitrogen top-up, bench (demo)'));
+		const doStat = inputs.feeds.find((f) => f.plan.strategy === 'doStat')!;
+		doStat.plan.doSetpointPercent = 20;
+		const report = evaluateStudy(inputs, { kLaPerH: 2000 });
+		expect(report.oxygen.check).toBe('short');
+		expect(report.reasons.join(' ')).toMatch(/DO-stat down to 20 % .* Raise the feed's DO setpoint to at least 30 %/);
+	});
+
 	it('a plan that cannot be simulated says why and is never supported', () => {
 		const inputs = structuredClone(inputsOf(YEAST_STUDY));
 		// 60 /h is beyond what the simulation accepts (at most 50 /h): the model refuses the run.
