@@ -13,12 +13,15 @@ export * from './oxygen-load';
 export * from './degree-of-reduction';
 export * from './stoichiometry';
 export * from './sufficiency';
+export * from './profile-elements';
+export * from './data/element-roles';
 export * from './substrate-yield';
 export {
 	AVERAGE_BIOMASS_FORMULA,
 	BIOMASS_COMPOSITIONS,
 	STANDARD_BIOMASS_FORMULA,
-	findBiomassComposition
+	findBiomassComposition,
+	organicMassFractions
 } from './data/biomass';
 export type { BiomassComposition, SourcedValue, Confidence as BiomassValueConfidence } from './data/biomass';
 export * from './simulation';

@@ -15,11 +15,28 @@
  * (X · f_C), a lower bound, and says so.
  *
  * H and O are left out by default: cells take them from water and O2, not from the dissolved medium.
+ *
+ * Not every element of a measured cell composition is a requirement. Each line has a role
+ * (data/element-roles.ts, common practice, or the profile's own): only 'required' lines (C, N, P,
+ * S, K, Mg, the carbon source, further substrates and component demands) name the limit and the
+ * maximum supportable biomass; a 'trace' line (Fe, Ca, Zn, Na, Cl ...) that runs short is a warning
+ * naming the element. Each line also says how sure its composition value is, and where it comes from.
  */
 import { ATOMIC_WEIGHTS } from './data/atomic-weights';
 import { findBiomassComposition, BIOMASS_COMPOSITIONS } from './data/biomass';
+import { DEFAULT_ELEMENT_ROLES_BASIS, defaultElementRole, type ElementRole } from './data/element-roles';
 import { ChemistryInputError } from './errors';
 import { formulaMolarMass } from './formula';
+import {
+	VALUE_CONFIDENCES,
+	VALUE_CONFIDENCE_WORDS,
+	compareFractionsWithFormula,
+	formatPercentOfDryMass,
+	readElementStatements,
+	statementsOfComposition,
+	type ElementStatement,
+	type ValueConfidence
+} from './profile-elements';
 
 export type SupplyBasis = 'element' | 'component';
 
@@ -34,13 +51,21 @@ export interface PerCellConsumption {
 	formula?: string;
 }
 
+/** Per element: a role that overrides the default, and how sure the value is (see profile-elements.ts). */
+export type ElementStatements = Record<string, ElementStatement>;
+
 export type OrganismProfile =
-	| { kind: 'preset'; id: string }
+	| { kind: 'preset'; id: string; elements?: ElementStatements }
 	| {
 			kind: 'elementalFractions';
 			name?: string;
 			fractions: Record<string, number>;
 			cellDryMassPg?: number;
+			elements?: ElementStatements;
+			/** Ash-free biomass formula per C-mol: when given, the fractions are checked against it. */
+			formula?: string;
+			/** g ash per g dry biomass, for the check against the formula. */
+			ashFraction?: number;
 	  }
 	| {
 			kind: 'componentRequirements';
@@ -49,7 +74,13 @@ export type OrganismProfile =
 			requirementsGPerG: Record<string, number>;
 			cellDryMassPg?: number;
 	  }
-	| { kind: 'perCell'; name?: string; consumption: PerCellConsumption[]; cellDryMassPg?: number };
+	| {
+			kind: 'perCell';
+			name?: string;
+			consumption: PerCellConsumption[];
+			cellDryMassPg?: number;
+			elements?: ElementStatements;
+	  };
 
 export type SufficiencyTarget =
 	{ biomassGPerL: number } | { cellsPerMl: number; cellDryMassPg?: number };
@@ -74,9 +105,15 @@ export interface SupplyInput {
 	sources: SupplySource[];
 }
 
+/** How sure a yield is, and where it comes from; shown on its line. */
+interface YieldBasis {
+	confidence?: ValueConfidence;
+	source?: string;
+}
+
 export type CarbonDemand =
-	| { basis: 'component'; component: string; yieldGPerG: number }
-	| { basis: 'element'; yieldGPerGCarbon: number };
+	| ({ basis: 'component'; component: string; yieldGPerG: number } & YieldBasis)
+	| ({ basis: 'element'; yieldGPerGCarbon: number } & YieldBasis);
 
 export interface SufficiencyInput {
 	profile: OrganismProfile;
@@ -95,7 +132,7 @@ export interface SufficiencyInput {
 	ignoreElements?: string[];
 }
 
-export interface SubstrateDemand {
+export interface SubstrateDemand extends YieldBasis {
 	component: string;
 	yieldGPerG: number;
 	/** How the yield was obtained, shown on the line. */
@@ -117,6 +154,14 @@ export interface SufficiencyLine {
 	sufficient: boolean;
 	maxBiomassGPerL: number | null;
 	maxCellsPerMl: number | null;
+	/** 'required': a shortfall sets the limit; 'trace': a shortfall is a warning, never the limit. */
+	role: ElementRole;
+	/** 'default': the table of default roles (elements), or the rule that the carbon source, substrates and components are required; 'profile': the profile's own. */
+	roleFrom: 'default' | 'profile';
+	/** How sure the composition value (or yield) behind the demand is. */
+	confidence: ValueConfidence;
+	/** Where that value comes from, when known. */
+	source: string | null;
 	note?: string;
 }
 
@@ -125,10 +170,16 @@ export interface SufficiencyResult {
 	safetyFactor: number;
 	finalVolumeL: number | null;
 	lines: SufficiencyLine[];
+	/** The required line of lowest ratio; trace lines never limit. */
 	limiting: { key: string; basis: SupplyBasis; ratio: number } | null;
 	maximumSupportable: { biomassGPerL: number | null; cellsPerMl: number | null };
+	/** Every required line has supply ≥ safety factor × demand. */
 	sufficient: boolean;
+	/** Trace lines short of safety factor × demand, and fractions that contradict the formula. */
+	warnings: string[];
 	notes: string[];
+	/** Where the default roles come from (common practice). */
+	defaultRolesBasis: string;
 }
 
 export const DEFAULT_SAFETY_FACTOR = 1.2;
@@ -251,12 +302,39 @@ function readSupply(input: unknown): Supply {
 	return { finalVolumeL, element, component };
 }
 
-interface Requirement {
+/** A line's role and the standing of its value. */
+type LineStanding = Pick<SufficiencyLine, 'role' | 'roleFrom' | 'confidence' | 'source'>;
+
+interface Requirement extends LineStanding {
 	key: string;
 	basis: SupplyBasis;
 	demandGPerL: number;
 	molarMassGPerMol: number | null;
 	note?: string;
+}
+
+/** An element's standing: the profile's statement where it makes one, else the default role and 'unstated'. */
+function elementStanding(symbol: string, statement: ElementStatement | undefined): LineStanding {
+	return {
+		role: statement?.role ?? defaultElementRole(symbol),
+		roleFrom: statement?.role ? 'profile' : 'default',
+		confidence: statement?.confidence ?? 'unstated',
+		source: statement?.source ?? null
+	};
+}
+
+/** The carbon source, a further substrate or a component demand: required; how sure, as given. */
+function requiredStanding(basis: { confidence?: unknown; source?: unknown }, field: string): LineStanding {
+	const { confidence, source } = basis;
+	if (confidence !== undefined && !(VALUE_CONFIDENCES as readonly unknown[]).includes(confidence))
+		fail(`Confidence must be one of ${VALUE_CONFIDENCES.join(', ')}`, `${field}.confidence`);
+	if (source !== undefined && typeof source !== 'string') fail('Source must be text', `${field}.source`);
+	return {
+		role: 'required',
+		roleFrom: 'default',
+		confidence: (confidence as ValueConfidence | undefined) ?? 'unstated',
+		source: (source as string | undefined) || null
+	};
 }
 
 interface Target {
@@ -312,13 +390,20 @@ function resolveProfile(profile: unknown): Exclude<OrganismProfile, { kind: 'pre
 				'profile.id'
 			);
 		}
+		// The table's own confidence for each value, under whatever the request states on top.
+		const overrides = readElementStatements(p.elements, 'profile.elements', new Set(Object.keys(found.massFractions)));
 		return {
 			kind: 'elementalFractions',
 			name: found.name,
 			fractions: Object.fromEntries(
 				Object.entries(found.massFractions).map(([k, v]) => [k, v.value])
 			),
-			cellDryMassPg: found.cellDryMassPg?.value
+			cellDryMassPg: found.cellDryMassPg?.value,
+			elements: Object.fromEntries(
+				Object.entries(statementsOfComposition(found)).map(([k, v]) => [k, { ...v, ...overrides[k] }])
+			),
+			formula: found.formula ?? undefined,
+			ashFraction: found.ashFraction?.value
 		};
 	}
 	if (p.kind === 'elementalFractions' || p.kind === 'componentRequirements' || p.kind === 'perCell')
@@ -353,6 +438,7 @@ function buildRequirements(
 				`Mass fractions add up to ${sum.toFixed(4)}, more than 1 g per g dry biomass`,
 				'profile.fractions'
 			);
+		const statements = readElementStatements(profile.elements, 'profile.elements', new Set(Object.keys(fractions)));
 		const x = requireBiomass(target, 'An elemental profile');
 		for (const [el, f] of Object.entries(fractions)) {
 			if (ignored.has(el)) continue;
@@ -361,7 +447,8 @@ function buildRequirements(
 				key: el,
 				basis: 'element',
 				demandGPerL: x * f,
-				molarMassGPerMol: ATOMIC_WEIGHTS[el]
+				molarMassGPerMol: ATOMIC_WEIGHTS[el],
+				...elementStanding(el, statements[el])
 			});
 		}
 	} else if (profile.kind === 'componentRequirements') {
@@ -374,7 +461,7 @@ function buildRequirements(
 		const x = requireBiomass(target, 'A per-g-biomass profile');
 		for (const [key, r] of Object.entries(reqs)) {
 			if (r === 0) continue;
-			lines.push({ key, basis: 'component', demandGPerL: x * r, molarMassGPerMol: null });
+			lines.push({ key, basis: 'component', demandGPerL: x * r, molarMassGPerMol: null, ...requiredStanding({}, 'profile') });
 		}
 	} else {
 		if (!Array.isArray(profile.consumption) || profile.consumption.length === 0) {
@@ -387,6 +474,10 @@ function buildRequirements(
 			);
 		}
 		const cells = target.cellsPerMl;
+		const elementKeys = new Set(
+			profile.consumption.filter((c) => c !== null && typeof c === 'object' && c.basis === 'element').map((c) => c.key)
+		);
+		const statements = readElementStatements(profile.elements, 'profile.elements', elementKeys);
 		profile.consumption.forEach((c, i) => {
 			const field = `profile.consumption.${i}`;
 			if (c === null || typeof c !== 'object' || typeof c.key !== 'string' || c.key === '') {
@@ -429,7 +520,13 @@ function buildRequirements(
 				demandGPerL = ((cells * 1e3) / 1e9) * q * (molarMass / 1e3);
 			}
 			if (demandGPerL > 0)
-				lines.push({ key: c.key, basis: c.basis, demandGPerL, molarMassGPerMol: molarMass });
+				lines.push({
+					key: c.key,
+					basis: c.basis,
+					demandGPerL,
+					molarMassGPerMol: molarMass,
+					...(c.basis === 'element' ? elementStanding(c.key, statements[c.key]) : requiredStanding({}, field))
+				});
 		});
 	}
 	return lines;
@@ -473,7 +570,8 @@ function applyCarbon(
 				basis: 'component',
 				demandGPerL: x / y,
 				molarMassGPerMol: null,
-				note: `X / Yx/s with Yx/s = ${y} g/g: includes the carbon respired to CO2`
+				note: `X / Yx/s with Yx/s = ${y} g/g: includes the carbon respired to CO2`,
+				...requiredStanding(spec, 'carbon')
 			},
 			...rest
 		];
@@ -494,7 +592,8 @@ function applyCarbon(
 				basis: 'element',
 				demandGPerL: x / y,
 				molarMassGPerMol: ATOMIC_WEIGHTS.C,
-				note: `X / Yx/C with Yx/C = ${y} g per g C: includes the carbon respired to CO2`
+				note: `X / Yx/C with Yx/C = ${y} g per g C: includes the carbon respired to CO2`,
+				...requiredStanding(spec, 'carbon')
 			},
 			...rest
 		];
@@ -511,7 +610,7 @@ function applySubstrates(lines: Requirement[], substrates: unknown, target: Targ
 	const added: Requirement[] = substrates.map((entry: unknown, i) => {
 		const field = `substrates.${i}`;
 		if (entry === null || typeof entry !== 'object') fail('Each substrate needs { component, yieldGPerG }', field);
-		const { component, yieldGPerG, note } = entry as SubstrateDemand;
+		const { component, yieldGPerG, note, confidence, source } = entry as SubstrateDemand;
 		if (typeof component !== 'string' || component === '') fail('Substrate component id is needed', `${field}.component`);
 		if (seen.has(component)) fail(`${component} is listed twice among the substrates`, `${field}.component`);
 		seen.add(component);
@@ -521,7 +620,8 @@ function applySubstrates(lines: Requirement[], substrates: unknown, target: Targ
 			basis: 'component' as const,
 			demandGPerL: x / y,
 			molarMassGPerMol: null,
-			note: note ?? `X / Yx/s with Yx/s = ${y} g/g`
+			note: note ?? `X / Yx/s with Yx/s = ${y} g/g`,
+			...requiredStanding({ confidence, source }, field)
 		};
 	});
 	return [...lines.filter((l) => !(l.basis === 'component' && seen.has(l.key))), ...added];
@@ -578,15 +678,30 @@ export function assessSufficiency(input: SufficiencyInput): SufficiencyResult {
 			sufficient: ratio >= safetyFactor,
 			maxBiomassGPerL:
 				target.biomassGPerL === null ? null : (target.biomassGPerL * ratio) / safetyFactor,
-			maxCellsPerMl: target.cellsPerMl === null ? null : (target.cellsPerMl * ratio) / safetyFactor
+			maxCellsPerMl: target.cellsPerMl === null ? null : (target.cellsPerMl * ratio) / safetyFactor,
+			role: r.role,
+			roleFrom: r.roleFrom,
+			confidence: r.confidence,
+			source: r.source
 		};
 		if (r.note) line.note = r.note;
 		if (supplyGPerL === 0)
 			line.note = [line.note, 'Not supplied by any source.'].filter(Boolean).join(' ');
 		return line;
 	});
-	let limiting = lines[0];
-	for (const line of lines) if (line.ratio < limiting.ratio) limiting = line;
+	const required = lines.filter((l) => l.role === 'required');
+	if (required.length === 0) {
+		fail(
+			`Every line of this profile (${lines.map((l) => l.key).join(', ')}) is a trace element, and trace elements never set the limit: mark at least one as required, or give a yield on the carbon source`,
+			'profile'
+		);
+	}
+	let limiting = required[0];
+	for (const line of required) if (line.ratio < limiting.ratio) limiting = line;
+	const warnings = [
+		...checkProfileFormula(profile),
+		...lines.filter((l) => l.role === 'trace' && !l.sufficient).map((l) => describeShortTrace(l, target, safetyFactor))
+	];
 	return {
 		target,
 		safetyFactor,
@@ -597,7 +712,36 @@ export function assessSufficiency(input: SufficiencyInput): SufficiencyResult {
 			biomassGPerL: limiting.maxBiomassGPerL,
 			cellsPerMl: limiting.maxCellsPerMl
 		},
-		sufficient: lines.every((l) => l.sufficient),
-		notes
+		sufficient: required.every((l) => l.sufficient),
+		warnings,
+		notes,
+		defaultRolesBasis: DEFAULT_ELEMENT_ROLES_BASIS
 	};
+}
+
+const significant = (value: number) => String(Number(value.toPrecision(3)));
+
+/** A trace line short of safety factor × demand, in one sentence that names it and what it would allow. */
+function describeShortTrace(line: SufficiencyLine, target: Target, safetyFactor: number): string {
+	const share =
+		target.biomassGPerL === null
+			? `${significant(line.demandGPerL)} g/L at the target`
+			: `${formatPercentOfDryMass(line.demandGPerL / target.biomassGPerL)} % of dry mass`;
+	const value = `${share}, ${VALUE_CONFIDENCE_WORDS[line.confidence]}`;
+	const advice = 'a trace element does not set the limit; check that the water, the salts or a trace-element solution carry enough of it for this organism.';
+	if (line.supplyGPerL === 0) return `${line.key} is in no source (the profile counts it at ${value}): ${advice}`;
+	const allows = line.maxBiomassGPerL === null ? '' : `, enough for about ${significant(line.maxBiomassGPerL)} g/L at safety factor ${safetyFactor}`;
+	return `${line.key} covers ${significant(line.ratio)} × its demand (the profile counts it at ${value})${allows}: ${advice}`;
+}
+
+/** The fractions of an elemental profile against its formula, when it gives one. */
+function checkProfileFormula(profile: Exclude<OrganismProfile, { kind: 'preset' }>): string[] {
+	if (profile.kind !== 'elementalFractions' || profile.formula === undefined) return [];
+	if (typeof profile.formula !== 'string' || profile.formula.trim() === '') fail('Biomass formula must be text, e.g. CH1.8O0.5N0.2', 'profile.formula');
+	let ashFraction: number | null = null;
+	if (profile.ashFraction !== undefined) {
+		ashFraction = nonNegative(profile.ashFraction, 'profile.ashFraction', 'Ash fraction');
+		if (ashFraction >= 1) fail(`Ash fraction must be below 1 g per g dry biomass, not ${ashFraction}`, 'profile.ashFraction');
+	}
+	return compareFractionsWithFormula({ formula: profile.formula, ashFraction, fractions: profile.fractions, field: 'profile.formula' }).map((m) => m.message);
 }

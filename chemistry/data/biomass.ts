@@ -51,21 +51,32 @@ export const AVERAGE_BIOMASS_FORMULA = 'CH1.79O0.5N0.2';
 const c = (value: number): SourcedValue => ({ value, confidence: 'confirmed' });
 const m = (value: number): SourcedValue => ({ value, confidence: 'from memory' });
 
+/**
+ * Mass fraction of each element of an ash-free per-C-mol formula in dry biomass that holds
+ * `ashFraction` g ash per g: (A_el · n_el / M_formula) · (1 − ash).
+ */
+export function organicMassFractions(
+	counts: Record<string, number>,
+	ashFraction: number
+): Record<string, number> {
+	let molarMass = 0;
+	for (const [el, n] of Object.entries(counts)) molarMass += ATOMIC_WEIGHTS[el] * n;
+	return Object.fromEntries(
+		Object.entries(counts).map(([el, n]) => [el, ((ATOMIC_WEIGHTS[el] * n) / molarMass) * (1 - ashFraction)])
+	);
+}
+
 /** Mass fractions of C, H, O, N from a per-C-mol formula, scaled by (1 − ash). */
 function deriveOrganicFractions(
 	counts: Record<string, number>,
 	ashFraction: number
 ): Record<string, SourcedValue> {
-	let molarMass = 0;
-	for (const [el, n] of Object.entries(counts)) molarMass += ATOMIC_WEIGHTS[el] * n;
-	const out: Record<string, SourcedValue> = {};
-	for (const [el, n] of Object.entries(counts)) {
-		out[el] = {
-			value: ((ATOMIC_WEIGHTS[el] * n) / molarMass) * (1 - ashFraction),
-			confidence: 'derived'
-		};
-	}
-	return out;
+	return Object.fromEntries(
+		Object.entries(organicMassFractions(counts, ashFraction)).map(([el, value]) => [
+			el,
+			{ value, confidence: 'derived' as const }
+		])
+	);
 }
 
 const YEAST_ASH = 0.06;

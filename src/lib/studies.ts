@@ -84,3 +84,33 @@ export const STUDY_ROLES = ['engineer', 'media_scientist'] as const satisfies re
 
 /** Who may save a feed designer's proposal as recipe drafts: those who both use studies and write recipe drafts. */
 export const FEED_DRAFT_ROLES: readonly Role[] = RECIPE_EDITORS.filter((role) => (STUDY_ROLES as readonly Role[]).includes(role));
+
+/** One "N 0.14" (or "N=0.14", "N: 0.14") entry of the elemental-fraction and requirement boxes. */
+const PAIR_PATTERN = /^([^\s=:]+)\s*[=:\s]\s*(.+)$/;
+/** One "l-glutamine 3 mmol" (per 10⁹ cells) or "d-glucose 350 pg" (per cell) line of the per-cell box. */
+export const CONSUMPTION_PATTERN = /^(\S+)\s+([\d.,eE+-]+)\s*(mmol|pg)$/;
+
+/** The entries of a fraction or requirement box, one per line or comma; `pair` is null for a line that is not "name number". */
+export function splitPairEntries(text: string): { entry: string; pair: [string, string] | null }[] {
+	return text
+		.split(/[\n,;]+/)
+		.map((l) => l.trim())
+		.filter(Boolean)
+		.map((entry) => {
+			const m = PAIR_PATTERN.exec(entry);
+			return { entry, pair: m ? [m[1], m[2].trim()] : null };
+		});
+}
+
+/**
+ * The element symbols typed in the fraction box and among the per-cell lines, in order, as the
+ * profile form lists them for their role and confidence. `isElement` tells a symbol from a component id.
+ */
+export function listTypedElements(fractionsText: string, consumptionText: string, isElement: (symbol: string) => boolean): string[] {
+	const fromFractions = splitPairEntries(fractionsText).flatMap(({ pair }) => (pair && isElement(pair[0]) ? [pair[0]] : []));
+	const fromCells = consumptionText
+		.split('\n')
+		.map((l) => CONSUMPTION_PATTERN.exec(l.trim()))
+		.flatMap((m) => (m && isElement(m[1]) ? [m[1]] : []));
+	return [...new Set([...fromFractions, ...fromCells])];
+}

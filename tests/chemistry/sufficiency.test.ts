@@ -149,7 +149,9 @@ describe('nutrient sufficiency', () => {
 		expect(r.sufficient).toBe(true);
 	});
 
-	it('flags a nutrient no source supplies as limiting with zero supportable biomass', () => {
+	it('warns of a trace element no source supplies, and takes the limit from the required ones', () => {
+		// This test used to expect Fe as the limit with 0 g/L supportable. Fe is a trace element by default
+		// (chemistry/data/element-roles.ts, common practice): its absence is now a warning, not the limit.
 		const r = assessSufficiency({
 			profile: { kind: 'preset', id: 'bacterium-neidhardt-1990' },
 			target: { biomassGPerL: 5 },
@@ -159,9 +161,84 @@ describe('nutrient sufficiency', () => {
 				]
 			}
 		});
-		expect(r.limiting?.key).toBe('Fe');
-		expect(r.maximumSupportable.biomassGPerL).toBe(0);
-		expect(r.lines.find((l) => l.key === 'Fe')?.note).toContain('Not supplied');
+		// Neidhardt, Ingraham & Schaechter (1990) fractions at 5 g/L: N 0.14 × 5 = 0.7 g/L → ratio 2 / 0.7 = 2.857;
+		// C 2.5 (ratio 4), P 0.15 (6.67), S 0.05 (10), K 0.05 (20), Mg 0.025 (4). N limits:
+		// 5 × 2.857 / 1.2 (safety factor, common practice) = 11.905 g/L.
+		expect(r.limiting?.key).toBe('N');
+		expect(r.maximumSupportable.biomassGPerL).toBeCloseTo((5 * (2 / 0.7)) / 1.2, 9);
+		expect(r.sufficient).toBe(true);
+		const fe = r.lines.find((l) => l.key === 'Fe')!;
+		expect(fe.note).toContain('Not supplied');
+		expect(fe).toMatchObject({ role: 'trace', roleFrom: 'default', confidence: 'from memory', sufficient: false, ratio: 0 });
+		// Fe 0.2 % of dry mass (Neidhardt et al. 1990, from memory in our table).
+		expect(r.warnings).toEqual([expect.stringMatching(/^Fe is in no source \(the profile counts it at 0\.2 % of dry mass, from memory\): a trace element does not set the limit/)]);
+	});
+
+	it('lets a profile mark an element required or trace, and say how sure its value is', () => {
+		const supply = { sources: [{ elementsGPerL: { C: 10, N: 2, P: 1, S: 0.5, K: 1, Mg: 0.1, Fe: 0.004 } }] };
+		// Fe required by the profile's own statement: 0.004 g/L against 5 × 0.002 = 0.01 g/L → ratio 0.4,
+		// 5 × 0.4 / 1.2 = 1.667 g/L, now the limit.
+		const feRequired = assessSufficiency({
+			profile: { kind: 'preset', id: 'bacterium-neidhardt-1990', elements: { Fe: { role: 'required', confidence: 'measured', source: 'our ICP-OES, lot 12' } } },
+			target: { biomassGPerL: 5 },
+			supply
+		});
+		expect(feRequired.limiting).toEqual({ key: 'Fe', basis: 'element', ratio: expect.closeTo(0.4, 12) });
+		expect(feRequired.maximumSupportable.biomassGPerL).toBeCloseTo((5 * 0.4) / 1.2, 12);
+		expect(feRequired.lines.find((l) => l.key === 'Fe')).toMatchObject({ role: 'required', roleFrom: 'profile', confidence: 'measured', source: 'our ICP-OES, lot 12' });
+		// A statement with a confidence only keeps the default role.
+		const n = assessSufficiency({
+			profile: { kind: 'elementalFractions', fractions: bacterial, elements: { N: { confidence: 'measured' } } },
+			target: { biomassGPerL: 5 },
+			supply
+		}).lines.find((l) => l.key === 'N');
+		expect(n).toMatchObject({ role: 'required', roleFrom: 'default', confidence: 'measured', source: null });
+		// Mg marked trace and left out of the supply: a warning naming it, not the limit.
+		const mgTrace = assessSufficiency({
+			profile: { kind: 'elementalFractions', fractions: bacterial, elements: { Mg: { role: 'trace' } } },
+			target: { biomassGPerL: 5 },
+			supply: { sources: [{ elementsGPerL: { C: 10, N: 2, P: 1, S: 0.5 } }] }
+		});
+		expect(mgTrace.limiting?.key).not.toBe('Mg');
+		expect(mgTrace.sufficient).toBe(true);
+		expect(mgTrace.warnings.join(' ')).toMatch(/^Mg is in no source/);
+	});
+
+	it('refuses statements it cannot use, naming the field', () => {
+		const base = { target: { biomassGPerL: 5 }, supply: { sources: [{ elementsGPerL: { N: 1 } }] } };
+		expect(errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: bacterial, elements: { Zn: { role: 'trace' } } } })).field).toBe('profile.elements.Zn');
+		expect(errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: bacterial, elements: { Xq: {} } } })).field).toBe('profile.elements.Xq');
+		expect(
+			errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: bacterial, elements: { N: { role: 'essential' as never } } } })).field
+		).toBe('profile.elements.N.role');
+		expect(
+			errorOf(() => assessSufficiency({ ...base, profile: { kind: 'preset', id: 'bacterium-neidhardt-1990', elements: { Fe: { confidence: 'sure' as never } } } })).field
+		).toBe('profile.elements.Fe.confidence');
+		// Nothing left that could set a limit.
+		const allTrace = errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: { Fe: 0.002, Zn: 0.0001 } } }));
+		expect(allTrace.field).toBe('profile');
+		expect(allTrace.message).toMatch(/trace element/);
+	});
+
+	it('gives every line of a per-cell profile a role: components required, elements by the table', () => {
+		const r = assessSufficiency({
+			profile: {
+				kind: 'perCell',
+				cellDryMassPg: 300,
+				consumption: [
+					{ key: 'glutamine', basis: 'component', mmolPer1e9Cells: 0.8, formula: 'C5H10N2O3' },
+					{ key: 'Ca', basis: 'element', pgPerCell: 1 }
+				],
+				elements: { Ca: { role: 'required', confidence: 'from memory' } }
+			},
+			target: { cellsPerMl: 1e7 },
+			supply: { sources: [{ componentsGPerL: { glutamine: 2 }, elementsGPerL: { Ca: 0.001 } }] }
+		});
+		expect(r.lines.find((l) => l.key === 'glutamine')).toMatchObject({ role: 'required', roleFrom: 'default', confidence: 'unstated' });
+		// Ca: 1e10 cells/L × 1 pg = 0.01 g/L demand against 0.001 → ratio 0.1: required by the profile, so it limits.
+		expect(r.lines.find((l) => l.key === 'Ca')).toMatchObject({ role: 'required', roleFrom: 'profile', confidence: 'from memory' });
+		expect(r.limiting?.key).toBe('Ca');
+		expect(r.defaultRolesBasis).toMatch(/common practice/i);
 	});
 
 	it('defaults the safety factor to 1.2 (common practice) and refuses one below 1', () => {

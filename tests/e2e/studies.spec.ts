@@ -216,4 +216,87 @@ test.describe('organism profiles', () => {
 		await expect(page.locator('#field-substrateYields-help')).toContainText('contains no N');
 		await expect(page.getByLabel('Yields on further substrates')).toHaveValue('l-glutamine 0.684\npotassium-chloride from N');
 	});
+
+	test('show each element with its role and how sure its value is', async ({ page }) => {
+		await page.goto('/organisms');
+		await page.getByRole('link', { name: 'Demo bacterium PPN-B1' }).click();
+		const elements = page.getByTestId('profile-elements');
+		// Fe: trace by default (common practice), from memory in Neidhardt et al. (1990) as our table grades it.
+		await expect(elements.getByTestId('profile-element-Fe')).toContainText('trace');
+		await expect(elements.getByTestId('profile-element-Fe')).toContainText('from memory');
+		// N: derived from the demo's formula CH1.8O0.5N0.2 with 8 % ash; it agrees with it, so no warning.
+		await expect(elements.getByTestId('profile-element-N')).toContainText('derived from published values');
+		await expect(page.getByTestId('formula-warnings')).toHaveCount(0);
+		// The edit form holds the same, one row per element.
+		await expect(page.getByLabel('How sure the value of Fe is')).toHaveValue('from memory');
+		await expect(page.getByLabel('Role of Fe')).toHaveValue('');
+	});
+
+	test('sets the role and confidence of an element from the keyboard, is told what is missing by label, loses nothing', async ({ page }) => {
+		const name = `E2E elements ${Date.now()}`;
+		await page.goto('/organisms/new');
+		await page.getByLabel('Name', { exact: true }).fill(name);
+		await page.getByLabel('Biomass formula (per C-mol, ash-free)').fill('CH1.8O0.5N0.2');
+		await page.getByLabel('Ash fraction, g/g').fill('0.08');
+		const fractions = page.getByLabel('Elemental mass fractions, g per g dry biomass');
+		await fractions.fill('C 0.5\nH 0.08\nO 0.2\nN 0.14\nZn 0.0001\nFe 0.002');
+		// A row per element typed, keyboard usable: each control has its own label.
+		await expect(page.getByTestId('element-row-Fe')).toBeVisible();
+		await page.getByLabel('Role of Fe').selectOption('required');
+		await page.getByLabel('How sure the value of Fe is').selectOption('confirmed');
+		await page.getByLabel('Role of Zn').selectOption('required');
+		// Taking Zn out hides its row; typing it back brings back what was chosen for it.
+		await fractions.fill('C 0.5\nH 0.08\nO 0.2\nN 0.14\nFe 0.002');
+		await expect(page.getByTestId('element-row-Zn')).toBeHidden();
+		await fractions.fill('C 0.5\nH 0.08\nO 0.2\nN 0.14\nFe 0.002\nZn 0.0001');
+		await expect(page.getByLabel('Role of Zn')).toHaveValue('required');
+		await page.getByRole('button', { name: 'Create profile' }).click();
+
+		// A published value needs its source: the message names the field by its label, and everything typed stays.
+		await expect(page.locator('#element-Fe-source-error')).toHaveText('Source of Fe: a published or derived value needs its source (the table or paper it comes from).');
+		await expect(page.getByLabel('Source of Fe')).toHaveAttribute('aria-invalid', 'true');
+		await expect(page.getByLabel('Name', { exact: true })).toHaveValue(name);
+		await expect(fractions).toHaveValue('C 0.5\nH 0.08\nO 0.2\nN 0.14\nFe 0.002\nZn 0.0001');
+		await expect(page.getByLabel('Role of Fe')).toHaveValue('required');
+		await expect(page.getByLabel('How sure the value of Fe is')).toHaveValue('confirmed');
+		await expect(page.getByLabel('Role of Zn')).toHaveValue('required');
+
+		// From the confidence to the source with Tab, typed from the keyboard.
+		await page.getByLabel('How sure the value of Fe is').focus();
+		await page.keyboard.press('Tab');
+		await expect(page.getByLabel('Source of Fe')).toBeFocused();
+		await page.keyboard.type('Published iron content of the strain (test value)');
+		await page.getByRole('button', { name: 'Create profile' }).click();
+
+		await expect(page.getByRole('heading', { name })).toBeVisible();
+		const fe = page.getByTestId('profile-element-Fe');
+		await expect(fe.getByTestId('profile-element-role')).toHaveText('required, set by this profile');
+		await expect(fe).toContainText('published');
+		await expect(fe).toContainText('Published iron content of the strain (test value)');
+		// Neidhardt-type fractions against CH1.8O0.5N0.2 with 8 % ash: N 0.2 × 14.007 / 24.626 × 0.92 = 10.5 %
+		// (24.626 g/C-mol, SCIENCE-REFERENCES.md, derived).
+		await expect(page.getByTestId('formula-warnings')).toContainText('N is 14 % in the fractions but 10.5 % by the formula CH1.8O0.5N0.2 with 8 % ash');
+	});
+});
+
+test.describe('a study report marks each nutrient line', () => {
+	test.use({ role: 'engineer' });
+
+	test('with its role and confidence, and names short trace elements among the warnings, not the reasons', async ({ page }) => {
+		await page.goto('/studies');
+		await page.getByRole('link', { name: 'Bacterium glucose fed-batch, pilot (demo)' }).click();
+		await expect(page.getByTestId('limit')).toContainText('N');
+		const fe = page.getByTestId('nutrient-row').filter({ has: page.getByText('Fe', { exact: true }) });
+		await expect(fe.getByTestId('nutrient-role')).toHaveText('trace');
+		await expect(fe.getByTestId('nutrient-confidence')).toContainText('from memory');
+		await expect(fe).toContainText('Short: trace, a warning');
+		await expect(page.getByTestId('warnings')).toContainText('Ca is in no source');
+		await expect(page.getByTestId('reasons')).not.toContainText('Fe');
+		await expect(page.getByTestId('reasons')).toContainText('N runs short');
+
+		await page.getByRole('link', { name: 'Print view' }).click();
+		const report = page.getByTestId('study-report');
+		await expect(report.getByTestId('nutrient-role').first()).toBeVisible();
+		await expect(report.getByTestId('warnings')).toContainText('Fe covers');
+	});
 });

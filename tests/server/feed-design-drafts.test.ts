@@ -120,15 +120,16 @@ describe('saving a proposal as feed drafts', () => {
 			expect(response.status, JSON.stringify(body)).toBe(status);
 			expect(response.headers.get('content-type')).toContain('application/problem+json');
 			expect((await response.json()).errors.map((e: { path: string }) => e.path)).toContain(path);
-			// The proposal itself answers the same, names aside (it refuses them as an unknown field).
+			// The proposal itself answers the same, names aside: its request has no names, and refuses them as an unknown key.
 			if (path.startsWith('names')) continue;
-			const { names: _names, ...proposal } = body as { names: string[] };
+			const { names: _names, ...proposal } = body as Record<string, unknown>;
 			const proposed = await post(propose, 'feed-design', studyId, proposal, engineer);
 			expect(proposed.status, JSON.stringify(body)).toBe(status);
 			expect((await proposed.json()).errors.map((e: { path: string }) => e.path)).toContain(path);
 		}
-		// A proposal that does not meet every demand (20 L is too little within 4000 mOsm/kg) is not saved.
-		const short = await post(saveDrafts, 'feed-design/drafts', studyId, { ...request, feedVolumeL: 20, names: ['x', 'y'] }, scientist);
+		// A proposal that does not meet every demand (15 L is too little within 4000 mOsm/kg) is not saved. This was
+		// 20 L until the demo bacterium's N came from its formula (10.5 % of dry mass, not 14 %): 20 L now suffice.
+		const short = await post(saveDrafts, 'feed-design/drafts', studyId, { ...request, feedVolumeL: 15, names: ['x', 'y'] }, scientist);
 		expect(short.status).toBe(422);
 		expect((await short.json()).detail).toMatch(/cannot be saved: .*osmolality limit/);
 		expect((await post(saveDrafts, 'feed-design/drafts', 'no-such-study', { ...request, names: ['x', 'y'] }, scientist)).status).toBe(404);

@@ -79,3 +79,24 @@ describe('the growth fit’s documented response', () => {
 		);
 	});
 });
+
+describe('the sufficiency and study-evaluation operations', () => {
+	type Schema = { properties?: Record<string, Schema>; items?: Schema; description?: string };
+	const responseOf = (path: string) => {
+		const doc = buildOpenApiDocument('http://localhost') as unknown as {
+			paths: Record<string, { post: { responses: Record<string, { content?: Record<string, { schema: Schema }> }> } }>;
+		};
+		return doc.paths[path].post.responses['200'].content!['application/json'].schema;
+	};
+
+	it('describe the role, confidence and source of each line, and the warnings', () => {
+		const sufficiency = responseOf('/api/v1/sufficiency');
+		const line = sufficiency.properties!.lines.items!.properties!;
+		for (const key of ['role', 'roleFrom', 'confidence', 'source']) expect(line[key]?.description, key).toBeTruthy();
+		expect(sufficiency.properties!.warnings.description).toMatch(/Trace elements/);
+		const evaluate = responseOf('/api/v1/studies/evaluate');
+		const nutrientLine = evaluate.properties!.nutrients.properties!.lines.items!.properties!;
+		for (const key of ['role', 'confidence', 'source', 'runout']) expect(Object.keys(nutrientLine)).toContain(key);
+		expect(evaluate.properties!.warnings.description).toMatch(/trace elements/);
+	});
+});

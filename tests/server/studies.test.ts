@@ -71,12 +71,43 @@ describe('a study on the demo data, checked by hand', () => {
 		expect(report.cautions.join(' ')).toMatch(/pressure rating/);
 	});
 
-	it('says what limits the bacterial run: nutrients and oxygen', () => {
+	it('says what limits the bacterial run: nutrients and oxygen; short trace elements are warnings', () => {
 		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
 		expect(report.verdict).toBe('not supported');
-		expect(report.nutrients.lines.filter((l) => !l.sufficient).map((l) => l.key)).toEqual(expect.arrayContaining(['N', 'Ca', 'Fe']));
+		const short = report.nutrients.lines.filter((l) => !l.sufficient);
+		expect(short.map((l) => l.key)).toEqual(expect.arrayContaining(['N', 'Ca', 'Fe']));
+		// N is required: a reason, and the limit. Ca (no source) and Fe are trace elements by default
+		// (common practice): warnings naming them, never the limit and never a reason.
+		expect(report.limit.key).toBe('N');
+		expect(short.filter((l) => l.role === 'required').map((l) => l.key)).toEqual(['N']);
+		expect(report.reasons.filter((r) => /short of/.test(r))).toEqual([expect.stringMatching(/^N runs short of 1\.2 × demand; N limits first/)]);
+		expect(report.reasons.join(' ')).not.toMatch(/\b(Ca|Fe)\b/);
+		expect(report.warnings).toEqual(expect.arrayContaining([expect.stringMatching(/^Ca is in no source/), expect.stringMatching(/^Fe covers [\d.]+ × its demand/)]));
+		expect(report.defaults.find((d) => d.what === 'Roles of the elements (required or trace)')!.source).toMatch(/Common practice/);
 		expect(report.oxygen.check).toBe('short');
 		expect(report.reasons.some((r) => r.includes('does not allow O2 enrichment'))).toBe(true);
+	});
+
+	it('marks each nutrient line with its role, how sure its value is and its source', () => {
+		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
+		const line = (key: string) => report.nutrients.lines.find((l) => l.key === key)!;
+		// The demo bacterium: C, H, O, N derived from CH1.8O0.5N0.2 with 8 % ash; P and S confirmed in Neidhardt et al.
+		// (1990); Fe from memory (chemistry/data/biomass.ts); Yx/s from its RQ by element balance.
+		expect(line('N')).toMatchObject({ role: 'required', roleFrom: 'default', confidence: 'derived', source: expect.stringMatching(/CH1\.8O0\.5N0\.2.*8 % ash/) });
+		expect(line('P')).toMatchObject({ role: 'required', confidence: 'confirmed', source: expect.stringMatching(/Neidhardt/) });
+		expect(line('Fe')).toMatchObject({ role: 'trace', confidence: 'from memory', source: expect.stringMatching(/Neidhardt/) });
+		expect(line('d-glucose')).toMatchObject({ role: 'required', confidence: 'derived', source: expect.stringMatching(/RQ/) });
+	});
+
+	it('warns when the fractions of the profile contradict its formula, naming both values', () => {
+		// The demo bacterium as it stood before: Neidhardt et al. (1990) fractions (N 14 %) with CH1.8O0.5N0.2 and 8 % ash,
+		// whose N is 0.2 × 14.007 / 24.626 × 0.92 = 10.47 % (24.626 g/C-mol, SCIENCE-REFERENCES.md, derived).
+		const inputs = structuredClone(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
+		inputs.profile.elementalFractions = { ...inputs.profile.elementalFractions!, C: 0.5, O: 0.2, N: 0.14, H: 0.08 };
+		const report = evaluateStudy(inputs);
+		expect(report.warnings).toEqual(expect.arrayContaining([expect.stringMatching(/^N is 14 % in the fractions but 10\.5 % by the formula CH1\.8O0\.5N0\.2 with 8 % ash/)]));
+		// The saved demo profile agrees with its formula: no such warning.
+		expect(evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs).warnings.join(' ')).not.toMatch(/by the formula/);
 	});
 });
 
@@ -150,13 +181,16 @@ describe('the feed designer', () => {
 		for (const c of design.coverage) expect(c.providedG).toBeGreaterThanOrEqual(c.neededG);
 	});
 
-	it('says why 20 L will not do and how much would', () => {
+	it('says why 15 L will not do and how much would', () => {
+		// This was 20 L while the demo bacterium counted N at 14 % of dry mass. Its C, H, O, N now come from its
+		// formula CH1.8O0.5N0.2 with 8 % ash (N 10.5 %), so the feed carries less ammonium and about 19.8 L fit
+		// within 4000 mOsm/kg; 15 L still do not.
 		const { inputs } = loadStudyInputs(studyId(BACTERIUM_STUDY));
-		const design = designFeed(inputs, components(), { componentIds: BACTERIUM_FEED, feedVolumeL: 20, temperatureC: 25 });
+		const design = designFeed(inputs, components(), { componentIds: BACTERIUM_FEED, feedVolumeL: 15, temperatureC: 25 });
 		expect(design.feasible).toBe(false);
 		expect(design.problems[0]).toMatch(/osmolality limit of 4000 mOsm\/kg/);
 		expect(design.problems.at(-1)).toMatch(/split in two\. With these components and limits, two feeds of at least [\d.]+ L in all would work/);
-		expect(design.minimumFeedVolumeL).toBeGreaterThan(20);
+		expect(design.minimumFeedVolumeL).toBeGreaterThan(15);
 		const atLeast = designFeed(inputs, components(), { componentIds: BACTERIUM_FEED, feedVolumeL: Math.ceil(design.minimumFeedVolumeL! * 10) / 10, temperatureC: 25 });
 		expect(atLeast.feasible).toBe(true);
 	});

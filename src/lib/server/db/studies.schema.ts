@@ -1,5 +1,5 @@
 import { index, integer, real, sqliteTable, text } from 'drizzle-orm/sqlite-core';
-import type { PerCellConsumption } from '$chemistry';
+import type { ElementStatements, PerCellConsumption } from '$chemistry';
 import type { FeedPlanStrategy, OrganismGroup, ProfileKind, SubstrateYieldEntry, TargetBasis, YieldMethod } from '$lib/studies';
 import { recipeVersion } from './recipes.schema';
 import { user } from './schema';
@@ -22,6 +22,11 @@ export const organismProfile = sqliteTable('organism_profile', {
 	elementalFractions: text('elemental_fractions', { mode: 'json' }).$type<Record<string, number>>(),
 	/** Where the fractions come from: a published table (its citation) or the user's own analysis. */
 	fractionsSource: text('fractions_source'),
+	/**
+	 * Per element: a role that overrides the default (required or trace) and how sure its value is,
+	 * with its source. Null for profiles saved before elements carried it.
+	 */
+	elementStatements: text('element_statements', { mode: 'json' }).$type<ElementStatements>(),
 	/** g component per g dry biomass. */
 	componentRequirements: text('component_requirements', { mode: 'json' }).$type<Record<string, number>>(),
 	perCellConsumption: text('per_cell_consumption', { mode: 'json' }).$type<PerCellConsumption[]>(),

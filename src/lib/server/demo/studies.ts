@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { AIR_O2_MOLE_FRACTION, findBiomassComposition, solveAerobicGrowth } from '$chemistry';
+import { AIR_O2_MOLE_FRACTION, STANDARD_BIOMASS_FORMULA, findBiomassComposition, organicMassFractions, parseFormula, solveAerobicGrowth, statementsOfComposition } from '$chemistry';
 import { blankLine, type DraftFieldsInput, type DraftLineInput } from '$lib/recipes';
 import type { FeedPlanStrategy } from '$lib/studies';
 import { db } from '../db';
@@ -28,6 +28,7 @@ function presetFractions(id: string) {
 	return {
 		elementalFractions: Object.fromEntries(Object.entries(preset.massFractions).map(([k, v]) => [k, Number(v.value.toPrecision(4))])),
 		fractionsSource: preset.source,
+		elementStatements: statementsOfComposition(preset),
 		ashFraction: preset.ashFraction?.value ?? null,
 		biomassFormula: preset.formula
 	};
@@ -35,6 +36,33 @@ function presetFractions(id: string) {
 
 /** Demo value, mol CO2 per mol O2, in the usual range for aerobic growth on glucose. */
 const BACTERIUM_RQ = 1.05;
+/** Demo value, g ash per g dry biomass: the Neidhardt table's minerals add up to 7.7 %. */
+const BACTERIUM_ASH = 0.08;
+
+/*
+ * The demo bacterium's C, H, O, N are derived from the standard formula CH1.8O0.5N0.2 (Roels 1983;
+ * Heijnen) with 8 % ash, as the yeast and cell-line tables derive theirs, so that the N demand and
+ * the element balance that turns the RQ into Yx/s describe the same cells: C 44.9 %, H 6.78 %,
+ * O 29.9 %, N 10.5 %. Its minerals stay those of Neidhardt, Ingraham & Schaechter (1990). The other
+ * way round, a formula from the Neidhardt fractions (C 50, H 8, O 20, N 14 %) would be CH1.91O0.30N0.24,
+ * more reduced (4.59 electrons per C-mol against 4.2) than measured biomass usually is; with it RQ 1.05
+ * would mean Yx/s 0.20 g/g, a poor yield for a bacterium on glucose.
+ */
+function bacteriumFractions() {
+	const neidhardt = presetFractions('bacterium-neidhardt-1990');
+	const organic = organicMassFractions(parseFormula(STANDARD_BIOMASS_FORMULA).elements, BACTERIUM_ASH);
+	const source = `C, H, O, N: standard formula ${STANDARD_BIOMASS_FORMULA} (Roels 1983; Heijnen) with ${BACTERIUM_ASH * 100} % ash (demo value); other elements: Neidhardt, Ingraham & Schaechter (1990)`;
+	return {
+		elementalFractions: { ...neidhardt.elementalFractions, ...Object.fromEntries(Object.entries(organic).map(([k, v]) => [k, Number(v.toPrecision(4))])) },
+		fractionsSource: source,
+		elementStatements: {
+			...neidhardt.elementStatements,
+			...Object.fromEntries(Object.keys(organic).map((k) => [k, { confidence: 'derived' as const, source: `Standard formula ${STANDARD_BIOMASS_FORMULA} (Roels 1983; Heijnen) with ${BACTERIUM_ASH * 100} % ash (demo value)` }]))
+		},
+		ashFraction: BACTERIUM_ASH,
+		biomassFormula: STANDARD_BIOMASS_FORMULA
+	};
+}
 
 type ProfileValues = Omit<OrganismProfileRow, 'id' | 'createdAt' | 'updatedAt' | 'revision' | 'isDemo'>;
 
@@ -43,9 +71,7 @@ export const DEMO_PROFILES: ProfileValues[] = [
 		name: 'Demo bacterium PPN-B1',
 		group: 'bacterium',
 		kind: 'elementalFractions',
-		...presetFractions('bacterium-neidhardt-1990'),
-		ashFraction: 0.08,
-		biomassFormula: 'CH1.8O0.5N0.2',
+		...bacteriumFractions(),
 		componentRequirements: null,
 		perCellConsumption: null,
 		cellDryMassPg: 0.28,
@@ -54,7 +80,7 @@ export const DEMO_PROFILES: ProfileValues[] = [
 		yieldXSMethod: 'respiratoryQuotient',
 		respiratoryQuotient: BACTERIUM_RQ,
 		yieldXSGPerG: Number(
-			solveAerobicGrowth({ substrateFormula: 'C6H12O6', biomassFormula: 'CH1.8O0.5N0.2', ashFraction: 0.08, measured: { kind: 'respiratoryQuotient', molCo2PerMolO2: BACTERIUM_RQ } }).biomassOnSubstrateGPerG.toPrecision(4)
+			solveAerobicGrowth({ substrateFormula: 'C6H12O6', biomassFormula: STANDARD_BIOMASS_FORMULA, ashFraction: BACTERIUM_ASH, measured: { kind: 'respiratoryQuotient', molCo2PerMolO2: BACTERIUM_RQ } }).biomassOnSubstrateGPerG.toPrecision(4)
 		),
 		substrateYields: [],
 		muMaxPerH: 0.6,
@@ -92,6 +118,7 @@ export const DEMO_PROFILES: ProfileValues[] = [
 		ashFraction: 0.07,
 		elementalFractions: null,
 		fractionsSource: null,
+		elementStatements: null,
 		componentRequirements: null,
 		// Consumed per 10^9 cells formed over a fed-batch (demo values).
 		perCellConsumption: [

@@ -1,5 +1,6 @@
 import {
 	AIR_O2_MOLE_FRACTION,
+	DEFAULT_ELEMENT_ROLES_BASIS,
 	DEFAULT_HEAT_PER_MOL_O2_KJ,
 	DEFAULT_HEAT_PER_MOL_O2_SOURCE,
 	DEFAULT_IGNORED_ELEMENTS,
@@ -67,7 +68,8 @@ function targetBiomass(inputs: StudyInputs, targetValue: number): { biomassGPerL
 function describeRunouts(lines: NutrientRow[], carbonName: string): { notes: string[]; warnings: string[] } {
 	const short = lines.filter((l) => l.runout !== null).sort((a, b) => a.runout!.shortFromH - b.runout!.shortFromH);
 	if (short.length === 0) return { notes: [], warnings: [] };
-	const lasting = short.filter((l) => l.runout!.coveredAgainH === null);
+	// A trace element that stays short already has its warning, and does not stop growth.
+	const lasting = short.filter((l) => l.runout!.coveredAgainH === null && l.role === 'required');
 	const passing = short.filter((l) => l.runout!.coveredAgainH !== null);
 	return {
 		notes: [
@@ -182,6 +184,10 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	if (profile.elementalFractions && profile.fractionsSource) {
 		defaults.push({ what: 'Elemental mass fractions', value: 'from the profile', source: profile.fractionsSource });
 	}
+	const ownRoles = sufficiency.lines.filter((l) => l.roleFrom === 'profile').map((l) => `${l.key} ${l.role}`);
+	if (sufficiency.lines.some((l) => l.basis === 'element' && l.roleFrom === 'default')) {
+		defaults.push({ what: 'Roles of the elements (required or trace)', value: ownRoles.length ? `default, except ${ownRoles.join(', ')} (the profile's)` : 'default', source: DEFAULT_ELEMENT_ROLES_BASIS });
+	}
 	const nameOf = (key: string, basis: 'element' | 'component') => (basis === 'element' ? key : (inputs.componentNames[key] ?? key));
 	const runouts = simulated
 		? findRunoutTimes({ lines: sufficiency.lines, targetBiomassGPerL: target.biomassGPerL, basal: inputs.basal, initialVolumeL: plan.initialVolumeL, feeds, availableL: feeds.map((f) => f.volumeL), course: simulated })
@@ -192,10 +198,11 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		// The model follows the carbon source itself: its exhaustion is an event of the time course.
 		runout: l.basis === 'component' && l.key === growth.carbonSourceId ? null : runouts[i]
 	}));
-	const limitLine = lines.reduce((min, l) => (l.ratio < min.ratio ? l : min), lines[0]);
+	// Only required nutrients limit; a short trace element is among the warnings.
+	const limitLine = lines.find((l) => l.key === sufficiency.limiting!.key && l.basis === sufficiency.limiting!.basis)!;
 	const nutrientsOk = sufficiency.sufficient;
 	if (!nutrientsOk) {
-		const short = lines.filter((l) => !l.sufficient).map((l) => l.name);
+		const short = lines.filter((l) => l.role === 'required' && !l.sufficient).map((l) => l.name);
 		reasons.push(
 			`${short.join(', ')} ${short.length === 1 ? 'runs' : 'run'} short of ${plan.safetyFactor} × demand; ${limitLine.name} limits first, at about ${limitLine.maxBiomassGPerL?.toPrecision(3)} g/L.`
 		);
@@ -212,8 +219,9 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 			reasons.push(`${f.label} runs dry at about ${f.emptyAtH.toFixed(0)} h: its plan would draw ${f.deliveredL!.toPrecision(3)} L, but ${f.volumeL} L are available.`);
 		}
 	}
-	const { notes: runoutNotes, warnings } = describeRunouts(lines, nameOf(growth.carbonSourceId, 'component'));
+	const { notes: runoutNotes, warnings: runoutWarnings } = describeRunouts(lines, nameOf(growth.carbonSourceId, 'component'));
 	notes.push(...runoutNotes);
+	const warnings = [...sufficiency.warnings, ...runoutWarnings];
 
 	// Oxygen: the demand of the plan as written against what the vessel transfers at the DO setpoint.
 	const heatPerMolO2KJ = plan.heatPerMolO2KJ ?? DEFAULT_HEAT_PER_MOL_O2_KJ;

@@ -20,7 +20,7 @@ export function submitProfile(actor: Actor, formData: FormData, id: string | nul
 	if (!parsed.ok) return { failure: parsed.failure };
 	try {
 		const revision = id === null ? null : Number(formData.get('revision'));
-		return { id: saveProfile(actor, id, revision, profileValues(parsed.data)) };
+		return { id: saveProfile(actor, id, revision, profileValues(parsed.data, formData)) };
 	} catch (cause) {
 		return { failure: ruleFailure(formData, cause) };
 	}

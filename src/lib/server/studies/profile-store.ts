@@ -1,13 +1,14 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { ATOMIC_WEIGHTS, findBiomassComposition, type PerCellConsumption } from '$chemistry';
-import { ORGANISM_GROUPS, PROFILE_KINDS, YIELD_METHODS } from '$lib/studies';
+import { ATOMIC_WEIGHTS, findBiomassComposition, statementsOfComposition, type ElementStatements, type PerCellConsumption } from '$chemistry';
+import { CONSUMPTION_PATTERN, ORGANISM_GROUPS, PROFILE_KINDS, YIELD_METHODS, splitPairEntries } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { organismProfile, type OrganismProfileRow } from '../db/schema';
 import { findComponent, molarMassOfComponent } from '../components/library';
 import { RuleError } from '../rule-error';
 import { optionalNumber, optionalText, requiredText } from './fields';
+import { elementStatementFormValues, listProfileElements, readElementStatementsForm } from './profile-elements';
 import { formatSubstrateYields, parseSubstrateYields, resolveCarbonYield } from './profile-yields';
 
 export const profileSchema = z.object({
@@ -40,15 +41,10 @@ type ProfileValues = Omit<typeof organismProfile.$inferInsert, 'id' | 'createdAt
 
 /** "C 0.50" per line (or "C=0.50, N=0.14"). */
 function parsePairs(text: string, field: string): [string, string][] {
-	return text
-		.split(/[\n,;]+/)
-		.map((l) => l.trim())
-		.filter(Boolean)
-		.map((entry, i) => {
-			const m = /^([^\s=:]+)\s*[=:\s]\s*(.+)$/.exec(entry);
-			if (!m) throw new RuleError(`Line ${i + 1} (“${entry}”) should be a name and a number, like “N 0.14”.`, { field });
-			return [m[1], m[2].trim()];
-		});
+	return splitPairEntries(text).map(({ entry, pair }, i) => {
+		if (!pair) throw new RuleError(`Line ${i + 1} (“${entry}”) should be a name and a number, like “N 0.14”.`, { field });
+		return pair;
+	});
 }
 
 function readNumber(text: string, field: string, what: string): number {
@@ -88,7 +84,7 @@ export function parseConsumption(text: string): PerCellConsumption[] | null {
 		.map((l) => l.trim())
 		.filter(Boolean)
 		.map((entry, i) => {
-			const m = /^(\S+)\s+([\d.,eE+-]+)\s*(mmol|pg)$/.exec(entry);
+			const m = CONSUMPTION_PATTERN.exec(entry);
 			if (!m) throw new RuleError(`Line ${i + 1} (“${entry}”) should be a component id, a number and mmol (per 10⁹ cells) or pg (per cell).`, { field });
 			const [, key, amount, unit] = m;
 			const value = readNumber(amount, field, key);
@@ -112,10 +108,15 @@ export function formatConsumption(list: PerCellConsumption[] | null): string {
 	return list ? list.map((c) => (c.pgPerCell !== undefined ? `${c.key} ${c.pgPerCell} pg` : `${c.key} ${c.mmolPer1e9Cells} mmol`)).join('\n') : '';
 }
 
-/** Turns the checked form into stored values; a published preset fills blank fractions and names its source. */
-export function profileValues(form: ProfileForm): ProfileValues {
+/**
+ * Turns the checked form into stored values; a published preset fills blank fractions, names its
+ * source and gives each element the table's grade. `formData` carries each element's role,
+ * confidence and source (fields `element.<symbol>.<part>`); without it, none is stated.
+ */
+export function profileValues(form: ProfileForm, formData?: FormData): ProfileValues {
 	let elementalFractions = parseFractions(form.elementalFractions);
 	let fractionsSource = form.fractionsSource || null;
+	let elementStatements: ElementStatements | null = null;
 	let { ashFraction, cellDryMassPg, biomassFormula } = form;
 	if (form.presetId) {
 		const preset = findBiomassComposition(form.presetId);
@@ -123,6 +124,7 @@ export function profileValues(form: ProfileForm): ProfileValues {
 		if (!elementalFractions) {
 			elementalFractions = Object.fromEntries(Object.entries(preset.massFractions).map(([k, v]) => [k, Number(v.value.toPrecision(4))]));
 			fractionsSource = preset.source;
+			elementStatements = statementsOfComposition(preset);
 		}
 		ashFraction ??= preset.ashFraction?.value ?? null;
 		cellDryMassPg ??= preset.cellDryMassPg?.value ?? null;
@@ -130,6 +132,7 @@ export function profileValues(form: ProfileForm): ProfileValues {
 	}
 	const componentRequirements = parseRequirements(form.componentRequirements);
 	const perCellConsumption = parseConsumption(form.perCellConsumption);
+	if (!elementStatements && formData) elementStatements = readElementStatementsForm(formData, listProfileElements({ elementalFractions, perCellConsumption }));
 	if (form.kind === 'elementalFractions' && !elementalFractions) {
 		throw new RuleError('This kind needs elemental fractions: type them, or fill them from a published table.', { field: 'elementalFractions' });
 	}
@@ -148,6 +151,7 @@ export function profileValues(form: ProfileForm): ProfileValues {
 		ashFraction,
 		elementalFractions,
 		fractionsSource,
+		elementStatements,
 		componentRequirements,
 		perCellConsumption,
 		cellDryMassPg,
@@ -190,7 +194,8 @@ export function profileFormValues(row: OrganismProfileRow): Record<string, strin
 		yieldXO2GPerG: text(row.yieldXO2GPerG),
 		qO2MmolPerGH: text(row.qO2MmolPerGH),
 		notes: row.notes,
-		revision: String(row.revision)
+		revision: String(row.revision),
+		...elementStatementFormValues(row)
 	};
 }
 

@@ -7,7 +7,9 @@ import {
 	type OrganismProfile,
 	type SubstrateDemand
 } from '$chemistry';
+import { YIELD_METHOD_LABELS } from '$lib/studies';
 import { RuleError } from '../rule-error';
+import { resolveElementStatements } from './profile-elements';
 import { describeCarbonYield, describeSubstrateYield } from './profile-yields';
 import type { DefaultUsed, OrganismProfileRow } from './types';
 
@@ -58,19 +60,47 @@ export function listProfileYields(profile: OrganismProfileRow, components: Compo
 	}
 }
 
-/** The profile as the sufficiency engine reads it, with the carbon rule and the further substrates. */
+/**
+ * The profile as the sufficiency engine reads it, with the carbon rule and the further substrates;
+ * each element with its role and confidence, each yield with how it was obtained.
+ */
 export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: OrganismProfile; carbon?: CarbonDemand; substrates: SubstrateDemand[] } {
 	const cellDryMassPg = profile.cellDryMassPg ?? undefined;
 	const growth = requireGrowthData(profile);
-	const substrates = profile.substrateYields.map((y) => ({ component: y.componentId, yieldGPerG: y.yieldGPerG, note: `X / Yx/s with Yx/s = ${y.yieldGPerG} g/g (${describeSubstrateYield(y).toLowerCase()})` }));
+	const elements = resolveElementStatements(profile);
+	const substrates = profile.substrateYields.map((y) => ({
+		component: y.componentId,
+		yieldGPerG: y.yieldGPerG,
+		note: `X / Yx/s with Yx/s = ${y.yieldGPerG} g/g (${describeSubstrateYield(y).toLowerCase()})`,
+		confidence: y.method === 'entered' ? ('measured' as const) : ('derived' as const),
+		source: describeSubstrateYield(y)
+	}));
 	// A per-cell glucose uptake already includes what is respired; a yield-based line would count it twice.
-	const carbon: CarbonDemand = { basis: 'component', component: growth.carbonSourceId, yieldGPerG: growth.yieldXSGPerG };
+	const carbon: CarbonDemand = {
+		basis: 'component',
+		component: growth.carbonSourceId,
+		yieldGPerG: growth.yieldXSGPerG,
+		// The form offers "Entered (measured)"; the balance methods work it out from a measurement.
+		confidence: profile.yieldXSMethod === 'entered' ? 'measured' : 'derived',
+		source: profile.yieldXSMethod === 'entered' ? 'Entered on the profile' : `${YIELD_METHOD_LABELS[profile.yieldXSMethod]} (see the yields a study uses)`
+	};
 	switch (profile.kind) {
 		case 'elementalFractions':
 			if (!profile.elementalFractions || Object.keys(profile.elementalFractions).length === 0) {
 				missing(profile, 'elemental mass fractions', 'elementalFractions');
 			}
-			return { profile: { kind: 'elementalFractions', name: profile.name, fractions: profile.elementalFractions, cellDryMassPg }, carbon, substrates };
+			return {
+				profile: {
+					kind: 'elementalFractions',
+					name: profile.name,
+					fractions: profile.elementalFractions,
+					cellDryMassPg,
+					elements,
+					...(profile.biomassFormula ? { formula: profile.biomassFormula, ashFraction: profile.ashFraction ?? undefined } : {})
+				},
+				carbon,
+				substrates
+			};
 		case 'componentRequirements':
 			if (!profile.componentRequirements || Object.keys(profile.componentRequirements).length === 0) {
 				missing(profile, 'component requirements', 'componentRequirements');
@@ -81,7 +111,7 @@ export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: Or
 				missing(profile, 'per-cell consumption rates', 'perCellConsumption');
 			}
 			if (profile.cellDryMassPg === null) missing(profile, 'cell dry mass (pg/cell)', 'cellDryMassPg');
-			return { profile: { kind: 'perCell', name: profile.name, consumption: profile.perCellConsumption, cellDryMassPg }, substrates };
+			return { profile: { kind: 'perCell', name: profile.name, consumption: profile.perCellConsumption, cellDryMassPg, elements }, substrates };
 	}
 }
 

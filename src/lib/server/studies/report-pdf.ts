@@ -1,4 +1,5 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
+import { VALUE_CONFIDENCE_WORDS } from '$chemistry';
 import { formatAmount, formatCells, formatDateTime, formatRunout } from '$lib/components/studies/format';
 import { FEED_PLAN_LABELS, TARGET_BASIS_UNITS } from '$lib/studies';
 import { MARGIN, Writer } from '../pdf/layout';
@@ -73,29 +74,35 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	w.gap(10);
 
 	w.text(`Nutrients: ${report.nutrients.check}`, { bold: true, size: 11 });
-	w.text(`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand.`, { size: 8.5 });
+	w.text(`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand. Only required nutrients set the limit; a short trace element is a warning.`, { size: 8.5 });
 	w.gap(3);
 	const lines = [...report.nutrients.lines].sort((a, b) => a.ratio - b.ratio);
 	w.table(
 		[
-			{ header: 'Nutrient', width: 160 },
-			{ header: 'Demand g/L', width: 65, align: 'right' },
-			{ header: 'Supply g/L', width: 65, align: 'right' },
-			{ header: 'Ratio', width: 50, align: 'right' },
-			{ header: 'Margin g/L', width: 65, align: 'right' },
-			{ header: 'Short from', width: 55, align: 'right' },
-			{ header: 'Check', width: 45 }
+			{ header: 'Nutrient', width: 110 },
+			{ header: 'Role', width: 45 },
+			{ header: 'Value is', width: 70 },
+			{ header: 'Demand g/L', width: 50, align: 'right' },
+			{ header: 'Supply g/L', width: 50, align: 'right' },
+			{ header: 'Ratio', width: 40, align: 'right' },
+			{ header: 'Margin g/L', width: 50, align: 'right' },
+			{ header: 'Short from', width: 50, align: 'right' },
+			{ header: 'Check', width: 50 }
 		],
 		lines.map((l) => [
 			l.note ? `${l.name} (${l.note})` : l.name,
+			l.roleFrom === 'profile' ? `${l.role} (profile)` : l.role,
+			VALUE_CONFIDENCE_WORDS[l.confidence],
 			formatAmount(l.demandGPerL),
 			formatAmount(l.supplyGPerL),
 			formatAmount(l.ratio),
 			formatAmount(l.marginGPerL),
 			formatRunout(l.runout),
-			l.sufficient ? 'OK' : 'SHORT'
+			l.sufficient ? 'OK' : l.role === 'required' ? 'SHORT' : 'SHORT (trace)'
 		])
 	);
+	const sources = [...new Set(report.nutrients.lines.flatMap((l) => (l.source ? [l.source] : [])))];
+	if (sources.length > 0) w.text(`Sources of the values: ${sources.join('; ')}`, { size: 8.5 });
 	for (const note of report.nutrients.notes) w.text(note, { size: 8.5 });
 	w.gap(10);
 

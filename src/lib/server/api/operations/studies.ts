@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { FEED_DRAFT_ROLES, STUDY_ROLES } from '$lib/studies';
 import type { ApiOperation } from '../openapi';
+import { sufficiencyLineResponse } from './chemistry';
 
 const finite = z.number({ error: 'Give a number.' });
 
@@ -17,6 +18,37 @@ export const evaluateRequest = z.strictObject({
 		})
 		.default({})
 });
+
+/** The report's verdict and nutrient part; oxygen, heat, volume, feeds and the time course are not described here. */
+export const evaluateResponse = z
+	.object({
+		verdict: z.enum(['supported', 'not supported']),
+		reasons: z.array(z.string()).describe('Why not, one sentence each: required nutrients short of the safety factor, oxygen, heat, volume, feeds'),
+		warnings: z
+			.array(z.string())
+			.describe("What holds but needs watching: trace elements short of the safety factor (each by name; they never set the limit), nutrients a feed covers only later, a profile whose fractions contradict its formula"),
+		limit: z
+			.object({
+				key: z.string(),
+				name: z.string(),
+				basis: z.enum(['element', 'component']),
+				ratio: z.number(),
+				maxBiomassGPerL: z.number().nullable(),
+				maxCellsPerMl: z.number().nullable()
+			})
+			.describe('The limiting required nutrient and the maximum supportable density'),
+		nutrients: z.object({
+			check: z.enum(['ok', 'short']).describe("'short' when a required nutrient is"),
+			lines: z.array(
+				sufficiencyLineResponse.extend({
+					name: z.string(),
+					runout: z.object({ shortFromH: z.number(), coveredAgainH: z.number().nullable() }).nullable()
+				})
+			),
+			notes: z.array(z.string())
+		})
+	})
+	.loose();
 
 export const feedDesignRequest = z.strictObject({
 	componentIds: z.array(z.string().min(1, 'Choose a component.').max(80)).min(1, 'Choose at least one component.').max(40, 'At most 40 components.'),
@@ -45,9 +77,10 @@ export const studiesOperations: ApiOperation[] = [
 	{
 		method: 'post',
 		path: '/api/v1/studies/evaluate',
-		summary: 'Evaluates a saved study with what-if changes (target, feed volume, kLa, O2 fraction, temperature): verdict, limit, per-nutrient table, oxygen, heat, volume, time course, defaults used',
+		summary: 'Evaluates a saved study with what-if changes (target, feed volume, kLa, O2 fraction, temperature): verdict, limit (required nutrients only), per-nutrient table with the role, confidence and source of each line, warnings (short trace elements by name), oxygen, heat, volume, time course, defaults used',
 		access: roles,
 		request: evaluateRequest,
+		response: evaluateResponse,
 		errors: [404, 422]
 	},
 	{

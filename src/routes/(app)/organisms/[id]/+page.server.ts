@@ -5,6 +5,7 @@ import { organismProfile } from '$lib/server/db/schema';
 import { requireStudyAccess } from '$lib/server/studies/access';
 import { profileChoices, submitProfile } from '$lib/server/studies/profile-page';
 import { profileFormValues } from '$lib/server/studies/profile-store';
+import { checkProfileFormula, describeProfileElements } from '$lib/server/studies/profile-elements';
 import { listProfileYields } from '$lib/server/studies/profiles';
 import { listComponents } from '$lib/server/components/library';
 import type { Actions, PageServerLoad } from './$types';
@@ -21,7 +22,9 @@ export const load: PageServerLoad = async ({ params }) => {
 		name: row.name,
 		isDemo: row.isDemo,
 		fractionsSource: row.fractionsSource,
-		yields: listProfileYields(row, facts)
+		yields: listProfileYields(row, facts),
+		elements: describeProfileElements(row),
+		formulaWarnings: checkProfileFormula(row)
 	};
 };
 

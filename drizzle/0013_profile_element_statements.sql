@@ -1,0 +1,1 @@
+ALTER TABLE `organism_profile` ADD `element_statements` text;

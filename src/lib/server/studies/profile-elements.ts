@@ -1,0 +1,157 @@
+import {
+	ATOMIC_WEIGHTS,
+	BIOMASS_COMPOSITIONS,
+	ChemistryInputError,
+	DEFAULT_IGNORED_ELEMENTS,
+	ELEMENT_ROLES,
+	MAX_SOURCE_LENGTH,
+	VALUE_CONFIDENCES,
+	compareFractionsWithFormula,
+	defaultElementRole,
+	statementsOfComposition,
+	type ElementRole,
+	type ElementStatement,
+	type ElementStatements,
+	type PerCellConsumption,
+	type ValueConfidence
+} from '$chemistry';
+import { RuleError } from '../rule-error';
+
+/** What the element rules read from a profile, stored or just checked on the form. */
+export interface ProfileElementFields {
+	elementalFractions: Record<string, number> | null;
+	perCellConsumption: PerCellConsumption[] | null;
+	fractionsSource: string | null;
+	elementStatements?: ElementStatements | null;
+}
+
+/** The elements a profile gives a value for: its fractions and its per-cell element lines. */
+export function listProfileElements(p: Pick<ProfileElementFields, 'elementalFractions' | 'perCellConsumption'>): string[] {
+	const fromCells = (p.perCellConsumption ?? []).filter((c) => c.basis === 'element').map((c) => c.key);
+	return [...new Set([...Object.keys(p.elementalFractions ?? {}), ...fromCells])];
+}
+
+/**
+ * The form keeps a published table's fractions to 4 significant digits; a fraction still at that
+ * value, under that table's citation, is the table's value and carries its grade.
+ */
+function tableStatement(symbol: string, fraction: number | undefined, source: string | null): ElementStatement | undefined {
+	if (fraction === undefined || !source) return undefined;
+	const table = BIOMASS_COMPOSITIONS.find((b) => b.source === source);
+	const published = table?.massFractions[symbol];
+	if (!table || !published || Number(published.value.toPrecision(4)) !== fraction) return undefined;
+	return statementsOfComposition(table)[symbol];
+}
+
+/**
+ * Each element's statement: the one stored with the profile; for a profile saved before statements
+ * were kept, the grade of the published table its fractions came from; otherwise the fractions'
+ * source with no stated confidence.
+ */
+export function resolveElementStatements(p: ProfileElementFields): ElementStatements {
+	const out: ElementStatements = {};
+	for (const symbol of listProfileElements(p)) {
+		const stored = p.elementStatements?.[symbol];
+		if (stored) {
+			out[symbol] = stored;
+			continue;
+		}
+		out[symbol] = tableStatement(symbol, p.elementalFractions?.[symbol], p.fractionsSource) ?? (p.fractionsSource ? { source: p.fractionsSource } : {});
+	}
+	return out;
+}
+
+export interface ProfileElementRow {
+	symbol: string;
+	/** g per g dry biomass, for an elemental profile. */
+	fraction: number | null;
+	/** null for H and O, which a study does not assess. */
+	role: ElementRole | null;
+	roleFrom: 'default' | 'profile';
+	confidence: ValueConfidence;
+	source: string | null;
+}
+
+/** The profile page's table: each element with its role and how sure its value is. */
+export function describeProfileElements(p: ProfileElementFields): ProfileElementRow[] {
+	const statements = resolveElementStatements(p);
+	return listProfileElements(p).map((symbol) => {
+		const s = statements[symbol];
+		const assessed = !(DEFAULT_IGNORED_ELEMENTS as readonly string[]).includes(symbol);
+		return {
+			symbol,
+			fraction: p.elementalFractions?.[symbol] ?? null,
+			role: assessed ? (s.role ?? defaultElementRole(symbol)) : null,
+			roleFrom: s.role ? 'profile' : 'default',
+			confidence: s.confidence ?? 'unstated',
+			source: s.source ?? null
+		};
+	});
+}
+
+/** The fractions against the formula, as warnings for the profile page; a formula that cannot be read says so. */
+export function checkProfileFormula(p: { biomassFormula: string | null; ashFraction: number | null; elementalFractions: Record<string, number> | null }): string[] {
+	if (!p.biomassFormula || !p.elementalFractions) return [];
+	try {
+		return compareFractionsWithFormula({ formula: p.biomassFormula, ashFraction: p.ashFraction, fractions: p.elementalFractions }).map((m) => m.message);
+	} catch (cause) {
+		if (cause instanceof ChemistryInputError) return [`The fractions cannot be checked against the formula: ${cause.message}`];
+		throw cause;
+	}
+}
+
+/** Form field names of one element's statement. */
+export const elementField = (symbol: string, part: 'role' | 'confidence' | 'source') => `element.${symbol}.${part}`;
+
+/**
+ * Reads each element's role, confidence and source from the profile form. Only elements the profile
+ * gives a value for are kept; rows the form still holds for elements taken out of the fractions are
+ * left behind (their inputs are disabled in the browser, so they normally do not arrive at all).
+ */
+export function readElementStatementsForm(formData: FormData, elements: string[]): ElementStatements {
+	const text = (name: string) => {
+		const v = formData.get(name);
+		return typeof v === 'string' ? v.trim() : '';
+	};
+	const out: ElementStatements = {};
+	for (const symbol of elements) {
+		if (!(symbol in ATOMIC_WEIGHTS)) continue;
+		const statement: ElementStatement = {};
+		const role = text(elementField(symbol, 'role'));
+		if (role !== '') {
+			if (!(ELEMENT_ROLES as readonly string[]).includes(role)) {
+				throw new RuleError(`Role of ${symbol}: choose required or trace (or keep the default).`, { field: elementField(symbol, 'role') });
+			}
+			statement.role = role as ElementRole;
+		}
+		const confidence = text(elementField(symbol, 'confidence'));
+		if (confidence !== '') {
+			if (!(VALUE_CONFIDENCES as readonly string[]).includes(confidence)) {
+				throw new RuleError(`How sure the value of ${symbol} is: choose one of the listed grades.`, { field: elementField(symbol, 'confidence') });
+			}
+			statement.confidence = confidence as ValueConfidence;
+		}
+		const source = text(elementField(symbol, 'source'));
+		if (source.length > MAX_SOURCE_LENGTH) {
+			throw new RuleError(`Source of ${symbol}: at most ${MAX_SOURCE_LENGTH} characters (now ${source.length}).`, { field: elementField(symbol, 'source') });
+		}
+		if (source !== '') statement.source = source;
+		if ((statement.confidence === 'confirmed' || statement.confidence === 'derived') && !statement.source) {
+			throw new RuleError(`Source of ${symbol}: a published or derived value needs its source (the table or paper it comes from).`, { field: elementField(symbol, 'source') });
+		}
+		out[symbol] = statement;
+	}
+	return out;
+}
+
+/** The form's values for each element's statement, as the edit form starts from them. */
+export function elementStatementFormValues(p: ProfileElementFields): Record<string, string> {
+	const statements = resolveElementStatements(p);
+	return Object.fromEntries(
+		Object.entries(statements).flatMap(([symbol, s]) => [
+			[elementField(symbol, 'role'), s.role ?? ''],
+			[elementField(symbol, 'confidence'), s.confidence ?? 'unstated'],
+			[elementField(symbol, 'source'), s.source ?? '']
+		])
+	);
+}
