@@ -5,45 +5,25 @@ import { db } from '$lib/server/db';
 import { organismProfile, study } from '$lib/server/db/schema';
 import { seedDemo } from '$lib/server/demo/seed';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
-import { submitProfile } from '$lib/server/studies/profile-page';
 import { checkProfileFormula, describeProfileElements, resolveElementStatements } from '$lib/server/studies/profile-elements';
 import { profileFormValues } from '$lib/server/studies/profile-store';
 import { loadStudyInputs } from '$lib/server/studies/queries';
+import { createProfileForm } from './profile-form';
 
-const actor = { id: '', email: 'engineer@demo.test' };
 const NEIDHARDT = findBiomassComposition('bacterium-neidhardt-1990')!;
 
 beforeAll(async () => {
 	await seedDemo();
-	actor.id = db.query.user.findFirst({ where: (u, { eq }) => eq(u.email, 'engineer@demo.test') }).sync()!.id;
 });
 
-function form(fields: Record<string, string>): FormData {
-	const data = new FormData();
-	const base = {
-		name: `Elements ${crypto.randomUUID().slice(0, 8)}`,
-		group: 'bacterium',
-		kind: 'elementalFractions',
-		carbonSourceId: 'd-glucose',
-		yieldXSGPerG: '0.5',
-		muMaxPerH: '0.5',
-		ksGPerL: '0.05'
-	};
-	for (const [k, v] of Object.entries({ ...base, ...fields })) data.set(k, v);
-	return data;
-}
-
-function saved(fields: Record<string, string>) {
-	const result = submitProfile(actor, form(fields), null);
-	if (!('id' in result)) throw new Error(`not saved: ${JSON.stringify(result.failure.data)}`);
-	return db.select().from(organismProfile).where(eq(organismProfile.id, result.id!)).get()!;
-}
-
-function failure(fields: Record<string, string>) {
-	const result = submitProfile(actor, form(fields), null);
-	if (!result.failure) throw new Error('saved, but should have been refused');
-	return result.failure.data as { message: string; fieldErrors: Record<string, string[]>; values: Record<string, string> };
-}
+const { saved, failure } = createProfileForm('Elements', {
+	group: 'bacterium',
+	kind: 'elementalFractions',
+	carbonSourceId: 'd-glucose',
+	yieldXSGPerG: '0.5',
+	muMaxPerH: '0.5',
+	ksGPerL: '0.05'
+});
 
 describe('each element of a profile: its role and how sure its value is', () => {
 	it('takes each value of a published table with the grade the table gives it (chemistry/data/biomass.ts)', () => {

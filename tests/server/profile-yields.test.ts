@@ -1,46 +1,22 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { eq } from 'drizzle-orm';
 import { ATOMIC_WEIGHTS, formulaMolarMass } from '$chemistry';
-import { db } from '$lib/server/db';
-import { organismProfile } from '$lib/server/db/schema';
 import { seedDemo } from '$lib/server/demo/seed';
-import { submitProfile } from '$lib/server/studies/profile-page';
 import { listYieldsUsed } from '$lib/server/studies/profiles';
-
-const actor = { id: '', email: 'engineer@demo.test' };
+import { createProfileForm } from './profile-form';
 
 beforeAll(async () => {
 	await seedDemo();
-	actor.id = db.query.user.findFirst({ where: (u, { eq }) => eq(u.email, 'engineer@demo.test') }).sync()!.id;
 });
 
-function form(fields: Record<string, string>): FormData {
-	const data = new FormData();
-	const base = {
-		name: `Profile ${crypto.randomUUID().slice(0, 8)}`,
-		group: 'bacterium',
-		kind: 'elementalFractions',
-		elementalFractions: 'C 0.5\nN 0.14\nP 0.03',
-		biomassFormula: 'CH1.666667O0.5N0.166667',
-		carbonSourceId: 'd-glucose',
-		muMaxPerH: '0.5',
-		ksGPerL: '0.05'
-	};
-	for (const [k, v] of Object.entries({ ...base, ...fields })) data.set(k, v);
-	return data;
-}
-
-function saved(fields: Record<string, string>) {
-	const result = submitProfile(actor, form(fields), null);
-	if (!('id' in result)) throw new Error(`not saved: ${JSON.stringify(result.failure.data)}`);
-	return db.select().from(organismProfile).where(eq(organismProfile.id, result.id!)).get()!;
-}
-
-function failure(fields: Record<string, string>) {
-	const result = submitProfile(actor, form(fields), null);
-	if (!result.failure) throw new Error('saved, but should have been refused');
-	return result.failure.data as { message: string; fieldErrors: Record<string, string[]>; values: Record<string, string> };
-}
+const { saved, failure } = createProfileForm('Profile', {
+	group: 'bacterium',
+	kind: 'elementalFractions',
+	elementalFractions: 'C 0.5\nN 0.14\nP 0.03',
+	biomassFormula: 'CH1.666667O0.5N0.166667',
+	carbonSourceId: 'd-glucose',
+	muMaxPerH: '0.5',
+	ksGPerL: '0.05'
+});
 
 describe('Yx/s worked out on the profile form', () => {
 	it('from the measured RQ: the Shuler & Kargi (2002) glucose balance, Yx/s 0.384 at RQ 1.04', () => {
