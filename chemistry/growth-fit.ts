@@ -68,7 +68,7 @@
  * determined: its interval is unbounded, and the others come from the remaining columns. An interval
  * wider than a factor of 3 (this module's threshold) or unbounded is reported as a warning in plain
  * words: a batch curve often pins Ks down poorly. The procedure agrees with an independent scipy fit
- * of the integrated ODE to ~1e-8 (tests/chemistry/fixtures/growth-curves.py). In 50 simulated runs
+ * of the integrated ODE to ~1e-8 (tests/chemistry/reference/growth-curves.py). In 50 simulated runs
  * at 3 % noise the intervals held the true μmax in 49, Ks in 44 and Yx/s in 45: the linear
  * approximation runs slightly narrow for Ks and Yx/s.
  */

@@ -6,7 +6,7 @@ import {
 	type GrowthFit
 } from '../../chemistry/growth-fit';
 import { simulateRun } from '../../chemistry/simulation';
-import reference from './fixtures/growth-curves.json';
+import reference from './reference/growth-curves.json';
 import { errorOf } from './input-error';
 
 /** mulberry32, a small public-domain 32-bit seeded generator, with Box & Muller (1958) normals. */
@@ -182,9 +182,9 @@ describe('fitGrowthCurve', () => {
 });
 
 /**
- * The reference curves in fixtures/growth-curves.json come from an independent computation, the
+ * The reference curves in reference/growth-curves.json come from an independent computation, the
  * committed script beside them (scipy's ODE solver and least-squares fit):
- *   python3 tests/chemistry/fixtures/growth-curves.py > tests/chemistry/fixtures/growth-curves.json
+ *   python3 tests/chemistry/reference/growth-curves.py > tests/chemistry/reference/growth-curves.json
  */
 const lagBatch = reference.lagBatch;
 

@@ -178,9 +178,9 @@ test('a run-data upload shows the bad row and still fits the rest', async ({ pag
 });
 
 test('a sparse run says which whole-curve parameter the data do not pin down', async ({ page }) => {
-	// Noisy samples every 2 h from an independent script (tests/chemistry/fixtures/growth-curves.py):
+	// Noisy samples every 2 h from an independent script (tests/chemistry/reference/growth-curves.py):
 	// the substrate runs out between two samples, so Ks is not determined.
-	const reference = JSON.parse(readFileSync('tests/chemistry/fixtures/growth-curves.json', 'utf8'));
+	const reference = JSON.parse(readFileSync('tests/chemistry/reference/growth-curves.json', 'utf8'));
 	const sparse = reference.monodFits.find((c: { label: string }) => c.label === 'every 2 h');
 	const rows = sparse.timeH.map((t: number, i: number) => `${t},${sparse.biomassGPerL[i]},${sparse.substrateGPerL[i]}`);
 	await page.goto('/simulation/fit');

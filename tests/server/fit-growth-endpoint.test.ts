@@ -1,7 +1,7 @@
 import { describe, expect, it, vi } from 'vitest';
 import { postJson } from './endpoint-call';
 import { fitGrowthResponse } from '$lib/server/api/operations/simulation';
-import reference from '../chemistry/fixtures/growth-curves.json';
+import reference from '../chemistry/reference/growth-curves.json';
 
 // The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.
 vi.mock('$app/server', async (importOriginal) => ({
@@ -24,7 +24,7 @@ async function expectProblem(response: Response, path: string) {
 }
 
 // Noisy samples (3 %) of a Monod batch (μmax 0.4 /h, Ks 0.2 g/L, Yx/s 0.5) every 2 h, made and fitted
-// by an independent script (tests/chemistry/fixtures/growth-curves.py): the substrate runs out
+// by an independent script (tests/chemistry/reference/growth-curves.py): the substrate runs out
 // between two samples, and that fit finds Ks undetermined.
 const sparse = reference.monodFits.find((c) => c.label === 'every 2 h')!;
 
