@@ -23,24 +23,37 @@ export interface PeakOxygenLoad {
 	peakUptakeVolumeL: number;
 }
 
-export function findPeakOxygenLoad(series: OxygenLoadSeries): PeakOxygenLoad {
+/**
+ * The peaks over the series, or over its start up to `untilH` (e.g. when the culture reaches its
+ * target), with OUR and V there interpolated linearly between the points around it.
+ */
+export function findPeakOxygenLoad(series: OxygenLoadSeries, untilH = Infinity): PeakOxygenLoad {
 	const { t, ourMmolPerLH: our, volumeL } = series;
 	if (t.length === 0 || our.length !== t.length || volumeL.length !== t.length) {
 		throw new ChemistryInputError('The series need the same, non-zero number of points.', { field: 'ourMmolPerLH' });
 	}
-	let ourAt = 0;
-	let uptakeAt = 0;
-	for (let i = 1; i < t.length; i++) {
-		if (our[i] > our[ourAt]) ourAt = i;
-		if (our[i] * volumeL[i] > our[uptakeAt] * volumeL[uptakeAt]) uptakeAt = i;
+	const points: { t: number; our: number; v: number }[] = [];
+	for (let i = 0; i < t.length && t[i] <= untilH; i++) points.push({ t: t[i], our: our[i], v: volumeL[i] });
+	const next = points.length;
+	if (next > 0 && next < t.length && untilH > t[next - 1]) {
+		const f = (untilH - t[next - 1]) / (t[next] - t[next - 1]);
+		const between = (a: number, b: number) => a + f * (b - a);
+		points.push({ t: untilH, our: between(our[next - 1], our[next]), v: between(volumeL[next - 1], volumeL[next]) });
+	}
+	if (points.length === 0) points.push({ t: t[0], our: our[0], v: volumeL[0] });
+	let ourAt = points[0];
+	let uptakeAt = points[0];
+	for (const p of points) {
+		if (p.our > ourAt.our) ourAt = p;
+		if (p.our * p.v > uptakeAt.our * uptakeAt.v) uptakeAt = p;
 	}
 	return {
-		peakOurMmolPerLH: our[ourAt],
-		peakOurAtH: t[ourAt],
-		peakUptakeMmolPerH: our[uptakeAt] * volumeL[uptakeAt],
-		peakUptakeAtH: t[uptakeAt],
-		peakUptakeOurMmolPerLH: our[uptakeAt],
-		peakUptakeVolumeL: volumeL[uptakeAt]
+		peakOurMmolPerLH: ourAt.our,
+		peakOurAtH: ourAt.t,
+		peakUptakeMmolPerH: uptakeAt.our * uptakeAt.v,
+		peakUptakeAtH: uptakeAt.t,
+		peakUptakeOurMmolPerLH: uptakeAt.our,
+		peakUptakeVolumeL: uptakeAt.v
 	};
 }
 

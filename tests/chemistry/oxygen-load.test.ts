@@ -13,6 +13,15 @@ describe('the peak oxygen load of a run', () => {
 		expect([peak.peakUptakeOurMmolPerLH, peak.peakUptakeVolumeL]).toEqual([80, 2]);
 	});
 
+	it('up to a time between two points, with OUR and V interpolated there', () => {
+		const series = { t: [0, 1, 2, 3], ourMmolPerLH: [10, 20, 40, 80], volumeL: [1, 1, 2, 2] };
+		// At 1.5 h, halfway: OUR (20 + 40)/2 = 30, V 1.5, so OUR·V 45.
+		const peak = findPeakOxygenLoad(series, 1.5);
+		expect([peak.peakOurMmolPerLH, peak.peakOurAtH]).toEqual([30, 1.5]);
+		expect(peak.peakUptakeMmolPerH).toBe(45);
+		expect(findPeakOxygenLoad(series, 10).peakOurMmolPerLH).toBe(80);
+	});
+
 	it('rounds a requirement up, so the figure typed back in still meets it', () => {
 		expect(roundUpToSignificant(628.3)).toBe(629);
 		expect(roundUpToSignificant(630)).toBe(630);

@@ -237,9 +237,18 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		defaults.push({ what: 'Peak OUR', value: `${estimate.toPrecision(3)} mmol/(L·h)`, source: peakOurOrigin });
 		reasons.push(`The plan cannot be simulated (${'message' in courses.demand ? courses.demand.message : 'no time course'}), so its oxygen and heat load are rough estimates and it cannot be called supported.`);
 	} else {
-		const peak = findPeakOxygenLoad(demandCourse);
+		// Up to the target: the question is whether the vessel carries the culture there. Growth the
+		// feeds would carry beyond it is noted, not required.
+		const untilH = demandCourse.targetReachedAtH ?? Infinity;
+		const peak = findPeakOxygenLoad(demandCourse, untilH);
 		load = { peakOurMmolPerLH: peak.peakOurMmolPerLH, uptakeOurMmolPerLH: peak.peakUptakeOurMmolPerLH, uptakeVolumeL: peak.peakUptakeVolumeL, atH: peak.peakOurAtH };
-		peakOurOrigin = `the O2 demand of the plan as written, at ${hours(peak.peakOurAtH)}: the growth the feeds support, not held back by this vessel's transfer`;
+		peakOurOrigin = `the O2 demand of the plan as written${demandCourse.targetReachedAtH === null ? '' : ' up to the target'}, at ${hours(peak.peakOurAtH)}: the growth the feeds support, not held back by this vessel's transfer`;
+		const beyond = findPeakOxygenLoad(demandCourse);
+		if (demandCourse.targetReachedAtH !== null && beyond.peakOurMmolPerLH > 1.01 * peak.peakOurMmolPerLH) {
+			notes.push(
+				`The plan reaches the target at ${hours(demandCourse.targetReachedAtH)} and feeds on: run to its end, its O2 demand rises to ${beyond.peakOurMmolPerLH.toPrecision(3)} mmol/(L·h) at ${hours(beyond.peakOurAtH)}, beyond what the target needs.`
+			);
+		}
 		if (demandCourse.stoppedAtH !== null) {
 			lowerBound = true;
 			reasons.push(

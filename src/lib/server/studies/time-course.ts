@@ -121,6 +121,14 @@ function cumulative(t: number[], rate: number[], startH: number, totalL: number)
 	return last > 0 ? out.map((v) => (v * totalL) / last) : out;
 }
 
+/** When a rising series first reaches `level`, interpolated between output points; null if it never does. */
+function findCrossingH(t: number[], values: number[], level: number): number | null {
+	const i = values.findIndex((v) => v >= level);
+	if (i < 0) return null;
+	if (i === 0) return t[0];
+	return t[i - 1] + ((t[i] - t[i - 1]) * (level - values[i - 1])) / (values[i] - values[i - 1]);
+}
+
 /** The run's series as the report keeps them, with each feed's delivery. */
 function toCourse(run: PlanRun, result: SimulationResult, streamFeeds: StudyFeedSource[]): PlanCourse {
 	const last = result.biomassGPerL.length - 1;
@@ -142,6 +150,7 @@ function toCourse(run: PlanRun, result: SimulationResult, streamFeeds: StudyFeed
 		events: result.events,
 		finalBiomassGPerL: result.biomassGPerL[last],
 		reachesTarget: result.biomassGPerL.some((x) => x >= run.targetBiomassGPerL * run.reachesFraction),
+		targetReachedAtH: findCrossingH(result.t, result.biomassGPerL, run.targetBiomassGPerL),
 		stoppedAtH: result.stoppedAtH ?? null,
 		deliveries
 	};
@@ -196,7 +205,7 @@ export function simulatePlan(run: PlanRun): PlanCourses {
 	});
 	run.defaults.push({
 		what: 'Oxygen and heat figures',
-		value: 'from the O2 demand of the plan as written',
+		value: 'from the O2 demand of the plan as written, up to the target density',
 		source: 'A second run of the same plan whose growth oxygen never holds back: the growth the feeds would support, and the O2 the vessel must supply for it'
 	});
 	return { demand, vessel: attempt(true) };

@@ -103,6 +103,8 @@ export interface TimeCourse {
 	events: SimulationEvent[];
 	finalBiomassGPerL: number;
 	reachesTarget: boolean;
+	/** When biomass first reaches the target (interpolated); null when it does not. */
+	targetReachedAtH: number | null;
 	stoppedAtH: number | null;
 }
 
