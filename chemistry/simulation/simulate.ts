@@ -293,9 +293,11 @@ class RunIntegrator {
 		this.regime.substrateExhausted = on;
 	}
 
+	/** Entering holds DO at 0 (dC/dt = 0 there after); leaving starts it from the state's DO. */
 	private setOxygenLimited(on: boolean, tH: number): void {
 		if (on) {
 			if (this.regime.quasiSteadyOxygen) this.setQuasiSteady(false, tH);
+			this.y[C] = 0;
 			this.oxygenLimitedIntervals.push({ fromH: tH, toH: Number.NaN });
 			this.oxygenLimitedReports++;
 			if (this.oxygenLimitedReports <= MAX_REPORTS_PER_KIND) {
@@ -304,7 +306,6 @@ class RunIntegrator {
 		} else {
 			this.oxygenLimitedIntervals[this.oxygenLimitedIntervals.length - 1].toH = tH;
 		}
-		this.y[C] = 0;
 		this.regime.oxygenLimited = on;
 	}
 
@@ -345,9 +346,7 @@ class RunIntegrator {
 						continue;
 					}
 				} else if (this.y[C] > 0 || computeOxygenSurplusAtZeroMgPerLH(p, state) > 0) {
-					const jumpedC = this.y[C];
 					this.setOxygenLimited(false, tH);
-					this.y[C] = jumpedC;
 					continue;
 				}
 			}

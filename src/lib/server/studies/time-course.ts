@@ -164,7 +164,7 @@ function toCourse(run: PlanRun, result: SimulationResult, streamFeeds: StudyFeed
 export function simulatePlan(run: PlanRun): PlanCourses {
 	const { plan, profile, basal, vessel } = run.inputs;
 	const streamFeeds = run.feeds.filter((f) => f.volumeL > 0);
-	const request = (limitsGrowth: boolean): SimulationRequest => ({
+	const request: SimulationRequest = {
 		mode: streamFeeds.length > 0 ? 'fedBatch' : 'batch',
 		kinetics: {
 			muMaxPerH: run.growth.muMaxPerH,
@@ -179,14 +179,14 @@ export function simulatePlan(run: PlanRun): PlanCourses {
 			volumeL: plan.initialVolumeL
 		},
 		...(streamFeeds.length > 0 ? { feeds: streamFeeds.map((f) => toStream(run, f)) } : {}),
-		oxygen: { kLaPerH: run.kLaPerH, saturationMgPerL: run.saturationMgPerL, limitsGrowth },
+		oxygen: { kLaPerH: run.kLaPerH, saturationMgPerL: run.saturationMgPerL },
 		maxVolumeL: vessel.maxWorkingVolumeL,
 		endH: plan.durationH,
 		outputEveryH: plan.durationH / OUTPUT_POINTS
-	});
+	};
 	const attempt = (limitsGrowth: boolean): PlanCourse | { message: string } => {
 		try {
-			return toCourse(run, simulateRun(request(limitsGrowth)), streamFeeds);
+			return toCourse(run, simulateRun({ ...request, oxygen: { ...request.oxygen!, limitsGrowth } }), streamFeeds);
 		} catch (cause) {
 			if (!(cause instanceof ChemistryInputError || cause instanceof SimulationFailedError)) throw cause;
 			if (streamFeeds.some(isControlled)) {
@@ -208,5 +208,8 @@ export function simulatePlan(run: PlanRun): PlanCourses {
 		value: 'from the O2 demand of the plan as written, up to the target density',
 		source: 'A second run of the same plan whose growth oxygen never holds back: the growth the feeds would support, and the O2 the vessel must supply for it'
 	});
-	return { demand, vessel: attempt(true) };
+	// Where DO never reached 0 in the demand run, oxygen held nothing back: the vessel run would be the
+	// same run again, to the last number.
+	const transferKeptUp = !('message' in demand) && demand.oxygenLimitedH.length === 0;
+	return { demand, vessel: transferKeptUp ? demand : attempt(true) };
 }
