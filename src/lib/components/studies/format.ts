@@ -15,3 +15,8 @@ export function formatRunout(runout: { shortFromH: number; coveredAgainH: number
 	const from = `${runout.shortFromH.toFixed(0)} h`;
 	return runout.coveredAgainH === null ? from : `${from} (to ${runout.coveredAgainH.toFixed(0)} h)`;
 }
+
+/** Each distinct source of a report's nutrient values once, in table order (screen and PDF list them alike). */
+export function listValueSources(lines: readonly { source?: string | null }[]): string[] {
+	return [...new Set(lines.flatMap((l) => (l.source ? [l.source] : [])))];
+}

@@ -1,6 +1,6 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { VALUE_CONFIDENCE_WORDS } from '$chemistry';
-import { formatAmount, formatCells, formatDateTime, formatRunout } from '$lib/components/studies/format';
+import { formatAmount, formatCells, formatDateTime, formatRunout, listValueSources } from '$lib/components/studies/format';
 import { FEED_PLAN_LABELS, TARGET_BASIS_UNITS } from '$lib/studies';
 import { MARGIN, Writer } from '../pdf/layout';
 import { STUDY_CAUTIONS } from './evaluate';
@@ -101,7 +101,7 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 			l.sufficient ? 'OK' : l.role === 'required' ? 'SHORT' : 'SHORT (trace)'
 		])
 	);
-	const sources = [...new Set(report.nutrients.lines.flatMap((l) => (l.source ? [l.source] : [])))];
+	const sources = listValueSources(report.nutrients.lines);
 	if (sources.length > 0) w.text(`Sources of the values: ${sources.join('; ')}`, { size: 8.5 });
 	for (const note of report.nutrients.notes) w.text(note, { size: 8.5 });
 	w.gap(10);
