@@ -1,5 +1,5 @@
 import { count, eq } from 'drizzle-orm';
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { REFERENCE_COMPONENTS } from '$chemistry';
 import { db } from '$lib/server/db';
 import { component, eSignature, recipe, recipeVersion, user } from '$lib/server/db/schema';
@@ -22,6 +22,15 @@ describe('the starting library and the demo recipes', () => {
 		expect(recipes.length).toBeGreaterThanOrEqual(6);
 		const statuses = db.select({ status: recipeVersion.status }).from(recipeVersion).all().map((v) => v.status);
 		expect(statuses).toEqual(expect.arrayContaining(['approved', 'draft', 'in_review']));
+	});
+
+});
+
+describe('the demo recipes, once seeded', () => {
+	// Each test here stands alone: seeding is idempotent, so running one of them by itself still finds the demo.
+	beforeAll(async () => {
+		seedReferenceLibrary();
+		await seedDemo();
 	});
 
 	it('each approval is signed by someone other than the author', () => {
