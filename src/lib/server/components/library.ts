@@ -156,6 +156,50 @@ export function checkComponentText(
 	const t = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, (input[f] ?? '').trim()])) as ComponentText;
 	const errors: FieldErrors = {};
 
+	checkNameAndCategory(t, errors, reader, options.selfId);
+	const { formulaMolarMass, molarMass } = checkFormulaAndMass(t, errors);
+	const cas = t.casNumber ? checkCasNumber(t.casNumber) : null;
+	if (cas) errors.casNumber = [cas];
+	const { fractions, ions } = checkMakeUp(t, errors, molarMass);
+	const phi = optionalNumber(t.osmoticCoefficient, 'osmoticCoefficient', errors, (n) =>
+		n > 0 && n <= 2 ? null : 'An osmotic coefficient is between 0 and 2.'
+	);
+	const { solubility, hazards } = checkSolubilityAndHazards(t, errors);
+	const basisComponentId = checkBasisComponent(t, errors, reader, options.selfId);
+
+	if (Object.keys(errors).length) return { ok: false, fieldErrors: errors };
+	const value: NewComponent = {
+		name: t.name,
+		category: t.category as ComponentCategoryName,
+		formula: t.formula || null,
+		molarMassGPerMol: t.formula ? formulaMolarMass : molarMass,
+		casNumber: t.casNumber || null,
+		elementalMassFractions: fractions,
+		fractionsNote: fractions ? "typical: replace with the lot's certificate values" : null,
+		ions,
+		osmoticCoefficient: phi,
+		osmoticCoefficientSource: phi === null ? null : 'entered with the component',
+		solubility: solubility
+			? { points: solubility, basisFormula: t.solubilityBasisFormula || null, source: 'entered with the component' }
+			: null,
+		ghsHazards: hazards,
+		hazardSource: hazards.length ? 'entered with the component; check the supplier SDS' : null,
+		storage: t.storage,
+		basisComponentId,
+		synonyms: []
+	};
+	// The composition engine has the last word on whether the numbers hang together.
+	try {
+		resolveComponent(componentSpecOf({ ...value, id: 'check' } as Component));
+	} catch (cause) {
+		if (!(cause instanceof ChemistryInputError)) throw cause;
+		const field = (cause.field ?? '').split('.')[1] ?? 'formula';
+		return { ok: false, fieldErrors: { [field]: [cause.message] } };
+	}
+	return { ok: true, value };
+}
+
+function checkNameAndCategory(t: ComponentText, errors: FieldErrors, reader: Reader, selfId: string | undefined): void {
 	if (!t.name) errors.name = ['Give the component a name.'];
 	else if (t.name.length > 120) errors.name = ['Keep the name to 120 characters.'];
 	else {
@@ -164,12 +208,14 @@ export function checkComponentText(
 			.from(component)
 			.where(sql`lower(${component.name}) = lower(${t.name})`)
 			.get();
-		if (clash && clash.id !== options.selfId) errors.name = [`A component named “${t.name}” already exists.`];
+		if (clash && clash.id !== selfId) errors.name = [`A component named “${t.name}” already exists.`];
 	}
 	if (!(COMPONENT_CATEGORIES as readonly string[]).includes(t.category)) {
 		errors.category = [`Choose a category: ${COMPONENT_CATEGORIES.join(', ')}.`];
 	}
+}
 
+function checkFormulaAndMass(t: ComponentText, errors: FieldErrors): { formulaMolarMass: number | null; molarMass: number | null } {
 	let formulaMolarMass: number | null = null;
 	if (t.formula) {
 		try {
@@ -185,9 +231,11 @@ export function checkComponentText(
 	if (molarMass !== null && t.formula) {
 		errors.molarMassGPerMol = ['Leave the molar mass empty when there is a formula: it is computed from the formula.'];
 	}
-	const cas = t.casNumber ? checkCasNumber(t.casNumber) : null;
-	if (cas) errors.casNumber = [cas];
+	return { formulaMolarMass, molarMass };
+}
 
+/** Elemental fractions (complex materials) and ions; a component needs a formula or fractions. */
+function checkMakeUp(t: ComponentText, errors: FieldErrors, molarMass: number | null) {
 	const fractions = parseFractions(t.elementalMassFractions);
 	if (!fractions.ok) errors.elementalMassFractions = [fractions.error];
 	else if (fractions.value && t.formula) {
@@ -199,9 +247,10 @@ export function checkComponentText(
 	const ions = parseIons(t.ions);
 	if (!ions.ok) errors.ions = [ions.error];
 	else if (ions.value && !t.formula && molarMass === null) errors.ions = ['Ions need a formula or molar mass.'];
-	const phi = optionalNumber(t.osmoticCoefficient, 'osmoticCoefficient', errors, (n) =>
-		n > 0 && n <= 2 ? null : 'An osmotic coefficient is between 0 and 2.'
-	);
+	return { fractions: fractions.ok ? fractions.value : null, ions: ions.ok ? ions.value : null };
+}
+
+function checkSolubilityAndHazards(t: ComponentText, errors: FieldErrors) {
 	const solubility = parseSolubility(t.solubility);
 	if (!solubility.ok) errors.solubility = [solubility.error];
 	if (t.solubilityBasisFormula) {
@@ -216,48 +265,19 @@ export function checkComponentText(
 	const hazards = parseHazards(t.ghsHazards, knownHazardTexts());
 	if (!hazards.ok) errors.ghsHazards = [hazards.error];
 	if (t.storage.length > 300) errors.storage = ['Keep storage to 300 characters.'];
+	return { solubility: solubility.ok ? solubility.value : null, hazards: hazards.ok ? hazards.value : [] };
+}
 
-	let basisComponentId: string | null = null;
-	if (t.basisComponent) {
-		const basis = findComponentByIdOrName(t.basisComponent, reader);
-		if (!basis) errors.basisComponent = [`No component “${t.basisComponent}” in the library.`];
-		else if (basis.id === options.selfId) errors.basisComponent = ['A component cannot be its own basis form.'];
-		else if (basis.basisComponentId) errors.basisComponent = [`${basis.name} is itself a form of another component; name that one.`];
-		else if (!t.formula || !basis.formula) errors.basisComponent = ['Both this component and its basis need a formula.'];
-		else basisComponentId = basis.id;
-	}
-
-	if (Object.keys(errors).length) return { ok: false, fieldErrors: errors };
-	const value: NewComponent = {
-		name: t.name,
-		category: t.category as ComponentCategoryName,
-		formula: t.formula || null,
-		molarMassGPerMol: t.formula ? formulaMolarMass : molarMass,
-		casNumber: t.casNumber || null,
-		elementalMassFractions: fractions.ok ? fractions.value : null,
-		fractionsNote: fractions.ok && fractions.value ? "typical: replace with the lot's certificate values" : null,
-		ions: ions.ok ? ions.value : null,
-		osmoticCoefficient: phi,
-		osmoticCoefficientSource: phi === null ? null : 'entered with the component',
-		solubility:
-			solubility.ok && solubility.value
-				? { points: solubility.value, basisFormula: t.solubilityBasisFormula || null, source: 'entered with the component' }
-				: null,
-		ghsHazards: hazards.ok ? hazards.value : [],
-		hazardSource: hazards.ok && hazards.value.length ? 'entered with the component; check the supplier SDS' : null,
-		storage: t.storage,
-		basisComponentId,
-		synonyms: []
-	};
-	// The composition engine has the last word on whether the numbers hang together.
-	try {
-		resolveComponent(componentSpecOf({ ...value, id: 'check' } as Component));
-	} catch (cause) {
-		if (!(cause instanceof ChemistryInputError)) throw cause;
-		const field = (cause.field ?? '').split('.')[1] ?? 'formula';
-		return { ok: false, fieldErrors: { [field]: [cause.message] } };
-	}
-	return { ok: true, value };
+/** The component this one is a form of (a hydrate of an anhydrous salt, say), by id or name. */
+function checkBasisComponent(t: ComponentText, errors: FieldErrors, reader: Reader, selfId: string | undefined): string | null {
+	if (!t.basisComponent) return null;
+	const basis = findComponentByIdOrName(t.basisComponent, reader);
+	if (!basis) errors.basisComponent = [`No component “${t.basisComponent}” in the library.`];
+	else if (basis.id === selfId) errors.basisComponent = ['A component cannot be its own basis form.'];
+	else if (basis.basisComponentId) errors.basisComponent = [`${basis.name} is itself a form of another component; name that one.`];
+	else if (!t.formula || !basis.formula) errors.basisComponent = ['Both this component and its basis need a formula.'];
+	else return basis.id;
+	return null;
 }
 
 export function createComponent(actor: Actor, value: NewComponent, writer: Db | Parameters<Parameters<Db['transaction']>[0]>[0] = db): string {

@@ -25,6 +25,8 @@ export function toSafeFileName(name: string): string {
 	return safe || 'study';
 }
 
+type Report = NonNullable<LoadedStudyReport['report']>;
+
 /** The sufficiency-study report as a PDF: the same content as the print view, without the chart. */
 export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt = new Date()): Promise<Uint8Array> {
 	const { study, report } = loaded;
@@ -36,6 +38,22 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	const bold = await doc.embedFont(StandardFonts.HelveticaBold);
 	const w = new Writer(doc, font, bold);
 
+	writeHeading(w, loaded, printedAt);
+	writeWhatItUses(w, loaded);
+	if (!report) {
+		w.text(`This study cannot be evaluated: ${loaded.reportError ?? 'unknown reason'}`, { bold: true, color: CAUTION_COLOR });
+		return doc.save();
+	}
+	writeVerdict(w, report);
+	writeNutrients(w, report);
+	writeOxygen(w, report);
+	writeHeat(w, report);
+	writeVolume(w, report);
+	writeDefaults(w, report);
+	return doc.save();
+}
+
+function writeHeading(w: Writer, { study, report }: LoadedStudyReport, printedAt: Date): void {
 	w.text('Brothwright sufficiency study · Pilot Plant North', { size: 8 });
 	w.text(study.name, { size: 18, bold: true });
 	w.text(`Printed ${formatDateTime(printedAt)} · target ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]} · safety factor ${study.safetyFactor}`);
@@ -44,7 +62,10 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	w.text('Safety cautions', { bold: true, size: 11, color: CAUTION_COLOR });
 	for (const caution of report?.cautions ?? STUDY_CAUTIONS) w.text(`- ${caution}`, { x: MARGIN + 8, color: CAUTION_COLOR });
 	w.gap(10);
+}
 
+function writeWhatItUses(w: Writer, loaded: LoadedStudyReport): void {
+	const { study } = loaded;
 	w.text('What it uses', { bold: true, size: 11 });
 	w.text(`Basal: ${describeVersion(loaded.basal)}`);
 	w.text(`Feeds: ${loaded.feeds.length ? loaded.feeds.map((f) => `${describeVersion(f)}: ${f.planText}`).join('; ') : 'none (batch)'}`);
@@ -55,12 +76,9 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	w.text(`Conditions: ${study.temperatureC} °C, ${study.pressureKPa} kPa, O2 fraction ${study.o2MoleFraction}, DO setpoint ${study.doSetpointPercent} %`);
 	if (study.notes) w.text(`Notes: ${study.notes}`);
 	w.gap(10);
+}
 
-	if (!report) {
-		w.text(`This study cannot be evaluated: ${loaded.reportError ?? 'unknown reason'}`, { bold: true, color: CAUTION_COLOR });
-		return doc.save();
-	}
-
+function writeVerdict(w: Writer, report: Report): void {
 	const supported = report.verdict === 'supported';
 	w.text(`Verdict: ${supported ? 'Supported' : 'Not supported'}`, { bold: true, size: 14, color: supported ? [0.1, 0.4, 0.15] : CAUTION_COLOR });
 	const cells = report.limit.maxCellsPerMl !== null ? ` (${formatCells(report.limit.maxCellsPerMl)} cells/mL)` : '';
@@ -72,7 +90,9 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 		for (const warning of report.warnings) w.text(`- ${warning}`, { x: MARGIN + 8, color: CAUTION_COLOR });
 	}
 	w.gap(10);
+}
 
+function writeNutrients(w: Writer, report: Report): void {
 	w.text(`Nutrients: ${report.nutrients.check}`, { bold: true, size: 11 });
 	w.text(`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand. Only required nutrients set the limit; a short trace element is a warning.`, { size: 8.5 });
 	w.gap(3);
@@ -105,7 +125,9 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	if (sources.length > 0) w.text(`Sources of the values: ${sources.join('; ')}`, { size: 8.5 });
 	for (const note of report.nutrients.notes) w.text(note, { size: 8.5 });
 	w.gap(10);
+}
 
+function writeOxygen(w: Writer, report: Report): void {
 	const o = report.oxygen;
 	w.ensure(120);
 	w.text(`Oxygen: ${o.check}`, { bold: true, size: 11 });
@@ -117,12 +139,16 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	w.text(`Reserve at setpoint: ${o.reserveS === null ? '—' : `${formatAmount(o.reserveS)} s`}`);
 	w.text(`Peak OUR from ${o.peakOurOrigin}; kLa ${report.inputs.kLaOrigin}. Needed values are rounded up.${o.lowerBound ? ' The run could not cover the whole plan, so these are lower bounds.' : ''}`, { size: 8.5 });
 	w.gap(10);
+}
 
+function writeHeat(w: Writer, report: Report): void {
 	w.ensure(60);
 	w.text(`Heat: ${report.heat.check}`, { bold: true, size: 11 });
 	w.text(`Heat load ${report.heat.lowerBound ? 'at least ' : ''}${formatAmount(report.heat.heatLoadW)} W (metabolic ${formatAmount(report.heat.metabolicW)} W at ${formatAmount(report.heat.heatPerMolO2KJ)} kJ/mol O2, agitation ${formatAmount(report.heat.agitationPowerW)} W) against cooling capacity ${formatAmount(report.heat.coolingCapacityW)} W: ${formatAmount(report.heat.utilisation * 100)} % used`);
 	w.gap(10);
+}
 
+function writeVolume(w: Writer, report: Report): void {
 	w.ensure(60);
 	w.text(`Volume: ${report.volume.check}`, { bold: true, size: 11 });
 	w.text(`Final ${formatAmount(report.volume.finalL)} L (initial ${formatAmount(report.volume.initialL)} L + feeds ${formatAmount(report.volume.feedL)} L) against the vessel's maximum ${formatAmount(report.volume.maxL)} L (working range ${formatAmount(report.volume.minL)}–${formatAmount(report.volume.maxL)} L)`);
@@ -136,7 +162,9 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 		w.text(`Time course: ${course.check}, reaches ${formatAmount(course.finalBiomassGPerL)} g/L${course.stoppedAtH !== null ? `, stops at ${formatAmount(course.stoppedAtH)} h` : ''}; the chart is in the app.`);
 	} else w.text(`Time course not available: ${course.message}`);
 	w.gap(10);
+}
 
+function writeDefaults(w: Writer, report: Report): void {
 	w.text('Values and defaults used', { bold: true, size: 11 });
 	w.text('Every value this study assumed, or worked out from your entries, with where it comes from.', { size: 8.5 });
 	w.gap(3);
@@ -149,5 +177,4 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 		report.defaults.map((d) => [d.what, d.value, d.source])
 	);
 	for (const note of report.notes) w.text(note, { size: 8.5 });
-	return doc.save();
 }
