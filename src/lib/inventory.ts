@@ -56,3 +56,14 @@ export function isoToday(now = new Date()): string {
 export function isExpired(expiresOn: string, today = isoToday()): boolean {
 	return expiresOn < today;
 }
+
+/** Why a lot may not go into a batch on `onDate` (its status first, then its date), or null when it may. */
+export function lotUnusability(lot: { status: LotStatus; expiresOn: string }, onDate: string): 'quarantine' | 'rejected' | 'expired' | null {
+	if (lot.status !== 'released') return lot.status;
+	return isExpired(lot.expiresOn, onDate) ? 'expired' : null;
+}
+
+/** A usable lot is released and not expired on `onDate`. */
+export function isUsableLot(lot: { status: LotStatus; expiresOn: string }, onDate: string): boolean {
+	return lotUnusability(lot, onDate) === null;
+}

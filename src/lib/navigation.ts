@@ -1,34 +1,34 @@
-import { hasRole, type Role, type RoleHolder } from './roles';
-import { STUDY_ROLES } from './studies';
+import { may, type Act } from './permissions';
+import type { RoleHolder } from './roles';
 
 export interface NavItem {
 	href: string;
 	label: string;
-	/** Empty: every signed-in user. */
-	roles: Role[];
+	/** Shown to those who may do this act (`$lib/permissions`). */
+	act: Act;
 	section: 'Work' | 'Administration';
 }
 
 export const NAVIGATION: NavItem[] = [
-	{ href: '/', label: 'Overview', roles: [], section: 'Work' },
-	{ href: '/recipes', label: 'Recipes', roles: [], section: 'Work' },
-	{ href: '/components', label: 'Components', roles: [], section: 'Work' },
-	{ href: '/simulation', label: 'Process simulation', roles: ['engineer', 'media_scientist'], section: 'Work' },
-	{ href: '/batches', label: 'Batches', roles: [], section: 'Work' },
-	{ href: '/batches/open', label: 'Scan a batch', roles: ['prep_technician'], section: 'Work' },
-	{ href: '/lots', label: 'Lots', roles: [], section: 'Work' },
-	{ href: '/inventory', label: 'Inventory', roles: ['inventory_lead'], section: 'Work' },
-	{ href: '/studies', label: 'Studies', roles: [...STUDY_ROLES], section: 'Work' },
-	{ href: '/organisms', label: 'Organisms', roles: [...STUDY_ROLES], section: 'Work' },
-	{ href: '/vessels', label: 'Vessels', roles: [...STUDY_ROLES], section: 'Work' },
-	{ href: '/admin/people', label: 'People', roles: ['admin'], section: 'Administration' },
-	{ href: '/admin/outbox', label: 'Outbox', roles: ['admin'], section: 'Administration' },
-	{ href: '/admin/audit', label: 'Audit trail', roles: ['admin'], section: 'Administration' },
-	{ href: '/admin/settings', label: 'Settings', roles: ['admin'], section: 'Administration' }
+	{ href: '/', label: 'Overview', act: 'workspace.view', section: 'Work' },
+	{ href: '/recipes', label: 'Recipes', act: 'recipe.view', section: 'Work' },
+	{ href: '/components', label: 'Components', act: 'component.view', section: 'Work' },
+	{ href: '/simulation', label: 'Process simulation', act: 'simulation.use', section: 'Work' },
+	{ href: '/batches', label: 'Batches', act: 'batch.view', section: 'Work' },
+	{ href: '/batches/open', label: 'Scan a batch', act: 'batch.execute', section: 'Work' },
+	{ href: '/lots', label: 'Lots', act: 'lot.view', section: 'Work' },
+	{ href: '/inventory', label: 'Inventory', act: 'inventory.manage', section: 'Work' },
+	{ href: '/studies', label: 'Studies', act: 'study.use', section: 'Work' },
+	{ href: '/organisms', label: 'Organisms', act: 'study.use', section: 'Work' },
+	{ href: '/vessels', label: 'Vessels', act: 'study.use', section: 'Work' },
+	{ href: '/admin/people', label: 'People', act: 'admin.people', section: 'Administration' },
+	{ href: '/admin/outbox', label: 'Outbox', act: 'admin.outbox', section: 'Administration' },
+	{ href: '/admin/audit', label: 'Audit trail', act: 'admin.audit', section: 'Administration' },
+	{ href: '/admin/settings', label: 'Settings', act: 'admin.settings', section: 'Administration' }
 ];
 
 export function navigationFor(user: RoleHolder | null): NavItem[] {
-	return NAVIGATION.filter((item) => hasRole(user, item.roles));
+	return NAVIGATION.filter((item) => may(user, item.act));
 }
 
 function matches(href: string, pathname: string): boolean {

@@ -1,8 +1,4 @@
 // Words and constants of recipes shared by server and browser, so this module holds no server code.
-import type { Role } from './roles';
-
-/** Who writes recipe drafts (creates recipes, edits and submits drafts). */
-export const RECIPE_EDITORS = ['media_scientist'] as const satisfies readonly Role[];
 
 export const RECIPE_KINDS = ['basal', 'feed', 'stock_solution', 'supplement'] as const;
 export type RecipeKind = (typeof RECIPE_KINDS)[number];

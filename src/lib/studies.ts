@@ -1,5 +1,3 @@
-import { RECIPE_EDITORS } from './recipes';
-import type { Role } from './roles';
 
 // Study vocabulary shared by server and pages; no server code here.
 export const ORGANISM_GROUPS = ['bacterium', 'yeast', 'mammalian'] as const;
@@ -78,12 +76,6 @@ export function describeFeedPlan(plan: FeedPlan, volumeL: number): string {
 			return `DO-stat above ${plan.doSetpointPercent} % DO, at most ${plan.maxRateLPerH} L/h, ${from}; ${volumeL} L available`;
 	}
 }
-
-/** Who sees and edits studies, organism profiles and vessels. */
-export const STUDY_ROLES = ['engineer', 'media_scientist'] as const satisfies readonly Role[];
-
-/** Who may save a feed designer's proposal as recipe drafts: those who both use studies and write recipe drafts. */
-export const FEED_DRAFT_ROLES: readonly Role[] = RECIPE_EDITORS.filter((role) => (STUDY_ROLES as readonly Role[]).includes(role));
 
 /** One "N 0.14" (or "N=0.14", "N: 0.14") entry of the elemental-fraction and requirement boxes. */
 const PAIR_PATTERN = /^([^\s=:]+)\s*[=:\s]\s*(.+)$/;

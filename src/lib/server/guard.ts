@@ -1,6 +1,8 @@
 import { error, redirect } from '@sveltejs/kit';
 import { getRequestEvent } from '$app/server';
-import { describeRoles, hasRole, ROLE_LABELS, type Role } from '$lib/roles';
+import { accessFor, PERMISSIONS, type Access, type Act } from '$lib/permissions';
+import { describeRoles, hasRole, ROLE_LABELS } from '$lib/roles';
+import type { Actor } from './audit';
 
 export type SignedInUser = NonNullable<App.Locals['user']>;
 
@@ -15,15 +17,17 @@ export type AccessDecision =
  */
 export function decideAccess(
 	user: SignedInUser | null,
-	allowed: readonly Role[],
+	access: Access,
 	request: { pathname: string; search?: string; method: string }
-): AccessDecision {
+): AccessDecision | { kind: 'allow'; user: null } {
+	if (access === 'public') return { kind: 'allow', user };
 	if (!user) {
 		if (request.pathname.startsWith('/api/') || request.method !== 'GET') {
 			return { kind: 'deny', status: 401, message: 'Sign in first: this needs a signed-in user.' };
 		}
 		return { kind: 'sign-in', next: request.pathname + (request.search ?? '') };
 	}
+	const allowed = access === 'signed-in' ? [] : access;
 	if (!hasRole(user, allowed)) {
 		const needed = allowed.map((r) => ROLE_LABELS[r]).join(' or ');
 		return {
@@ -36,22 +40,33 @@ export function decideAccess(
 	return { kind: 'allow', user };
 }
 
-/** The one door check: call it in every load, and again in every action and endpoint. */
-export function requireRole(...allowed: Role[]): SignedInUser {
+type UserFor<A extends Act> = (typeof PERMISSIONS)[A] extends 'public' ? SignedInUser | null : SignedInUser;
+
+/**
+ * The one door check, by the act the door does (its roles are in `$lib/permissions`): call it in every
+ * load, and again in every action and endpoint.
+ */
+export function requirePermission<A extends Act>(act: A): UserFor<A> {
 	const event = getRequestEvent();
-	const decision = decideAccess(event.locals.user, allowed, {
+	const decision = decideAccess(event.locals.user, accessFor(act), {
 		pathname: event.url.pathname,
 		search: event.url.search,
 		method: event.request.method
 	});
 	if (decision.kind === 'sign-in') redirect(303, `/login?next=${encodeURIComponent(decision.next)}`);
 	if (decision.kind === 'deny') error(decision.status, { message: decision.message, needed: decision.needed });
-	return decision.user;
+	return decision.user as UserFor<A>;
 }
 
-/** Any signed-in user. */
-export function requireUser(): SignedInUser {
-	return requireRole();
+/** The door check for a change: the person who passed it, as the audit trail records them. */
+export function requireActor(act: Exclude<Act, PublicAct>): SignedInUser & Required<Actor> & { address: string } {
+	return actorOf(requirePermission(act) as SignedInUser);
+}
+
+type PublicAct = { [A in Act]: (typeof PERMISSIONS)[A] extends 'public' ? A : never }[Act];
+
+export function actorOf(user: SignedInUser): SignedInUser & Required<Actor> & { address: string } {
+	return { ...user, address: clientAddress() };
 }
 
 export function clientAddress(): string {

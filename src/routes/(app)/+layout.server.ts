@@ -1,7 +1,7 @@
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import type { LayoutServerLoad } from './$types';
 
 export const load: LayoutServerLoad = async () => {
-	const user = requireUser();
+	const user = requirePermission('workspace.view');
 	return { user };
 };

@@ -1,8 +1,8 @@
 import { isHttpError, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
 import { z } from 'zod';
 import { ChemistryInputError } from '$chemistry';
-import type { Role } from '$lib/roles';
-import { requireRole, type SignedInUser } from '../guard';
+import type { Act } from '$lib/permissions';
+import { requirePermission, type SignedInUser } from '../guard';
 import { RuleError } from '../rule-error';
 import { problem, type FieldProblem } from './problem';
 
@@ -41,10 +41,9 @@ export function zodProblems(issues: readonly z.core.$ZodIssue[], prefix: readonl
 	});
 }
 
-type Access = { public: true } | { roles: Role[] };
-
 interface EndpointOptions<S extends z.ZodType | undefined> {
-	access: Access;
+	/** What the endpoint does: who may is in `$lib/permissions`, and its OpenAPI operation names the same act. */
+	act: Act;
 	body?: S;
 	maxBodyBytes?: number;
 }
@@ -79,7 +78,7 @@ export function endpoint<S extends z.ZodType | undefined = undefined>(
 ): RequestHandler {
 	return async (event) => {
 		try {
-			const user = 'public' in options.access ? event.locals.user : requireRole(...options.access.roles);
+			const user: SignedInUser | null = requirePermission(options.act);
 			let body: unknown;
 			if (options.body) {
 				const raw = await readJson(event, options.maxBodyBytes ?? 1_000_000);

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { Role } from '$lib/roles';
+import { accessFor, type Act } from '$lib/permissions';
 import { chemistryOperations } from './operations/chemistry';
 import { foundationOperations } from './operations/foundation';
 import { inventoryOperations } from './operations/inventory';
@@ -13,8 +13,8 @@ export interface ApiOperation {
 	/** OpenAPI path template, e.g. /api/v1/recipes/{id} */
 	path: string;
 	summary: string;
-	/** 'public', 'signed-in' (any role) or the roles allowed. */
-	access: 'public' | 'signed-in' | Role[];
+	/** The act its endpoint checks (`endpoint({ act })`); `x-access` shows the act's roles from `$lib/permissions`. */
+	act: Act;
 	request?: z.ZodType;
 	response?: z.ZodType;
 	responseDescription?: string;
@@ -63,6 +63,7 @@ export function allOperations(): ApiOperation[] {
 export function buildOpenApiDocument(origin: string) {
 	const paths: Record<string, Record<string, unknown>> = {};
 	for (const op of allOperations()) {
+		const access = accessFor(op.act);
 		const problems = (statuses: number[]) =>
 			Object.fromEntries(
 				statuses.map((s) => [String(s), { $ref: `#/components/responses/Problem${s}` }])
@@ -70,8 +71,8 @@ export function buildOpenApiDocument(origin: string) {
 		const errorStatuses = [
 			...new Set([
 				...(op.request ? [400] : []),
-				...(op.access === 'public' ? [] : [401]),
-				...(Array.isArray(op.access) ? [403] : []),
+				...(access === 'public' ? [] : [401]),
+				...(Array.isArray(access) ? [403] : []),
 				...(op.path.includes('{') ? [404] : []),
 				...(op.errors ?? [])
 			])
@@ -79,8 +80,9 @@ export function buildOpenApiDocument(origin: string) {
 		paths[op.path] ??= {};
 		paths[op.path][op.method] = {
 			summary: op.summary,
-			'x-access': op.access,
-			security: op.access === 'public' ? [] : [{ sessionCookie: [] }],
+			'x-access': access,
+			'x-act': op.act,
+			security: access === 'public' ? [] : [{ sessionCookie: [] }],
 			...(op.path.includes('{')
 				? {
 						parameters: [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({

@@ -1,6 +1,6 @@
 import { and, eq, isNull, sql } from 'drizzle-orm';
 import { BATCH_STATE_LABELS, checkTolerance, COMPLETION_MEANING, parseMassText } from '$lib/batches';
-import { formatQuantity, isExpired, isoToday } from '$lib/inventory';
+import { formatQuantity, isoToday, isUsableLot, lotUnusability } from '$lib/inventory';
 import { recordAudit, type Actor } from '../audit';
 import { findComponent } from '../components/library';
 import { db, type Db } from '../db';
@@ -80,8 +80,9 @@ export function lotRefusal(lotRow: Lot, line: { componentId: string | null; name
 		const actual = findComponent(lotRow.componentId)?.name ?? lotRow.componentId;
 		return `Wrong lot: ${lotRow.code} is ${actual}; this line needs ${line.name}.`;
 	}
-	if (lotRow.status !== 'released') return `Lot ${lotRow.code} is ${lotRow.status === 'quarantine' ? 'in quarantine' : 'rejected'}, not released for use.`;
-	if (isExpired(lotRow.expiresOn, today)) return `Lot ${lotRow.code} is expired: its ${lotRow.dateKind} date was ${lotRow.expiresOn}.`;
+	const unusable = lotUnusability(lotRow, today);
+	if (unusable === 'quarantine' || unusable === 'rejected') return `Lot ${lotRow.code} is ${unusable === 'quarantine' ? 'in quarantine' : 'rejected'}, not released for use.`;
+	if (unusable === 'expired') return `Lot ${lotRow.code} is expired: its ${lotRow.dateKind} date was ${lotRow.expiresOn}.`;
 	if (onHand < neededInLotUnits) {
 		return `Lot ${lotRow.code} has ${formatQuantity(onHand, lotRow.quantityKind)} on hand; this line needs ${formatQuantity(neededInLotUnits, lotRow.quantityKind)}.`;
 	}
@@ -162,7 +163,7 @@ export function recordLine(actor: Technician, batchId: string, lineId: string, i
 		if (line.kind === 'component') {
 			if (!line.lotId) throw new RuleError(`Scan the lot for line ${line.position} first.`, { field: 'scan' });
 			const lotRow = findLot(line.lotId, tx)!;
-			if (lotRow.status !== 'released' || isExpired(lotRow.expiresOn, today)) {
+			if (!isUsableLot(lotRow, today)) {
 				throw new RuleError(`Lot ${lotRow.code} is no longer released and in date; scan another lot.`, { field: 'scan', status: 409 });
 			}
 			actualQuantity = Math.round(parsed.grams * 1e6);
@@ -302,7 +303,7 @@ export async function completeBatch(signer: Technician, batchId: string, input: 
 			const lines = tx.select().from(batchLine).where(eq(batchLine.batchId, b.id)).all();
 			for (const line of lines.filter((l) => l.lotId)) {
 				const lotRow = findLot(line.lotId!, tx)!;
-				if (lotRow.status !== 'released' || isExpired(lotRow.expiresOn, today)) {
+				if (!isUsableLot(lotRow, today)) {
 					throw new RuleError(`Lot ${lotRow.code} (line ${line.position}) is no longer released and in date; nothing was taken.`, { status: 409 });
 				}
 				const material = findComponent(lotRow.componentId, tx)!;

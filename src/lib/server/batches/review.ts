@@ -1,17 +1,17 @@
 import { and, eq } from 'drizzle-orm';
 import { BATCH_STATE_LABELS } from '$lib/batches';
-import { hasRole, type Role } from '$lib/roles';
+import { may } from '$lib/permissions';
+import type { Role } from '$lib/roles';
 import { recordAudit } from '../audit';
 import { db } from '../db';
 import { batch, batchLine, type Batch } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { signRecord } from '../signatures';
 import { batchDigest, requireBatch } from './execution';
-import { BATCH_REVIEWERS } from './roles';
 
 /** Why this person may not review the batch, or null when they may. */
 export function reviewRefusal(reviewer: { id: string; roles: readonly Role[] }, b: Batch): string | null {
-	if (!hasRole(reviewer, BATCH_REVIEWERS)) return 'Reviewing a batch needs the role Media scientist or Process engineer.';
+	if (!may(reviewer, 'batch.review')) return 'Reviewing a batch needs the role Media scientist or Process engineer.';
 	if (b.preparedById === reviewer.id) return 'You prepared this batch, so someone else must review it.';
 	const signedLine = db.select({ id: batchLine.id }).from(batchLine).where(and(eq(batchLine.batchId, b.id), eq(batchLine.doneById, reviewer.id))).get();
 	if (signedLine) return 'You signed lines of this batch, so someone else must review it.';

@@ -5,6 +5,7 @@ import { findComponentsByIds } from '../components/library';
 import { db, type Db } from '../db';
 import { batchLine, lot, recipeLine, type Batch, type BatchLine, type Component, type Lot } from '../db/schema';
 import { onHandByLot } from '../inventory/ledger';
+import { usableLotCondition } from '../inventory/usable';
 import { massToLotQuantity } from '../inventory/units';
 import { findRecipe } from '../recipes/queries';
 import { scaleComponentLine, scaleStockLine } from './scaling';
@@ -62,10 +63,9 @@ export function usableLots(componentId: string, reader: Reader = db, today = iso
 	const rows = reader
 		.select()
 		.from(lot)
-		.where(and(eq(lot.componentId, componentId), eq(lot.status, 'released')))
+		.where(and(eq(lot.componentId, componentId), usableLotCondition(today)))
 		.orderBy(asc(lot.expiresOn), asc(lot.receivedOn), asc(lot.code))
-		.all()
-		.filter((l) => !isExpired(l.expiresOn, today));
+		.all();
 	const onHand = onHandByLot(rows.map((r) => r.id), reader);
 	return rows.map((row) => ({ row, onHand: onHand.get(row.id) ?? 0 }));
 }

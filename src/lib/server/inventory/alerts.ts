@@ -1,5 +1,5 @@
 import { isNotNull } from 'drizzle-orm';
-import { DEFAULT_EXPIRY_WINDOW_DAYS, isoToday, type QuantityKind } from '$lib/inventory';
+import { DEFAULT_EXPIRY_WINDOW_DAYS, isoToday, isUsableLot, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { component } from '../db/schema';
 import { listLots, type LotRow } from './lots';
@@ -43,7 +43,7 @@ export function componentsBelowReorder(today = isoToday(), reader: Reader = db):
 		.all();
 	if (withLevel.length === 0) return [];
 	const lots = listLots({}, today, reader).filter(
-		(l) => withLevel.some((c) => c.id === l.componentId) && l.status === 'released' && !l.expired && l.onHand > 0
+		(l) => withLevel.some((c) => c.id === l.componentId) && isUsableLot(l, today) && l.onHand > 0
 	);
 	return withLevel
 		.map((c) => {

@@ -1,5 +1,6 @@
 import { and, eq } from 'drizzle-orm';
-import { hasRole, type Role } from '$lib/roles';
+import { may } from '$lib/permissions';
+import type { Role } from '$lib/roles';
 import { SIGNATURE_MEANINGS, type SignatureMeaning } from '$lib/recipes';
 import { auditEventsFor, recordAudit, type Actor } from '../audit';
 import { db } from '../db';
@@ -10,7 +11,6 @@ import { analyseVersion } from './analysis';
 import { fieldsOf } from './drafts';
 import { currentApprovedVersion, findRecipe, findVersionById, linesOf } from './queries';
 
-export const APPROVER_ROLES = ['media_scientist', 'engineer'] as const satisfies readonly Role[];
 
 function requireVersion(id: string): RecipeVersion {
 	const version = findVersionById(id);
@@ -82,7 +82,7 @@ export function returnToDraft(actor: Actor, versionId: string, comment: string):
 
 /** Why this person may not sign the version, or null when they may. */
 export function signingRefusal(signer: { id: string; roles: readonly Role[] }, version: RecipeVersion): string | null {
-	if (!hasRole(signer, APPROVER_ROLES)) return 'Review and approval need the role Media scientist or Process engineer.';
+	if (!may(signer, 'recipe.sign')) return 'Review and approval need the role Media scientist or Process engineer.';
 	if (version.authorId === signer.id) return 'You wrote this version, so someone else must review and approve it.';
 	const edited = auditEventsFor('recipe_version', version.id).some((e) => e.action === 'recipe.draft_saved' && e.actorId === signer.id);
 	if (edited) return 'You edited this version, so someone who did not write it must review and approve it.';

@@ -1,11 +1,10 @@
-import { hasRole } from '$lib/roles';
-import { COMPONENT_EDITORS } from '$lib/server/components/access';
+import { requirePermission } from '$lib/server/guard';
 import { listComponents, molarMassOfComponent } from '$lib/server/components/library';
-import { requireUser } from '$lib/server/guard';
 import type { PageServerLoad } from './$types';
+import { may } from '$lib/permissions';
 
 export const load: PageServerLoad = async () => {
-	const user = requireUser();
+	const user = requirePermission('component.view');
 	return {
 		components: listComponents().map((c) => ({
 			id: c.id,
@@ -17,6 +16,6 @@ export const load: PageServerLoad = async () => {
 			hazards: c.ghsHazards.map((h) => h.code).join(' '),
 			fromReference: c.fromReference
 		})),
-		canEdit: hasRole(user, COMPONENT_EDITORS)
+		canEdit: may(user, 'component.edit')
 	};
 };

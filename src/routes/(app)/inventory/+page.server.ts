@@ -2,11 +2,10 @@ import { z } from 'zod';
 import { DEFAULT_EXPIRY_WINDOW_DAYS } from '$lib/inventory';
 import { tagged } from '$lib/server/form-tag';
 import { parseForm, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { componentsBelowReorder, componentsWithStockSettings, expiringLots, quarantinedLots } from '$lib/server/inventory/alerts';
 import { lastDigestDate, MailUnreachableError, sendInventoryDigest } from '$lib/server/inventory/digest';
 import { setStockSettings } from '$lib/server/inventory/lots';
-import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
 import type { Actions, PageServerLoad } from './$types';
 
 const optionalNumber = (message: string) =>
@@ -23,7 +22,7 @@ const settingsForm = z.object({
 });
 
 export const load: PageServerLoad = async ({ url }) => {
-	requireRole(...STOCK_KEEPERS);
+	requirePermission('inventory.manage');
 	const requested = Number(url.searchParams.get('days') ?? DEFAULT_EXPIRY_WINDOW_DAYS);
 	const days = Number.isInteger(requested) && requested >= 1 && requested <= 730 ? requested : DEFAULT_EXPIRY_WINDOW_DAYS;
 	return {
@@ -40,7 +39,7 @@ export const load: PageServerLoad = async ({ url }) => {
 export const actions: Actions = {
 	settings: async ({ request }) =>
 		tagged('settings', async () => {
-			const user = requireRole(...STOCK_KEEPERS);
+			const user = requirePermission('inventory.manage');
 			const formData = await request.formData();
 			const parsed = parseForm(settingsForm, formData);
 			if (!parsed.ok) return parsed.failure;
@@ -52,7 +51,7 @@ export const actions: Actions = {
 			return { saved: 'Stock settings saved.' };
 		}),
 	digest: async () => {
-		requireRole(...STOCK_KEEPERS);
+		requirePermission('inventory.manage');
 		try {
 			const { recipients } = await sendInventoryDigest();
 			return { saved: recipients.length ? `Digest sent to ${recipients.join(', ')}.` : 'No active inventory lead to send the digest to.' };

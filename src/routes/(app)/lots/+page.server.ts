@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { LOT_STATUSES } from '$lib/inventory';
 import { listComponents } from '$lib/server/components/library';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { listLots } from '$lib/server/inventory/lots';
 import type { PageServerLoad } from './$types';
 
@@ -12,7 +12,7 @@ const filterQuery = z.object({
 });
 
 export const load: PageServerLoad = async ({ url }) => {
-	requireUser();
+	requirePermission('lot.view');
 	const filter = filterQuery.parse(Object.fromEntries([...url.searchParams].filter(([, v]) => v !== '')));
 	const lots = listLots({ componentId: filter.component, status: filter.status, expiringBefore: filter.expiringBefore });
 	const components = listComponents().map((c) => ({ id: c.id, name: c.name }));

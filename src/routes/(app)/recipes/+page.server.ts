@@ -1,10 +1,10 @@
-import { RECIPE_EDITORS, RECIPE_KINDS, VERSION_STATUSES, type RecipeKind, type VersionStatus } from '$lib/recipes';
+import { RECIPE_KINDS, VERSION_STATUSES, type RecipeKind, type VersionStatus } from '$lib/recipes';
 import { listComponents } from '$lib/server/components/library';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { pageFrom } from '$lib/server/paging';
 import { listRecipes } from '$lib/server/recipes/queries';
-import { hasRole } from '$lib/roles';
 import type { PageServerLoad } from './$types';
+import { may } from '$lib/permissions';
 
 const PAGE_SIZE = 25;
 
@@ -13,7 +13,7 @@ function oneOf<T extends string>(value: string | null, allowed: readonly T[]): T
 }
 
 export const load: PageServerLoad = async ({ url }) => {
-	const user = requireUser();
+	const user = requirePermission('recipe.view');
 	const page = pageFrom(url);
 	const filter = {
 		kind: oneOf<RecipeKind>(url.searchParams.get('kind'), RECIPE_KINDS),
@@ -29,6 +29,6 @@ export const load: PageServerLoad = async ({ url }) => {
 		pageSize: PAGE_SIZE,
 		filter: { kind: filter.kind ?? '', status: filter.status ?? '', component: filter.componentId ?? '', q: filter.search ?? '' },
 		components: listComponents().map((c) => ({ id: c.id, name: c.name })),
-		canCreate: hasRole(user, RECIPE_EDITORS)
+		canCreate: may(user, 'recipe.edit')
 	};
 };

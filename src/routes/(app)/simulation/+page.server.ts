@@ -1,11 +1,10 @@
 import { MAX_END_H, MAX_OUTPUT_POINTS, SIMULATION_MODEL_HELP } from '$chemistry';
-import { requireRole } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { listScenarios } from '$lib/server/scenarios';
-import { SIMULATION_ROLES } from '$lib/simulation/roles';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	const user = requireRole(...SIMULATION_ROLES);
+	const user = requirePermission('simulation.use');
 	return {
 		scenarios: listScenarios(user.id),
 		modelHelp: SIMULATION_MODEL_HELP,

@@ -1,8 +1,8 @@
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { listStudies } from '$lib/server/studies/queries';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireStudyAccess();
+	requirePermission('study.use');
 	return { studies: listStudies() };
 };

@@ -1,11 +1,11 @@
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { listVessels } from '$lib/server/studies/queries';
 import { computeVesselKLa } from '$lib/server/studies/vessels';
 import { RuleError } from '$lib/server/rule-error';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireStudyAccess();
+	requirePermission('study.use');
 	return {
 		vessels: listVessels().map((v) => {
 			let kLaPerH: number | null = null;

@@ -2,7 +2,7 @@ import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { setSessionCookie, signIn } from '$lib/server/auth/sign-in';
 import { formFailure, parseForm } from '$lib/server/forms';
-import { clientAddress } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
 
 const signInForm = z.object({
@@ -17,6 +17,7 @@ function safeNext(next: string | null | undefined): string {
 }
 
 export const load: PageServerLoad = async ({ locals, url }) => {
+	requirePermission('session.start');
 	// The sign-in page is the one door that needs no role: it is where the guard sends people.
 	if (locals.user) redirect(303, safeNext(url.searchParams.get('next')));
 	return { next: safeNext(url.searchParams.get('next')) };
@@ -24,6 +25,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 
 export const actions: Actions = {
 	default: async ({ request, cookies }) => {
+		requirePermission('session.start');
 		const formData = await request.formData();
 		const parsed = parseForm(signInForm, formData);
 		if (!parsed.ok) return parsed.failure;

@@ -22,12 +22,12 @@ export const batchCreateRequest = z
 	.refine((b) => b.recipeId || b.versionId, { message: 'Give recipeId or versionId', path: ['recipeId'] });
 
 export const batchesOperations: ApiOperation[] = [
-	{ method: 'get', path: '/api/v1/batches', summary: 'Batches. Query: state, recipe, from, to (planned date)', access: 'signed-in' },
+	{ method: 'get', path: '/api/v1/batches', summary: 'Batches. Query: state, recipe, from, to (planned date)', act: 'batch.view' },
 	{
 		method: 'post',
 		path: '/api/v1/batches',
 		summary: 'Plans a batch from an approved recipe version and a volume; the number follows the site pattern',
-		access: ['prep_technician', 'media_scientist', 'engineer'],
+		act: 'batch.plan',
 		request: batchCreateRequest,
 		successStatus: 201,
 		errors: [404, 409]
@@ -36,6 +36,6 @@ export const batchesOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/batches/{id}',
 		summary: 'One batch record: lines with required and actual quantities (µg for masses, µL for stock volumes), lots, deviations, signatures',
-		access: 'signed-in'
+		act: 'batch.view'
 	}
 ];

@@ -21,16 +21,16 @@ export const healthResponse = z.object({
 });
 
 export const foundationOperations: ApiOperation[] = [
-	{ method: 'get', path: '/api/v1/health', summary: 'Reports that the service and its database answer', access: 'public', response: healthResponse },
-	{ method: 'get', path: '/api/v1/me', summary: 'The signed-in user: e-mail, name and roles', access: 'signed-in', response: meResponse },
+	{ method: 'get', path: '/api/v1/health', summary: 'Reports that the service and its database answer', act: 'service.describe', response: healthResponse },
+	{ method: 'get', path: '/api/v1/me', summary: 'The signed-in user: e-mail, name and roles', act: 'workspace.view', response: meResponse },
 	{
 		method: 'post',
 		path: '/api/v1/session',
 		summary: 'Signs a script in (sets the session cookie); throttled like the sign-in page',
-		access: 'public',
+		act: 'session.start',
 		request: sessionRequest,
 		response: meResponse
 	},
-	{ method: 'delete', path: '/api/v1/session', summary: 'Signs out (ends the session)', access: 'signed-in', successStatus: 204, responseDescription: 'Signed out' },
-	{ method: 'get', path: '/api/v1/openapi.json', summary: 'This description (OpenAPI 3.1)', access: 'public' }
+	{ method: 'delete', path: '/api/v1/session', summary: 'Signs out (ends the session)', act: 'session.end', successStatus: 204, responseDescription: 'Signed out' },
+	{ method: 'get', path: '/api/v1/openapi.json', summary: 'This description (OpenAPI 3.1)', act: 'service.describe' }
 ];

@@ -36,16 +36,16 @@ export const inventoryOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/lots',
 		summary: 'Lots with on-hand (sum of the ledger, base unit mg or µL). Query: component, status, expiringBefore (YYYY-MM-DD), q',
-		access: 'signed-in'
+		act: 'lot.view'
 	},
 	{
 		method: 'post',
 		path: '/api/v1/lots',
 		summary: 'Receives a lot into quarantine with its receipt ledger entry. Field problems come back as errors at their field',
-		access: ['inventory_lead'],
+		act: 'lot.receive',
 		request: lotCreateRequest,
 		successStatus: 201,
 		errors: [404, 409]
 	},
-	{ method: 'get', path: '/api/v1/lots/{id}', summary: 'One lot with its ledger, certificates and where-used (batches that used it)', access: 'signed-in' }
+	{ method: 'get', path: '/api/v1/lots/{id}', summary: 'One lot with its ledger, certificates and where-used (batches that used it)', act: 'lot.view' }
 ];

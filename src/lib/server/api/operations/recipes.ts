@@ -76,23 +76,23 @@ export const recipesOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/recipes',
 		summary: 'Lists recipes. Query: kind, status (has a version in it), component (id; has a version containing it), q (name contains), page, pageSize',
-		access: 'signed-in'
+		act: 'recipe.view'
 	},
-	{ method: 'get', path: '/api/v1/recipes/{id}', summary: 'One recipe with its versions', access: 'signed-in' },
+	{ method: 'get', path: '/api/v1/recipes/{id}', summary: 'One recipe with its versions', act: 'recipe.view' },
 	{
 		method: 'get',
 		path: '/api/v1/recipes/{id}/versions/{n}',
 		summary: 'One version with its lines, composition (elements, osmolality, warnings) and signatures',
-		access: 'signed-in'
+		act: 'recipe.view'
 	},
 	{
 		method: 'post',
 		path: '/api/v1/recipes/preview',
 		summary:
 			'Composition of lines as typed: per element, total C and N, osmolality against the range, solubility at the preparation temperature, precipitation pairs. Line problems come back as errors at lines.<i>.<field>',
-		access: 'signed-in',
+		act: 'calculation.run',
 		request: previewRequest,
 		response: analysisResponse
 	},
-	{ method: 'get', path: '/api/v1/components', summary: 'The component library. Query: category, q (name, formula or CAS contains)', access: 'signed-in' }
+	{ method: 'get', path: '/api/v1/components', summary: 'The component library. Query: category, q (name, formula or CAS contains)', act: 'component.view' }
 ];

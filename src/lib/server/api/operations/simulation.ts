@@ -1,6 +1,5 @@
 import { z } from 'zod';
 import { MAX_FEED_LABEL_LENGTH, MAX_FEED_STREAMS } from '$chemistry';
-import { SIMULATION_ROLES } from '$lib/simulation/roles';
 import type { ApiOperation } from '../openapi';
 
 // Shapes only: ranges and cross-field rules (μset < μmax, S_f > S, end time, output count) are the
@@ -241,7 +240,6 @@ export const scenarioResponse = z.object({
 	updatedAt: z.string()
 });
 
-const simulationRoles: ApiOperation['access'] = [...SIMULATION_ROLES];
 
 export const simulationOperations: ApiOperation[] = [
 	{
@@ -249,7 +247,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/simulate',
 		summary:
 			'Simulates a batch, fed-batch, chemostat, perfusion or draw-fill run (Monod growth, Pirt maintenance, Luedeking–Piret product, optional O2 balance) and returns the series at the output times with the events. A run that cannot be integrated answers 422. Results are model estimates',
-		access: 'signed-in',
+		act: 'calculation.run',
 		request: simulateRequest,
 		response: simulateResponse,
 		errors: [422]
@@ -259,7 +257,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/chemostat/steady-state',
 		summary:
 			'Monod chemostat steady state at a dilution rate (Herbert, Elsworth & Telling 1956) with optional Pirt (1965) maintenance: X = D·Y_G(S0 − S)/(D + m_s·Y_G), S, D·X, D_crit, D_opt (closed form without maintenance, golden-section search with it), washout, a sweep from D = 0 to D_crit, and the productivity lost to a safety margin below D_crit',
-		access: 'signed-in',
+		act: 'calculation.run',
 		request: chemostatRequest,
 		response: chemostatResponse
 	},
@@ -268,7 +266,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/productivity/batch-vs-continuous',
 		summary:
 			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio; Pirt maintenance, when given, applies to both',
-		access: 'signed-in',
+		act: 'calculation.run',
 		request: batchVersusContinuousRequest
 	},
 	{
@@ -276,7 +274,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/fit/growth',
 		summary:
 			'Fits run data: exponential phase (straight windows of ln X: R², lack of fit against the run’s noise, no significant bend), μmax and doubling time with Student-t 95 % intervals, Yx/s from −dX/dS, and μmax, Ks, Yx/s over the whole curve (needs substrate data) with 95 % intervals from the linearised covariance and warnings for poorly determined parameters. Data it cannot fit answer 400 naming the field and the test that failed',
-		access: 'signed-in',
+		act: 'calculation.run',
 		request: fitGrowthRequest,
 		response: fitGrowthResponse
 	},
@@ -284,14 +282,14 @@ export const simulationOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/scenarios',
 		summary: 'The signed-in user’s saved simulation scenarios, newest first',
-		access: simulationRoles,
+		act: 'simulation.use',
 		response: z.array(scenarioResponse)
 	},
 	{
 		method: 'post',
 		path: '/api/v1/scenarios',
 		summary: 'Saves a simulation scenario (name unique per user)',
-		access: simulationRoles,
+		act: 'simulation.use',
 		request: scenarioCreateRequest,
 		response: scenarioResponse,
 		successStatus: 201,
@@ -301,14 +299,14 @@ export const simulationOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/scenarios/{id}',
 		summary: 'One of the signed-in user’s scenarios',
-		access: simulationRoles,
+		act: 'simulation.use',
 		response: scenarioResponse
 	},
 	{
 		method: 'patch',
 		path: '/api/v1/scenarios/{id}',
 		summary: 'Renames a scenario or changes its notes',
-		access: simulationRoles,
+		act: 'simulation.use',
 		request: scenarioUpdateRequest,
 		response: scenarioResponse,
 		errors: [409]
@@ -317,7 +315,7 @@ export const simulationOperations: ApiOperation[] = [
 		method: 'delete',
 		path: '/api/v1/scenarios/{id}',
 		summary: 'Deletes one of the signed-in user’s scenarios',
-		access: simulationRoles,
+		act: 'simulation.use',
 		successStatus: 204,
 		responseDescription: 'Deleted'
 	}

@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { FEED_DRAFT_ROLES, STUDY_ROLES } from '$lib/studies';
 import type { ApiOperation } from '../openapi';
 import { sufficiencyLineResponse } from './chemistry';
 
@@ -70,15 +69,14 @@ export const feedDesignDraftsRequest = feedDesignRequest.extend({
 		.describe('One recipe name per proposed feed, in the order of the proposal')
 });
 
-const roles = [...STUDY_ROLES];
 
 export const studiesOperations: ApiOperation[] = [
-	{ method: 'get', path: '/api/v1/studies', summary: 'Lists saved studies with the recipe versions they use and whether any is superseded', access: roles },
+	{ method: 'get', path: '/api/v1/studies', summary: 'Lists saved studies with the recipe versions they use and whether any is superseded', act: 'study.use' },
 	{
 		method: 'post',
 		path: '/api/v1/studies/evaluate',
 		summary: 'Evaluates a saved study with what-if changes (target, feed volume, kLa, O2 fraction, temperature): verdict, limit (required nutrients only), per-nutrient table with the role, confidence and source of each line, warnings (short trace elements by name), oxygen, heat, volume, time course, defaults used',
-		access: roles,
+		act: 'study.use',
 		request: evaluateRequest,
 		response: evaluateResponse,
 		errors: [404, 422]
@@ -87,7 +85,7 @@ export const studiesOperations: ApiOperation[] = [
 		method: 'post',
 		path: '/api/v1/studies/{id}/feed-design',
 		summary: "Proposes a feed concentrate (g/L per component) that covers every nutrient at the study's target and safety factor within solubility and vessel volume, or says why it cannot",
-		access: roles,
+		act: 'study.use',
 		request: feedDesignRequest,
 		errors: [422]
 	},
@@ -96,7 +94,7 @@ export const studiesOperations: ApiOperation[] = [
 		path: '/api/v1/studies/{id}/feed-design/drafts',
 		summary:
 			'Designs the feed(s) again from the same request and saves each proposed feed as a new feed recipe whose version 1 draft holds its lines, with the recipe editor\'s checks and audit; answers the drafts and their editor links',
-		access: [...FEED_DRAFT_ROLES],
+		act: 'study.save-feed-drafts',
 		request: feedDesignDraftsRequest,
 		successStatus: 201,
 		errors: [422]

@@ -1,5 +1,5 @@
 import { listAuditActions, listAuditEvents } from '$lib/server/audit';
-import { requireRole } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { pageFrom } from '$lib/server/paging';
 import type { PageServerLoad } from './$types';
 
@@ -16,7 +16,7 @@ function dateParam(url: URL, name: string, endOfDay: boolean): { value: string; 
 }
 
 export const load: PageServerLoad = async ({ url }) => {
-	requireRole('admin');
+	requirePermission('admin.audit');
 	const page = pageFrom(url);
 	const action = url.searchParams.get('action') ?? '';
 	const actor = url.searchParams.get('actor') ?? '';

@@ -1,8 +1,8 @@
-import { requireRole } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { listPeople } from '$lib/server/people';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireRole('admin');
+	requirePermission('admin.people');
 	return { people: listPeople() };
 };

@@ -1,20 +1,20 @@
 import { z } from 'zod';
 import { batchNumberPattern, formatBatchNumber, setBatchNumberPattern } from '$lib/server/batches/numbering';
 import { parseForm, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
 
 const patternForm = z.object({ pattern: z.string().max(60) });
 
 export const load: PageServerLoad = async () => {
-	requireRole('admin');
+	requirePermission('admin.settings');
 	const pattern = batchNumberPattern();
 	return { pattern, example: formatBatchNumber(pattern, new Date(), 1) };
 };
 
 export const actions: Actions = {
 	pattern: async ({ request }) => {
-		const admin = requireRole('admin');
+		const admin = requirePermission('admin.settings');
 		const formData = await request.formData();
 		const parsed = parseForm(patternForm, formData);
 		if (!parsed.ok) return parsed.failure;

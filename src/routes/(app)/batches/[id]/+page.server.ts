@@ -1,18 +1,17 @@
 import { error, fail } from '@sveltejs/kit';
-import { hasRole } from '$lib/roles';
 import { auditEventsFor } from '$lib/server/audit';
 import { completeBatch, chooseLot, recordLine, recordMeasurements, requireBatch } from '$lib/server/batches/execution';
 import { reviewBatch, reviewRefusal } from '$lib/server/batches/review';
-import { BATCH_PREPARERS, BATCH_REVIEWERS } from '$lib/server/batches/roles';
+import { clientAddress, requireActor, requirePermission } from '$lib/server/guard';
 import { batchView } from '$lib/server/batches/view';
 import { tagged } from '$lib/server/form-tag';
 import { formValues, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole, requireUser } from '$lib/server/guard';
 import { RuleError } from '$lib/server/rule-error';
 import type { Actions, PageServerLoad } from './$types';
+import { may } from '$lib/permissions';
 
 export const load: PageServerLoad = async ({ params }) => {
-	const user = requireUser();
+	const user = requirePermission('batch.view');
 	let view;
 	try {
 		view = batchView(params.id);
@@ -24,15 +23,14 @@ export const load: PageServerLoad = async ({ params }) => {
 	const refusal = view.batch.state === 'prepared' ? reviewRefusal(user, requireBatch(params.id)) : null;
 	return {
 		...view,
-		canPrepare: open && hasRole(user, BATCH_PREPARERS),
+		canPrepare: open && may(user, 'batch.execute'),
 		review: view.batch.state === 'prepared' ? { allowed: refusal === null, refusal } : null,
 		history: auditEventsFor('batch', params.id).slice(0, 100)
 	};
 };
 
 function technician() {
-	const user = requireRole(...BATCH_PREPARERS);
-	return { id: user.id, email: user.email, address: clientAddress() };
+	return requireActor('batch.execute');
 }
 
 /** A line's failure names the line, so only its card shows the message. */
@@ -95,7 +93,7 @@ export const actions: Actions = {
 		}),
 	review: async ({ request, params }) =>
 		tagged('review', async () => {
-			const user = requireRole(...BATCH_REVIEWERS);
+			const user = requirePermission('batch.review');
 			const formData = await request.formData();
 			try {
 				await reviewBatch({ ...user, address: clientAddress() }, params.id, {

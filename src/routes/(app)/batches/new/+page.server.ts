@@ -1,20 +1,19 @@
 import { redirect } from '@sveltejs/kit';
 import { isoToday } from '$lib/inventory';
 import { checkBatchInput, createBatch } from '$lib/server/batches/create';
-import { BATCH_PLANNERS } from '$lib/server/batches/roles';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { approvedRecipes } from '$lib/server/batches/view';
 import { formFailure, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
-	requireRole(...BATCH_PLANNERS);
+	requirePermission('batch.plan');
 	return { recipes: approvedRecipes(), today: isoToday(), recipeId: url.searchParams.get('recipe') ?? '' };
 };
 
 export const actions: Actions = {
 	default: async ({ request }) => {
-		const user = requireRole(...BATCH_PLANNERS);
+		const user = requirePermission('batch.plan');
 		const formData = await request.formData();
 		const checked = checkBatchInput({
 			recipeId: String(formData.get('recipeId') ?? ''),

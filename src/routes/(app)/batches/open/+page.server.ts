@@ -1,17 +1,17 @@
 import { redirect } from '@sveltejs/kit';
 import { batchFromScan } from '$lib/server/batches/execution';
 import { formFailure } from '$lib/server/forms';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireUser();
+	requirePermission('batch.view');
 	return {};
 };
 
 export const actions: Actions = {
 	default: async ({ request }) => {
-		requireUser();
+		requirePermission('batch.view');
 		const formData = await request.formData();
 		const code = String(formData.get('code') ?? '');
 		const found = batchFromScan(code);

@@ -1,6 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import { hasRole } from '$lib/roles';
-import { COMPONENT_EDITORS, requireComponentEditor } from '$lib/server/components/access';
+import { requireActor, requirePermission } from '$lib/server/guard';
 import {
 	checkComponentText,
 	COMPONENT_FIELDS,
@@ -11,13 +10,13 @@ import {
 	updateComponent
 } from '$lib/server/components/library';
 import { formValues } from '$lib/server/forms';
-import { requireUser } from '$lib/server/guard';
 import { RuleError } from '$lib/server/rule-error';
 import { listRecipes } from '$lib/server/recipes/queries';
 import type { Actions, PageServerLoad } from './$types';
+import { may } from '$lib/permissions';
 
 export const load: PageServerLoad = async ({ params, url }) => {
-	const user = requireUser();
+	const user = requirePermission('component.view');
 	const component = findComponent(params.id);
 	if (!component) error(404, { message: 'No component with this id.' });
 	const basis = component.basisComponentId ? findComponent(component.basisComponentId) : undefined;
@@ -29,14 +28,14 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		usedIn: listRecipes({ componentId: component.id, page: 1, pageSize: 50 }).rows.map((r) => ({ id: r.id, name: r.name })),
 		values: componentText(component) as Record<string, string>,
 		basisChoices: listComponents().filter((c) => !c.basisComponentId && c.id !== component.id).map((c) => ({ id: c.id, name: c.name })),
-		canEdit: hasRole(user, COMPONENT_EDITORS),
+		canEdit: may(user, 'component.edit'),
 		created: url.searchParams.has('created')
 	};
 };
 
 export const actions: Actions = {
 	save: async ({ request, params }) => {
-		const actor = requireComponentEditor();
+		const actor = requireActor('component.edit');
 		const formData = await request.formData();
 		const input = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, String(formData.get(f) ?? '')]));
 		const checked = checkComponentText(input, { selfId: params.id });

@@ -1,18 +1,18 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { requireComponentEditor } from '$lib/server/components/access';
+import { requireActor, requirePermission } from '$lib/server/guard';
 import { checkComponentText, COMPONENT_FIELDS, componentText, createComponent, listComponents } from '$lib/server/components/library';
 import { formValues } from '$lib/server/forms';
 import { db } from '$lib/server/db';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireComponentEditor();
+	requirePermission('component.edit');
 	return { values: componentText(undefined) as Record<string, string>, basisChoices: listComponents().filter((c) => !c.basisComponentId).map((c) => ({ id: c.id, name: c.name })) };
 };
 
 export const actions: Actions = {
 	save: async ({ request }) => {
-		const actor = requireComponentEditor();
+		const actor = requireActor('component.edit');
 		const formData = await request.formData();
 		const input = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, String(formData.get(f) ?? '')]));
 		const checked = checkComponentText(input);

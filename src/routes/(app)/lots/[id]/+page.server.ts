@@ -3,10 +3,9 @@ import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
 import { tagged } from '$lib/server/form-tag';
 import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole, requireUser } from '$lib/server/guard';
+import { requireActor, requirePermission } from '$lib/server/guard';
 import { attachCertificates, checkCertificateFiles } from '$lib/server/inventory/certificates';
 import { adjustLot, disposeLot, setLotStatus } from '$lib/server/inventory/lots';
-import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
 import { lotView } from '$lib/server/inventory/view';
 import { RuleError } from '$lib/server/rule-error';
 import type { Actions, PageServerLoad } from './$types';
@@ -38,7 +37,7 @@ const rejectForm = z.object({
 });
 
 export const load: PageServerLoad = async ({ params, url }) => {
-	requireUser();
+	requirePermission('lot.view');
 	try {
 		return {
 			...lotView(params.id),
@@ -52,8 +51,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 };
 
 function keeper() {
-	const user = requireRole(...STOCK_KEEPERS);
-	return { id: user.id, email: user.email, address: clientAddress() };
+	return requireActor('lot.keep');
 }
 
 export const actions: Actions = {

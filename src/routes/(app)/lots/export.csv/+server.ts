@@ -1,9 +1,9 @@
 import { csvDownload } from '$lib/server/csv';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { exportLotsCsv } from '$lib/server/inventory/csv';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async () => {
-	requireUser();
+	requirePermission('lot.view');
 	return csvDownload(exportLotsCsv(), `lots-${new Date().toISOString().slice(0, 10)}.csv`);
 };

@@ -1,19 +1,18 @@
 import { csvTextFrom } from '$lib/server/csv';
 import { formFailure, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { importLotCsv, LOT_IMPORT_TEMPLATE, previewLotCsv } from '$lib/server/inventory/csv';
-import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
 import { RuleError } from '$lib/server/rule-error';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireRole(...STOCK_KEEPERS);
+	requirePermission('lot.receive');
 	return { template: LOT_IMPORT_TEMPLATE };
 };
 
 export const actions: Actions = {
 	preview: async ({ request }) => {
-		requireRole(...STOCK_KEEPERS);
+		requirePermission('lot.receive');
 		const formData = await request.formData();
 		let text: string;
 		try {
@@ -26,7 +25,7 @@ export const actions: Actions = {
 		}
 	},
 	import: async ({ request }) => {
-		const user = requireRole(...STOCK_KEEPERS);
+		const user = requirePermission('lot.receive');
 		const formData = await request.formData();
 		const text = String(formData.get('csv') ?? '');
 		try {

@@ -1,4 +1,4 @@
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { findComponentsByIds } from '$lib/server/components/library';
 import { lotQrText, qrSvg } from '$lib/server/inventory/labels';
 import { findLot } from '$lib/server/inventory/lots';
@@ -6,7 +6,7 @@ import type { Lot } from '$lib/server/db/schema';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
-	requireUser();
+	requirePermission('lot.view');
 	const ids = [...new Set(url.searchParams.getAll('lot'))].slice(0, 200);
 	const lots = ids.map((id) => findLot(id)).filter((l): l is Lot => Boolean(l));
 	const names = findComponentsByIds(lots.map((l) => l.componentId));

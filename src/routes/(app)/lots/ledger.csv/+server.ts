@@ -1,12 +1,12 @@
 import { error } from '@sveltejs/kit';
 import { csvDownload } from '$lib/server/csv';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { exportLedgerCsv } from '$lib/server/inventory/csv';
 import { findLot } from '$lib/server/inventory/lots';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async ({ url }) => {
-	requireUser();
+	requirePermission('lot.view');
 	const lotId = url.searchParams.get('lot');
 	if (lotId) {
 		const lot = findLot(lotId);

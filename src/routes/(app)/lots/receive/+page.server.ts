@@ -2,16 +2,15 @@ import { redirect } from '@sveltejs/kit';
 import { isoToday } from '$lib/inventory';
 import { listComponents } from '$lib/server/components/library';
 import { formFailure, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { checkCertificateFiles } from '$lib/server/inventory/certificates';
 import { checkLotInput, LOT_FIELDS, type LotText } from '$lib/server/inventory/lot-input';
 import { receiveLot } from '$lib/server/inventory/lots';
-import { STOCK_KEEPERS } from '$lib/server/inventory/roles';
 import { RuleError } from '$lib/server/rule-error';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireRole(...STOCK_KEEPERS);
+	requirePermission('lot.receive');
 	return {
 		components: listComponents().map((c) => ({ id: c.id, name: c.name, storage: c.storage, densityGPerMl: c.densityGPerMl })),
 		today: isoToday()
@@ -20,7 +19,7 @@ export const load: PageServerLoad = async () => {
 
 export const actions: Actions = {
 	default: async ({ request }) => {
-		const user = requireRole(...STOCK_KEEPERS);
+		const user = requirePermission('lot.receive');
 		const formData = await request.formData();
 		const input: LotText = {};
 		for (const field of LOT_FIELDS) input[field] = String(formData.get(field) ?? '');

@@ -2,7 +2,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { organismProfile } from '$lib/server/db/schema';
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { profileChoices, submitProfile } from '$lib/server/studies/profile-page';
 import { profileFormValues } from '$lib/server/studies/profile-store';
 import { checkProfileFormula, describeProfileElements } from '$lib/server/studies/profile-elements';
@@ -11,7 +11,7 @@ import { listComponents } from '$lib/server/components/library';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireStudyAccess();
+	requirePermission('study.use');
 	const row = db.select().from(organismProfile).where(eq(organismProfile.id, params.id)).get();
 	if (!row) error(404, { message: 'No such organism profile.' });
 	const components = listComponents();
@@ -30,7 +30,7 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	save: async ({ request, params }) => {
-		const actor = requireStudyAccess();
+		const actor = requirePermission('study.use');
 		const result = submitProfile(actor, await request.formData(), params.id);
 		if ('failure' in result) return result.failure;
 		redirect(303, `/organisms/${params.id}?saved=1`);

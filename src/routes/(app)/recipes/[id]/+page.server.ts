@@ -1,18 +1,17 @@
 import { error, redirect } from '@sveltejs/kit';
-import { hasRole } from '$lib/roles';
 import { ruleFailure } from '$lib/server/forms';
-import { requireUser } from '$lib/server/guard';
+import { requireActor, requirePermission } from '$lib/server/guard';
 import { RuleError } from '$lib/server/rule-error';
-import { RECIPE_EDITORS, requireRecipeEditor } from '$lib/server/recipes/access';
 import { startDraftFrom } from '$lib/server/recipes/drafts';
 import { findRecipe } from '$lib/server/recipes/queries';
 import { recipeView } from '$lib/server/recipes/view';
 import type { Actions, PageServerLoad } from './$types';
+import { may } from '$lib/permissions';
 
 export const load: PageServerLoad = async ({ params }) => {
-	const user = requireUser();
+	const user = requirePermission('recipe.view');
 	try {
-		return { ...recipeView(params.id), canEdit: hasRole(user, RECIPE_EDITORS) };
+		return { ...recipeView(params.id), canEdit: may(user, 'recipe.edit') };
 	} catch (cause) {
 		if (cause instanceof RuleError) error(cause.status, { message: cause.message });
 		throw cause;
@@ -21,7 +20,7 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	newDraft: async ({ request, params }) => {
-		const actor = requireRecipeEditor();
+		const actor = requireActor('recipe.edit');
 		const formData = await request.formData();
 		if (!findRecipe(params.id)) error(404, { message: 'No recipe with this id.' });
 		let n: number;

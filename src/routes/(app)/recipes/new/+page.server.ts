@@ -1,8 +1,8 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { RECIPE_EDITORS, RECIPE_KINDS } from '$lib/recipes';
+import { RECIPE_KINDS } from '$lib/recipes';
 import { parseForm, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { createRecipe } from '$lib/server/recipes/drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -12,13 +12,13 @@ const newRecipeForm = z.object({
 });
 
 export const load: PageServerLoad = async () => {
-	requireRole(...RECIPE_EDITORS);
+	requirePermission('recipe.edit');
 	return {};
 };
 
 export const actions: Actions = {
 	default: async ({ request }) => {
-		const user = requireRole(...RECIPE_EDITORS);
+		const user = requirePermission('recipe.edit');
 		const formData = await request.formData();
 		const parsed = parseForm(newRecipeForm, formData);
 		if (!parsed.ok) return parsed.failure;

@@ -1,8 +1,7 @@
-import { requireRole } from '$lib/server/guard';
-import { SIMULATION_ROLES } from '$lib/simulation/roles';
+import { requirePermission } from '$lib/server/guard';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireRole(...SIMULATION_ROLES);
+	requirePermission('simulation.use');
 	return {};
 };

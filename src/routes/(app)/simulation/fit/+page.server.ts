@@ -1,9 +1,8 @@
 import { GROWTH_FIT_HELP, MIN_GROWTH_FIT_POINTS } from '$chemistry';
-import { requireRole } from '$lib/server/guard';
-import { SIMULATION_ROLES } from '$lib/simulation/roles';
+import { requirePermission } from '$lib/server/guard';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireRole(...SIMULATION_ROLES);
+	requirePermission('simulation.use');
 	return { fitHelp: GROWTH_FIT_HELP, minPoints: MIN_GROWTH_FIT_POINTS };
 };

@@ -1,16 +1,15 @@
 import { redirect } from '@sveltejs/kit';
-import { hasRole } from '$lib/roles';
-import { FEED_DRAFT_ROLES } from '$lib/studies';
 import { listComponents } from '$lib/server/components/library';
 import { formFailure, ruleFailure } from '$lib/server/forms';
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { defaultFeedLimits, listSubstanceChoices, oneFormPerSubstance } from '$lib/server/studies/feed-designer';
 import { loadStudyReport } from '$lib/server/studies/page-load';
 import { deleteStudy } from '$lib/server/studies/study-store';
 import type { Actions, PageServerLoad } from './$types';
+import { may } from '$lib/permissions';
 
 export const load: PageServerLoad = async ({ params }) => {
-	const user = requireStudyAccess();
+	const user = requirePermission('study.use');
 	const loaded = loadStudyReport(params.id);
 	const library = listComponents();
 	const byId = new Map(library.map((c) => [c.id, c]));
@@ -21,14 +20,14 @@ export const load: PageServerLoad = async ({ params }) => {
 		preselected: feedForms,
 		limits: defaultFeedLimits(loaded.profile.group),
 		maxFeedVolumeL: Math.max(0, loaded.vessel.maxWorkingVolumeL - loaded.study.initialVolumeL),
-		canSaveDrafts: hasRole(user, FEED_DRAFT_ROLES)
+		canSaveDrafts: may(user, 'study.save-feed-drafts')
 	};
 	return { ...loaded, designer };
 };
 
 export const actions: Actions = {
 	delete: async ({ request, params }) => {
-		const actor = requireStudyAccess();
+		const actor = requirePermission('study.use');
 		const formData = await request.formData();
 		if (formData.get('confirm') !== 'yes') return formFailure(formData, 'Confirm the deletion first.');
 		try {

@@ -1,18 +1,18 @@
 import { redirect } from '@sveltejs/kit';
 import { parseForm, ruleFailure } from '$lib/server/forms';
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { loadStudyChoices } from '$lib/server/studies/form-data';
 import { createStudy, STUDY_FORM_DEFAULTS, studySchema } from '$lib/server/studies/study-store';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	requireStudyAccess();
+	requirePermission('study.use');
 	return { choices: loadStudyChoices(), values: { ...STUDY_FORM_DEFAULTS } as Record<string, string> };
 };
 
 export const actions: Actions = {
 	save: async ({ request }) => {
-		const actor = requireStudyAccess();
+		const actor = requirePermission('study.use');
 		const formData = await request.formData();
 		const parsed = parseForm(studySchema, formData);
 		if (!parsed.ok) return parsed.failure;

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { getLucia } from '$lib/server/auth/lucia';
 import { setSessionCookie } from '$lib/server/auth/sign-in';
 import { parseForm, ruleFailure } from '$lib/server/forms';
-import { clientAddress } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { mismatch, newPasswordFields, passwordsMatch } from '$lib/server/password-form';
 import { acceptInvitation, inspectInvitation, LINK_MESSAGES } from '$lib/server/people';
 import { describeRoles } from '$lib/roles';
@@ -15,6 +15,7 @@ const acceptForm = z
 
 // Public by design: the secret link is the credential, checked here and again in the action.
 export const load: PageServerLoad = async ({ params }) => {
+	requirePermission('session.start');
 	const { state, invitation } = inspectInvitation(params.token);
 	if (state !== 'valid' || !invitation) return { state, message: LINK_MESSAGES[state as keyof typeof LINK_MESSAGES] };
 	return {
@@ -28,6 +29,7 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	default: async ({ request, params, cookies }) => {
+		requirePermission('session.start');
 		const formData = await request.formData();
 		const parsed = parseForm(acceptForm, formData);
 		if (!parsed.ok) return parsed.failure;

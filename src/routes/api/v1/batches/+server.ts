@@ -3,17 +3,16 @@ import { batchCreateRequest, batchListQuery } from '$lib/server/api/operations/b
 import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
 import { parseQuery } from '$lib/server/api/query';
 import { checkBatchInput, createBatch } from '$lib/server/batches/create';
-import { BATCH_PLANNERS } from '$lib/server/batches/roles';
 import { listBatches } from '$lib/server/batches/view';
 import { clientAddress } from '$lib/server/guard';
 
-export const GET = endpoint({ access: { roles: [] } }, ({ event }) => {
+export const GET = endpoint({ act: 'batch.view' }, ({ event }) => {
 	const query = parseQuery(batchListQuery, event.url);
 	const items = listBatches({ state: query.state, recipeId: query.recipe, from: query.from, to: query.to });
 	return { items, total: items.length };
 });
 
-export const POST = endpoint({ access: { roles: [...BATCH_PLANNERS] }, body: batchCreateRequest }, ({ user, body }) => {
+export const POST = endpoint({ act: 'batch.plan', body: batchCreateRequest }, ({ user, body }) => {
 	const checked = checkBatchInput(body);
 	if (!checked.ok) {
 		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) => messages.map((message) => ({ path, message })));

@@ -3,7 +3,7 @@ import { componentListQuery } from '$lib/server/api/operations/recipes';
 import { parseQuery } from '$lib/server/api/query';
 import { listComponents } from '$lib/server/components/library';
 
-export const GET = endpoint({ access: { roles: [] } }, ({ event }) => {
+export const GET = endpoint({ act: 'component.view' }, ({ event }) => {
 	const query = parseQuery(componentListQuery, event.url);
 	const q = query.q?.toLowerCase();
 	const items = listComponents().filter(

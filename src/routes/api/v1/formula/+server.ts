@@ -2,7 +2,7 @@ import { DOT_RULE, molarMassOf, parseFormula } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
 import { formulaRequest } from '$lib/server/api/operations/chemistry';
 
-export const POST = endpoint({ access: { roles: [] }, body: formulaRequest }, ({ body }) => {
+export const POST = endpoint({ act: 'calculation.run', body: formulaRequest }, ({ body }) => {
 	const parsed = parseFormula(body.formula);
 	return {
 		formula: parsed.text,

@@ -3,7 +3,7 @@ import { endpoint } from '$lib/server/api/endpoint';
 import { problem } from '$lib/server/api/problem';
 import { db } from '$lib/server/db';
 
-export const GET = endpoint({ access: { public: true } }, () => {
+export const GET = endpoint({ act: 'service.describe' }, () => {
 	try {
 		db.run(sql`select 1`);
 	} catch (cause) {

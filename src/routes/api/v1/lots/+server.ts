@@ -6,13 +6,13 @@ import { clientAddress } from '$lib/server/guard';
 import { checkLotInput } from '$lib/server/inventory/lot-input';
 import { listLots, receiveLot } from '$lib/server/inventory/lots';
 
-export const GET = endpoint({ access: { roles: [] } }, ({ event }) => {
+export const GET = endpoint({ act: 'lot.view' }, ({ event }) => {
 	const query = parseQuery(lotListQuery, event.url);
 	const items = listLots({ componentId: query.component, status: query.status, expiringBefore: query.expiringBefore, search: query.q });
 	return { items, total: items.length };
 });
 
-export const POST = endpoint({ access: { roles: ['inventory_lead'] }, body: lotCreateRequest }, ({ user, body }) => {
+export const POST = endpoint({ act: 'lot.receive', body: lotCreateRequest }, ({ user, body }) => {
 	const checked = checkLotInput(body);
 	if (!checked.ok) {
 		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) => messages.map((message) => ({ path, message })));

@@ -3,7 +3,7 @@ import { recipeListQuery } from '$lib/server/api/operations/recipes';
 import { parseQuery } from '$lib/server/api/query';
 import { listRecipes } from '$lib/server/recipes/queries';
 
-export const GET = endpoint({ access: { roles: [] } }, ({ event }) => {
+export const GET = endpoint({ act: 'recipe.view' }, ({ event }) => {
 	const query = parseQuery(recipeListQuery, event.url);
 	const { rows, total } = listRecipes({
 		kind: query.kind,

@@ -5,7 +5,7 @@ import { setSessionCookie, signIn, signOut } from '$lib/server/auth/sign-in';
 import { clientAddress } from '$lib/server/guard';
 import { findUser, rolesOf } from '$lib/server/people';
 
-export const POST = endpoint({ access: { public: true }, body: sessionRequest }, async ({ body, event }) => {
+export const POST = endpoint({ act: 'session.start', body: sessionRequest }, async ({ body, event }) => {
 	const outcome = await signIn(body.email, body.password, clientAddress());
 	if (!outcome.ok) {
 		return problem(outcome.status, outcome.message, {
@@ -18,7 +18,7 @@ export const POST = endpoint({ access: { public: true }, body: sessionRequest },
 	return { id: account.id, email: account.email, name: account.name, roles: rolesOf(account.id) };
 });
 
-export const DELETE = endpoint({ access: { roles: [] } }, async ({ event, user }) => {
+export const DELETE = endpoint({ act: 'session.end' }, async ({ event, user }) => {
 	if (event.locals.session) {
 		await signOut(event.cookies, event.locals.session.id, { id: user!.id, email: user!.email, address: clientAddress() });
 	}

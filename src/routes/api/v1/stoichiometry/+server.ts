@@ -2,4 +2,4 @@ import { solveStoichiometry } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
 import { stoichiometryRequest } from '$lib/server/api/operations/chemistry';
 
-export const POST = endpoint({ access: { roles: [] }, body: stoichiometryRequest }, ({ body }) => solveStoichiometry(body));
+export const POST = endpoint({ act: 'calculation.run', body: stoichiometryRequest }, ({ body }) => solveStoichiometry(body));

@@ -1,10 +1,10 @@
 import { error } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { findMail } from '$lib/server/outbox';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireRole('admin');
+	requirePermission('admin.outbox');
 	const mail = findMail(params.id);
 	if (!mail) error(404, { message: 'No message with this id in the outbox.' });
 	return { mail };

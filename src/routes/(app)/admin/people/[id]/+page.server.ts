@@ -2,7 +2,7 @@ import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
 import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { changeRoles, findUser, rolesOf, setActive } from '$lib/server/people';
 import { rolesField } from '$lib/server/role-field';
 import type { Actions, PageServerLoad } from './$types';
@@ -10,7 +10,7 @@ import type { Actions, PageServerLoad } from './$types';
 const rolesForm = z.object({ roles: rolesField });
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireRole('admin');
+	requirePermission('admin.people');
 	const person = findUser(params.id);
 	if (!person) error(404, { message: 'No person with this id.' });
 	return {
@@ -28,7 +28,7 @@ export const load: PageServerLoad = async ({ params }) => {
 };
 
 function actor() {
-	const admin = requireRole('admin');
+	const admin = requirePermission('admin.people');
 	return { id: admin.id, email: admin.email, address: clientAddress() };
 }
 

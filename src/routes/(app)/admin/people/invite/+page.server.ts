@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { parseForm, ruleFailure } from '$lib/server/forms';
-import { clientAddress, requireRole } from '$lib/server/guard';
+import { clientAddress, requirePermission } from '$lib/server/guard';
 import { invitePerson } from '$lib/server/people';
 import { rolesField } from '$lib/server/role-field';
 import type { Actions, PageServerLoad } from './$types';
@@ -12,13 +12,13 @@ const inviteForm = z.object({
 });
 
 export const load: PageServerLoad = async () => {
-	requireRole('admin');
+	requirePermission('admin.people');
 	return {};
 };
 
 export const actions: Actions = {
 	default: async ({ request }) => {
-		const admin = requireRole('admin');
+		const admin = requirePermission('admin.people');
 		const formData = await request.formData();
 		const parsed = parseForm(inviteForm, formData, ['roles']);
 		if (!parsed.ok) return parsed.failure;

@@ -1,11 +1,11 @@
 import { batchViewOr404 } from '$lib/server/batches/load';
 import { buildBatchSheetPdf } from '$lib/server/batches/pdf';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { contentDisposition } from '$lib/server/inventory/certificates';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async ({ params }) => {
-	requireUser();
+	requirePermission('batch.view');
 	const view = batchViewOr404(params.id);
 	const pdf = await buildBatchSheetPdf(view);
 	return new Response(new Uint8Array(pdf), {

@@ -1,12 +1,12 @@
 import { error } from '@sveltejs/kit';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { findComponent } from '$lib/server/components/library';
 import { findLot } from '$lib/server/inventory/lots';
 import { batchesUsingLot, RECALL_ATTENTION } from '$lib/server/inventory/where-used';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireUser();
+	requirePermission('lot.view');
 	const lot = findLot(params.id);
 	if (!lot) error(404, { message: 'No lot with this id.' });
 	const uses = batchesUsingLot(lot.id).map((u) => ({ ...u, attention: RECALL_ATTENTION.includes(u.state) }));

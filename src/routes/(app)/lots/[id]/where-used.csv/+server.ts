@@ -1,13 +1,13 @@
 import { error } from '@sveltejs/kit';
 import { csvDownload } from '$lib/server/csv';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { whereUsedCsv } from '$lib/server/inventory/csv';
 import { findLot } from '$lib/server/inventory/lots';
 import { batchesUsingLot } from '$lib/server/inventory/where-used';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async ({ params }) => {
-	requireUser();
+	requirePermission('lot.view');
 	const lot = findLot(params.id);
 	if (!lot) error(404, { message: 'No lot with this id.' });
 	return csvDownload(whereUsedCsv(lot.code, batchesUsingLot(lot.id)), `where-used-${lot.code}.csv`);

@@ -1,12 +1,12 @@
 import { error } from '@sveltejs/kit';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { compareVersions } from '$lib/server/recipes/compare';
 import { fieldsOf } from '$lib/server/recipes/drafts';
 import { describedLinesOf, findRecipe, findVersion, versionsOf } from '$lib/server/recipes/queries';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
-	requireUser();
+	requirePermission('recipe.view');
 	const recipe = findRecipe(params.id);
 	if (!recipe) error(404, { message: 'No recipe with this id.' });
 	const versions = versionsOf(recipe.id);

@@ -1,12 +1,12 @@
 import { error, redirect } from '@sveltejs/kit';
 import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { loadStudyChoices } from '$lib/server/studies/form-data';
 import { studyFormValues, studySchema, updateStudy } from '$lib/server/studies/study-store';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireStudyAccess();
+	requirePermission('study.use');
 	const values = studyFormValues(params.id);
 	if (!values) error(404, { message: 'No such study.' });
 	return { choices: loadStudyChoices(), values, id: params.id };
@@ -14,7 +14,7 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	save: async ({ request, params }) => {
-		const actor = requireStudyAccess();
+		const actor = requirePermission('study.use');
 		const formData = await request.formData();
 		const revision = Number(formData.get('revision'));
 		if (!Number.isInteger(revision)) return formFailure(formData, 'The form lost its revision; reload the page.');

@@ -1,8 +1,8 @@
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { loadStudyReport } from '$lib/server/studies/page-load';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireStudyAccess();
+	requirePermission('study.use');
 	return loadStudyReport(params.id);
 };

@@ -1,11 +1,11 @@
-import { requireStudyAccess } from '$lib/server/studies/access';
+import { requirePermission } from '$lib/server/guard';
 import { contentDisposition } from '$lib/server/inventory/certificates';
 import { loadStudyReport } from '$lib/server/studies/page-load';
 import { buildStudyReportPdf, toSafeFileName } from '$lib/server/studies/report-pdf';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async ({ params }) => {
-	requireStudyAccess();
+	requirePermission('study.use');
 	const loaded = loadStudyReport(params.id);
 	const pdf = await buildStudyReportPdf(loaded);
 	return new Response(new Uint8Array(pdf), {

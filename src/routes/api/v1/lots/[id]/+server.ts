@@ -1,4 +1,4 @@
 import { endpoint } from '$lib/server/api/endpoint';
 import { lotView } from '$lib/server/inventory/view';
 
-export const GET = endpoint({ access: { roles: [] } }, ({ event }) => lotView(event.params.id!));
+export const GET = endpoint({ act: 'lot.view' }, ({ event }) => lotView(event.params.id!));

@@ -2,6 +2,6 @@ import { compareBatchWithContinuous } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
 import { batchVersusContinuousRequest } from '$lib/server/api/operations/simulation';
 
-export const POST = endpoint({ access: { roles: [] }, body: batchVersusContinuousRequest }, ({ body }) =>
+export const POST = endpoint({ act: 'calculation.run', body: batchVersusContinuousRequest }, ({ body }) =>
 	compareBatchWithContinuous(body)
 );

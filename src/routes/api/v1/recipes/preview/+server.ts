@@ -2,7 +2,7 @@ import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
 import { previewRequest } from '$lib/server/api/operations/recipes';
 import { DraftProblems, previewDraft } from '$lib/server/recipes/preview';
 
-export const POST = endpoint({ access: { roles: [] }, body: previewRequest }, ({ body }) => {
+export const POST = endpoint({ act: 'calculation.run', body: previewRequest }, ({ body }) => {
 	try {
 		return previewDraft(body);
 	} catch (cause) {

@@ -3,11 +3,10 @@ import { evaluateRequest } from '$lib/server/api/operations/studies';
 import { RuleError } from '$lib/server/rule-error';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
-import { STUDY_ROLES } from '$lib/studies';
 
 const WHAT_IF_FIELDS = new Set(['targetValue', 'feedVolumeL', 'kLaPerH', 'o2MoleFraction', 'temperatureC']);
 
-export const POST = endpoint({ access: { roles: [...STUDY_ROLES] }, body: evaluateRequest }, ({ body }) => {
+export const POST = endpoint({ act: 'study.use', body: evaluateRequest }, ({ body }) => {
 	const { inputs } = loadStudyInputs(body.studyId);
 	try {
 		return evaluateStudy(inputs, body.whatIf);

@@ -1,12 +1,12 @@
 import { error } from '@sveltejs/kit';
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { contentDisposition, findCertificate, readCertificateBytes } from '$lib/server/inventory/certificates';
 import { RuleError } from '$lib/server/rule-error';
 import type { RequestHandler } from './$types';
 
 /** Certificates are for signed-in people only, and always sent as a download of the type we sniffed. */
 export const GET: RequestHandler = async ({ params }) => {
-	requireUser();
+	requirePermission('lot.view');
 	const row = findCertificate(params.id, params.certificateId);
 	if (!row) error(404, { message: 'No such certificate on this lot.' });
 	let bytes: Buffer;

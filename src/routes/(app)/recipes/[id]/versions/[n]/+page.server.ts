@@ -1,16 +1,16 @@
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { hasRole } from '$lib/roles';
 import { SIGNATURE_MEANINGS } from '$lib/recipes';
 import { auditEventsFor } from '$lib/server/audit';
 import { parseForm, ruleFailure } from '$lib/server/forms';
-import { requireRole, requireUser } from '$lib/server/guard';
-import { actorOf, RECIPE_EDITORS, requireRecipeEditor, versionNumber } from '$lib/server/recipes/access';
+import { requireActor, requirePermission } from '$lib/server/guard';
+import { actorOf, versionNumber } from '$lib/server/recipes/access';
 import { startDraftFrom } from '$lib/server/recipes/drafts';
 import { loadVersionView } from '$lib/server/recipes/page-load';
 import { findVersion } from '$lib/server/recipes/queries';
-import { APPROVER_ROLES, returnToDraft, retireVersion, signingRefusal, signVersion, submitForReview, versionDigest } from '$lib/server/recipes/workflow';
+import { returnToDraft, retireVersion, signingRefusal, signVersion, submitForReview, versionDigest } from '$lib/server/recipes/workflow';
 import type { Actions, PageServerLoad } from './$types';
+import { may } from '$lib/permissions';
 
 const signForm = z.object({
 	meaning: z.enum(SIGNATURE_MEANINGS, { error: 'Choose what your signature means: reviewed or approved.' }),
@@ -24,14 +24,14 @@ const retireForm = z.object({
 });
 
 export const load: PageServerLoad = async ({ params }) => {
-	const user = requireUser();
+	const user = requirePermission('recipe.view');
 	const view = loadVersionView(params);
 	return {
 		...view,
 		digest: versionDigest(view.version),
 		history: auditEventsFor('recipe_version', view.version.id),
-		canEdit: hasRole(user, RECIPE_EDITORS),
-		canReview: hasRole(user, APPROVER_ROLES),
+		canEdit: may(user, 'recipe.edit'),
+		canReview: may(user, 'recipe.sign'),
 		signingRefusal: signingRefusal(user, view.version)
 	};
 };
@@ -44,7 +44,7 @@ function currentVersion(params: { id: string; n: string }) {
 
 export const actions: Actions = {
 	submit: async ({ request, params }) => {
-		const actor = requireRecipeEditor();
+		const actor = requireActor('recipe.edit');
 		const formData = await request.formData();
 		const version = currentVersion(params);
 		try {
@@ -55,7 +55,7 @@ export const actions: Actions = {
 		return { done: `Version ${version.n} is submitted for review.` };
 	},
 	sign: async ({ request, params }) => {
-		const user = requireRole(...APPROVER_ROLES);
+		const user = requirePermission('recipe.sign');
 		const formData = await request.formData();
 		const parsed = parseForm(signForm, formData);
 		if (!parsed.ok) return parsed.failure;
@@ -68,7 +68,7 @@ export const actions: Actions = {
 		return { done: parsed.data.meaning === 'approved' ? `Version ${version.n} is approved. Your signature is recorded.` : 'Your review signature is recorded.' };
 	},
 	sendBack: async ({ request, params }) => {
-		const user = requireRole(...APPROVER_ROLES);
+		const user = requirePermission('recipe.sign');
 		const formData = await request.formData();
 		const parsed = parseForm(returnForm, formData);
 		if (!parsed.ok) return parsed.failure;
@@ -81,7 +81,7 @@ export const actions: Actions = {
 		return { done: `Version ${version.n} is back in draft.` };
 	},
 	retire: async ({ request, params }) => {
-		const actor = requireRecipeEditor();
+		const actor = requireActor('recipe.edit');
 		const formData = await request.formData();
 		const parsed = parseForm(retireForm, formData);
 		if (!parsed.ok) return parsed.failure;
@@ -94,7 +94,7 @@ export const actions: Actions = {
 		return { done: `Version ${version.n} is retired.` };
 	},
 	newDraft: async ({ request, params }) => {
-		const actor = requireRecipeEditor();
+		const actor = requireActor('recipe.edit');
 		const formData = await request.formData();
 		const version = currentVersion(params);
 		let n: number;

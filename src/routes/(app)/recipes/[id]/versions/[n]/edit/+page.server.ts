@@ -1,13 +1,14 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { listComponents } from '$lib/server/components/library';
 import { RuleError } from '$lib/server/rule-error';
-import { requireRecipeEditor, versionNumber } from '$lib/server/recipes/access';
+import { versionNumber } from '$lib/server/recipes/access';
 import { analyseLines } from '$lib/server/recipes/analysis';
 import { checkDraft, readDraftForm } from '$lib/server/recipes/draft';
 import { fieldsOf, saveDraft, StaleEditError } from '$lib/server/recipes/drafts';
 import { findRecipe, findVersion, linesOf, listStockRecipes } from '$lib/server/recipes/queries';
 import { toDraftFields, toDraftLines } from '$lib/server/recipes/editor-data';
 import type { Actions, PageServerLoad } from './$types';
+import { requireActor, requirePermission } from '$lib/server/guard';
 
 function draftVersion(params: { id: string; n: string }) {
 	const recipe = findRecipe(params.id);
@@ -18,7 +19,7 @@ function draftVersion(params: { id: string; n: string }) {
 }
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireRecipeEditor();
+	requirePermission('recipe.edit');
 	const { recipe, version } = draftVersion(params);
 	if (version.status !== 'draft') redirect(303, `/recipes/${recipe.id}/versions/${version.n}`);
 	return {
@@ -33,7 +34,7 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	save: async ({ request, params }) => {
-		const actor = requireRecipeEditor();
+		const actor = requireActor('recipe.edit');
 		const formData = await request.formData();
 		const draft = readDraftForm(formData);
 		const { recipe, version } = draftVersion(params);

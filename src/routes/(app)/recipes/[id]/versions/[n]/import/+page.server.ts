@@ -1,9 +1,10 @@
 import { error } from '@sveltejs/kit';
-import { requireRecipeEditor, versionNumber } from '$lib/server/recipes/access';
+import { versionNumber } from '$lib/server/recipes/access';
 import { confirmStep, previewStep } from '$lib/server/csv-actions';
 import { importLineCsv, previewLineCsv } from '$lib/server/recipes/csv';
 import { findRecipe, findVersion } from '$lib/server/recipes/queries';
 import type { Actions, PageServerLoad } from './$types';
+import { requireActor, requirePermission } from '$lib/server/guard';
 
 function draftOf(params: { id: string; n: string }) {
 	const recipe = findRecipe(params.id);
@@ -13,19 +14,19 @@ function draftOf(params: { id: string; n: string }) {
 }
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireRecipeEditor();
+	requirePermission('recipe.edit');
 	const { recipe, version } = draftOf(params);
 	return { recipe, version: { n: version.n, status: version.status } };
 };
 
 export const actions: Actions = {
 	preview: async ({ request, params }) => {
-		requireRecipeEditor();
+		requirePermission('recipe.edit');
 		const { version } = draftOf(params);
 		return previewStep(await request.formData(), (text) => previewLineCsv(version, text));
 	},
 	confirm: async ({ request, params }) => {
-		const actor = requireRecipeEditor();
+		const actor = requireActor('recipe.edit');
 		const { version } = draftOf(params);
 		return confirmStep(
 			await request.formData(),

@@ -1,8 +1,8 @@
-import { requireUser } from '$lib/server/guard';
+import { requirePermission } from '$lib/server/guard';
 import { loadVersionView } from '$lib/server/recipes/page-load';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	requireUser();
+	requirePermission('recipe.view');
 	return { ...loadVersionView(params), printedAt: new Date() };
 };
