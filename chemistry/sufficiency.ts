@@ -182,6 +182,7 @@ export interface SufficiencyResult {
 	defaultRolesBasis: string;
 }
 
+/** Supply a study asks for over demand when the user sets none (common practice). */
 export const DEFAULT_SAFETY_FACTOR = 1.2;
 export const DEFAULT_IGNORED_ELEMENTS = ['H', 'O'] as const;
 

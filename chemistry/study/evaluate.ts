@@ -9,15 +9,10 @@ import { assessNutrients, describeRunouts, nameOf, reportFeeds, type NutrientSec
 import { assessHeat, assessOxygen, findOxygenLoad } from './report-oxygen';
 import { simulatePlan } from './time-course';
 import type { StudyInputs, StudyReport, WhatIf } from './types';
-import { computeVesselKLa } from './vessel';
+import { MAX_KLA_PER_H, computeVesselKLa } from './vessel';
 
 /** Denser than this is packed cells, not a broth: the densest fed-batch cultures reach about 150 g/L (common practice). */
 export const MAX_BIOMASS_G_PER_L = 200;
-/**
- * The highest kLa a what-if may ask for: 1/s, above what stirred tanks reach (microbial stirred tanks
- * 100–1000 1/h, from memory; chemistry/REFERENCES.md), so a larger value is a typing error.
- */
-export const MAX_WHAT_IF_KLA_PER_H = 3600;
 /** A run reaching this fraction of the target counts as reaching it (the course is sampled, not continuous). */
 const REACHES_TARGET_FRACTION = 0.98;
 
@@ -76,7 +71,7 @@ export function readOperatingPoint(inputs: StudyInputs, whatIf: WhatIf): Operati
 
 	const vesselKLa = computeVesselKLa(vessel);
 	const kLaPerH = whatIf.kLaPerH ?? vesselKLa.kLaPerH;
-	if (!(kLaPerH > 0) || kLaPerH > MAX_WHAT_IF_KLA_PER_H) whatIfError(`kLa must be above 0 and at most ${MAX_WHAT_IF_KLA_PER_H} 1/h, not ${kLaPerH}.`, 'kLaPerH');
+	if (!(kLaPerH > 0) || kLaPerH > MAX_KLA_PER_H) whatIfError(`kLa must be above 0 and at most ${MAX_KLA_PER_H} 1/h, not ${kLaPerH}.`, 'kLaPerH');
 	const o2MoleFraction = whatIf.o2MoleFraction ?? plan.o2MoleFraction;
 	if (!(o2MoleFraction > 0) || o2MoleFraction > 1) whatIfError(`The O2 mole fraction must be above 0 and at most 1, not ${o2MoleFraction}.`, 'o2MoleFraction');
 	const temperatureC = whatIf.temperatureC ?? plan.temperatureC;

@@ -2,11 +2,10 @@
 export * from './vocabulary';
 export * from './types';
 export { StudyDataError, asStudyDataError } from './errors';
-export { MAX_BIOMASS_G_PER_L, MAX_WHAT_IF_KLA_PER_H, STUDY_CAUTIONS, convertCellsPerMlToGPerL, convertTargetToBiomass, evaluateStudy } from './evaluate';
-export { SUGGESTED_SAFETY_FACTOR } from './report-nutrients';
+export { MAX_BIOMASS_G_PER_L, STUDY_CAUTIONS, convertCellsPerMlToGPerL, convertTargetToBiomass, evaluateStudy } from './evaluate';
 export { simulatePlan, isControlled, type PlanRun, type PlanCourse, type PlanCourses, type FeedDelivery } from './time-course';
 export { findRunoutTimes, findEmptyTime, type Runout, type RunoutInput } from './nutrient-runout';
 export * from './profile-yields';
 export * from './profile';
-export { computeVesselKLa } from './vessel';
+export { MAX_KLA_PER_H, computeVesselKLa } from './vessel';
 export * from './feed-designer';

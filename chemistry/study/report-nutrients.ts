@@ -1,14 +1,11 @@
 import { DEFAULT_ELEMENT_ROLES_BASIS } from '../data/element-roles';
-import { DEFAULT_IGNORED_ELEMENTS, assessSufficiency, type SufficiencyResult } from '../sufficiency';
+import { DEFAULT_IGNORED_ELEMENTS, DEFAULT_SAFETY_FACTOR, assessSufficiency, type SufficiencyResult } from '../sufficiency';
 import { asStudyDataError } from './errors';
 import { findEmptyTime, findRunoutTimes } from './nutrient-runout';
 import { listYieldsUsed, toSufficiencyProfile } from './profile';
 import type { OperatingPoint, ReportLog, StudyRun } from './report-context';
 import { isControlled } from './time-course';
 import type { FeedReport, NutrientRow, StudyInputs } from './types';
-
-/** The safety factor a new study suggests (common practice). */
-export const SUGGESTED_SAFETY_FACTOR = 1.2;
 
 export interface NutrientSection {
 	sufficiency: SufficiencyResult;
@@ -27,7 +24,7 @@ export function nameOf(inputs: StudyInputs, key: string, basis: 'element' | 'com
 
 function listNutrientDefaults(inputs: StudyInputs, sufficiency: SufficiencyResult, log: ReportLog) {
 	const { plan, profile } = inputs;
-	if (plan.safetyFactor === SUGGESTED_SAFETY_FACTOR) defaults(log, { what: 'Safety factor', value: String(SUGGESTED_SAFETY_FACTOR), source: 'Common practice (the study keeps the suggested value)' });
+	if (plan.safetyFactor === DEFAULT_SAFETY_FACTOR) defaults(log, { what: 'Safety factor', value: String(DEFAULT_SAFETY_FACTOR), source: 'Common practice (the study keeps the suggested value)' });
 	if (profile.kind === 'elementalFractions') {
 		defaults(log, { what: 'Elements not assessed', value: DEFAULT_IGNORED_ELEMENTS.join(', '), source: 'Cells take H and O from water and O2, not from dissolved salts' });
 	}

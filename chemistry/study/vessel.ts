@@ -1,7 +1,12 @@
+import { SECONDS_PER_HOUR } from '../units';
 import { StudyDataError } from './errors';
 import type { StudyVessel } from './types';
 
-const SECONDS_PER_HOUR = 3600;
+/**
+ * The highest kLa a vessel or a what-if may state: 1/s, above what stirred tanks reach (microbial
+ * stirred tanks 100–1000 1/h, from memory; chemistry/REFERENCES.md), so a larger value is a typing error.
+ */
+export const MAX_KLA_PER_H = 3600;
 
 /**
  * The vessel's kLa in 1/h: as entered, or from kLa = k·(P/V)^a·(v_s)^b (van 't Riet 1979), whose
