@@ -4,6 +4,7 @@
  * so Q = q_O2 · OUR with q_O2 an oxycaloric factor in kJ per mol O2.
  */
 import { ChemistryInputError } from './errors';
+import { SECONDS_PER_HOUR } from './units';
 
 export interface HeatFactor {
 	id: string;
@@ -92,7 +93,7 @@ export function computeMetabolicHeat(input: MetabolicHeatInput): MetabolicHeatRe
 			}
 		);
 	}
-	const wPerL = (our * q) / 3600;
+	const wPerL = (our * q) / SECONDS_PER_HOUR;
 	const totalW = wPerL * volumeL;
 	return { heatPerMolO2KJ: q, wPerL, totalW, totalKW: totalW / 1000 };
 }

@@ -9,6 +9,7 @@
  */
 import { ChemistryInputError } from './errors';
 import { molarMassOf } from './formula';
+import { SECONDS_PER_HOUR } from './units';
 import {
 	AIR_O2_MOLE_FRACTION,
 	APHA_PRESSURE_CORRECTION,
@@ -325,7 +326,7 @@ export function computeOxygenReserveS(input: {
 }): number {
 	const setpointMgPerL = requireNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
 	const our = requirePositive(input.ourMmolPerLH, 'ourMmolPerLH', 'OUR');
-	return (convertOxygenMgPerLToMmolPerL(setpointMgPerL) / our) * 3600;
+	return (convertOxygenMgPerLToMmolPerL(setpointMgPerL) / our) * SECONDS_PER_HOUR;
 }
 
 export type DoSetpoint = { percentAirSaturation: number } | { mgPerL: number };
@@ -428,7 +429,7 @@ export function assessOxygenTransfer(input: OxygenTransferInput): OxygenTransfer
 		enrichmentFeasible: o2MoleFractionNeeded <= 1,
 		reserveS:
 			peakOur.mmolPerLH > 0
-				? (setpointMgPerL / O2_MOLAR_MASS_G_PER_MOL / peakOur.mmolPerLH) * 3600
+				? (setpointMgPerL / O2_MOLAR_MASS_G_PER_MOL / peakOur.mmolPerLH) * SECONDS_PER_HOUR
 				: null
 	};
 }

@@ -182,6 +182,7 @@ export interface SufficiencyResult {
 	defaultRolesBasis: string;
 }
 
+/** Supply a study asks for over demand when the user sets none (common practice). */
 export const DEFAULT_SAFETY_FACTOR = 1.2;
 export const DEFAULT_IGNORED_ELEMENTS = ['H', 'O'] as const;
 
@@ -343,8 +344,8 @@ interface Target {
 	cellDryMassPg: number | null;
 }
 
-// 1 cell/mL × 1 pg/cell = 1e3 cells/L × 1e-12 g = 1e-9 g/L.
-const G_PER_L_PER_CELL_PER_ML_PER_PG = 1e-9;
+/** Cell density to dry biomass, exact by the SI prefixes: 1 cell/mL × 1 pg/cell = 1e3 cells/L × 1e-12 g = 1e-9 g/L. */
+export const G_PER_L_PER_CELL_PER_ML_PER_PG = 1e-9;
 
 function readTarget(input: unknown, profileDryMassPg: number | null): Target {
 	if (input === null || typeof input !== 'object')

@@ -172,3 +172,6 @@ export function convertConcentration(
 		: amount * baseFactorOf(from);
 	return fromGramsPerLitre(gPerL, to, molarMassGPerMol, 'toUnit');
 }
+
+/** Exact by the definition of the hour. */
+export const SECONDS_PER_HOUR = 3600;

@@ -419,7 +419,7 @@ culture is diluted).
 - Volume: dV/dt = F_in − F_out.
 - Oxygen (film theory): dC/dt = kLa(C* − C) − OUR with OUR = 1000·μX/Yx/O2 + m_O·X in mg O2/L/h
   (Yx/O2 in g biomass per g O2, m_O in mg O2 per g biomass per h). OUR and the maximum transfer rate
-  kLa·C* are reported in mmol/L/h (O2 = 31.998 g/mol). Dilution of dissolved O2 by the feed is
+  kLa·C* are reported in mmol/L/h (O2 = ${O2_MOLAR_MASS_G_PER_MOL.toFixed(3)} g/mol). Dilution of dissolved O2 by the feed is
   neglected (D ≪ kLa); a bolus or a draw-fill refill arrives air-saturated.
 - DO is integrated as a state while it changes on a time scale the integrator can follow. Where it
   relaxes more than 1000 times faster than the culture can change (λ = kLa + ∂OUR/∂C above

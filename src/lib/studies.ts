@@ -1,41 +1,40 @@
 
-// Study vocabulary shared by server and pages; no server code here.
-export const ORGANISM_GROUPS = ['bacterium', 'yeast', 'mammalian'] as const;
-export type OrganismGroup = (typeof ORGANISM_GROUPS)[number];
+import {
+	ORGANISM_GROUPS,
+	PROFILE_KINDS,
+	YIELD_METHODS,
+	YIELD_METHOD_LABELS,
+	TARGET_BASES,
+	FEED_PLAN_STRATEGIES,
+	isControlledPlan,
+	type OrganismGroup,
+	type ProfileKind,
+	type YieldMethod,
+	type SubstrateYieldEntry,
+	type TargetBasis,
+	type FeedPlanStrategy,
+	type FeedPlan
+} from '$chemistry';
+
+// Study vocabulary shared by server and pages; no server code here. The lists and types the science
+// switches on live in chemistry/study/vocabulary.ts; their labels live here.
+export { ORGANISM_GROUPS, PROFILE_KINDS, YIELD_METHODS, YIELD_METHOD_LABELS, TARGET_BASES, FEED_PLAN_STRATEGIES, isControlledPlan };
+export type { OrganismGroup, ProfileKind, YieldMethod, SubstrateYieldEntry, TargetBasis, FeedPlanStrategy, FeedPlan };
+
 export const ORGANISM_GROUP_LABELS: Record<OrganismGroup, string> = {
 	bacterium: 'Bacterium',
 	yeast: 'Yeast',
 	mammalian: 'Mammalian cell line'
 };
 
-export const PROFILE_KINDS = ['elementalFractions', 'componentRequirements', 'perCell'] as const;
-export type ProfileKind = (typeof PROFILE_KINDS)[number];
 export const PROFILE_KIND_LABELS: Record<ProfileKind, string> = {
 	elementalFractions: 'Elemental mass fractions (g element per g dry biomass)',
 	componentRequirements: 'Component requirements (g component per g dry biomass)',
 	perCell: 'Per-cell consumption (cell culture)'
 };
 
-/** How Yx/s on the carbon source is obtained. */
-export const YIELD_METHODS = ['entered', 'respiratoryQuotient', 'oxygenYield'] as const;
-export type YieldMethod = (typeof YIELD_METHODS)[number];
-export const YIELD_METHOD_LABELS: Record<YieldMethod, string> = {
-	entered: 'Entered (measured)',
-	respiratoryQuotient: 'Element balance from a measured RQ',
-	oxygenYield: 'Element balance from Yx/O2 (or qO2 at μmax)'
-};
-
-/** A yield on a further substrate: typed in, or from the balance of an element it alone supplies. */
-export type SubstrateYieldEntry =
-	| { componentId: string; method: 'entered'; yieldGPerG: number }
-	| { componentId: string; method: 'soleSource'; element: string; yieldGPerG: number };
-
-export const TARGET_BASES = ['biomassGPerL', 'cellsPerMl'] as const;
-export type TargetBasis = (typeof TARGET_BASES)[number];
 export const TARGET_BASIS_UNITS: Record<TargetBasis, string> = { biomassGPerL: 'g/L dry biomass', cellsPerMl: 'cells/mL' };
 
-export const FEED_PLAN_STRATEGIES = ['constant', 'linear', 'exponential', 'substrateStat', 'doStat'] as const;
-export type FeedPlanStrategy = (typeof FEED_PLAN_STRATEGIES)[number];
 export const FEED_PLAN_LABELS: Record<FeedPlanStrategy, string> = {
 	constant: 'Constant rate',
 	linear: 'Linearly rising rate (from 0)',
@@ -43,22 +42,6 @@ export const FEED_PLAN_LABELS: Record<FeedPlanStrategy, string> = {
 	substrateStat: 'Substrate-stat (holds the carbon source at a setpoint)',
 	doStat: 'DO-stat (feeds while DO is above a setpoint)'
 };
-const CONTROLLED_FEED_PLANS: readonly string[] = ['substrateStat', 'doStat'];
-
-/** A plan whose rate follows the culture: its volume is what is available, not what is delivered. */
-export function isControlledPlan(strategy: string): boolean {
-	return CONTROLLED_FEED_PLANS.includes(strategy);
-}
-
-/** How one feed is fed: its plan, its start and the plan's own settings. */
-export interface FeedPlan {
-	strategy: FeedPlanStrategy;
-	startH: number;
-	muSetPerH: number | null;
-	setpointGPerL: number | null;
-	doSetpointPercent: number | null;
-	maxRateLPerH: number | null;
-}
 
 /** One feed's plan in words, e.g. "DO-stat above 40 % DO, at most 0.15 L/h, from 8 h; 1.5 L available". */
 export function describeFeedPlan(plan: FeedPlan, volumeL: number): string {

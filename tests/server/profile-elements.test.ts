@@ -1,11 +1,11 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { findBiomassComposition } from '$chemistry';
+import { findBiomassComposition, resolveElementStatements } from '$chemistry';
 import { db } from '$lib/server/db';
 import { organismProfile, study } from '$lib/server/db/schema';
 import { seedDemo } from '$lib/server/demo/seed';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
-import { checkProfileFormula, describeProfileElements, resolveElementStatements } from '$lib/server/studies/profile-elements';
+import { checkProfileFormula, describeProfileElements } from '$lib/server/studies/profile-elements';
 import { profileFormValues } from '$lib/server/studies/profile-store';
 import { loadStudyInputs } from '$lib/server/studies/queries';
 import { createProfileForm } from './profile-form';

@@ -1,7 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { ATOMIC_WEIGHTS, formulaMolarMass } from '$chemistry';
+import { ATOMIC_WEIGHTS, formulaMolarMass, listYieldsUsed } from '$chemistry';
 import { seedDemo } from '$lib/server/demo/seed';
-import { listYieldsUsed } from '$lib/server/studies/profiles';
 import { createProfileForm } from './profile-form';
 
 beforeAll(async () => {

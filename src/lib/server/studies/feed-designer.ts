@@ -1,38 +1,11 @@
-import {
-	ChemistryInputError,
-	FEED_LIMIT_DEFAULTS,
-	assessSufficiency,
-	designFeeds,
-	type FeedCandidate,
-	type FeedDesignResult,
-	type FeedLimits,
-	type SufficiencyLine
-} from '$chemistry';
-import type { OrganismGroup } from '$lib/studies';
+import { ChemistryInputError, StudyDataError, designStudyFeed, requireFeedVolumeFits, type FeedCandidate, type FeedDesign, type FeedDesignRequest } from '$chemistry';
 import type { Component } from '../db/schema';
 import { componentSpecOf, molarMassOfComponent } from '../components/library';
 import { RuleError } from '../rule-error';
-import { toSufficiencyProfile } from './profiles';
 import type { StudyInputs } from './types';
 
-export interface FeedDesignRequest {
-	componentIds: string[];
-	/** All proposed feeds together. */
-	feedVolumeL: number;
-	temperatureC: number;
-	/** Per feed; the organism group's default when omitted. */
-	osmolalityMaxMOsmPerKg?: number;
-	dissolvedSolidsMaxGPerL?: number;
-}
-
-export type FeedDesign = FeedDesignResult & { limitsSource: string | null };
-
-export type DefaultFeedLimits = FeedLimits & { source: string };
-
-/** The limits offered for a study's organism, with where they come from. */
-export function defaultFeedLimits(group: OrganismGroup): DefaultFeedLimits {
-	return { ...FEED_LIMIT_DEFAULTS[group === 'mammalian' ? 'cellCulture' : 'microbial'] };
-}
+// The feed designer's model (needs, limits, the LP) is chemistry/study/feed-designer.ts; here the library is looked up.
+export { defaultFeedLimits, type DefaultFeedLimits, type FeedDesign, type FeedDesignRequest } from '$chemistry';
 
 /**
  * The substance a component is a form of: the end of its basis chain (MgSO4·7H2O → MgSO4,
@@ -131,55 +104,16 @@ function requestField(field: string | undefined): string | undefined {
 }
 
 /**
- * Loads what the science needs from a study and a request, and proposes the feed(s): needs are what
- * the basal medium leaves short of safety factor × demand at the final volume.
+ * Looks up the chosen components and proposes the feed(s) (`designStudyFeed`); the science's fields
+ * are the request's, except candidates, which the request names by id.
  */
 export function designFeed(inputs: StudyInputs, components: Map<string, Component>, request: FeedDesignRequest): FeedDesign {
-	const { plan, vessel } = inputs;
-	const maxFeedVolumeL = Math.max(0, vessel.maxWorkingVolumeL - plan.initialVolumeL);
-	if (!(request.feedVolumeL > 0)) throw new RuleError('The feed volume must be greater than 0 L.', { field: 'feedVolumeL' });
-	if (request.feedVolumeL > maxFeedVolumeL + 1e-9) {
-		throw new RuleError(
-			`${request.feedVolumeL} L of feed on ${plan.initialVolumeL} L would exceed the vessel's maximum working volume of ${vessel.maxWorkingVolumeL} L; at most ${maxFeedVolumeL} L fits.`,
-			{ field: 'feedVolumeL' }
-		);
-	}
-	const chosen = checkCandidates(request.componentIds, components);
-	const defaults = defaultFeedLimits(inputs.profile.group);
-	const limits = {
-		osmolalityMaxMOsmPerKg: request.osmolalityMaxMOsmPerKg ?? defaults.osmolalityMaxMOsmPerKg,
-		dissolvedSolidsMaxGPerL: request.dissolvedSolidsMaxGPerL ?? defaults.dissolvedSolidsMaxGPerL
-	};
-	const usesDefault = request.osmolalityMaxMOsmPerKg === undefined || request.dissolvedSolidsMaxGPerL === undefined;
-
-	const finalVolumeL = plan.initialVolumeL + request.feedVolumeL;
-	const { profile, carbon, substrates } = toSufficiencyProfile(inputs.profile);
-	const basalOnly = assessSufficiency({
-		profile,
-		target: plan.targetBasis === 'cellsPerMl' ? { cellsPerMl: plan.targetValue } : { biomassGPerL: plan.targetValue },
-		supply: { finalVolumeL, sources: [{ volumeL: plan.initialVolumeL, ...inputs.basal.composition }] },
-		safetyFactor: plan.safetyFactor,
-		carbon,
-		substrates
-	});
-	const nameOf = (l: SufficiencyLine) => (l.basis === 'element' ? l.key : (inputs.componentNames[l.key] ?? l.key));
 	try {
-		const result = designFeeds({
-			candidates: chosen.map((c) => candidateOf(c, components)),
-			needs: basalOnly.lines.map((l) => ({
-				key: l.key,
-				name: nameOf(l),
-				requiredGPerLFinal: plan.safetyFactor * l.demandGPerL,
-				presentG: l.supplyGPerL * finalVolumeL
-			})),
-			initialVolumeL: plan.initialVolumeL,
-			feedVolumeL: request.feedVolumeL,
-			maxFeedVolumeL,
-			temperatureC: request.temperatureC,
-			...limits
-		});
-		return { ...result, limitsSource: usesDefault ? defaults.source : null };
+		requireFeedVolumeFits(inputs, request.feedVolumeL);
+		const chosen = checkCandidates(request.componentIds, components);
+		return designStudyFeed(inputs, chosen.map((c) => candidateOf(c, components)), request);
 	} catch (cause) {
+		if (cause instanceof StudyDataError) throw new RuleError(cause.message, { field: cause.field, status: 422 });
 		if (cause instanceof ChemistryInputError) {
 			const field = requestField(cause.field);
 			throw new RuleError(cause.message, { field, status: field ? 400 : 422 });

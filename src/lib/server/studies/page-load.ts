@@ -1,9 +1,9 @@
 import { error } from '@sveltejs/kit';
+import { computeVesselKLa } from '$chemistry';
 import { describeFeedPlan } from '$lib/studies';
 import { RuleError } from '../rule-error';
 import { evaluateStudy } from './evaluate';
 import { findStudy, loadStudyInputs } from './queries';
-import { computeVesselKLa } from './vessels';
 
 /** The study with its report; a report that cannot be made is shown with its reason, not as a crash. */
 export function loadStudyReport(id: string) {

@@ -1,6 +1,5 @@
 import {
 	ATOMIC_WEIGHTS,
-	BIOMASS_COMPOSITIONS,
 	ChemistryInputError,
 	DEFAULT_IGNORED_ELEMENTS,
 	ELEMENT_ROLES,
@@ -8,58 +7,18 @@ import {
 	VALUE_CONFIDENCES,
 	compareFractionsWithFormula,
 	defaultElementRole,
-	statementsOfComposition,
+	listProfileElements,
+	resolveElementStatements,
 	type ElementRole,
 	type ElementStatement,
 	type ElementStatements,
-	type PerCellConsumption,
+	type ProfileElementFields,
 	type ValueConfidence
 } from '$chemistry';
 import { RuleError } from '../rule-error';
 
-/** What the element rules read from a profile, stored or just checked on the form. */
-export interface ProfileElementFields {
-	elementalFractions: Record<string, number> | null;
-	perCellConsumption: PerCellConsumption[] | null;
-	fractionsSource: string | null;
-	elementStatements?: ElementStatements | null;
-}
-
-/** The elements a profile gives a value for: its fractions and its per-cell element lines. */
-export function listProfileElements(p: Pick<ProfileElementFields, 'elementalFractions' | 'perCellConsumption'>): string[] {
-	const fromCells = (p.perCellConsumption ?? []).filter((c) => c.basis === 'element').map((c) => c.key);
-	return [...new Set([...Object.keys(p.elementalFractions ?? {}), ...fromCells])];
-}
-
-/**
- * The form keeps a published table's fractions to 4 significant digits; a fraction still at that
- * value, under that table's citation, is the table's value and carries its grade.
- */
-function tableStatement(symbol: string, fraction: number | undefined, source: string | null): ElementStatement | undefined {
-	if (fraction === undefined || !source) return undefined;
-	const table = BIOMASS_COMPOSITIONS.find((b) => b.source === source);
-	const published = table?.massFractions[symbol];
-	if (!table || !published || Number(published.value.toPrecision(4)) !== fraction) return undefined;
-	return statementsOfComposition(table)[symbol];
-}
-
-/**
- * Each element's statement: the one stored with the profile; for a profile saved before statements
- * were kept, the grade of the published table its fractions came from; otherwise the fractions'
- * source with no stated confidence.
- */
-export function resolveElementStatements(p: ProfileElementFields): ElementStatements {
-	const out: ElementStatements = {};
-	for (const symbol of listProfileElements(p)) {
-		const stored = p.elementStatements?.[symbol];
-		if (stored) {
-			out[symbol] = stored;
-			continue;
-		}
-		out[symbol] = tableStatement(symbol, p.elementalFractions?.[symbol], p.fractionsSource) ?? (p.fractionsSource ? { source: p.fractionsSource } : {});
-	}
-	return out;
-}
+// Which elements a profile states and each one's statement: chemistry/study/profile.ts.
+export type { ProfileElementFields };
 
 export interface ProfileElementRow {
 	symbol: string;

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { ATOMIC_WEIGHTS, findBiomassComposition, statementsOfComposition, type ElementStatements, type PerCellConsumption } from '$chemistry';
+import { ATOMIC_WEIGHTS, findBiomassComposition, listProfileElements, statementsOfComposition, type ElementStatements, type PerCellConsumption } from '$chemistry';
 import { CONSUMPTION_PATTERN, ORGANISM_GROUPS, PROFILE_KINDS, YIELD_METHODS, splitPairEntries } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
@@ -8,7 +8,7 @@ import { organismProfile, type OrganismProfileRow } from '../db/schema';
 import { findComponent, molarMassOfComponent } from '../components/library';
 import { RuleError } from '../rule-error';
 import { optionalNumber, optionalText, requiredText } from './fields';
-import { elementStatementFormValues, listProfileElements, readElementStatementsForm } from './profile-elements';
+import { elementStatementFormValues, readElementStatementsForm } from './profile-elements';
 import { formatSubstrateYields, parseSubstrateYields, resolveCarbonYield } from './profile-yields';
 
 export const profileSchema = z.object({

@@ -1,23 +1,9 @@
-import { ATOMIC_WEIGHTS, O2_MOLAR_MASS_G_PER_MOL, computeSoleSourceYield, solveAerobicGrowth, type PerCellConsumption } from '$chemistry';
-import type { SubstrateYieldEntry, YieldMethod } from '$lib/studies';
+import { ATOMIC_WEIGHTS, balanceCarbonYield, computeSoleSourceYield, type SubstrateYieldEntry, type YieldFields } from '$chemistry';
 import { findComponent } from '../components/library';
 import { RuleError, withRuleErrors } from '../rule-error';
 
-/** What the yield rules read from the profile form, already checked field by field. */
-export interface YieldFields {
-	kind: string;
-	biomassFormula: string | null;
-	ashFraction: number | null;
-	elementalFractions: Record<string, number> | null;
-	perCellConsumption: PerCellConsumption[] | null;
-	carbonSourceId: string | null;
-	yieldXSMethod: YieldMethod;
-	yieldXSGPerG: number | null;
-	respiratoryQuotient: number | null;
-	muMaxPerH: number | null;
-	yieldXO2GPerG: number | null;
-	qO2MmolPerGH: number | null;
-}
+// The element balances behind these yields are chemistry/study/profile-yields.ts; here the library is looked up.
+export type { YieldFields };
 
 function formulaOf(componentId: string, field: string): string {
 	const component = findComponent(componentId);
@@ -26,63 +12,12 @@ function formulaOf(componentId: string, field: string): string {
 	return component.formula;
 }
 
-export interface BalancedCarbonYield {
-	yieldGPerG: number;
-	/** % change of Yx/s per 1 % error in the measured value. */
-	elasticity: number;
-	/** The measurement, in words, e.g. "RQ 1.05". */
-	from: string;
-}
-
-/**
- * Yx/s on the carbon source (of formula `substrateFormula`) from the C/H/O/N balance of growth on it
- * with NH3 and one measured quantity: the RQ, or the yield on O2 (qO2 stands for Yx/O2 = μmax/qO2 at μmax).
- */
-export function balanceCarbonYield(f: YieldFields, substrateFormula: string): BalancedCarbonYield {
-	if (!f.biomassFormula) throw new RuleError('Enter the biomass formula: the element balance that gives Yx/s needs it.', { field: 'biomassFormula' });
-	let measured: Parameters<typeof solveAerobicGrowth>[0]['measured'];
-	let from: string;
-	if (f.yieldXSMethod === 'respiratoryQuotient') {
-		if (f.respiratoryQuotient === null) throw new RuleError('Enter the measured RQ (mol CO2 per mol O2) to work out Yx/s from it.', { field: 'respiratoryQuotient' });
-		measured = { kind: 'respiratoryQuotient', molCo2PerMolO2: f.respiratoryQuotient };
-		from = `RQ ${f.respiratoryQuotient}`;
-	} else if (f.yieldXO2GPerG !== null) {
-		measured = { kind: 'oxygenYield', gBiomassPerGO2: f.yieldXO2GPerG };
-		from = `Yx/O2 ${f.yieldXO2GPerG} g/g`;
-	} else if (f.qO2MmolPerGH !== null && f.muMaxPerH !== null) {
-		measured = { kind: 'oxygenYield', gBiomassPerGO2: f.muMaxPerH / ((f.qO2MmolPerGH * O2_MOLAR_MASS_G_PER_MOL) / 1000) };
-		from = `qO2 ${f.qO2MmolPerGH} mmol/(g·h) at μmax ${f.muMaxPerH} /h`;
-	} else {
-		throw new RuleError('Enter Yx/O2, or qO2 with μmax, to work out Yx/s from the oxygen yield.', { field: 'yieldXO2GPerG' });
-	}
-	const solved = withRuleErrors(() => solveAerobicGrowth({ substrateFormula, biomassFormula: f.biomassFormula!, ashFraction: f.ashFraction ?? 0, measured }), {
-		field: 'yieldXSMethod'
-	});
-	return { yieldGPerG: Number(solved.biomassOnSubstrateGPerG.toPrecision(4)), elasticity: solved.yieldElasticity, from };
-}
-
 /** Yx/s as stored: typed in, or worked out on save with the carbon source's formula from the library. */
 export function resolveCarbonYield(f: YieldFields): number | null {
 	if (f.yieldXSMethod === 'entered') return f.yieldXSGPerG;
 	if (!f.carbonSourceId) throw new RuleError('Choose the carbon source: its formula is needed for the element balance.', { field: 'carbonSourceId' });
-	return balanceCarbonYield(f, formulaOf(f.carbonSourceId, 'carbonSourceId')).yieldGPerG;
-}
-
-/**
- * Where Yx/s on the carbon source came from, in one line for the profile page and the report. The
- * formula comes with the caller's loaded data, so a study's evaluation reads no database.
- */
-export function describeCarbonYield(f: YieldFields, carbonSourceFormula: string | null): string {
-	if (f.yieldXSMethod === 'entered') return 'Entered on the profile';
-	try {
-		if (!carbonSourceFormula) throw new RuleError('the carbon source has no formula in the library.');
-		const b = balanceCarbonYield(f, carbonSourceFormula);
-		const sensitivity = Number.isFinite(b.elasticity) ? `; a 1 % error in it moves Yx/s by about ${Math.abs(b.elasticity).toPrecision(2)} %` : '; the value sits at the edge of what the balance allows';
-		return `Element balance (C, H, O, N; NH3 as N source) from ${b.from}${sensitivity}`;
-	} catch (cause) {
-		if (cause instanceof RuleError) return `Element balance, which now fails: ${cause.message}`;
-		throw cause;
-	}
+	const formula = formulaOf(f.carbonSourceId, 'carbonSourceId');
+	return withRuleErrors(() => balanceCarbonYield(f, formula)).yieldGPerG;
 }
 
 /** "l-glutamine 0.9" (entered, g/g) or "ammonium-sulfate from N" (sole source of N), one per line. */
@@ -131,11 +66,4 @@ export function parseSubstrateYields(text: string, f: YieldFields): SubstrateYie
 
 export function formatSubstrateYields(list: SubstrateYieldEntry[]): string {
 	return list.map((y) => (y.method === 'soleSource' ? `${y.componentId} from ${y.element}` : `${y.componentId} ${y.yieldGPerG}`)).join('\n');
-}
-
-/** One line saying where a yield came from, for the profile page and the study report. */
-export function describeSubstrateYield(y: SubstrateYieldEntry): string {
-	return y.method === 'soleSource'
-		? `Element balance: the only source of ${y.element}, Yx/s = w_${y.element}(substrate) / w_${y.element}(biomass)`
-		: 'Entered on the profile';
 }

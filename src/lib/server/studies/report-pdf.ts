@@ -3,7 +3,7 @@ import { VALUE_CONFIDENCE_WORDS } from '$chemistry';
 import { formatAmount, formatCells, formatDateTime, formatRunout, listValueSources } from '$lib/components/studies/format';
 import { FEED_PLAN_LABELS, TARGET_BASIS_UNITS } from '$lib/studies';
 import { MARGIN, Writer } from '../pdf/layout';
-import { STUDY_CAUTIONS } from './evaluate';
+import { STUDY_CAUTIONS } from '$chemistry';
 import type { loadStudyReport } from './page-load';
 
 export type LoadedStudyReport = ReturnType<typeof loadStudyReport>;

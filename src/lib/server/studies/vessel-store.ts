@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
+import { MAX_KLA_PER_H } from '$chemistry';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { vessel, type VesselRow } from '../db/schema';
@@ -11,7 +12,7 @@ export const vesselSchema = z.object({
 	minWorkingVolumeL: requiredNumber('Minimum working volume', { gt: 0, unit: 'L' }),
 	maxWorkingVolumeL: requiredNumber('Maximum working volume', { gt: 0, max: 100000, unit: 'L' }),
 	kLaMode: z.enum(['entered', 'correlation'], { error: 'Choose entered or correlation' }),
-	kLaPerH: optionalNumber('kLa', { gt: 0, max: 3600, unit: '1/h' }),
+	kLaPerH: optionalNumber('kLa', { gt: 0, max: MAX_KLA_PER_H, unit: '1/h' }),
 	correlationK: optionalNumber('k', { gt: 0 }),
 	correlationA: optionalNumber('a', { min: 0, max: 2 }),
 	correlationB: optionalNumber('b', { min: 0, max: 2 }),

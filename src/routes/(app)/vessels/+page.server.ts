@@ -1,7 +1,6 @@
 import { requirePermission } from '$lib/server/guard';
 import { listVessels } from '$lib/server/studies/queries';
-import { computeVesselKLa } from '$lib/server/studies/vessels';
-import { RuleError } from '$lib/server/rule-error';
+import { StudyDataError, computeVesselKLa } from '$chemistry';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
@@ -12,7 +11,7 @@ export const load: PageServerLoad = async () => {
 			try {
 				kLaPerH = computeVesselKLa(v).kLaPerH;
 			} catch (cause) {
-				if (!(cause instanceof RuleError)) throw cause;
+				if (!(cause instanceof StudyDataError)) throw cause;
 			}
 			return { id: v.id, name: v.name, minWorkingVolumeL: v.minWorkingVolumeL, maxWorkingVolumeL: v.maxWorkingVolumeL, kLaPerH, kLaMode: v.kLaMode, o2EnrichmentAllowed: v.o2EnrichmentAllowed, coolingCapacityW: v.coolingCapacityW, maxPressureKPa: v.maxPressureKPa, isDemo: v.isDemo };
 		})

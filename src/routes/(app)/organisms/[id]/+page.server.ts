@@ -6,7 +6,7 @@ import { requirePermission } from '$lib/server/guard';
 import { profileChoices, submitProfile } from '$lib/server/studies/profile-page';
 import { profileFormValues } from '$lib/server/studies/profile-store';
 import { checkProfileFormula, describeProfileElements } from '$lib/server/studies/profile-elements';
-import { listProfileYields } from '$lib/server/studies/profiles';
+import { listProfileYields } from '$chemistry';
 import { listComponents } from '$lib/server/components/library';
 import type { Actions, PageServerLoad } from './$types';
 

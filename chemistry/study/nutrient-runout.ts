@@ -1,4 +1,4 @@
-import type { SufficiencyLine } from '$chemistry';
+import type { SufficiencyLine } from '../sufficiency';
 import type { StudyFeedSource, StudySource } from './types';
 import type { PlanCourse } from './time-course';
 

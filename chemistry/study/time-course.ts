@@ -1,14 +1,8 @@
-import {
-	ChemistryInputError,
-	SimulationFailedError,
-	simulateRun,
-	type FeedInput,
-	type SimulationRequest,
-	type SimulationResult
-} from '$chemistry';
-import { isControlledPlan } from '$lib/studies';
-import { RuleError } from '../rule-error';
+import { ChemistryInputError } from '../errors';
+import { SimulationFailedError, simulateRun, type FeedInput, type SimulationRequest, type SimulationResult } from '../simulation';
+import { StudyDataError } from './errors';
 import type { DefaultUsed, StudyFeedSource, StudyInputs, TimeCourse } from './types';
+import { isControlledPlan } from './vocabulary';
 
 const OUTPUT_POINTS = 200;
 
@@ -77,9 +71,8 @@ function toStream(run: PlanRun, feed: StudyFeedSource): FeedInput {
 			const initialGPerL = run.inputs.basal.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0;
 			if (substrateGPerL <= plan.setpointGPerL! || substrateGPerL <= initialGPerL) {
 				const what = substrateGPerL === 0 ? `carries no ${carbon}` : `carries ${substrateGPerL.toPrecision(3)} g/L ${carbon}, not more than ${substrateGPerL <= plan.setpointGPerL! ? `the setpoint of ${plan.setpointGPerL} g/L` : `the basal medium's ${initialGPerL.toPrecision(3)} g/L`}`;
-				throw new RuleError(`${feed.label} ${what}, so a substrate-stat plan cannot hold ${carbon} at its setpoint with it. Choose another plan for this feed, or a feed that carries more ${carbon}.`, {
-					field: `feed${slot}Strategy`,
-					status: 422
+				throw new StudyDataError(`${feed.label} ${what}, so a substrate-stat plan cannot hold ${carbon} at its setpoint with it. Choose another plan for this feed, or a feed that carries more ${carbon}.`, {
+					field: `feed${slot}Strategy`
 				});
 			}
 			return { ...common, strategy: 'substrateStat', setpointGPerL: plan.setpointGPerL!, maxRateLPerH: plan.maxRateLPerH! };
@@ -191,7 +184,7 @@ export function simulatePlan(run: PlanRun): PlanCourses {
 			if (!(cause instanceof ChemistryInputError || cause instanceof SimulationFailedError)) throw cause;
 			if (streamFeeds.some(isControlled)) {
 				const field = cause instanceof ChemistryInputError ? studyFieldOf(cause.field, streamFeeds, run.feeds) : undefined;
-				throw new RuleError(`A substrate- or DO-stat feed delivers what the simulated run asks for, and the run cannot be simulated: ${cause.message}`, { field, status: 422 });
+				throw new StudyDataError(`A substrate- or DO-stat feed delivers what the simulated run asks for, and the run cannot be simulated: ${cause.message}`, { field });
 			}
 			return { message: cause.message };
 		}

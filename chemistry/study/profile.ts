@@ -1,27 +1,21 @@
-import {
-	ChemistryInputError,
-	O2_MOLAR_MASS_G_PER_MOL,
-	STANDARD_BIOMASS_FORMULA,
-	balanceAerobicGrowth,
-	type CarbonDemand,
-	type OrganismProfile,
-	type SubstrateDemand
-} from '$chemistry';
-import { YIELD_METHOD_LABELS } from '$lib/studies';
-import { RuleError } from '../rule-error';
-import { resolveElementStatements } from './profile-elements';
-import { describeCarbonYield, describeSubstrateYield } from './profile-yields';
-import type { DefaultUsed, OrganismProfileRow } from './types';
+import { BIOMASS_COMPOSITIONS, STANDARD_BIOMASS_FORMULA } from '../data/biomass';
+import { ChemistryInputError } from '../errors';
+import { statementsOfComposition, type ElementStatement } from '../profile-elements';
+import { balanceAerobicGrowth } from '../substrate-yield';
+import type { CarbonDemand, ElementStatements, OrganismProfile, PerCellConsumption, SubstrateDemand } from '../sufficiency';
+import { StudyDataError } from './errors';
+import { computeOxygenYieldFromUptake, describeCarbonYield, describeSubstrateYield } from './profile-yields';
+import type { DefaultUsed, StudyProfile } from './types';
+import { YIELD_METHOD_LABELS } from './vocabulary';
 
-function missing(profile: OrganismProfileRow, what: string, field: string): never {
-	throw new RuleError(`The organism profile “${profile.name}” has no ${what}, which this study needs. Edit the profile and add it.`, {
-		field: `profile.${field}`,
-		status: 422
+function missing(profile: StudyProfile, what: string, field: string): never {
+	throw new StudyDataError(`The organism profile “${profile.name}” has no ${what}, which this study needs. Edit the profile and add it.`, {
+		field: `profile.${field}`
 	});
 }
 
 /** The growth numbers every study needs, whatever the profile's kind. */
-export function requireGrowthData(profile: OrganismProfileRow) {
+export function requireGrowthData(profile: StudyProfile) {
 	if (!profile.carbonSourceId) missing(profile, 'carbon source', 'carbonSourceId');
 	if (profile.yieldXSGPerG === null) missing(profile, 'yield on the carbon source (Yx/s)', 'yieldXSGPerG');
 	if (profile.muMaxPerH === null) missing(profile, 'μmax', 'muMaxPerH');
@@ -41,7 +35,7 @@ export interface ComponentFacts {
 }
 
 /** The yields a study uses, each with where it came from, for the report's list of values used. */
-export function listYieldsUsed(profile: OrganismProfileRow, { componentNames, componentFormulas }: ComponentFacts): DefaultUsed[] {
+export function listYieldsUsed(profile: StudyProfile, { componentNames, componentFormulas }: ComponentFacts): DefaultUsed[] {
 	const growth = requireGrowthData(profile);
 	const name = (id: string) => componentNames[id] ?? id;
 	return [
@@ -51,20 +45,64 @@ export function listYieldsUsed(profile: OrganismProfileRow, { componentNames, co
 }
 
 /** The yields for the profile page; none until the profile has its growth data. */
-export function listProfileYields(profile: OrganismProfileRow, components: ComponentFacts): DefaultUsed[] {
+export function listProfileYields(profile: StudyProfile, components: ComponentFacts): DefaultUsed[] {
 	try {
 		return listYieldsUsed(profile, components);
 	} catch (cause) {
-		if (cause instanceof RuleError) return [];
+		if (cause instanceof StudyDataError) return [];
 		throw cause;
 	}
+}
+
+/** What the element rules read from a profile, stored or just checked on the form. */
+export interface ProfileElementFields {
+	elementalFractions: Record<string, number> | null;
+	perCellConsumption: PerCellConsumption[] | null;
+	fractionsSource: string | null;
+	elementStatements?: ElementStatements | null;
+}
+
+/** The elements a profile gives a value for: its fractions and its per-cell element lines. */
+export function listProfileElements(p: Pick<ProfileElementFields, 'elementalFractions' | 'perCellConsumption'>): string[] {
+	const fromCells = (p.perCellConsumption ?? []).filter((c) => c.basis === 'element').map((c) => c.key);
+	return [...new Set([...Object.keys(p.elementalFractions ?? {}), ...fromCells])];
+}
+
+/**
+ * The form keeps a published table's fractions to 4 significant digits; a fraction still at that
+ * value, under that table's citation, is the table's value and carries its grade.
+ */
+function tableStatement(symbol: string, fraction: number | undefined, source: string | null): ElementStatement | undefined {
+	if (fraction === undefined || !source) return undefined;
+	const table = BIOMASS_COMPOSITIONS.find((b) => b.source === source);
+	const published = table?.massFractions[symbol];
+	if (!table || !published || Number(published.value.toPrecision(4)) !== fraction) return undefined;
+	return statementsOfComposition(table)[symbol];
+}
+
+/**
+ * Each element's statement: the one stored with the profile; for a profile saved before statements
+ * were kept, the grade of the published table its fractions came from; otherwise the fractions'
+ * source with no stated confidence.
+ */
+export function resolveElementStatements(p: ProfileElementFields): ElementStatements {
+	const out: ElementStatements = {};
+	for (const symbol of listProfileElements(p)) {
+		const stored = p.elementStatements?.[symbol];
+		if (stored) {
+			out[symbol] = stored;
+			continue;
+		}
+		out[symbol] = tableStatement(symbol, p.elementalFractions?.[symbol], p.fractionsSource) ?? (p.fractionsSource ? { source: p.fractionsSource } : {});
+	}
+	return out;
 }
 
 /**
  * The profile as the sufficiency engine reads it, with the carbon rule and the further substrates;
  * each element with its role and confidence, each yield with how it was obtained.
  */
-export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: OrganismProfile; carbon?: CarbonDemand; substrates: SubstrateDemand[] } {
+export function toSufficiencyProfile(profile: StudyProfile): { profile: OrganismProfile; carbon?: CarbonDemand; substrates: SubstrateDemand[] } {
 	const cellDryMassPg = profile.cellDryMassPg ?? undefined;
 	const growth = requireGrowthData(profile);
 	const elements = resolveElementStatements(profile);
@@ -119,15 +157,11 @@ export function toSufficiencyProfile(profile: OrganismProfileRow): { profile: Or
  * Yx/O2 in g biomass per g O2: entered; else from qO2 taken at μmax (a culture growing at μmax
  * respires qO2 = μmax / Yx/O2); else from the element balance with Yx/s. The route taken is listed.
  */
-export function resolveOxygenYield(
-	profile: OrganismProfileRow,
-	carbonSourceFormula: string | null,
-	defaults: DefaultUsed[]
-): number {
+export function resolveOxygenYield(profile: StudyProfile, carbonSourceFormula: string | null, defaults: DefaultUsed[]): number {
 	if (profile.yieldXO2GPerG !== null) return profile.yieldXO2GPerG;
 	const growth = requireGrowthData(profile);
 	if (profile.qO2MmolPerGH !== null) {
-		const y = growth.muMaxPerH / ((profile.qO2MmolPerGH * O2_MOLAR_MASS_G_PER_MOL) / 1000);
+		const y = computeOxygenYieldFromUptake(growth.muMaxPerH, profile.qO2MmolPerGH);
 		defaults.push({
 			what: 'Yx/O2',
 			value: `${y.toPrecision(3)} g/g`,
@@ -157,9 +191,9 @@ export function resolveOxygenYield(
 		return y;
 	} catch (cause) {
 		if (!(cause instanceof ChemistryInputError)) throw cause;
-		throw new RuleError(
+		throw new StudyDataError(
 			`The oxygen yield of “${profile.name}” cannot be worked out from its element balance (${cause.message}). Enter Yx/O2 or qO2 on the profile.`,
-			{ field: 'profile.yieldXO2GPerG', status: 422 }
+			{ field: 'profile.yieldXO2GPerG' }
 		);
 	}
 }

@@ -1,0 +1,11 @@
+// Sufficiency studies: a study's loaded data and what-if in, its report out. No database here.
+export * from './vocabulary';
+export * from './types';
+export { StudyDataError, asStudyDataError } from './errors';
+export { MAX_BIOMASS_G_PER_L, STUDY_CAUTIONS, convertCellsPerMlToGPerL, convertTargetToBiomass, evaluateStudy } from './evaluate';
+export { simulatePlan, isControlled, type PlanRun, type PlanCourse, type PlanCourses, type FeedDelivery } from './time-course';
+export { findRunoutTimes, findEmptyTime, type Runout, type RunoutInput } from './nutrient-runout';
+export * from './profile-yields';
+export * from './profile';
+export { MAX_KLA_PER_H, computeVesselKLa } from './vessel';
+export * from './feed-designer';
