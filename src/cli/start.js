@@ -12,7 +12,9 @@ process.env.BODY_SIZE_LIMIT ??= '45M';
 
 const server = resolve('build/index.js');
 if (!existsSync(server)) {
-	console.error('No build found at build/index.js: run `npm run build` first (npm start does this).');
+	console.error(
+		'No build found at build/index.js: run `npm run build` first (npm start does this).'
+	);
 	process.exit(1);
 }
 await import(pathToFileURL(server).href);

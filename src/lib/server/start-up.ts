@@ -14,7 +14,8 @@ const DIGEST_CHECK_INTERVAL_MS = 60 * 60 * 1000;
 export async function startServer(): Promise<void> {
 	if (process.env.RESET_DATABASE === '1') {
 		// Used by the browser tests: every run starts from an empty file.
-		for (const suffix of ['', '-wal', '-shm']) rmSync(config.databasePath + suffix, { force: true });
+		for (const suffix of ['', '-wal', '-shm'])
+			rmSync(config.databasePath + suffix, { force: true });
 	}
 
 	getDb();
@@ -29,7 +30,9 @@ export async function startServer(): Promise<void> {
 
 	if (config.seedDemo) {
 		const added = await seedDemo();
-		console.log(added ? `Demo data: added ${added} records.` : 'Demo data: already present, nothing changed.');
+		console.log(
+			added ? `Demo data: added ${added} records.` : 'Demo data: already present, nothing changed.'
+		);
 	}
 
 	await startMail();
@@ -37,7 +40,8 @@ export async function startServer(): Promise<void> {
 
 	if (config.seedDemo) {
 		console.log(`Demo sign-ins at ${config.origin} (password ${DEMO_PASSWORD}):`);
-		for (const account of DEMO_ACCOUNTS) console.log(`  ${account.email.padEnd(24)} ${account.roles.join(', ')}`);
+		for (const account of DEMO_ACCOUNTS)
+			console.log(`  ${account.email.padEnd(24)} ${account.roles.join(', ')}`);
 	}
 }
 
@@ -60,7 +64,9 @@ async function startMail(): Promise<void> {
 		);
 		process.exit(1);
 	}
-	console.log(`Mail stand-in listening on 127.0.0.1:${config.smtp.port}; read it at ${config.origin}/admin/outbox`);
+	console.log(
+		`Mail stand-in listening on 127.0.0.1:${config.smtp.port}; read it at ${config.origin}/admin/outbox`
+	);
 }
 
 /** The inventory digest: checked hourly, sent once a day (the date sent is kept in site_setting). */
