@@ -28,7 +28,7 @@ export default defineConfig({
 		}
 	},
 	webServer: {
-		command: 'TSX_TSCONFIG_PATH=src/cli/tsconfig.json npx tsx src/cli/start.ts',
+		command: 'node src/cli/start.js',
 		url: `${origin}/api/v1/health`,
 		reuseExistingServer: false,
 		timeout: 60_000,

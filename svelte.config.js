@@ -12,11 +12,6 @@ const config = {
 		typescript: {
 			config(tsconfig) {
 				tsconfig.include.push('../chemistry/**/*.ts', '../tests/**/*.ts');
-				// odex ships raw .ts sources that do not pass our strict checks; a small declaration stands in
-				tsconfig.compilerOptions.paths = {
-					...tsconfig.compilerOptions.paths,
-					odex: ['../chemistry/types/odex.d.ts']
-				};
 				return tsconfig;
 			}
 		}

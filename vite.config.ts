@@ -4,9 +4,6 @@ import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
 	plugins: [tailwindcss(), sveltekit()],
-	// Bundled into the server build: `npm start` runs the build under tsx, whose tsconfig path
-	// mapping would send a runtime `import 'odex'` to the type declaration that stands in for it.
-	ssr: { noExternal: ['odex'] },
 	test: {
 		include: ['tests/chemistry/**/*.test.ts', 'tests/server/**/*.test.ts'],
 		environment: 'node',

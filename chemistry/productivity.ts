@@ -14,7 +14,7 @@
  * continuous productivity is the chemostat's D·X at steady state (chemostat.ts), with the same m_s.
  * With Ks ≪ S0, D near μmax and no maintenance their ratio approaches ln(Xm/X0) + μmax·t_turnaround.
  */
-import { Outcome, Solver } from 'odex';
+import { Outcome, Solver } from '#odex';
 import { computeChemostatOperatingPoint, validateMonodChemostatParameters } from './chemostat';
 import { ChemistryInputError } from './errors';
 

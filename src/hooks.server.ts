@@ -1,9 +1,21 @@
-import type { Handle, HandleServerError } from '@sveltejs/kit';
+import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
+import { building, dev } from '$app/environment';
 import { sequence } from '@sveltejs/kit/hooks';
 import { PROBLEM_CONTENT_TYPE, problem } from '$lib/server/api/problem';
 import { getLucia } from '$lib/server/auth/lucia';
 import { setSessionCookie } from '$lib/server/auth/sign-in';
 import { rolesOf } from '$lib/server/people';
+
+/**
+ * Runs once before the server answers its first request (`node build`, `npm start`): migrations, the
+ * reference library, the demo, the mail stand-in and the digest timer. `vite dev` opens the database on
+ * first use and starts no mail stand-in; the build step starts nothing.
+ */
+export const init: ServerInit = async () => {
+	if (dev || building) return;
+	const { startServer } = await import('$lib/server/start-up');
+	await startServer();
+};
 
 const handleSession: Handle = async ({ event, resolve }) => {
 	const lucia = getLucia();

@@ -1,4 +1,4 @@
-import { Outcome, Solver, type DenseInterpolant, type OutputFunction } from 'odex';
+import { Outcome, Solver, type DenseInterpolant, type OutputFunction } from '#odex';
 import { SimulationFailedError } from './errors';
 import {
 	formatNumber,

@@ -1,8 +1,7 @@
-// Stands in for odex's own raw .ts sources (which fail our strict checks); only what chemistry/ uses.
-// Runtime entry: node_modules/odex/src/odex.js (CommonJS); svelte.config.js maps `odex` here for tsc.
-// No `declare` on the class and enum, on purpose: tsx applies that same mapping at run time and loads
-// this file as code; with them left in, the import still links and simulateRun can say what went
-// wrong, instead of the whole module graph failing to load.
+// The types of odex 2.0.4 for `#odex` (package.json "imports": TypeScript reads this file, Node, Vite and
+// tsx load node_modules/odex/src/odex.js). odex's package points TypeScript at its raw .ts sources, which
+// fail our strict checks; odex 3 (a release candidate) passes them but changes the API. Only what
+// chemistry/ uses is declared.
 
 /** Computes y' = f(x, y); the solver copies the returned array, so it may be reused between calls. */
 export type Derivative = (x: number, y: number[]) => number[];

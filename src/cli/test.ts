@@ -1,4 +1,4 @@
-// `npm test`: type check, unit and server tests, build, then the browser tests in Debian's Chromium.
+// `npm test`: lint (Prettier, ESLint), type check, unit and server tests, build, then the browser tests in Debian's Chromium.
 import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 
@@ -35,6 +35,7 @@ function ensureChromium(): void {
 	process.exit(1);
 }
 
+run('lint (Prettier, ESLint)', 'npm', ['run', 'lint']);
 ensureChromium();
 run('type check', 'npx', ['svelte-kit', 'sync']);
 run('type check', 'npx', ['svelte-check', '--tsconfig', './tsconfig.json', '--fail-on-warnings']);

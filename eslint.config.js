@@ -1,0 +1,46 @@
+import js from '@eslint/js';
+import prettier from 'eslint-config-prettier';
+import { defineConfig } from 'eslint/config';
+import svelte from 'eslint-plugin-svelte';
+import globals from 'globals';
+import ts from 'typescript-eslint';
+import svelteConfig from './svelte.config.js';
+
+export default defineConfig(
+	{
+		// Generated, installed or written at run time (as in .gitignore).
+		ignores: [
+			'build/',
+			'.svelte-kit/',
+			'node_modules/',
+			'data/',
+			'test-results/',
+			'playwright-report/',
+			'tests/.tmp/'
+		]
+	},
+	js.configs.recommended,
+	ts.configs.recommended,
+	svelte.configs.recommended,
+	// Last among the shared configs: switches off every rule that Prettier's formatting decides.
+	prettier,
+	svelte.configs.prettier,
+	{
+		languageOptions: { globals: { ...globals.browser, ...globals.node } },
+		rules: {
+			// TypeScript itself reports undefined names, with the project's types and globals.
+			'no-undef': 'off'
+		}
+	},
+	{
+		files: ['**/*.svelte', '**/*.svelte.ts', '**/*.svelte.js'],
+		languageOptions: {
+			parserOptions: {
+				projectService: true,
+				extraFileExtensions: ['.svelte'],
+				parser: ts.parser,
+				svelteConfig
+			}
+		}
+	}
+);
