@@ -1,3 +1,4 @@
+import { readDecimalText } from '$lib/quantities';
 import { asc, eq, inArray, sql } from 'drizzle-orm';
 import { ChemistryInputError, molarMassOf, parseFormula, resolveComponent, type ComponentSpec } from '$chemistry';
 import {
@@ -135,8 +136,9 @@ export function componentText(row: Component | undefined): ComponentText {
 function optionalNumber(text: string, field: string, errors: FieldErrors, check: (n: number) => string | null): number | null {
 	const trimmed = text.trim();
 	if (!trimmed) return null;
-	const value = Number(trimmed);
-	const problem = Number.isFinite(value) ? check(value) : `“${trimmed}” is not a number.`;
+	const read = readDecimalText(trimmed, 'Number');
+	const value = read.ok ? read.value : NaN;
+	const problem = read.ok ? check(value) : `“${trimmed}” is not a number.`;
 	if (problem) {
 		errors[field] = [problem];
 		return null;

@@ -1,3 +1,4 @@
+import { readDecimalText } from '$lib/quantities';
 import { ATOMIC_WEIGHTS, O2_MOLAR_MASS_G_PER_MOL, computeSoleSourceYield, solveAerobicGrowth, type PerCellConsumption } from '$chemistry';
 import type { SubstrateYieldEntry, YieldMethod } from '$lib/studies';
 import { findComponent } from '../components/library';
@@ -107,7 +108,8 @@ export function parseSubstrateYields(text: string, f: YieldFields): SubstrateYie
 			if (perCell.has(componentId)) throw new RuleError(`${component.name} has both a per-cell consumption rate and a yield; keep one of them.`, { field });
 			seen.add(componentId);
 			if (number !== undefined) {
-				const yieldGPerG = Number(number.replace(',', '.'));
+				const read = readDecimalText(number, 'Yield');
+				const yieldGPerG = read.ok ? read.value : NaN;
 				if (!Number.isFinite(yieldGPerG) || yieldGPerG <= 0 || yieldGPerG > 1000) {
 					throw new RuleError(`The yield on ${component.name} must be a number above 0 and at most 1000 g/g, not “${number}”.`, { field });
 				}

@@ -1,3 +1,4 @@
+import { decimalOrNaN } from '$lib/quantities';
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
@@ -15,7 +16,7 @@ const amountField = z
 	.string()
 	.trim()
 	.min(1, 'Enter the amount.')
-	.transform((v) => Number(v.replace(',', '.')))
+	.transform(decimalOrNaN)
 	.refine((n) => Number.isFinite(n) && n > 0, 'The amount must be a number above zero.');
 const reasonField = z.string().trim().min(3, 'Give the reason (a few words at least).').max(500);
 
@@ -115,7 +116,7 @@ export const actions: Actions = {
 			const parsed = parseForm(disposeForm, formData);
 			if (!parsed.ok) return parsed.failure;
 			const all = parsed.data.all === 'yes';
-			const amount = Number((parsed.data.amount ?? '').replace(',', '.'));
+			const amount = decimalOrNaN(parsed.data.amount ?? '');
 			if (!all && !(parsed.data.amount ?? '').trim()) {
 				return formFailure(formData, 'Enter the amount to dispose of, or tick “all that is left”.', { amount: ['Enter the amount.'] });
 			}
