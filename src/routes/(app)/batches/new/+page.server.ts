@@ -3,9 +3,14 @@ import { isoToday } from '$lib/inventory';
 import { checkBatchInput, createBatch } from '$lib/server/batches/create';
 import { BATCH_PLANNERS } from '$lib/server/batches/roles';
 import { approvedRecipes } from '$lib/server/batches/view';
-import { formFailure, ruleFailure } from '$lib/server/forms';
+import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requireRole } from '$lib/server/guard';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
+
+// Shapes only: checkBatchInput says what each value must be, by the field's label.
+const text = z.string().default('');
+const planForm = z.object({ recipeId: text, targetVolumeL: text, plannedOn: text, intendedUse: text });
 
 export const load: PageServerLoad = async ({ url }) => {
 	requireRole(...BATCH_PLANNERS);
@@ -16,12 +21,9 @@ export const actions: Actions = {
 	default: async ({ request }) => {
 		const user = requireRole(...BATCH_PLANNERS);
 		const formData = await request.formData();
-		const checked = checkBatchInput({
-			recipeId: String(formData.get('recipeId') ?? ''),
-			targetVolumeL: String(formData.get('targetVolumeL') ?? ''),
-			plannedOn: String(formData.get('plannedOn') ?? ''),
-			intendedUse: String(formData.get('intendedUse') ?? '')
-		});
+		const parsed = parseForm(planForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		const checked = checkBatchInput(parsed.data);
 		if (!checked.ok) return formFailure(formData, 'Please correct the fields marked below; no batch was planned.', checked.fieldErrors);
 		let id: string;
 		try {

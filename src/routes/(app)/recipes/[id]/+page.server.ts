@@ -1,13 +1,16 @@
 import { error, redirect } from '@sveltejs/kit';
 import { hasRole } from '$lib/roles';
-import { ruleFailure } from '$lib/server/forms';
+import { parseForm, ruleFailure } from '$lib/server/forms';
 import { requireUser } from '$lib/server/guard';
 import { RuleError } from '$lib/server/rule-error';
 import { RECIPE_EDITORS, requireRecipeEditor } from '$lib/server/recipes/access';
 import { startDraftFrom } from '$lib/server/recipes/drafts';
 import { findRecipe } from '$lib/server/recipes/queries';
 import { recipeView } from '$lib/server/recipes/view';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
+
+const newDraftForm = z.object({ versionId: z.string().default('') });
 
 export const load: PageServerLoad = async ({ params }) => {
 	const user = requireUser();
@@ -24,9 +27,11 @@ export const actions: Actions = {
 		const actor = requireRecipeEditor();
 		const formData = await request.formData();
 		if (!findRecipe(params.id)) error(404, { message: 'No recipe with this id.' });
+		const parsed = parseForm(newDraftForm, formData);
+		if (!parsed.ok) return parsed.failure;
 		let n: number;
 		try {
-			n = startDraftFrom(actor, String(formData.get('versionId') ?? '')).n;
+			n = startDraftFrom(actor, parsed.data.versionId).n;
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}

@@ -1,5 +1,6 @@
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
+import { revisionField } from '$lib/server/recipes/draft';
 import { hasRole } from '$lib/roles';
 import { SIGNATURE_MEANINGS } from '$lib/recipes';
 import { auditEventsFor } from '$lib/server/audit';
@@ -12,6 +13,7 @@ import { findVersion } from '$lib/server/recipes/queries';
 import { APPROVER_ROLES, returnToDraft, retireVersion, signingRefusal, signVersion, submitForReview, versionDigest } from '$lib/server/recipes/workflow';
 import type { Actions, PageServerLoad } from './$types';
 
+const submitForm = z.object({ revision: revisionField });
 const signForm = z.object({
 	meaning: z.enum(SIGNATURE_MEANINGS, { error: 'Choose what your signature means: reviewed or approved.' }),
 	password: z.string().min(1, 'Enter your password to sign.').max(256),
@@ -47,8 +49,10 @@ export const actions: Actions = {
 		const actor = requireRecipeEditor();
 		const formData = await request.formData();
 		const version = currentVersion(params);
+		const parsed = parseForm(submitForm, formData);
+		if (!parsed.ok) return parsed.failure;
 		try {
-			submitForReview(actor, version.id, Number(formData.get('revision')));
+			submitForReview(actor, version.id, parsed.data.revision);
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
