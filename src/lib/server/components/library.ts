@@ -1,5 +1,6 @@
 import { readDecimalText } from '$lib/quantities';
 import { asc, eq, inArray, sql } from 'drizzle-orm';
+import { z } from 'zod';
 import { ChemistryInputError, molarMassOf, parseFormula, resolveComponent, type ComponentSpec } from '$chemistry';
 import {
 	checkCasNumber,
@@ -16,7 +17,7 @@ import { COMPONENT_CATEGORIES, type ComponentCategoryName } from '$lib/recipes';
 import { recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { component, type Component } from '../db/schema';
-import type { FieldErrors } from '../forms';
+import { formText, type FieldErrors } from '../forms';
 import { RuleError } from '../rule-error';
 import { knownHazardTexts } from './hazards';
 
@@ -38,6 +39,9 @@ export const COMPONENT_FIELDS = [
 	'storage',
 	'basisComponent'
 ] as const;
+
+/** The component form's shape: every field as text; checkComponentText says what each must hold. */
+export const componentForm = z.object(Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, formText])) as Record<(typeof COMPONENT_FIELDS)[number], typeof formText>);
 export type ComponentField = (typeof COMPONENT_FIELDS)[number];
 export type ComponentText = Record<ComponentField, string>;
 

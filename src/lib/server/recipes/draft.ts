@@ -1,4 +1,3 @@
-import { z } from 'zod';
 import { readDecimalText } from '$lib/quantities';
 import { eq } from 'drizzle-orm';
 import { ChemistryInputError, isMolarUnit, normalizeConcentrationUnit } from '$chemistry';
@@ -66,12 +65,6 @@ function text(value: unknown): string {
 }
 
 /** Reads the editor's form: recipe fields by name, lines as `lines.<i>.<field>`, in index order. */
-/** The revision an edit form started from, sent back with it (optimistic concurrency). */
-export const revisionField = z.coerce
-	.number({ error: 'The page is out of date; reload it and try again.' })
-	.int('The page is out of date; reload it and try again.')
-	.min(0, 'The page is out of date; reload it and try again.');
-
 export function readDraftForm(formData: FormData): DraftInput {
 	const fields = Object.fromEntries(FIELD_KEYS.map((k) => [k, text(formData.get(k))])) as unknown as DraftFieldsInput;
 	const byIndex = new Map<number, Partial<DraftLineInput>>();

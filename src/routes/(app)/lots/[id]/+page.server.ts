@@ -3,7 +3,7 @@ import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
 import { tagged } from '$lib/server/form-tag';
-import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { formFailure, formText, parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requireRole, requireUser } from '$lib/server/guard';
 import { attachCertificates, checkCertificateFiles } from '$lib/server/inventory/certificates';
 import { adjustLot, disposeLot, setLotStatus } from '$lib/server/inventory/lots';
@@ -18,6 +18,7 @@ const amountField = z
 	.min(1, 'Enter the amount.')
 	.transform(decimalOrNaN)
 	.refine((n) => Number.isFinite(n) && n > 0, 'The amount must be a number above zero.');
+const releaseForm = z.object({ reason: formText });
 const reasonField = z.string().trim().min(3, 'Give the reason (a few words at least).').max(500);
 
 const adjustForm = z.object({
@@ -62,8 +63,10 @@ export const actions: Actions = {
 		tagged('release', async () => {
 			const actor = keeper();
 			const formData = await request.formData();
+			const parsed = parseForm(releaseForm, formData);
+			if (!parsed.ok) return parsed.failure;
 			try {
-				setLotStatus(actor, params.id, 'released', String(formData.get('reason') ?? ''));
+				setLotStatus(actor, params.id, 'released', parsed.data.reason);
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}

@@ -2,11 +2,12 @@ import { redirect } from '@sveltejs/kit';
 import { hasRole } from '$lib/roles';
 import { FEED_DRAFT_ROLES } from '$lib/studies';
 import { listComponents } from '$lib/server/components/library';
-import { formFailure, ruleFailure } from '$lib/server/forms';
+import { parseForm, ruleFailure } from '$lib/server/forms';
 import { requireStudyAccess } from '$lib/server/studies/access';
 import { defaultFeedLimits, listSubstanceChoices, oneFormPerSubstance } from '$lib/server/studies/feed-designer';
 import { loadStudyReport } from '$lib/server/studies/page-load';
 import { deleteStudy } from '$lib/server/studies/study-store';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
@@ -30,7 +31,8 @@ export const actions: Actions = {
 	delete: async ({ request, params }) => {
 		const actor = requireStudyAccess();
 		const formData = await request.formData();
-		if (formData.get('confirm') !== 'yes') return formFailure(formData, 'Confirm the deletion first.');
+		const confirmed = parseForm(z.object({ confirm: z.literal('yes', { error: 'Confirm first.' }) }), formData, [], 'Confirm the deletion first.');
+		if (!confirmed.ok) return confirmed.failure;
 		try {
 			deleteStudy(actor, params.id);
 		} catch (cause) {

@@ -1,13 +1,14 @@
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
-import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requireRole } from '$lib/server/guard';
 import { changeRoles, findUser, rolesOf, setActive } from '$lib/server/people';
 import { rolesField } from '$lib/server/role-field';
 import type { Actions, PageServerLoad } from './$types';
 
 const rolesForm = z.object({ roles: rolesField });
+const confirmForm = z.object({ confirm: z.literal('yes', { error: 'Confirm first.' }) });
 
 export const load: PageServerLoad = async ({ params }) => {
 	requireRole('admin');
@@ -48,9 +49,8 @@ export const actions: Actions = {
 	deactivate: async ({ request, params }) => {
 		const by = actor();
 		const formData = await request.formData();
-		if (formData.get('confirm') !== 'yes') {
-			return formFailure(formData, 'Tick the box to confirm: their sessions end at once.', { confirm: ['Confirm first.'] });
-		}
+		const confirmed = parseForm(confirmForm, formData, [], 'Tick the box to confirm: their sessions end at once.');
+		if (!confirmed.ok) return confirmed.failure;
 		try {
 			await setActive(by, params.id, false);
 		} catch (cause) {

@@ -1,10 +1,9 @@
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { revisionField } from '$lib/server/recipes/draft';
 import { hasRole } from '$lib/roles';
 import { SIGNATURE_MEANINGS } from '$lib/recipes';
 import { auditEventsFor } from '$lib/server/audit';
-import { parseForm, ruleFailure } from '$lib/server/forms';
+import { parseForm, revisionField, ruleFailure } from '$lib/server/forms';
 import { requireRole, requireUser } from '$lib/server/guard';
 import { actorOf, RECIPE_EDITORS, requireRecipeEditor, versionNumber } from '$lib/server/recipes/access';
 import { startDraftFrom } from '$lib/server/recipes/drafts';

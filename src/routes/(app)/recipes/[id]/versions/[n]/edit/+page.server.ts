@@ -8,7 +8,7 @@ import { fieldsOf, saveDraft, StaleEditError } from '$lib/server/recipes/drafts'
 import { findRecipe, findVersion, linesOf, listStockRecipes } from '$lib/server/recipes/queries';
 import { toDraftFields, toDraftLines } from '$lib/server/recipes/editor-data';
 import { z } from 'zod';
-import { revisionField } from '$lib/server/recipes/draft';
+import { revisionField } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 function draftVersion(params: { id: string; n: string }) {
