@@ -35,6 +35,7 @@ describe('parseForm', () => {
 	it('reads a revision as a whole number and refuses anything else', () => {
 		const form = z.object({ revision: revisionField });
 		expect(parseForm(form, formOf([['revision', '3']]))).toEqual({ ok: true, data: { revision: 3 } });
+		expect(parseForm(form, formOf([]))).toEqual({ ok: true, data: { revision: 0 } });
 		const stale = parseForm(form, formOf([['revision', 'three']]));
 		expect(stale.ok || stale.failure.data.fieldErrors).toEqual({ revision: ['The page is out of date; reload it and try again.'] });
 	});

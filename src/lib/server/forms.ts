@@ -34,11 +34,17 @@ export function formFailure(
 /** A text field read for its shape only; the domain's check says what it must hold, by its label. */
 export const formText = z.string().default('');
 
-/** The revision an edit form started from, sent back with it (optimistic concurrency). */
-export const revisionField = z.coerce
-	.number({ error: 'The page is out of date; reload it and try again.' })
-	.int('The page is out of date; reload it and try again.')
-	.min(0, 'The page is out of date; reload it and try again.');
+/**
+ * The revision an edit form started from, sent back with it (optimistic concurrency). Forms leave the
+ * field out at revision 0, so a missing one reads as 0.
+ */
+export const revisionField = z.preprocess(
+	(value) => value ?? '',
+	z.coerce
+		.number({ error: 'The page is out of date; reload it and try again.' })
+		.int('The page is out of date; reload it and try again.')
+		.min(0, 'The page is out of date; reload it and try again.')
+);
 
 type Parsed<S extends z.ZodType> =
 	| { ok: true; data: z.infer<S> }
