@@ -231,14 +231,14 @@ function isPositiveFinite(value: unknown): value is number {
 	return typeof value === 'number' && Number.isFinite(value) && value > 0;
 }
 
-/**
- * Checks a component and reduces it to per-gram element amounts, particles and ionic-strength
- * factors. Results are cached per spec object; `field` prefixes error paths
- * (e.g. 'lines.3.component').
- */
-export function resolveComponent(spec: ComponentSpec, field = 'component'): ResolvedComponent {
-	const cached = resolvedCache.get(spec);
-	if (cached) return cached;
+interface ElementAmounts {
+	molarMassGPerMol: number | null;
+	elementSymbols: string[];
+	elementGPerG: number[];
+	elementMolPerG: number[];
+}
+
+function checkIdentity(spec: ComponentSpec, field: string): void {
 	if (!spec || typeof spec !== 'object')
 		throw new ChemistryInputError('Component is missing', { field });
 	if (typeof spec.id !== 'string' || spec.id.trim() === '') {
@@ -247,86 +247,83 @@ export function resolveComponent(spec: ComponentSpec, field = 'component'): Reso
 	if (typeof spec.name !== 'string' || spec.name.trim() === '') {
 		throw new ChemistryInputError('Component needs a name', { field: `${field}.name` });
 	}
-	const hasFormula = spec.formula != null && spec.formula !== '';
-	const fractions = spec.elementalMassFractions;
-	if (hasFormula && fractions != null) {
-		throw new ChemistryInputError('Give either a formula or elemental mass fractions, not both', {
-			field: `${field}.elementalMassFractions`
-		});
-	}
+}
 
+function elementsFromFormula(spec: ComponentSpec, field: string): ElementAmounts {
+	const vector = vectorOfFormula(spec.formula as string, `${field}.formula`);
+	const molarMassGPerMol = vector.molarMassGPerMol;
+	if (
+		spec.molarMassGPerMol != null &&
+		!(Math.abs(spec.molarMassGPerMol - molarMassGPerMol) <= 0.01 * molarMassGPerMol)
+	) {
+		throw new ChemistryInputError(
+			`Molar mass ${spec.molarMassGPerMol} g/mol disagrees with the formula's ${molarMassGPerMol.toFixed(3)} g/mol`,
+			{ field: `${field}.molarMassGPerMol` }
+		);
+	}
+	return { molarMassGPerMol, elementSymbols: vector.symbols, elementGPerG: vector.gPerG, elementMolPerG: vector.molPerG };
+}
+
+function elementsFromFractions(spec: ComponentSpec, field: string): ElementAmounts {
+	const fractions = spec.elementalMassFractions;
 	let molarMassGPerMol: number | null = null;
-	let elementSymbols: string[] = [];
-	let elementGPerG: number[] = [];
-	let elementMolPerG: number[] = [];
-	if (hasFormula) {
-		const vector = vectorOfFormula(spec.formula as string, `${field}.formula`);
-		molarMassGPerMol = vector.molarMassGPerMol;
-		if (
-			spec.molarMassGPerMol != null &&
-			!(Math.abs(spec.molarMassGPerMol - molarMassGPerMol) <= 0.01 * molarMassGPerMol)
-		) {
+	const elementSymbols: string[] = [];
+	const elementGPerG: number[] = [];
+	const elementMolPerG: number[] = [];
+	if (spec.molarMassGPerMol != null) {
+		if (!isPositiveFinite(spec.molarMassGPerMol)) {
+			throw new ChemistryInputError('Molar mass must be a positive number of g/mol', {
+				field: `${field}.molarMassGPerMol`
+			});
+		}
+		molarMassGPerMol = spec.molarMassGPerMol;
+	}
+	if (fractions != null) {
+		if (typeof fractions !== 'object') {
 			throw new ChemistryInputError(
-				`Molar mass ${spec.molarMassGPerMol} g/mol disagrees with the formula's ${molarMassGPerMol.toFixed(3)} g/mol`,
-				{ field: `${field}.molarMassGPerMol` }
+				'Elemental mass fractions must map element symbols to numbers',
+				{
+					field: `${field}.elementalMassFractions`
+				}
 			);
 		}
-		elementSymbols = vector.symbols;
-		elementGPerG = vector.gPerG;
-		elementMolPerG = vector.molPerG;
-	} else {
-		if (spec.molarMassGPerMol != null) {
-			if (!isPositiveFinite(spec.molarMassGPerMol)) {
-				throw new ChemistryInputError('Molar mass must be a positive number of g/mol', {
-					field: `${field}.molarMassGPerMol`
-				});
+		let sum = 0;
+		for (const [symbol, fraction] of Object.entries(fractions)) {
+			const fractionField = `${field}.elementalMassFractions.${symbol}`;
+			if (ATOMIC_WEIGHTS[symbol] === undefined) {
+				throw new ChemistryInputError(`Unknown element '${symbol}'`, { field: fractionField });
 			}
-			molarMassGPerMol = spec.molarMassGPerMol;
+			if (
+				typeof fraction !== 'number' ||
+				!Number.isFinite(fraction) ||
+				fraction < 0 ||
+				fraction > 1
+			) {
+				throw new ChemistryInputError(
+					`Mass fraction of ${symbol} must be between 0 and 1 (g per g)`,
+					{
+						field: fractionField
+					}
+				);
+			}
+			sum += fraction;
+			elementSymbols.push(symbol);
+			elementGPerG.push(fraction);
+			elementMolPerG.push(fraction / ATOMIC_WEIGHTS[symbol]);
 		}
-		if (fractions != null) {
-			if (typeof fractions !== 'object') {
-				throw new ChemistryInputError(
-					'Elemental mass fractions must map element symbols to numbers',
-					{
-						field: `${field}.elementalMassFractions`
-					}
-				);
-			}
-			let sum = 0;
-			for (const [symbol, fraction] of Object.entries(fractions)) {
-				const fractionField = `${field}.elementalMassFractions.${symbol}`;
-				if (ATOMIC_WEIGHTS[symbol] === undefined) {
-					throw new ChemistryInputError(`Unknown element '${symbol}'`, { field: fractionField });
+		if (sum > 1 + 1e-6) {
+			throw new ChemistryInputError(
+				`Elemental mass fractions add up to ${sum.toFixed(4)}, more than 1 g per g`,
+				{
+					field: `${field}.elementalMassFractions`
 				}
-				if (
-					typeof fraction !== 'number' ||
-					!Number.isFinite(fraction) ||
-					fraction < 0 ||
-					fraction > 1
-				) {
-					throw new ChemistryInputError(
-						`Mass fraction of ${symbol} must be between 0 and 1 (g per g)`,
-						{
-							field: fractionField
-						}
-					);
-				}
-				sum += fraction;
-				elementSymbols.push(symbol);
-				elementGPerG.push(fraction);
-				elementMolPerG.push(fraction / ATOMIC_WEIGHTS[symbol]);
-			}
-			if (sum > 1 + 1e-6) {
-				throw new ChemistryInputError(
-					`Elemental mass fractions add up to ${sum.toFixed(4)}, more than 1 g per g`,
-					{
-						field: `${field}.elementalMassFractions`
-					}
-				);
-			}
+			);
 		}
 	}
+	return { molarMassGPerMol, elementSymbols, elementGPerG, elementMolPerG };
+}
 
+function resolveIons(spec: ComponentSpec, molarMassGPerMol: number | null, field: string) {
 	const ions: IonSpec[] = [];
 	let particles = 0;
 	let ionicStrengthPerMolar = 0;
@@ -372,81 +369,95 @@ export function resolveComponent(spec: ComponentSpec, field = 'component'): Reso
 		}
 	}
 	if (particles === 0 && molarMassGPerMol !== null) particles = 1;
+	return { ions, particles, ionicStrengthPerMolar };
+}
 
-	let osmoticCoefficient = 1;
-	let osmoticCoefficientSource = 'assumed ideal (φ = 1): none given';
-	if (spec.osmoticCoefficient != null) {
-		if (!isPositiveFinite(spec.osmoticCoefficient) || spec.osmoticCoefficient > 2) {
-			throw new ChemistryInputError('Osmotic coefficient must be a number between 0 and 2', {
-				field: `${field}.osmoticCoefficient`
-			});
-		}
-		osmoticCoefficient = spec.osmoticCoefficient;
-		osmoticCoefficientSource = spec.osmoticCoefficientSource ?? 'given with the component';
-	}
-
-	let solubility: ResolvedComponent['solubility'] = null;
-	if (spec.solubility != null) {
-		const solubilityField = `${field}.solubility`;
-		const points = spec.solubility.points;
-		if (!Array.isArray(points) || points.length === 0) {
-			throw new ChemistryInputError('Solubility needs at least one point', {
-				field: `${solubilityField}.points`
-			});
-		}
-		points.forEach((p, i) => {
-			if (
-				!p ||
-				typeof p.temperatureC !== 'number' ||
-				!Number.isFinite(p.temperatureC) ||
-				p.temperatureC < -20 ||
-				p.temperatureC > 150
-			) {
-				throw new ChemistryInputError('Solubility temperature must be between -20 and 150 °C', {
-					field: `${solubilityField}.points.${i}.temperatureC`
-				});
-			}
-			if (!isPositiveFinite(p.gPerL)) {
-				throw new ChemistryInputError('Solubility must be a positive number of g/L', {
-					field: `${solubilityField}.points.${i}.gPerL`
-				});
-			}
+function resolveOsmoticCoefficient(spec: ComponentSpec, field: string): { osmoticCoefficient: number; osmoticCoefficientSource: string } {
+	if (spec.osmoticCoefficient == null) return { osmoticCoefficient: 1, osmoticCoefficientSource: 'assumed ideal (φ = 1): none given' };
+	if (!isPositiveFinite(spec.osmoticCoefficient) || spec.osmoticCoefficient > 2) {
+		throw new ChemistryInputError('Osmotic coefficient must be a number between 0 and 2', {
+			field: `${field}.osmoticCoefficient`
 		});
-		const basisFormula = spec.solubility.basisFormula;
-		let basisMolarMassGPerMol: number | null = null;
-		if (basisFormula) {
-			if (molarMassGPerMol === null) {
-				throw new ChemistryInputError(
-					'A solubility on another basis needs the component’s formula or molar mass',
-					{
-						field: `${solubilityField}.basisFormula`
-					}
-				);
-			}
-			basisMolarMassGPerMol = vectorOfFormula(
-				basisFormula,
-				`${solubilityField}.basisFormula`
-			).molarMassGPerMol;
-		}
-		solubility = {
-			points: [...points].sort((a, b) => a.temperatureC - b.temperatureC),
-			basisMolarMassGPerMol,
-			source: spec.solubility.source ?? 'given with the component'
-		};
 	}
+	return { osmoticCoefficient: spec.osmoticCoefficient, osmoticCoefficientSource: spec.osmoticCoefficientSource ?? 'given with the component' };
+}
 
+function resolveSolubility(spec: ComponentSpec, molarMassGPerMol: number | null, field: string): ResolvedComponent['solubility'] {
+	if (spec.solubility == null) return null;
+	const solubilityField = `${field}.solubility`;
+	const points = spec.solubility.points;
+	if (!Array.isArray(points) || points.length === 0) {
+		throw new ChemistryInputError('Solubility needs at least one point', {
+			field: `${solubilityField}.points`
+		});
+	}
+	points.forEach((p, i) => {
+		if (
+			!p ||
+			typeof p.temperatureC !== 'number' ||
+			!Number.isFinite(p.temperatureC) ||
+			p.temperatureC < -20 ||
+			p.temperatureC > 150
+		) {
+			throw new ChemistryInputError('Solubility temperature must be between -20 and 150 °C', {
+				field: `${solubilityField}.points.${i}.temperatureC`
+			});
+		}
+		if (!isPositiveFinite(p.gPerL)) {
+			throw new ChemistryInputError('Solubility must be a positive number of g/L', {
+				field: `${solubilityField}.points.${i}.gPerL`
+			});
+		}
+	});
+	const basisFormula = spec.solubility.basisFormula;
+	let basisMolarMassGPerMol: number | null = null;
+	if (basisFormula) {
+		if (molarMassGPerMol === null) {
+			throw new ChemistryInputError(
+				'A solubility on another basis needs the component’s formula or molar mass',
+				{
+					field: `${solubilityField}.basisFormula`
+				}
+			);
+		}
+		basisMolarMassGPerMol = vectorOfFormula(
+			basisFormula,
+			`${solubilityField}.basisFormula`
+		).molarMassGPerMol;
+	}
+	return {
+		points: [...points].sort((a, b) => a.temperatureC - b.temperatureC),
+		basisMolarMassGPerMol,
+		source: spec.solubility.source ?? 'given with the component'
+	};
+}
+
+/**
+ * Checks a component and reduces it to per-gram element amounts, particles and ionic-strength
+ * factors. Results are cached per spec object; `field` prefixes error paths
+ * (e.g. 'lines.3.component').
+ */
+export function resolveComponent(spec: ComponentSpec, field = 'component'): ResolvedComponent {
+	const cached = resolvedCache.get(spec);
+	if (cached) return cached;
+	checkIdentity(spec, field);
+	const hasFormula = spec.formula != null && spec.formula !== '';
+	if (hasFormula && spec.elementalMassFractions != null) {
+		throw new ChemistryInputError('Give either a formula or elemental mass fractions, not both', {
+			field: `${field}.elementalMassFractions`
+		});
+	}
+	const elements = hasFormula ? elementsFromFormula(spec, field) : elementsFromFractions(spec, field);
+	const { molarMassGPerMol } = elements;
+	const { ions, particles, ionicStrengthPerMolar } = resolveIons(spec, molarMassGPerMol, field);
 	const resolved: ResolvedComponent = {
 		spec,
-		molarMassGPerMol,
-		elementSymbols,
-		elementGPerG,
-		elementMolPerG,
+		...elements,
 		ions,
 		particlesPerUnit: molarMassGPerMol === null ? null : particles,
 		ionicStrengthPerMolar,
-		osmoticCoefficient,
-		osmoticCoefficientSource,
-		solubility
+		...resolveOsmoticCoefficient(spec, field),
+		solubility: resolveSolubility(spec, molarMassGPerMol, field)
 	};
 	resolvedCache.set(spec, resolved);
 	return resolved;

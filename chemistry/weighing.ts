@@ -87,6 +87,14 @@ function molarMassOfForm(form: FormSpec | null | undefined, field: string): numb
 	return null;
 }
 
+/**
+ * Mass of the shelf form per mass of the basis form it carries: M(shelf) / (n · M(basis)), with n basis
+ * units per shelf formula unit (MgSO4·7H2O for MgSO4: 246.466 / 120.361 = 2.0477).
+ */
+export function hydrateFactor(shelfMolarMassGPerMol: number, basisMolarMassGPerMol: number, basisUnitsPerShelfUnit = 1): number {
+	return shelfMolarMassGPerMol / (basisUnitsPerShelfUnit * basisMolarMassGPerMol);
+}
+
 function round(value: number, digits = 6): string {
 	return Number(value.toPrecision(digits)).toString();
 }
@@ -139,7 +147,7 @@ export function computeMassToWeigh(input: MassToWeighInput): MassToWeighResult {
 				}
 			);
 		}
-		hydrate = shelfMolarMass / (n * basisMolarMass);
+		hydrate = hydrateFactor(shelfMolarMass, basisMolarMass, n);
 	} else if (n !== 1) {
 		throw new ChemistryInputError('basisUnitsPerShelfUnit needs a basis form', {
 			field: 'basisUnitsPerShelfUnit'

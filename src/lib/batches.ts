@@ -1,5 +1,6 @@
 // Words and constants of batches shared by server and browser, so this module holds no server code.
 import type { QuantityKind } from './inventory';
+import { formatMass, formatVolume, readAmountText, storedMass, storedVolumeUl } from './quantities';
 export const BATCH_STATES = ['planned', 'in_preparation', 'prepared', 'released', 'rejected'] as const;
 export type BatchState = (typeof BATCH_STATES)[number];
 
@@ -44,53 +45,35 @@ export function checkTolerance(required: number, actual: number, tolerancePercen
 	return 'within';
 }
 
-export type MassParse = { ok: true; grams: number; note?: string } | { ok: false; message: string };
+export type LineAmountRead = { ok: true; quantity: number; note?: string } | { ok: false; message: string };
 
-// [multiply, divide]: dividing by 1000 keeps 350 mg at exactly 0.35 g.
-const UNIT_FACTORS: Record<string, [number, number]> = { kg: [1000, 1], g: [1, 1], mg: [1, 1000], 'µg': [1, 1e6], ug: [1, 1e6] };
+const LINE_AMOUNT = {
+	component: { label: 'Mass', units: ['g', 'mg', 'kg', 'µg'] as const, defaultUnit: 'g' as const },
+	stock: { label: 'Volume', units: ['mL', 'L', 'µL'] as const, defaultUnit: 'mL' as const }
+};
 
 /**
- * Reads a mass as typed at the bench: "12.5", "12,5" (decimal comma), "12.5 g", "350 mg".
- * Refuses what is ambiguous ("1,250" could be either) or not a mass, with a message that says why.
+ * Reads what a technician typed for a line ("12,5", "350 mg", "2.5 mL") into the integer the line keeps
+ * in `lineQuantityUnit(kind)`: µg weighed for a component line, µL added for a stock line.
  */
-export function parseMassText(text: string, defaultUnit: 'g' | 'mL' = 'g'): MassParse {
-	const trimmed = text.trim().replace(/\s+/g, ' ');
-	if (!trimmed) return { ok: false, message: 'Enter the mass read from the balance.' };
-	const match = /^([+-]?[\d.,]+)\s*([a-zA-Zµ]*)$/.exec(trimmed);
-	if (!match) return { ok: false, message: `“${text.trim()}” is not a mass: type a number such as 12.5 or 12.5 g.` };
-	let [, digits, unit] = match;
-	unit = unit || defaultUnit;
-	if (defaultUnit === 'mL') {
-		const volumeFactors: Record<string, [number, number]> = { L: [1000, 1], l: [1000, 1], mL: [1, 1], ml: [1, 1], µL: [1, 1000], uL: [1, 1000], ul: [1, 1000] };
-		if (!(unit in volumeFactors)) return { ok: false, message: `“${unit}” is not a volume unit here: use mL or L.` };
-		const value = readDecimal(digits);
-		if (!value.ok) return value;
-		if (value.n <= 0) return { ok: false, message: 'The volume must be above zero.' };
-		return { ok: true, grams: (value.n * volumeFactors[unit][0]) / volumeFactors[unit][1], note: value.note };
+export function readLineAmount(text: string, kind: BatchLineKind): LineAmountRead {
+	const spec = LINE_AMOUNT[kind];
+	if (kind === 'component') {
+		const read = readAmountText(text, spec.label, LINE_AMOUNT.component.units, LINE_AMOUNT.component.defaultUnit);
+		return read.ok ? { ok: true, quantity: storedMass(read.value, read.unit, 'µg'), note: read.note } : read;
 	}
-	if (!(unit in UNIT_FACTORS)) return { ok: false, message: `“${unit}” is not a mass unit: use g, mg or kg.` };
-	const value = readDecimal(digits);
-	if (!value.ok) return value;
-	if (value.n <= 0) return { ok: false, message: 'The mass must be above zero.' };
-	return { ok: true, grams: (value.n * UNIT_FACTORS[unit][0]) / UNIT_FACTORS[unit][1], note: value.note };
+	const read = readAmountText(text, spec.label, LINE_AMOUNT.stock.units, LINE_AMOUNT.stock.defaultUnit);
+	return read.ok ? { ok: true, quantity: storedVolumeUl(read.value, read.unit), note: read.note } : read;
 }
 
-function readDecimal(digits: string): { ok: true; n: number; note?: string } | { ok: false; message: string } {
-	const commas = (digits.match(/,/g) ?? []).length;
-	const dots = (digits.match(/\./g) ?? []).length;
-	let normal = digits;
-	let note: string | undefined;
-	if (commas && dots) return { ok: false, message: `“${digits}” mixes commas and points: type the number with one decimal point, e.g. 1250.5.` };
-	if (commas > 1 || dots > 1) return { ok: false, message: `“${digits}” has more than one decimal separator.` };
-	if (commas === 1) {
-		// "12,5" is a decimal comma; "1,250" could be a thousands separator, so it is refused.
-		if (/,\d{3}$/.test(digits)) return { ok: false, message: `“${digits}” is ambiguous: is it ${digits.replace(',', '.')} or ${digits.replace(',', '')}? Type it with a decimal point.` };
-		normal = digits.replace(',', '.');
-		note = `Read the decimal comma: ${normal}`;
-	}
-	const n = Number(normal);
-	if (!Number.isFinite(n)) return { ok: false, message: `“${digits}” is not a number.` };
-	return { ok: true, n, note };
+/** The unit a line's required and actual quantities are kept in. */
+export function lineQuantityUnit(kind: BatchLineKind): 'µg' | 'µL' {
+	return kind === 'component' ? 'µg' : 'µL';
+}
+
+/** A line's quantity as shown on the sheet, in messages and in the browser: one rounding rule. */
+export function formatLineQuantity(quantity: number, kind: BatchLineKind): string {
+	return kind === 'component' ? formatMass(quantity, 'µg') : formatVolume(quantity, 'µL');
 }
 
 /** A lot offered for a batch sheet line. */
@@ -123,7 +106,9 @@ export interface SheetLine {
 	unit: string;
 	note: string;
 	tolerancePercent: number;
-	/** µg to weigh (component) or µL to add (stock), for the chosen lot, else the suggested one, else nominal. */
+	/** The unit of requiredQuantity and actualQuantity: µg weighed (component) or µL added (stock). */
+	quantityUnit: 'µg' | 'µL';
+	/** To weigh or add, for the chosen lot, else the suggested one, else nominal; in quantityUnit. */
 	requiredQuantity: number;
 	requiredFor: 'chosen' | 'suggested' | 'nominal';
 	requiredText: string;
@@ -137,6 +122,7 @@ export interface SheetLine {
 	doneAt: Date | null;
 	doneById: string | null;
 	stockSource: string;
-	consumedQuantity: number | null;
+	/** Taken from the lot at completion, as text in the lot's unit. */
+	consumedText: string | null;
 	verdict: ToleranceVerdict | null;
 }

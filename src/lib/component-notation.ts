@@ -1,3 +1,4 @@
+import { readDecimalText } from './quantities';
 /**
  * The short text notations a component's lists are typed in, on the form and in CSV files alike:
  *   fractions   C=0.39; N=0.105          (g element per g)
@@ -16,9 +17,8 @@ function items(text: string): string[] {
 }
 
 function numberFrom(text: string): number | null {
-	const trimmed = text.trim();
-	if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(trimmed)) return null;
-	return Number(trimmed);
+	const read = readDecimalText(text, 'Number');
+	return read.ok ? read.value : null;
 }
 
 export function parseFractions(text: string): Parsed<Record<string, number> | null> {

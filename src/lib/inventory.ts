@@ -1,4 +1,5 @@
 // Words and constants of inventory shared by server and browser, so this module holds no server code.
+import { convertMass, convertVolume } from './quantities';
 export const LOT_STATUSES = ['quarantine', 'released', 'rejected'] as const;
 export type LotStatus = (typeof LOT_STATUSES)[number];
 
@@ -32,19 +33,20 @@ export const LEDGER_KIND_LABELS: Record<LedgerKind, string> = {
 /** Common practice for an expiry warning window when the reader names none. */
 export const DEFAULT_EXPIRY_WINDOW_DAYS = 30;
 
-/** A quantity in base units as a person reads it: 1 250 000 mg → "1.25 kg". */
+/**
+ * A stock quantity in base units as a person reads it: 1 250 000 mg → "1.25 kg". Stock on hand reads in
+ * the largest unit with up to 6 significant figures; what to weigh reads by `formatMass` in $lib/quantities.
+ */
 export function formatQuantity(quantity: number, kind: QuantityKind): string {
 	const abs = Math.abs(quantity);
 	const sign = quantity < 0 ? '−' : '';
 	const fmt = (n: number) => Number(n.toPrecision(6)).toLocaleString('en-GB', { maximumFractionDigits: 3 });
 	if (kind === 'mass') {
-		if (abs >= 1_000_000) return `${sign}${fmt(abs / 1_000_000)} kg`;
-		if (abs >= 1000) return `${sign}${fmt(abs / 1000)} g`;
-		return `${sign}${fmt(abs)} mg`;
+		const unit = abs >= 1_000_000 ? 'kg' : abs >= 1000 ? 'g' : 'mg';
+		return `${sign}${fmt(convertMass(abs, 'mg', unit))} ${unit}`;
 	}
-	if (abs >= 1_000_000) return `${sign}${fmt(abs / 1_000_000)} L`;
-	if (abs >= 1000) return `${sign}${fmt(abs / 1000)} mL`;
-	return `${sign}${fmt(abs)} µL`;
+	const unit = abs >= 1_000_000 ? 'L' : abs >= 1000 ? 'mL' : 'µL';
+	return `${sign}${fmt(convertVolume(abs, 'µL', unit))} ${unit}`;
 }
 
 /** Today as an ISO date (UTC), the form lot dates are kept in. */

@@ -3,6 +3,7 @@ import {
 	WATER_CONVENTION,
 	computeMassToWeigh,
 	computeStockVolume,
+	hydrateFactor,
 	type MassToWeighInput
 } from '../../chemistry/weighing';
 import { errorOf } from './input-error';
@@ -14,6 +15,14 @@ const M_MGSO4_7H2O = 246.466;
 const M_MGSO4 = 120.361;
 const M_CACL2_2H2O = 147.008;
 const M_CACL2 = 110.978;
+
+describe('hydrateFactor', () => {
+	it('is the molar-mass ratio of shelf to basis form, per basis unit', () => {
+		// By hand from the IUPAC molar masses above: 246.466 / 120.361 = 2.04772; 476.536 / (2 × 219.237) = 1.08681.
+		expect(hydrateFactor(M_MGSO4_7H2O, M_MGSO4)).toBeCloseTo(2.04772, 5);
+		expect(hydrateFactor(476.536, 219.237, 2)).toBeCloseTo(1.08681, 5);
+	});
+});
 
 describe('computeMassToWeigh', () => {
 	const mgso4 = { targetGPerL: 0.5, volumeL: 1, basis: { formula: 'MgSO4' } };

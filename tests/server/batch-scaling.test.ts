@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkTolerance, parseMassText } from '$lib/batches';
+import { checkTolerance, readLineAmount } from '$lib/batches';
 import { scaleComponentLine, scaleStockLine } from '$lib/server/batches/scaling';
 
 // Molar masses worked by hand from IUPAC 2021 standard atomic weights (Prohaska et al., Pure Appl.
@@ -59,17 +59,21 @@ describe('tolerance (±2 % is common practice)', () => {
 	});
 });
 
-describe('reading a mass as typed at the bench', () => {
-	it('accepts a decimal comma and units, and refuses what is ambiguous or not a mass', () => {
-		expect(parseMassText('12,5')).toMatchObject({ ok: true, grams: 12.5 });
-		expect(parseMassText(' 12.5 g ')).toMatchObject({ ok: true, grams: 12.5 });
-		expect(parseMassText('350 mg')).toMatchObject({ ok: true, grams: 0.35 });
-		expect(parseMassText('1.2kg')).toMatchObject({ ok: true, grams: 1200 });
-		expect(parseMassText('1,250')).toMatchObject({ ok: false, message: '“1,250” is ambiguous: is it 1.250 or 1250? Type it with a decimal point.' });
-		expect(parseMassText('12.5 mL')).toMatchObject({ ok: false, message: '“mL” is not a mass unit: use g, mg or kg.' });
-		expect(parseMassText('twelve')).toMatchObject({ ok: false });
-		expect(parseMassText('1.2.3')).toMatchObject({ ok: false });
-		expect(parseMassText('0')).toMatchObject({ ok: false, message: 'The mass must be above zero.' });
-		expect(parseMassText('2,5', 'mL')).toMatchObject({ ok: true, grams: 2.5 });
+describe('reading what a technician typed for a line', () => {
+	it('accepts a decimal comma and units, keeps µg (component) or µL (stock), and refuses what is ambiguous or of the wrong kind', () => {
+		expect(readLineAmount('12,5', 'component')).toMatchObject({ ok: true, quantity: 12_500_000 });
+		expect(readLineAmount(' 12.5 g ', 'component')).toMatchObject({ ok: true, quantity: 12_500_000 });
+		expect(readLineAmount('350 mg', 'component')).toMatchObject({ ok: true, quantity: 350_000 });
+		expect(readLineAmount('1.2kg', 'component')).toMatchObject({ ok: true, quantity: 1_200_000_000 });
+		// The sheet's own text reads back as shown: three decimals after a point are a balance reading.
+		expect(readLineAmount('7.502 g', 'component')).toMatchObject({ ok: true, quantity: 7_502_000 });
+		expect(readLineAmount('1,250', 'component')).toMatchObject({ ok: false, message: 'Mass: “1,250” is ambiguous: is it 1.250 or 1250? Type it with a decimal point.' });
+		expect(readLineAmount('12.5 mL', 'component')).toMatchObject({ ok: false, message: 'Mass: “mL” is not a mass unit here: use g, mg, kg, µg.' });
+		expect(readLineAmount('twelve', 'component')).toMatchObject({ ok: false });
+		expect(readLineAmount('1.2.3', 'component')).toMatchObject({ ok: false });
+		expect(readLineAmount('0', 'component')).toMatchObject({ ok: false, message: 'Mass: the mass must be above zero.' });
+		expect(readLineAmount('2,5', 'stock')).toMatchObject({ ok: true, quantity: 2_500 });
+		expect(readLineAmount('250 µL', 'stock')).toMatchObject({ ok: true, quantity: 250 });
+		expect(readLineAmount('2 g', 'stock')).toMatchObject({ ok: false, message: 'Volume: “g” is not a volume unit here: use mL, L, µL.' });
 	});
 });

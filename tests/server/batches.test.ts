@@ -95,7 +95,7 @@ describe('weighing, completion and review', () => {
 		const [line] = buildSheetLines(b);
 		chooseLot(tech, b.id, line.id, line.suggestion!.code);
 		expect(() => recordLine(tech, b.id, line.id, { actualText: '10,5 g' })).toThrow('10.5 g is above the tolerance (10 g ± 2 %). Give the reason; it is recorded as a deviation.');
-		expect(() => recordLine(tech, b.id, line.id, { actualText: '10.5 grams' })).toThrow('“grams” is not a mass unit: use g, mg or kg.');
+		expect(() => recordLine(tech, b.id, line.id, { actualText: '10.5 grams' })).toThrow('Mass: “grams” is not a mass unit here: use g, mg, kg, µg.');
 		expect(recordLine(tech, b.id, line.id, { actualText: '10,5 g', reason: 'Spatula overshoot; QA informed' })).toMatchObject({ repeated: false, verdict: 'above' });
 		expect(recordLine(tech, b.id, line.id, { actualText: '10,5 g', reason: 'Spatula overshoot; QA informed' })).toMatchObject({ repeated: true });
 		expect(() => recordLine(tech, b.id, line.id, { actualText: '10 g' })).toThrow(/already signed as done with 10,5 g/);
@@ -159,7 +159,7 @@ describe('weighing, completion and review', () => {
 		const r = await makeApprovedRecipe([{ componentId: 'potassium-chloride', amount: 1, unit: 'g/L' }], { targetPh: '7.0', osmolalityMinMOsmPerKg: '20', osmolalityMaxMOsmPerKg: '40' });
 		const b = plan(1, r);
 		expect(() => recordMeasurements(tech, b.id, { ph: '7.5', osmolality: '30' })).toThrow('pH 7.5 outside 6.8–7.2 (target 7 ± 0.2, common practice). Give the reason; it is recorded as a deviation.');
-		expect(() => recordMeasurements(tech, b.id, { ph: 'seven', osmolality: '30' })).toThrow('“seven” is not a number for the pH.');
+		expect(() => recordMeasurements(tech, b.id, { ph: 'seven', osmolality: '30' })).toThrow('Measured pH: “seven” is not a number.');
 		recordMeasurements(tech, b.id, { ph: '7,1', osmolality: '45', osmolalityReason: 'Salt lot on the high side; engineer consulted' });
 		expect(requireBatch(b.id)).toMatchObject({ measuredPh: 7.1, measuredOsmolality: 45 });
 		expect(batchView(b.id).deviations.map((d) => d.kind)).toEqual(['osmolality']);

@@ -31,12 +31,30 @@ export function formFailure(
 	return fail(status, { message, fieldErrors, values: formValues(formData) });
 }
 
+/** A text field read for its shape only; the domain's check says what it must hold, by its label. */
+export const formText = z.string().default('');
+
+/**
+ * The revision an edit form started from, sent back with it (optimistic concurrency). Forms leave the
+ * field out at revision 0, so a missing one reads as 0.
+ */
+export const revisionField = z.preprocess(
+	(value) => value ?? '',
+	z.coerce
+		.number({ error: 'The page is out of date; reload it and try again.' })
+		.int('The page is out of date; reload it and try again.')
+		.min(0, 'The page is out of date; reload it and try again.')
+);
+
 type Parsed<S extends z.ZodType> =
 	| { ok: true; data: z.infer<S> }
 	| { ok: false; failure: ActionFailure<FormFailure> };
 
-/** Validates a form against its schema; multi-valued fields (checkbox groups) arrive as arrays. */
-export function parseForm<S extends z.ZodType>(schema: S, formData: FormData, multi: string[] = []): Parsed<S> {
+/**
+ * Validates a form against its schema; multi-valued fields (checkbox groups) arrive as arrays. `message`
+ * replaces the general one when the form has a more telling thing to say.
+ */
+export function parseForm<S extends z.ZodType>(schema: S, formData: FormData, multi: string[] = [], message?: string): Parsed<S> {
 	const raw: Record<string, unknown> = {};
 	for (const key of new Set(formData.keys())) {
 		raw[key] = multi.includes(key) ? formData.getAll(key) : formData.get(key);
@@ -52,7 +70,7 @@ export function parseForm<S extends z.ZodType>(schema: S, formData: FormData, mu
 	const count = Object.keys(fieldErrors).length;
 	return {
 		ok: false,
-		failure: formFailure(formData, `Please correct ${count === 1 ? 'the field' : `${count} fields`} marked below.`, fieldErrors)
+		failure: formFailure(formData, message ?? `Please correct ${count === 1 ? 'the field' : `${count} fields`} marked below.`, fieldErrors)
 	};
 }
 

@@ -1,6 +1,6 @@
-/** Reads a number as people type it; a decimal comma is accepted, anything else is refused. */
+import { readDecimalText } from '$lib/quantities';
+/** A typed number by the one rule of `readDecimalText`, or null when it is not one. */
 export function readNumberText(text: string): number | null {
-	const cleaned = text.trim().replace(/^([+-]?\d*),(\d+)$/, '$1.$2');
-	if (cleaned === '' || !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(cleaned)) return null;
-	return Number(cleaned);
+	const read = readDecimalText(text, 'Number');
+	return read.ok ? read.value : null;
 }

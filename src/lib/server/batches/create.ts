@@ -1,3 +1,4 @@
+import { convertVolume, readDecimalText } from '$lib/quantities';
 import { eq } from 'drizzle-orm';
 import { DEFAULT_TOLERANCE_PERCENT } from '$lib/recipes';
 import { recordAudit, type Actor } from '../audit';
@@ -40,12 +41,14 @@ export function checkBatchInput(input: BatchInput): { ok: true; value: { version
 	}
 	if (version && input.recipeId && version.recipeId !== input.recipeId) errors.versionId = ['This version belongs to another recipe.'];
 
-	const volumeText = String(input.targetVolumeL ?? '').trim().replace(',', '.');
-	const volumeL = Number(volumeText);
+	const volumeText = String(input.targetVolumeL ?? '').trim();
+	const volumeRead = readDecimalText(volumeText, 'Target volume');
+	const volumeL = volumeRead.ok ? volumeRead.value : NaN;
 	if (!volumeText) errors.targetVolumeL = ['Enter the target volume in litres.'];
-	else if (!Number.isFinite(volumeL) || volumeL <= 0) errors.targetVolumeL = [`“${input.targetVolumeL}” is not a volume above zero (litres).`];
+	else if (!volumeRead.ok) errors.targetVolumeL = [volumeRead.message];
+	else if (volumeL <= 0) errors.targetVolumeL = [`“${input.targetVolumeL}” is not a volume above zero (litres).`];
 	else if (volumeL > MAX_BATCH_VOLUME_L) errors.targetVolumeL = [`At most ${MAX_BATCH_VOLUME_L} L.`];
-	else if (Math.round(volumeL * 1000) < 1) errors.targetVolumeL = ['At least 1 mL.'];
+	else if (Math.round(convertVolume(volumeL, 'L', 'mL')) < 1) errors.targetVolumeL = ['At least 1 mL.'];
 
 	const plannedOn = String(input.plannedOn ?? '').trim();
 	const date = new Date(`${plannedOn}T00:00:00Z`);
@@ -57,7 +60,7 @@ export function checkBatchInput(input: BatchInput): { ok: true; value: { version
 	else if (intendedUse.length > 200) errors.intendedUse = ['At most 200 characters.'];
 
 	if (Object.keys(errors).length || !version) return { ok: false, fieldErrors: errors };
-	return { ok: true, value: { versionId: version.id, recipeId: version.recipeId, targetVolumeMl: Math.round(volumeL * 1000), plannedOn, intendedUse } };
+	return { ok: true, value: { versionId: version.id, recipeId: version.recipeId, targetVolumeMl: Math.round(convertVolume(volumeL, 'L', 'mL')), plannedOn, intendedUse } };
 }
 
 /** Plans a batch: its number and one line per recipe line, in the order of addition. */

@@ -1,6 +1,6 @@
 import { and, eq, isNull, sql } from 'drizzle-orm';
-import { BATCH_STATE_LABELS, checkTolerance, COMPLETION_MEANING, parseMassText } from '$lib/batches';
-import { formatQuantity, isoToday, isUsableLot, lotUnusability } from '$lib/inventory';
+import { BATCH_STATE_LABELS, checkTolerance, COMPLETION_MEANING, formatLineQuantity, readLineAmount } from '$lib/batches';
+import { formatQuantity, isoToday, isUsableLot, lotUnusability, isExpired } from '$lib/inventory';
 import { recordAudit, type Actor } from '../audit';
 import { findComponent } from '../components/library';
 import { db, type Db } from '../db';
@@ -11,7 +11,8 @@ import { massToLotQuantity } from '../inventory/units';
 import { findVersionById } from '../recipes/queries';
 import { RuleError } from '../rule-error';
 import { digestOf, signRecord } from '../signatures';
-import { buildSheetLines, formatMassUg, formatVolumeUl, phRange, requirementFor } from './sheet';
+import { batchVolumeL, convertMass, readDecimalText } from '$lib/quantities';
+import { buildSheetLines, phRange, requirementFor } from './sheet';
 
 type Reader = Pick<Db, 'select'>;
 export type Technician = Actor & { id: string; email: string };
@@ -102,7 +103,7 @@ export function chooseLot(actor: Technician, batchId: string, lineId: string, sc
 			throw new RuleError(scanned.trim() ? `“${scanned.trim()}” is not a lot known here. Scan the label of a lot, or type its lot id (like L-2026-0001).` : 'Scan or type a lot id.', { field: 'scan' });
 		}
 		if (line.lotId === found.id) {
-			return { lotCode: found.code, requiredText: formatMassUg(line.requiredQuantity ?? 0), repeated: true };
+			return { lotCode: found.code, requiredText: formatLineQuantity(line.requiredUg ?? 0, 'component'), repeated: true };
 		}
 		const sheetLine = buildSheetLines(b, tx, today).find((l) => l.id === line.id)!;
 		let need = 0;
@@ -111,7 +112,7 @@ export function chooseLot(actor: Technician, batchId: string, lineId: string, sc
 			const source = tx.select().from(recipeLine).where(eq(recipeLine.id, line.recipeLineId)).get()!;
 			const basis = findComponent(source.componentId!, tx)!;
 			const shelf = source.shelfFormId && source.shelfFormId !== source.componentId ? (findComponent(source.shelfFormId, tx) ?? null) : null;
-			const requirement = requirementFor({ amount: source.amount, unit: source.unit, component: basis, shelf }, b.targetVolumeMl / 1000, found, shelf ?? basis);
+			const requirement = requirementFor({ amount: source.amount, unit: source.unit, component: basis, shelf }, batchVolumeL(b.targetVolumeMl), found, shelf ?? basis);
 			need = requirement.inLotUnits ?? 0;
 			requiredUg = requirement.requiredUg;
 		}
@@ -121,9 +122,9 @@ export function chooseLot(actor: Technician, batchId: string, lineId: string, sc
 			throw new RuleError(refusal, { field: 'scan', status: 422 });
 		}
 		markStarted(tx, actor, b);
-		tx.update(batchLine).set({ lotId: found.id, requiredQuantity: requiredUg }).where(eq(batchLine.id, line.id)).run();
+		tx.update(batchLine).set({ lotId: found.id, requiredUg }).where(eq(batchLine.id, line.id)).run();
 		recordAudit(actor, { action: 'batch.lot_chosen', subjectType: 'batch', subjectId: b.id, detail: { line: line.position, lot: found.code, requiredUg } }, tx);
-		return { lotCode: found.code, requiredText: formatMassUg(requiredUg), repeated: false };
+		return { lotCode: found.code, requiredText: formatLineQuantity(requiredUg, 'component'), repeated: false };
 	});
 }
 
@@ -156,9 +157,9 @@ export function recordLine(actor: Technician, batchId: string, lineId: string, i
 		if (earlier) throw new RuleError(`Add in the order of the sheet: line ${earlier.position} comes before line ${line.position}.`, { field: 'actual', status: 409 });
 
 		const sheetLine = buildSheetLines(b, tx, today).find((l) => l.id === line.id)!;
-		const parsed = parseMassText(input.actualText, line.kind === 'stock' ? 'mL' : 'g');
+		const parsed = readLineAmount(input.actualText, line.kind);
 		if (!parsed.ok) throw new RuleError(parsed.message, { field: 'actual' });
-		let actualQuantity: number;
+		const actualQuantity = parsed.quantity;
 		let stockSource = '';
 		if (line.kind === 'component') {
 			if (!line.lotId) throw new RuleError(`Scan the lot for line ${line.position} first.`, { field: 'scan' });
@@ -166,17 +167,15 @@ export function recordLine(actor: Technician, batchId: string, lineId: string, i
 			if (!isUsableLot(lotRow, today)) {
 				throw new RuleError(`Lot ${lotRow.code} is no longer released and in date; scan another lot.`, { field: 'scan', status: 409 });
 			}
-			actualQuantity = Math.round(parsed.grams * 1e6);
 		} else {
 			stockSource = (input.stockSource ?? '').trim();
 			if (!stockSource) throw new RuleError('Say which stock bottle you used (its batch number).', { field: 'stockSource' });
 			if (stockSource.length > 80) throw new RuleError('At most 80 characters.', { field: 'stockSource' });
-			actualQuantity = Math.round(parsed.grams * 1000);
 		}
-		const required = line.kind === 'component' ? (line.requiredQuantity ?? sheetLine.requiredQuantity) : sheetLine.requiredQuantity;
+		const required = line.kind === 'component' ? (line.requiredUg ?? sheetLine.requiredQuantity) : sheetLine.requiredQuantity;
 		const verdict = checkTolerance(required, actualQuantity, line.tolerancePercent);
 		const reason = (input.reason ?? '').trim();
-		const show = line.kind === 'component' ? formatMassUg : formatVolumeUl;
+		const show = (quantity: number) => formatLineQuantity(quantity, line.kind);
 		if (verdict !== 'within') {
 			if (reason.length < 3) {
 				throw new RuleError(`${show(actualQuantity)} is ${verdict} the tolerance (${show(required)} ± ${line.tolerancePercent} %). Give the reason; it is recorded as a deviation.`, { field: 'reason', status: 422 });
@@ -194,7 +193,13 @@ export function recordLine(actor: Technician, batchId: string, lineId: string, i
 		}
 		markStarted(tx, actor, b);
 		tx.update(batchLine)
-			.set({ actualQuantity, actualText: input.actualText.trim(), requiredQuantity: required, stockSource, doneById: actor.id, doneAt: new Date() })
+			.set({
+				...(line.kind === 'component' ? { actualUg: actualQuantity, requiredUg: required } : { actualUl: actualQuantity, requiredUl: required }),
+				actualText: input.actualText.trim(),
+				stockSource,
+				doneById: actor.id,
+				doneAt: new Date()
+			})
 			.where(eq(batchLine.id, line.id))
 			.run();
 		recordAudit(actor, { action: 'batch.line_done', subjectType: 'batch', subjectId: b.id, detail: { line: line.position, actual: input.actualText.trim(), verdict, reason: reason || undefined } }, tx);
@@ -216,14 +221,13 @@ export function recordMeasurements(actor: Technician, batchId: string, input: Me
 		requireOpen(b);
 		const version = findVersionById(b.versionId, tx)!;
 		const read = (text: string, field: string, label: string) => {
-			const t = text.trim().replace(',', '.');
-			if (!t) return null;
-			const n = Number(t);
-			if (!Number.isFinite(n)) throw new RuleError(`“${text.trim()}” is not a number for the ${label}.`, { field });
-			return n;
+			if (!text.trim()) return null;
+			const parsed = readDecimalText(text, label);
+			if (!parsed.ok) throw new RuleError(parsed.message, { field });
+			return parsed.value;
 		};
-		const ph = read(input.ph, 'ph', 'pH');
-		const osmolality = read(input.osmolality, 'osmolality', 'osmolality');
+		const ph = read(input.ph, 'ph', 'Measured pH');
+		const osmolality = read(input.osmolality, 'osmolality', 'Measured osmolality');
 		if (ph !== null && (ph < 0 || ph > 14)) throw new RuleError('A pH is between 0 and 14.', { field: 'ph' });
 		if (osmolality !== null && (osmolality <= 0 || osmolality > 5000)) throw new RuleError('An osmolality is above 0 and at most 5000 mOsm/kg.', { field: 'osmolality' });
 		const range = phRange(version.targetPh);
@@ -260,7 +264,7 @@ export function batchDigest(b: Batch, reader: Reader = db): string {
 		volumeMl: b.targetVolumeMl,
 		ph: b.measuredPh,
 		osmolality: b.measuredOsmolality,
-		lines: lines.sort((x, y) => x.position - y.position).map((l) => [l.position, l.lotId, l.actualQuantity, l.stockSource])
+		lines: lines.sort((x, y) => x.position - y.position).map((l) => [l.position, l.lotId, l.actualUg ?? l.actualUl, l.stockSource])
 	});
 }
 
@@ -307,9 +311,9 @@ export async function completeBatch(signer: Technician, batchId: string, input: 
 					throw new RuleError(`Lot ${lotRow.code} (line ${line.position}) is no longer released and in date; nothing was taken.`, { status: 409 });
 				}
 				const material = findComponent(lotRow.componentId, tx)!;
-				const taken = Math.max(1, massToLotQuantity(line.actualQuantity! / 1e6, lotRow, material));
+				const taken = Math.max(1, massToLotQuantity(convertMass(line.actualUg!, 'µg', 'g'), lotRow, material));
 				appendStockEntry(tx, { lotId: lotRow.id, kind: 'consumption', quantity: -taken, reason: `Batch ${b.number}, line ${line.position}`, batchId: b.id, actorId: signer.id });
-				tx.update(batchLine).set({ consumedQuantity: taken }).where(eq(batchLine.id, line.id)).run();
+				tx.update(batchLine).set(lotRow.quantityKind === 'mass' ? { consumedMg: taken } : { consumedUl: taken }).where(eq(batchLine.id, line.id)).run();
 			}
 			tx.update(batch).set({ state: 'prepared', preparedById: signer.id, preparedAt: new Date() }).where(eq(batch.id, b.id)).run();
 			recordAudit(signer, { action: 'batch.prepared', subjectType: 'batch', subjectId: b.id, detail: { number: b.number, lots: lines.filter((l) => l.lotId).length } }, tx);

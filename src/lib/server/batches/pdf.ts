@@ -1,7 +1,7 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import QRCode from 'qrcode';
 import { BATCH_STATE_LABELS } from '$lib/batches';
-import { formatQuantity } from '$lib/inventory';
+import { batchVolumeL } from '$lib/quantities';
 import { A4, MARGIN, Writer } from '../pdf/layout';
 import type { BatchView } from './view';
 
@@ -19,7 +19,7 @@ export async function buildBatchSheetPdf(view: BatchView): Promise<Uint8Array> {
 	const b = view.batch;
 	w.text(`Batch sheet ${b.number}`, { size: 18, bold: true });
 	w.text(`${view.recipe.name}, version ${view.version.n} · ${BATCH_STATE_LABELS[b.state]}`, { size: 11 });
-	w.text(`Target volume ${b.targetVolumeMl / 1000} L · planned ${b.plannedOn} · for ${b.intendedUse}`);
+	w.text(`Target volume ${batchVolumeL(b.targetVolumeMl)} L · planned ${b.plannedOn} · for ${b.intendedUse}`);
 	w.text(`Record: ${view.recordUrl}`, { size: 8 });
 	w.gap(40);
 
@@ -37,11 +37,11 @@ export async function buildBatchSheetPdf(view: BatchView): Promise<Uint8Array> {
 		else w.text(`${line.amount} ${line.unit}`, { x: MARGIN + 12, size: 8.5 });
 		for (const step of line.steps) w.text(step, { x: MARGIN + 12, size: 8.5 });
 		if (line.note) w.text(line.note, { x: MARGIN + 12, size: 8.5 });
-		w.text(`Actual: ${line.actualText ?? '__________'}   Done by: ${line.doneByName ?? '__________'}${line.consumedQuantity !== null && line.chosen ? `   Taken: ${formatQuantity(line.consumedQuantity, line.chosen.quantityKind)}` : ''}`, { x: MARGIN + 12, size: 8.5 });
+		w.text(`Actual: ${line.actualText ?? '__________'}   Done by: ${line.doneByName ?? '__________'}${line.consumedText !== null ? `   Taken: ${line.consumedText}` : ''}`, { x: MARGIN + 12, size: 8.5 });
 		w.gap(3);
 	}
 	w.gap();
-	w.text(`Make up to ${b.targetVolumeMl / 1000} L with purified water.`, { bold: true });
+	w.text(`Make up to ${batchVolumeL(b.targetVolumeMl)} L with purified water.`, { bold: true });
 	const v = view.version;
 	if (v.phRange) w.text(`pH: target ${v.targetPh} (accept ${v.phRange.min}–${v.phRange.max}, common practice). Measured: ${b.measuredPh ?? '______'}`);
 	if (v.osmolalityMinMOsmPerKg !== null || v.osmolalityMaxMOsmPerKg !== null) {

@@ -45,8 +45,3 @@ export function scaleStockLine(doseMlPerL: number, volumeL: number): { volumeMl:
 	const volumeMl = doseMlPerL * volumeL;
 	return { volumeMl, steps: [`${doseMlPerL} mL/L × ${Number(volumeL.toPrecision(6))} L = ${Number(volumeMl.toPrecision(6))} mL of stock`] };
 }
-
-/** Grams to the integer milligrams the record keeps. */
-export function gramsToMg(massG: number): number {
-	return Math.round(massG * 1000);
-}

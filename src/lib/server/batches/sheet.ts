@@ -1,9 +1,10 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { checkTolerance, DEFAULT_PH_TOLERANCE } from '$lib/batches';
-import { isExpired, isoToday, type QuantityKind } from '$lib/inventory';
+import { checkTolerance, DEFAULT_PH_TOLERANCE, formatLineQuantity, lineQuantityUnit } from '$lib/batches';
+import { formatQuantity, isExpired, isoToday } from '$lib/inventory';
+import { batchVolumeL, storedMass, storedVolumeUl } from '$lib/quantities';
 import { findComponentsByIds } from '../components/library';
 import { db, type Db } from '../db';
-import { batchLine, lot, recipeLine, type Batch, type BatchLine, type Component, type Lot } from '../db/schema';
+import { batchLine, lot, recipeLine, type Batch, type BatchLine, type Component, type Lot, type RecipeLine } from '../db/schema';
 import { onHandByLot } from '../inventory/ledger';
 import { usableLotCondition } from '../inventory/usable';
 import { massToLotQuantity } from '../inventory/units';
@@ -15,18 +16,6 @@ type Reader = Pick<Db, 'select'>;
 import type { LotChoice, SheetLine } from '$lib/batches';
 
 export type { LotChoice, SheetLine };
-
-/** Shown to the resolution a bench balance reads: 1 mg up to a kilogram, then 0.1 g. */
-export function formatMassUg(ug: number): string {
-	const g = ug / 1e6;
-	if (g >= 1000) return `${Number(g.toFixed(1))} g`;
-	if (g >= 1) return `${Number(g.toFixed(3))} g`;
-	return `${Number((ug / 1000).toPrecision(4))} mg`;
-}
-
-export function formatVolumeUl(ul: number): string {
-	return ul >= 1000 ? `${Number((ul / 1000).toPrecision(6))} mL` : `${Number(ul.toPrecision(4))} µL`;
-}
 
 function choiceOf(row: Lot, onHand: number, today: string): LotChoice {
 	return {
@@ -45,17 +34,23 @@ function choiceOf(row: Lot, onHand: number, today: string): LotChoice {
 	};
 }
 
-/** Required µg for one lot, and that mass in the lot's base unit (for the stock check). */
-export function requirementFor(
-	line: { amount: number; unit: string; component: Component; shelf: Component | null },
-	volumeL: number,
-	lotRow: Pick<Lot, 'assayPercent' | 'waterContentPercent' | 'quantityKind'> | null,
-	weighed: Component
-) {
+type RequirementLine = { amount: number; unit: string; component: Component; shelf: Component | null };
+
+/**
+ * What one component line needs, for a lot (its assay and water content) or nominal without one: µg to
+ * weigh, that mass in the lot's base unit (for the stock check), and the working. Reads no database.
+ */
+export function requirementFor(line: RequirementLine, volumeL: number, lotRow: Pick<Lot, 'assayPercent' | 'waterContentPercent' | 'quantityKind'> | null, weighed: Component) {
 	const scaled = scaleComponentLine({ amount: line.amount, unit: line.unit, component: line.component, shelfForm: line.shelf }, volumeL, lotRow);
-	const requiredUg = Math.round(scaled.massG * 1e6);
+	const requiredUg = storedMass(scaled.massG, 'g', 'µg');
 	const inLotUnits = lotRow ? Math.max(1, massToLotQuantity(scaled.massG, lotRow, weighed)) : null;
 	return { requiredUg, inLotUnits, steps: scaled.steps };
+}
+
+/** What one stock line needs: µL of stock and the working. Reads no database. */
+export function stockRequirement(doseMlPerL: number, volumeL: number): { requiredUl: number; steps: string[] } {
+	const scaled = scaleStockLine(doseMlPerL, volumeL);
+	return { requiredUl: storedVolumeUl(scaled.volumeMl, 'mL'), steps: scaled.steps };
 }
 
 /** Released, in-date lots of a component, first-expired first (FEFO), then first received. */
@@ -70,8 +65,29 @@ export function usableLots(componentId: string, reader: Reader = db, today = iso
 	return rows.map((row) => ({ row, onHand: onHand.get(row.id) ?? 0 }));
 }
 
-/** The batch sheet: every line scaled to the batch volume and to the lot chosen or suggested. */
-export function buildSheetLines(b: Batch, reader: Reader = db, today = isoToday()): SheetLine[] {
+type Requirement = ReturnType<typeof requirementFor>;
+
+/**
+ * The lot to suggest for a line not yet done: the first usable lot, first-expired first, that holds
+ * enough for the line as that lot needs it; or why there is none.
+ */
+export function suggestLot(
+	line: RequirementLine,
+	weighed: Component,
+	volumeL: number,
+	candidates: { row: Lot; onHand: number }[],
+	today: string
+): { suggestion: LotChoice | null; requirement: Requirement | null; note: string | null } {
+	for (const candidate of candidates) {
+		const need = requirementFor(line, volumeL, candidate.row, weighed);
+		if (candidate.onHand >= (need.inLotUnits ?? 0)) return { suggestion: choiceOf(candidate.row, candidate.onHand, today), requirement: need, note: null };
+	}
+	const note = candidates.length ? `No released, in-date lot of ${weighed.name} has enough on hand for this line.` : `No released, in-date lot of ${weighed.name} is in stock.`;
+	return { suggestion: null, requirement: null, note };
+}
+
+/** Everything a sheet reads once for all its lines. */
+function loadSheet(b: Batch, reader: Reader) {
 	const lines = reader.select().from(batchLine).where(eq(batchLine.batchId, b.id)).orderBy(asc(batchLine.position)).all();
 	const recipeLines = new Map(
 		lines.length
@@ -89,89 +105,91 @@ export function buildSheetLines(b: Batch, reader: Reader = db, today = isoToday(
 	);
 	const chosenIds = lines.map((l) => l.lotId).filter((id): id is string => Boolean(id));
 	const chosenRows = new Map(chosenIds.length ? reader.select().from(lot).where(inArray(lot.id, chosenIds)).all().map((l) => [l.id, l]) : []);
-	const chosenOnHand = onHandByLot(chosenIds, reader);
-	const volumeL = b.targetVolumeMl / 1000;
+	return { lines, recipeLines, components, chosenRows, chosenOnHand: onHandByLot(chosenIds, reader) };
+}
 
-	return lines.map((line: BatchLine): SheetLine => {
-		const source = recipeLines.get(line.recipeLineId)!;
-		const base = {
-			id: line.id,
-			position: line.position,
-			kind: line.kind,
-			amount: source.amount,
-			unit: source.unit,
-			note: source.note,
-			tolerancePercent: line.tolerancePercent,
-			actualQuantity: line.actualQuantity,
-			actualText: line.actualText,
-			doneAt: line.doneAt,
-			doneById: line.doneById,
-			stockSource: line.stockSource,
-			consumedQuantity: line.consumedQuantity
-		};
-		if (line.kind === 'stock') {
-			const scaled = scaleStockLine(source.amount, volumeL);
-			const requiredUl = Math.round(scaled.volumeMl * 1000);
-			return {
-				...base,
-				kind: 'stock',
-				name: findRecipe(source.stockRecipeId!, reader)?.name ?? 'Stock solution',
-				basisName: null,
-				componentId: null,
-				formula: null,
-				requiredQuantity: requiredUl,
-				requiredFor: 'nominal',
-				requiredText: formatVolumeUl(requiredUl),
-				steps: scaled.steps,
-				chosen: null,
-				suggestion: null,
-				suggestionNote: null,
-				verdict: line.actualQuantity === null ? null : checkTolerance(requiredUl, line.actualQuantity, line.tolerancePercent)
-			};
-		}
-		const basis = components.get(source.componentId!)!;
-		const shelf = source.shelfFormId && source.shelfFormId !== source.componentId ? components.get(source.shelfFormId)! : null;
-		const weighed = shelf ?? basis;
-		const requirementInput = { amount: source.amount, unit: source.unit, component: basis, shelf };
-		const chosenRow = line.lotId ? chosenRows.get(line.lotId) ?? null : null;
-		let suggestion: LotChoice | null = null;
-		let suggestionNote: string | null = null;
-		let suggested: ReturnType<typeof requirementFor> | null = null;
-		if (!line.doneAt) {
-			const candidates = usableLots(weighed.id, reader, today);
-			for (const candidate of candidates) {
-				const need = requirementFor(requirementInput, volumeL, candidate.row, weighed);
-				if (candidate.onHand >= (need.inLotUnits ?? 0)) {
-					suggestion = choiceOf(candidate.row, candidate.onHand, today);
-					suggested = need;
-					break;
-				}
-			}
-			if (!suggestion) {
-				suggestionNote = candidates.length
-					? `No released, in-date lot of ${weighed.name} has enough on hand for this line.`
-					: `No released, in-date lot of ${weighed.name} is in stock.`;
-			}
-		}
-		const forChosen = chosenRow ? requirementFor(requirementInput, volumeL, chosenRow, weighed) : null;
-		const nominal = forChosen ?? suggested ?? requirementFor(requirementInput, volumeL, null, weighed);
-		const requiredQuantity = line.requiredQuantity ?? nominal.requiredUg;
-		return {
-			...base,
-			kind: 'component',
-			name: weighed.name,
-			basisName: shelf ? basis.name : null,
-			componentId: weighed.id,
-			formula: weighed.formula,
-			requiredQuantity,
-			requiredFor: forChosen ? 'chosen' : suggested ? 'suggested' : 'nominal',
-			requiredText: formatMassUg(requiredQuantity),
-			steps: nominal.steps,
-			chosen: chosenRow ? choiceOf(chosenRow, chosenOnHand.get(chosenRow.id) ?? 0, today) : null,
-			suggestion,
-			suggestionNote,
-			verdict: line.actualQuantity === null ? null : checkTolerance(requiredQuantity, line.actualQuantity, line.tolerancePercent)
-		};
+type LoadedSheet = ReturnType<typeof loadSheet>;
+
+function baseOf(line: BatchLine, source: RecipeLine, chosenRow: Lot | null) {
+	return {
+		id: line.id,
+		position: line.position,
+		kind: line.kind,
+		quantityUnit: lineQuantityUnit(line.kind),
+		amount: source.amount,
+		unit: source.unit,
+		note: source.note,
+		tolerancePercent: line.tolerancePercent,
+		actualQuantity: line.kind === 'component' ? line.actualUg : line.actualUl,
+		actualText: line.actualText,
+		doneAt: line.doneAt,
+		doneById: line.doneById,
+		stockSource: line.stockSource,
+		consumedText: consumedTextOf(line, chosenRow)
+	};
+}
+
+function consumedTextOf(line: BatchLine, chosenRow: Lot | null): string | null {
+	if (!chosenRow) return null;
+	const consumed = chosenRow.quantityKind === 'mass' ? line.consumedMg : line.consumedUl;
+	return consumed === null ? null : formatQuantity(consumed, chosenRow.quantityKind);
+}
+
+function stockSheetLine(line: BatchLine, source: RecipeLine, volumeL: number, reader: Reader): SheetLine {
+	const { requiredUl, steps } = stockRequirement(source.amount, volumeL);
+	return {
+		...baseOf(line, source, null),
+		kind: 'stock',
+		name: findRecipe(source.stockRecipeId!, reader)?.name ?? 'Stock solution',
+		basisName: null,
+		componentId: null,
+		formula: null,
+		requiredQuantity: requiredUl,
+		requiredFor: 'nominal',
+		requiredText: formatLineQuantity(requiredUl, 'stock'),
+		steps,
+		chosen: null,
+		suggestion: null,
+		suggestionNote: null,
+		verdict: line.actualUl === null ? null : checkTolerance(requiredUl, line.actualUl, line.tolerancePercent)
+	};
+}
+
+function componentSheetLine(line: BatchLine, source: RecipeLine, sheet: LoadedSheet, volumeL: number, reader: Reader, today: string): SheetLine {
+	const basis = sheet.components.get(source.componentId!)!;
+	const shelf = source.shelfFormId && source.shelfFormId !== source.componentId ? sheet.components.get(source.shelfFormId)! : null;
+	const weighed = shelf ?? basis;
+	const requirementLine = { amount: source.amount, unit: source.unit, component: basis, shelf };
+	const chosenRow = line.lotId ? (sheet.chosenRows.get(line.lotId) ?? null) : null;
+	const suggested = line.doneAt ? null : suggestLot(requirementLine, weighed, volumeL, usableLots(weighed.id, reader, today), today);
+	const forChosen = chosenRow ? requirementFor(requirementLine, volumeL, chosenRow, weighed) : null;
+	const nominal = forChosen ?? suggested?.requirement ?? requirementFor(requirementLine, volumeL, null, weighed);
+	const requiredUg = line.requiredUg ?? nominal.requiredUg;
+	return {
+		...baseOf(line, source, chosenRow),
+		kind: 'component',
+		name: weighed.name,
+		basisName: shelf ? basis.name : null,
+		componentId: weighed.id,
+		formula: weighed.formula,
+		requiredQuantity: requiredUg,
+		requiredFor: forChosen ? 'chosen' : suggested?.requirement ? 'suggested' : 'nominal',
+		requiredText: formatLineQuantity(requiredUg, 'component'),
+		steps: nominal.steps,
+		chosen: chosenRow ? choiceOf(chosenRow, sheet.chosenOnHand.get(chosenRow.id) ?? 0, today) : null,
+		suggestion: suggested?.suggestion ?? null,
+		suggestionNote: suggested?.note ?? null,
+		verdict: line.actualUg === null ? null : checkTolerance(requiredUg, line.actualUg, line.tolerancePercent)
+	};
+}
+
+/** The batch sheet: every line scaled to the batch volume and to the lot chosen or suggested. */
+export function buildSheetLines(b: Batch, reader: Reader = db, today = isoToday()): SheetLine[] {
+	const sheet = loadSheet(b, reader);
+	const volumeL = batchVolumeL(b.targetVolumeMl);
+	return sheet.lines.map((line) => {
+		const source = sheet.recipeLines.get(line.recipeLineId)!;
+		return line.kind === 'stock' ? stockSheetLine(line, source, volumeL, reader) : componentSheetLine(line, source, sheet, volumeL, reader, today);
 	});
 }
 

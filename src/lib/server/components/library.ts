@@ -1,4 +1,6 @@
+import { readDecimalText } from '$lib/quantities';
 import { asc, eq, inArray, sql } from 'drizzle-orm';
+import { z } from 'zod';
 import { ChemistryInputError, molarMassOf, parseFormula, resolveComponent, type ComponentSpec } from '$chemistry';
 import {
 	checkCasNumber,
@@ -15,7 +17,7 @@ import { COMPONENT_CATEGORIES, type ComponentCategoryName } from '$lib/recipes';
 import { recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { component, type Component } from '../db/schema';
-import type { FieldErrors } from '../forms';
+import { formText, type FieldErrors } from '../forms';
 import { RuleError } from '../rule-error';
 import { knownHazardTexts } from './hazards';
 
@@ -37,6 +39,9 @@ export const COMPONENT_FIELDS = [
 	'storage',
 	'basisComponent'
 ] as const;
+
+/** The component form's shape: every field as text; checkComponentText says what each must hold. */
+export const componentForm = z.object(Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, formText])) as Record<(typeof COMPONENT_FIELDS)[number], typeof formText>);
 export type ComponentField = (typeof COMPONENT_FIELDS)[number];
 export type ComponentText = Record<ComponentField, string>;
 
@@ -135,8 +140,9 @@ export function componentText(row: Component | undefined): ComponentText {
 function optionalNumber(text: string, field: string, errors: FieldErrors, check: (n: number) => string | null): number | null {
 	const trimmed = text.trim();
 	if (!trimmed) return null;
-	const value = Number(trimmed);
-	const problem = Number.isFinite(value) ? check(value) : `“${trimmed}” is not a number.`;
+	const read = readDecimalText(trimmed, 'Number');
+	const value = read.ok ? read.value : NaN;
+	const problem = read.ok ? check(value) : `“${trimmed}” is not a number.`;
 	if (problem) {
 		errors[field] = [problem];
 		return null;

@@ -63,13 +63,18 @@ export const batchLine = sqliteTable(
 		stockRecipeId: text('stock_recipe_id').references(() => recipe.id),
 		tolerancePercent: real('tolerance_percent').notNull(),
 		lotId: text('lot_id').references(() => lot.id),
-		/** Required mass for the chosen lot (µg, so sub-milligram lines keep their precision), or stock volume (µL). */
-		requiredQuantity: integer('required_quantity'),
-		actualQuantity: integer('actual_quantity'),
-		/** What the technician typed, kept as typed for the record; actual_quantity is it in µg (or µL). */
+		/** What the technician typed, kept as typed for the record; actual_ug or actual_ul is it read. */
 		actualText: text('actual_text'),
-		/** Quantity taken from the lot's stock, in the lot's base unit. */
-		consumedQuantity: integer('consumed_quantity'),
+		/** Required mass of a component line for the chosen lot; µg, so sub-milligram lines keep their precision. */
+		requiredUg: integer('required_ug'),
+		/** Required stock volume of a stock line. */
+		requiredUl: integer('required_ul'),
+		/** What went in, read from actual_text: a component line's mass or a stock line's volume. */
+		actualUg: integer('actual_ug'),
+		actualUl: integer('actual_ul'),
+		/** Taken from the lot's stock in its base unit: mg for a lot kept by mass, µL for one kept by volume. */
+		consumedMg: integer('consumed_mg'),
+		consumedUl: integer('consumed_ul'),
 		stockSource: text('stock_source').notNull().default(''),
 		doneById: text('done_by_id').references(() => user.id),
 		doneAt: integer('done_at', { mode: 'timestamp_ms' })

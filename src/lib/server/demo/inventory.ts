@@ -14,6 +14,7 @@ import { sniffMediaType, type CheckedUpload } from '../inventory/certificates';
 import { findUserByEmail, rolesOf } from '../people';
 import { currentApprovedVersion } from '../recipes/queries';
 import { isoToday } from '$lib/inventory';
+import { convertVolume } from '$lib/quantities';
 import { DEMO_PASSWORD } from './accounts';
 
 /*
@@ -153,7 +154,7 @@ async function seedDemoBatches(today: string): Promise<number> {
 		if (!recipeRow || !version) continue;
 		const existing = db.select({ id: batch.id }).from(batch).where(and(eq(batch.recipeId, recipeRow.id), eq(batch.intendedUse, demo.intendedUse))).get();
 		if (existing) continue;
-		const planned = createBatch(tech, { versionId: version.id, recipeId: recipeRow.id, targetVolumeMl: demo.volumeL * 1000, plannedOn: today, intendedUse: demo.intendedUse });
+		const planned = createBatch(tech, { versionId: version.id, recipeId: recipeRow.id, targetVolumeMl: convertVolume(demo.volumeL, 'L', 'mL'), plannedOn: today, intendedUse: demo.intendedUse });
 		added++;
 		if (!demo.finished) continue;
 		for (const line of buildSheetLines(planned, db, today)) {
@@ -164,8 +165,7 @@ async function seedDemoBatches(today: string): Promise<number> {
 			}
 		}
 		for (const line of buildSheetLines(planned, db, today)) {
-			const text = line.kind === 'stock' ? `${line.requiredQuantity / 1000} mL` : `${(line.requiredQuantity / 1e6).toFixed(3)} g`;
-			recordLine(tech, planned.id, line.id, { actualText: text, stockSource: line.kind === 'stock' ? 'Trace stock, demo bottle T2-001' : '' }, today);
+			recordLine(tech, planned.id, line.id, { actualText: line.requiredText, stockSource: line.kind === 'stock' ? 'Trace stock, demo bottle T2-001' : '' }, today);
 		}
 		recordMeasurements(tech, planned.id, { ph: demo.ph!, osmolality: demo.osmolality! });
 		await completeBatch(tech, planned.id, { password: DEMO_PASSWORD, comment: 'Demo batch.' }, today);

@@ -1,3 +1,4 @@
+import { readDecimalText } from '$lib/quantities';
 import { and, eq, sql } from 'drizzle-orm';
 import { DATE_KINDS, isoToday, type DateKind, type QuantityKind } from '$lib/inventory';
 import { MAX_ASSAY_PERCENT } from '$chemistry';
@@ -108,14 +109,15 @@ export function checkLotInput(input: LotText, reader: Reader = db, today = isoTo
 	if (!supplierLot) errors.supplierLot = ['Enter the supplier’s lot number from the label or certificate.'];
 	else if (supplierLot.length > 80) errors.supplierLot = ['At most 80 characters.'];
 
-	const quantityText = text(input.quantity).replace(',', '.');
+	const quantityText = text(input.quantity);
+	const quantityRead = readDecimalText(quantityText, 'Quantity');
 	let quantity: { kind: QuantityKind; quantity: number } | null = null;
 	const unit = text(input.unit) || 'g';
 	if (!quantityText) errors.quantity = ['Enter the quantity received.'];
-	else if (!Number.isFinite(Number(quantityText))) errors.quantity = [`“${text(input.quantity)}” is not a number.`];
+	else if (!quantityRead.ok) errors.quantity = [quantityRead.message];
 	else if (component) {
 		try {
-			quantity = toBaseQuantity(Number(quantityText), unit, component, { amount: 'quantity', unit: 'unit' });
+			quantity = toBaseQuantity(quantityRead.value, unit, component, { amount: 'quantity', unit: 'unit' });
 		} catch (cause) {
 			if (!(cause instanceof RuleError)) throw cause;
 			errors[cause.field ?? 'quantity'] = [cause.message];

@@ -1,5 +1,6 @@
 import { unit as mathUnit } from 'mathjs';
 import { BASE_UNIT, type QuantityKind } from '$lib/inventory';
+import { convertMass, convertVolume, storedMass, storedVolumeUl } from '$lib/quantities';
 import type { Component } from '../db/schema';
 import { RuleError } from '../rule-error';
 
@@ -43,13 +44,13 @@ export function toBaseQuantity(
 
 /** The base-unit quantity of a lot that holds `massG` grams of its material. */
 export function massToLotQuantity(massG: number, lot: { quantityKind: QuantityKind }, component: Pick<Component, 'name' | 'densityGPerMl'>): number {
-	if (lot.quantityKind === 'mass') return Math.round(massG * 1000);
+	if (lot.quantityKind === 'mass') return storedMass(massG, 'g', 'mg');
 	if (!component.densityGPerMl) throw new RuleError(`${component.name} is kept by volume but has no density to convert a mass.`);
-	return Math.round((massG / component.densityGPerMl) * 1000);
+	return storedVolumeUl(massG / component.densityGPerMl, 'mL');
 }
 
 /** Grams held by a quantity of a lot, for reorder levels set in grams. */
 export function lotQuantityToGrams(quantity: number, kind: QuantityKind, densityGPerMl: number | null): number | null {
-	if (kind === 'mass') return quantity / 1000;
-	return densityGPerMl ? (quantity / 1000) * densityGPerMl : null;
+	if (kind === 'mass') return convertMass(quantity, 'mg', 'g');
+	return densityGPerMl ? convertVolume(quantity, 'µL', 'mL') * densityGPerMl : null;
 }

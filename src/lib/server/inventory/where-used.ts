@@ -1,10 +1,13 @@
-import { and, asc, eq, isNotNull } from 'drizzle-orm';
+import { and, asc, eq, isNotNull, sql } from 'drizzle-orm';
 import type { BatchState } from '$lib/batches';
 import type { QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { batch, batchLine, component, lot, recipe } from '../db/schema';
 
 type Reader = Pick<Db, 'select'>;
+
+/** Taken from the lot, in its base unit as the ledger keeps it: mg by mass, µL by volume (`quantityKind`). */
+const consumedInLotUnit = sql<number | null>`coalesce(${batchLine.consumedMg}, ${batchLine.consumedUl})`;
 
 export interface LotUse {
 	batchId: string;
@@ -15,7 +18,7 @@ export interface LotUse {
 	preparedAt: Date | null;
 	intendedUse: string;
 	position: number;
-	/** Taken from the lot (base unit); null while the batch is not yet prepared. */
+	/** Taken from the lot in its base unit (mg or µL by quantityKind); null while the batch is not yet prepared. */
 	consumedQuantity: number | null;
 	quantityKind: QuantityKind;
 }
@@ -32,7 +35,7 @@ export function batchesUsingLot(lotId: string, reader: Reader = db): LotUse[] {
 			preparedAt: batch.preparedAt,
 			intendedUse: batch.intendedUse,
 			position: batchLine.position,
-			consumedQuantity: batchLine.consumedQuantity,
+			consumedQuantity: consumedInLotUnit,
 			quantityKind: lot.quantityKind
 		})
 		.from(batchLine)
@@ -69,7 +72,7 @@ export function lotsUsedByBatch(batchId: string, reader: Reader = db): BatchLotU
 			supplierLot: lot.supplierLot,
 			expiresOn: lot.expiresOn,
 			lotStatus: lot.status,
-			consumedQuantity: batchLine.consumedQuantity,
+			consumedQuantity: consumedInLotUnit,
 			quantityKind: lot.quantityKind
 		})
 		.from(batchLine)

@@ -1,11 +1,13 @@
 import {
 	ChemistryInputError,
 	computeComposition,
+	hydrateFactor,
 	toGramsPerLitre,
 	type CompositionResult,
 	type ElementComposition,
 	type GhsHazard
 } from '$chemistry';
+import { convertVolume } from '$lib/quantities';
 import { db, type Db } from '../db';
 import type { Component } from '../db/schema';
 import { RuleError } from '../rule-error';
@@ -106,7 +108,7 @@ class Expander {
 			throw new RuleError(`${shelf.name} and ${base.name} both need a formula to weigh one as the other.`, { field: `${field}.shelfFormId` });
 		}
 		// One basis unit per shelf formula unit: the same moles, weighed as the heavier form.
-		return { component: shelf, gPerL: (basisGPerL / baseMolarMass) * shelfMolarMass };
+		return { component: shelf, gPerL: basisGPerL * hydrateFactor(shelfMolarMass, baseMolarMass) };
 	}
 
 	/** g/L of each component in one stock, expanded through stocks it contains. */
@@ -129,7 +131,7 @@ class Expander {
 		for (const inner of linesOf(version.id, this.reader)) {
 			const parts =
 				inner.kind === 'stock'
-					? [...this.stockContents(inner, field, [...trail, stock.id]).values()].map((p) => ({ ...p, gPerL: (p.gPerL * inner.amount) / 1000 }))
+					? [...this.stockContents(inner, field, [...trail, stock.id]).values()].map((p) => ({ ...p, gPerL: p.gPerL * convertVolume(inner.amount, 'mL', 'L') }))
 					: [this.componentLine(inner, field)];
 			for (const part of parts) {
 				const entry = out.get(part.component.id);
@@ -169,7 +171,7 @@ export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, re
 			const field = `lines.${index}`;
 			if (line.kind === 'stock') {
 				for (const part of expander.stockContents(line, field, trail).values()) {
-					add({ component: part.component, gPerL: (part.gPerL * line.amount) / 1000 }, index);
+					add({ component: part.component, gPerL: part.gPerL * convertVolume(line.amount, 'mL', 'L') }, index);
 				}
 			} else add(expander.componentLine(line, field), index);
 		});

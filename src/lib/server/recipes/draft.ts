@@ -1,3 +1,4 @@
+import { readDecimalText } from '$lib/quantities';
 import { eq } from 'drizzle-orm';
 import { ChemistryInputError, isMolarUnit, normalizeConcentrationUnit } from '$chemistry';
 import {
@@ -95,9 +96,8 @@ export function normaliseLineInput(line: Partial<Record<keyof DraftLineInput, un
 }
 
 function parseNumber(raw: string): number | null {
-	const trimmed = raw.trim().replace(/^(\d+),(\d+)$/, '$1.$2');
-	if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(trimmed)) return null;
-	return Number(trimmed);
+	const read = readDecimalText(raw, 'Number');
+	return read.ok ? read.value : null;
 }
 
 function optionalNumberField(

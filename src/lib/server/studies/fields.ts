@@ -1,6 +1,7 @@
+import { decimalOrNaN } from '$lib/quantities';
 import { z } from 'zod';
 
-const blankToUndefined = (v: unknown) => (v === null || v === undefined || (typeof v === 'string' && v.trim() === '') ? undefined : typeof v === 'string' ? Number(v.trim().replace(',', '.')) : v);
+const blankToUndefined = (v: unknown) => (v === null || v === undefined || (typeof v === 'string' && v.trim() === '') ? undefined : typeof v === 'string' ? decimalOrNaN(v) : v);
 
 interface Bounds {
 	min?: number;

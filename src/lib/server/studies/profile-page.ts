@@ -1,6 +1,7 @@
 import { BIOMASS_COMPOSITIONS } from '$chemistry';
 import { listComponents } from '../components/library';
-import { parseForm, ruleFailure } from '../forms';
+import { z } from 'zod';
+import { parseForm, revisionField, ruleFailure } from '../forms';
 import { profileSchema, profileValues, saveProfile } from './profile-store';
 import type { Actor } from '../audit';
 
@@ -18,8 +19,10 @@ export function profileChoices() {
 export function submitProfile(actor: Actor, formData: FormData, id: string | null) {
 	const parsed = parseForm(profileSchema, formData);
 	if (!parsed.ok) return { failure: parsed.failure };
+	const revisionRead = id === null ? null : parseForm(z.object({ revision: revisionField }), formData);
+	if (revisionRead && !revisionRead.ok) return { failure: revisionRead.failure };
 	try {
-		const revision = id === null ? null : Number(formData.get('revision'));
+		const revision = revisionRead ? revisionRead.data.revision : null;
 		return { id: saveProfile(actor, id, revision, profileValues(parsed.data, formData)) };
 	} catch (cause) {
 		return { failure: ruleFailure(formData, cause) };

@@ -1,3 +1,4 @@
+import { readDecimalText } from '$lib/quantities';
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { ATOMIC_WEIGHTS, findBiomassComposition, listProfileElements, statementsOfComposition, type ElementStatements, type PerCellConsumption } from '$chemistry';
@@ -48,7 +49,8 @@ function parsePairs(text: string, field: string): [string, string][] {
 }
 
 function readNumber(text: string, field: string, what: string): number {
-	const v = Number(text.replace(',', '.'));
+	const read = readDecimalText(text, what);
+	const v = read.ok ? read.value : NaN;
 	if (!Number.isFinite(v) || v < 0) throw new RuleError(`${what}: “${text}” is not a number of 0 or more.`, { field });
 	return v;
 }

@@ -1,4 +1,5 @@
 import { ATOMIC_WEIGHTS, balanceCarbonYield, computeSoleSourceYield, type SubstrateYieldEntry, type YieldFields } from '$chemistry';
+import { readDecimalText } from '$lib/quantities';
 import { findComponent } from '../components/library';
 import { RuleError, withRuleErrors } from '../rule-error';
 
@@ -42,7 +43,8 @@ export function parseSubstrateYields(text: string, f: YieldFields): SubstrateYie
 			if (perCell.has(componentId)) throw new RuleError(`${component.name} has both a per-cell consumption rate and a yield; keep one of them.`, { field });
 			seen.add(componentId);
 			if (number !== undefined) {
-				const yieldGPerG = Number(number.replace(',', '.'));
+				const read = readDecimalText(number, 'Yield');
+				const yieldGPerG = read.ok ? read.value : NaN;
 				if (!Number.isFinite(yieldGPerG) || yieldGPerG <= 0 || yieldGPerG > 1000) {
 					throw new RuleError(`The yield on ${component.name} must be a number above 0 and at most 1000 g/g, not “${number}”.`, { field });
 				}

@@ -1,3 +1,4 @@
+import { decimalOrNaN } from '$lib/quantities';
 import { z } from 'zod';
 import { DEFAULT_EXPIRY_WINDOW_DAYS } from '$lib/inventory';
 import { tagged } from '$lib/server/form-tag';
@@ -12,7 +13,7 @@ const optionalNumber = (message: string) =>
 	z
 		.string()
 		.trim()
-		.transform((v) => (v === '' ? null : Number(v.replace(',', '.'))))
+		.transform((v) => (v === '' ? null : decimalOrNaN(v)))
 		.refine((n) => n === null || Number.isFinite(n), message);
 
 const settingsForm = z.object({

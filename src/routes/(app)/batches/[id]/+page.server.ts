@@ -5,10 +5,20 @@ import { reviewBatch, reviewRefusal } from '$lib/server/batches/review';
 import { clientAddress, requireActor, requirePermission } from '$lib/server/guard';
 import { batchView } from '$lib/server/batches/view';
 import { tagged } from '$lib/server/form-tag';
-import { formValues, ruleFailure } from '$lib/server/forms';
+import { formValues, ruleFailure, parseForm } from '$lib/server/forms';
 import { RuleError } from '$lib/server/rule-error';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 import { may } from '$lib/permissions';
+
+// Shapes only: what a value must be is the batch rules' to say (RuleError names the field).
+const text = z.string().default('');
+const lineForm = z.object({ lineId: z.string().min(1, 'Which line? Reload the sheet and try again.') });
+const chooseLotForm = lineForm.extend({ scan: text });
+const recordLineForm = lineForm.extend({ actual: text, reason: text, stockSource: text });
+const measureForm = z.object({ ph: text, osmolality: text, phReason: text, osmolalityReason: text });
+const completeForm = z.object({ password: text, comment: text });
+const reviewForm = z.object({ decision: text, password: text, reason: text });
 
 export const load: PageServerLoad = async ({ params }) => {
 	const user = requirePermission('batch.view');
@@ -36,16 +46,26 @@ function technician() {
 /** A line's failure names the line, so only its card shows the message. */
 function lineFailure(formData: FormData, cause: unknown) {
 	const failure = ruleFailure(formData, cause);
-	return fail(failure.status, { ...failure.data, lineId: String(formData.get('lineId') ?? '') });
+	return fail(failure.status, { ...failure.data, lineId: failure.data.values.lineId ?? '' });
+}
+
+function parseLineForm<S extends z.ZodType>(schema: S, formData: FormData) {
+	const parsed = parseForm(schema, formData);
+	if (parsed.ok) return parsed;
+	const { status, data } = parsed.failure;
+	return { ok: false as const, failure: fail(status, { ...data, lineId: data.values.lineId ?? '' }) };
 }
 
 export const actions: Actions = {
 	chooseLot: async ({ request, params }) => {
 		const actor = technician();
 		const formData = await request.formData();
+		const parsed = parseLineForm(chooseLotForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		const { lineId, scan } = parsed.data;
 		try {
-			const chosen = chooseLot(actor, params.id, String(formData.get('lineId') ?? ''), String(formData.get('scan') ?? ''));
-			return { lineId: String(formData.get('lineId')), saved: chosen.repeated ? `Lot ${chosen.lotCode} was already chosen for this line.` : `Lot ${chosen.lotCode} accepted: weigh ${chosen.requiredText}.` };
+			const chosen = chooseLot(actor, params.id, lineId, scan);
+			return { lineId, saved: chosen.repeated ? `Lot ${chosen.lotCode} was already chosen for this line.` : `Lot ${chosen.lotCode} accepted: weigh ${chosen.requiredText}.` };
 		} catch (cause) {
 			return lineFailure(formData, cause);
 		}
@@ -53,13 +73,12 @@ export const actions: Actions = {
 	recordLine: async ({ request, params }) => {
 		const actor = technician();
 		const formData = await request.formData();
+		const parsed = parseLineForm(recordLineForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		const { lineId, actual, reason, stockSource } = parsed.data;
 		try {
-			const done = recordLine(actor, params.id, String(formData.get('lineId') ?? ''), {
-				actualText: String(formData.get('actual') ?? ''),
-				reason: String(formData.get('reason') ?? ''),
-				stockSource: String(formData.get('stockSource') ?? '')
-			});
-			return { lineId: String(formData.get('lineId')), saved: done.repeated ? 'This line was already recorded; nothing changed.' : 'Line signed as done.' };
+			const done = recordLine(actor, params.id, lineId, { actualText: actual, reason, stockSource });
+			return { lineId, saved: done.repeated ? 'This line was already recorded; nothing changed.' : 'Line signed as done.' };
 		} catch (cause) {
 			return lineFailure(formData, cause);
 		}
@@ -68,13 +87,10 @@ export const actions: Actions = {
 		tagged('measure', async () => {
 			const actor = technician();
 			const formData = await request.formData();
+			const parsed = parseForm(measureForm, formData);
+			if (!parsed.ok) return parsed.failure;
 			try {
-				recordMeasurements(actor, params.id, {
-					ph: String(formData.get('ph') ?? ''),
-					osmolality: String(formData.get('osmolality') ?? ''),
-					phReason: String(formData.get('phReason') ?? ''),
-					osmolalityReason: String(formData.get('osmolalityReason') ?? '')
-				});
+				recordMeasurements(actor, params.id, parsed.data);
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}
@@ -84,8 +100,10 @@ export const actions: Actions = {
 		tagged('complete', async () => {
 			const actor = technician();
 			const formData = await request.formData();
+			const parsed = parseForm(completeForm, formData);
+			if (!parsed.ok) return parsed.failure;
 			try {
-				await completeBatch(actor, params.id, { password: String(formData.get('password') ?? ''), comment: String(formData.get('comment') ?? '') });
+				await completeBatch(actor, params.id, parsed.data);
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}
@@ -95,15 +113,13 @@ export const actions: Actions = {
 		tagged('review', async () => {
 			const user = requirePermission('batch.review');
 			const formData = await request.formData();
+			const parsed = parseForm(reviewForm, formData);
+			if (!parsed.ok) return parsed.failure;
 			try {
-				await reviewBatch({ ...user, address: clientAddress() }, params.id, {
-					decision: String(formData.get('decision') ?? ''),
-					password: String(formData.get('password') ?? ''),
-					reason: String(formData.get('reason') ?? '')
-				});
+				await reviewBatch({ ...user, address: clientAddress() }, params.id, parsed.data);
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}
-			return { saved: formValues(formData).decision === 'rejected' ? 'Batch rejected.' : 'Batch released for use.' };
+			return { saved: parsed.data.decision === 'rejected' ? 'Batch rejected.' : 'Batch released for use.' };
 		})
 };

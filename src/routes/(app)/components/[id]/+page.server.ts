@@ -2,14 +2,14 @@ import { error, fail } from '@sveltejs/kit';
 import { requireActor, requirePermission } from '$lib/server/guard';
 import {
 	checkComponentText,
-	COMPONENT_FIELDS,
+	componentForm,
 	componentText,
 	findComponent,
 	listComponents,
 	molarMassOfComponent,
 	updateComponent
 } from '$lib/server/components/library';
-import { formValues } from '$lib/server/forms';
+import { formValues, parseForm, revisionField } from '$lib/server/forms';
 import { RuleError } from '$lib/server/rule-error';
 import { listRecipes } from '$lib/server/recipes/queries';
 import type { Actions, PageServerLoad } from './$types';
@@ -37,13 +37,15 @@ export const actions: Actions = {
 	save: async ({ request, params }) => {
 		const actor = requireActor('component.edit');
 		const formData = await request.formData();
-		const input = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, String(formData.get(f) ?? '')]));
+		const parsed = parseForm(componentForm.extend({ revision: revisionField }), formData, [], 'Nothing was saved: correct the fields marked below.');
+		if (!parsed.ok) return parsed.failure;
+		const { revision, ...input } = parsed.data;
 		const checked = checkComponentText(input, { selfId: params.id });
 		if (!checked.ok) {
 			return fail(400, { message: 'Nothing was saved: correct the fields marked below.', fieldErrors: checked.fieldErrors, values: formValues(formData) });
 		}
 		try {
-			updateComponent(actor, params.id, Number(formData.get('revision')), checked.value);
+			updateComponent(actor, params.id, revision, checked.value);
 		} catch (cause) {
 			if (!(cause instanceof RuleError)) throw cause;
 			return fail(cause.status, { message: cause.message, fieldErrors: {} as Record<string, string[]>, values: formValues(formData) });

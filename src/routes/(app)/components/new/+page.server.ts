@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireActor, requirePermission } from '$lib/server/guard';
-import { checkComponentText, COMPONENT_FIELDS, componentText, createComponent, listComponents } from '$lib/server/components/library';
-import { formValues } from '$lib/server/forms';
+import { checkComponentText, COMPONENT_FIELDS, componentText, createComponent, listComponents, componentForm } from '$lib/server/components/library';
+import { formValues, parseForm } from '$lib/server/forms';
 import { db } from '$lib/server/db';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -14,8 +14,9 @@ export const actions: Actions = {
 	save: async ({ request }) => {
 		const actor = requireActor('component.edit');
 		const formData = await request.formData();
-		const input = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, String(formData.get(f) ?? '')]));
-		const checked = checkComponentText(input);
+		const parsed = parseForm(componentForm, formData, [], 'Nothing was saved: correct the fields marked below.');
+		if (!parsed.ok) return parsed.failure;
+		const checked = checkComponentText(parsed.data);
 		if (!checked.ok) {
 			return fail(400, { message: 'Nothing was saved: correct the fields marked below.', fieldErrors: checked.fieldErrors, values: formValues(formData) });
 		}

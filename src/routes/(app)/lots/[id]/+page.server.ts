@@ -1,9 +1,10 @@
+import { decimalOrNaN } from '$lib/quantities';
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
 import { tagged } from '$lib/server/form-tag';
-import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
-import { requireActor, requirePermission } from '$lib/server/guard';
+import { formFailure, parseForm, ruleFailure, formText } from '$lib/server/forms';
+import { requireActor, requirePermission, clientAddress } from '$lib/server/guard';
 import { attachCertificates, checkCertificateFiles } from '$lib/server/inventory/certificates';
 import { adjustLot, disposeLot, setLotStatus } from '$lib/server/inventory/lots';
 import { lotView } from '$lib/server/inventory/view';
@@ -14,8 +15,9 @@ const amountField = z
 	.string()
 	.trim()
 	.min(1, 'Enter the amount.')
-	.transform((v) => Number(v.replace(',', '.')))
+	.transform(decimalOrNaN)
 	.refine((n) => Number.isFinite(n) && n > 0, 'The amount must be a number above zero.');
+const releaseForm = z.object({ reason: formText });
 const reasonField = z.string().trim().min(3, 'Give the reason (a few words at least).').max(500);
 
 const adjustForm = z.object({
@@ -59,8 +61,10 @@ export const actions: Actions = {
 		tagged('release', async () => {
 			const actor = keeper();
 			const formData = await request.formData();
+			const parsed = parseForm(releaseForm, formData);
+			if (!parsed.ok) return parsed.failure;
 			try {
-				setLotStatus(actor, params.id, 'released', String(formData.get('reason') ?? ''));
+				setLotStatus(actor, params.id, 'released', parsed.data.reason);
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}
@@ -113,7 +117,7 @@ export const actions: Actions = {
 			const parsed = parseForm(disposeForm, formData);
 			if (!parsed.ok) return parsed.failure;
 			const all = parsed.data.all === 'yes';
-			const amount = Number((parsed.data.amount ?? '').replace(',', '.'));
+			const amount = decimalOrNaN(parsed.data.amount ?? '');
 			if (!all && !(parsed.data.amount ?? '').trim()) {
 				return formFailure(formData, 'Enter the amount to dispose of, or tick “all that is left”.', { amount: ['Enter the amount.'] });
 			}

@@ -1,9 +1,12 @@
 import { csvTextFrom } from '$lib/server/csv';
-import { formFailure, ruleFailure } from '$lib/server/forms';
+import { formFailure, ruleFailure, formText, parseForm } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import { importLotCsv, LOT_IMPORT_TEMPLATE, previewLotCsv } from '$lib/server/inventory/csv';
 import { RuleError } from '$lib/server/rule-error';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
+
+const importForm = z.object({ csv: formText });
 
 export const load: PageServerLoad = async () => {
 	requirePermission('lot.receive');
@@ -27,9 +30,10 @@ export const actions: Actions = {
 	import: async ({ request }) => {
 		const user = requirePermission('lot.receive');
 		const formData = await request.formData();
-		const text = String(formData.get('csv') ?? '');
+		const parsed = parseForm(importForm, formData);
+		if (!parsed.ok) return parsed.failure;
 		try {
-			const count = importLotCsv({ id: user.id, email: user.email, address: clientAddress() }, text);
+			const count = importLotCsv({ id: user.id, email: user.email, address: clientAddress() }, parsed.data.csv);
 			return { imported: count };
 		} catch (cause) {
 			return ruleFailure(formData, cause);

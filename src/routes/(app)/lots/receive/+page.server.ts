@@ -1,13 +1,17 @@
 import { redirect } from '@sveltejs/kit';
 import { isoToday } from '$lib/inventory';
 import { listComponents } from '$lib/server/components/library';
-import { formFailure, ruleFailure } from '$lib/server/forms';
+import { formFailure, ruleFailure, formText, parseForm } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import { checkCertificateFiles } from '$lib/server/inventory/certificates';
-import { checkLotInput, LOT_FIELDS, type LotText } from '$lib/server/inventory/lot-input';
+import { checkLotInput, LOT_FIELDS } from '$lib/server/inventory/lot-input';
 import { receiveLot } from '$lib/server/inventory/lots';
 import { RuleError } from '$lib/server/rule-error';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
+
+// Shapes only: checkLotInput says what each value must hold; certificate files are read apart.
+const lotForm = z.object(Object.fromEntries(LOT_FIELDS.map((f) => [f, formText])) as Record<(typeof LOT_FIELDS)[number], typeof formText>);
 
 export const load: PageServerLoad = async () => {
 	requirePermission('lot.receive');
@@ -21,9 +25,9 @@ export const actions: Actions = {
 	default: async ({ request }) => {
 		const user = requirePermission('lot.receive');
 		const formData = await request.formData();
-		const input: LotText = {};
-		for (const field of LOT_FIELDS) input[field] = String(formData.get(field) ?? '');
-		const checked = checkLotInput(input);
+		const parsed = parseForm(lotForm, formData);
+		if (!parsed.ok) return parsed.failure;
+		const checked = checkLotInput(parsed.data);
 		let uploads;
 		try {
 			uploads = await checkCertificateFiles(formData);

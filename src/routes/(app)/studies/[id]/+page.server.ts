@@ -1,10 +1,11 @@
 import { redirect } from '@sveltejs/kit';
 import { listComponents } from '$lib/server/components/library';
-import { formFailure, ruleFailure } from '$lib/server/forms';
+import { formFailure, ruleFailure, parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';
 import { defaultFeedLimits, listSubstanceChoices, oneFormPerSubstance } from '$lib/server/studies/feed-designer';
 import { loadStudyReport } from '$lib/server/studies/page-load';
 import { deleteStudy } from '$lib/server/studies/study-store';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 import { may } from '$lib/permissions';
 
@@ -29,7 +30,8 @@ export const actions: Actions = {
 	delete: async ({ request, params }) => {
 		const actor = requirePermission('study.use');
 		const formData = await request.formData();
-		if (formData.get('confirm') !== 'yes') return formFailure(formData, 'Confirm the deletion first.');
+		const confirmed = parseForm(z.object({ confirm: z.literal('yes', { error: 'Confirm first.' }) }), formData, [], 'Confirm the deletion first.');
+		if (!confirmed.ok) return confirmed.failure;
 		try {
 			deleteStudy(actor, params.id);
 		} catch (cause) {

@@ -8,6 +8,7 @@ import { rolesField } from '$lib/server/role-field';
 import type { Actions, PageServerLoad } from './$types';
 
 const rolesForm = z.object({ roles: rolesField });
+const confirmForm = z.object({ confirm: z.literal('yes', { error: 'Confirm first.' }) });
 
 export const load: PageServerLoad = async ({ params }) => {
 	requirePermission('admin.people');
@@ -48,9 +49,8 @@ export const actions: Actions = {
 	deactivate: async ({ request, params }) => {
 		const by = actor();
 		const formData = await request.formData();
-		if (formData.get('confirm') !== 'yes') {
-			return formFailure(formData, 'Tick the box to confirm: their sessions end at once.', { confirm: ['Confirm first.'] });
-		}
+		const confirmed = parseForm(confirmForm, formData, [], 'Tick the box to confirm: their sessions end at once.');
+		if (!confirmed.ok) return confirmed.failure;
 		try {
 			await setActive(by, params.id, false);
 		} catch (cause) {

@@ -1,8 +1,9 @@
 import { error, redirect } from '@sveltejs/kit';
-import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { formFailure, parseForm, ruleFailure, revisionField } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';
 import { loadStudyChoices } from '$lib/server/studies/form-data';
 import { studyFormValues, studySchema, updateStudy } from '$lib/server/studies/study-store';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
@@ -16,8 +17,9 @@ export const actions: Actions = {
 	save: async ({ request, params }) => {
 		const actor = requirePermission('study.use');
 		const formData = await request.formData();
-		const revision = Number(formData.get('revision'));
-		if (!Number.isInteger(revision)) return formFailure(formData, 'The form lost its revision; reload the page.');
+		const revisionRead = parseForm(z.object({ revision: revisionField }), formData, [], 'The form lost its revision; reload the page.');
+		if (!revisionRead.ok) return revisionRead.failure;
+		const { revision } = revisionRead.data;
 		const parsed = parseForm(studySchema, formData);
 		if (!parsed.ok) return parsed.failure;
 		try {

@@ -2,7 +2,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { SIGNATURE_MEANINGS } from '$lib/recipes';
 import { auditEventsFor } from '$lib/server/audit';
-import { parseForm, ruleFailure } from '$lib/server/forms';
+import { parseForm, ruleFailure, revisionField } from '$lib/server/forms';
 import { requireActor, requirePermission } from '$lib/server/guard';
 import { actorOf, versionNumber } from '$lib/server/recipes/access';
 import { startDraftFrom } from '$lib/server/recipes/drafts';
@@ -12,6 +12,7 @@ import { returnToDraft, retireVersion, signingRefusal, signVersion, submitForRev
 import type { Actions, PageServerLoad } from './$types';
 import { may } from '$lib/permissions';
 
+const submitForm = z.object({ revision: revisionField });
 const signForm = z.object({
 	meaning: z.enum(SIGNATURE_MEANINGS, { error: 'Choose what your signature means: reviewed or approved.' }),
 	password: z.string().min(1, 'Enter your password to sign.').max(256),
@@ -47,8 +48,10 @@ export const actions: Actions = {
 		const actor = requireActor('recipe.edit');
 		const formData = await request.formData();
 		const version = currentVersion(params);
+		const parsed = parseForm(submitForm, formData);
+		if (!parsed.ok) return parsed.failure;
 		try {
-			submitForReview(actor, version.id, Number(formData.get('revision')));
+			submitForReview(actor, version.id, parsed.data.revision);
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}

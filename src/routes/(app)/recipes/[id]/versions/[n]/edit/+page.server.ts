@@ -7,6 +7,8 @@ import { checkDraft, readDraftForm } from '$lib/server/recipes/draft';
 import { fieldsOf, saveDraft, StaleEditError } from '$lib/server/recipes/drafts';
 import { findRecipe, findVersion, linesOf, listStockRecipes } from '$lib/server/recipes/queries';
 import { toDraftFields, toDraftLines } from '$lib/server/recipes/editor-data';
+import { z } from 'zod';
+import { revisionField } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 import { requireActor, requirePermission } from '$lib/server/guard';
 
@@ -38,7 +40,12 @@ export const actions: Actions = {
 		const formData = await request.formData();
 		const draft = readDraftForm(formData);
 		const { recipe, version } = draftVersion(params);
-		const revision = Number(formData.get('revision'));
+		const revisionRead = z.object({ revision: revisionField }).safeParse({ revision: formData.get('revision') ?? '' });
+		if (!revisionRead.success) {
+			const message = revisionRead.error.issues[0].message;
+			return fail(400, { message: `Nothing was saved: ${message}`, fieldErrors: { revision: [message] }, draft });
+		}
+		const revision = revisionRead.data.revision;
 		const checked = checkDraft(draft, recipe.id);
 		if (!checked.ok) {
 			const count = Object.keys(checked.fieldErrors).length;

@@ -1,0 +1,135 @@
+/**
+ * Quantities of mass and volume as the app stores, converts, shows and reads them; shared by server
+ * and browser, so it holds no server code. Concentrations per litre are the science library's
+ * (`toGramsPerLitre`, `fromGramsPerLitre` in chemistry/units.ts).
+ *
+ * Stored amounts are integers in a named unit (µg, mg or µL) so sums never drift. Conversions here use
+ * exact powers of ten from a table rather than mathjs: they run per keystroke in the browser, and
+ * dividing by the larger factor keeps 350 mg at exactly 0.35 g.
+ */
+
+export const MASS_UNITS = ['µg', 'mg', 'g', 'kg'] as const;
+export type MassUnit = (typeof MASS_UNITS)[number];
+export const VOLUME_UNITS = ['µL', 'mL', 'L'] as const;
+export type VolumeUnit = (typeof VOLUME_UNITS)[number];
+
+const MICROGRAMS_PER: Record<MassUnit, number> = { µg: 1, mg: 1e3, g: 1e6, kg: 1e9 };
+const MICROLITRES_PER: Record<VolumeUnit, number> = { µL: 1, mL: 1e3, L: 1e6 };
+
+function convertBy(factors: Record<string, number>, value: number, from: string, to: string): number {
+	const ratio = factors[from] / factors[to];
+	return ratio >= 1 ? value * ratio : value / (factors[to] / factors[from]);
+}
+
+export function convertMass(value: number, from: MassUnit, to: MassUnit): number {
+	return convertBy(MICROGRAMS_PER, value, from, to);
+}
+
+export function convertVolume(value: number, from: VolumeUnit, to: VolumeUnit): number {
+	return convertBy(MICROLITRES_PER, value, from, to);
+}
+
+/** A mass as the integer the record keeps in `unit` (µg on batch lines, mg in the stock ledger). */
+export function storedMass(value: number, from: MassUnit, unit: 'µg' | 'mg'): number {
+	return Math.round(convertMass(value, from, unit));
+}
+
+/** A volume as the integer µL the record keeps. */
+export function storedVolumeUl(value: number, from: VolumeUnit): number {
+	return Math.round(convertVolume(value, from, 'µL'));
+}
+
+const trimmed = (n: number, digits: number) => Number(n.toFixed(digits)).toString();
+const significant = (n: number, digits: number) => Number(n.toPrecision(digits)).toString();
+
+/**
+ * A mass as a bench balance reads it, the one rounding rule of sheets, messages and the browser:
+ * below 1 g in mg to 4 significant figures; up to 1 kg in g to the milligram; above in g to 0.1 g.
+ */
+export function formatMass(value: number, unit: MassUnit): string {
+	const ug = convertMass(Math.abs(value), unit, 'µg');
+	const sign = value < 0 ? '−' : '';
+	const g = convertMass(ug, 'µg', 'g');
+	if (g >= 1000) return `${sign}${trimmed(g, 1)} g`;
+	if (g >= 1) return `${sign}${trimmed(g, 3)} g`;
+	return `${sign}${significant(convertMass(ug, 'µg', 'mg'), 4)} mg`;
+}
+
+/**
+ * A volume as a pipette or cylinder reads it, the same rule as masses: below 1 mL in µL to 4
+ * significant figures; up to 1 L in mL to the microlitre; above in mL to 0.1 mL.
+ */
+export function formatVolume(value: number, unit: VolumeUnit): string {
+	const ul = convertVolume(Math.abs(value), unit, 'µL');
+	const sign = value < 0 ? '−' : '';
+	const ml = convertVolume(ul, 'µL', 'mL');
+	if (ml >= 1000) return `${sign}${trimmed(ml, 1)} mL`;
+	if (ml >= 1) return `${sign}${trimmed(ml, 3)} mL`;
+	return `${sign}${significant(ul, 4)} µL`;
+}
+
+/** A batch's volume in litres, the unit batches are planned and shown in. */
+export function batchVolumeL(targetVolumeMl: number): number {
+	return convertVolume(targetVolumeMl, 'mL', 'L');
+}
+
+export type DecimalRead = { ok: true; value: number; note?: string } | { ok: false; message: string };
+
+/**
+ * Reads a number as a person types it; the one rule for every typed or imported decimal:
+ * - a point is always the decimal point ("1.500" is 1.5), since every figure the app shows is written
+ *   with one and must read back as shown;
+ * - a comma is a decimal comma ("1,5" is 1.5) except when exactly three digits follow it: "1,500"
+ *   could be 1.5 or 1500 and is refused rather than guessed;
+ * - no thousands separators: two separators, or a comma and a point, are refused;
+ * - an exponent is accepted after a plain or point-decimal number ("2e-3").
+ * `label` names the field in the message. A note says when a decimal comma was read.
+ */
+export function readDecimalText(text: string, label: string): DecimalRead {
+	const digits = text.trim();
+	if (digits === '') return { ok: false, message: `${label}: enter a number.` };
+	const commas = (digits.match(/,/g) ?? []).length;
+	const points = (digits.match(/\./g) ?? []).length;
+	if (commas && points) return { ok: false, message: `${label}: “${digits}” mixes commas and points; type the number with one decimal point and no thousands separator, e.g. 1250.5.` };
+	if (commas > 1 || points > 1) return { ok: false, message: `${label}: “${digits}” has more than one separator; type the number with one decimal point and no thousands separator.` };
+	let normal = digits;
+	let note: string | undefined;
+	if (commas === 1) {
+		if (/,\d{3}$/.test(digits)) return { ok: false, message: `${label}: “${digits}” is ambiguous: is it ${digits.replace(',', '.')} or ${digits.replace(',', '')}? Type it with a decimal point.` };
+		if (!/^[+-]?\d*,\d+$/.test(digits)) return { ok: false, message: `${label}: “${digits}” is not a number.` };
+		normal = digits.replace(',', '.');
+		note = `Read the decimal comma: ${normal}`;
+	}
+	if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(normal)) return { ok: false, message: `${label}: “${digits}” is not a number.` };
+	const value = Number(normal);
+	if (!Number.isFinite(value)) return { ok: false, message: `${label}: “${digits}” is not a number.` };
+	return note ? { ok: true, value, note } : { ok: true, value };
+}
+
+export type AmountRead<U extends string> = { ok: true; value: number; unit: U; note?: string } | { ok: false; message: string };
+
+const UNIT_SPELLINGS: Record<string, MassUnit | VolumeUnit> = { kg: 'kg', g: 'g', mg: 'mg', µg: 'µg', ug: 'µg', μg: 'µg', L: 'L', l: 'L', mL: 'mL', ml: 'mL', µL: 'µL', uL: 'µL', ul: 'µL', μL: 'µL' };
+
+/**
+ * Reads an amount typed with an optional unit ("12,5", "350 mg", "2.5 mL") through readDecimalText;
+ * the unit must be one of `units`, and a bare number is in `defaultUnit`. Zero and below are refused.
+ */
+export function readAmountText<U extends MassUnit | VolumeUnit>(text: string, label: string, units: readonly U[], defaultUnit: U): AmountRead<U> {
+	const compact = text.trim().replace(/\s+/g, ' ');
+	const noun = units.includes('g' as U) ? 'mass' : 'volume';
+	if (!compact) return { ok: false, message: `${label}: enter the ${noun}${noun === 'mass' ? ' read from the balance' : ''}.` };
+	const match = /^([+-]?[\d.,]+)\s*([a-zA-Zµμ]*)$/.exec(compact);
+	if (!match) return { ok: false, message: `${label}: “${compact}” is not a ${noun}: type a number such as 12.5 or 12.5 ${defaultUnit}.` };
+	const unit = match[2] ? UNIT_SPELLINGS[match[2]] : defaultUnit;
+	if (!unit || !units.includes(unit as U)) return { ok: false, message: `${label}: “${match[2]}” is not a ${noun} unit here: use ${units.join(', ')}.` };
+	const read = readDecimalText(match[1], label);
+	if (!read.ok) return read;
+	if (read.value <= 0) return { ok: false, message: `${label}: the ${noun} must be above zero.` };
+	return { ok: true, value: read.value, unit: unit as U, note: read.note };
+}
+
+/** readDecimalText for a schema that checks the number afterwards: NaN when the text is not one. */
+export function decimalOrNaN(text: string): number {
+	const read = readDecimalText(text, 'Number');
+	return read.ok ? read.value : NaN;
+}
