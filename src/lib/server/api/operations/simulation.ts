@@ -1,7 +1,9 @@
 import { z } from 'zod';
-import { FEED_STRATEGIES, OPERATING_MODES, simulationRequestSchema, simulationResultSchema, type SimulationRequest } from '$chemistry';
+import { FEED_STRATEGIES, OPERATING_MODES, simulationRequestSchema, simulationResultSchema, type ChemostatSteadyState, type GrowthFit, type SimulationRequest, type SimulationResult } from '$chemistry';
 import { SIMULATION_ROLES } from '$lib/simulation/roles';
+import type { ScenarioView } from '../../scenarios';
 import type { ApiOperation } from '../openapi';
+import { describes } from '../shapes';
 
 // The simulation request and result are described once, beside the science
 // (chemistry/simulation/request-schema.ts, result-schema.ts): the endpoint validates with the same
@@ -15,7 +17,7 @@ export const feedStrategies = FEED_STRATEGIES;
 
 export const simulateRequest = simulationRequestSchema;
 export type SimulateRequest = SimulationRequest;
-export const simulateResponse = simulationResultSchema;
+export const simulateResponse = describes<SimulationResult>()(simulationResultSchema);
 
 const maintenance = finite
 	.optional()
@@ -39,7 +41,7 @@ const operatingPoint = z.object({
 	productivityGPerLH: z.number()
 });
 
-export const chemostatResponse = z.object({
+export const chemostatResponse = describes<ChemostatSteadyState>()(z.object({
 	biomassGPerL: z.number(),
 	substrateGPerL: z.number(),
 	productivityGPerLH: z.number(),
@@ -49,7 +51,7 @@ export const chemostatResponse = z.object({
 	sweep: z.array(operatingPoint),
 	marginDilutionPerH: z.number().optional(),
 	productivityLostToMargin: z.number().optional()
-});
+}));
 
 export const batchVersusContinuousRequest = z.strictObject({
 	muMaxPerH: finite,
@@ -92,7 +94,7 @@ const parameterEstimate = z.object({
 	poorlyDetermined: z.boolean().describe('the interval spans more than a factor of 3, or is unbounded')
 });
 
-export const fitGrowthResponse = z.object({
+export const fitGrowthResponse = describes<GrowthFit>()(z.object({
 	exponentialPhase: z.object({
 		startIndex: z.int(),
 		endIndex: z.int(),
@@ -130,7 +132,7 @@ export const fitGrowthResponse = z.object({
 		.nullable()
 		.describe('whole-curve Monod batch fit; null without substrate data or when it failed (see warnings)'),
 	warnings: z.array(z.string()).describe('plain-words cautions, e.g. a poorly determined Ks')
-});
+}));
 
 const scenarioName = z
 	.string({ error: 'Give the scenario a name.' })
@@ -149,7 +151,7 @@ export const scenarioUpdateRequest = z
 	.strictObject({ name: scenarioName.optional(), notes: scenarioNotes.nullable().optional() })
 	.refine((body) => body.name !== undefined || body.notes !== undefined, 'Send a new name or notes.');
 
-export const scenarioResponse = z.object({
+export const scenarioResponse = describes<ScenarioView>()(z.object({
 	id: z.string(),
 	name: z.string(),
 	mode: z.enum(simulationModes),
@@ -157,7 +159,7 @@ export const scenarioResponse = z.object({
 	request: simulateRequest,
 	createdAt: z.string(),
 	updatedAt: z.string()
-});
+}));
 
 const simulationRoles: ApiOperation['access'] = [...SIMULATION_ROLES];
 
