@@ -108,6 +108,15 @@ const calls: Record<string, () => Promise<Response>> = {
 		dilutionPerH: 0.4,
 		safetyMargin: 0.1
 	}),
+	'post /api/v1/productivity/batch-vs-continuous': post('/api/v1/productivity/batch-vs-continuous', {
+		muMaxPerH: 0.6,
+		ksGPerL: 0.05,
+		yieldXS: 0.5,
+		substrateGPerL: 20,
+		inoculumGPerL: 0.1,
+		dilutionPerH: 0.4,
+		turnaround: { cleaningH: 2, sterilisingH: 1, fillingH: 1, lagH: 1 }
+	}),
 	'post /api/v1/fit/growth': async () => {
 		// Run data from the simulator, with a small fixed ripple so the fit sees measurement noise.
 		const run = await (await post('/api/v1/simulate', batchRun)()).json();

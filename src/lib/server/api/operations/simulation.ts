@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { FEED_STRATEGIES, OPERATING_MODES, simulationRequestSchema, simulationResultSchema, type ChemostatSteadyState, type GrowthFit, type SimulationRequest, type SimulationResult } from '$chemistry';
+import { FEED_STRATEGIES, OPERATING_MODES, simulationRequestSchema, simulationResultSchema, type BatchVersusContinuous, type ChemostatSteadyState, type GrowthFit, type SimulationRequest, type SimulationResult } from '$chemistry';
 import { SIMULATION_ROLES } from '$lib/simulation/roles';
 import type { ScenarioView } from '../../scenarios';
 import type { ApiOperation } from '../openapi';
@@ -69,6 +69,25 @@ export const batchVersusContinuousRequest = z.strictObject({
 	}),
 	conversion: finite.optional().describe('fraction of substrate used at harvest; default 0.99')
 });
+
+export const batchVersusContinuousResponse = describes<BatchVersusContinuous>()(z.object({
+	batch: z.object({
+		growthTimeH: z.number(),
+		turnaroundH: z.number(),
+		cycleTimeH: z.number().describe('growth plus turnaround'),
+		finalBiomassGPerL: z.number(),
+		productivityGPerLH: z.number().describe('final biomass over the whole cycle')
+	}),
+	continuous: z.object({
+		dilutionPerH: z.number(),
+		biomassGPerL: z.number(),
+		substrateGPerL: z.number(),
+		productivityGPerLH: z.number(),
+		washout: z.boolean()
+	}),
+	continuousToBatchRatio: z.number().describe('continuous over batch productivity'),
+	textbookRatioEstimate: z.number().describe('ln(Xm/X0) + μmax·t_turnaround with Xm = X0 + Y·S0: the Ks ≪ S0 estimate of the best attainable ratio without maintenance')
+}));
 
 export const fitGrowthRequest = z.strictObject({
 	timeH: z.array(finite).max(5000),
@@ -189,7 +208,8 @@ export const simulationOperations: ApiOperation[] = [
 		summary:
 			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio; Pirt maintenance, when given, applies to both',
 		access: 'signed-in',
-		request: batchVersusContinuousRequest
+		request: batchVersusContinuousRequest,
+		response: batchVersusContinuousResponse
 	},
 	{
 		method: 'post',
