@@ -20,6 +20,16 @@ export {
 	type FeedExpression
 } from './expression';
 export { SUBSTRATE_STAT_GAIN_PER_MU_MAX, DO_STAT_BAND_FRACTION } from './feeding';
-export { MAX_END_H, MAX_OUTPUT_POINTS, MAX_DRAW_CYCLES } from './validate';
-export { MAX_FEED_STREAMS, MAX_FEED_LABEL_LENGTH } from './validate-feed';
+export {
+	MAX_END_H,
+	MAX_OUTPUT_POINTS,
+	MAX_DRAW_CYCLES,
+	MAX_FEED_STREAMS,
+	MAX_FEED_LABEL_LENGTH,
+	OPERATING_MODES,
+	FEED_STRATEGIES,
+	simulationRequestSchema
+} from './request-schema';
+export { simulationResultSchema, SIMULATION_EVENT_KINDS } from './result-schema';
+export { readSimulationRequest } from './validate';
 export type * from './types';

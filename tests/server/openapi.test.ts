@@ -100,3 +100,17 @@ describe('the sufficiency and study-evaluation operations', () => {
 		expect(evaluate.properties!.warnings.description).toMatch(/trace elements/);
 	});
 });
+
+describe('the simulate operation’s documented request', () => {
+	it('is generated from the library’s schema, ranges included', async () => {
+		const { MAX_END_H, MAX_FEED_STREAMS } = await import('$chemistry');
+		type Schema = { properties: Record<string, Schema & Record<string, unknown>> } & Record<string, unknown>;
+		const doc = buildOpenApiDocument('http://localhost') as unknown as {
+			paths: Record<string, { post: { requestBody: { content: Record<string, { schema: Schema }> } } }>;
+		};
+		const request = doc.paths['/api/v1/simulate'].post.requestBody.content['application/json'].schema;
+		expect(request.properties.kinetics.properties.muMaxPerH).toMatchObject({ exclusiveMinimum: 0, exclusiveMaximum: 50 });
+		expect(request.properties.endH).toMatchObject({ exclusiveMinimum: 0, maximum: MAX_END_H });
+		expect(request.properties.feeds).toMatchObject({ minItems: 1, maxItems: MAX_FEED_STREAMS });
+	});
+});

@@ -60,4 +60,17 @@ describe('POST /api/v1/simulate with several feed streams', () => {
 		const body = await response.json();
 		expect(body.errors).toEqual([{ path: 'feeds.1.rateLPerH', message: body.detail }]);
 	});
+
+	it('reports every refusal of the request at once, each at its field with the library’s words', async () => {
+		const feeds = [{ ...twoStreams.feeds[0], rateLPerH: -1 }, { ...twoStreams.feeds[1], startH: 12 }];
+		const response = await postSimulate({ ...twoStreams, kinetics: { ...twoStreams.kinetics, ksGPerL: 0 }, feeds });
+		expect(response.status).toBe(400);
+		const body = await response.json();
+		expect(body.errors).toEqual([
+			{ path: 'kinetics.ksGPerL', message: 'kinetics.ksGPerL must be greater than 0 (got 0).' },
+			{ path: 'feeds.0.rateLPerH', message: 'feeds.0.rateLPerH must be greater than 0 (got -1).' },
+			{ path: 'feeds.1.startH', message: 'feeds.1.startH (12 h) must be before endH (10 h).' }
+		]);
+		expect(body.detail).toMatch(/^The request has 3 invalid fields: kinetics\.ksGPerL: /);
+	});
 });

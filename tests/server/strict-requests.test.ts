@@ -72,7 +72,8 @@ const misspelt: [string, unknown, string[]][] = [
 		'/api/v1/simulate',
 		{
 			mode: 'batch',
-			kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 },
+			// Yx/O2 given: the schema reports every refusal at once, and this body should have only one.
+			kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5, yieldXO2: 1 },
 			initial: { biomassGPerL: 0.1, substrateGPerL: 10, volumeL: 1 },
 			oxygen: { kLaPerH: 100, saturationMgPerL: 7, o2MoleFractin: 0.3 },
 			endH: 10,

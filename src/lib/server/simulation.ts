@@ -1,6 +1,5 @@
 import { simulateRun, SimulationFailedError, type SimulationRequest } from '$chemistry';
 import { ApiProblem } from './api/endpoint';
-import type { SimulateRequest } from './api/operations/simulation';
 
 const FAILURE_ADVICE: Record<SimulationFailedError['reason'], string> = {
 	stepLimit: 'the model became too stiff to follow; try a shorter end time, a gentler feed or a larger Ks',
@@ -14,11 +13,9 @@ const FAILURE_ADVICE: Record<SimulationFailedError['reason'], string> = {
  * Runs the simulation; a run the integrator cannot follow is a 422 that says where it stopped,
  * never a 500 and never numbers that cannot be trusted.
  */
-export function runSimulation(request: SimulateRequest) {
+export function runSimulation(request: SimulationRequest) {
 	try {
-		const { tolerances, integratorSteps, quasiSteadyOxygenH, ...result } = simulateRun(
-			request as SimulationRequest
-		);
+		const { tolerances, integratorSteps, quasiSteadyOxygenH, ...result } = simulateRun(request);
 		return { ...result, quasiSteadyOxygenH, tolerances, integratorSteps };
 	} catch (cause) {
 		if (cause instanceof SimulationFailedError) {

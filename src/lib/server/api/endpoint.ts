@@ -41,6 +41,21 @@ export function zodProblems(issues: readonly z.core.$ZodIssue[], prefix: readonl
 	});
 }
 
+const namesItsField = ({ path, message }: FieldProblem) =>
+	new RegExp(`(?<![\\w.])${path.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}(?!\\w)`).test(message);
+
+/** A single refusal that names its own field (as the science's do) is the detail as it stands. */
+function describeProblems(errors: FieldProblem[]): string {
+	if (errors.length === 1 && namesItsField(errors[0])) return errors[0].message;
+	return `The request has ${errors.length} invalid field${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`;
+}
+
+/** Where in a text field (a feed expression) the one refusal points, when its rule knows. */
+function positionOf(issues: readonly z.core.$ZodIssue[]): number | undefined {
+	const [issue] = issues;
+	return issues.length === 1 && issue.code === 'custom' && typeof issue.params?.position === 'number' ? issue.params.position : undefined;
+}
+
 interface EndpointOptions<S extends z.ZodType | undefined> {
 	/** What the endpoint does: who may is in `$lib/permissions`, and its OpenAPI operation names the same act. */
 	act: Act;
@@ -85,7 +100,7 @@ export function endpoint<S extends z.ZodType | undefined = undefined>(
 				const parsed = options.body.safeParse(raw);
 				if (!parsed.success) {
 					const errors = zodProblems(parsed.error.issues);
-					return problem(400, `The request has ${errors.length} invalid field${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, { errors });
+					return problem(400, describeProblems(errors), { errors, position: positionOf(parsed.error.issues) });
 				}
 				body = parsed.data;
 			}

@@ -1,6 +1,18 @@
 import { z } from 'zod';
+import type { OxygenSaturationResult, SufficiencyResult } from '$chemistry';
 import { AIR_O2_MOLE_FRACTION, AIR_O2_MOLE_FRACTION_SOURCE, DEFAULT_ELEMENT_ROLES_BASIS, ELEMENT_ROLES, VALUE_CONFIDENCES } from '$chemistry';
 import type { ApiOperation } from '../openapi';
+import { describes } from '../shapes';
+
+/** What POST /api/v1/formula answers (its handler builds it from parseFormula). */
+export interface FormulaAnswer {
+	formula: string;
+	reading: string;
+	molarMass: number;
+	elements: Record<string, number>;
+	parts: { formula: string; multiplier: number }[];
+	dotRule: string;
+}
 
 // Request shapes are strict objects at every level, union members included: a misspelt key is a 400
 // naming it, never silently ignored.
@@ -10,14 +22,14 @@ const speciesId = z.string().min(1).max(60);
 
 export const formulaRequest = z.strictObject({ formula: z.string().max(500) });
 
-export const formulaResponse = z.object({
+export const formulaResponse = describes<FormulaAnswer>()(z.object({
 	formula: z.string(),
 	reading: z.string(),
 	molarMass: z.number().describe('g/mol, IUPAC 2021 standard atomic weights (conventional values)'),
 	elements: z.record(z.string(), z.number()),
 	parts: z.array(z.object({ formula: z.string(), multiplier: z.number() })),
 	dotRule: z.string()
-});
+}));
 
 const specification = z.discriminatedUnion('kind', [
 	z.strictObject({ kind: z.literal('rate'), species: speciesId, mol: finite, relativeError: finite.positive().optional() }),
@@ -54,6 +66,8 @@ export const stoichiometryRequest = z.strictObject({
 	consistencyConfidence: finite.gt(0).lt(1).optional()
 });
 
+const oxygenMethod = z.enum(['benson-krause-1984', 'garcia-gordon-1992']);
+
 export const oxygenSaturationRequest = z.strictObject({
 	temperatureC: finite,
 	salinityGPerKg: finite.optional(),
@@ -61,20 +75,25 @@ export const oxygenSaturationRequest = z.strictObject({
 	o2MoleFraction: finite
 		.optional()
 		.describe(`O2 mole fraction of the dry gas, 0–1; default air, ${AIR_O2_MOLE_FRACTION}`),
-	method: z.enum(['benson-krause-1984', 'garcia-gordon-1992']).optional()
+	method: oxygenMethod.optional()
 });
 
-export const oxygenSaturationResponse = z.object({
+const range = z.tuple([z.number(), z.number()]);
+
+export const oxygenSaturationResponse = describes<OxygenSaturationResult>()(z.object({
 	mgPerL: z.number(),
 	mmolPerL: z.number(),
-	airSaturationMgPerL: z.number(),
-	method: z.string(),
-	validRange: z.object({ temperatureMinC: z.number(), temperatureMaxC: z.number() }).loose(),
+	umolPerKg: z.number().optional().describe('native Garcia–Gordon basis; only for that method'),
+	airSaturationMgPerL: z.number().describe('C* for air at the same temperature, salinity and pressure (the 100 % of a DO probe)'),
+	method: oxygenMethod,
+	validRange: z.object({ temperatureC: range, salinityGPerKg: range, source: z.string() }).describe('where the method’s fit holds, [min, max]'),
 	temperatureC: z.number(),
 	salinityGPerKg: z.number(),
 	pressureKPa: z.number(),
-	o2MoleFraction: z.number()
-});
+	o2MoleFraction: z.number(),
+	waterVapourPressureKPa: z.number(),
+	pressureFactor: z.number().describe('factor from 1 atm to pressureKPa (APHA/USGS)')
+}));
 
 const amounts = z.record(z.string().max(80), finite);
 
@@ -182,7 +201,7 @@ export const sufficiencyLineResponse = z.object({
 	note: z.string().optional()
 });
 
-export const sufficiencyResponse = z.object({
+export const sufficiencyResponse = describes<SufficiencyResult>()(z.object({
 	target: z.object({ biomassGPerL: z.number().nullable(), cellsPerMl: z.number().nullable(), cellDryMassPg: z.number().nullable() }),
 	safetyFactor: z.number(),
 	finalVolumeL: z.number().nullable(),
@@ -196,7 +215,7 @@ export const sufficiencyResponse = z.object({
 	warnings: z.array(z.string()).describe('Trace elements short of safety factor × demand, each by name; fractions that contradict the formula'),
 	notes: z.array(z.string()),
 	defaultRolesBasis: z.string().describe('Where the default roles come from')
-});
+}));
 
 export const chemistryOperations: ApiOperation[] = [
 	{

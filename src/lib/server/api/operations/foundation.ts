@@ -1,18 +1,20 @@
 import { z } from 'zod';
 import { ROLES } from '$lib/roles';
+import type { SignedInUser } from '../../guard';
 import type { ApiOperation } from '../openapi';
+import { describes } from '../shapes';
 
 export const sessionRequest = z.object({
 	email: z.email().max(254),
 	password: z.string().min(1).max(256)
 });
 
-export const meResponse = z.object({
+export const meResponse = describes<SignedInUser>()(z.object({
 	id: z.string(),
 	email: z.string(),
 	name: z.string(),
 	roles: z.array(z.enum(ROLES))
-});
+}));
 
 export const healthResponse = z.object({
 	status: z.literal('ok'),

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES, LINE_KINDS, RECIPE_KINDS, VERSION_STATUSES } from '$lib/recipes';
+import type { RecipeAnalysis } from '../../recipes/analysis';
 import type { ApiOperation } from '../openapi';
+import { describes } from '../shapes';
 
 const numberOrText = z.union([z.number(), z.string().max(40)]);
 
@@ -40,7 +42,7 @@ export const componentListQuery = z.object({
 
 const element = z.object({ symbol: z.string(), gPerL: z.number(), mmolPerL: z.number() });
 
-export const analysisResponse = z.object({
+export const analysisResponse = describes<RecipeAnalysis>()(z.object({
 	components: z.array(
 		z.object({
 			id: z.string(),
@@ -55,21 +57,23 @@ export const analysisResponse = z.object({
 	elements: z.array(element),
 	totalCarbonGPerL: z.number(),
 	totalNitrogenGPerL: z.number(),
-	osmolality: z
-		.object({
-			estimateMOsmPerKg: z.number(),
-			idealMOsmPerL: z.number(),
-			verdict: z.enum(['within', 'below', 'above', 'no-target']),
-			note: z.string()
-		})
-		.loose(),
+	osmolality: z.object({
+		estimateMOsmPerKg: z.number(),
+		idealMOsmPerL: z.number(),
+		excludedComponentIds: z.array(z.string()).describe('components without a molar mass (complex materials), left out of the estimate'),
+		excludedNames: z.array(z.string()),
+		minMOsmPerKg: z.number().nullable(),
+		maxMOsmPerKg: z.number().nullable(),
+		verdict: z.enum(['within', 'below', 'above', 'no-target']),
+		note: z.string()
+	}),
 	ionicStrengthMolPerL: z.number(),
 	dissolvedSolidsGPerL: z.number().describe('Σ g/L of the components as weighed'),
 	temperatureC: z.number(),
 	warnings: z.array(z.object({ kind: z.enum(['solubility', 'precipitation']), basis: z.string(), message: z.string(), lines: z.array(z.number()) })),
 	notes: z.array(z.string()),
 	hazards: z.array(z.object({ code: z.string(), text: z.string(), components: z.array(z.string()) }))
-});
+}));
 
 export const recipesOperations: ApiOperation[] = [
 	{

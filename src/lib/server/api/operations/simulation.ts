@@ -1,102 +1,22 @@
 import { z } from 'zod';
-import { MAX_FEED_LABEL_LENGTH, MAX_FEED_STREAMS } from '$chemistry';
+import { FEED_STRATEGIES, OPERATING_MODES, simulationRequestSchema, simulationResultSchema, type BatchVersusContinuous, type ChemostatSteadyState, type GrowthFit, type SimulationRequest, type SimulationResult } from '$chemistry';
+import type { ScenarioView } from '../../scenarios';
 import type { ApiOperation } from '../openapi';
+import { describes } from '../shapes';
 
-// Shapes only: ranges and cross-field rules (μset < μmax, S_f > S, end time, output count) are the
-// science library's, so its messages, which name the field, reach the user unchanged.
+// The simulation request and result are described once, beside the science
+// (chemistry/simulation/request-schema.ts, result-schema.ts): the endpoint validates with the same
+// schema the library reads, so every refusal names its field, and all of them are reported at once.
 const finite = z.number({ error: 'Give a number.' });
 const optionalNumber = finite.optional();
-
-export const simulationModes = ['batch', 'fedBatch', 'chemostat', 'perfusion', 'drawFill'] as const;
-export const feedStrategies = ['constant', 'linear', 'exponential', 'substrateStat', 'doStat', 'expression'] as const;
-
-const feedStream = z.strictObject({
-	strategy: z.enum(feedStrategies),
-	label: z.string().max(MAX_FEED_LABEL_LENGTH).optional().describe('fed-batch only; names the stream in events'),
-	substrateGPerL: finite,
-	rateLPerH: optionalNumber,
-	slopeLPerH2: optionalNumber,
-	muSetPerH: optionalNumber,
-	setpointGPerL: optionalNumber,
-	doSetpointMgPerL: optionalNumber,
-	expression: z.string().max(2000).optional().describe('arithmetic in t, X, S, P, V, DO'),
-	startH: optionalNumber,
-	bolusL: optionalNumber,
-	maxRateLPerH: optionalNumber
-});
-
-export const simulateRequest = z.strictObject({
-	mode: z.enum(simulationModes),
-	kinetics: z.strictObject({
-		muMaxPerH: finite.describe('1/h'),
-		ksGPerL: finite.describe('g/L'),
-		yieldXS: finite.describe('g biomass / g substrate'),
-		maintenanceGPerGH: optionalNumber.describe('g substrate / g biomass / h'),
-		yieldXO2: optionalNumber.describe('g biomass / g O2; required with oxygen'),
-		koMgPerL: optionalNumber.describe('mg/L'),
-		alpha: optionalNumber.describe('g product / g biomass'),
-		beta: optionalNumber.describe('g product / g biomass / h')
-	}),
-	initial: z.strictObject({
-		biomassGPerL: finite,
-		substrateGPerL: finite,
-		volumeL: finite,
-		dissolvedOxygenMgPerL: optionalNumber,
-		productGPerL: optionalNumber
-	}),
-	feed: feedStream.optional(),
-	feeds: z
-		.array(feedStream)
-		.max(MAX_FEED_STREAMS, `Give at most ${MAX_FEED_STREAMS} feed streams.`)
-		.optional()
-		.describe('fedBatch only, instead of feed: several streams, each with its own strategy and start'),
-	oxygen: z
-		.strictObject({ kLaPerH: finite, saturationMgPerL: finite, maintenanceMgPerGH: optionalNumber, limitsGrowth: z.boolean().optional() })
-		.optional()
-		.describe('absent: no O2 balance and no O2 limitation'),
-	perfusion: z.strictObject({ retentionEfficiency: finite, bleedPerH: finite }).optional(),
-	drawFill: z.strictObject({ fraction: finite, everyH: finite }).optional(),
-	dilutionPerH: optionalNumber,
-	maxVolumeL: optionalNumber,
-	endH: finite,
-	outputEveryH: finite
-});
-
-export type SimulateRequest = z.infer<typeof simulateRequest>;
-
 const series = z.array(z.number());
-const nullableSeries = series.nullable();
 
-export const simulateResponse = z.object({
-	t: series.describe('h'),
-	biomassGPerL: series,
-	substrateGPerL: series,
-	productGPerL: series,
-	volumeL: series,
-	dissolvedOxygenMgPerL: nullableSeries,
-	feedLPerH: series.describe('total inflow, L/h'),
-	feedStreams: z
-		.array(
-			z.object({
-				label: z.string().nullable(),
-				strategy: z.enum(feedStrategies),
-				feedLPerH: series,
-				deliveredL: z.number().describe('volume added by the stream over the run, bolus included')
-			})
-		)
-		.nullable()
-		.describe('fed-batch: each feed stream in request order; null in other modes'),
-	ourMmolPerLH: nullableSeries.describe(
-		'mmol/L/h: the uptake with an oxygen block (held to kLa·C* where DO is at 0); without one but with kinetics.yieldXO2, the O2 demand of the simulated growth'
-	),
-	maxOtrMmolPerLH: nullableSeries.describe('kLa·C*, mmol/L/h'),
-	events: z.array(z.object({ kind: z.string(), tH: z.number(), message: z.string() })),
-	oxygenLimitedH: z
-		.array(z.object({ fromH: z.number(), toH: z.number() }))
-		.nullable()
-		.describe('stretches with DO held at 0 and growth at what transfer supplies; null without an oxygen block'),
-	stoppedAtH: z.number().optional().describe('set when the run ended early: the maximum working volume was reached')
-}).loose();
+export const simulationModes = OPERATING_MODES;
+export const feedStrategies = FEED_STRATEGIES;
+
+export const simulateRequest = simulationRequestSchema;
+export type SimulateRequest = SimulationRequest;
+export const simulateResponse = describes<SimulationResult>()(simulationResultSchema);
 
 const maintenance = finite
 	.optional()
@@ -120,7 +40,7 @@ const operatingPoint = z.object({
 	productivityGPerLH: z.number()
 });
 
-export const chemostatResponse = z.object({
+export const chemostatResponse = describes<ChemostatSteadyState>()(z.object({
 	biomassGPerL: z.number(),
 	substrateGPerL: z.number(),
 	productivityGPerLH: z.number(),
@@ -130,7 +50,7 @@ export const chemostatResponse = z.object({
 	sweep: z.array(operatingPoint),
 	marginDilutionPerH: z.number().optional(),
 	productivityLostToMargin: z.number().optional()
-});
+}));
 
 export const batchVersusContinuousRequest = z.strictObject({
 	muMaxPerH: finite,
@@ -148,6 +68,25 @@ export const batchVersusContinuousRequest = z.strictObject({
 	}),
 	conversion: finite.optional().describe('fraction of substrate used at harvest; default 0.99')
 });
+
+export const batchVersusContinuousResponse = describes<BatchVersusContinuous>()(z.object({
+	batch: z.object({
+		growthTimeH: z.number(),
+		turnaroundH: z.number(),
+		cycleTimeH: z.number().describe('growth plus turnaround'),
+		finalBiomassGPerL: z.number(),
+		productivityGPerLH: z.number().describe('final biomass over the whole cycle')
+	}),
+	continuous: z.object({
+		dilutionPerH: z.number(),
+		biomassGPerL: z.number(),
+		substrateGPerL: z.number(),
+		productivityGPerLH: z.number(),
+		washout: z.boolean()
+	}),
+	continuousToBatchRatio: z.number().describe('continuous over batch productivity'),
+	textbookRatioEstimate: z.number().describe('ln(Xm/X0) + μmax·t_turnaround with Xm = X0 + Y·S0: the Ks ≪ S0 estimate of the best attainable ratio without maintenance')
+}));
 
 export const fitGrowthRequest = z.strictObject({
 	timeH: z.array(finite).max(5000),
@@ -173,7 +112,7 @@ const parameterEstimate = z.object({
 	poorlyDetermined: z.boolean().describe('the interval spans more than a factor of 3, or is unbounded')
 });
 
-export const fitGrowthResponse = z.object({
+export const fitGrowthResponse = describes<GrowthFit>()(z.object({
 	exponentialPhase: z.object({
 		startIndex: z.int(),
 		endIndex: z.int(),
@@ -211,7 +150,7 @@ export const fitGrowthResponse = z.object({
 		.nullable()
 		.describe('whole-curve Monod batch fit; null without substrate data or when it failed (see warnings)'),
 	warnings: z.array(z.string()).describe('plain-words cautions, e.g. a poorly determined Ks')
-});
+}));
 
 const scenarioName = z
 	.string({ error: 'Give the scenario a name.' })
@@ -230,7 +169,7 @@ export const scenarioUpdateRequest = z
 	.strictObject({ name: scenarioName.optional(), notes: scenarioNotes.nullable().optional() })
 	.refine((body) => body.name !== undefined || body.notes !== undefined, 'Send a new name or notes.');
 
-export const scenarioResponse = z.object({
+export const scenarioResponse = describes<ScenarioView>()(z.object({
 	id: z.string(),
 	name: z.string(),
 	mode: z.enum(simulationModes),
@@ -238,7 +177,7 @@ export const scenarioResponse = z.object({
 	request: simulateRequest,
 	createdAt: z.string(),
 	updatedAt: z.string()
-});
+}));
 
 
 export const simulationOperations: ApiOperation[] = [
@@ -267,7 +206,8 @@ export const simulationOperations: ApiOperation[] = [
 		summary:
 			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio; Pirt maintenance, when given, applies to both',
 		act: 'calculation.run',
-		request: batchVersusContinuousRequest
+		request: batchVersusContinuousRequest,
+		response: batchVersusContinuousResponse
 	},
 	{
 		method: 'post',

@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import type { StudyReport } from '$chemistry';
 import type { ApiOperation } from '../openapi';
+import { documentsPartOf } from '../shapes';
 import { sufficiencyLineResponse } from './chemistry';
 
 const finite = z.number({ error: 'Give a number.' });
@@ -19,7 +21,7 @@ export const evaluateRequest = z.strictObject({
 });
 
 /** The report's verdict and nutrient part; oxygen, heat, volume, feeds and the time course are not described here. */
-export const evaluateResponse = z
+export const evaluateResponse = documentsPartOf<StudyReport>()(z
 	.object({
 		verdict: z.enum(['supported', 'not supported']),
 		reasons: z.array(z.string()).describe('Why not, one sentence each: required nutrients short of the safety factor, oxygen, heat, volume, feeds'),
@@ -47,7 +49,7 @@ export const evaluateResponse = z
 			notes: z.array(z.string())
 		})
 	})
-	.loose();
+	.loose());
 
 export const feedDesignRequest = z.strictObject({
 	componentIds: z.array(z.string().min(1, 'Choose a component.').max(80)).min(1, 'Choose at least one component.').max(40, 'At most 40 components.'),

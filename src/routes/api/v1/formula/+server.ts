@@ -1,6 +1,6 @@
 import { DOT_RULE, molarMassOf, parseFormula } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
-import { formulaRequest } from '$lib/server/api/operations/chemistry';
+import { formulaRequest, type FormulaAnswer } from '$lib/server/api/operations/chemistry';
 
 export const POST = endpoint({ act: 'calculation.run', body: formulaRequest }, ({ body }) => {
 	const parsed = parseFormula(body.formula);
@@ -11,5 +11,5 @@ export const POST = endpoint({ act: 'calculation.run', body: formulaRequest }, (
 		elements: parsed.elements,
 		parts: parsed.parts,
 		dotRule: DOT_RULE
-	};
+	} satisfies FormulaAnswer;
 });

@@ -1,0 +1,280 @@
+// The simulation request's rules that read several fields (the mode's settings, the feed's strategy
+// against its fields, volumes against the maximum, times against the end). Each refusal names its
+// field; all of them are reported at once. A rule that compares with a field which is itself out of
+// range stays silent: that field's own refusal says what to fix.
+import type { z } from 'zod';
+import {
+	DILUTION_BOUNDS,
+	END_H_BOUNDS,
+	isWithin,
+	MAX_DRAW_CYCLES,
+	MAX_OUTPUT_POINTS,
+	MU_MAX_BOUNDS,
+	NON_NEGATIVE,
+	POSITIVE,
+	SATURATION_BOUNDS,
+	type Bounds
+} from './request-bounds';
+import {
+	checkFedBatchFeed,
+	FLOW_FIELDS,
+	given,
+	need,
+	type RequestShape,
+	type RuleContext
+} from './request-feed-rules';
+import type { FeedInput } from './request-schema';
+
+function ruleContext(request: RequestShape, ctx: z.RefinementCtx): RuleContext {
+	const valid = (value: unknown, bounds: Bounds) => (isWithin(value, bounds) ? value : null);
+	return {
+		request,
+		report: (field, message, position) =>
+			ctx.addIssue({
+				code: 'custom',
+				path: field.split('.').map((part) => (/^\d+$/.test(part) ? Number(part) : part)),
+				message,
+				...(position === undefined ? {} : { params: { position } })
+			}),
+		endH: valid(request.endH, END_H_BOUNDS),
+		initialVolumeL: valid(request.initial.volumeL, POSITIVE),
+		initialSubstrateGPerL: valid(request.initial.substrateGPerL, NON_NEGATIVE),
+		muMaxPerH: valid(request.kinetics.muMaxPerH, MU_MAX_BOUNDS),
+		maxVolumeL: valid(request.maxVolumeL, POSITIVE),
+		saturationMgPerL: request.oxygen ? valid(request.oxygen.saturationMgPerL, SATURATION_BOUNDS) : null
+	};
+}
+
+
+export function checkSimulationRequest(request: RequestShape, ctx: z.RefinementCtx): void {
+	const rules = ruleContext(request, ctx);
+	checkOxygen(rules);
+	checkOutputCount(rules);
+	checkVolumeRoom(rules);
+	checkModeSettings(rules);
+	if (given(request.feeds)) checkFeedStreams(rules);
+	else checkSingleFeed(rules);
+}
+
+function checkOxygen({ request, report }: RuleContext): void {
+	const { kinetics, initial, oxygen } = request;
+	if (oxygen) {
+		if (!given(kinetics.yieldXO2)) {
+			report(
+				'kinetics.yieldXO2',
+				'kinetics.yieldXO2 (g biomass per g O2) is required when an oxygen balance is given.'
+			);
+		}
+		if (oxygen.limitsGrowth === false && (kinetics.koMgPerL ?? 0) > 0) {
+			report(
+				'kinetics.koMgPerL',
+				'kinetics.koMgPerL slows growth as DO falls, which oxygen.limitsGrowth: false rules out; give one or the other.'
+			);
+		}
+		return;
+	}
+	if (given(kinetics.koMgPerL)) {
+		report(
+			'kinetics.koMgPerL',
+			'kinetics.koMgPerL needs an oxygen block (kLaPerH, saturationMgPerL) to have any effect.'
+		);
+	}
+	if (given(initial.dissolvedOxygenMgPerL)) {
+		report(
+			'initial.dissolvedOxygenMgPerL',
+			'initial.dissolvedOxygenMgPerL needs an oxygen block (kLaPerH, saturationMgPerL) to have any effect.'
+		);
+	}
+}
+
+function countOutputPoints(endH: number, outputEveryH: number): { intervals: number; pointCount: number } {
+	const intervals = Math.floor(endH / outputEveryH + 1e-9);
+	const onGrid = Math.abs(intervals * outputEveryH - endH) <= 1e-9 * Math.max(1, endH);
+	return { intervals, pointCount: intervals + 1 + (onGrid ? 0 : 1) };
+}
+
+/** Output times of a checked request: every `outputEveryH` from 0, and `endH` where it falls between. */
+export function outputTimesH(endH: number, outputEveryH: number): number[] {
+	const { intervals, pointCount } = countOutputPoints(endH, outputEveryH);
+	const times = new Array<number>(pointCount);
+	for (let i = 0; i <= intervals; i++) times[i] = i * outputEveryH;
+	times[pointCount - 1] = endH;
+	return times;
+}
+
+function checkOutputCount({ request, report, endH }: RuleContext): void {
+	if (endH === null || !isWithin(request.outputEveryH, POSITIVE)) return;
+	const { pointCount } = countOutputPoints(endH, request.outputEveryH);
+	if (pointCount > MAX_OUTPUT_POINTS) {
+		report(
+			'outputEveryH',
+			`outputEveryH gives ${pointCount} output points; at most ${MAX_OUTPUT_POINTS} are allowed (use outputEveryH ≥ ${(endH / (MAX_OUTPUT_POINTS - 1)).toPrecision(3)}).`
+		);
+	}
+}
+
+function checkVolumeRoom({ request, report, initialVolumeL, maxVolumeL }: RuleContext): void {
+	if (initialVolumeL === null || maxVolumeL === null) return;
+	if (request.mode === 'fedBatch' ? initialVolumeL >= maxVolumeL : initialVolumeL > maxVolumeL) {
+		report(
+			'initial.volumeL',
+			`initial.volumeL (${initialVolumeL} L) leaves no room below maxVolumeL (${maxVolumeL} L).`
+		);
+	}
+}
+
+/** Settings another mode reads are refused rather than ignored. */
+function checkModeSettings({ request, report }: RuleContext): void {
+	const { mode } = request;
+	if (mode !== 'chemostat' && mode !== 'perfusion' && given(request.dilutionPerH)) {
+		report('dilutionPerH', 'dilutionPerH is used only in chemostat and perfusion mode.');
+	}
+	if (mode !== 'perfusion' && given(request.perfusion)) {
+		report('perfusion', 'perfusion settings are used only in perfusion mode.');
+	}
+	if (mode !== 'drawFill' && given(request.drawFill)) {
+		report('drawFill', 'drawFill settings are used only in drawFill mode.');
+	}
+}
+
+/** `startH` of a feed before `endH`; answers the start (0 when absent) or null when refused. */
+function checkFeedStart(rules: RuleContext, feed: FeedInput, field: string): number | null {
+	const startH = feed.startH ?? 0;
+	if (!isWithin(startH, NON_NEGATIVE)) return null;
+	if (rules.endH !== null && startH >= rules.endH) {
+		rules.report(
+			`${field}.startH`,
+			`${field}.startH (${startH} h) must be before endH (${rules.endH} h).`
+		);
+		return null;
+	}
+	return startH;
+}
+
+/**
+ * The streams of `feeds`, each checked like the single `feed` with its fields under `feeds.N`. A
+ * stream may carry none of the modelled substrate (S_f = 0, e.g. an amino-acid feed) unless its law
+ * divides by S_f − S (exponential, substrate-stat).
+ */
+function checkFeedStreams(rules: RuleContext): void {
+	const { request, report } = rules;
+	if (request.mode !== 'fedBatch') {
+		const instead =
+			request.mode === 'batch'
+				? 'a batch run takes no feed; use fedBatch mode to feed'
+				: `in ${request.mode} mode give the fresh medium as feed`;
+		report('feeds', `feeds (several feed streams) is used only in fedBatch mode; ${instead}.`);
+		return;
+	}
+	if (given(request.feed)) {
+		report('feeds', 'Give either feed (one stream) or feeds (several streams), not both.');
+		return;
+	}
+	const streams = request.feeds ?? [];
+	streams.forEach((feed, i) => {
+		const field = `feeds.${i}`;
+		need(rules, feed.substrateGPerL, `${field}.substrateGPerL`, NON_NEGATIVE);
+		checkFeedStart(rules, feed, field);
+		checkFedBatchFeed(rules, feed, field, 'streams');
+	});
+	checkBolusesFit(rules, streams);
+}
+
+/**
+ * The volume only grows in fed-batch, so boluses that add up (in start order) beyond the maximum
+ * volume would overflow whatever the feeding in between.
+ */
+function checkBolusesFit(rules: RuleContext, streams: readonly FeedInput[]): void {
+	const { maxVolumeL, initialVolumeL } = rules;
+	if (maxVolumeL === null || initialVolumeL === null) return;
+	const byStart = streams.map((feed, i) => ({ feed, i })).sort((a, b) => (a.feed.startH ?? 0) - (b.feed.startH ?? 0));
+	let volumeL = initialVolumeL;
+	for (const { feed, i } of byStart) {
+		const bolusL = feed.bolusL ?? 0;
+		if (!isWithin(bolusL, NON_NEGATIVE)) return;
+		volumeL += bolusL;
+		if (volumeL > maxVolumeL) {
+			rules.report(
+				`feeds.${i}.bolusL`,
+				`feeds.${i}.bolusL (${bolusL} L) would take the volume, with the boluses before it, to ${volumeL} L, above maxVolumeL (${maxVolumeL} L).`
+			);
+			return;
+		}
+	}
+}
+
+function checkSingleFeed(rules: RuleContext): void {
+	const { request, report } = rules;
+	const { mode, feed } = request;
+	if (mode === 'batch') {
+		if (given(feed)) report('feed', 'A batch run takes no feed; use fedBatch mode to feed.');
+		return;
+	}
+	let startH: number | null = 0;
+	if (feed === undefined) {
+		const what = mode === 'fedBatch' ? 'the feed' : 'the fresh medium (feed.substrateGPerL)';
+		report('feed', `${mode} mode needs ${what}.`);
+	} else {
+		need(rules, feed.substrateGPerL, 'feed.substrateGPerL', POSITIVE);
+		startH = checkFeedStart(rules, feed, 'feed');
+		if (mode === 'fedBatch') {
+			checkFedBatchFeed(rules, feed, 'feed', 'single');
+			return;
+		}
+		checkFreshMedium(rules, feed);
+	}
+	if (mode === 'drawFill') checkDrawFill(rules, startH);
+	else if (mode !== 'fedBatch') checkContinuousFlow(rules);
+}
+
+/** In chemostat, perfusion and draw-fill the feed is fresh medium at the mode's own flow. */
+function checkFreshMedium({ request, report }: RuleContext, feed: FeedInput): void {
+	const { mode } = request;
+	if (feed.strategy !== 'constant') {
+		report(
+			'feed.strategy',
+			`In ${mode} mode the feed is fresh medium at the mode's own flow; feed.strategy must be "constant".`
+		);
+	}
+	if (given(feed.label)) {
+		report(
+			'feed.label',
+			`feed.label names a fed-batch feed stream; in ${mode} mode the feed is the fresh medium.`
+		);
+	}
+	const flow = mode === 'drawFill' ? 'drawFill.fraction and drawFill.everyH' : 'dilutionPerH × volume';
+	for (const name of FLOW_FIELDS) {
+		if (given(feed[name])) {
+			report(`feed.${name}`, `feed.${name} is not used in ${mode} mode (the flow is set by ${flow}).`);
+		}
+	}
+}
+
+function checkContinuousFlow({ request, report }: RuleContext): void {
+	const { mode, dilutionPerH, perfusion } = request;
+	if (!given(dilutionPerH)) report('dilutionPerH', `${mode} mode needs dilutionPerH.`);
+	if (mode !== 'perfusion') return;
+	if (!perfusion) {
+		report('perfusion', 'perfusion mode needs perfusion.retentionEfficiency and perfusion.bleedPerH.');
+		return;
+	}
+	const { bleedPerH } = perfusion;
+	if (isWithin(dilutionPerH, DILUTION_BOUNDS) && isWithin(bleedPerH, NON_NEGATIVE) && bleedPerH > dilutionPerH) {
+		report(
+			'perfusion.bleedPerH',
+			`perfusion.bleedPerH (${bleedPerH}) cannot exceed dilutionPerH (${dilutionPerH}): the bleed is part of the outflow.`
+		);
+	}
+}
+
+function checkDrawFill({ request, report, endH }: RuleContext, startH: number | null): void {
+	const { drawFill } = request;
+	if (!drawFill) {
+		report('drawFill', 'drawFill mode needs drawFill.fraction and drawFill.everyH.');
+		return;
+	}
+	if (endH === null || startH === null || !isWithin(drawFill.everyH, POSITIVE)) return;
+	if ((endH - startH) / drawFill.everyH > MAX_DRAW_CYCLES) {
+		report('drawFill.everyH', `drawFill.everyH gives more than ${MAX_DRAW_CYCLES} draws before endH.`);
+	}
+}
