@@ -13,6 +13,11 @@ import { MAX_KLA_PER_H, computeVesselKLa } from './vessel';
 
 /** Denser than this is packed cells, not a broth: the densest fed-batch cultures reach about 150 g/L (common practice). */
 export const MAX_BIOMASS_G_PER_L = 200;
+/**
+ * Culture temperatures a study accepts, °C: inside the span of the oxygen solubility equation it uses
+ * (Benson & Krause 1984, 0–50 °C as APHA 4500-O tabulates it; chemistry/REFERENCES.md).
+ */
+export const STUDY_TEMPERATURE_RANGE_C = [0, 40] as const;
 /** A run reaching this fraction of the target counts as reaching it (the course is sampled, not continuous). */
 const REACHES_TARGET_FRACTION = 0.98;
 
@@ -75,7 +80,8 @@ export function readOperatingPoint(inputs: StudyInputs, whatIf: WhatIf): Operati
 	const o2MoleFraction = whatIf.o2MoleFraction ?? plan.o2MoleFraction;
 	if (!(o2MoleFraction > 0) || o2MoleFraction > 1) whatIfError(`The O2 mole fraction must be above 0 and at most 1, not ${o2MoleFraction}.`, 'o2MoleFraction');
 	const temperatureC = whatIf.temperatureC ?? plan.temperatureC;
-	if (!(temperatureC >= 0) || temperatureC > 40) whatIfError(`The temperature must be between 0 and 40 °C for the oxygen solubility equations, not ${temperatureC}.`, 'temperatureC');
+	const [minC, maxC] = STUDY_TEMPERATURE_RANGE_C;
+	if (!(temperatureC >= minC) || temperatureC > maxC) whatIfError(`The temperature must be between ${minC} and ${maxC} °C for the oxygen solubility equations, not ${temperatureC}.`, 'temperatureC');
 	if (plan.pressureKPa > vessel.maxPressureKPa) {
 		throw new ChemistryInputError(`The study's pressure ${plan.pressureKPa} kPa is above the vessel's rating of ${vessel.maxPressureKPa} kPa.`, { field: 'pressureKPa' });
 	}

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { AIR_O2_MOLE_FRACTION, DEFAULT_SAFETY_FACTOR, HEAT_PER_MOL_O2_RANGE_KJ } from '$chemistry';
+import { AIR_O2_MOLE_FRACTION, DEFAULT_SAFETY_FACTOR, HEAT_PER_MOL_O2_RANGE_KJ, STUDY_TEMPERATURE_RANGE_C } from '$chemistry';
 import { FEED_PLAN_STRATEGIES, isControlledPlan, TARGET_BASES, type FeedPlan, type FeedPlanStrategy } from '$lib/studies';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
@@ -52,7 +52,7 @@ export const studySchema = z.object({
 	initialVolumeL: requiredNumber('Initial volume', { gt: 0, unit: 'L' }),
 	inoculumDensity: requiredNumber('Inoculum density', { gt: 0 }),
 	durationH: requiredNumber('Run duration', { gt: 0, max: 1440, unit: 'h' }),
-	temperatureC: requiredNumber('Temperature', { min: 0, max: 40, unit: '°C' }),
+	temperatureC: requiredNumber('Temperature', { min: STUDY_TEMPERATURE_RANGE_C[0], max: STUDY_TEMPERATURE_RANGE_C[1], unit: '°C' }),
 	pressureKPa: requiredNumber('Headspace pressure (absolute)', { min: 50, max: 1000, unit: 'kPa' }),
 	o2MoleFraction: requiredNumber('O2 mole fraction of the inlet gas', { gt: 0, max: 1 }),
 	doSetpointPercent: requiredNumber('DO setpoint', { min: 0, max: 99, unit: '% of air saturation' }),

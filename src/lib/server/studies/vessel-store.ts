@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { MAX_KLA_PER_H } from '$chemistry';
+import { MAX_KLA_PER_H, STUDY_TEMPERATURE_RANGE_C } from '$chemistry';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { vessel, type VesselRow } from '../db/schema';
@@ -21,7 +21,7 @@ export const vesselSchema = z.object({
 	maxGasFlowVvm: requiredNumber('Maximum gas flow', { gt: 0, max: 10, unit: 'vvm' }),
 	o2EnrichmentAllowed: checkbox,
 	maxPressureKPa: requiredNumber('Maximum pressure (absolute)', { min: 100, max: 1000, unit: 'kPa' }),
-	temperatureC: requiredNumber('Temperature', { min: 0, max: 40, unit: '°C' }),
+	temperatureC: requiredNumber('Temperature', { min: STUDY_TEMPERATURE_RANGE_C[0], max: STUDY_TEMPERATURE_RANGE_C[1], unit: '°C' }),
 	coolingCapacityW: requiredNumber('Cooling capacity', { gt: 0, unit: 'W' }),
 	agitationPowerW: optionalNumber('Agitation power', { min: 0, unit: 'W' }),
 	notes: optionalText()
