@@ -89,7 +89,7 @@ export class PendingSends {
 		try {
 			response = await fetch(`?/${action}`, { method: 'POST', body, headers: { 'x-sveltekit-action': 'true' } });
 		} catch {
-			this.hold({ lineId, action, fields, savedAt: new Date().toISOString() });
+			this.hold({ lineId, action, fields, savedAt: new Date().toISOString() }); // eslint-disable-line svelte/prefer-svelte-reactivity -- a timestamp string, never observed
 			return { kind: 'offline' };
 		}
 		const result = deserialize(await response.text());

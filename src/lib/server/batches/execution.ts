@@ -1,6 +1,6 @@
 import { and, eq, isNull, sql } from 'drizzle-orm';
 import { BATCH_STATE_LABELS, checkTolerance, COMPLETION_MEANING, formatLineQuantity, readLineAmount } from '$lib/batches';
-import { formatQuantity, isoToday, isUsableLot, lotUnusability, isExpired } from '$lib/inventory';
+import { formatQuantity, isoToday, isUsableLot, lotUnusability } from '$lib/inventory';
 import { recordAudit, type Actor } from '../audit';
 import { findComponent } from '../components/library';
 import { db, type Db } from '../db';

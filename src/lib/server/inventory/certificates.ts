@@ -31,6 +31,7 @@ export function cleanDisplayName(name: string, extension: string): string {
 	const base = name.split(/[\\/]/).pop() ?? '';
 	let cleaned = base
 		.normalize('NFKC')
+		// eslint-disable-next-line no-control-regex -- control characters are exactly what a display name must lose
 		.replace(/[\u0000-\u001f\u007f]/g, ' ')
 		.replace(/["'`<>|:*?;]/g, '')
 		.replace(/\s+/g, ' ')

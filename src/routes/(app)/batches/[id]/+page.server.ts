@@ -5,7 +5,7 @@ import { reviewBatch, reviewRefusal } from '$lib/server/batches/review';
 import { clientAddress, requireActor, requirePermission } from '$lib/server/guard';
 import { batchView } from '$lib/server/batches/view';
 import { tagged } from '$lib/server/form-tag';
-import { formValues, ruleFailure, parseForm } from '$lib/server/forms';
+import { ruleFailure, parseForm } from '$lib/server/forms';
 import { RuleError } from '$lib/server/rule-error';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';

@@ -1,6 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { requireActor, requirePermission } from '$lib/server/guard';
-import { checkComponentText, COMPONENT_FIELDS, componentText, createComponent, listComponents, componentForm } from '$lib/server/components/library';
+import { checkComponentText, componentText, createComponent, listComponents, componentForm } from '$lib/server/components/library';
 import { formValues, parseForm } from '$lib/server/forms';
 import { db } from '$lib/server/db';
 import type { Actions, PageServerLoad } from './$types';

@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
 import { tagged } from '$lib/server/form-tag';
 import { formFailure, parseForm, ruleFailure, formText } from '$lib/server/forms';
-import { requireActor, requirePermission, clientAddress } from '$lib/server/guard';
+import { requireActor, requirePermission } from '$lib/server/guard';
 import { attachCertificates, checkCertificateFiles } from '$lib/server/inventory/certificates';
 import { adjustLot, disposeLot, setLotStatus } from '$lib/server/inventory/lots';
 import { lotView } from '$lib/server/inventory/view';

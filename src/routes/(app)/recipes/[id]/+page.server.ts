@@ -1,7 +1,6 @@
 import { error, redirect } from '@sveltejs/kit';
 import { ruleFailure, parseForm } from '$lib/server/forms';
 import { requireActor, requirePermission } from '$lib/server/guard';
-import { hasRole } from '$lib/roles';
 import { RuleError } from '$lib/server/rule-error';
 import { startDraftFrom } from '$lib/server/recipes/drafts';
 import { findRecipe } from '$lib/server/recipes/queries';

@@ -1,6 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { listComponents } from '$lib/server/components/library';
-import { formFailure, ruleFailure, parseForm } from '$lib/server/forms';
+import { ruleFailure, parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';
 import { defaultFeedLimits, listSubstanceChoices, oneFormPerSubstance } from '$lib/server/studies/feed-designer';
 import { loadStudyReport } from '$lib/server/studies/page-load';

@@ -1,7 +1,7 @@
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { auditEventsFor } from '$lib/server/audit';
-import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import { changeRoles, findUser, rolesOf, setActive } from '$lib/server/people';
 import { rolesField } from '$lib/server/role-field';

@@ -1,5 +1,5 @@
 import { error, redirect } from '@sveltejs/kit';
-import { formFailure, parseForm, ruleFailure, revisionField } from '$lib/server/forms';
+import { parseForm, ruleFailure, revisionField } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';
 import { loadStudyChoices } from '$lib/server/studies/form-data';
 import { studyFormValues, studySchema, updateStudy } from '$lib/server/studies/study-store';
