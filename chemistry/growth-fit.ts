@@ -75,6 +75,11 @@
 import { CholeskyDecomposition, Matrix, inverse } from 'ml-matrix';
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { ChemistryInputError } from './errors';
+import {
+	computeChiSquareQuantile,
+	computeStudentTQuantile,
+	createStudentT975Table
+} from './statistics';
 
 export interface GrowthCurveData {
 	timeH: number[];
@@ -167,63 +172,6 @@ const WINDOW_LENGTH_FRACTION = 0.6;
 const NOISE_FLOOR_LN = 1e-4;
 /** An interval spanning more than this factor marks a whole-curve parameter as poorly determined. */
 const POORLY_DETERMINED_FACTOR = 3;
-const CHI_SQUARE_1_95 = 3.841459; // 1.959964², the 95 % point of χ²(1)
-
-/**
- * Student's t quantile for integer degrees of freedom: the closed-form CDF (Abramowitz & Stegun 1964,
- * 26.7.3 and 26.7.4; equation numbers from memory) inverted by bisection, so it is exact to rounding. Regression windows are short,
- * and at 2–10 degrees of freedom the normal quantile would understate a 95 % interval by 10–55 %.
- */
-export function computeStudentTQuantile(probability: number, degreesOfFreedom: number): number {
-	if (!(probability > 0 && probability < 1)) {
-		throw new ChemistryInputError('probability must be between 0 and 1.', {
-			field: 'probability'
-		});
-	}
-	if (!Number.isInteger(degreesOfFreedom) || degreesOfFreedom < 1) {
-		throw new ChemistryInputError('degreesOfFreedom must be a whole number ≥ 1.', {
-			field: 'degreesOfFreedom'
-		});
-	}
-	if (probability === 0.5) return 0;
-	if (probability < 0.5) return -computeStudentTQuantile(1 - probability, degreesOfFreedom);
-	// Beyond 10⁵ degrees of freedom the quantile changes by < 1e-5 relative; cap the series length.
-	const nu = Math.min(degreesOfFreedom, 100_000);
-	const target = 2 * probability - 1;
-	let lo = 0;
-	let hi = Math.PI / 2;
-	for (let i = 0; i < 200 && hi - lo > 1e-16; i++) {
-		const mid = 0.5 * (lo + hi);
-		if (computeTwoSidedTProbability(mid, nu) < target) lo = mid;
-		else hi = mid;
-	}
-	return Math.sqrt(nu) * Math.tan(0.5 * (lo + hi));
-}
-
-/** A(t|ν) = P(|T| ≤ t) as a function of θ = atan(t/√ν) (Abramowitz & Stegun 1964, from memory). */
-function computeTwoSidedTProbability(theta: number, nu: number): number {
-	const c = Math.cos(theta);
-	const s = Math.sin(theta);
-	const c2 = c * c;
-	if (nu % 2 === 1) {
-		if (nu === 1) return (2 / Math.PI) * theta;
-		let term = c;
-		let sum = c;
-		for (let power = 3, j = 1; power <= nu - 2; power += 2, j++) {
-			term *= (c2 * (2 * j)) / (2 * j + 1);
-			sum += term;
-		}
-		return (2 / Math.PI) * (theta + s * sum);
-	}
-	let term = 1;
-	let sum = 1;
-	for (let power = 2, j = 1; power <= nu - 2; power += 2, j++) {
-		term *= (c2 * (2 * j - 1)) / (2 * j);
-		sum += term;
-	}
-	return s * sum;
-}
-
 interface LineFit {
 	slope: number;
 	intercept: number;
@@ -531,10 +479,10 @@ function findExponentialPhase(
 	const roundingSdLn = estimateRoundingSdLn(x);
 	const noiseVariance = roundingSdLn.map((r) => Math.max(noiseSdLn, r) ** 2);
 	const chiSquare95 = Array.from({ length: n }, (_, k) =>
-		k > 0 ? computeChiSquareQuantile95(k) : 0
+		k > 0 ? computeChiSquareQuantile(0.95, k) : 0
 	);
 	const studentT975 = createStudentT975Table(n);
-	const maxCurvatureDrop = CHI_SQUARE_1_95;
+	const maxCurvatureDrop = computeChiSquareQuantile(0.95, 1);
 
 	// For each length, the steepest straight window of that length (where it starts, its slope).
 	const steepestByLength = new Float64Array(n + 1).fill(-Infinity);
@@ -674,25 +622,6 @@ interface ClosestWindows {
 	curvature: null | { value: number; i: number; j: number };
 }
 
-/**
- * t(0.975, ν) for ν = 0…n: exact to ν = 100, beyond by the Cornish–Fisher expansion in 1/ν
- * (Abramowitz & Stegun 1964, 26.7.5, from memory; its error there is below 1e-5).
- */
-function createStudentT975Table(n: number): Float64Array {
-	const table = new Float64Array(n + 1);
-	const z = 1.959964;
-	for (let nu = 1; nu <= n; nu++) {
-		table[nu] =
-			nu <= 100
-				? computeStudentTQuantile(0.975, nu)
-				: z +
-					(z ** 3 + z) / (4 * nu) +
-					(5 * z ** 5 + 16 * z ** 3 + 3 * z) / (96 * nu * nu) +
-					(3 * z ** 7 + 19 * z ** 5 + 17 * z ** 3 - 15 * z) / (384 * nu ** 3);
-	}
-	return table;
-}
-
 function explainNoExponentialPhase(
 	t: number[],
 	minPoints: number,
@@ -721,17 +650,6 @@ function explainNoExponentialPhase(
 	}
 	const w = closest.rSquared!;
 	return `${lead}no run of ${minPoints} or more points has ln(biomass) rising on a line with R² ≥ ${minRSquared}. The best, ${span(w)}, has R² = ${w.value.toFixed(3)}${doNote}.`;
-}
-
-/**
- * Upper 5 % point of χ² with k degrees of freedom, by the Wilson–Hilferty cube-root approximation
- * (Wilson & Hilferty 1931; within ~1 % from k = 2, ample for a pass/fail test on noisy data).
- */
-function computeChiSquareQuantile95(k: number): number {
-	if (k === 1) return CHI_SQUARE_1_95; // the cube-root form is poor at k = 1
-	const z = 1.644854; // standard normal 95 % point
-	const c = 2 / (9 * k);
-	return k * (1 - c + z * Math.sqrt(c)) ** 3;
 }
 
 /**

@@ -28,3 +28,4 @@ export * from './simulation';
 export * from './chemostat';
 export * from './productivity';
 export * from './growth-fit';
+export * from './statistics';

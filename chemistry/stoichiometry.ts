@@ -21,6 +21,7 @@ import { Matrix, QrDecomposition, SingularValueDecomposition } from 'ml-matrix';
 import { computeDegreeOfReduction, REDUCTION_ELEMENTS } from './degree-of-reduction';
 import { ChemistryInputError } from './errors';
 import { molarMassOf, parseFormula } from './formula';
+import { computeChiSquareCdf, computeChiSquareQuantile } from './statistics';
 
 export type SpeciesRole =
 	'substrate' | 'nitrogen' | 'oxygen' | 'biomass' | 'carbonDioxide' | 'water' | 'product';
@@ -517,48 +518,6 @@ function label(s: Species): string {
 function joinOr(items: string[], word: string): string {
 	if (items.length <= 1) return items.join('');
 	return `${items.slice(0, -1).join(', ')} ${word} ${items[items.length - 1]}`;
-}
-
-/** Regularised lower incomplete gamma P(ν/2, x/2): the χ² CDF for integer ν. */
-function computeChiSquareCdf(x: number, dof: number): number {
-	if (x <= 0) return 0;
-	const a = dof / 2;
-	const h = x / 2;
-	if (h > a + 40 * Math.sqrt(a) + 100) return 1;
-	// ln Γ(a) for integer or half-integer a, exactly from factorials.
-	let lnGamma = 0;
-	if (Number.isInteger(a)) {
-		for (let k = 2; k < a; k++) lnGamma += Math.log(k);
-	} else {
-		lnGamma = 0.5 * Math.log(Math.PI);
-		for (let k = 0.5; k < a; k += 1) lnGamma += Math.log(k);
-	}
-	let term = 1 / a;
-	let sum = term;
-	for (let n = 1; n < 100000; n++) {
-		term *= h / (a + n);
-		sum += term;
-		if (term < sum * 1e-16) break;
-	}
-	return Math.min(1, sum * Math.exp(-h + a * Math.log(h) - lnGamma));
-}
-
-/** χ² quantile for integer degrees of freedom, by bisection on the CDF. */
-export function computeChiSquareQuantile(probability: number, dof: number): number {
-	if (!(probability > 0 && probability < 1) || !Number.isInteger(dof) || dof < 1) {
-		throw new ChemistryInputError(
-			'χ² quantile needs 0 < probability < 1 and integer degrees of freedom ≥ 1'
-		);
-	}
-	let lo = 0;
-	let hi = dof + 10;
-	while (computeChiSquareCdf(hi, dof) < probability) hi *= 2;
-	for (let i = 0; i < 200 && hi - lo > 1e-12 * hi; i++) {
-		const mid = (lo + hi) / 2;
-		if (computeChiSquareCdf(mid, dof) < probability) lo = mid;
-		else hi = mid;
-	}
-	return (lo + hi) / 2;
 }
 
 interface Rows {
