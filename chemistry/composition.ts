@@ -3,6 +3,7 @@
  * osmolality estimate Σ c·ν·φ, ionic strength ½ Σ c z², and solubility and precipitation warnings.
  */
 import { ChemistryInputError } from './errors';
+import { readBetween } from './input';
 import {
 	type ComponentSpec,
 	type IonSpec,
@@ -160,24 +161,13 @@ function formatNumber(value: number): string {
 	return Number(value.toPrecision(3)).toString();
 }
 
-function checkOptional(
-	value: number | undefined,
-	field: string,
-	min: number,
-	max: number,
-	what: string
-): void {
-	if (value === undefined) return;
-	if (typeof value !== 'number' || !Number.isFinite(value) || value < min || value > max) {
-		throw new ChemistryInputError(`${what} must be a number from ${min} to ${max}`, { field });
-	}
-}
-
 export function computeComposition(input: CompositionInput): CompositionResult {
 	if (!input || !Array.isArray(input.lines)) {
 		throw new ChemistryInputError('Lines must be a list', { field: 'lines' });
 	}
-	checkOptional(input.temperatureC, 'temperatureC', -10, 100, 'Temperature (°C)');
+	if (input.temperatureC !== undefined) {
+		readBetween(input.temperatureC, 'temperatureC', -10, 100, 'Temperature (°C)');
+	}
 	if (input.volumeL !== undefined) checkAmount(input.volumeL, 'volumeL');
 	const temperatureC = input.temperatureC ?? 25;
 	const volumeL = input.volumeL ?? null;

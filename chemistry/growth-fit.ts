@@ -75,6 +75,7 @@
 import { CholeskyDecomposition, Matrix, inverse } from 'ml-matrix';
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { ChemistryInputError } from './errors';
+import { readWholeNumber } from './input';
 import {
 	computeChiSquareQuantile,
 	computeStudentTQuantile,
@@ -295,13 +296,7 @@ function readSubstrate(values: unknown, length: number): number[] {
 }
 
 function readCurvePoints(value: number | undefined): number {
-	const curvePoints = value ?? 200;
-	if (!Number.isInteger(curvePoints) || curvePoints < 2 || curvePoints > 10_000) {
-		throw new ChemistryInputError('curvePoints must be a whole number from 2 to 10000.', {
-			field: 'curvePoints'
-		});
-	}
-	return curvePoints;
+	return readWholeNumber(value ?? 200, 'curvePoints', 2, 10_000);
 }
 
 /** Three significant digits for messages. */

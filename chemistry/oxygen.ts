@@ -8,6 +8,7 @@
  * x_air = AIR_O2_MOLE_FRACTION = 0.20946 (data/oxygen-solubility.ts).
  */
 import { ChemistryInputError } from './errors';
+import { readFinite, readNonNegative, readPositive } from './input';
 import { molarMassOf } from './formula';
 import {
 	AIR_O2_MOLE_FRACTION,
@@ -75,25 +76,6 @@ export interface OxygenSaturationResult {
 	waterVapourPressureKPa: number;
 	/** Factor from 1 atm to `pressureKPa` (APHA/USGS). */
 	pressureFactor: number;
-}
-
-function requireFinite(value: unknown, field: string, what: string): number {
-	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		throw new ChemistryInputError(`${what} must be a finite number`, { field });
-	}
-	return value;
-}
-
-function requirePositive(value: unknown, field: string, what: string): number {
-	const v = requireFinite(value, field, what);
-	if (v <= 0) throw new ChemistryInputError(`${what} must be greater than 0, not ${v}`, { field });
-	return v;
-}
-
-function requireNonNegative(value: unknown, field: string, what: string): number {
-	const v = requireFinite(value, field, what);
-	if (v < 0) throw new ChemistryInputError(`${what} must not be negative, not ${v}`, { field });
-	return v;
 }
 
 function join(prefix: string, field: string): string {
@@ -165,7 +147,7 @@ export function computeOxygenSaturation(
 		);
 	}
 	const range = OXYGEN_SOLUBILITY_RANGES[method];
-	const temperatureC = requireFinite(
+	const temperatureC = readFinite(
 		input.temperatureC,
 		join(fieldPrefix, 'temperatureC'),
 		'Temperature'
@@ -177,7 +159,7 @@ export function computeOxygenSaturation(
 			{ field: join(fieldPrefix, 'temperatureC') }
 		);
 	}
-	const salinityGPerKg = requireNonNegative(
+	const salinityGPerKg = readNonNegative(
 		input.salinityGPerKg ?? 0,
 		join(fieldPrefix, 'salinityGPerKg'),
 		'Salinity'
@@ -189,7 +171,7 @@ export function computeOxygenSaturation(
 			{ field: join(fieldPrefix, 'salinityGPerKg') }
 		);
 	}
-	const pressureKPa = requirePositive(
+	const pressureKPa = readPositive(
 		input.pressureKPa ?? KPA_PER_ATM,
 		join(fieldPrefix, 'pressureKPa'),
 		'Pressure'
@@ -202,7 +184,7 @@ export function computeOxygenSaturation(
 			{ field: join(fieldPrefix, 'pressureKPa') }
 		);
 	}
-	const o2MoleFraction = requirePositive(
+	const o2MoleFraction = readPositive(
 		input.o2MoleFraction ?? AIR_O2_MOLE_FRACTION,
 		join(fieldPrefix, 'o2MoleFraction'),
 		'O2 mole fraction'
@@ -272,13 +254,13 @@ export function computeMaxOtr(input: {
 	saturationMgPerL: number;
 	setpointMgPerL: number;
 }): OxygenRate {
-	const kLaPerH = requirePositive(input.kLaPerH, 'kLaPerH', 'kLa');
-	const saturationMgPerL = requirePositive(
+	const kLaPerH = readPositive(input.kLaPerH, 'kLaPerH', 'kLa');
+	const saturationMgPerL = readPositive(
 		input.saturationMgPerL,
 		'saturationMgPerL',
 		'Saturation C*'
 	);
-	const setpointMgPerL = requireNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
+	const setpointMgPerL = readNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
 	if (setpointMgPerL >= saturationMgPerL) {
 		throw new ChemistryInputError(
 			`DO setpoint ${setpointMgPerL.toFixed(3)} mg/L is at or above the saturation ${saturationMgPerL.toFixed(3)} mg/L, so no oxygen can be transferred`,
@@ -299,18 +281,18 @@ export interface GrowthUptakeInput {
 
 /** OUR = (μ / Yx/O2 + m_O) · X, Pirt's maintenance model (Pirt 1965, Proc. R. Soc. B; citation from memory). */
 export function computeOxygenUptakeRate(input: GrowthUptakeInput, fieldPrefix = ''): OxygenRate {
-	const mu = requireNonNegative(
+	const mu = readNonNegative(
 		input.specificGrowthRatePerH,
 		join(fieldPrefix, 'specificGrowthRatePerH'),
 		'Specific growth rate'
 	);
-	const x = requireNonNegative(input.biomassGPerL, join(fieldPrefix, 'biomassGPerL'), 'Biomass');
-	const y = requirePositive(
+	const x = readNonNegative(input.biomassGPerL, join(fieldPrefix, 'biomassGPerL'), 'Biomass');
+	const y = readPositive(
 		input.yieldBiomassOnOxygenGPerG,
 		join(fieldPrefix, 'yieldBiomassOnOxygenGPerG'),
 		'Yx/O2'
 	);
-	const m = requireNonNegative(
+	const m = readNonNegative(
 		input.maintenanceGO2PerGH ?? 0,
 		join(fieldPrefix, 'maintenanceGO2PerGH'),
 		'Maintenance'
@@ -323,8 +305,8 @@ export function computeOxygenReserveS(input: {
 	setpointMgPerL: number;
 	ourMmolPerLH: number;
 }): number {
-	const setpointMgPerL = requireNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
-	const our = requirePositive(input.ourMmolPerLH, 'ourMmolPerLH', 'OUR');
+	const setpointMgPerL = readNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
+	const our = readPositive(input.ourMmolPerLH, 'ourMmolPerLH', 'OUR');
 	return (convertOxygenMgPerLToMmolPerL(setpointMgPerL) / our) * 3600;
 }
 
@@ -366,7 +348,7 @@ function resolveSetpointMgPerL(setpoint: DoSetpoint, airSaturationMgPerL: number
 		});
 	}
 	if ('percentAirSaturation' in setpoint) {
-		const pct = requireNonNegative(
+		const pct = readNonNegative(
 			setpoint.percentAirSaturation,
 			'setpoint.percentAirSaturation',
 			'DO setpoint'
@@ -374,7 +356,7 @@ function resolveSetpointMgPerL(setpoint: DoSetpoint, airSaturationMgPerL: number
 		return (pct / 100) * airSaturationMgPerL;
 	}
 	if ('mgPerL' in setpoint)
-		return requireNonNegative(setpoint.mgPerL, 'setpoint.mgPerL', 'DO setpoint');
+		return readNonNegative(setpoint.mgPerL, 'setpoint.mgPerL', 'DO setpoint');
 	throw new ChemistryInputError('Setpoint must be { percentAirSaturation } or { mgPerL }', {
 		field: 'setpoint'
 	});
@@ -389,7 +371,7 @@ export function assessOxygenTransfer(input: OxygenTransferInput): OxygenTransfer
 		throw new ChemistryInputError('Oxygen transfer input must be an object');
 	}
 	const saturation = computeOxygenSaturation(input.conditions, 'conditions');
-	const kLaPerH = requirePositive(input.kLaPerH, 'kLaPerH', 'kLa');
+	const kLaPerH = readPositive(input.kLaPerH, 'kLaPerH', 'kLa');
 	const setpointMgPerL = resolveSetpointMgPerL(input.setpoint, saturation.airSaturationMgPerL);
 	const drivingForceMgPerL = saturation.mgPerL - setpointMgPerL;
 	if (drivingForceMgPerL <= 0) {
@@ -407,7 +389,7 @@ export function assessOxygenTransfer(input: OxygenTransferInput): OxygenTransfer
 	const peakOur =
 		'ourMmolPerLH' in uptake
 			? (() => {
-					const mmol = requireNonNegative(uptake.ourMmolPerLH, 'uptake.ourMmolPerLH', 'OUR');
+					const mmol = readNonNegative(uptake.ourMmolPerLH, 'uptake.ourMmolPerLH', 'OUR');
 					return { mmolPerLH: mmol, mgPerLH: convertOxygenMmolPerLToMgPerL(mmol) };
 				})()
 			: computeOxygenUptakeRate(uptake, 'uptake');
@@ -463,14 +445,14 @@ export function computeOxygenDemand(input: OxygenDemandInput): OxygenDemandResul
 				}
 			);
 		}
-		perBiomass = requirePositive(
+		perBiomass = readPositive(
 			input.oxygenPerBiomassGPerG,
 			'oxygenPerBiomassGPerG',
 			'O2 per biomass'
 		);
 	} else if (input.yieldBiomassOnOxygenGPerG !== undefined) {
 		perBiomass =
-			1 / requirePositive(input.yieldBiomassOnOxygenGPerG, 'yieldBiomassOnOxygenGPerG', 'Yx/O2');
+			1 / readPositive(input.yieldBiomassOnOxygenGPerG, 'yieldBiomassOnOxygenGPerG', 'Yx/O2');
 	} else {
 		throw new ChemistryInputError(
 			'Oxygen demand needs oxygenPerBiomassGPerG or yieldBiomassOnOxygenGPerG',
@@ -479,12 +461,12 @@ export function computeOxygenDemand(input: OxygenDemandInput): OxygenDemandResul
 			}
 		);
 	}
-	const x = requireNonNegative(
+	const x = readNonNegative(
 		input.biomassProducedGPerL,
 		'biomassProducedGPerL',
 		'Biomass produced'
 	);
-	const v = requirePositive(input.workingVolumeL, 'workingVolumeL', 'Working volume');
+	const v = readPositive(input.workingVolumeL, 'workingVolumeL', 'Working volume');
 	const perLitreG = perBiomass * x;
 	return {
 		oxygenPerBiomassGPerG: perBiomass,

@@ -20,6 +20,7 @@
 import { Matrix, QrDecomposition, SingularValueDecomposition } from 'ml-matrix';
 import { computeDegreeOfReduction, REDUCTION_ELEMENTS } from './degree-of-reduction';
 import { ChemistryInputError } from './errors';
+import { readFinite, readNonNegative } from './input';
 import { molarMassOf, parseFormula } from './formula';
 import { computeChiSquareCdf, computeChiSquareQuantile } from './statistics';
 
@@ -404,15 +405,6 @@ function readSpecifications(input: unknown, byId: Map<string, Species>): Spec[] 
 			});
 		return s;
 	};
-	const num = (value: unknown, field: string, what: string, min?: number): number => {
-		if (typeof value !== 'number' || !Number.isFinite(value)) {
-			throw new ChemistryInputError(`${what} must be a finite number`, { field });
-		}
-		if (min !== undefined && value < min) {
-			throw new ChemistryInputError(`${what} must not be negative, not ${value}`, { field });
-		}
-		return value;
-	};
 	const rateSpecs = new Map<number, { index: number; mol: number }>();
 	return input.map((raw: unknown, index): Spec => {
 		const field = `specifications.${index}`;
@@ -432,7 +424,7 @@ function readSpecifications(input: unknown, byId: Map<string, Species>): Spec[] 
 		}
 		if (spec.kind === 'rate') {
 			const s = ref(spec.species, `${field}.species`);
-			const mol = num(spec.mol, `${field}.mol`, 'Rate');
+			const mol = readFinite(spec.mol, `${field}.mol`, 'Rate');
 			if (s.role && mol !== 0) {
 				const how = s.roleGiven ? `role ${s.role}` : `taken as ${s.role} from its formula`;
 				if (CONSUMED.has(s.role) && mol > 0) {
@@ -466,7 +458,7 @@ function readSpecifications(input: unknown, byId: Map<string, Species>): Spec[] 
 					field: `${field}.substrate`
 				});
 			}
-			const gPerG = num(spec.gPerG, `${field}.gPerG`, 'Yield', 0);
+			const gPerG = readNonNegative(spec.gPerG, `${field}.gPerG`, 'Yield');
 			return { index, kind: 'massYield', a: p.index, b: s.index, value: gPerG, relativeError };
 		}
 		if (spec.kind === 'molarRatio') {
@@ -477,7 +469,7 @@ function readSpecifications(input: unknown, byId: Map<string, Species>): Spec[] 
 					field: `${field}.denominator`
 				});
 			}
-			const value = num(spec.value, `${field}.value`, 'Ratio', 0);
+			const value = readNonNegative(spec.value, `${field}.value`, 'Ratio');
 			return { index, kind: 'molarRatio', a: n.index, b: d.index, value, relativeError };
 		}
 		throw new ChemistryInputError(
