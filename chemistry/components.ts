@@ -4,6 +4,7 @@
  * components stored by the app work as well as the reference ones.
  */
 import { ChemistryInputError } from './errors';
+import { readMolarMass } from './input';
 import { ATOMIC_WEIGHTS } from './data/atomic-weights';
 import { REFERENCE_COMPONENT_DATA } from './data/components';
 import { molarMassOf, parseFormula } from './formula';
@@ -276,12 +277,7 @@ export function resolveComponent(spec: ComponentSpec, field = 'component'): Reso
 		elementMolPerG = vector.molPerG;
 	} else {
 		if (spec.molarMassGPerMol != null) {
-			if (!isPositiveFinite(spec.molarMassGPerMol)) {
-				throw new ChemistryInputError('Molar mass must be a positive number of g/mol', {
-					field: `${field}.molarMassGPerMol`
-				});
-			}
-			molarMassGPerMol = spec.molarMassGPerMol;
+			molarMassGPerMol = readMolarMass(spec.molarMassGPerMol, `${field}.molarMassGPerMol`);
 		}
 		if (fractions != null) {
 			if (typeof fractions !== 'object') {

@@ -106,3 +106,11 @@ export function readWholeNumber(
 	}
 	return value;
 }
+
+/** A molar mass: "Molar mass must be a positive number of g/mol". */
+export function readMolarMass(value: unknown, field: string): number {
+	if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) {
+		throw new ChemistryInputError('Molar mass must be a positive number of g/mol', { field });
+	}
+	return value;
+}
