@@ -114,3 +114,8 @@ export function readMolarMass(value: unknown, field: string): number {
 	}
 	return value;
 }
+
+/** A field path under `prefix` ("oxygen.kLaPerH"), or the field alone when there is no prefix. */
+export function joinField(prefix: string, field: string): string {
+	return prefix ? `${prefix}.${field}` : field;
+}
