@@ -6,8 +6,13 @@
 import { ChemistryInputError } from './errors';
 import { readMolarMass } from './input';
 import { ATOMIC_WEIGHTS } from './data/atomic-weights';
-import { REFERENCE_COMPONENT_DATA } from './data/components';
 import { molarMassOf, parseFormula } from './formula';
+import { REFERENCE_COMPONENTS, normalizeName, lookup, formulaCounts } from './reference-components';
+export {
+	REFERENCE_COMPONENTS,
+	findReferenceComponent,
+	findHydratesOf
+} from './reference-components';
 
 export type ComponentCategory =
 	| 'salt'
@@ -100,66 +105,12 @@ export interface ResolvedComponent {
 		source: string;
 	} | null;
 }
-
-function buildReferenceComponents(): ReferenceComponent[] {
-	const byId = new Map(REFERENCE_COMPONENT_DATA.map((d) => [d.id, d]));
-	return REFERENCE_COMPONENT_DATA.map((data) => {
-		const formula = data.formula ?? null;
-		let solubility: SolubilitySpec | null = null;
-		if (data.solubilityGPerL25C !== undefined) {
-			solubility = {
-				points: [
-					{ temperatureC: 25, gPerL: data.solubilityGPerL25C },
-					...(data.solubilityPoints ?? [])
-				],
-				basisFormula: data.solubilityBasisFormula ?? null,
-				source: data.solubilitySource ?? null
-			};
-		} else if (data.anhydrousId) {
-			// A hydrate shares its anhydrous salt's solubility, compared on the anhydrous basis.
-			const anhydrous = byId.get(data.anhydrousId);
-			if (anhydrous?.solubilityGPerL25C !== undefined) {
-				solubility = {
-					points: [
-						{ temperatureC: 25, gPerL: anhydrous.solubilityGPerL25C },
-						...(anhydrous.solubilityPoints ?? [])
-					],
-					basisFormula: anhydrous.solubilityBasisFormula ?? anhydrous.formula ?? null,
-					source: `${anhydrous.solubilitySource} (value for ${anhydrous.name})`
-				};
-			}
-		}
-		const { solubilityPoints: _points, solubilityBasisFormula: _basis, ...rest } = data;
-		return {
-			...rest,
-			formula,
-			molarMassGPerMol: formula ? molarMassOf(parseFormula(formula).elements) : null,
-			solubility,
-			...(data.ghsHazards ? { hazardSource: 'from memory; check the supplier SDS' } : {})
-		};
-	});
-}
-
-export const REFERENCE_COMPONENTS: readonly ReferenceComponent[] = Object.freeze(
-	buildReferenceComponents().map((c) => Object.freeze(c))
-);
-
-function normalizeName(text: string): string {
-	return text
-		.toLowerCase()
-		.replace(/[\s_·.,()-]+/g, ' ')
-		.trim();
-}
-
-const lookup = new Map<string, ReferenceComponent>();
 for (const component of REFERENCE_COMPONENTS) {
 	for (const key of [component.id, component.name, ...(component.synonyms ?? [])]) {
 		const normalized = normalizeName(key);
 		if (!lookup.has(normalized)) lookup.set(normalized, component);
 	}
 }
-// A formula finds a component only when no other reference component shares it (C6H12O6 does not).
-const formulaCounts = new Map<string, number>();
 for (const c of REFERENCE_COMPONENTS) {
 	if (c.formula)
 		formulaCounts.set(
@@ -170,17 +121,6 @@ for (const c of REFERENCE_COMPONENTS) {
 for (const c of REFERENCE_COMPONENTS) {
 	const key = c.formula ? normalizeName(c.formula) : null;
 	if (key && formulaCounts.get(key) === 1 && !lookup.has(key)) lookup.set(key, c);
-}
-
-/** A reference component by id, name, synonym or unshared formula (case and punctuation ignored). */
-export function findReferenceComponent(idOrName: string): ReferenceComponent | undefined {
-	if (typeof idOrName !== 'string') return undefined;
-	return lookup.get(normalizeName(idOrName));
-}
-
-/** The hydrates of an anhydrous reference component (MgSO4 → MgSO4·7H2O). */
-export function findHydratesOf(anhydrousId: string): ReferenceComponent[] {
-	return REFERENCE_COMPONENTS.filter((c) => c.anhydrousId === anhydrousId);
 }
 
 /** The base of an ion label without its charge: 'HPO4^2-' → 'HPO4', 'Na+' → 'Na'. */
@@ -248,6 +188,45 @@ export function resolveComponent(spec: ComponentSpec, field = 'component'): Reso
 	if (typeof spec.name !== 'string' || spec.name.trim() === '') {
 		throw new ChemistryInputError('Component needs a name', { field: `${field}.name` });
 	}
+	const content = readElementContent(spec, field);
+	const { molarMassGPerMol } = content;
+	const { ions, particles, ionicStrengthPerMolar } = readIons(spec, field, molarMassGPerMol);
+
+	let osmoticCoefficient = 1;
+	let osmoticCoefficientSource = 'assumed ideal (φ = 1): none given';
+	if (spec.osmoticCoefficient != null) {
+		if (!isPositiveFinite(spec.osmoticCoefficient) || spec.osmoticCoefficient > 2) {
+			throw new ChemistryInputError('Osmotic coefficient must be a number between 0 and 2', {
+				field: `${field}.osmoticCoefficient`
+			});
+		}
+		osmoticCoefficient = spec.osmoticCoefficient;
+		osmoticCoefficientSource = spec.osmoticCoefficientSource ?? 'given with the component';
+	}
+
+	const resolved: ResolvedComponent = {
+		spec,
+		...content,
+		ions,
+		particlesPerUnit: molarMassGPerMol === null ? null : particles,
+		ionicStrengthPerMolar,
+		osmoticCoefficient,
+		osmoticCoefficientSource,
+		solubility: spec.solubility != null ? readSolubility(spec, field, molarMassGPerMol) : null
+	};
+	resolvedCache.set(spec, resolved);
+	return resolved;
+}
+
+interface ElementContent {
+	molarMassGPerMol: number | null;
+	elementSymbols: string[];
+	elementGPerG: number[];
+	elementMolPerG: number[];
+}
+
+/** The elements per gram, from the formula or from elemental mass fractions (one of them, not both). */
+function readElementContent(spec: ComponentSpec, field: string): ElementContent {
 	const hasFormula = spec.formula != null && spec.formula !== '';
 	const fractions = spec.elementalMassFractions;
 	if (hasFormula && fractions != null) {
@@ -255,14 +234,9 @@ export function resolveComponent(spec: ComponentSpec, field = 'component'): Reso
 			field: `${field}.elementalMassFractions`
 		});
 	}
-
-	let molarMassGPerMol: number | null = null;
-	let elementSymbols: string[] = [];
-	let elementGPerG: number[] = [];
-	let elementMolPerG: number[] = [];
 	if (hasFormula) {
 		const vector = vectorOfFormula(spec.formula as string, `${field}.formula`);
-		molarMassGPerMol = vector.molarMassGPerMol;
+		const molarMassGPerMol = vector.molarMassGPerMol;
 		if (
 			spec.molarMassGPerMol != null &&
 			!(Math.abs(spec.molarMassGPerMol - molarMassGPerMol) <= 0.01 * molarMassGPerMol)
@@ -272,57 +246,83 @@ export function resolveComponent(spec: ComponentSpec, field = 'component'): Reso
 				{ field: `${field}.molarMassGPerMol` }
 			);
 		}
-		elementSymbols = vector.symbols;
-		elementGPerG = vector.gPerG;
-		elementMolPerG = vector.molPerG;
-	} else {
-		if (spec.molarMassGPerMol != null) {
-			molarMassGPerMol = readMolarMass(spec.molarMassGPerMol, `${field}.molarMassGPerMol`);
-		}
-		if (fractions != null) {
-			if (typeof fractions !== 'object') {
-				throw new ChemistryInputError(
-					'Elemental mass fractions must map element symbols to numbers',
-					{
-						field: `${field}.elementalMassFractions`
-					}
-				);
-			}
-			let sum = 0;
-			for (const [symbol, fraction] of Object.entries(fractions)) {
-				const fractionField = `${field}.elementalMassFractions.${symbol}`;
-				if (ATOMIC_WEIGHTS[symbol] === undefined) {
-					throw new ChemistryInputError(`Unknown element '${symbol}'`, { field: fractionField });
-				}
-				if (
-					typeof fraction !== 'number' ||
-					!Number.isFinite(fraction) ||
-					fraction < 0 ||
-					fraction > 1
-				) {
-					throw new ChemistryInputError(
-						`Mass fraction of ${symbol} must be between 0 and 1 (g per g)`,
-						{
-							field: fractionField
-						}
-					);
-				}
-				sum += fraction;
-				elementSymbols.push(symbol);
-				elementGPerG.push(fraction);
-				elementMolPerG.push(fraction / ATOMIC_WEIGHTS[symbol]);
-			}
-			if (sum > 1 + 1e-6) {
-				throw new ChemistryInputError(
-					`Elemental mass fractions add up to ${sum.toFixed(4)}, more than 1 g per g`,
-					{
-						field: `${field}.elementalMassFractions`
-					}
-				);
-			}
-		}
+		return {
+			molarMassGPerMol,
+			elementSymbols: vector.symbols,
+			elementGPerG: vector.gPerG,
+			elementMolPerG: vector.molPerG
+		};
 	}
+	const content: ElementContent = {
+		molarMassGPerMol: null,
+		elementSymbols: [],
+		elementGPerG: [],
+		elementMolPerG: []
+	};
+	if (spec.molarMassGPerMol != null) {
+		content.molarMassGPerMol = readMolarMass(spec.molarMassGPerMol, `${field}.molarMassGPerMol`);
+	}
+	if (fractions != null) {
+		if (typeof fractions !== 'object') {
+			throw new ChemistryInputError(
+				'Elemental mass fractions must map element symbols to numbers',
+				{
+					field: `${field}.elementalMassFractions`
+				}
+			);
+		}
+		readElementalMassFractions(fractions, field, content);
+	}
+	return content;
+}
 
+/** Elemental mass fractions (g per g, together at most 1), appended to `content`. */
+function readElementalMassFractions(
+	fractions: Record<string, number>,
+	field: string,
+	content: ElementContent
+): void {
+	const { elementSymbols, elementGPerG, elementMolPerG } = content;
+	let sum = 0;
+	for (const [symbol, fraction] of Object.entries(fractions)) {
+		const fractionField = `${field}.elementalMassFractions.${symbol}`;
+		if (ATOMIC_WEIGHTS[symbol] === undefined) {
+			throw new ChemistryInputError(`Unknown element '${symbol}'`, { field: fractionField });
+		}
+		if (
+			typeof fraction !== 'number' ||
+			!Number.isFinite(fraction) ||
+			fraction < 0 ||
+			fraction > 1
+		) {
+			throw new ChemistryInputError(
+				`Mass fraction of ${symbol} must be between 0 and 1 (g per g)`,
+				{
+					field: fractionField
+				}
+			);
+		}
+		sum += fraction;
+		elementSymbols.push(symbol);
+		elementGPerG.push(fraction);
+		elementMolPerG.push(fraction / ATOMIC_WEIGHTS[symbol]);
+	}
+	if (sum > 1 + 1e-6) {
+		throw new ChemistryInputError(
+			`Elemental mass fractions add up to ${sum.toFixed(4)}, more than 1 g per g`,
+			{
+				field: `${field}.elementalMassFractions`
+			}
+		);
+	}
+}
+
+/** The ions a salt gives (a neutral set), the particles and ionic strength per formula unit. */
+function readIons(
+	spec: ComponentSpec,
+	field: string,
+	molarMassGPerMol: number | null
+): { ions: IonSpec[]; particles: number; ionicStrengthPerMolar: number } {
 	const ions: IonSpec[] = [];
 	let particles = 0;
 	let ionicStrengthPerMolar = 0;
@@ -368,84 +368,62 @@ export function resolveComponent(spec: ComponentSpec, field = 'component'): Reso
 		}
 	}
 	if (particles === 0 && molarMassGPerMol !== null) particles = 1;
+	return { ions, particles, ionicStrengthPerMolar };
+}
 
-	let osmoticCoefficient = 1;
-	let osmoticCoefficientSource = 'assumed ideal (φ = 1): none given';
-	if (spec.osmoticCoefficient != null) {
-		if (!isPositiveFinite(spec.osmoticCoefficient) || spec.osmoticCoefficient > 2) {
-			throw new ChemistryInputError('Osmotic coefficient must be a number between 0 and 2', {
-				field: `${field}.osmoticCoefficient`
-			});
-		}
-		osmoticCoefficient = spec.osmoticCoefficient;
-		osmoticCoefficientSource = spec.osmoticCoefficientSource ?? 'given with the component';
-	}
-
-	let solubility: ResolvedComponent['solubility'] = null;
-	if (spec.solubility != null) {
-		const solubilityField = `${field}.solubility`;
-		const points = spec.solubility.points;
-		if (!Array.isArray(points) || points.length === 0) {
-			throw new ChemistryInputError('Solubility needs at least one point', {
-				field: `${solubilityField}.points`
-			});
-		}
-		points.forEach((p, i) => {
-			if (
-				!p ||
-				typeof p.temperatureC !== 'number' ||
-				!Number.isFinite(p.temperatureC) ||
-				p.temperatureC < -20 ||
-				p.temperatureC > 150
-			) {
-				throw new ChemistryInputError('Solubility temperature must be between -20 and 150 °C', {
-					field: `${solubilityField}.points.${i}.temperatureC`
-				});
-			}
-			if (!isPositiveFinite(p.gPerL)) {
-				throw new ChemistryInputError('Solubility must be a positive number of g/L', {
-					field: `${solubilityField}.points.${i}.gPerL`
-				});
-			}
+/** Solubility points sorted by temperature, on the component's own basis or another formula's. */
+function readSolubility(
+	spec: ComponentSpec,
+	field: string,
+	molarMassGPerMol: number | null
+): ResolvedComponent['solubility'] {
+	const solubility = spec.solubility!;
+	const solubilityField = `${field}.solubility`;
+	const points = solubility.points;
+	if (!Array.isArray(points) || points.length === 0) {
+		throw new ChemistryInputError('Solubility needs at least one point', {
+			field: `${solubilityField}.points`
 		});
-		const basisFormula = spec.solubility.basisFormula;
-		let basisMolarMassGPerMol: number | null = null;
-		if (basisFormula) {
-			if (molarMassGPerMol === null) {
-				throw new ChemistryInputError(
-					'A solubility on another basis needs the component’s formula or molar mass',
-					{
-						field: `${solubilityField}.basisFormula`
-					}
-				);
-			}
-			basisMolarMassGPerMol = vectorOfFormula(
-				basisFormula,
-				`${solubilityField}.basisFormula`
-			).molarMassGPerMol;
-		}
-		solubility = {
-			points: [...points].sort((a, b) => a.temperatureC - b.temperatureC),
-			basisMolarMassGPerMol,
-			source: spec.solubility.source ?? 'given with the component'
-		};
 	}
-
-	const resolved: ResolvedComponent = {
-		spec,
-		molarMassGPerMol,
-		elementSymbols,
-		elementGPerG,
-		elementMolPerG,
-		ions,
-		particlesPerUnit: molarMassGPerMol === null ? null : particles,
-		ionicStrengthPerMolar,
-		osmoticCoefficient,
-		osmoticCoefficientSource,
-		solubility
+	points.forEach((p, i) => {
+		if (
+			!p ||
+			typeof p.temperatureC !== 'number' ||
+			!Number.isFinite(p.temperatureC) ||
+			p.temperatureC < -20 ||
+			p.temperatureC > 150
+		) {
+			throw new ChemistryInputError('Solubility temperature must be between -20 and 150 °C', {
+				field: `${solubilityField}.points.${i}.temperatureC`
+			});
+		}
+		if (!isPositiveFinite(p.gPerL)) {
+			throw new ChemistryInputError('Solubility must be a positive number of g/L', {
+				field: `${solubilityField}.points.${i}.gPerL`
+			});
+		}
+	});
+	const basisFormula = solubility.basisFormula;
+	let basisMolarMassGPerMol: number | null = null;
+	if (basisFormula) {
+		if (molarMassGPerMol === null) {
+			throw new ChemistryInputError(
+				'A solubility on another basis needs the component’s formula or molar mass',
+				{
+					field: `${solubilityField}.basisFormula`
+				}
+			);
+		}
+		basisMolarMassGPerMol = vectorOfFormula(
+			basisFormula,
+			`${solubilityField}.basisFormula`
+		).molarMassGPerMol;
+	}
+	return {
+		points: [...points].sort((a, b) => a.temperatureC - b.temperatureC),
+		basisMolarMassGPerMol,
+		source: solubility.source ?? 'given with the component'
 	};
-	resolvedCache.set(spec, resolved);
-	return resolved;
 }
 
 /** g of each element per g of the component. */
