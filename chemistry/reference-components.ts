@@ -3,7 +3,7 @@ import { REFERENCE_COMPONENT_DATA } from './data/components';
 import { molarMassOf, parseFormula } from './formula';
 import { type SolubilitySpec, type ReferenceComponent } from './components';
 
-export function buildReferenceComponents(): ReferenceComponent[] {
+function buildReferenceComponents(): ReferenceComponent[] {
 	const byId = new Map(REFERENCE_COMPONENT_DATA.map((d) => [d.id, d]));
 	return REFERENCE_COMPONENT_DATA.map((data) => {
 		const formula = data.formula ?? null;
@@ -46,17 +46,35 @@ export const REFERENCE_COMPONENTS: readonly ReferenceComponent[] = Object.freeze
 	buildReferenceComponents().map((c) => Object.freeze(c))
 );
 
-export function normalizeName(text: string): string {
+function normalizeName(text: string): string {
 	return text
 		.toLowerCase()
 		.replace(/[\s_·.,()-]+/g, ' ')
 		.trim();
 }
 
-export const lookup = new Map<string, ReferenceComponent>();
+const lookup = new Map<string, ReferenceComponent>();
 
 // A formula finds a component only when no other reference component shares it (C6H12O6 does not).
-export const formulaCounts = new Map<string, number>();
+const formulaCounts = new Map<string, number>();
+
+for (const component of REFERENCE_COMPONENTS) {
+	for (const key of [component.id, component.name, ...(component.synonyms ?? [])]) {
+		const normalized = normalizeName(key);
+		if (!lookup.has(normalized)) lookup.set(normalized, component);
+	}
+}
+for (const c of REFERENCE_COMPONENTS) {
+	if (c.formula)
+		formulaCounts.set(
+			normalizeName(c.formula),
+			(formulaCounts.get(normalizeName(c.formula)) ?? 0) + 1
+		);
+}
+for (const c of REFERENCE_COMPONENTS) {
+	const key = c.formula ? normalizeName(c.formula) : null;
+	if (key && formulaCounts.get(key) === 1 && !lookup.has(key)) lookup.set(key, c);
+}
 
 /** A reference component by id, name, synonym or unshared formula (case and punctuation ignored). */
 export function findReferenceComponent(idOrName: string): ReferenceComponent | undefined {
