@@ -196,39 +196,61 @@ export function designFeeds(input: FeedDesignInput): FeedDesignResult {
 
 	const single: Slot = { key: 'single', members: design.prepared.map((p) => p.index) };
 	const one = design.solve([single], { fixedL: feedVolumeL }, design.limits('all'), 'mass');
-	if (!one) {
-		const explained = explain(design, [single]);
-		// A single feed of the volume that fits may still precipitate: then the volume to name is the split's.
-		const atLeast = explained.minimumFeedVolumeL;
-		const there =
-			atLeast === null
-				? null
-				: design.solve([single], { fixedL: atLeast }, design.limits('all'), 'mass');
-		const precipitates = there
-			? buildFeed(design, single, there.massMg[0], atLeast!, false).warnings.flatMap((w) =>
-					w.precipitate ? [w.precipitate] : []
-				)
-			: [];
-		if (precipitates.length) {
-			const volume = explainVolume(design, splitSlots(design));
-			explained.problems.splice(
-				-1,
-				1,
-				`A single feed that fits would be flagged for ${listWords(precipitates)} by the recipe analysis, so it would be split in two. ${volume.problems[0]}`
-			);
-			explained.minimumFeedVolumeL = volume.minimumFeedVolumeL;
-		}
-		return finish({
-			feeds: [],
-			problems: explained.problems,
-			minimumFeedVolumeL: explained.minimumFeedVolumeL
-		});
-	}
+	if (!one) return finish({ feeds: [], ...explainSingleFeedFailure(design, single) });
 	const singleFeed = buildFeed(design, single, one.massMg[0], feedVolumeL, false);
 	const flagged = singleFeed.warnings.filter((w) => w.kind === 'precipitation');
 	if (flagged.length === 0) return finish({ feeds: [singleFeed], problems: [] });
 
-	// One feed would precipitate: the rules' cations go in one feed, their anions in the other.
+	return finish(designSplitFeeds(design, one.massMg[0], flagged, feedVolumeL, notes));
+}
+
+/** The Ca/Mg/Fe salts in one feed, phosphate and carbonate in the other; the rest may go in either. */
+function splitSlots(design: Design): Slot[] {
+	const on = (...sides: Side[]) =>
+		design.prepared.filter((p) => sides.includes(p.side)).map((p) => p.index);
+	return [
+		{ key: 'cations', members: on('cation', 'neutral') },
+		{ key: 'anions', members: on('anion', 'neutral') }
+	];
+}
+
+/** Why no single feed fits; a single feed of the volume that fits may still precipitate, then the split's volume is named. */
+function explainSingleFeedFailure(
+	design: Design,
+	single: Slot
+): { problems: string[]; minimumFeedVolumeL: number | null } {
+	const explained = explain(design, [single]);
+	// A single feed of the volume that fits may still precipitate: then the volume to name is the split's.
+	const atLeast = explained.minimumFeedVolumeL;
+	const there =
+		atLeast === null
+			? null
+			: design.solve([single], { fixedL: atLeast }, design.limits('all'), 'mass');
+	const precipitates = there
+		? buildFeed(design, single, there.massMg[0], atLeast!, false).warnings.flatMap((w) =>
+				w.precipitate ? [w.precipitate] : []
+			)
+		: [];
+	if (precipitates.length) {
+		const volume = explainVolume(design, splitSlots(design));
+		explained.problems.splice(
+			-1,
+			1,
+			`A single feed that fits would be flagged for ${listWords(precipitates)} by the recipe analysis, so it would be split in two. ${volume.problems[0]}`
+		);
+		explained.minimumFeedVolumeL = volume.minimumFeedVolumeL;
+	}
+	return { problems: explained.problems, minimumFeedVolumeL: explained.minimumFeedVolumeL };
+}
+
+/** One feed would precipitate: the rules' cations go in one feed, their anions in the other. */
+function designSplitFeeds(
+	design: Design,
+	singleMassMg: number[],
+	flagged: DesignedFeed['warnings'],
+	feedVolumeL: number,
+	notes: string[]
+): Pick<FeedDesignResult, 'feeds' | 'problems'> & Partial<FeedDesignResult> {
 	const flaggedRules = PRECIPITATION_RULES.filter((rule) =>
 		flagged.some((w) => w.precipitate === rule.product)
 	);
@@ -236,7 +258,7 @@ export function designFeeds(input: FeedDesignInput): FeedDesignResult {
 		precipitates: flaggedRules.map((r) => r.product),
 		warnings: flagged.map((w) => w.message)
 	};
-	const usedInOne = new Set(one.massMg[0].flatMap((mg, j) => (mg > 0 ? [j] : [])));
+	const usedInOne = new Set(singleMassMg.flatMap((mg, j) => (mg > 0 ? [j] : [])));
 	const selfConflicting = design.prepared.filter(
 		(p) =>
 			usedInOne.has(p.index) &&
@@ -247,7 +269,7 @@ export function designFeeds(input: FeedDesignInput): FeedDesignResult {
 			const rule = flaggedRules.find((r) => p.species.has(r.cation) && p.species.has(r.anion))!;
 			return `${p.spec.name} brings both ${rule.cation} and ${rule.anion} itself, so no split keeps that pair apart: at the amount this feed needs the recipe analysis flags ${rule.product} in any feed that holds it. Choose a source of ${rule.cation} without ${rule.anion}, or of ${rule.anion} without ${rule.cation}.`;
 		});
-		return finish({ feeds: [], problems, split });
+		return { feeds: [], problems, split };
 	}
 	for (const p of design.prepared.filter((c) => c.side === 'both')) {
 		notes.push(
@@ -259,7 +281,7 @@ export function designFeeds(input: FeedDesignInput): FeedDesignResult {
 	const why = `One feed is ruled out: the recipe analysis flags ${listWords(split.precipitates)} in it (common practice: these are kept apart).`;
 	if (!two) {
 		const explained = explain(design, slots);
-		return finish({
+		return {
 			feeds: [],
 			split,
 			problems: [
@@ -267,22 +289,12 @@ export function designFeeds(input: FeedDesignInput): FeedDesignResult {
 				...explained.problems
 			],
 			minimumFeedVolumeL: explained.minimumFeedVolumeL
-		});
+		};
 	}
 	const volumes = shareVolume(design, two.massMg, feedVolumeL, two.volumeL);
 	const feeds = slots
 		.map((slot, s) => ({ slot, s }))
 		.filter(({ s }) => two.massMg[s].some((mg) => mg > 0))
 		.map(({ slot, s }) => buildFeed(design, slot, two.massMg[s], volumes[s], true));
-	return finish({ feeds, problems: [], split });
-}
-
-/** The Ca/Mg/Fe salts in one feed, phosphate and carbonate in the other; the rest may go in either. */
-function splitSlots(design: Design): Slot[] {
-	const on = (...sides: Side[]) =>
-		design.prepared.filter((p) => sides.includes(p.side)).map((p) => p.index);
-	return [
-		{ key: 'cations', members: on('cation', 'neutral') },
-		{ key: 'anions', members: on('anion', 'neutral') }
-	];
+	return { feeds, problems: [], split };
 }
