@@ -128,6 +128,48 @@ export function computeOxygenSaturation(
 	input: OxygenSaturationInput,
 	fieldPrefix = ''
 ): OxygenSaturationResult {
+	const conditions = readSaturationConditions(input, fieldPrefix);
+	const { method, range, temperatureC, salinityGPerKg, pressureKPa, o2MoleFraction } = conditions;
+	const { pwvAtm, waterVapourPressureKPa } = conditions;
+
+	const pAtm = pressureKPa / KPA_PER_ATM;
+	const [th0, th1, th2] = APHA_PRESSURE_CORRECTION.theta;
+	const theta = th0 + th1 * temperatureC + th2 * temperatureC ** 2;
+	const pressureFactor =
+		(pAtm * (1 - pwvAtm / pAtm) * (1 - theta * pAtm)) / ((1 - pwvAtm) * (1 - theta));
+
+	let airAt1AtmMgPerL: number;
+	let umolPerKgAt1Atm: number | undefined;
+	if (method === 'benson-krause-1984') {
+		airAt1AtmMgPerL = computeBensonKrauseMgPerL(temperatureC, salinityGPerKg);
+	} else {
+		umolPerKgAt1Atm = computeGarciaGordonUmolPerKg(temperatureC, salinityGPerKg);
+		const densityKgPerL = computeWaterDensityKgPerL(temperatureC, salinityGPerKg);
+		airAt1AtmMgPerL = (umolPerKgAt1Atm * densityKgPerL * O2_MOLAR_MASS_G_PER_MOL) / 1000;
+	}
+	const airSaturationMgPerL = airAt1AtmMgPerL * pressureFactor;
+	const gasFactor = o2MoleFraction / AIR_O2_MOLE_FRACTION;
+	const mgPerL = airSaturationMgPerL * gasFactor;
+	const result: OxygenSaturationResult = {
+		mgPerL,
+		mmolPerL: mgPerL / O2_MOLAR_MASS_G_PER_MOL,
+		airSaturationMgPerL,
+		method,
+		validRange: range,
+		temperatureC,
+		salinityGPerKg,
+		pressureKPa,
+		o2MoleFraction,
+		waterVapourPressureKPa,
+		pressureFactor
+	};
+	if (umolPerKgAt1Atm !== undefined)
+		result.umolPerKg = umolPerKgAt1Atm * pressureFactor * gasFactor;
+	return result;
+}
+
+/** The method, temperature, salinity, pressure and O2 content, each within the method's valid range. */
+function readSaturationConditions(input: OxygenSaturationInput, fieldPrefix: string) {
 	if (input === null || typeof input !== 'object') {
 		throw new ChemistryInputError('Oxygen saturation needs an object with temperatureC', {
 			field: fieldPrefix || undefined
@@ -188,39 +230,14 @@ export function computeOxygenSaturation(
 			field: joinField(fieldPrefix, 'o2MoleFraction')
 		});
 	}
-
-	const pAtm = pressureKPa / KPA_PER_ATM;
-	const [th0, th1, th2] = APHA_PRESSURE_CORRECTION.theta;
-	const theta = th0 + th1 * temperatureC + th2 * temperatureC ** 2;
-	const pressureFactor =
-		(pAtm * (1 - pwvAtm / pAtm) * (1 - theta * pAtm)) / ((1 - pwvAtm) * (1 - theta));
-
-	let airAt1AtmMgPerL: number;
-	let umolPerKgAt1Atm: number | undefined;
-	if (method === 'benson-krause-1984') {
-		airAt1AtmMgPerL = computeBensonKrauseMgPerL(temperatureC, salinityGPerKg);
-	} else {
-		umolPerKgAt1Atm = computeGarciaGordonUmolPerKg(temperatureC, salinityGPerKg);
-		const densityKgPerL = computeWaterDensityKgPerL(temperatureC, salinityGPerKg);
-		airAt1AtmMgPerL = (umolPerKgAt1Atm * densityKgPerL * O2_MOLAR_MASS_G_PER_MOL) / 1000;
-	}
-	const airSaturationMgPerL = airAt1AtmMgPerL * pressureFactor;
-	const gasFactor = o2MoleFraction / AIR_O2_MOLE_FRACTION;
-	const mgPerL = airSaturationMgPerL * gasFactor;
-	const result: OxygenSaturationResult = {
-		mgPerL,
-		mmolPerL: mgPerL / O2_MOLAR_MASS_G_PER_MOL,
-		airSaturationMgPerL,
+	return {
 		method,
-		validRange: range,
+		range,
 		temperatureC,
 		salinityGPerKg,
 		pressureKPa,
 		o2MoleFraction,
-		waterVapourPressureKPa,
-		pressureFactor
+		pwvAtm,
+		waterVapourPressureKPa
 	};
-	if (umolPerKgAt1Atm !== undefined)
-		result.umolPerKg = umolPerKgAt1Atm * pressureFactor * gasFactor;
-	return result;
 }
