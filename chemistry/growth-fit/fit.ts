@@ -104,38 +104,7 @@ export {
 } from './types';
 
 export function fitGrowthCurve(data: GrowthCurveData): GrowthFit {
-	const minPoints = data.minWindowPoints ?? MIN_GROWTH_FIT_POINTS;
-	if (!Number.isInteger(minPoints) || minPoints < MIN_GROWTH_FIT_POINTS) {
-		throw new ChemistryInputError(
-			`minWindowPoints must be a whole number ≥ ${MIN_GROWTH_FIT_POINTS}.`,
-			{
-				field: 'minWindowPoints'
-			}
-		);
-	}
-	const t = readTimes(data.timeH, minPoints);
-	const x = readBiomass(data.biomassGPerL, t.length);
-	if (x.every((v) => v === x[0])) {
-		throw new ChemistryInputError(
-			`Biomass is ${x[0]} g/L at every point: the culture did not grow, so there is nothing to fit.`,
-			{ field: 'biomassGPerL' }
-		);
-	}
-	const s =
-		data.substrateGPerL === undefined || data.substrateGPerL === null
-			? null
-			: readSubstrate(data.substrateGPerL, t.length);
-	const dissolvedOxygen =
-		data.dissolvedOxygenMgPerL === undefined || data.dissolvedOxygenMgPerL === null
-			? null
-			: readSeries(data.dissolvedOxygenMgPerL, 'dissolvedOxygenMgPerL', t.length);
-	const minRSquared = data.minRSquared ?? 0.98;
-	if (!(minRSquared > 0 && minRSquared < 1)) {
-		throw new ChemistryInputError('minRSquared must be between 0 and 1.', {
-			field: 'minRSquared'
-		});
-	}
-	const curvePoints = readCurvePoints(data.curvePoints);
+	const { t, x, s, dissolvedOxygen, minPoints, minRSquared, curvePoints } = readGrowthCurve(data);
 
 	const oxygenLimitedIndices: number[] = [];
 	if (dissolvedOxygen !== null) {
@@ -173,32 +142,8 @@ export function fitGrowthCurve(data: GrowthCurveData): GrowthFit {
 		}
 	}
 
-	const warnings: string[] = [];
-	let monodFit: MonodFit | null = null;
-	if (s !== null) {
-		if (s[startIndex] <= 0) {
-			warnings.push(
-				`The whole-curve Monod fit starts where the exponential phase does (${formatValue(t[startIndex])} h), and the substrate is 0 there, so it was not made.`
-			);
-		} else {
-			monodFit = fitMonodBatch(
-				t.slice(startIndex),
-				x.slice(startIndex),
-				s.slice(startIndex),
-				mu.value,
-				yieldXS?.value ?? null,
-				data.fitYield ?? true,
-				curvePoints
-			);
-			warnings.push(
-				...(monodFit === null
-					? [
-							'The whole-curve Monod fit found no parameters that describe these data from any of its starting points; only the exponential-phase μmax and the −dX/dS yield are given.'
-						]
-					: describePoorEstimates(monodFit))
-			);
-		}
-	}
+	const whole = fitWholeCurve(data, t, x, s, startIndex, mu.value, yieldXS, curvePoints);
+	const { monodFit, warnings } = whole;
 
 	return {
 		exponentialPhase: {
@@ -246,3 +191,80 @@ The longest straight run says how long the exponential phase lasted. Its ends ma
 Yx/s is −ΔX/ΔS, the least-squares slope of biomass against substrate.
 
 With a substrate column the Monod batch model (no maintenance) is fitted to biomass and substrate together, from the first point of the exponential phase on (the model has no lag). Its 95 % intervals come from the curvature of the fit at its best point (the usual linear approximation, on the logarithms of the parameters, so they stay positive). When an interval spans more than a factor of ${POORLY_DETERMINED_FACTOR}, or has no bound, the result names the parameter as poorly determined: a batch curve often pins Ks down poorly, because Ks shows only in the short time before the substrate runs out.`;
+
+/** The run data and the fit's settings, each checked. */
+function readGrowthCurve(data: GrowthCurveData) {
+	const minPoints = data.minWindowPoints ?? MIN_GROWTH_FIT_POINTS;
+	if (!Number.isInteger(minPoints) || minPoints < MIN_GROWTH_FIT_POINTS) {
+		throw new ChemistryInputError(
+			`minWindowPoints must be a whole number ≥ ${MIN_GROWTH_FIT_POINTS}.`,
+			{
+				field: 'minWindowPoints'
+			}
+		);
+	}
+	const t = readTimes(data.timeH, minPoints);
+	const x = readBiomass(data.biomassGPerL, t.length);
+	if (x.every((v) => v === x[0])) {
+		throw new ChemistryInputError(
+			`Biomass is ${x[0]} g/L at every point: the culture did not grow, so there is nothing to fit.`,
+			{ field: 'biomassGPerL' }
+		);
+	}
+	const s =
+		data.substrateGPerL === undefined || data.substrateGPerL === null
+			? null
+			: readSubstrate(data.substrateGPerL, t.length);
+	const dissolvedOxygen =
+		data.dissolvedOxygenMgPerL === undefined || data.dissolvedOxygenMgPerL === null
+			? null
+			: readSeries(data.dissolvedOxygenMgPerL, 'dissolvedOxygenMgPerL', t.length);
+	const minRSquared = data.minRSquared ?? 0.98;
+	if (!(minRSquared > 0 && minRSquared < 1)) {
+		throw new ChemistryInputError('minRSquared must be between 0 and 1.', {
+			field: 'minRSquared'
+		});
+	}
+	const curvePoints = readCurvePoints(data.curvePoints);
+	return { t, x, s, dissolvedOxygen, minPoints, minRSquared, curvePoints };
+}
+
+/** The whole-curve Monod fit from the exponential phase's start, with warnings on what it could not do. */
+function fitWholeCurve(
+	data: GrowthCurveData,
+	t: number[],
+	x: number[],
+	s: number[] | null,
+	startIndex: number,
+	muMaxGuessPerH: number,
+	yieldXS: Estimate | null,
+	curvePoints: number
+): { monodFit: MonodFit | null; warnings: string[] } {
+	const warnings: string[] = [];
+	let monodFit: MonodFit | null = null;
+	if (s !== null) {
+		if (s[startIndex] <= 0) {
+			warnings.push(
+				`The whole-curve Monod fit starts where the exponential phase does (${formatValue(t[startIndex])} h), and the substrate is 0 there, so it was not made.`
+			);
+		} else {
+			monodFit = fitMonodBatch(
+				t.slice(startIndex),
+				x.slice(startIndex),
+				s.slice(startIndex),
+				muMaxGuessPerH,
+				yieldXS?.value ?? null,
+				data.fitYield ?? true,
+				curvePoints
+			);
+			warnings.push(
+				...(monodFit === null
+					? [
+							'The whole-curve Monod fit found no parameters that describe these data from any of its starting points; only the exponential-phase μmax and the −dX/dS yield are given.'
+						]
+					: describePoorEstimates(monodFit))
+			);
+		}
+	}
+	return { monodFit, warnings };
+}
