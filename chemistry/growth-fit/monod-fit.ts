@@ -124,65 +124,8 @@ export function fitMonodBatch(
 		cached = { q: q.slice(), values, gradients };
 		return cached;
 	};
-	const indices = observed.map((_, i) => i);
-	/** Weighted least squares by scaling each block (X, then S) by 1/its residual spread. */
-	const fitWeighted = (weights: [number, number], starts: number[][]) => {
-		const weightOf = (index: number) => (index < n ? weights[0] : weights[1]);
-		const weightedObserved = observed.map((v, i) => v * weightOf(i));
-		const model = (q: number[]) => {
-			const { values } = evaluateAll(q);
-			return (index: number) => values[index] * weightOf(index);
-		};
-		const jacobian = (q: number[]) => {
-			const { gradients } = evaluateAll(q);
-			return (index: number) => gradients[index].map((g) => g * weightOf(index));
-		};
-		const errorAt = (q: number[]) => {
-			const { values } = evaluateAll(q);
-			let error = 0;
-			for (let i = 0; i < 2 * n; i++) error += ((observed[i] - values[i]) * weightOf(i)) ** 2;
-			return error;
-		};
-		let best: { q: number[]; error: number; iterations: number } | null = null;
-		for (const start of starts) {
-			let q = start;
-			let error = errorAt(start);
-			let iterations = 0;
-			// Rounds of 10 iterations, ending when a round gains less than 1e-10 of the error: the
-			// library stops only at an absolute error or its iteration limit, and noisy data never
-			// reach the one, so each fit would run to the other.
-			for (let round = 0; round < 10; round++) {
-				let result: { parameterValues: number[]; iterations: number };
-				try {
-					result = levenbergMarquardt({ x: indices, y: weightedObserved }, model, {
-						initialValues: q,
-						jacobianFunction: jacobian,
-						damping: 1e-2,
-						maxIterations: 10,
-						errorTolerance: 1e-14,
-						minValues: start.map((v) => v - 20),
-						maxValues: start.map((v) => v + 20)
-					});
-				} catch {
-					// A singular normal matrix (a parameter the data do not determine): keep what was reached.
-					break;
-				}
-				iterations += result.iterations;
-				const next = errorAt(result.parameterValues);
-				if (!Number.isFinite(next)) break;
-				const gain = error - next;
-				if (next < error) {
-					q = result.parameterValues;
-					error = next;
-				}
-				if (!(gain > 1e-10 * error)) break;
-			}
-			if (Number.isFinite(error) && (best === null || error < best.error)) {
-				best = { q, error, iterations };
-			}
-		}
-		return best;
-	};
+	const fitWeighted = (weights: [number, number], starts: number[][]) =>
+		fitWeightedFromStarts(observed, n, evaluateAll, weights, starts);
 
 	// Ks is weakly determined by a batch curve; a few starting values avoid a poor local minimum.
 	const starts = [0.01, 0.1, 1].map((f) => {
@@ -238,15 +181,13 @@ export function fitMonodBatch(
 	};
 
 	const { values } = evaluateAll(best.q);
-	let ssX = 0;
-	let ssS = 0;
-	for (let i = 0; i < n; i++) {
-		ssX += (x[i] - Math.exp(values[i])) ** 2;
-		ssS += (s[i] - values[n + i] * scaleS) ** 2;
-	}
-	const curveT = createEvenGrid(t[0], t[n - 1], curvePoints);
-	const curveS = curveT.map((ti) => computeMonodBatchSubstrateGPerL(p, ti - t[0]));
-	const a = p.initialBiomassGPerL + p.yieldXS * p.initialSubstrateGPerL;
+	const { biomassRmsGPerL, substrateRmsGPerL, curve } = describeFittedCurve(
+		p,
+		{ t, x, s },
+		values,
+		scaleS,
+		curvePoints
+	);
 	return {
 		muMaxPerH: p.muMaxPerH,
 		ksGPerL: p.ksGPerL,
@@ -254,8 +195,8 @@ export function fitMonodBatch(
 		initialBiomassGPerL: p.initialBiomassGPerL,
 		initialSubstrateGPerL: p.initialSubstrateGPerL,
 		startH: t[0],
-		biomassRmsGPerL: Math.sqrt(ssX / n),
-		substrateRmsGPerL: Math.sqrt(ssS / n),
+		biomassRmsGPerL,
+		substrateRmsGPerL,
 		iterations,
 		estimates: {
 			muMaxPerH: estimateOf(0, p.muMaxPerH),
@@ -263,11 +204,7 @@ export function fitMonodBatch(
 			yieldXS: fitYield ? estimateOf(4, p.yieldXS) : null
 		},
 		degreesOfFreedom,
-		curve: {
-			t: curveT,
-			biomassGPerL: curveS.map((si) => a - p.yieldXS * si),
-			substrateGPerL: curveS
-		}
+		curve
 	};
 }
 
@@ -295,4 +232,123 @@ function computeLogParameterStandardErrors(
 	const standardErrors = new Array<number>(jacobian.columns).fill(Infinity);
 	kept.forEach((k, r) => (standardErrors[k] = Math.sqrt(covariance.get(r, r))));
 	return standardErrors;
+}
+
+type ModelValues = { values: number[]; gradients: number[][] };
+
+/**
+ * Weighted least squares by scaling each block (X, then S) by 1/its residual spread: the best fit
+ * reached from any of the starts.
+ */
+function fitWeightedFromStarts(
+	observed: number[],
+	n: number,
+	evaluateAll: (q: number[]) => ModelValues,
+	weights: [number, number],
+	starts: number[][]
+): { q: number[]; error: number; iterations: number } | null {
+	const indices = observed.map((_, i) => i);
+	const weightOf = (index: number) => (index < n ? weights[0] : weights[1]);
+	const weightedObserved = observed.map((v, i) => v * weightOf(i));
+	const model = (q: number[]) => {
+		const { values } = evaluateAll(q);
+		return (index: number) => values[index] * weightOf(index);
+	};
+	const jacobian = (q: number[]) => {
+		const { gradients } = evaluateAll(q);
+		return (index: number) => gradients[index].map((g) => g * weightOf(index));
+	};
+	const errorAt = (q: number[]) => {
+		const { values } = evaluateAll(q);
+		let error = 0;
+		for (let i = 0; i < 2 * n; i++) error += ((observed[i] - values[i]) * weightOf(i)) ** 2;
+		return error;
+	};
+	let best: { q: number[]; error: number; iterations: number } | null = null;
+	for (const start of starts) {
+		const { q, error, iterations } = refineFromStart(
+			{ x: indices, y: weightedObserved },
+			model,
+			jacobian,
+			errorAt,
+			start
+		);
+		if (Number.isFinite(error) && (best === null || error < best.error)) {
+			best = { q, error, iterations };
+		}
+	}
+	return best;
+}
+
+/** Levenberg–Marquardt from one start, in rounds (see below); keeps the best point reached. */
+function refineFromStart(
+	data: { x: number[]; y: number[] },
+	model: (q: number[]) => (index: number) => number,
+	jacobian: (q: number[]) => (index: number) => number[],
+	errorAt: (q: number[]) => number,
+	start: number[]
+): { q: number[]; error: number; iterations: number } {
+	let q = start;
+	let error = errorAt(start);
+	let iterations = 0;
+	// Rounds of 10 iterations, ending when a round gains less than 1e-10 of the error: the
+	// library stops only at an absolute error or its iteration limit, and noisy data never
+	// reach the one, so each fit would run to the other.
+	for (let round = 0; round < 10; round++) {
+		let result: { parameterValues: number[]; iterations: number };
+		try {
+			result = levenbergMarquardt(data, model, {
+				initialValues: q,
+				jacobianFunction: jacobian,
+				damping: 1e-2,
+				maxIterations: 10,
+				errorTolerance: 1e-14,
+				minValues: start.map((v) => v - 20),
+				maxValues: start.map((v) => v + 20)
+			});
+		} catch {
+			// A singular normal matrix (a parameter the data do not determine): keep what was reached.
+			break;
+		}
+		iterations += result.iterations;
+		const next = errorAt(result.parameterValues);
+		if (!Number.isFinite(next)) break;
+		const gain = error - next;
+		if (next < error) {
+			q = result.parameterValues;
+			error = next;
+		}
+		if (!(gain > 1e-10 * error)) break;
+	}
+	return { q, error, iterations };
+}
+
+/** RMS deviations of the fitted curve from the data, and the curve on an even grid. */
+function describeFittedCurve(
+	p: MonodBatchParameters,
+	data: { t: number[]; x: number[]; s: number[] },
+	values: number[],
+	scaleS: number,
+	curvePoints: number
+) {
+	const { t, x, s } = data;
+	const n = t.length;
+	let ssX = 0;
+	let ssS = 0;
+	for (let i = 0; i < n; i++) {
+		ssX += (x[i] - Math.exp(values[i])) ** 2;
+		ssS += (s[i] - values[n + i] * scaleS) ** 2;
+	}
+	const curveT = createEvenGrid(t[0], t[n - 1], curvePoints);
+	const curveS = curveT.map((ti) => computeMonodBatchSubstrateGPerL(p, ti - t[0]));
+	const a = p.initialBiomassGPerL + p.yieldXS * p.initialSubstrateGPerL;
+	return {
+		biomassRmsGPerL: Math.sqrt(ssX / n),
+		substrateRmsGPerL: Math.sqrt(ssS / n),
+		curve: {
+			t: curveT,
+			biomassGPerL: curveS.map((si) => a - p.yieldXS * si),
+			substrateGPerL: curveS
+		}
+	};
 }
