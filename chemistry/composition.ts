@@ -6,6 +6,7 @@ import { ChemistryInputError } from './errors';
 import { readBetween } from './input';
 import {
 	type ComponentSpec,
+	type ResolvedComponent,
 	type IonSpec,
 	ionBase,
 	resolveComponent,
@@ -235,28 +236,8 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 		}
 
 		if (resolved.solubility) {
-			const { points, basisMolarMassGPerMol, source } = resolved.solubility;
-			const limit = solubilityAt(points, temperatureC);
-			const basisGPerL =
-				basisMolarMassGPerMol !== null && mM !== null ? (mM / 1000) * basisMolarMassGPerMol : gPerL;
-			if (basisGPerL > limit.gPerL) {
-				const sourced = points.map((p) => `${p.temperatureC} °C`).join(', ');
-				let where: string;
-				if (limit.exact) where = `at ${temperatureC} °C`;
-				else if (points.length === 1)
-					where = `at ${points[0].temperatureC} °C (no temperature dependence known; preparation at ${temperatureC} °C)`;
-				else if (!limit.withinRange)
-					where = `at the nearest sourced temperature (sourced: ${sourced}; preparation at ${temperatureC} °C)`;
-				else where = `at ${temperatureC} °C (interpolated between ${sourced})`;
-				const basisText = basisMolarMassGPerMol !== null ? ' as the anhydrous/basis form' : '';
-				warnings.push({
-					kind: 'solubility',
-					basis: 'published value',
-					message: `${spec.name} at ${formatNumber(basisGPerL)} g/L${basisText} exceeds its solubility of about ${formatNumber(limit.gPerL)} g/L ${where}; source: ${source}`,
-					componentIds: [spec.id],
-					lineIndexes: [index]
-				});
-			}
+			const warning = checkSolubility(spec, resolved.solubility, gPerL, mM, temperatureC, index);
+			if (warning !== null) warnings.push(warning);
 		}
 
 		components.push({
@@ -274,32 +255,8 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 		});
 	});
 
-	for (const rule of PRECIPITATION_RULES) {
-		const cation = speciesMM.get(rule.cation);
-		const anion = speciesMM.get(rule.anion);
-		if (!cation || !anion || cation.mM < rule.cationMinMM || anion.mM < rule.anionMinMM) continue;
-		const lineIndexes = [...new Set([...cation.lines, ...anion.lines])].sort((a, b) => a - b);
-		warnings.push({
-			kind: 'precipitation',
-			basis: 'common practice',
-			message: `Risk of ${rule.product} precipitating: ${rule.cation} ${formatNumber(cation.mM)} mM with ${rule.anion} ${formatNumber(anion.mM)} mM (flagged from ${rule.cationMinMM} mM ${rule.cation} and ${rule.anionMinMM} mM ${rule.anion}, common practice). Dissolve and sterilise them apart, add the ${rule.cation} salt last to the diluted medium, and watch pH and heating.`,
-			componentIds: lineIndexes.map((i) => components[i].id),
-			lineIndexes,
-			precipitate: rule.product
-		});
-	}
-
-	const elements: ElementComposition[] = [];
-	const extra = [...elementG.keys()]
-		.filter((s) => !(REPORTED_ELEMENTS as readonly string[]).includes(s))
-		.sort();
-	for (const symbol of [...REPORTED_ELEMENTS, ...extra]) {
-		elements.push({
-			symbol,
-			gPerL: elementG.get(symbol) ?? 0,
-			mmolPerL: (elementMol.get(symbol) ?? 0) * 1000
-		});
-	}
+	warnings.push(...flagPrecipitation(speciesMM, components));
+	const elements = listElements(elementG, elementMol);
 
 	return {
 		components,
@@ -317,4 +274,78 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 		temperatureC,
 		warnings
 	};
+}
+
+/** A warning when a line (on the solubility's basis) exceeds the solubility at the temperature. */
+function checkSolubility(
+	spec: ResolvedComponent['spec'],
+	solubility: NonNullable<ResolvedComponent['solubility']>,
+	gPerL: number,
+	mM: number | null,
+	temperatureC: number,
+	index: number
+): CompositionWarning | null {
+	const { points, basisMolarMassGPerMol, source } = solubility;
+	const limit = solubilityAt(points, temperatureC);
+	const basisGPerL =
+		basisMolarMassGPerMol !== null && mM !== null ? (mM / 1000) * basisMolarMassGPerMol : gPerL;
+	if (basisGPerL <= limit.gPerL) return null;
+	const sourced = points.map((p) => `${p.temperatureC} °C`).join(', ');
+	let where: string;
+	if (limit.exact) where = `at ${temperatureC} °C`;
+	else if (points.length === 1)
+		where = `at ${points[0].temperatureC} °C (no temperature dependence known; preparation at ${temperatureC} °C)`;
+	else if (!limit.withinRange)
+		where = `at the nearest sourced temperature (sourced: ${sourced}; preparation at ${temperatureC} °C)`;
+	else where = `at ${temperatureC} °C (interpolated between ${sourced})`;
+	const basisText = basisMolarMassGPerMol !== null ? ' as the anhydrous/basis form' : '';
+	return {
+		kind: 'solubility',
+		basis: 'published value',
+		message: `${spec.name} at ${formatNumber(basisGPerL)} g/L${basisText} exceeds its solubility of about ${formatNumber(limit.gPerL)} g/L ${where}; source: ${source}`,
+		componentIds: [spec.id],
+		lineIndexes: [index]
+	};
+}
+
+/** Precipitation pairs above their flag concentrations (common practice; see PRECIPITATION_RULES). */
+function flagPrecipitation(
+	speciesMM: Map<string, { mM: number; lines: Set<number> }>,
+	components: ComponentComposition[]
+): CompositionWarning[] {
+	const warnings: CompositionWarning[] = [];
+	for (const rule of PRECIPITATION_RULES) {
+		const cation = speciesMM.get(rule.cation);
+		const anion = speciesMM.get(rule.anion);
+		if (!cation || !anion || cation.mM < rule.cationMinMM || anion.mM < rule.anionMinMM) continue;
+		const lineIndexes = [...new Set([...cation.lines, ...anion.lines])].sort((a, b) => a - b);
+		warnings.push({
+			kind: 'precipitation',
+			basis: 'common practice',
+			message: `Risk of ${rule.product} precipitating: ${rule.cation} ${formatNumber(cation.mM)} mM with ${rule.anion} ${formatNumber(anion.mM)} mM (flagged from ${rule.cationMinMM} mM ${rule.cation} and ${rule.anionMinMM} mM ${rule.anion}, common practice). Dissolve and sterilise them apart, add the ${rule.cation} salt last to the diluted medium, and watch pH and heating.`,
+			componentIds: lineIndexes.map((i) => components[i].id),
+			lineIndexes,
+			precipitate: rule.product
+		});
+	}
+	return warnings;
+}
+
+/** The reported elements first, in their order, then any others alphabetically. */
+function listElements(
+	elementG: Map<string, number>,
+	elementMol: Map<string, number>
+): ElementComposition[] {
+	const elements: ElementComposition[] = [];
+	const extra = [...elementG.keys()]
+		.filter((s) => !(REPORTED_ELEMENTS as readonly string[]).includes(s))
+		.sort();
+	for (const symbol of [...REPORTED_ELEMENTS, ...extra]) {
+		elements.push({
+			symbol,
+			gPerL: elementG.get(symbol) ?? 0,
+			mmolPerL: (elementMol.get(symbol) ?? 0) * 1000
+		});
+	}
+	return elements;
 }
