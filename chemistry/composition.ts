@@ -173,67 +173,26 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 	const temperatureC = input.temperatureC ?? 25;
 	const volumeL = input.volumeL ?? null;
 
-	const elementMol = new Map<string, number>();
-	const elementG = new Map<string, number>();
 	const components: ComponentComposition[] = [];
 	const warnings: CompositionWarning[] = [];
 	const seen = new Map<string, number>();
-	const speciesMM = new Map<string, { mM: number; lines: Set<number> }>();
-	const excludedComponentIds: string[] = [];
-	let osmolality = 0;
-	let idealOsmolarity = 0;
-	let ionicStrength = 0;
-	let dissolvedSolids = 0;
+	const totals: Totals = {
+		elementMol: new Map(),
+		elementG: new Map(),
+		speciesMM: new Map(),
+		excludedComponentIds: [],
+		osmolality: 0,
+		idealOsmolarity: 0,
+		ionicStrength: 0,
+		dissolvedSolids: 0
+	};
 
 	input.lines.forEach((line, index) => {
-		const prefix = `lines.${index}`;
-		if (!line || typeof line !== 'object')
-			throw new ChemistryInputError('Line is missing', { field: prefix });
-		const resolved = resolveComponent(line.component, `${prefix}.component`);
+		const { resolved, gPerL } = readLine(line, index, seen);
 		const { spec } = resolved;
-		const earlier = seen.get(spec.id);
-		if (earlier !== undefined) {
-			throw new ChemistryInputError(
-				`${spec.name} is already on line ${earlier + 1}; combine the two lines`,
-				{
-					field: `${prefix}.component`
-				}
-			);
-		}
-		seen.set(spec.id, index);
-
-		const gPerL = toGramsPerLitre(
-			line.amount,
-			line.unit,
-			resolved.molarMassGPerMol,
-			`${prefix}.amount`,
-			`${prefix}.unit`
-		);
-		dissolvedSolids += gPerL;
 		const molarMass = resolved.molarMassGPerMol;
 		const mM = molarMass === null ? null : (gPerL / molarMass) * 1000;
-
-		for (let i = 0; i < resolved.elementSymbols.length; i++) {
-			const symbol = resolved.elementSymbols[i];
-			elementG.set(symbol, (elementG.get(symbol) ?? 0) + gPerL * resolved.elementGPerG[i]);
-			elementMol.set(symbol, (elementMol.get(symbol) ?? 0) + gPerL * resolved.elementMolPerG[i]);
-		}
-
-		let contribution: number | null = null;
-		if (mM !== null && resolved.particlesPerUnit !== null) {
-			idealOsmolarity += mM * resolved.particlesPerUnit;
-			contribution = mM * resolved.particlesPerUnit * resolved.osmoticCoefficient;
-			osmolality += contribution;
-			ionicStrength += (mM / 1000) * resolved.ionicStrengthPerMolar;
-			for (const { species, count } of precipitationSpeciesOf(resolved.ions)) {
-				const entry = speciesMM.get(species) ?? { mM: 0, lines: new Set<number>() };
-				entry.mM += mM * count;
-				entry.lines.add(index);
-				speciesMM.set(species, entry);
-			}
-		} else {
-			excludedComponentIds.push(spec.id);
-		}
+		const contribution = addToTotals(totals, resolved, gPerL, mM, index);
 
 		if (resolved.solubility) {
 			const warning = checkSolubility(spec, resolved.solubility, gPerL, mM, temperatureC, index);
@@ -255,8 +214,9 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 		});
 	});
 
-	warnings.push(...flagPrecipitation(speciesMM, components));
-	const elements = listElements(elementG, elementMol);
+	warnings.push(...flagPrecipitation(totals.speciesMM, components));
+	const { elementG } = totals;
+	const elements = listElements(elementG, totals.elementMol);
 
 	return {
 		components,
@@ -264,13 +224,13 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 		totalCarbonGPerL: elementG.get('C') ?? 0,
 		totalNitrogenGPerL: elementG.get('N') ?? 0,
 		osmolality: {
-			estimateMOsmPerKg: osmolality,
-			idealMOsmPerL: idealOsmolarity,
-			excludedComponentIds,
+			estimateMOsmPerKg: totals.osmolality,
+			idealMOsmPerL: totals.idealOsmolarity,
+			excludedComponentIds: totals.excludedComponentIds,
 			note: OSMOLALITY_NOTE
 		},
-		ionicStrengthMolPerL: ionicStrength,
-		dissolvedSolidsGPerL: dissolvedSolids,
+		ionicStrengthMolPerL: totals.ionicStrength,
+		dissolvedSolidsGPerL: totals.dissolvedSolids,
 		temperatureC,
 		warnings
 	};
@@ -348,4 +308,81 @@ function listElements(
 		});
 	}
 	return elements;
+}
+
+/** The recipe's running sums over its lines. */
+interface Totals {
+	elementMol: Map<string, number>;
+	elementG: Map<string, number>;
+	/** mM of each precipitation species and the lines that bring it */
+	speciesMM: Map<string, { mM: number; lines: Set<number> }>;
+	excludedComponentIds: string[];
+	osmolality: number;
+	idealOsmolarity: number;
+	ionicStrength: number;
+	dissolvedSolids: number;
+}
+
+/** Adds a line to the totals; returns its osmolality contribution, null when it has no molar mass. */
+function addToTotals(
+	totals: Totals,
+	resolved: ResolvedComponent,
+	gPerL: number,
+	mM: number | null,
+	index: number
+): number | null {
+	const { elementG, elementMol, speciesMM } = totals;
+	totals.dissolvedSolids += gPerL;
+	for (let i = 0; i < resolved.elementSymbols.length; i++) {
+		const symbol = resolved.elementSymbols[i];
+		elementG.set(symbol, (elementG.get(symbol) ?? 0) + gPerL * resolved.elementGPerG[i]);
+		elementMol.set(symbol, (elementMol.get(symbol) ?? 0) + gPerL * resolved.elementMolPerG[i]);
+	}
+	if (mM === null || resolved.particlesPerUnit === null) {
+		totals.excludedComponentIds.push(resolved.spec.id);
+		return null;
+	}
+	totals.idealOsmolarity += mM * resolved.particlesPerUnit;
+	const contribution = mM * resolved.particlesPerUnit * resolved.osmoticCoefficient;
+	totals.osmolality += contribution;
+	totals.ionicStrength += (mM / 1000) * resolved.ionicStrengthPerMolar;
+	for (const { species, count } of precipitationSpeciesOf(resolved.ions)) {
+		const entry = speciesMM.get(species) ?? { mM: 0, lines: new Set<number>() };
+		entry.mM += mM * count;
+		entry.lines.add(index);
+		speciesMM.set(species, entry);
+	}
+	return contribution;
+}
+
+/** A line's component, resolved and not already on an earlier line, and its concentration in g/L. */
+function readLine(
+	line: CompositionLine,
+	index: number,
+	seen: Map<string, number>
+): { resolved: ResolvedComponent; gPerL: number } {
+	const prefix = `lines.${index}`;
+	if (!line || typeof line !== 'object')
+		throw new ChemistryInputError('Line is missing', { field: prefix });
+	const resolved = resolveComponent(line.component, `${prefix}.component`);
+	const { spec } = resolved;
+	const earlier = seen.get(spec.id);
+	if (earlier !== undefined) {
+		throw new ChemistryInputError(
+			`${spec.name} is already on line ${earlier + 1}; combine the two lines`,
+			{
+				field: `${prefix}.component`
+			}
+		);
+	}
+	seen.set(spec.id, index);
+
+	const gPerL = toGramsPerLitre(
+		line.amount,
+		line.unit,
+		resolved.molarMassGPerMol,
+		`${prefix}.amount`,
+		`${prefix}.unit`
+	);
+	return { resolved, gPerL };
 }
