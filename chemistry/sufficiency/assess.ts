@@ -32,7 +32,9 @@ import {
 	type CarbonDemand,
 	type SufficiencyInput,
 	type SubstrateDemand,
+	type Requirement,
 	type SufficiencyLine,
+	type Supply,
 	type SufficiencyResult,
 	DEFAULT_SAFETY_FACTOR,
 	DEFAULT_IGNORED_ELEMENTS,
@@ -100,32 +102,7 @@ export function assessSufficiency(input: SufficiencyInput): SufficiencyResult {
 	const withSubstrates = applySubstrates(requirements, input.substrates, target);
 	if (withSubstrates.length === 0) fail('The profile has no requirement to assess', 'profile');
 
-	const lines: SufficiencyLine[] = withSubstrates.map((r) => {
-		const supplyGPerL = (r.basis === 'element' ? supply.element : supply.component).get(r.key) ?? 0;
-		const ratio = supplyGPerL / r.demandGPerL;
-		const line: SufficiencyLine = {
-			key: r.key,
-			basis: r.basis,
-			demandGPerL: r.demandGPerL,
-			supplyGPerL,
-			demandMmolPerL: r.molarMassGPerMol ? (r.demandGPerL / r.molarMassGPerMol) * 1000 : null,
-			supplyMmolPerL: r.molarMassGPerMol ? (supplyGPerL / r.molarMassGPerMol) * 1000 : null,
-			ratio,
-			marginGPerL: supplyGPerL - safetyFactor * r.demandGPerL,
-			sufficient: ratio >= safetyFactor,
-			maxBiomassGPerL:
-				target.biomassGPerL === null ? null : (target.biomassGPerL * ratio) / safetyFactor,
-			maxCellsPerMl: target.cellsPerMl === null ? null : (target.cellsPerMl * ratio) / safetyFactor,
-			role: r.role,
-			roleFrom: r.roleFrom,
-			confidence: r.confidence,
-			source: r.source
-		};
-		if (r.note) line.note = r.note;
-		if (supplyGPerL === 0)
-			line.note = [line.note, 'Not supplied by any source.'].filter(Boolean).join(' ');
-		return line;
-	});
+	const lines = withSubstrates.map((r) => compareWithSupply(r, supply, target, safetyFactor));
 	const required = lines.filter((l) => l.role === 'required');
 	if (required.length === 0) {
 		fail(
@@ -169,4 +146,37 @@ function describeShortTrace(line: SufficiencyLine, target: Target, safetyFactor:
 	if (line.supplyGPerL === 0) return `${line.key} is in no source (the profile counts it at ${value}): ${advice}`;
 	const allows = line.maxBiomassGPerL === null ? '' : `, enough for about ${significant(line.maxBiomassGPerL)} g/L at safety factor ${safetyFactor}`;
 	return `${line.key} covers ${significant(line.ratio)} × its demand (the profile counts it at ${value})${allows}: ${advice}`;
+}
+
+/** One requirement against what the supply gives: ratio, margin and the biomass it would support. */
+function compareWithSupply(
+	r: Requirement,
+	supply: Supply,
+	target: Target,
+	safetyFactor: number
+): SufficiencyLine {
+	const supplyGPerL = (r.basis === 'element' ? supply.element : supply.component).get(r.key) ?? 0;
+	const ratio = supplyGPerL / r.demandGPerL;
+	const line: SufficiencyLine = {
+		key: r.key,
+		basis: r.basis,
+		demandGPerL: r.demandGPerL,
+		supplyGPerL,
+		demandMmolPerL: r.molarMassGPerMol ? (r.demandGPerL / r.molarMassGPerMol) * 1000 : null,
+		supplyMmolPerL: r.molarMassGPerMol ? (supplyGPerL / r.molarMassGPerMol) * 1000 : null,
+		ratio,
+		marginGPerL: supplyGPerL - safetyFactor * r.demandGPerL,
+		sufficient: ratio >= safetyFactor,
+		maxBiomassGPerL:
+			target.biomassGPerL === null ? null : (target.biomassGPerL * ratio) / safetyFactor,
+		maxCellsPerMl: target.cellsPerMl === null ? null : (target.cellsPerMl * ratio) / safetyFactor,
+		role: r.role,
+		roleFrom: r.roleFrom,
+		confidence: r.confidence,
+		source: r.source
+	};
+	if (r.note) line.note = r.note;
+	if (supplyGPerL === 0)
+		line.note = [line.note, 'Not supplied by any source.'].filter(Boolean).join(' ');
+	return line;
 }
