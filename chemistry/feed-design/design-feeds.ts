@@ -11,12 +11,9 @@
  */
 import { PRECIPITATION_RULES, computeComposition } from '../composition';
 import {
-	type FeedCandidate,
-	type FeedNeed,
 	type FeedDesignInput,
 	type DesignedFeedLine,
 	type DesignedFeed,
-	type FeedCoverage,
 	type FeedDesignResult,
 	LIMIT_MARGIN,
 	LINE_FIGURES,

@@ -76,18 +76,14 @@ import { ChemistryInputError } from '../errors';
 import {
 	type GrowthCurveData,
 	type Estimate,
-	type ParameterEstimate,
 	type MonodFit,
 	type GrowthFit,
 	MIN_GROWTH_FIT_POINTS,
 	WINDOW_LENGTH_FRACTION,
-	POORLY_DETERMINED_FACTOR,
-	type MonodBatchParameters,
-	type MonodCurveData
+	POORLY_DETERMINED_FACTOR
 } from './types';
 import { readSeries, readTimes, readBiomass, readSubstrate, readCurvePoints } from './read';
 import { fitLine, estimateFrom, formatValue, createEvenGrid } from './regression';
-import { computeMonodBatchSubstrateGPerL } from './monod-batch';
 import { findExponentialPhase } from './exponential-phase';
 import { describePoorEstimates, fitMonodBatch } from './monod-fit';
 export { fitMonodBatchCurve } from './monod-fit';

@@ -22,17 +22,11 @@ import { computeDegreeOfReduction } from '../degree-of-reduction';
 import { ChemistryInputError } from '../errors';
 import {
 	type SpeciesRole,
-	type StoichiometrySpecies,
-	type StoichiometrySpecification,
 	type StoichiometryInput,
 	type SpeciesRate,
 	type StoichiometryYields,
-	type SpecificationDeviation,
-	type StoichiometryConsistency,
 	type StoichiometryResult,
 	type ElectronBalance,
-	DEFAULT_BALANCE_ELEMENTS,
-	DEFAULT_RELATIVE_ERROR,
 	type Species,
 	type Spec,
 	CONSUMED,

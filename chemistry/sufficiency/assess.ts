@@ -26,12 +26,7 @@ import { DEFAULT_ELEMENT_ROLES_BASIS } from '../data/element-roles';
 import { readFinite, readPositive } from '../input';
 import { VALUE_CONFIDENCE_WORDS, formatPercentOfDryMass } from '../profile-elements';
 import {
-	type SupplyBasis,
-	type OrganismProfile,
-	type SupplyInput,
-	type CarbonDemand,
 	type SufficiencyInput,
-	type SubstrateDemand,
 	type Requirement,
 	type SufficiencyLine,
 	type Supply,
