@@ -18,6 +18,7 @@
  * 2·ln D − ln(D + m_s·Y_G) and ln(S0 − S(D)) are each concave, so P has a single maximum.
  */
 import { ChemistryInputError } from './errors';
+import { NON_NEGATIVE, POSITIVE, readNumber, readWholeNumber } from './input';
 
 export interface MonodChemostatParameters {
 	muMaxPerH: number;
@@ -61,21 +62,11 @@ export interface ChemostatSteadyState {
 	productivityLostToMargin?: number;
 }
 
-function requirePositive(value: unknown, field: string): number {
-	if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) {
-		throw new ChemistryInputError(
-			`${field} must be a finite number greater than 0 (got ${String(value)}).`,
-			{ field }
-		);
-	}
-	return value;
-}
-
 export function validateMonodChemostatParameters(p: MonodChemostatParameters): void {
-	requirePositive(p.muMaxPerH, 'muMaxPerH');
-	requirePositive(p.ksGPerL, 'ksGPerL');
-	requirePositive(p.yieldXS, 'yieldXS');
-	requirePositive(p.feedSubstrateGPerL, 'feedSubstrateGPerL');
+	readNumber(p.muMaxPerH, 'muMaxPerH', POSITIVE);
+	readNumber(p.ksGPerL, 'ksGPerL', POSITIVE);
+	readNumber(p.yieldXS, 'yieldXS', POSITIVE);
+	readNumber(p.feedSubstrateGPerL, 'feedSubstrateGPerL', POSITIVE);
 	const m = p.maintenanceGPerGH;
 	if (m !== undefined && m !== null && (typeof m !== 'number' || !Number.isFinite(m) || m < 0)) {
 		throw new ChemistryInputError(
@@ -170,18 +161,8 @@ export function computeChemostatSteadyState(
 	input: ChemostatSteadyStateInput
 ): ChemostatSteadyState {
 	validateMonodChemostatParameters(input);
-	const d = input.dilutionPerH;
-	if (typeof d !== 'number' || !Number.isFinite(d) || d < 0) {
-		throw new ChemistryInputError(`dilutionPerH must be a finite number ≥ 0 (got ${String(d)}).`, {
-			field: 'dilutionPerH'
-		});
-	}
-	const sweepPoints = input.sweepPoints ?? 101;
-	if (!Number.isInteger(sweepPoints) || sweepPoints < 2 || sweepPoints > 10_000) {
-		throw new ChemistryInputError('sweepPoints must be a whole number from 2 to 10000.', {
-			field: 'sweepPoints'
-		});
-	}
+	const d = readNumber(input.dilutionPerH, 'dilutionPerH', NON_NEGATIVE);
+	const sweepPoints = readWholeNumber(input.sweepPoints ?? 101, 'sweepPoints', 2, 10_000);
 	const dCrit = computeCriticalDilutionPerH(input);
 	const dOpt = computeOptimalDilutionPerH(input);
 	const point = computeChemostatOperatingPoint(input, d);

@@ -3,8 +3,10 @@
  * osmolality estimate Σ c·ν·φ, ionic strength ½ Σ c z², and solubility and precipitation warnings.
  */
 import { ChemistryInputError } from './errors';
+import { readBetween } from './input';
 import {
 	type ComponentSpec,
+	type ResolvedComponent,
 	type IonSpec,
 	ionBase,
 	resolveComponent,
@@ -160,113 +162,41 @@ function formatNumber(value: number): string {
 	return Number(value.toPrecision(3)).toString();
 }
 
-function checkOptional(
-	value: number | undefined,
-	field: string,
-	min: number,
-	max: number,
-	what: string
-): void {
-	if (value === undefined) return;
-	if (typeof value !== 'number' || !Number.isFinite(value) || value < min || value > max) {
-		throw new ChemistryInputError(`${what} must be a number from ${min} to ${max}`, { field });
-	}
-}
-
 export function computeComposition(input: CompositionInput): CompositionResult {
 	if (!input || !Array.isArray(input.lines)) {
 		throw new ChemistryInputError('Lines must be a list', { field: 'lines' });
 	}
-	checkOptional(input.temperatureC, 'temperatureC', -10, 100, 'Temperature (°C)');
+	if (input.temperatureC !== undefined) {
+		readBetween(input.temperatureC, 'temperatureC', -10, 100, 'Temperature (°C)');
+	}
 	if (input.volumeL !== undefined) checkAmount(input.volumeL, 'volumeL');
 	const temperatureC = input.temperatureC ?? 25;
 	const volumeL = input.volumeL ?? null;
 
-	const elementMol = new Map<string, number>();
-	const elementG = new Map<string, number>();
 	const components: ComponentComposition[] = [];
 	const warnings: CompositionWarning[] = [];
 	const seen = new Map<string, number>();
-	const speciesMM = new Map<string, { mM: number; lines: Set<number> }>();
-	const excludedComponentIds: string[] = [];
-	let osmolality = 0;
-	let idealOsmolarity = 0;
-	let ionicStrength = 0;
-	let dissolvedSolids = 0;
+	const totals: Totals = {
+		elementMol: new Map(),
+		elementG: new Map(),
+		speciesMM: new Map(),
+		excludedComponentIds: [],
+		osmolality: 0,
+		idealOsmolarity: 0,
+		ionicStrength: 0,
+		dissolvedSolids: 0
+	};
 
 	input.lines.forEach((line, index) => {
-		const prefix = `lines.${index}`;
-		if (!line || typeof line !== 'object')
-			throw new ChemistryInputError('Line is missing', { field: prefix });
-		const resolved = resolveComponent(line.component, `${prefix}.component`);
+		const { resolved, gPerL } = readLine(line, index, seen);
 		const { spec } = resolved;
-		const earlier = seen.get(spec.id);
-		if (earlier !== undefined) {
-			throw new ChemistryInputError(
-				`${spec.name} is already on line ${earlier + 1}; combine the two lines`,
-				{
-					field: `${prefix}.component`
-				}
-			);
-		}
-		seen.set(spec.id, index);
-
-		const gPerL = toGramsPerLitre(
-			line.amount,
-			line.unit,
-			resolved.molarMassGPerMol,
-			`${prefix}.amount`,
-			`${prefix}.unit`
-		);
-		dissolvedSolids += gPerL;
 		const molarMass = resolved.molarMassGPerMol;
 		const mM = molarMass === null ? null : (gPerL / molarMass) * 1000;
-
-		for (let i = 0; i < resolved.elementSymbols.length; i++) {
-			const symbol = resolved.elementSymbols[i];
-			elementG.set(symbol, (elementG.get(symbol) ?? 0) + gPerL * resolved.elementGPerG[i]);
-			elementMol.set(symbol, (elementMol.get(symbol) ?? 0) + gPerL * resolved.elementMolPerG[i]);
-		}
-
-		let contribution: number | null = null;
-		if (mM !== null && resolved.particlesPerUnit !== null) {
-			idealOsmolarity += mM * resolved.particlesPerUnit;
-			contribution = mM * resolved.particlesPerUnit * resolved.osmoticCoefficient;
-			osmolality += contribution;
-			ionicStrength += (mM / 1000) * resolved.ionicStrengthPerMolar;
-			for (const { species, count } of precipitationSpeciesOf(resolved.ions)) {
-				const entry = speciesMM.get(species) ?? { mM: 0, lines: new Set<number>() };
-				entry.mM += mM * count;
-				entry.lines.add(index);
-				speciesMM.set(species, entry);
-			}
-		} else {
-			excludedComponentIds.push(spec.id);
-		}
+		const contribution = addToTotals(totals, resolved, gPerL, mM, index);
 
 		if (resolved.solubility) {
-			const { points, basisMolarMassGPerMol, source } = resolved.solubility;
-			const limit = solubilityAt(points, temperatureC);
-			const basisGPerL =
-				basisMolarMassGPerMol !== null && mM !== null ? (mM / 1000) * basisMolarMassGPerMol : gPerL;
-			if (basisGPerL > limit.gPerL) {
-				const sourced = points.map((p) => `${p.temperatureC} °C`).join(', ');
-				let where: string;
-				if (limit.exact) where = `at ${temperatureC} °C`;
-				else if (points.length === 1)
-					where = `at ${points[0].temperatureC} °C (no temperature dependence known; preparation at ${temperatureC} °C)`;
-				else if (!limit.withinRange)
-					where = `at the nearest sourced temperature (sourced: ${sourced}; preparation at ${temperatureC} °C)`;
-				else where = `at ${temperatureC} °C (interpolated between ${sourced})`;
-				const basisText = basisMolarMassGPerMol !== null ? ' as the anhydrous/basis form' : '';
-				warnings.push({
-					kind: 'solubility',
-					basis: 'published value',
-					message: `${spec.name} at ${formatNumber(basisGPerL)} g/L${basisText} exceeds its solubility of about ${formatNumber(limit.gPerL)} g/L ${where}; source: ${source}`,
-					componentIds: [spec.id],
-					lineIndexes: [index]
-				});
-			}
+			const warning = checkSolubility(spec, resolved.solubility, gPerL, mM, temperatureC, index);
+			if (warning !== null) warnings.push(warning);
 		}
 
 		components.push({
@@ -284,6 +214,66 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 		});
 	});
 
+	warnings.push(...flagPrecipitation(totals.speciesMM, components));
+	const { elementG } = totals;
+	const elements = listElements(elementG, totals.elementMol);
+
+	return {
+		components,
+		elements,
+		totalCarbonGPerL: elementG.get('C') ?? 0,
+		totalNitrogenGPerL: elementG.get('N') ?? 0,
+		osmolality: {
+			estimateMOsmPerKg: totals.osmolality,
+			idealMOsmPerL: totals.idealOsmolarity,
+			excludedComponentIds: totals.excludedComponentIds,
+			note: OSMOLALITY_NOTE
+		},
+		ionicStrengthMolPerL: totals.ionicStrength,
+		dissolvedSolidsGPerL: totals.dissolvedSolids,
+		temperatureC,
+		warnings
+	};
+}
+
+/** A warning when a line (on the solubility's basis) exceeds the solubility at the temperature. */
+function checkSolubility(
+	spec: ResolvedComponent['spec'],
+	solubility: NonNullable<ResolvedComponent['solubility']>,
+	gPerL: number,
+	mM: number | null,
+	temperatureC: number,
+	index: number
+): CompositionWarning | null {
+	const { points, basisMolarMassGPerMol, source } = solubility;
+	const limit = solubilityAt(points, temperatureC);
+	const basisGPerL =
+		basisMolarMassGPerMol !== null && mM !== null ? (mM / 1000) * basisMolarMassGPerMol : gPerL;
+	if (basisGPerL <= limit.gPerL) return null;
+	const sourced = points.map((p) => `${p.temperatureC} °C`).join(', ');
+	let where: string;
+	if (limit.exact) where = `at ${temperatureC} °C`;
+	else if (points.length === 1)
+		where = `at ${points[0].temperatureC} °C (no temperature dependence known; preparation at ${temperatureC} °C)`;
+	else if (!limit.withinRange)
+		where = `at the nearest sourced temperature (sourced: ${sourced}; preparation at ${temperatureC} °C)`;
+	else where = `at ${temperatureC} °C (interpolated between ${sourced})`;
+	const basisText = basisMolarMassGPerMol !== null ? ' as the anhydrous/basis form' : '';
+	return {
+		kind: 'solubility',
+		basis: 'published value',
+		message: `${spec.name} at ${formatNumber(basisGPerL)} g/L${basisText} exceeds its solubility of about ${formatNumber(limit.gPerL)} g/L ${where}; source: ${source}`,
+		componentIds: [spec.id],
+		lineIndexes: [index]
+	};
+}
+
+/** Precipitation pairs above their flag concentrations (common practice; see PRECIPITATION_RULES). */
+function flagPrecipitation(
+	speciesMM: Map<string, { mM: number; lines: Set<number> }>,
+	components: ComponentComposition[]
+): CompositionWarning[] {
+	const warnings: CompositionWarning[] = [];
 	for (const rule of PRECIPITATION_RULES) {
 		const cation = speciesMM.get(rule.cation);
 		const anion = speciesMM.get(rule.anion);
@@ -298,7 +288,14 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 			precipitate: rule.product
 		});
 	}
+	return warnings;
+}
 
+/** The reported elements first, in their order, then any others alphabetically. */
+function listElements(
+	elementG: Map<string, number>,
+	elementMol: Map<string, number>
+): ElementComposition[] {
 	const elements: ElementComposition[] = [];
 	const extra = [...elementG.keys()]
 		.filter((s) => !(REPORTED_ELEMENTS as readonly string[]).includes(s))
@@ -310,21 +307,82 @@ export function computeComposition(input: CompositionInput): CompositionResult {
 			mmolPerL: (elementMol.get(symbol) ?? 0) * 1000
 		});
 	}
+	return elements;
+}
 
-	return {
-		components,
-		elements,
-		totalCarbonGPerL: elementG.get('C') ?? 0,
-		totalNitrogenGPerL: elementG.get('N') ?? 0,
-		osmolality: {
-			estimateMOsmPerKg: osmolality,
-			idealMOsmPerL: idealOsmolarity,
-			excludedComponentIds,
-			note: OSMOLALITY_NOTE
-		},
-		ionicStrengthMolPerL: ionicStrength,
-		dissolvedSolidsGPerL: dissolvedSolids,
-		temperatureC,
-		warnings
-	};
+/** The recipe's running sums over its lines. */
+interface Totals {
+	elementMol: Map<string, number>;
+	elementG: Map<string, number>;
+	/** mM of each precipitation species and the lines that bring it */
+	speciesMM: Map<string, { mM: number; lines: Set<number> }>;
+	excludedComponentIds: string[];
+	osmolality: number;
+	idealOsmolarity: number;
+	ionicStrength: number;
+	dissolvedSolids: number;
+}
+
+/** Adds a line to the totals; returns its osmolality contribution, null when it has no molar mass. */
+function addToTotals(
+	totals: Totals,
+	resolved: ResolvedComponent,
+	gPerL: number,
+	mM: number | null,
+	index: number
+): number | null {
+	const { elementG, elementMol, speciesMM } = totals;
+	totals.dissolvedSolids += gPerL;
+	for (let i = 0; i < resolved.elementSymbols.length; i++) {
+		const symbol = resolved.elementSymbols[i];
+		elementG.set(symbol, (elementG.get(symbol) ?? 0) + gPerL * resolved.elementGPerG[i]);
+		elementMol.set(symbol, (elementMol.get(symbol) ?? 0) + gPerL * resolved.elementMolPerG[i]);
+	}
+	if (mM === null || resolved.particlesPerUnit === null) {
+		totals.excludedComponentIds.push(resolved.spec.id);
+		return null;
+	}
+	totals.idealOsmolarity += mM * resolved.particlesPerUnit;
+	const contribution = mM * resolved.particlesPerUnit * resolved.osmoticCoefficient;
+	totals.osmolality += contribution;
+	totals.ionicStrength += (mM / 1000) * resolved.ionicStrengthPerMolar;
+	for (const { species, count } of precipitationSpeciesOf(resolved.ions)) {
+		const entry = speciesMM.get(species) ?? { mM: 0, lines: new Set<number>() };
+		entry.mM += mM * count;
+		entry.lines.add(index);
+		speciesMM.set(species, entry);
+	}
+	return contribution;
+}
+
+/** A line's component, resolved and not already on an earlier line, and its concentration in g/L. */
+function readLine(
+	line: CompositionLine,
+	index: number,
+	seen: Map<string, number>
+): { resolved: ResolvedComponent; gPerL: number } {
+	const prefix = `lines.${index}`;
+	if (!line || typeof line !== 'object')
+		throw new ChemistryInputError('Line is missing', { field: prefix });
+	const resolved = resolveComponent(line.component, `${prefix}.component`);
+	const { spec } = resolved;
+	const earlier = seen.get(spec.id);
+	if (earlier !== undefined) {
+		throw new ChemistryInputError(
+			`${spec.name} is already on line ${earlier + 1}; combine the two lines`,
+			{
+				field: `${prefix}.component`
+			}
+		);
+	}
+	seen.set(spec.id, index);
+
+	const gPerL = toGramsPerLitre(
+		line.amount,
+		line.unit,
+		resolved.molarMassGPerMol,
+		`${prefix}.amount`,
+		`${prefix}.unit`
+	);
+	return { resolved, gPerL };
 }

@@ -5,6 +5,7 @@
  */
 import { ChemistryInputError } from './errors';
 import { SECONDS_PER_HOUR } from './units';
+import { readNonNegative, readPositive } from './input';
 
 export interface HeatFactor {
 	id: string;
@@ -57,30 +58,11 @@ export interface MetabolicHeatResult {
 	totalKW: number;
 }
 
-function requireFinite(value: unknown, field: string, what: string): number {
-	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		throw new ChemistryInputError(`${what} must be a finite number`, { field });
-	}
-	return value;
-}
-
-function requireNonNegative(value: unknown, field: string, what: string): number {
-	const v = requireFinite(value, field, what);
-	if (v < 0) throw new ChemistryInputError(`${what} must not be negative, not ${v}`, { field });
-	return v;
-}
-
-function requirePositive(value: unknown, field: string, what: string): number {
-	const v = requireFinite(value, field, what);
-	if (v <= 0) throw new ChemistryInputError(`${what} must be greater than 0, not ${v}`, { field });
-	return v;
-}
-
 /** W/L = OUR [mmol/(L·h)] × 1e-3 mol/mmol × q [kJ/mol] × 1e3 J/kJ / 3600 s/h. */
 export function computeMetabolicHeat(input: MetabolicHeatInput): MetabolicHeatResult {
-	const our = requireNonNegative(input.ourMmolPerLH, 'ourMmolPerLH', 'OUR');
-	const volumeL = requirePositive(input.workingVolumeL, 'workingVolumeL', 'Working volume');
-	const q = requirePositive(
+	const our = readNonNegative(input.ourMmolPerLH, 'ourMmolPerLH', 'OUR');
+	const volumeL = readPositive(input.workingVolumeL, 'workingVolumeL', 'Working volume');
+	const q = readPositive(
 		input.heatPerMolO2KJ ?? DEFAULT_HEAT_PER_MOL_O2_KJ,
 		'heatPerMolO2KJ',
 		'Heat per mol O2'
@@ -119,12 +101,12 @@ export interface CoolingResult extends MetabolicHeatResult {
 /** Can the jacket/coil remove the heat of fermentation (plus agitation) at the peak OUR? */
 export function assessCooling(input: CoolingInput): CoolingResult {
 	const heat = computeMetabolicHeat(input);
-	const coolingCapacityW = requirePositive(
+	const coolingCapacityW = readPositive(
 		input.coolingCapacityW,
 		'coolingCapacityW',
 		'Cooling capacity'
 	);
-	const agitationPowerW = requireNonNegative(
+	const agitationPowerW = readNonNegative(
 		input.agitationPowerW ?? 0,
 		'agitationPowerW',
 		'Agitation power'

@@ -29,3 +29,4 @@ export * from './chemostat';
 export * from './productivity';
 export * from './growth-fit';
 export * from './study';
+export * from './statistics';

@@ -1,254 +1,30 @@
 /**
- * Dissolved-oxygen saturation, oxygen transfer and uptake.
- *
- * Saturation C* is for water in equilibrium with a water-saturated gas at total pressure P whose dry
- * part holds O2 at mole fraction x. Both fits give C* for moist air at 1 atm; the APHA/USGS correction
- * (APHA Standard Methods 4500-O, as also used by the USGS) takes it to P, and because C* is proportional to the O2 partial pressure in the dry gas (Henry's law), another O2
- * content scales it by x / x_air at the same total pressure: C*(x) = C*_air · x / x_air, with
- * x_air = AIR_O2_MOLE_FRACTION = 0.20946 (data/oxygen-solubility.ts).
+ * Oxygen transfer and uptake: OTR against OUR, the DO setpoint, the O2 demand of growth. Saturation
+ * (C* of water against air or enriched gas) is in ./oxygen-saturation.ts.
  */
 import { ChemistryInputError } from './errors';
-import { molarMassOf } from './formula';
 import { SECONDS_PER_HOUR } from './units';
+import { joinField, readNonNegative, readPositive } from './input';
+import { AIR_O2_MOLE_FRACTION } from './data/oxygen-solubility';
 import {
-	AIR_O2_MOLE_FRACTION,
-	APHA_PRESSURE_CORRECTION,
-	BENSON_KRAUSE_APHA,
-	GARCIA_GORDON_COMBINED,
-	KPA_PER_ATM,
-	SEAWATER_DENSITY_MILLERO_POISSON
-} from './data/oxygen-solubility';
+	O2_MOLAR_MASS_G_PER_MOL,
+	type OxygenSaturationInput,
+	type OxygenSaturationResult,
+	computeOxygenSaturation
+} from './oxygen-saturation';
+export {
+	O2_MOLAR_MASS_G_PER_MOL,
+	type OxygenSolubilityMethod,
+	type ValidRange,
+	OXYGEN_SOLUBILITY_RANGES,
+	MAX_PRESSURE_KPA,
+	type OxygenSaturationInput,
+	type OxygenSaturationResult,
+	computeWaterDensityKgPerL,
+	computeOxygenSaturation
+} from './oxygen-saturation';
 
 export { AIR_O2_MOLE_FRACTION, AIR_O2_MOLE_FRACTION_SOURCE } from './data/oxygen-solubility';
-
-/** g/mol of O2 from IUPAC 2021 atomic weights (2 × 15.999 = 31.998). */
-export const O2_MOLAR_MASS_G_PER_MOL = molarMassOf({ O: 2 });
-
-export type OxygenSolubilityMethod = 'benson-krause-1984' | 'garcia-gordon-1992';
-
-export interface ValidRange {
-	temperatureC: [number, number];
-	salinityGPerKg: [number, number];
-	source: string;
-}
-
-export const OXYGEN_SOLUBILITY_RANGES: Readonly<Record<OxygenSolubilityMethod, ValidRange>> = {
-	// 0–50 °C is the span APHA 4500-O tabulates; the salinity bound is the APHA table's (from memory).
-	'benson-krause-1984': {
-		temperatureC: [0, 50],
-		salinityGPerKg: [0, 45],
-		source: 'Benson & Krause (1984) as used by APHA Standard Methods 4500-O'
-	},
-	'garcia-gordon-1992': {
-		temperatureC: [-2, 40],
-		salinityGPerKg: [0, 42],
-		source: 'Garcia & Gordon (1992) combined fit'
-	}
-};
-
-/** Highest total pressure accepted: the ideal-gas pressure scaling is not meant for more. */
-export const MAX_PRESSURE_KPA = 10 * KPA_PER_ATM;
-
-export interface OxygenSaturationInput {
-	temperatureC: number;
-	/** Salinity in g/kg (≈ practical salinity); 0 for fresh water. */
-	salinityGPerKg?: number;
-	/** Total pressure of the gas over the liquid, kPa. Default 101.325. */
-	pressureKPa?: number;
-	/** O2 mole fraction of the dry gas; default air, 0.20946. */
-	o2MoleFraction?: number;
-	method?: OxygenSolubilityMethod;
-}
-
-export interface OxygenSaturationResult {
-	mgPerL: number;
-	mmolPerL: number;
-	/** Native Garcia–Gordon basis; only for that method. */
-	umolPerKg?: number;
-	/** C* for air at the same temperature, salinity and pressure (the 100 % of a DO probe). */
-	airSaturationMgPerL: number;
-	method: OxygenSolubilityMethod;
-	validRange: ValidRange;
-	temperatureC: number;
-	salinityGPerKg: number;
-	pressureKPa: number;
-	o2MoleFraction: number;
-	waterVapourPressureKPa: number;
-	/** Factor from 1 atm to `pressureKPa` (APHA/USGS). */
-	pressureFactor: number;
-}
-
-function requireFinite(value: unknown, field: string, what: string): number {
-	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		throw new ChemistryInputError(`${what} must be a finite number`, { field });
-	}
-	return value;
-}
-
-function requirePositive(value: unknown, field: string, what: string): number {
-	const v = requireFinite(value, field, what);
-	if (v <= 0) throw new ChemistryInputError(`${what} must be greater than 0, not ${v}`, { field });
-	return v;
-}
-
-function requireNonNegative(value: unknown, field: string, what: string): number {
-	const v = requireFinite(value, field, what);
-	if (v < 0) throw new ChemistryInputError(`${what} must not be negative, not ${v}`, { field });
-	return v;
-}
-
-function join(prefix: string, field: string): string {
-	return prefix ? `${prefix}.${field}` : field;
-}
-
-/** Water vapour pressure in atm over fresh water (APHA/USGS form). */
-function computeWaterVapourPressureAtm(temperatureC: number): number {
-	const T = temperatureC + 273.15;
-	const [v0, v1, v2] = APHA_PRESSURE_CORRECTION.vapour;
-	return Math.exp(v0 + v1 / T + v2 / (T * T));
-}
-
-function computeBensonKrauseMgPerL(temperatureC: number, salinity: number): number {
-	const T = temperatureC + 273.15;
-	const { a, b } = BENSON_KRAUSE_APHA;
-	const lnC =
-		a[0] +
-		a[1] / T +
-		a[2] / T ** 2 +
-		a[3] / T ** 3 +
-		a[4] / T ** 4 -
-		salinity * (b[0] + b[1] / T + b[2] / T ** 2);
-	return Math.exp(lnC);
-}
-
-function computeGarciaGordonUmolPerKg(temperatureC: number, salinity: number): number {
-	const ts = Math.log((298.15 - temperatureC) / (273.15 + temperatureC));
-	const { a, b, c0 } = GARCIA_GORDON_COMBINED;
-	let lnC = 0;
-	for (let i = 0; i < a.length; i++) lnC += a[i] * ts ** i;
-	for (let i = 0; i < b.length; i++) lnC += salinity * b[i] * ts ** i;
-	return Math.exp(lnC + c0 * salinity * salinity);
-}
-
-/** Density in kg/L at 1 atm (Millero & Poisson 1981). */
-export function computeWaterDensityKgPerL(temperatureC: number, salinityGPerKg = 0): number {
-	const t = temperatureC;
-	const { pureWater, a, b, c } = SEAWATER_DENSITY_MILLERO_POISSON;
-	let rhoW = 0;
-	for (let i = 0; i < pureWater.length; i++) rhoW += pureWater[i] * t ** i;
-	let A = 0;
-	for (let i = 0; i < a.length; i++) A += a[i] * t ** i;
-	const B = b[0] + b[1] * t + b[2] * t * t;
-	const S = salinityGPerKg;
-	return (rhoW + A * S + B * S ** 1.5 + c * S * S) / 1000;
-}
-
-/**
- * C* in mg/L and mmol/L. Benson & Krause (1984) in the APHA 4500-O form by default, or Garcia &
- * Gordon (1992), both corrected to total pressure P by
- * C*_P = C*·P·(1 − Pwv/P)(1 − θP) / ((1 − Pwv)(1 − θ)) with P, Pwv in atm (APHA/USGS),
- * then scaled to the gas's O2 mole fraction.
- */
-export function computeOxygenSaturation(
-	input: OxygenSaturationInput,
-	fieldPrefix = ''
-): OxygenSaturationResult {
-	if (input === null || typeof input !== 'object') {
-		throw new ChemistryInputError('Oxygen saturation needs an object with temperatureC', {
-			field: fieldPrefix || undefined
-		});
-	}
-	const method = input.method ?? 'benson-krause-1984';
-	if (!(method in OXYGEN_SOLUBILITY_RANGES)) {
-		throw new ChemistryInputError(
-			`Unknown method '${String(method)}'; use 'benson-krause-1984' or 'garcia-gordon-1992'`,
-			{ field: join(fieldPrefix, 'method') }
-		);
-	}
-	const range = OXYGEN_SOLUBILITY_RANGES[method];
-	const temperatureC = requireFinite(
-		input.temperatureC,
-		join(fieldPrefix, 'temperatureC'),
-		'Temperature'
-	);
-	const [tMin, tMax] = range.temperatureC;
-	if (temperatureC < tMin || temperatureC > tMax) {
-		throw new ChemistryInputError(
-			`Temperature ${temperatureC} °C is outside the valid range of ${range.source}: ${tMin} to ${tMax} °C`,
-			{ field: join(fieldPrefix, 'temperatureC') }
-		);
-	}
-	const salinityGPerKg = requireNonNegative(
-		input.salinityGPerKg ?? 0,
-		join(fieldPrefix, 'salinityGPerKg'),
-		'Salinity'
-	);
-	const [sMin, sMax] = range.salinityGPerKg;
-	if (salinityGPerKg < sMin || salinityGPerKg > sMax) {
-		throw new ChemistryInputError(
-			`Salinity ${salinityGPerKg} g/kg is outside the valid range of ${range.source}: ${sMin} to ${sMax} g/kg`,
-			{ field: join(fieldPrefix, 'salinityGPerKg') }
-		);
-	}
-	const pressureKPa = requirePositive(
-		input.pressureKPa ?? KPA_PER_ATM,
-		join(fieldPrefix, 'pressureKPa'),
-		'Pressure'
-	);
-	const pwvAtm = computeWaterVapourPressureAtm(temperatureC);
-	const waterVapourPressureKPa = pwvAtm * KPA_PER_ATM;
-	if (pressureKPa <= waterVapourPressureKPa || pressureKPa > MAX_PRESSURE_KPA) {
-		throw new ChemistryInputError(
-			`Pressure ${pressureKPa} kPa is outside the valid range at ${temperatureC} °C: above the water vapour pressure ${waterVapourPressureKPa.toFixed(2)} kPa up to ${MAX_PRESSURE_KPA} kPa`,
-			{ field: join(fieldPrefix, 'pressureKPa') }
-		);
-	}
-	const o2MoleFraction = requirePositive(
-		input.o2MoleFraction ?? AIR_O2_MOLE_FRACTION,
-		join(fieldPrefix, 'o2MoleFraction'),
-		'O2 mole fraction'
-	);
-	if (o2MoleFraction > 1) {
-		throw new ChemistryInputError(`O2 mole fraction ${o2MoleFraction} must be at most 1`, {
-			field: join(fieldPrefix, 'o2MoleFraction')
-		});
-	}
-
-	const pAtm = pressureKPa / KPA_PER_ATM;
-	const [th0, th1, th2] = APHA_PRESSURE_CORRECTION.theta;
-	const theta = th0 + th1 * temperatureC + th2 * temperatureC ** 2;
-	const pressureFactor =
-		(pAtm * (1 - pwvAtm / pAtm) * (1 - theta * pAtm)) / ((1 - pwvAtm) * (1 - theta));
-
-	let airAt1AtmMgPerL: number;
-	let umolPerKgAt1Atm: number | undefined;
-	if (method === 'benson-krause-1984') {
-		airAt1AtmMgPerL = computeBensonKrauseMgPerL(temperatureC, salinityGPerKg);
-	} else {
-		umolPerKgAt1Atm = computeGarciaGordonUmolPerKg(temperatureC, salinityGPerKg);
-		const densityKgPerL = computeWaterDensityKgPerL(temperatureC, salinityGPerKg);
-		airAt1AtmMgPerL = (umolPerKgAt1Atm * densityKgPerL * O2_MOLAR_MASS_G_PER_MOL) / 1000;
-	}
-	const airSaturationMgPerL = airAt1AtmMgPerL * pressureFactor;
-	const gasFactor = o2MoleFraction / AIR_O2_MOLE_FRACTION;
-	const mgPerL = airSaturationMgPerL * gasFactor;
-	const result: OxygenSaturationResult = {
-		mgPerL,
-		mmolPerL: mgPerL / O2_MOLAR_MASS_G_PER_MOL,
-		airSaturationMgPerL,
-		method,
-		validRange: range,
-		temperatureC,
-		salinityGPerKg,
-		pressureKPa,
-		o2MoleFraction,
-		waterVapourPressureKPa,
-		pressureFactor
-	};
-	if (umolPerKgAt1Atm !== undefined)
-		result.umolPerKg = umolPerKgAt1Atm * pressureFactor * gasFactor;
-	return result;
-}
 
 export function convertOxygenMgPerLToMmolPerL(mgPerL: number): number {
 	return mgPerL / O2_MOLAR_MASS_G_PER_MOL;
@@ -273,13 +49,13 @@ export function computeMaxOtr(input: {
 	saturationMgPerL: number;
 	setpointMgPerL: number;
 }): OxygenRate {
-	const kLaPerH = requirePositive(input.kLaPerH, 'kLaPerH', 'kLa');
-	const saturationMgPerL = requirePositive(
+	const kLaPerH = readPositive(input.kLaPerH, 'kLaPerH', 'kLa');
+	const saturationMgPerL = readPositive(
 		input.saturationMgPerL,
 		'saturationMgPerL',
 		'Saturation C*'
 	);
-	const setpointMgPerL = requireNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
+	const setpointMgPerL = readNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
 	if (setpointMgPerL >= saturationMgPerL) {
 		throw new ChemistryInputError(
 			`DO setpoint ${setpointMgPerL.toFixed(3)} mg/L is at or above the saturation ${saturationMgPerL.toFixed(3)} mg/L, so no oxygen can be transferred`,
@@ -300,20 +76,20 @@ export interface GrowthUptakeInput {
 
 /** OUR = (μ / Yx/O2 + m_O) · X, Pirt's maintenance model (Pirt 1965, Proc. R. Soc. B; citation from memory). */
 export function computeOxygenUptakeRate(input: GrowthUptakeInput, fieldPrefix = ''): OxygenRate {
-	const mu = requireNonNegative(
+	const mu = readNonNegative(
 		input.specificGrowthRatePerH,
-		join(fieldPrefix, 'specificGrowthRatePerH'),
+		joinField(fieldPrefix, 'specificGrowthRatePerH'),
 		'Specific growth rate'
 	);
-	const x = requireNonNegative(input.biomassGPerL, join(fieldPrefix, 'biomassGPerL'), 'Biomass');
-	const y = requirePositive(
+	const x = readNonNegative(input.biomassGPerL, joinField(fieldPrefix, 'biomassGPerL'), 'Biomass');
+	const y = readPositive(
 		input.yieldBiomassOnOxygenGPerG,
-		join(fieldPrefix, 'yieldBiomassOnOxygenGPerG'),
+		joinField(fieldPrefix, 'yieldBiomassOnOxygenGPerG'),
 		'Yx/O2'
 	);
-	const m = requireNonNegative(
+	const m = readNonNegative(
 		input.maintenanceGO2PerGH ?? 0,
-		join(fieldPrefix, 'maintenanceGO2PerGH'),
+		joinField(fieldPrefix, 'maintenanceGO2PerGH'),
 		'Maintenance'
 	);
 	return rateFromMgPerLH((mu / y + m) * x * 1000);
@@ -324,8 +100,8 @@ export function computeOxygenReserveS(input: {
 	setpointMgPerL: number;
 	ourMmolPerLH: number;
 }): number {
-	const setpointMgPerL = requireNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
-	const our = requirePositive(input.ourMmolPerLH, 'ourMmolPerLH', 'OUR');
+	const setpointMgPerL = readNonNegative(input.setpointMgPerL, 'setpointMgPerL', 'DO setpoint');
+	const our = readPositive(input.ourMmolPerLH, 'ourMmolPerLH', 'OUR');
 	return (convertOxygenMgPerLToMmolPerL(setpointMgPerL) / our) * SECONDS_PER_HOUR;
 }
 
@@ -367,7 +143,7 @@ function resolveSetpointMgPerL(setpoint: DoSetpoint, airSaturationMgPerL: number
 		});
 	}
 	if ('percentAirSaturation' in setpoint) {
-		const pct = requireNonNegative(
+		const pct = readNonNegative(
 			setpoint.percentAirSaturation,
 			'setpoint.percentAirSaturation',
 			'DO setpoint'
@@ -375,7 +151,7 @@ function resolveSetpointMgPerL(setpoint: DoSetpoint, airSaturationMgPerL: number
 		return (pct / 100) * airSaturationMgPerL;
 	}
 	if ('mgPerL' in setpoint)
-		return requireNonNegative(setpoint.mgPerL, 'setpoint.mgPerL', 'DO setpoint');
+		return readNonNegative(setpoint.mgPerL, 'setpoint.mgPerL', 'DO setpoint');
 	throw new ChemistryInputError('Setpoint must be { percentAirSaturation } or { mgPerL }', {
 		field: 'setpoint'
 	});
@@ -390,7 +166,7 @@ export function assessOxygenTransfer(input: OxygenTransferInput): OxygenTransfer
 		throw new ChemistryInputError('Oxygen transfer input must be an object');
 	}
 	const saturation = computeOxygenSaturation(input.conditions, 'conditions');
-	const kLaPerH = requirePositive(input.kLaPerH, 'kLaPerH', 'kLa');
+	const kLaPerH = readPositive(input.kLaPerH, 'kLaPerH', 'kLa');
 	const setpointMgPerL = resolveSetpointMgPerL(input.setpoint, saturation.airSaturationMgPerL);
 	const drivingForceMgPerL = saturation.mgPerL - setpointMgPerL;
 	if (drivingForceMgPerL <= 0) {
@@ -408,7 +184,7 @@ export function assessOxygenTransfer(input: OxygenTransferInput): OxygenTransfer
 	const peakOur =
 		'ourMmolPerLH' in uptake
 			? (() => {
-					const mmol = requireNonNegative(uptake.ourMmolPerLH, 'uptake.ourMmolPerLH', 'OUR');
+					const mmol = readNonNegative(uptake.ourMmolPerLH, 'uptake.ourMmolPerLH', 'OUR');
 					return { mmolPerLH: mmol, mgPerLH: convertOxygenMmolPerLToMgPerL(mmol) };
 				})()
 			: computeOxygenUptakeRate(uptake, 'uptake');
@@ -464,14 +240,14 @@ export function computeOxygenDemand(input: OxygenDemandInput): OxygenDemandResul
 				}
 			);
 		}
-		perBiomass = requirePositive(
+		perBiomass = readPositive(
 			input.oxygenPerBiomassGPerG,
 			'oxygenPerBiomassGPerG',
 			'O2 per biomass'
 		);
 	} else if (input.yieldBiomassOnOxygenGPerG !== undefined) {
 		perBiomass =
-			1 / requirePositive(input.yieldBiomassOnOxygenGPerG, 'yieldBiomassOnOxygenGPerG', 'Yx/O2');
+			1 / readPositive(input.yieldBiomassOnOxygenGPerG, 'yieldBiomassOnOxygenGPerG', 'Yx/O2');
 	} else {
 		throw new ChemistryInputError(
 			'Oxygen demand needs oxygenPerBiomassGPerG or yieldBiomassOnOxygenGPerG',
@@ -480,12 +256,12 @@ export function computeOxygenDemand(input: OxygenDemandInput): OxygenDemandResul
 			}
 		);
 	}
-	const x = requireNonNegative(
+	const x = readNonNegative(
 		input.biomassProducedGPerL,
 		'biomassProducedGPerL',
 		'Biomass produced'
 	);
-	const v = requirePositive(input.workingVolumeL, 'workingVolumeL', 'Working volume');
+	const v = readPositive(input.workingVolumeL, 'workingVolumeL', 'Working volume');
 	const perLitreG = perBiomass * x;
 	return {
 		oxygenPerBiomassGPerG: perBiomass,

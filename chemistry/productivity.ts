@@ -17,6 +17,7 @@
 import { Outcome, Solver } from '#odex';
 import { computeChemostatOperatingPoint, validateMonodChemostatParameters } from './chemostat';
 import { ChemistryInputError } from './errors';
+import { NON_NEGATIVE, readOptional } from './input';
 
 export interface TurnaroundInput {
 	cleaningH?: number;
@@ -127,14 +128,7 @@ export function computeMonodBatchWithMaintenance(
 }
 
 function readHours(value: unknown, field: string): number {
-	if (value === undefined || value === null) return 0;
-	if (typeof value !== 'number' || !Number.isFinite(value) || value < 0) {
-		throw new ChemistryInputError(
-			`${field} must be a number of hours ≥ 0 (got ${String(value)}).`,
-			{ field }
-		);
-	}
-	return value;
+	return readOptional(value, field, 0, NON_NEGATIVE);
 }
 
 export function compareBatchWithContinuous(

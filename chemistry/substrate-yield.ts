@@ -14,6 +14,7 @@
  */
 import { ATOMIC_WEIGHTS } from "./data/atomic-weights";
 import { ChemistryInputError } from "./errors";
+import { readPositive } from "./input";
 import { molarMassOf, parseFormula } from "./formula";
 import { solveStoichiometry } from "./stoichiometry";
 
@@ -52,16 +53,6 @@ export interface AerobicGrowthYields {
 /** Below this the balance describes combustion, not growth. */
 export const MIN_BALANCED_YIELD_G_PER_G = 0.01;
 const ELASTICITY_STEP = 0.001;
-
-function positive(value: unknown, field: string, what: string): number {
-  if (typeof value !== "number" || !Number.isFinite(value) || value <= 0) {
-    throw new ChemistryInputError(
-      `${what} must be a number above 0, not ${String(value)}`,
-      { field },
-    );
-  }
-  return value;
-}
 
 function scaled(
   measured: GrowthMeasurement,
@@ -130,7 +121,7 @@ function specify(measured: GrowthMeasurement) {
           kind: "molarRatio" as const,
           numerator: "co2",
           denominator: "oxygen",
-          value: positive(
+          value: readPositive(
             measured.molCo2PerMolO2,
             "measured.molCo2PerMolO2",
             "The respiratory quotient",
@@ -144,7 +135,7 @@ function specify(measured: GrowthMeasurement) {
           kind: "massYield" as const,
           product: "biomass",
           substrate: "oxygen",
-          gPerG: positive(
+          gPerG: readPositive(
             measured.gBiomassPerGO2,
             "measured.gBiomassPerGO2",
             "The yield on oxygen",
@@ -158,7 +149,7 @@ function specify(measured: GrowthMeasurement) {
           kind: "massYield" as const,
           product: "biomass",
           substrate: "substrate",
-          gPerG: positive(
+          gPerG: readPositive(
             measured.gBiomassPerGSubstrate,
             "measured.gBiomassPerGSubstrate",
             "The yield on the substrate",
@@ -250,7 +241,7 @@ export function computeSoleSourceYield(input: SoleSourceInput): number {
     (atoms * ATOMIC_WEIGHTS[element]) / molarMassOf(substrate);
   let inBiomass: number;
   if (input.biomassElementFraction !== undefined) {
-    inBiomass = positive(
+    inBiomass = readPositive(
       input.biomassElementFraction,
       "biomassElementFraction",
       `The biomass fraction of ${element}`,

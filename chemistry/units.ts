@@ -5,6 +5,7 @@
  */
 import { all, create } from 'mathjs';
 import { ChemistryInputError } from './errors';
+import { readMolarMass } from './input';
 
 export const CONCENTRATION_UNITS = ['g/L', 'mg/L', 'µg/L', 'M', 'mM', 'µM', '% w/v'] as const;
 export type ConcentrationUnit = (typeof CONCENTRATION_UNITS)[number];
@@ -101,10 +102,7 @@ function checkMolarMass(
 			}
 		);
 	}
-	if (!Number.isFinite(molarMassGPerMol) || molarMassGPerMol <= 0) {
-		throw new ChemistryInputError('Molar mass must be a positive number of g/mol', { field });
-	}
-	return molarMassGPerMol;
+	return readMolarMass(molarMassGPerMol, field);
 }
 
 /** Checks an amount: finite and positive (zero only when `allowZero`). */

@@ -8,6 +8,7 @@
  * See WATER_CONVENTION for what the water and assay percentages mean, so nothing is corrected twice.
  */
 import { ChemistryInputError } from './errors';
+import { readMolarMass } from './input';
 import { molarMassOf, parseFormula } from './formula';
 import {
 	checkAmount,
@@ -76,13 +77,7 @@ function molarMassOfForm(form: FormSpec | null | undefined, field: string): numb
 		}
 	}
 	if (form.molarMassGPerMol != null) {
-		const m = form.molarMassGPerMol;
-		if (typeof m !== 'number' || !Number.isFinite(m) || m <= 0) {
-			throw new ChemistryInputError('Molar mass must be a positive number of g/mol', {
-				field: fieldPath(field, 'molarMassGPerMol')
-			});
-		}
-		return m;
+		return readMolarMass(form.molarMassGPerMol, fieldPath(field, 'molarMassGPerMol'));
 	}
 	return null;
 }

@@ -1,5 +1,6 @@
 import { ChemistryInputError } from '../errors';
 import { C, MAX_INFLOW_VOLUMES_PER_H, P, S, V, X, type FeedLaw, type ModelParameters } from './model';
+import type { FeedExpression } from './expression';
 import type { FeedPlan } from './validate';
 
 /** Substrate-stat correction rate k = 10·μmax: S settles on the setpoint much faster than X grows. */
@@ -64,45 +65,54 @@ export function createFeedLaw(
 			const width = DO_STAT_BAND_FRACTION * (p.oxygen?.saturationMgPerL ?? 1);
 			return (_tH, y) => fMax / (1 + Math.exp(-(y[C] - setpoint) / width));
 		}
-		case 'expression': {
-			const { expression } = feed;
-			const field = `${feed.field}.expression`;
-			const scope = { t: 0, X: 0, S: 0, P: 0, V: 0, DO: 0, C: 0 };
-			return (tH, y) => {
-				scope.t = tH;
-				scope.X = y[X];
-				scope.S = y[S];
-				scope.P = y[P];
-				scope.V = y[V];
-				scope.DO = y[C];
-				scope.C = y[C];
-				let f: number;
-				try {
-					f = expression.evaluate(scope);
-				} catch (error) {
-					if (error instanceof ChemistryInputError) throw error;
-					throw new ChemistryInputError(
-						`The feed expression failed at t = ${tH.toFixed(3)} h: ${(error as Error).message}`,
-						{ field }
-					);
-				}
-				if (!Number.isFinite(f) || f < 0) {
-					throw new ChemistryInputError(
-						`The feed expression gives ${f} L/h at t = ${tH.toFixed(3)} h; a feed rate must be a finite number ≥ 0 (wrap it in max(0, …) if it may go negative).`,
-						{ field }
-					);
-				}
-				const rate = f > fMax ? fMax : f;
-				if (rate > MAX_INFLOW_VOLUMES_PER_H * y[V]) {
-					throw new ChemistryInputError(
-						`The feed expression gives ${rate.toPrecision(3)} L/h at t = ${tH.toFixed(3)} h, more than ${MAX_INFLOW_VOLUMES_PER_H} times the culture volume (${y[V].toPrecision(3)} L) per hour: check its units (L/h) or give feed.maxRateLPerH.`,
-						{ field }
-					);
-				}
-				return rate;
-			};
-		}
+		case 'expression':
+			return createExpressionFeedLaw(feed.expression, `${feed.field}.expression`, fMax);
 	}
+}
+
+/**
+ * A feed law from the user's expression in t and the states; a failure or a negative or runaway rate
+ * stops the run with an error naming the expression's field.
+ */
+function createExpressionFeedLaw(
+	expression: FeedExpression,
+	field: string,
+	fMax: number
+): FeedLaw {
+	const scope = { t: 0, X: 0, S: 0, P: 0, V: 0, DO: 0, C: 0 };
+	return (tH, y) => {
+		scope.t = tH;
+		scope.X = y[X];
+		scope.S = y[S];
+		scope.P = y[P];
+		scope.V = y[V];
+		scope.DO = y[C];
+		scope.C = y[C];
+		let f: number;
+		try {
+			f = expression.evaluate(scope);
+		} catch (error) {
+			if (error instanceof ChemistryInputError) throw error;
+			throw new ChemistryInputError(
+				`The feed expression failed at t = ${tH.toFixed(3)} h: ${(error as Error).message}`,
+				{ field }
+			);
+		}
+		if (!Number.isFinite(f) || f < 0) {
+			throw new ChemistryInputError(
+				`The feed expression gives ${f} L/h at t = ${tH.toFixed(3)} h; a feed rate must be a finite number ≥ 0 (wrap it in max(0, …) if it may go negative).`,
+				{ field }
+			);
+		}
+		const rate = f > fMax ? fMax : f;
+		if (rate > MAX_INFLOW_VOLUMES_PER_H * y[V]) {
+			throw new ChemistryInputError(
+				`The feed expression gives ${rate.toPrecision(3)} L/h at t = ${tH.toFixed(3)} h, more than ${MAX_INFLOW_VOLUMES_PER_H} times the culture volume (${y[V].toPrecision(3)} L) per hour: check its units (L/h) or give feed.maxRateLPerH.`,
+				{ field }
+			);
+		}
+		return rate;
+	};
 }
 
 /** Mixes a volume of added liquid into the culture: X·V and P·V are kept, S moves towards S_f. */

@@ -9,14 +9,13 @@ import {
 	type ThresholdEvent
 } from './events';
 import { FeedStreams } from './feed-streams';
+import { createTrackers } from './trackers';
+import { findRegimeSwitch, findStop, type Cut, type RegimeSwitch } from './crossings';
+import { appendOutputPoint, createOutput, truncateOutput, type Output } from './output';
 import { applyDrawFill } from './feeding';
 import {
 	ABSOLUTE_TOLERANCE,
 	C,
-	computeExhaustionThresholdGPerL,
-	computeGrowthRatePerH,
-	computeInflowLPerH,
-	computeOurMgPerLH,
 	computeOxygenRelaxationPerH,
 	computeOxygenSurplusAtZeroMgPerLH,
 	computeQuasiSteadyOxygenMgPerL,
@@ -25,7 +24,6 @@ import {
 	fillEffectiveState,
 	NORMAL_REGIME,
 	O2_MOLAR_MASS_G_PER_MOL,
-	OXYGEN_LIMITED_FRACTION_OF_SATURATION,
 	OXYGEN_QUASI_STEADY_RATIO,
 	P,
 	RELATIVE_TOLERANCE,
@@ -78,42 +76,14 @@ function assertIntegratorLoaded(): void {
 	}
 }
 
-interface Output {
-	t: number[];
-	x: number[];
-	s: number[];
-	p: number[];
-	v: number[];
-	c: number[];
-	feed: number[];
-	/** each fed-batch stream's rate, with several streams (a single stream's is `feed`) */
-	streamFeeds: number[][];
-	our: number[];
-	count: number;
-}
-
-/** Why an integration stretch ended before its end time. */
-type Cut =
-	| { kind: 'stop'; tH: number; event: ThresholdEvent }
-	| { kind: 'switch'; tH: number; apply: (tH: number) => void };
-
-/**
- * A change of regime that ends a stretch where `value` (on the effective state) turns from ≤ 0 to
- * positive; `apply` then changes the regime (and the state it holds) at the located time.
- */
-interface RegimeSwitch {
-	value: (tH: number, state: ArrayLike<number>) => number;
-	apply: (tH: number) => void;
-}
-
 class RunIntegrator {
 	private readonly plan: SimulationPlan;
 	private readonly p: ModelParameters;
 	private readonly y: number[];
 	private readonly out: Output;
 	private readonly events: SimulationEvent[] = [];
-	private readonly trackers: ThresholdEvent[] = [];
-	private readonly washout: ThresholdEvent | null = null;
+	private readonly trackers: ThresholdEvent[];
+	private readonly washout: ThresholdEvent | null;
 	private readonly solver: Solver;
 	private readonly feedStreams: FeedStreams | null;
 	/** STATE_COUNT plus the feed streams' delivered-volume slots */
@@ -144,21 +114,7 @@ class RunIntegrator {
 		this.y = [...plan.initialState, ...new Array<number>(slotCount).fill(0)];
 		const streamCount = this.feedStreams?.count ?? 0;
 		this.streamRates = new Array<number>(streamCount).fill(0);
-		const n = plan.outputTimesH.length;
-		const series = () => new Array<number>(n);
-		this.out = {
-			t: series(),
-			x: series(),
-			s: series(),
-			p: series(),
-			v: series(),
-			c: series(),
-			feed: series(),
-			// A single stream's rate is the total: copied once at the end rather than at every point.
-			streamFeeds: streamCount > 1 ? Array.from({ length: streamCount }, series) : [],
-			our: series(),
-			count: 0
-		};
+		this.out = createOutput(plan.outputTimesH.length, streamCount);
 		this.solver = new Solver(this.stateCount);
 		this.solver.denseOutput = true;
 		this.solver.absoluteTolerance = ABSOLUTE_TOLERANCE;
@@ -171,65 +127,9 @@ class RunIntegrator {
 		this.quasiSteadyAbovePerH =
 			OXYGEN_QUASI_STEADY_RATIO * Math.max(this.p.muMaxPerH, plan.continuous?.dilutionPerH ?? 0);
 
-		const sEx = computeExhaustionThresholdGPerL(this.p.ksGPerL);
-		this.trackers.push({
-			kind: 'substrateExhausted',
-			measure: (y) => y[S],
-			threshold: sEx,
-			direction: 'falling',
-			rearmAbove: 10 * sEx,
-			stops: false,
-			armed: true,
-			count: 0,
-			describe: () => `Substrate exhausted: S fell below ${formatNumber(sEx)} g/L.`
-		});
-		const o2 = this.p.oxygen;
-		if (o2 !== null) {
-			const limit = OXYGEN_LIMITED_FRACTION_OF_SATURATION * o2.saturationMgPerL;
-			const maxOtr = (o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL;
-			this.trackers.push({
-				kind: 'oxygenLimited',
-				measure: (y) => y[C],
-				threshold: limit,
-				direction: 'falling',
-				rearmAbove: 2 * limit,
-				stops: false,
-				armed: true,
-				count: 0,
-				describe: () =>
-					`Oxygen-limited: DO fell below ${formatNumber(limit)} mg/L (5 % of saturation); transfer is at its maximum, about ${formatNumber(maxOtr)} mmol/L/h.`
-			});
-		}
-		if (plan.maxVolumeL !== null && plan.mode === 'fedBatch') {
-			const maxVolumeL = plan.maxVolumeL;
-			this.trackers.push({
-				kind: 'maxVolumeReached',
-				measure: (y) => y[V],
-				threshold: maxVolumeL,
-				direction: 'rising',
-				rearmAbove: null,
-				stops: true,
-				armed: true,
-				count: 0,
-				describe: () =>
-					`Maximum working volume (${formatNumber(maxVolumeL)} L) reached; the run stops here.`
-			});
-		}
-		if (plan.mode === 'chemostat' || plan.mode === 'perfusion' || plan.mode === 'drawFill') {
-			// Armed, with its reference biomass, when continuous operation or the first cycle starts.
-			this.washout = {
-				kind: 'washout',
-				measure: (y) => y[X],
-				threshold: 0,
-				direction: 'falling',
-				rearmAbove: null,
-				stops: false,
-				armed: false,
-				count: 0,
-				describe: () => ''
-			};
-			this.trackers.push(this.washout);
-		}
+		const { trackers, washout } = createTrackers(plan);
+		this.trackers = trackers;
+		this.washout = washout;
 	}
 
 	run(): SimulationResult {
@@ -465,71 +365,17 @@ class RunIntegrator {
 			currentDense = dense;
 
 			// Stops and a change of O2 balance first: nothing after them happens in this stretch.
-			let cutH = Infinity;
-			for (let i = 0; i < trackers.length; i++) {
-				const event = trackers[i];
-				if (!event.stops || !event.armed) continue;
-				if (!hasCrossed(event, current[i]) || hasCrossed(event, previous[i])) continue;
-				const g = (tH: number) => event.measure(at(tH)) - event.threshold;
-				const tH = locateCrossing(
-					g,
-					xOld,
-					previous[i] - event.threshold,
-					x,
-					current[i] - event.threshold
-				);
-				if (tH < cutH) {
-					cutH = tH;
-					cut = { kind: 'stop', tH, event };
-				}
-			}
-			for (let i = 0; i < switches.length; i++) {
-				const change = switches[i];
-				const now = change.value(x, state);
-				if (now > 0 && previousSwitch[i] <= 0) {
-					const g = (t: number) => change.value(t, at(t));
-					const tH = locateCrossing(g, xOld, previousSwitch[i], x, now, 'after');
-					if (tH < cutH) {
-						cutH = tH;
-						cut = { kind: 'switch', tH, apply: change.apply };
-					}
-				}
-				previousSwitch[i] = now;
-			}
-			for (let i = 0; i < trackers.length; i++) {
-				const event = trackers[i];
-				if (event.stops || !event.armed) continue;
-				if (!hasCrossed(event, current[i]) || hasCrossed(event, previous[i])) continue;
-				const g = (tH: number) => event.measure(at(tH)) - event.threshold;
-				const tH = locateCrossing(
-					g,
-					xOld,
-					previous[i] - event.threshold,
-					x,
-					current[i] - event.threshold
-				);
-				if (tH < cutH) this.report(event, tH);
-			}
+			cut = findStop(trackers, previous, current, at, xOld, x);
+			const change = findRegimeSwitch(switches, previousSwitch, state, at, xOld, x);
+			if (change !== null && (cut === null || change.tH < cut.tH)) cut = change;
+			const cutH = cut === null ? Infinity : cut.tH;
+			this.reportCrossings(previous, current, at, xOld, x, cutH);
 			if (cut === null) {
 				this.checkNonNegative(yNew, x);
 				for (let i = 0; i < trackers.length; i++) updateArming(trackers[i], current[i]);
 			}
 
-			while (this.nextOutput < times.length) {
-				const t = times[this.nextOutput];
-				if (cut?.kind === 'stop') {
-					if (t > cutH + eps) break;
-					this.recordDense(t < cutH ? t : cutH, dense, phase);
-				} else if (cut?.kind === 'switch') {
-					// Output times at the switch belong to the stretch after it.
-					if (t >= cutH - eps) break;
-					this.recordDense(t < xOld ? xOld : t, dense, phase);
-				} else {
-					// An output time on the segment's end belongs to the next segment (the state after the jump).
-					if (t > x + eps || (!isLast && t >= endH - eps)) break;
-					this.recordDense(t < xOld ? xOld : t > x ? x : t, dense, phase);
-				}
-			}
+			this.recordStep(cut, dense, phase, xOld, x, isLast ? Infinity : endH, eps);
 			if (cut !== null) {
 				this.interpolate(dense, cutH, y, this.stateCount);
 				if (cut.kind === 'stop') {
@@ -557,6 +403,62 @@ class RunIntegrator {
 		}
 		if (cut === null) for (let i = 0; i < this.stateCount; i++) y[i] = result.y[i];
 		return cut;
+	}
+
+	/** Reports the non-stopping events that crossed in (xOld, x], before any cut at `cutH`. */
+	private reportCrossings(
+		previous: number[],
+		current: number[],
+		at: (tH: number) => ArrayLike<number>,
+		xOld: number,
+		x: number,
+		cutH: number
+	): void {
+		const trackers = this.trackers;
+		for (let i = 0; i < trackers.length; i++) {
+			const event = trackers[i];
+			if (event.stops || !event.armed) continue;
+			if (!hasCrossed(event, current[i]) || hasCrossed(event, previous[i])) continue;
+			const g = (tH: number) => event.measure(at(tH)) - event.threshold;
+			const tH = locateCrossing(
+				g,
+				xOld,
+				previous[i] - event.threshold,
+				x,
+				current[i] - event.threshold
+			);
+			if (tH < cutH) this.report(event, tH);
+		}
+	}
+
+	/**
+	 * Writes the output points of the step (xOld, x] up to any cut; `segmentEndH` is Infinity in the
+	 * last segment, otherwise an output time on it belongs to the next segment (the state after the jump).
+	 */
+	private recordStep(
+		cut: Cut | null,
+		dense: DenseInterpolant,
+		phase: FlowPhase,
+		xOld: number,
+		x: number,
+		segmentEndH: number,
+		eps: number
+	): void {
+		const times = this.plan.outputTimesH;
+		while (this.nextOutput < times.length) {
+			const t = times[this.nextOutput];
+			if (cut?.kind === 'stop') {
+				if (t > cut.tH + eps) break;
+				this.recordDense(t < cut.tH ? t : cut.tH, dense, phase);
+			} else if (cut?.kind === 'switch') {
+				// Output times at the switch belong to the stretch after it.
+				if (t >= cut.tH - eps) break;
+				this.recordDense(t < xOld ? xOld : t, dense, phase);
+			} else {
+				if (t > x + eps || t >= segmentEndH - eps) break;
+				this.recordDense(t < xOld ? xOld : t > x ? x : t, dense, phase);
+			}
+		}
 	}
 
 	/** Applies what happens at a segment's start and returns its flows. */
@@ -700,32 +602,13 @@ class RunIntegrator {
 		phase: FlowPhase,
 		evaluatedAtH = tH
 	): void {
-		const o = this.out;
-		const i = o.count++;
-		o.t[i] = tH;
-		o.x[i] = clampToZero(state[X]);
-		o.s[i] = clampToZero(state[S]);
-		o.p[i] = clampToZero(state[P]);
-		o.v[i] = state[V];
-		o.c[i] = clampToZero(state[C]);
-		const mu = computeGrowthRatePerH(this.p, state, this.regime);
-		if (o.streamFeeds.length === 0) {
-			o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state, mu);
-		} else {
-			const rates = this.streamRates;
-			rates.fill(0);
-			o.feed[i] = computeInflowLPerH(this.p, phase, evaluatedAtH, state, mu, rates);
-			for (let j = 0; j < rates.length; j++) o.streamFeeds[j][i] = rates[j];
-		}
-		o.our[i] = computeOurMgPerLH(this.p, state, mu) / O2_MOLAR_MASS_G_PER_MOL;
+		const { out, p, regime, streamRates } = this;
+		appendOutputPoint(out, p, regime, streamRates, tH, state, phase, evaluatedAtH);
 	}
 
 	private buildResult(): SimulationResult {
 		const o = this.out;
-		const n = o.count;
-		for (const series of [o.t, o.x, o.s, o.p, o.v, o.c, o.feed, o.our, ...o.streamFeeds]) {
-			series.length = n;
-		}
+		const n = truncateOutput(o);
 		const o2 = this.p.oxygen;
 		const maxOtr = o2 === null ? 0 : (o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL;
 		const result: SimulationResult = {
@@ -756,8 +639,3 @@ class RunIntegrator {
 }
 
 const STATE_NAMES = ['biomass', 'substrate', 'product', 'volume', 'dissolved oxygen'];
-
-/** Values within the tolerance below zero are rounding, reported as 0 (real failures throw). */
-function clampToZero(value: number): number {
-	return value < 0 ? 0 : value;
-}

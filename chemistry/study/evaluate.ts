@@ -1,7 +1,7 @@
 import { AIR_O2_MOLE_FRACTION } from '../data/oxygen-solubility';
 import { ChemistryInputError } from '../errors';
 import { computeOxygenSaturation } from '../oxygen';
-import { G_PER_L_PER_CELL_PER_ML_PER_PG } from '../sufficiency';
+import { G_PER_L_PER_CELL_PER_ML_PER_PG } from '../sufficiency/read';
 import { StudyDataError, asStudyDataError } from './errors';
 import { requireGrowthData, resolveOxygenYield } from './profile';
 import { hours, type OperatingPoint, type ReportLog, type StudyRun } from './report-context';

@@ -1,10 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import {
-	computeStudentTQuantile,
-	fitGrowthCurve,
-	fitMonodBatchCurve,
-	type GrowthFit
-} from '../../chemistry/growth-fit';
+import { fitGrowthCurve, fitMonodBatchCurve, type GrowthFit } from '../../chemistry/growth-fit';
+import { computeStudentTQuantile } from '../../chemistry/statistics';
 import { simulateRun } from '../../chemistry/simulation';
 import reference from './reference/growth-curves.json';
 import { errorOf } from './input-error';

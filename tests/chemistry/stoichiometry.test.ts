@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { computeDegreeOfReduction } from '../../chemistry/degree-of-reduction';
+import { computeChiSquareQuantile } from '../../chemistry/statistics';
 import {
-	computeChiSquareQuantile,
 	solveStoichiometry,
 	type StoichiometrySpecies,
 	type StoichiometrySpecification

@@ -1,0 +1,2 @@
+// Growth parameters from run data: the methods are described at the top of ./fit.ts.
+export * from './fit';

@@ -1,0 +1,2 @@
+// Growth stoichiometry by element balances: the method is described at the top of ./solve.ts.
+export * from './solve';
