@@ -5,7 +5,7 @@
  * Sources, per field:
  * - osmoticCoefficient: the osmotic coefficients at physiological concentration, 37 °C, for NaCl, KCl,
  *   NaHCO3, KH2PO4, CaCl2, MgCl2, MgSO4, Na2SO4, glucose and sucrose collected (as confirmed
- *   published values) in the project's SCIENCE-REFERENCES.md. Other salts borrow the value of a salt
+ *   published values) in chemistry/REFERENCES.md. Other salts borrow the value of a salt
  *   of the same charge type and say so; non-electrolytes without a value are assumed ideal (φ = 1).
  * - solubility: grams of the stated basis form per litre of water at 25 °C, read from the CRC Handbook
  *   of Chemistry and Physics tables ("Aqueous Solubility of Inorganic Compounds", mass % converted;
@@ -72,7 +72,7 @@ export const GHS_STATEMENTS: Readonly<Record<string, string>> = Object.freeze({
 
 export const HAZARD_SOURCE = 'from memory; check the supplier SDS';
 
-/** Osmotic coefficients at physiological concentration, 37 °C (SCIENCE-REFERENCES.md, confirmed). */
+/** Osmotic coefficients at physiological concentration, 37 °C (chemistry/REFERENCES.md, confirmed). */
 export const OSMOTIC_COEFFICIENTS_37C: Readonly<Record<string, number>> = Object.freeze({
 	NaCl: 0.93,
 	KCl: 0.92,
@@ -87,7 +87,7 @@ export const OSMOTIC_COEFFICIENTS_37C: Readonly<Record<string, number>> = Object
 });
 
 const PHI_SOURCE =
-	'published osmotic coefficient at physiological concentration, 37 °C (SCIENCE-REFERENCES.md)';
+	'published osmotic coefficient at physiological concentration, 37 °C (chemistry/REFERENCES.md)';
 const IDEAL_SOURCE = 'assumed ideal (φ = 1): no sourced value';
 
 function phi(of: keyof typeof OSMOTIC_COEFFICIENTS_37C) {

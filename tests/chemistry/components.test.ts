@@ -88,7 +88,7 @@ describe('reference components', () => {
 		for (const c of withFormula) {
 			const theirs = new MF(toMfParserSyntax(c.formula as string)).getInfo().mass as number;
 			const elements = parseFormula(c.formula as string).elements;
-			// NIST-based masses differ from IUPAC for Se and Mo by up to 0.012 g/mol per atom (SCIENCE-REFERENCES.md).
+			// NIST-based masses differ from IUPAC for Se and Mo by up to 0.012 g/mol per atom (chemistry/REFERENCES.md).
 			const heavy = (elements.Se ?? 0) + (elements.Mo ?? 0);
 			const tolerance = heavy > 0 ? 0.012 * heavy : 1e-4 * theirs;
 			expect(Math.abs((c.molarMassGPerMol as number) - theirs), c.id).toBeLessThan(tolerance);
@@ -96,7 +96,7 @@ describe('reference components', () => {
 	});
 
 	it.each([
-		// Derived from IUPAC 2021 standard atomic weights (SCIENCE-REFERENCES.md, "D").
+		// Derived from IUPAC 2021 standard atomic weights (chemistry/REFERENCES.md, "D").
 		['d-glucose', 180.156],
 		['glycerol', 92.094],
 		['sodium-chloride', 58.44],
@@ -108,7 +108,7 @@ describe('reference components', () => {
 		expect(component(id).molarMassGPerMol).toBeCloseTo(expected, 3);
 	});
 
-	it('uses the published osmotic coefficients (37 °C, SCIENCE-REFERENCES.md)', () => {
+	it('uses the published osmotic coefficients (37 °C, chemistry/REFERENCES.md)', () => {
 		const published: [string, number][] = [
 			['sodium-chloride', 0.93],
 			['potassium-chloride', 0.92],

@@ -50,9 +50,9 @@ describe('osmolality and ionic strength', () => {
 	});
 
 	it('puts 0.9 % w/v NaCl at about 286 mOsm/kg', () => {
-		// 286 mOsm/kg: 2 × 154 mM × φ 0.93 (SCIENCE-REFERENCES.md, Osmolality, "D"; 286 is the usual measured value, from memory).
+		// 286 mOsm/kg: 2 × 154 mM × φ 0.93 (chemistry/REFERENCES.md, Osmolality, "D"; 286 is the usual measured value, from memory).
 		expect(Math.abs(saline.osmolality.estimateMOsmPerKg - 286) / 286).toBeLessThan(0.03);
-		// Ideal 308 mOsm/L (SCIENCE-REFERENCES.md, Osmolality, "C").
+		// Ideal 308 mOsm/L (chemistry/REFERENCES.md, Osmolality, "C").
 		expect(saline.osmolality.idealMOsmPerL).toBeCloseTo(308, 0);
 		expect(saline.components[0].osmoticCoefficient).toBe(0.93);
 		expect(saline.osmolality.note).toMatch(/estimate/);
@@ -75,7 +75,7 @@ describe('osmolality and ionic strength', () => {
 				{ component: component('yeast-extract'), amount: 5, unit: 'g/L' }
 			]
 		});
-		expect(result.osmolality.estimateMOsmPerKg).toBeCloseTo(10 * 1.01, 9); // glucose φ 1.01 (SCIENCE-REFERENCES.md)
+		expect(result.osmolality.estimateMOsmPerKg).toBeCloseTo(10 * 1.01, 9); // glucose φ 1.01 (chemistry/REFERENCES.md)
 		expect(result.osmolality.excludedComponentIds).toEqual(['yeast-extract']);
 		expect(result.components[1].osmolalityMOsmPerKg).toBeNull();
 	});

@@ -7,7 +7,7 @@ import { errorOf } from './input-error';
 
 // IUPAC 2021 standard atomic weights, conventional values (Prohaska et al., Pure Appl. Chem. 94:573, 2022).
 const W = { H: 1.008, C: 12.011, N: 14.007, O: 15.999, Na: 22.98976928, Mg: 24.305, P: 30.973761998, S: 32.06, Cl: 35.45, K: 39.0983, Ca: 40.078 };
-// Osmotic coefficients at physiological concentration, 37 °C (SCIENCE-REFERENCES.md, Osmolality, "C"):
+// Osmotic coefficients at physiological concentration, 37 °C (chemistry/REFERENCES.md, Osmolality, "C"):
 // NaCl 0.93, KCl 0.92, KH2PO4 0.87, CaCl2 0.86, MgSO4 0.58, Na2SO4 0.74, glucose 1.01. Salts without a
 // value of their own borrow one of the same charge type, as the component library does.
 const PHI = { KCl: 0.92, KH2PO4: 0.87, CaCl2: 0.86, MgSO4: 0.58, Na2SO4: 0.74, glucose: 1.01 };

@@ -8,7 +8,7 @@ import { errorOf } from './input-error';
 
 describe('atomic weights', () => {
 	// IUPAC 2021 standard atomic weights, conventional values for interval elements
-	// (Prohaska et al., Pure Appl. Chem. 94:573, 2022), as listed in SCIENCE-REFERENCES.md.
+	// (Prohaska et al., Pure Appl. Chem. 94:573, 2022), as listed in chemistry/REFERENCES.md.
 	const iupac2021: Record<string, number> = {
 		H: 1.008,
 		C: 12.011,
@@ -46,7 +46,7 @@ describe('atomic weights', () => {
 
 	it('agrees with the independent mf-parser element masses within 1e-4 relative for every element', () => {
 		for (const [symbol, weight] of Object.entries(ATOMIC_WEIGHTS)) {
-			// mf-parser derives masses from NIST isotopic compositions (SCIENCE-REFERENCES.md).
+			// mf-parser derives masses from NIST isotopic compositions (chemistry/REFERENCES.md).
 			const theirs = new MF(symbol).getInfo().mass as number;
 			expect(Math.abs(theirs - weight) / weight, symbol).toBeLessThan(2e-4);
 		}
@@ -54,7 +54,7 @@ describe('atomic weights', () => {
 });
 
 describe('molar masses', () => {
-	// Derived here from IUPAC 2021 weights (SCIENCE-REFERENCES.md, "D").
+	// Derived here from IUPAC 2021 weights (chemistry/REFERENCES.md, "D").
 	it.each([
 		['C6H12O6', 180.156],
 		['C3H8O3', 92.094],
@@ -67,7 +67,7 @@ describe('molar masses', () => {
 		expect(formulaMolarMass(formula)).toBeCloseTo(expected, 3);
 	});
 
-	it('CH1.8O0.5N0.2 is 24.626 g per C-mol (Roels 1983 biomass formula; derived, SCIENCE-REFERENCES.md)', () => {
+	it('CH1.8O0.5N0.2 is 24.626 g per C-mol (Roels 1983 biomass formula; derived, chemistry/REFERENCES.md)', () => {
 		expect(formulaMolarMass('CH1.8O0.5N0.2')).toBeCloseTo(24.626, 3);
 	});
 
@@ -126,7 +126,7 @@ describe('molar masses', () => {
 		['Na2MoO4·2H2O', 'Na2MoO4(H2O)2'],
 		['(NH4)6Mo7O24·4H2O', '(NH4)6Mo7O24(H2O)4']
 	])(
-		'%s agrees with mf-parser within 0.012 g/mol per Se/Mo atom (NIST vs IUPAC, SCIENCE-REFERENCES.md)',
+		'%s agrees with mf-parser within 0.012 g/mol per Se/Mo atom (NIST vs IUPAC, chemistry/REFERENCES.md)',
 		(ours, theirs) => {
 			const expected = new MF(theirs).getInfo().mass as number;
 			const heavyAtoms =

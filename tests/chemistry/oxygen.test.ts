@@ -14,7 +14,7 @@ import { errorOf } from './input-error';
 
 describe('O2 saturation, Benson & Krause (1984) in the APHA 4500-O form', () => {
 	// Fresh water, moist air, 1 atm. Table values: ISO 5814 as printed by an instrument maker;
-	// Montgomery et al. (1964) — SCIENCE-REFERENCES.md.
+	// Montgomery et al. (1964) — chemistry/REFERENCES.md.
 	it.each([
 		[20, 9.09],
 		[25, 8.26],
@@ -26,7 +26,7 @@ describe('O2 saturation, Benson & Krause (1984) in the APHA 4500-O form', () => 
 	});
 
 	it('at 37 °C gives the equation value 6.727 mg/L = 0.2102 mmol/L', () => {
-		// Equation-derived check value (D) in SCIENCE-REFERENCES.md.
+		// Equation-derived check value (D) in chemistry/REFERENCES.md.
 		const r = computeOxygenSaturation({ temperatureC: 37 });
 		expect(r.mgPerL).toBeCloseTo(6.727, 3);
 		expect(r.mmolPerL).toBeCloseTo(0.2102, 4);
@@ -124,7 +124,7 @@ describe('O2 saturation, Benson & Krause (1984) in the APHA 4500-O form', () => 
 
 describe('O2 saturation, Garcia & Gordon (1992) combined fit', () => {
 	it('gives the published check value 274.646 µmol/kg at 10 °C, S = 35', () => {
-		// Garcia & Gordon (1992), L&O 37:1307 — SCIENCE-REFERENCES.md.
+		// Garcia & Gordon (1992), L&O 37:1307 — chemistry/REFERENCES.md.
 		const r = computeOxygenSaturation({
 			temperatureC: 10,
 			salinityGPerKg: 35,
@@ -287,7 +287,7 @@ describe('oxygen transfer and uptake', () => {
 	});
 
 	it('shows the warm-broth rule of thumb: 100 % DO is roughly 6–7 mg/L', () => {
-		// Common practice (SCIENCE-REFERENCES.md).
+		// Common practice (chemistry/REFERENCES.md).
 		const r = computeOxygenSaturation({ temperatureC: 37 });
 		expect(r.mgPerL).toBeGreaterThan(6);
 		expect(r.mgPerL).toBeLessThan(7);

@@ -42,7 +42,7 @@ function expectClosed(species: StoichiometrySpecies[], r: StoichiometryResult): 
 	expect(r.electronBalance.closes).toBe(true);
 }
 
-// Substrates with formula, carbon count and γ per C-mol (SCIENCE-REFERENCES.md values, derived).
+// Substrates with formula, carbon count and γ per C-mol (chemistry/REFERENCES.md values, derived).
 const SUBSTRATES = [
 	{ formula: 'C6H12O6', carbon: 6, gamma: 4 },
 	{ formula: 'C3H8O3', carbon: 3, gamma: 14 / 3 },

@@ -9,7 +9,7 @@ import {
 import { errorOf } from './input-error';
 
 // The worked growth balance of Shuler & Kargi, Bioprocess Engineering, 2nd ed. (2002) — location
-// from memory, as in SCIENCE-REFERENCES.md:
+// from memory, as in chemistry/REFERENCES.md:
 // C6H12O6 + 3 O2 + 0.48 NH3 → 0.48 C6H10NO3 + 4.32 H2O + 3.12 CO2; Yx/s 0.384, Yx/O2 0.721, RQ 1.04.
 const shulerKargi: StoichiometrySpecies[] = [
 	{ id: 'glucose', formula: 'C6H12O6', role: 'substrate' },
@@ -21,7 +21,7 @@ const shulerKargi: StoichiometrySpecies[] = [
 ];
 
 describe('degree of reduction (C +4, H +1, O −2, N −3 with NH3 as reference)', () => {
-	// Values from SCIENCE-REFERENCES.md (convention from memory, values derived).
+	// Values from chemistry/REFERENCES.md (convention from memory, values derived).
 	it.each([
 		['C6H12O6', 4],
 		['C3H8O3', 4.667],
@@ -118,7 +118,7 @@ describe('biomass per C-mol and ash', () => {
 	];
 
 	it('uses 24.626 g per C-mol for CH1.8O0.5N0.2 and 24.626/(1 − a) with ash', () => {
-		// Roels 1983; Heijnen — 24.626 g/C-mol ash-free (D), 24.626/(1 − a) with ash (SCIENCE-REFERENCES.md).
+		// Roels 1983; Heijnen — 24.626 g/C-mol ash-free (D), 24.626/(1 − a) with ash (chemistry/REFERENCES.md).
 		const specs: StoichiometrySpecification[] = [
 			{ kind: 'rate', species: 'glucose', mol: -1 },
 			{ kind: 'rate', species: 'O2', mol: -2 }

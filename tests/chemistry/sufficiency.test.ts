@@ -8,7 +8,7 @@ import {
 import { errorOf } from './input-error';
 
 // Bacterial dry-mass fractions, Neidhardt, Ingraham & Schaechter (1990): N 14 %, P 3 %, S 1 %
-// (confirmed, SCIENCE-REFERENCES.md); Mg 0.5 % (from memory); C 50 % (from memory).
+// (confirmed, chemistry/REFERENCES.md); Mg 0.5 % (from memory); C 50 % (from memory).
 const bacterial = { C: 0.5, N: 0.14, P: 0.03, S: 0.01, Mg: 0.005 };
 
 // A basal medium (1.0 L) plus one feed (0.25 L); final volume 1.25 L.
@@ -338,7 +338,7 @@ describe('yields on further substrates', () => {
 describe('biomass composition defaults', () => {
 	it('carries the Neidhardt, Ingraham & Schaechter (1990) bacterial fractions with their confidence', () => {
 		const b = findBiomassComposition('bacterium-neidhardt-1990');
-		// C for O, N, H, P, S; M for the rest (SCIENCE-REFERENCES.md).
+		// C for O, N, H, P, S; M for the rest (chemistry/REFERENCES.md).
 		expect(b?.massFractions.O).toEqual({ value: 0.2, confidence: 'confirmed' });
 		expect(b?.massFractions.N).toEqual({ value: 0.14, confidence: 'confirmed' });
 		expect(b?.massFractions.H).toEqual({ value: 0.08, confidence: 'confirmed' });

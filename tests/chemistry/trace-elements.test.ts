@@ -31,8 +31,8 @@ const K = 39.0983;
 const Ca = 40.078;
 
 const NA2HPO4_7H2O = 2 * Na + H + P + 4 * O + 7 * (2 * H + O); // 268.062 g/mol
-const KH2PO4 = K + 2 * H + P + 4 * O; // 136.084 g/mol (SCIENCE-REFERENCES.md, derived)
-const NACL = Na + Cl; // 58.440 g/mol (SCIENCE-REFERENCES.md, derived)
+const KH2PO4 = K + 2 * H + P + 4 * O; // 136.084 g/mol (chemistry/REFERENCES.md, derived)
+const NACL = Na + Cl; // 58.440 g/mol (chemistry/REFERENCES.md, derived)
 const NH4CL = N + 4 * H + Cl; // 53.489 g/mol
 
 const molNa2HPO4 = 12.8 / NA2HPO4_7H2O; // 0.047750 mol/L
@@ -158,7 +158,7 @@ describe('the table of default roles (common practice)', () => {
 });
 
 describe('elemental fractions against the biomass formula', () => {
-	// CH1.8O0.5N0.2 is 24.626 g per ash-free C-mol (Roels 1983; SCIENCE-REFERENCES.md, derived). With 8 % ash
+	// CH1.8O0.5N0.2 is 24.626 g per ash-free C-mol (Roels 1983; chemistry/REFERENCES.md, derived). With 8 % ash
 	// its N is 0.2 × 14.007 / 24.626 × 0.92 = 0.10466 g/g, C 12.011 / 24.626 × 0.92 = 0.44871, O 0.5 × 15.999 /
 	// 24.626 × 0.92 = 0.29885, H 1.8 × 1.008 / 24.626 × 0.92 = 0.06778.
 	const neidhardtOrganic = { C: 0.5, H: 0.08, O: 0.2, N: 0.14, P: 0.03 };

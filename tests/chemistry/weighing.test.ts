@@ -9,7 +9,7 @@ import {
 import { errorOf } from './input-error';
 
 // Molar masses from IUPAC 2021 standard atomic weights (Prohaska et al., Pure Appl. Chem. 94:573, 2022):
-// MgSO4·7H2O 246.466 and CaCl2·2H2O 147.008 as derived in SCIENCE-REFERENCES.md; the anhydrous salts by hand:
+// MgSO4·7H2O 246.466 and CaCl2·2H2O 147.008 as derived in chemistry/REFERENCES.md; the anhydrous salts by hand:
 // MgSO4 = 24.305 + 32.06 + 4 × 15.999 = 120.361; CaCl2 = 40.078 + 2 × 35.45 = 110.978.
 const M_MGSO4_7H2O = 246.466;
 const M_MGSO4 = 120.361;

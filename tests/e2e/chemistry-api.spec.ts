@@ -27,7 +27,7 @@ test.describe('science endpoints, signed in', () => {
 		expect(response.status()).toBe(200);
 		const body = await response.json();
 		expect(body.reading).toBe('MgSO4·7H2O');
-		// 246.466 g/mol from IUPAC 2021 standard atomic weights (Prohaska et al. 2022), as derived in SCIENCE-REFERENCES.md
+		// 246.466 g/mol from IUPAC 2021 standard atomic weights (Prohaska et al. 2022), as derived in chemistry/REFERENCES.md
 		expect(body.molarMass).toBeCloseTo(246.466, 2);
 		expect(body.elements).toMatchObject({ Mg: 1, S: 1, O: 11, H: 14 });
 	});
@@ -43,7 +43,7 @@ test.describe('science endpoints, signed in', () => {
 	test('oxygen saturation at 25 °C fresh water matches the published table', async ({ page }) => {
 		const response = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 25 } });
 		const body = await response.json();
-		// 8.26 mg/L at 25 °C (ISO 5814 table; Montgomery et al. 1964), SCIENCE-REFERENCES.md
+		// 8.26 mg/L at 25 °C (ISO 5814 table; Montgomery et al. 1964), chemistry/REFERENCES.md
 		expect(Math.abs(body.mgPerL - 8.26)).toBeLessThan(0.02);
 		expect(body.method).toBe('benson-krause-1984');
 		// Absent, the O2 fraction is dry air's, 0.20946 (composition of dry air; from memory).
@@ -54,7 +54,7 @@ test.describe('science endpoints, signed in', () => {
 		const response = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 37, o2MoleFraction: 1 } });
 		expect(response.status()).toBe(200);
 		const body = await response.json();
-		// 6.727 mg/L for air at 37 °C (Benson & Krause 1984, SCIENCE-REFERENCES.md) × 1/0.20946 (Henry's law) = 32.1 mg/L.
+		// 6.727 mg/L for air at 37 °C (Benson & Krause 1984, chemistry/REFERENCES.md) × 1/0.20946 (Henry's law) = 32.1 mg/L.
 		expect(body.mgPerL).toBeCloseTo(32.12, 1);
 		expect(body.o2MoleFraction).toBe(1);
 		const misspelt = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 37, o2MoleFractin: 1 } });

@@ -274,7 +274,7 @@ test.describe('organism profiles', () => {
 		await expect(fe).toContainText('published');
 		await expect(fe).toContainText('Published iron content of the strain (test value)');
 		// Neidhardt-type fractions against CH1.8O0.5N0.2 with 8 % ash: N 0.2 × 14.007 / 24.626 × 0.92 = 10.5 %
-		// (24.626 g/C-mol, SCIENCE-REFERENCES.md, derived).
+		// (24.626 g/C-mol, chemistry/REFERENCES.md, derived).
 		await expect(page.getByTestId('formula-warnings')).toContainText('N is 14 % in the fractions but 10.5 % by the formula CH1.8O0.5N0.2 with 8 % ash');
 	});
 });

@@ -4,7 +4,7 @@ import { scaleComponentLine, scaleStockLine } from '$lib/server/batches/scaling'
 
 // Molar masses worked by hand from IUPAC 2021 standard atomic weights (Prohaska et al., Pure Appl.
 // Chem. 94:573, 2022; conventional values for Mg, S, O, H): MgSO4 = 24.305 + 32.06 + 4 × 15.999 = 120.361;
-// MgSO4·7H2O = 120.361 + 7 × 18.015 = 246.466 (as derived in SCIENCE-REFERENCES.md); NaCl 58.440.
+// MgSO4·7H2O = 120.361 + 7 × 18.015 = 246.466 (as derived in chemistry/REFERENCES.md); NaCl 58.440.
 const NaCl = { name: 'Sodium chloride', formula: 'NaCl', molarMassGPerMol: null };
 const MgSO4 = { name: 'Magnesium sulfate', formula: 'MgSO4', molarMassGPerMol: null };
 const MgSO4_7H2O = { name: 'Magnesium sulfate heptahydrate', formula: 'MgSO4·7H2O', molarMassGPerMol: null };

@@ -98,7 +98,7 @@ describe('each element of a profile: its role and how sure its value is', () => 
 describe('the profile page checks the fractions against the formula', () => {
 	it('warns with both values when they disagree, and not when they agree', () => {
 		// Neidhardt et al. (1990) N 14 % against CH1.8O0.5N0.2 with 8 % ash: 0.2 × 14.007 / 24.626 × 0.92 = 10.47 %
-		// (24.626 g/C-mol, SCIENCE-REFERENCES.md, derived).
+		// (24.626 g/C-mol, chemistry/REFERENCES.md, derived).
 		const contradicting = saved({ elementalFractions: 'C 0.5\nH 0.08\nO 0.2\nN 0.14', biomassFormula: 'CH1.8O0.5N0.2', ashFraction: '0.08' });
 		const warnings = checkProfileFormula(contradicting);
 		expect(warnings.find((w) => w.startsWith('N '))).toMatch(/^N is 14 % in the fractions but 10\.5 % by the formula CH1\.8O0\.5N0\.2 with 8 % ash/);

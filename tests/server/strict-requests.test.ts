@@ -132,7 +132,7 @@ describe('POST /api/v1/oxygen/saturation speaks o2MoleFraction', () => {
 	it('gives pure O2 about 1/0.20946 times the air value and echoes the fraction', async () => {
 		const air = await (await post('/api/v1/oxygen/saturation', { temperatureC: 37 })).json();
 		const pure = await (await post('/api/v1/oxygen/saturation', { temperatureC: 37, o2MoleFraction: 1 })).json();
-		// Benson & Krause 1984 (APHA 4500-O) at 37 °C: 6.727 mg/L for air (SCIENCE-REFERENCES.md, derived);
+		// Benson & Krause 1984 (APHA 4500-O) at 37 °C: 6.727 mg/L for air (chemistry/REFERENCES.md, derived);
 		// Henry's law scales it by x/0.20946 (dry-air O2 fraction, from memory): 32.12 mg/L for pure O2.
 		expect(air.mgPerL).toBeCloseTo(6.727, 2);
 		expect(air.o2MoleFraction).toBe(0.20946);

@@ -101,7 +101,7 @@ describe('a study on the demo data, checked by hand', () => {
 
 	it('warns when the fractions of the profile contradict its formula, naming both values', () => {
 		// The demo bacterium as it stood before: Neidhardt et al. (1990) fractions (N 14 %) with CH1.8O0.5N0.2 and 8 % ash,
-		// whose N is 0.2 × 14.007 / 24.626 × 0.92 = 10.47 % (24.626 g/C-mol, SCIENCE-REFERENCES.md, derived).
+		// whose N is 0.2 × 14.007 / 24.626 × 0.92 = 10.47 % (24.626 g/C-mol, chemistry/REFERENCES.md, derived).
 		const inputs = structuredClone(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
 		inputs.profile.elementalFractions = { ...inputs.profile.elementalFractions!, C: 0.5, O: 0.2, N: 0.14, H: 0.08 };
 		const report = evaluateStudy(inputs);

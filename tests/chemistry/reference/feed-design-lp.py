@@ -8,7 +8,7 @@ still needs, within each component's solubility, an osmolality limit and a disso
 each kept 0.2 % below the stated value (the designer's margin for rounding its lines to 4 figures).
 Molar masses from IUPAC 2021 standard atomic weights (Prohaska et al., Pure Appl. Chem. 94:573, 2022);
 osmotic coefficients at physiological concentration, 37 °C (KCl 0.92, Na2SO4 0.74, glucose 1.01;
-SCIENCE-REFERENCES.md), used by analogy for NH4Cl (as KCl) and the sulfates (as Na2SO4).
+chemistry/REFERENCES.md), used by analogy for NH4Cl (as KCl) and the sulfates (as Na2SO4).
 Solved with scipy.optimize.linprog (HiGHS), which shares no code with javascript-lp-solver. The least
 total mass is reached by a whole family of mixes here, so the output gives, per component, the range
 its mass takes across that family.
