@@ -88,7 +88,12 @@ const OPTIMUM_BRACKET_FRACTION = 1e-12;
  * than taken from a package: the project has no bounded 1-D optimiser (mathjs has none), and the
  * method is a dozen lines. Accuracy is limited by how flat f is at its top: about √ε·(hi − lo).
  */
-function maximiseUnimodal(f: (x: number) => number, lo: number, hi: number, tolerance: number): number {
+function maximiseUnimodal(
+	f: (x: number) => number,
+	lo: number,
+	hi: number,
+	tolerance: number
+): number {
 	const invPhi = (Math.sqrt(5) - 1) / 2;
 	let a = lo;
 	let b = hi;

@@ -23,7 +23,11 @@ export {
 	findBiomassComposition,
 	organicMassFractions
 } from './data/biomass';
-export type { BiomassComposition, SourcedValue, Confidence as BiomassValueConfidence } from './data/biomass';
+export type {
+	BiomassComposition,
+	SourcedValue,
+	Confidence as BiomassValueConfidence
+} from './data/biomass';
 export * from './simulation';
 export * from './chemostat';
 export * from './productivity';

@@ -30,15 +30,22 @@ export interface PeakOxygenLoad {
 export function findPeakOxygenLoad(series: OxygenLoadSeries, untilH = Infinity): PeakOxygenLoad {
 	const { t, ourMmolPerLH: our, volumeL } = series;
 	if (t.length === 0 || our.length !== t.length || volumeL.length !== t.length) {
-		throw new ChemistryInputError('The series need the same, non-zero number of points.', { field: 'ourMmolPerLH' });
+		throw new ChemistryInputError('The series need the same, non-zero number of points.', {
+			field: 'ourMmolPerLH'
+		});
 	}
 	const points: { t: number; our: number; v: number }[] = [];
-	for (let i = 0; i < t.length && t[i] <= untilH; i++) points.push({ t: t[i], our: our[i], v: volumeL[i] });
+	for (let i = 0; i < t.length && t[i] <= untilH; i++)
+		points.push({ t: t[i], our: our[i], v: volumeL[i] });
 	const next = points.length;
 	if (next > 0 && next < t.length && untilH > t[next - 1]) {
 		const f = (untilH - t[next - 1]) / (t[next] - t[next - 1]);
 		const between = (a: number, b: number) => a + f * (b - a);
-		points.push({ t: untilH, our: between(our[next - 1], our[next]), v: between(volumeL[next - 1], volumeL[next]) });
+		points.push({
+			t: untilH,
+			our: between(our[next - 1], our[next]),
+			v: between(volumeL[next - 1], volumeL[next])
+		});
 	}
 	if (points.length === 0) points.push({ t: t[0], our: our[0], v: volumeL[0] });
 	let ourAt = points[0];

@@ -256,11 +256,7 @@ export function computeOxygenDemand(input: OxygenDemandInput): OxygenDemandResul
 			}
 		);
 	}
-	const x = readNonNegative(
-		input.biomassProducedGPerL,
-		'biomassProducedGPerL',
-		'Biomass produced'
-	);
+	const x = readNonNegative(input.biomassProducedGPerL, 'biomassProducedGPerL', 'Biomass produced');
 	const v = readPositive(input.workingVolumeL, 'workingVolumeL', 'Working volume');
 	const perLitreG = perBiomass * x;
 	return {

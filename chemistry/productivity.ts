@@ -100,7 +100,9 @@ export function computeMonodBatchWithMaintenance(
 ): { growthTimeH: number; biomassGPerL: number } {
 	if (typeof Solver !== 'function' || typeof Solver.prototype?.solve !== 'function') {
 		// Under tsx the tsconfig path mapping sends `odex` to its type declaration; say so plainly.
-		throw new Error('The odex integrator did not load (the module "odex" resolved to its type declaration).');
+		throw new Error(
+			'The odex integrator did not load (the module "odex" resolved to its type declaration).'
+		);
 	}
 	const { muMaxPerH, ksGPerL, yieldXS, maintenanceGPerGH } = p;
 	const rates = [0, 0];
@@ -117,7 +119,12 @@ export function computeMonodBatchWithMaintenance(
 	solver.absoluteTolerance = BATCH_TOLERANCE;
 	solver.relativeTolerance = BATCH_TOLERANCE;
 	solver.maxSteps = BATCH_MAX_STEPS;
-	const result = solver.solve(derivative, 0, [0, initialBiomassGPerL], initialSubstrateGPerL - substrateGPerL);
+	const result = solver.solve(
+		derivative,
+		0,
+		[0, initialBiomassGPerL],
+		initialSubstrateGPerL - substrateGPerL
+	);
 	if (result.outcome !== Outcome.Converged) {
 		throw new ChemistryInputError(
 			`The batch with maintenance could not be integrated to the harvest conversion in ${BATCH_MAX_STEPS} steps; check maintenanceGPerGH and the kinetics.`,

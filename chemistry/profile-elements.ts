@@ -45,9 +45,14 @@ export interface ElementStatement {
 export const MAX_SOURCE_LENGTH = 400;
 
 /** What a published table says about each of its values: the value's grade and the table's citation. */
-export function statementsOfComposition(composition: BiomassComposition): Record<string, ElementStatement> {
+export function statementsOfComposition(
+	composition: BiomassComposition
+): Record<string, ElementStatement> {
 	return Object.fromEntries(
-		Object.entries(composition.massFractions).map(([symbol, v]) => [symbol, { confidence: v.confidence, source: composition.source }])
+		Object.entries(composition.massFractions).map(([symbol, v]) => [
+			symbol,
+			{ confidence: v.confidence, source: composition.source }
+		])
 	);
 }
 
@@ -72,7 +77,10 @@ export function readElementStatements(
 		const at = `${field}.${symbol}`;
 		if (!(symbol in ATOMIC_WEIGHTS)) fail(`'${symbol}' is not an element symbol`, at);
 		if (!present.has(symbol))
-			fail(`${symbol} has a statement but no value in this profile; give its value or drop the statement`, at);
+			fail(
+				`${symbol} has a statement but no value in this profile; give its value or drop the statement`,
+				at
+			);
 		if (raw === null || typeof raw !== 'object' || Array.isArray(raw))
 			fail(`The statement on ${symbol} must be an object with role, confidence or source`, at);
 		const { role, confidence, source } = raw as Record<string, unknown>;
@@ -84,12 +92,18 @@ export function readElementStatements(
 		}
 		if (confidence !== undefined) {
 			if (!(VALUE_CONFIDENCES as readonly unknown[]).includes(confidence))
-				fail(`Confidence of ${symbol} must be one of ${VALUE_CONFIDENCES.join(', ')}`, `${at}.confidence`);
+				fail(
+					`Confidence of ${symbol} must be one of ${VALUE_CONFIDENCES.join(', ')}`,
+					`${at}.confidence`
+				);
 			statement.confidence = confidence as ValueConfidence;
 		}
 		if (source !== undefined) {
 			if (typeof source !== 'string' || source.length > MAX_SOURCE_LENGTH)
-				fail(`Source of ${symbol} must be text of at most ${MAX_SOURCE_LENGTH} characters`, `${at}.source`);
+				fail(
+					`Source of ${symbol} must be text of at most ${MAX_SOURCE_LENGTH} characters`,
+					`${at}.source`
+				);
 			if (source.trim() !== '') statement.source = source.trim();
 		}
 		out[symbol] = statement;
@@ -138,10 +152,13 @@ export function compareFractionsWithFormula(input: {
 		throw cause;
 	}
 	const ash = input.ashFraction ?? 0;
-	if (!(ash >= 0 && ash < 1)) fail(`Ash fraction must be at least 0 and below 1, not ${ash}`, 'ashFraction');
+	if (!(ash >= 0 && ash < 1))
+		fail(`Ash fraction must be at least 0 and below 1, not ${ash}`, 'ashFraction');
 	const byFormula = organicMassFractions(counts, ash);
 	const withAsh =
-		input.ashFraction === null ? 'with no ash entered' : `with ${formatPercentOfDryMass(ash)} % ash`;
+		input.ashFraction === null
+			? 'with no ash entered'
+			: `with ${formatPercentOfDryMass(ash)} % ash`;
 	const out: FormulaFractionMismatch[] = [];
 	for (const [element, formulaFraction] of Object.entries(byFormula)) {
 		const enteredFraction = input.fractions[element];

@@ -86,7 +86,11 @@ function molarMassOfForm(form: FormSpec | null | undefined, field: string): numb
  * Mass of the shelf form per mass of the basis form it carries: M(shelf) / (n · M(basis)), with n basis
  * units per shelf formula unit (MgSO4·7H2O for MgSO4: 246.466 / 120.361 = 2.0477).
  */
-export function hydrateFactor(shelfMolarMassGPerMol: number, basisMolarMassGPerMol: number, basisUnitsPerShelfUnit = 1): number {
+export function hydrateFactor(
+	shelfMolarMassGPerMol: number,
+	basisMolarMassGPerMol: number,
+	basisUnitsPerShelfUnit = 1
+): number {
 	return shelfMolarMassGPerMol / (basisUnitsPerShelfUnit * basisMolarMassGPerMol);
 }
 

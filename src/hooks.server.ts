@@ -29,7 +29,12 @@ const handleSession: Handle = async ({ event, resolve }) => {
 		// A fresh session was just extended: send the renewed cookie so it outlives inactivity only.
 		if (session.fresh) setSessionCookie(event.cookies, lucia.createSessionCookie(session.id));
 		event.locals.session = session;
-		event.locals.user = { id: user.id, email: user.email, name: user.name, roles: rolesOf(user.id) };
+		event.locals.user = {
+			id: user.id,
+			email: user.email,
+			name: user.name,
+			roles: rolesOf(user.id)
+		};
 	} else {
 		if (session) await lucia.invalidateSession(session.id);
 		setSessionCookie(event.cookies, lucia.createBlankSessionCookie());
@@ -48,7 +53,8 @@ const handleApiProblems: Handle = async ({ event, resolve }) => {
 		const body = (await response.json().catch(() => ({}))) as { message?: string };
 		if (body.message) detail = body.message;
 	}
-	if (response.status === 404 && detail === 'Not Found') detail = `No endpoint at ${event.url.pathname}.`;
+	if (response.status === 404 && detail === 'Not Found')
+		detail = `No endpoint at ${event.url.pathname}.`;
 	return problem(response.status, detail);
 };
 

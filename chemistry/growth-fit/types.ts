@@ -1,6 +1,5 @@
 // The growth fit's input and result shapes, and the limits shared by its parts.
 
-
 export interface GrowthCurveData {
 	timeH: number[];
 	biomassGPerL: number[];

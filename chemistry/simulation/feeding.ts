@@ -1,5 +1,14 @@
 import { ChemistryInputError } from '../errors';
-import { C, MAX_INFLOW_VOLUMES_PER_H, P, S, V, X, type FeedLaw, type ModelParameters } from './model';
+import {
+	C,
+	MAX_INFLOW_VOLUMES_PER_H,
+	P,
+	S,
+	V,
+	X,
+	type FeedLaw,
+	type ModelParameters
+} from './model';
 import type { FeedExpression } from './expression';
 import type { FeedPlan } from './validate';
 
@@ -74,11 +83,7 @@ export function createFeedLaw(
  * A feed law from the user's expression in t and the states; a failure or a negative or runaway rate
  * stops the run with an error naming the expression's field.
  */
-function createExpressionFeedLaw(
-	expression: FeedExpression,
-	field: string,
-	fMax: number
-): FeedLaw {
+function createExpressionFeedLaw(expression: FeedExpression, field: string, fMax: number): FeedLaw {
 	const scope = { t: 0, X: 0, S: 0, P: 0, V: 0, DO: 0, C: 0 };
 	return (tH, y) => {
 		scope.t = tH;

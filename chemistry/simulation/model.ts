@@ -219,7 +219,10 @@ function computeGrowthOxygenDemandMgPerLH(
  * when DO cannot stay above 0. Without K_O growth at DO → 0 still asks for its full demand; with
  * K_O > 0 growth has stopped there and only maintenance asks.
  */
-export function computeOxygenSurplusAtZeroMgPerLH(p: ModelParameters, y: ArrayLike<number>): number {
+export function computeOxygenSurplusAtZeroMgPerLH(
+	p: ModelParameters,
+	y: ArrayLike<number>
+): number {
 	const o2 = p.oxygen;
 	if (o2 === null) return Infinity;
 	const growth = o2.koMgPerL > 0 ? 0 : computeGrowthOxygenDemandMgPerLH(o2, p, y);
@@ -310,7 +313,8 @@ export function computeSubstrateSurplusAtZeroGPerLH(
 ): number {
 	const maintenance = p.maintenanceGPerGH * y[X];
 	if (phase.kind === 'closed') return -maintenance;
-	if (phase.kind === 'continuous') return phase.dilutionPerH * phase.feedSubstrateGPerL - maintenance;
+	if (phase.kind === 'continuous')
+		return phase.dilutionPerH * phase.feedSubstrateGPerL - maintenance;
 	let supply = 0;
 	for (const stream of phase.streams) {
 		supply += stream.feedLaw(tH, y, maintenance) * stream.substrateGPerL;
@@ -340,7 +344,8 @@ export function createDerivative(
 	const oxygenMaintenance = o2?.maintenanceMgPerGH ?? 0;
 	const dynamicOxygen = o2 !== null && !regime.quasiSteadyOxygen && !regime.oxygenLimited;
 	const holdSubstrate = regime.substrateExhausted;
-	const adjustsState = regime.quasiSteadyOxygen || regime.substrateExhausted || regime.oxygenLimited;
+	const adjustsState =
+		regime.quasiSteadyOxygen || regime.substrateExhausted || regime.oxygenLimited;
 	const continuous = phase.kind === 'continuous';
 	const dilution = continuous ? phase.dilutionPerH : 0;
 	const cellRemoval = continuous ? phase.cellRemovalPerH : 0;

@@ -25,7 +25,8 @@ export const POSITIVE: Bounds = { min: 0 };
 export const NON_NEGATIVE: Bounds = { min: 0, minInclusive: true };
 
 /** A request path as the dotted field name users and problem+json see (`feeds.1.rateLPerH`). */
-export const fieldOf = (path: readonly PropertyKey[] | undefined): string => (path ?? []).map(String).join('.');
+export const fieldOf = (path: readonly PropertyKey[] | undefined): string =>
+	(path ?? []).map(String).join('.');
 
 function describeBounds(b: Bounds): string {
 	const parts: string[] = [];
@@ -52,7 +53,9 @@ export function numberMessage(field: string, value: unknown, bounds: Bounds): st
 
 /** JSON cannot carry NaN or Infinity: a value of another type gets the API's short word. */
 const typeError = (bounds: Bounds) => (issue: { input?: unknown; path?: PropertyKey[] }) =>
-	typeof issue.input === 'number' ? numberMessage(fieldOf(issue.path), issue.input, bounds) : 'Give a number.';
+	typeof issue.input === 'number'
+		? numberMessage(fieldOf(issue.path), issue.input, bounds)
+		: 'Give a number.';
 
 /** A number whose range the cross-field rules check (it depends on the mode or strategy). */
 export const givenNumber = z.number({ error: typeError({}) });
@@ -63,8 +66,10 @@ export function boundedNumber(bounds: Bounds): z.ZodNumber {
 		numberMessage(fieldOf(issue.path), issue.input, bounds);
 	let schema = z.number({ error: typeError(bounds) });
 	const { min, max, minInclusive = false, maxInclusive = false } = bounds;
-	if (min !== undefined) schema = minInclusive ? schema.gte(min, { error }) : schema.gt(min, { error });
-	if (max !== undefined) schema = maxInclusive ? schema.lte(max, { error }) : schema.lt(max, { error });
+	if (min !== undefined)
+		schema = minInclusive ? schema.gte(min, { error }) : schema.gt(min, { error });
+	if (max !== undefined)
+		schema = maxInclusive ? schema.lte(max, { error }) : schema.lt(max, { error });
 	return schema;
 }
 

@@ -44,7 +44,12 @@ export interface RuleContext {
 }
 
 /** `value` when it is a finite number within `bounds`; otherwise reports it and answers null. */
-export function need(rules: RuleContext, value: unknown, field: string, bounds: Bounds = {}): number | null {
+export function need(
+	rules: RuleContext,
+	value: unknown,
+	field: string,
+	bounds: Bounds = {}
+): number | null {
 	if (isWithin(value, bounds)) return value;
 	rules.report(field, numberMessage(field, value, bounds));
 	return null;
@@ -54,7 +59,12 @@ export function need(rules: RuleContext, value: unknown, field: string, bounds: 
  * One fed-batch stream's strategy against its settings. `form` is 'single' for the request's
  * `feed`, whose rules stay as they were before `feeds`.
  */
-export function checkFedBatchFeed(rules: RuleContext, feed: FeedInput, field: string, form: 'single' | 'streams'): void {
+export function checkFedBatchFeed(
+	rules: RuleContext,
+	feed: FeedInput,
+	field: string,
+	form: 'single' | 'streams'
+): void {
 	const { strategy } = feed;
 	const allowed = FEED_FIELDS[strategy];
 	for (const name of FLOW_FIELDS) {
@@ -67,7 +77,12 @@ export function checkFedBatchFeed(rules: RuleContext, feed: FeedInput, field: st
 	}
 	const bolusL = feed.bolusL ?? 0;
 	const { initialVolumeL, maxVolumeL } = rules;
-	if (initialVolumeL !== null && maxVolumeL !== null && isWithin(bolusL, NON_NEGATIVE) && initialVolumeL + bolusL > maxVolumeL) {
+	if (
+		initialVolumeL !== null &&
+		maxVolumeL !== null &&
+		isWithin(bolusL, NON_NEGATIVE) &&
+		initialVolumeL + bolusL > maxVolumeL
+	) {
 		rules.report(
 			`${field}.bolusL`,
 			`${field}.bolusL (${bolusL} L) would take the volume to ${initialVolumeL + bolusL} L, above maxVolumeL (${maxVolumeL} L).`
@@ -76,11 +91,21 @@ export function checkFedBatchFeed(rules: RuleContext, feed: FeedInput, field: st
 	STRATEGY_RULES[strategy](rules, feed, field, form);
 }
 
-type StrategyRule = (rules: RuleContext, feed: FeedInput, field: string, form: 'single' | 'streams') => void;
+type StrategyRule = (
+	rules: RuleContext,
+	feed: FeedInput,
+	field: string,
+	form: 'single' | 'streams'
+) => void;
 
 // Substrate only falls before the feed starts, and a bolus of feed moves it towards S_f, so
 // checking S_f against the initial S covers the feed start as well.
-function requireFeedAboveInitial(rules: RuleContext, feed: FeedInput, field: string, why: string): void {
+function requireFeedAboveInitial(
+	rules: RuleContext,
+	feed: FeedInput,
+	field: string,
+	why: string
+): void {
 	const s0 = rules.initialSubstrateGPerL;
 	if (s0 === null || typeof feed.substrateGPerL !== 'number') return;
 	if (feed.substrateGPerL <= s0) {
@@ -145,7 +170,12 @@ const STRATEGY_RULES: Record<FeedInput['strategy'], StrategyRule> = {
 			);
 		}
 		const saturation = rules.saturationMgPerL;
-		need(rules, feed.doSetpointMgPerL, `${field}.doSetpointMgPerL`, saturation === null ? POSITIVE : { min: 0, max: saturation });
+		need(
+			rules,
+			feed.doSetpointMgPerL,
+			`${field}.doSetpointMgPerL`,
+			saturation === null ? POSITIVE : { min: 0, max: saturation }
+		);
 	},
 	expression(rules, feed, field) {
 		if (typeof feed.expression !== 'string') {

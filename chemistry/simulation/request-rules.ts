@@ -41,10 +41,11 @@ function ruleContext(request: RequestShape, ctx: z.RefinementCtx): RuleContext {
 		initialSubstrateGPerL: valid(request.initial.substrateGPerL, NON_NEGATIVE),
 		muMaxPerH: valid(request.kinetics.muMaxPerH, MU_MAX_BOUNDS),
 		maxVolumeL: valid(request.maxVolumeL, POSITIVE),
-		saturationMgPerL: request.oxygen ? valid(request.oxygen.saturationMgPerL, SATURATION_BOUNDS) : null
+		saturationMgPerL: request.oxygen
+			? valid(request.oxygen.saturationMgPerL, SATURATION_BOUNDS)
+			: null
 	};
 }
-
 
 export function checkSimulationRequest(request: RequestShape, ctx: z.RefinementCtx): void {
 	const rules = ruleContext(request, ctx);
@@ -87,7 +88,10 @@ function checkOxygen({ request, report }: RuleContext): void {
 	}
 }
 
-function countOutputPoints(endH: number, outputEveryH: number): { intervals: number; pointCount: number } {
+function countOutputPoints(
+	endH: number,
+	outputEveryH: number
+): { intervals: number; pointCount: number } {
 	const intervals = Math.floor(endH / outputEveryH + 1e-9);
 	const onGrid = Math.abs(intervals * outputEveryH - endH) <= 1e-9 * Math.max(1, endH);
 	return { intervals, pointCount: intervals + 1 + (onGrid ? 0 : 1) };
@@ -187,7 +191,9 @@ function checkFeedStreams(rules: RuleContext): void {
 function checkBolusesFit(rules: RuleContext, streams: readonly FeedInput[]): void {
 	const { maxVolumeL, initialVolumeL } = rules;
 	if (maxVolumeL === null || initialVolumeL === null) return;
-	const byStart = streams.map((feed, i) => ({ feed, i })).sort((a, b) => (a.feed.startH ?? 0) - (b.feed.startH ?? 0));
+	const byStart = streams
+		.map((feed, i) => ({ feed, i }))
+		.sort((a, b) => (a.feed.startH ?? 0) - (b.feed.startH ?? 0));
 	let volumeL = initialVolumeL;
 	for (const { feed, i } of byStart) {
 		const bolusL = feed.bolusL ?? 0;
@@ -242,10 +248,14 @@ function checkFreshMedium({ request, report }: RuleContext, feed: FeedInput): vo
 			`feed.label names a fed-batch feed stream; in ${mode} mode the feed is the fresh medium.`
 		);
 	}
-	const flow = mode === 'drawFill' ? 'drawFill.fraction and drawFill.everyH' : 'dilutionPerH × volume';
+	const flow =
+		mode === 'drawFill' ? 'drawFill.fraction and drawFill.everyH' : 'dilutionPerH × volume';
 	for (const name of FLOW_FIELDS) {
 		if (given(feed[name])) {
-			report(`feed.${name}`, `feed.${name} is not used in ${mode} mode (the flow is set by ${flow}).`);
+			report(
+				`feed.${name}`,
+				`feed.${name} is not used in ${mode} mode (the flow is set by ${flow}).`
+			);
 		}
 	}
 }
@@ -255,11 +265,18 @@ function checkContinuousFlow({ request, report }: RuleContext): void {
 	if (!given(dilutionPerH)) report('dilutionPerH', `${mode} mode needs dilutionPerH.`);
 	if (mode !== 'perfusion') return;
 	if (!perfusion) {
-		report('perfusion', 'perfusion mode needs perfusion.retentionEfficiency and perfusion.bleedPerH.');
+		report(
+			'perfusion',
+			'perfusion mode needs perfusion.retentionEfficiency and perfusion.bleedPerH.'
+		);
 		return;
 	}
 	const { bleedPerH } = perfusion;
-	if (isWithin(dilutionPerH, DILUTION_BOUNDS) && isWithin(bleedPerH, NON_NEGATIVE) && bleedPerH > dilutionPerH) {
+	if (
+		isWithin(dilutionPerH, DILUTION_BOUNDS) &&
+		isWithin(bleedPerH, NON_NEGATIVE) &&
+		bleedPerH > dilutionPerH
+	) {
 		report(
 			'perfusion.bleedPerH',
 			`perfusion.bleedPerH (${bleedPerH}) cannot exceed dilutionPerH (${dilutionPerH}): the bleed is part of the outflow.`
@@ -275,6 +292,9 @@ function checkDrawFill({ request, report, endH }: RuleContext, startH: number | 
 	}
 	if (endH === null || startH === null || !isWithin(drawFill.everyH, POSITIVE)) return;
 	if ((endH - startH) / drawFill.everyH > MAX_DRAW_CYCLES) {
-		report('drawFill.everyH', `drawFill.everyH gives more than ${MAX_DRAW_CYCLES} draws before endH.`);
+		report(
+			'drawFill.everyH',
+			`drawFill.everyH gives more than ${MAX_DRAW_CYCLES} draws before endH.`
+		);
 	}
 }

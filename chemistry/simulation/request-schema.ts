@@ -36,10 +36,11 @@ export const FEED_STRATEGIES = [
 	'expression'
 ] as const;
 
-const feedLabel = z.string().refine(
-	(label) => label.trim() !== '' && label.trim().length <= MAX_FEED_LABEL_LENGTH,
-	{ error: (issue) => labelMessage(fieldOf(issue.path), String(issue.input)) }
-);
+const feedLabel = z
+	.string()
+	.refine((label) => label.trim() !== '' && label.trim().length <= MAX_FEED_LABEL_LENGTH, {
+		error: (issue) => labelMessage(fieldOf(issue.path), String(issue.input))
+	});
 
 function labelMessage(field: string, input: string): string {
 	const length = input.trim().length;
@@ -54,7 +55,11 @@ function labelMessage(field: string, input: string): string {
  */
 export const feedInputSchema = z.strictObject({
 	strategy: z.enum(FEED_STRATEGIES),
-	label: feedLabel.optional().describe('fed-batch only: names the stream in events and in `feedStreams`; at most 80 characters'),
+	label: feedLabel
+		.optional()
+		.describe(
+			'fed-batch only: names the stream in events and in `feedStreams`; at most 80 characters'
+		),
 	substrateGPerL: givenNumber.describe(
 		'substrate in the feed (or the fresh medium in chemostat, perfusion and draw-fill), g/L; a stream of `feeds` may carry none (0) unless it is exponential or substrate-stat'
 	),
@@ -86,22 +91,30 @@ export const kineticsInputSchema = z.strictObject({
 		.describe(
 			'O2 half-saturation constant, mg/L: above 0, growth slows as DO falls (C/(K_O + C)); at 0, growth runs at full speed until DO reaches 0 and then at the rate transfer can supply'
 		),
-	alpha: boundedNumber(NON_NEGATIVE).optional().describe('Luedeking–Piret growth-associated term, g product / g biomass'),
-	beta: boundedNumber(NON_NEGATIVE).optional().describe('Luedeking–Piret non-growth term, g product / g biomass / h')
+	alpha: boundedNumber(NON_NEGATIVE)
+		.optional()
+		.describe('Luedeking–Piret growth-associated term, g product / g biomass'),
+	beta: boundedNumber(NON_NEGATIVE)
+		.optional()
+		.describe('Luedeking–Piret non-growth term, g product / g biomass / h')
 });
 
 export const initialStateInputSchema = z.strictObject({
 	biomassGPerL: boundedNumber(POSITIVE),
 	substrateGPerL: boundedNumber(NON_NEGATIVE),
 	volumeL: boundedNumber(POSITIVE),
-	dissolvedOxygenMgPerL: boundedNumber(NON_NEGATIVE).optional().describe('defaults to oxygen.saturationMgPerL'),
+	dissolvedOxygenMgPerL: boundedNumber(NON_NEGATIVE)
+		.optional()
+		.describe('defaults to oxygen.saturationMgPerL'),
 	productGPerL: boundedNumber(NON_NEGATIVE).optional()
 });
 
 export const oxygenInputSchema = z.strictObject({
 	kLaPerH: boundedNumber({ ...POSITIVE, max: 1e4 }),
 	saturationMgPerL: boundedNumber(SATURATION_BOUNDS),
-	maintenanceMgPerGH: boundedNumber(NON_NEGATIVE).optional().describe('O2 for maintenance, mg O2 / g biomass / h'),
+	maintenanceMgPerGH: boundedNumber(NON_NEGATIVE)
+		.optional()
+		.describe('O2 for maintenance, mg O2 / g biomass / h'),
 	limitsGrowth: z
 		.boolean()
 		.optional()
@@ -111,10 +124,15 @@ export const oxygenInputSchema = z.strictObject({
 });
 
 export const perfusionInputSchema = z.strictObject({
-	retentionEfficiency: boundedNumber({ min: 0, minInclusive: true, max: 1, maxInclusive: true }).describe(
-		'fraction of cells the retention device holds back from the harvest stream, 0–1'
-	),
-	bleedPerH: boundedNumber(NON_NEGATIVE).describe('cell bleed, vessel volumes per hour (leaves with the culture’s full biomass)')
+	retentionEfficiency: boundedNumber({
+		min: 0,
+		minInclusive: true,
+		max: 1,
+		maxInclusive: true
+	}).describe('fraction of cells the retention device holds back from the harvest stream, 0–1'),
+	bleedPerH: boundedNumber(NON_NEGATIVE).describe(
+		'cell bleed, vessel volumes per hour (leaves with the culture’s full biomass)'
+	)
 });
 
 export const drawFillInputSchema = z.strictObject({
@@ -126,23 +144,25 @@ export const drawFillInputSchema = z.strictObject({
 
 /** The request's fields and their own ranges, before the rules that read several fields. */
 export const simulationRequestShape = z.strictObject({
-		mode: z.enum(OPERATING_MODES),
-		kinetics: kineticsInputSchema,
-		initial: initialStateInputSchema,
-		feed: feedInputSchema.optional(),
-		feeds: z
-			.array(feedInputSchema)
-			.min(1, `feeds must be a list of 1 to ${MAX_FEED_STREAMS} feed streams (got 0).`)
-			.max(MAX_FEED_STREAMS, `Give at most ${MAX_FEED_STREAMS} feed streams.`)
-			.optional()
-			.describe('fedBatch only, instead of feed: several streams, each with its own strategy and start'),
-		oxygen: oxygenInputSchema.optional().describe('absent: no O2 balance and no O2 limitation'),
-		perfusion: perfusionInputSchema.optional(),
-		drawFill: drawFillInputSchema.optional(),
-		dilutionPerH: boundedNumber(DILUTION_BOUNDS).optional(),
-		maxVolumeL: boundedNumber(POSITIVE).optional(),
-		endH: boundedNumber(END_H_BOUNDS),
-		outputEveryH: boundedNumber(POSITIVE)
+	mode: z.enum(OPERATING_MODES),
+	kinetics: kineticsInputSchema,
+	initial: initialStateInputSchema,
+	feed: feedInputSchema.optional(),
+	feeds: z
+		.array(feedInputSchema)
+		.min(1, `feeds must be a list of 1 to ${MAX_FEED_STREAMS} feed streams (got 0).`)
+		.max(MAX_FEED_STREAMS, `Give at most ${MAX_FEED_STREAMS} feed streams.`)
+		.optional()
+		.describe(
+			'fedBatch only, instead of feed: several streams, each with its own strategy and start'
+		),
+	oxygen: oxygenInputSchema.optional().describe('absent: no O2 balance and no O2 limitation'),
+	perfusion: perfusionInputSchema.optional(),
+	drawFill: drawFillInputSchema.optional(),
+	dilutionPerH: boundedNumber(DILUTION_BOUNDS).optional(),
+	maxVolumeL: boundedNumber(POSITIVE).optional(),
+	endH: boundedNumber(END_H_BOUNDS),
+	outputEveryH: boundedNumber(POSITIVE)
 });
 
 export const simulationRequestSchema = simulationRequestShape.superRefine(checkSimulationRequest);

@@ -28,7 +28,9 @@ export const feedStreamResultSchema = z.object({
 	feedLPerH: series.describe('this stream’s rate at each output time (0 before its start), L/h'),
 	deliveredL: z
 		.number()
-		.describe('volume added by the stream over the run, bolus included (integrated with the run, not from the outputs)')
+		.describe(
+			'volume added by the stream over the run, bolus included (integrated with the run, not from the outputs)'
+		)
 });
 
 export const simulationResultSchema = z.object({
@@ -37,14 +39,18 @@ export const simulationResultSchema = z.object({
 	substrateGPerL: series,
 	productGPerL: series,
 	volumeL: series,
-	dissolvedOxygenMgPerL: series.nullable().describe('null when the request has no oxygen block: no O2 balance is solved'),
+	dissolvedOxygenMgPerL: series
+		.nullable()
+		.describe('null when the request has no oxygen block: no O2 balance is solved'),
 	feedLPerH: series.describe(
 		'total inflow at each output time (the sum of the feed streams, or dilution/perfusion flow), L/h; draws are discrete and not shown'
 	),
 	feedStreams: z
 		.array(feedStreamResultSchema)
 		.nullable()
-		.describe('fed-batch: each feed stream in request order (the single feed as one); null in other modes'),
+		.describe(
+			'fed-batch: each feed stream in request order (the single feed as one); null in other modes'
+		),
 	ourMmolPerLH: series
 		.nullable()
 		.describe(

@@ -271,7 +271,9 @@ class RunIntegrator {
 			// (The supply is asked for only once S is below 0: at every step it would cost the feed laws again.)
 			switches.push({
 				value: (tH, state) =>
-					state[S] >= 0 ? -state[S] : Math.min(-state[S], -this.substrateSurplusAtZero(phase, tH, state)),
+					state[S] >= 0
+						? -state[S]
+						: Math.min(-state[S], -this.substrateSurplusAtZero(phase, tH, state)),
 				apply: () => this.setSubstrateExhausted(true)
 			});
 		}

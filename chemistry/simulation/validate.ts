@@ -71,7 +71,8 @@ export function readSimulationRequest(request: unknown): SimulationRequest {
 			{ field }
 		);
 	}
-	const position = issue.code === 'custom' ? (issue.params?.position as number | undefined) : undefined;
+	const position =
+		issue.code === 'custom' ? (issue.params?.position as number | undefined) : undefined;
 	return failWith(issue.message, fieldOf(issue.path), position);
 }
 
@@ -113,7 +114,9 @@ function modelParameters({ kinetics, oxygen }: SimulationRequest): ModelParamete
 /** The plan of a request its schema accepted. */
 function planSimulation(request: SimulationRequest): SimulationPlan {
 	const { mode, initial, oxygen, endH } = request;
-	const dissolvedOxygenMgPerL = oxygen ? (initial.dissolvedOxygenMgPerL ?? oxygen.saturationMgPerL) : 0;
+	const dissolvedOxygenMgPerL = oxygen
+		? (initial.dissolvedOxygenMgPerL ?? oxygen.saturationMgPerL)
+		: 0;
 	const plan: SimulationPlan = {
 		mode,
 		parameters: modelParameters(request),
@@ -148,7 +151,11 @@ function planSimulation(request: SimulationRequest): SimulationPlan {
 	return plan;
 }
 
-function continuousFlow({ mode, dilutionPerH, perfusion }: SimulationRequest): SimulationPlan['continuous'] {
+function continuousFlow({
+	mode,
+	dilutionPerH,
+	perfusion
+}: SimulationRequest): SimulationPlan['continuous'] {
 	const dilution = dilutionPerH!;
 	if (mode !== 'perfusion') return { dilutionPerH: dilution, cellRemovalPerH: dilution };
 	const { bleedPerH, retentionEfficiency } = perfusion!;
@@ -172,7 +179,12 @@ function planFeed(feed: FeedInput, field: string): FeedPlan {
 		case 'constant':
 			return { ...common, strategy: 'constant', rateLPerH: feed.rateLPerH! };
 		case 'linear':
-			return { ...common, strategy: 'linear', rateLPerH: feed.rateLPerH!, slopeLPerH2: feed.slopeLPerH2! };
+			return {
+				...common,
+				strategy: 'linear',
+				rateLPerH: feed.rateLPerH!,
+				slopeLPerH2: feed.slopeLPerH2!
+			};
 		case 'exponential':
 			return { ...common, strategy: 'exponential', muSetPerH: feed.muSetPerH! };
 		case 'substrateStat':

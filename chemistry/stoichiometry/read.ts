@@ -70,9 +70,10 @@ export function readSpecies(input: unknown): Species[] {
 		const field = `species.${index}`;
 		const s = readSpeciesIdentity(raw, field, index, seen);
 		const parsed = parseSpeciesFormula(s.formula, s.id, field);
-		let { role, ashFraction } = readSpeciesRole(s, field);
-		const roleGiven = role !== undefined;
-		role ??= inferRole(parsed);
+		const given = readSpeciesRole(s, field);
+		const ashFraction = given.ashFraction;
+		const roleGiven = given.role !== undefined;
+		const role = given.role ?? inferRole(parsed);
 		let elements = parsed;
 		if (role === 'biomass') {
 			if (biomassIndex >= 0) {

@@ -1,6 +1,5 @@
 // The growth balance's input and result shapes, and the limits and roles the reading and solving share.
 
-
 export type SpeciesRole =
 	'substrate' | 'nitrogen' | 'oxygen' | 'biomass' | 'carbonDioxide' | 'water' | 'product';
 

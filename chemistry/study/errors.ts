@@ -16,7 +16,8 @@ export function asStudyDataError<T>(run: () => T): T {
 	try {
 		return run();
 	} catch (cause) {
-		if (cause instanceof ChemistryInputError && !(cause instanceof StudyDataError)) throw new StudyDataError(cause.message, { field: cause.field });
+		if (cause instanceof ChemistryInputError && !(cause instanceof StudyDataError))
+			throw new StudyDataError(cause.message, { field: cause.field });
 		throw cause;
 	}
 }

@@ -5,7 +5,13 @@ import { G_PER_L_PER_CELL_PER_ML_PER_PG } from '../sufficiency/read';
 import { StudyDataError, asStudyDataError } from './errors';
 import { requireGrowthData, resolveOxygenYield } from './profile';
 import { hours, type OperatingPoint, type ReportLog, type StudyRun } from './report-context';
-import { assessNutrients, describeRunouts, nameOf, reportFeeds, type NutrientSection } from './report-nutrients';
+import {
+	assessNutrients,
+	describeRunouts,
+	nameOf,
+	reportFeeds,
+	type NutrientSection
+} from './report-nutrients';
 import { assessHeat, assessOxygen, findOxygenLoad } from './report-oxygen';
 import { simulatePlan } from './time-course';
 import type { StudyInputs, StudyReport, WhatIf } from './types';
@@ -39,18 +45,30 @@ export function convertCellsPerMlToGPerL(cellsPerMl: number, cellDryMassPg: numb
 }
 
 /** The target as g/L dry biomass (and cells/mL where the cell mass is known), within physical sense. */
-export function convertTargetToBiomass(inputs: StudyInputs, targetValue: number): { biomassGPerL: number; cellsPerMl: number | null } {
+export function convertTargetToBiomass(
+	inputs: StudyInputs,
+	targetValue: number
+): { biomassGPerL: number; cellsPerMl: number | null } {
 	const { plan, profile } = inputs;
-	if (!(targetValue > 0) || !Number.isFinite(targetValue)) whatIfError(`The target density must be greater than 0, not ${targetValue}.`, 'targetValue');
+	if (!(targetValue > 0) || !Number.isFinite(targetValue))
+		whatIfError(`The target density must be greater than 0, not ${targetValue}.`, 'targetValue');
 	if (plan.targetBasis === 'biomassGPerL') {
-		const cellsPerMl = profile.cellDryMassPg ? targetValue / (profile.cellDryMassPg * G_PER_L_PER_CELL_PER_ML_PER_PG) : null;
+		const cellsPerMl = profile.cellDryMassPg
+			? targetValue / (profile.cellDryMassPg * G_PER_L_PER_CELL_PER_ML_PER_PG)
+			: null;
 		if (targetValue > MAX_BIOMASS_G_PER_L) {
-			whatIfError(`A target of ${targetValue} g/L dry biomass is beyond physical sense: above ${MAX_BIOMASS_G_PER_L} g/L the broth would be packed cells.`, 'targetValue');
+			whatIfError(
+				`A target of ${targetValue} g/L dry biomass is beyond physical sense: above ${MAX_BIOMASS_G_PER_L} g/L the broth would be packed cells.`,
+				'targetValue'
+			);
 		}
 		return { biomassGPerL: targetValue, cellsPerMl };
 	}
 	if (profile.cellDryMassPg === null) {
-		throw new StudyDataError(`A target in cells/mL needs the cell dry mass (pg/cell) on the profile “${profile.name}”.`, { field: 'profile.cellDryMassPg' });
+		throw new StudyDataError(
+			`A target in cells/mL needs the cell dry mass (pg/cell) on the profile “${profile.name}”.`,
+			{ field: 'profile.cellDryMassPg' }
+		);
 	}
 	const biomassGPerL = convertCellsPerMlToGPerL(targetValue, profile.cellDryMassPg);
 	if (biomassGPerL > MAX_BIOMASS_G_PER_L) {
@@ -69,24 +87,50 @@ export function readOperatingPoint(inputs: StudyInputs, whatIf: WhatIf): Operati
 	const target = convertTargetToBiomass(inputs, targetValue);
 	const plannedFeedL = inputs.feeds.reduce((sum, f) => sum + f.volumeL, 0);
 	const feedVolumeL = whatIf.feedVolumeL ?? plannedFeedL;
-	if (!(feedVolumeL >= 0) || !Number.isFinite(feedVolumeL)) whatIfError(`The feed volume must be 0 or more litres, not ${feedVolumeL}.`, 'feedVolumeL');
-	if (feedVolumeL > 0 && inputs.feeds.length === 0) whatIfError('This study has no feed to scale: add a feed recipe version to the study first.', 'feedVolumeL');
+	if (!(feedVolumeL >= 0) || !Number.isFinite(feedVolumeL))
+		whatIfError(`The feed volume must be 0 or more litres, not ${feedVolumeL}.`, 'feedVolumeL');
+	if (feedVolumeL > 0 && inputs.feeds.length === 0)
+		whatIfError(
+			'This study has no feed to scale: add a feed recipe version to the study first.',
+			'feedVolumeL'
+		);
 	const feedScale = plannedFeedL > 0 ? feedVolumeL / plannedFeedL : 0;
 	const feeds = inputs.feeds.map((f) => ({ ...f, volumeL: f.volumeL * feedScale }));
 
 	const vesselKLa = computeVesselKLa(vessel);
 	const kLaPerH = whatIf.kLaPerH ?? vesselKLa.kLaPerH;
-	if (!(kLaPerH > 0) || kLaPerH > MAX_KLA_PER_H) whatIfError(`kLa must be above 0 and at most ${MAX_KLA_PER_H} 1/h, not ${kLaPerH}.`, 'kLaPerH');
+	if (!(kLaPerH > 0) || kLaPerH > MAX_KLA_PER_H)
+		whatIfError(`kLa must be above 0 and at most ${MAX_KLA_PER_H} 1/h, not ${kLaPerH}.`, 'kLaPerH');
 	const o2MoleFraction = whatIf.o2MoleFraction ?? plan.o2MoleFraction;
-	if (!(o2MoleFraction > 0) || o2MoleFraction > 1) whatIfError(`The O2 mole fraction must be above 0 and at most 1, not ${o2MoleFraction}.`, 'o2MoleFraction');
+	if (!(o2MoleFraction > 0) || o2MoleFraction > 1)
+		whatIfError(
+			`The O2 mole fraction must be above 0 and at most 1, not ${o2MoleFraction}.`,
+			'o2MoleFraction'
+		);
 	const temperatureC = whatIf.temperatureC ?? plan.temperatureC;
 	const [minC, maxC] = STUDY_TEMPERATURE_RANGE_C;
-	if (!(temperatureC >= minC) || temperatureC > maxC) whatIfError(`The temperature must be between ${minC} and ${maxC} °C for the oxygen solubility equations, not ${temperatureC}.`, 'temperatureC');
+	if (!(temperatureC >= minC) || temperatureC > maxC)
+		whatIfError(
+			`The temperature must be between ${minC} and ${maxC} °C for the oxygen solubility equations, not ${temperatureC}.`,
+			'temperatureC'
+		);
 	if (plan.pressureKPa > vessel.maxPressureKPa) {
-		throw new ChemistryInputError(`The study's pressure ${plan.pressureKPa} kPa is above the vessel's rating of ${vessel.maxPressureKPa} kPa.`, { field: 'pressureKPa' });
+		throw new ChemistryInputError(
+			`The study's pressure ${plan.pressureKPa} kPa is above the vessel's rating of ${vessel.maxPressureKPa} kPa.`,
+			{ field: 'pressureKPa' }
+		);
 	}
 	const kLaOrigin = whatIf.kLaPerH === undefined ? vesselKLa.origin : 'from the what-if';
-	return { targetValue, target, feedVolumeL, feeds, kLaPerH, kLaOrigin, o2MoleFraction, temperatureC };
+	return {
+		targetValue,
+		target,
+		feedVolumeL,
+		feeds,
+		kLaPerH,
+		kLaOrigin,
+		o2MoleFraction,
+		temperatureC
+	};
 }
 
 /** Oxygen solubility, the oxygen yield and the plan's two runs (the demand run and the run in this vessel). */
@@ -96,12 +140,32 @@ export function runStudyPlan(inputs: StudyInputs, point: OperatingPoint, log: Re
 	const growth = requireGrowthData(profile);
 	const carbonFormula = inputs.componentFormulas[growth.carbonSourceId] ?? null;
 	const yieldXO2GPerG = resolveOxygenYield(profile, carbonFormula, log.defaults);
-	const saturation = asStudyDataError(() => computeOxygenSaturation({ temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction }));
-	const airSaturation = asStudyDataError(() => computeOxygenSaturation({ temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction: AIR_O2_MOLE_FRACTION }));
-	log.defaults.push({ what: 'Oxygen solubility', value: `${saturation.mgPerL.toPrecision(3)} mg/L at ${temperatureC} °C`, source: 'Benson & Krause (1984) for fresh water (salinity 0), APHA pressure correction' });
-	if (profile.maintenanceGPerGH === null) log.defaults.push({ what: 'Maintenance on the carbon source', value: '0', source: 'Not entered on the profile' });
+	const saturation = asStudyDataError(() =>
+		computeOxygenSaturation({ temperatureC, pressureKPa: plan.pressureKPa, o2MoleFraction })
+	);
+	const airSaturation = asStudyDataError(() =>
+		computeOxygenSaturation({
+			temperatureC,
+			pressureKPa: plan.pressureKPa,
+			o2MoleFraction: AIR_O2_MOLE_FRACTION
+		})
+	);
+	log.defaults.push({
+		what: 'Oxygen solubility',
+		value: `${saturation.mgPerL.toPrecision(3)} mg/L at ${temperatureC} °C`,
+		source: 'Benson & Krause (1984) for fresh water (salinity 0), APHA pressure correction'
+	});
+	if (profile.maintenanceGPerGH === null)
+		log.defaults.push({
+			what: 'Maintenance on the carbon source',
+			value: '0',
+			source: 'Not entered on the profile'
+		});
 
-	const initialBiomassGPerL = plan.targetBasis === 'cellsPerMl' ? convertCellsPerMlToGPerL(plan.inoculumDensity, profile.cellDryMassPg ?? 0) : plan.inoculumDensity;
+	const initialBiomassGPerL =
+		plan.targetBasis === 'cellsPerMl'
+			? convertCellsPerMlToGPerL(plan.inoculumDensity, profile.cellDryMassPg ?? 0)
+			: plan.inoculumDensity;
 	const courses = simulatePlan({
 		inputs,
 		feeds: point.feeds,
@@ -124,16 +188,40 @@ export function runStudyPlan(inputs: StudyInputs, point: OperatingPoint, log: Re
 }
 
 /** The working volume: the plan must start above the vessel's minimum and end below its maximum. */
-export function assessVolume(inputs: StudyInputs, finalVolumeL: number, feedUsedL: number, log: ReportLog): StudyReport['volume'] {
+export function assessVolume(
+	inputs: StudyInputs,
+	finalVolumeL: number,
+	feedUsedL: number,
+	log: ReportLog
+): StudyReport['volume'] {
 	const { plan, vessel } = inputs;
-	const volumeOk = finalVolumeL <= vessel.maxWorkingVolumeL && plan.initialVolumeL >= vessel.minWorkingVolumeL;
-	if (finalVolumeL > vessel.maxWorkingVolumeL) log.reasons.push(`Final volume ${finalVolumeL.toFixed(1)} L is above the vessel's maximum working volume of ${vessel.maxWorkingVolumeL} L.`);
-	if (plan.initialVolumeL < vessel.minWorkingVolumeL) log.reasons.push(`Initial volume ${plan.initialVolumeL} L is below the vessel's minimum working volume of ${vessel.minWorkingVolumeL} L.`);
-	return { check: volumeOk ? 'ok' : 'short', initialL: plan.initialVolumeL, feedL: feedUsedL, finalL: finalVolumeL, minL: vessel.minWorkingVolumeL, maxL: vessel.maxWorkingVolumeL };
+	const volumeOk =
+		finalVolumeL <= vessel.maxWorkingVolumeL && plan.initialVolumeL >= vessel.minWorkingVolumeL;
+	if (finalVolumeL > vessel.maxWorkingVolumeL)
+		log.reasons.push(
+			`Final volume ${finalVolumeL.toFixed(1)} L is above the vessel's maximum working volume of ${vessel.maxWorkingVolumeL} L.`
+		);
+	if (plan.initialVolumeL < vessel.minWorkingVolumeL)
+		log.reasons.push(
+			`Initial volume ${plan.initialVolumeL} L is below the vessel's minimum working volume of ${vessel.minWorkingVolumeL} L.`
+		);
+	return {
+		check: volumeOk ? 'ok' : 'short',
+		initialL: plan.initialVolumeL,
+		feedL: feedUsedL,
+		finalL: finalVolumeL,
+		minL: vessel.minWorkingVolumeL,
+		maxL: vessel.maxWorkingVolumeL
+	};
 }
 
 /** The time course: whether the plan, as written and in this vessel, reaches the target within its duration. */
-export function assessTimeCourse(inputs: StudyInputs, point: OperatingPoint, run: StudyRun, log: ReportLog): StudyReport['timeCourse'] {
+export function assessTimeCourse(
+	inputs: StudyInputs,
+	point: OperatingPoint,
+	run: StudyRun,
+	log: ReportLog
+): StudyReport['timeCourse'] {
 	const { plan } = inputs;
 	const { demandCourse, simulated, courses } = run;
 	const target = point.target.biomassGPerL.toPrecision(3);
@@ -148,15 +236,30 @@ export function assessTimeCourse(inputs: StudyInputs, point: OperatingPoint, run
 		);
 	}
 	if (simulated && simulated.oxygenLimitedH.length > 0 && simulated.reachesTarget) {
-		log.notes.push(`In this vessel DO reaches 0 at ${hours(simulated.oxygenLimitedH[0].fromH)}; growth then runs at what oxygen transfer supplies.`);
+		log.notes.push(
+			`In this vessel DO reaches 0 at ${hours(simulated.oxygenLimitedH[0].fromH)}; growth then runs at what oxygen transfer supplies.`
+		);
 	}
-	if ('message' in courses.vessel) log.notes.push(`Time course not available: ${courses.vessel.message}`);
-	if (!simulated) return { check: 'unavailable', message: 'message' in courses.vessel ? courses.vessel.message : '' };
+	if ('message' in courses.vessel)
+		log.notes.push(`Time course not available: ${courses.vessel.message}`);
+	if (!simulated)
+		return {
+			check: 'unavailable',
+			message: 'message' in courses.vessel ? courses.vessel.message : ''
+		};
 	const { deliveries: _deliveries, ...course } = simulated;
-	return { ...course, demandOurMmolPerLH: demandCourse?.ourMmolPerLH ?? null, check: simulated.reachesTarget ? 'ok' : 'short' };
+	return {
+		...course,
+		demandOurMmolPerLH: demandCourse?.ourMmolPerLH ?? null,
+		check: simulated.reachesTarget ? 'ok' : 'short'
+	};
 }
 
-function describeLimit(inputs: StudyInputs, point: OperatingPoint, { limitLine }: NutrientSection): StudyReport['limit'] {
+function describeLimit(
+	inputs: StudyInputs,
+	point: OperatingPoint,
+	{ limitLine }: NutrientSection
+): StudyReport['limit'] {
 	const { cellsPerMl } = point.target;
 	return {
 		key: limitLine.key,
@@ -164,7 +267,10 @@ function describeLimit(inputs: StudyInputs, point: OperatingPoint, { limitLine }
 		basis: limitLine.basis,
 		ratio: limitLine.ratio,
 		maxBiomassGPerL: limitLine.maxBiomassGPerL,
-		maxCellsPerMl: cellsPerMl === null || limitLine.maxBiomassGPerL === null ? null : (cellsPerMl * limitLine.ratio) / inputs.plan.safetyFactor
+		maxCellsPerMl:
+			cellsPerMl === null || limitLine.maxBiomassGPerL === null
+				? null
+				: (cellsPerMl * limitLine.ratio) / inputs.plan.safetyFactor
 	};
 }
 
@@ -182,7 +288,10 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 
 	const nutrients = assessNutrients(inputs, point, run, log);
 	const feeds = reportFeeds(point, run, nutrients.usedL, log);
-	const runouts = describeRunouts(nutrients.lines, nameOf(inputs, run.growth.carbonSourceId, 'component'));
+	const runouts = describeRunouts(
+		nutrients.lines,
+		nameOf(inputs, run.growth.carbonSourceId, 'component')
+	);
 	log.notes.push(...runouts.notes);
 
 	const load = findOxygenLoad(inputs, point, run, nutrients.finalVolumeL, log);
@@ -211,7 +320,11 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 			safetyFactor: plan.safetyFactor
 		},
 		limit: describeLimit(inputs, point, nutrients),
-		nutrients: { check: nutrients.sufficiency.sufficient ? 'ok' : 'short', lines: nutrients.lines, notes: nutrients.sufficiency.notes },
+		nutrients: {
+			check: nutrients.sufficiency.sufficient ? 'ok' : 'short',
+			lines: nutrients.lines,
+			notes: nutrients.sufficiency.notes
+		},
 		oxygen,
 		heat,
 		volume,

@@ -1,5 +1,11 @@
 import { ChemistryInputError } from '../errors';
-import { FEED_LIMIT_DEFAULTS, designFeeds, type FeedCandidate, type FeedDesignResult, type FeedLimits } from '../feed-design';
+import {
+	FEED_LIMIT_DEFAULTS,
+	designFeeds,
+	type FeedCandidate,
+	type FeedDesignResult,
+	type FeedLimits
+} from '../feed-design';
 import { assessSufficiency, type SufficiencyLine } from '../sufficiency';
 import { toSufficiencyProfile } from './profile';
 import type { StudyInputs } from './types';
@@ -28,7 +34,10 @@ export function defaultFeedLimits(group: OrganismGroup): DefaultFeedLimits {
 export function requireFeedVolumeFits(inputs: StudyInputs, feedVolumeL: number): number {
 	const { plan, vessel } = inputs;
 	const maxFeedVolumeL = Math.max(0, vessel.maxWorkingVolumeL - plan.initialVolumeL);
-	if (!(feedVolumeL > 0)) throw new ChemistryInputError('The feed volume must be greater than 0 L.', { field: 'feedVolumeL' });
+	if (!(feedVolumeL > 0))
+		throw new ChemistryInputError('The feed volume must be greater than 0 L.', {
+			field: 'feedVolumeL'
+		});
 	if (feedVolumeL > maxFeedVolumeL + 1e-9) {
 		throw new ChemistryInputError(
 			`${feedVolumeL} L of feed on ${plan.initialVolumeL} L would exceed the vessel's maximum working volume of ${vessel.maxWorkingVolumeL} L; at most ${maxFeedVolumeL} L fits.`,
@@ -44,7 +53,11 @@ export function requireFeedVolumeFits(inputs: StudyInputs, feedVolumeL: number):
  * the final volume. Bad input throws `ChemistryInputError` at the request's field (`feedVolumeL`,
  * `candidates.N`), or without a field where the study's needs cannot be met.
  */
-export function designStudyFeed(inputs: StudyInputs, candidates: FeedCandidate[], request: FeedDesignRequest): FeedDesign {
+export function designStudyFeed(
+	inputs: StudyInputs,
+	candidates: FeedCandidate[],
+	request: FeedDesignRequest
+): FeedDesign {
 	const { plan } = inputs;
 	const maxFeedVolumeL = requireFeedVolumeFits(inputs, request.feedVolumeL);
 	const defaults = defaultFeedLimits(inputs.profile.group);
@@ -52,19 +65,27 @@ export function designStudyFeed(inputs: StudyInputs, candidates: FeedCandidate[]
 		osmolalityMaxMOsmPerKg: request.osmolalityMaxMOsmPerKg ?? defaults.osmolalityMaxMOsmPerKg,
 		dissolvedSolidsMaxGPerL: request.dissolvedSolidsMaxGPerL ?? defaults.dissolvedSolidsMaxGPerL
 	};
-	const usesDefault = request.osmolalityMaxMOsmPerKg === undefined || request.dissolvedSolidsMaxGPerL === undefined;
+	const usesDefault =
+		request.osmolalityMaxMOsmPerKg === undefined || request.dissolvedSolidsMaxGPerL === undefined;
 
 	const finalVolumeL = plan.initialVolumeL + request.feedVolumeL;
 	const { profile, carbon, substrates } = toSufficiencyProfile(inputs.profile);
 	const basalOnly = assessSufficiency({
 		profile,
-		target: plan.targetBasis === 'cellsPerMl' ? { cellsPerMl: plan.targetValue } : { biomassGPerL: plan.targetValue },
-		supply: { finalVolumeL, sources: [{ volumeL: plan.initialVolumeL, ...inputs.basal.composition }] },
+		target:
+			plan.targetBasis === 'cellsPerMl'
+				? { cellsPerMl: plan.targetValue }
+				: { biomassGPerL: plan.targetValue },
+		supply: {
+			finalVolumeL,
+			sources: [{ volumeL: plan.initialVolumeL, ...inputs.basal.composition }]
+		},
 		safetyFactor: plan.safetyFactor,
 		carbon,
 		substrates
 	});
-	const nameOf = (l: SufficiencyLine) => (l.basis === 'element' ? l.key : (inputs.componentNames[l.key] ?? l.key));
+	const nameOf = (l: SufficiencyLine) =>
+		l.basis === 'element' ? l.key : (inputs.componentNames[l.key] ?? l.key);
 	const result = designFeeds({
 		candidates,
 		needs: basalOnly.lines.map((l) => ({

@@ -2,8 +2,22 @@
 export * from './vocabulary';
 export * from './types';
 export { StudyDataError, asStudyDataError } from './errors';
-export { MAX_BIOMASS_G_PER_L, STUDY_CAUTIONS, STUDY_TEMPERATURE_RANGE_C, convertCellsPerMlToGPerL, convertTargetToBiomass, evaluateStudy } from './evaluate';
-export { simulatePlan, isControlled, type PlanRun, type PlanCourse, type PlanCourses, type FeedDelivery } from './time-course';
+export {
+	MAX_BIOMASS_G_PER_L,
+	STUDY_CAUTIONS,
+	STUDY_TEMPERATURE_RANGE_C,
+	convertCellsPerMlToGPerL,
+	convertTargetToBiomass,
+	evaluateStudy
+} from './evaluate';
+export {
+	simulatePlan,
+	isControlled,
+	type PlanRun,
+	type PlanCourse,
+	type PlanCourses,
+	type FeedDelivery
+} from './time-course';
 export { findRunoutTimes, findEmptyTime, type Runout, type RunoutInput } from './nutrient-runout';
 export * from './profile-yields';
 export * from './profile';

@@ -33,12 +33,19 @@ export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
 	const { t, biomassGPerL, volumeL } = course;
 	return input.lines.map((line) => {
 		const perGBiomass = line.demandGPerL / input.targetBiomassGPerL;
-		const conc = (source: StudySource) => (line.basis === 'element' ? source.composition.elementsGPerL : source.composition.componentsGPerL)[line.key] ?? 0;
+		const conc = (source: StudySource) =>
+			(line.basis === 'element'
+				? source.composition.elementsGPerL
+				: source.composition.componentsGPerL)[line.key] ?? 0;
 		const basalG = conc(input.basal) * input.initialVolumeL;
 		const feedConc = input.feeds.map(conc);
 		const deficit = (i: number) => {
 			let supply = basalG;
-			input.feeds.forEach((_, k) => (supply += feedConc[k] * Math.min(course.deliveries[k].cumulativeL[i], input.availableL[k])));
+			input.feeds.forEach(
+				(_, k) =>
+					(supply +=
+						feedConc[k] * Math.min(course.deliveries[k].cumulativeL[i], input.availableL[k]))
+			);
 			return perGBiomass * biomassGPerL[i] * volumeL[i] - supply;
 		};
 		let shortFromH: number | null = null;
@@ -50,7 +57,8 @@ export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
 			if (current > 0 && previous <= 0) {
 				shortFromH ??= zeroCrossingH(t, i, previous, current);
 				coveredAgainH = null;
-			} else if (current <= 0 && previous > 0) coveredAgainH = zeroCrossingH(t, i, previous, current);
+			} else if (current <= 0 && previous > 0)
+				coveredAgainH = zeroCrossingH(t, i, previous, current);
 			previous = current;
 		}
 		return shortFromH === null ? null : { shortFromH, coveredAgainH };
@@ -58,9 +66,14 @@ export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
 }
 
 /** When a feed with a limited volume has delivered all of it; null when it never empties. */
-export function findEmptyTime(t: number[], cumulativeL: number[], availableL: number): number | null {
+export function findEmptyTime(
+	t: number[],
+	cumulativeL: number[],
+	availableL: number
+): number | null {
 	for (let i = 1; i < t.length; i++) {
-		if (cumulativeL[i] > availableL) return zeroCrossingH(t, i, cumulativeL[i - 1] - availableL, cumulativeL[i] - availableL);
+		if (cumulativeL[i] > availableL)
+			return zeroCrossingH(t, i, cumulativeL[i - 1] - availableL, cumulativeL[i] - availableL);
 	}
 	return null;
 }

@@ -41,31 +41,55 @@ export function computeOxygenYieldFromUptake(muMaxPerH: number, qO2MmolPerGH: nu
  * with NH3 and one measured quantity: the RQ, or the yield on O2 (qO2 stands for Yx/O2 = μmax/qO2 at μmax).
  */
 export function balanceCarbonYield(f: YieldFields, substrateFormula: string): BalancedCarbonYield {
-	if (!f.biomassFormula) throw new ChemistryInputError('Enter the biomass formula: the element balance that gives Yx/s needs it.', { field: 'biomassFormula' });
+	if (!f.biomassFormula)
+		throw new ChemistryInputError(
+			'Enter the biomass formula: the element balance that gives Yx/s needs it.',
+			{ field: 'biomassFormula' }
+		);
 	let measured: Parameters<typeof solveAerobicGrowth>[0]['measured'];
 	let from: string;
 	if (f.yieldXSMethod === 'respiratoryQuotient') {
-		if (f.respiratoryQuotient === null) throw new ChemistryInputError('Enter the measured RQ (mol CO2 per mol O2) to work out Yx/s from it.', { field: 'respiratoryQuotient' });
+		if (f.respiratoryQuotient === null)
+			throw new ChemistryInputError(
+				'Enter the measured RQ (mol CO2 per mol O2) to work out Yx/s from it.',
+				{ field: 'respiratoryQuotient' }
+			);
 		measured = { kind: 'respiratoryQuotient', molCo2PerMolO2: f.respiratoryQuotient };
 		from = `RQ ${f.respiratoryQuotient}`;
 	} else if (f.yieldXO2GPerG !== null) {
 		measured = { kind: 'oxygenYield', gBiomassPerGO2: f.yieldXO2GPerG };
 		from = `Yx/O2 ${f.yieldXO2GPerG} g/g`;
 	} else if (f.qO2MmolPerGH !== null && f.muMaxPerH !== null) {
-		measured = { kind: 'oxygenYield', gBiomassPerGO2: computeOxygenYieldFromUptake(f.muMaxPerH, f.qO2MmolPerGH) };
+		measured = {
+			kind: 'oxygenYield',
+			gBiomassPerGO2: computeOxygenYieldFromUptake(f.muMaxPerH, f.qO2MmolPerGH)
+		};
 		from = `qO2 ${f.qO2MmolPerGH} mmol/(g·h) at μmax ${f.muMaxPerH} /h`;
 	} else {
-		throw new ChemistryInputError('Enter Yx/O2, or qO2 with μmax, to work out Yx/s from the oxygen yield.', { field: 'yieldXO2GPerG' });
+		throw new ChemistryInputError(
+			'Enter Yx/O2, or qO2 with μmax, to work out Yx/s from the oxygen yield.',
+			{ field: 'yieldXO2GPerG' }
+		);
 	}
 	let solved: ReturnType<typeof solveAerobicGrowth>;
 	try {
-		solved = solveAerobicGrowth({ substrateFormula, biomassFormula: f.biomassFormula, ashFraction: f.ashFraction ?? 0, measured });
+		solved = solveAerobicGrowth({
+			substrateFormula,
+			biomassFormula: f.biomassFormula,
+			ashFraction: f.ashFraction ?? 0,
+			measured
+		});
 	} catch (cause) {
 		// The balance fails for the method chosen, whichever of its inputs the solver names.
-		if (cause instanceof ChemistryInputError) throw new ChemistryInputError(cause.message, { field: 'yieldXSMethod' });
+		if (cause instanceof ChemistryInputError)
+			throw new ChemistryInputError(cause.message, { field: 'yieldXSMethod' });
 		throw cause;
 	}
-	return { yieldGPerG: Number(solved.biomassOnSubstrateGPerG.toPrecision(4)), elasticity: solved.yieldElasticity, from };
+	return {
+		yieldGPerG: Number(solved.biomassOnSubstrateGPerG.toPrecision(4)),
+		elasticity: solved.yieldElasticity,
+		from
+	};
 }
 
 /**
@@ -75,12 +99,16 @@ export function balanceCarbonYield(f: YieldFields, substrateFormula: string): Ba
 export function describeCarbonYield(f: YieldFields, carbonSourceFormula: string | null): string {
 	if (f.yieldXSMethod === 'entered') return 'Entered on the profile';
 	try {
-		if (!carbonSourceFormula) throw new ChemistryInputError('the carbon source has no formula in the library.');
+		if (!carbonSourceFormula)
+			throw new ChemistryInputError('the carbon source has no formula in the library.');
 		const b = balanceCarbonYield(f, carbonSourceFormula);
-		const sensitivity = Number.isFinite(b.elasticity) ? `; a 1 % error in it moves Yx/s by about ${Math.abs(b.elasticity).toPrecision(2)} %` : '; the value sits at the edge of what the balance allows';
+		const sensitivity = Number.isFinite(b.elasticity)
+			? `; a 1 % error in it moves Yx/s by about ${Math.abs(b.elasticity).toPrecision(2)} %`
+			: '; the value sits at the edge of what the balance allows';
 		return `Element balance (C, H, O, N; NH3 as N source) from ${b.from}${sensitivity}`;
 	} catch (cause) {
-		if (cause instanceof ChemistryInputError) return `Element balance, which now fails: ${cause.message}`;
+		if (cause instanceof ChemistryInputError)
+			return `Element balance, which now fails: ${cause.message}`;
 		throw cause;
 	}
 }

@@ -2,22 +2,36 @@ import { BIOMASS_COMPOSITIONS, STANDARD_BIOMASS_FORMULA } from '../data/biomass'
 import { ChemistryInputError } from '../errors';
 import { statementsOfComposition, type ElementStatement } from '../profile-elements';
 import { balanceAerobicGrowth } from '../substrate-yield';
-import type { CarbonDemand, ElementStatements, OrganismProfile, PerCellConsumption, SubstrateDemand } from '../sufficiency';
+import type {
+	CarbonDemand,
+	ElementStatements,
+	OrganismProfile,
+	PerCellConsumption,
+	SubstrateDemand
+} from '../sufficiency';
 import { StudyDataError } from './errors';
-import { computeOxygenYieldFromUptake, describeCarbonYield, describeSubstrateYield } from './profile-yields';
+import {
+	computeOxygenYieldFromUptake,
+	describeCarbonYield,
+	describeSubstrateYield
+} from './profile-yields';
 import type { DefaultUsed, StudyProfile } from './types';
 import { YIELD_METHOD_LABELS } from './vocabulary';
 
 function missing(profile: StudyProfile, what: string, field: string): never {
-	throw new StudyDataError(`The organism profile “${profile.name}” has no ${what}, which this study needs. Edit the profile and add it.`, {
-		field: `profile.${field}`
-	});
+	throw new StudyDataError(
+		`The organism profile “${profile.name}” has no ${what}, which this study needs. Edit the profile and add it.`,
+		{
+			field: `profile.${field}`
+		}
+	);
 }
 
 /** The growth numbers every study needs, whatever the profile's kind. */
 export function requireGrowthData(profile: StudyProfile) {
 	if (!profile.carbonSourceId) missing(profile, 'carbon source', 'carbonSourceId');
-	if (profile.yieldXSGPerG === null) missing(profile, 'yield on the carbon source (Yx/s)', 'yieldXSGPerG');
+	if (profile.yieldXSGPerG === null)
+		missing(profile, 'yield on the carbon source (Yx/s)', 'yieldXSGPerG');
 	if (profile.muMaxPerH === null) missing(profile, 'μmax', 'muMaxPerH');
 	if (profile.ksGPerL === null) missing(profile, 'Ks', 'ksGPerL');
 	return {
@@ -35,17 +49,31 @@ export interface ComponentFacts {
 }
 
 /** The yields a study uses, each with where it came from, for the report's list of values used. */
-export function listYieldsUsed(profile: StudyProfile, { componentNames, componentFormulas }: ComponentFacts): DefaultUsed[] {
+export function listYieldsUsed(
+	profile: StudyProfile,
+	{ componentNames, componentFormulas }: ComponentFacts
+): DefaultUsed[] {
 	const growth = requireGrowthData(profile);
 	const name = (id: string) => componentNames[id] ?? id;
 	return [
-		{ what: `Yx/s on ${name(growth.carbonSourceId)}`, value: `${growth.yieldXSGPerG} g/g`, source: describeCarbonYield(profile, componentFormulas[growth.carbonSourceId] ?? null) },
-		...profile.substrateYields.map((y) => ({ what: `Yx/s on ${name(y.componentId)}`, value: `${y.yieldGPerG} g/g`, source: describeSubstrateYield(y) }))
+		{
+			what: `Yx/s on ${name(growth.carbonSourceId)}`,
+			value: `${growth.yieldXSGPerG} g/g`,
+			source: describeCarbonYield(profile, componentFormulas[growth.carbonSourceId] ?? null)
+		},
+		...profile.substrateYields.map((y) => ({
+			what: `Yx/s on ${name(y.componentId)}`,
+			value: `${y.yieldGPerG} g/g`,
+			source: describeSubstrateYield(y)
+		}))
 	];
 }
 
 /** The yields for the profile page; none until the profile has its growth data. */
-export function listProfileYields(profile: StudyProfile, components: ComponentFacts): DefaultUsed[] {
+export function listProfileYields(
+	profile: StudyProfile,
+	components: ComponentFacts
+): DefaultUsed[] {
 	try {
 		return listYieldsUsed(profile, components);
 	} catch (cause) {
@@ -63,8 +91,12 @@ export interface ProfileElementFields {
 }
 
 /** The elements a profile gives a value for: its fractions and its per-cell element lines. */
-export function listProfileElements(p: Pick<ProfileElementFields, 'elementalFractions' | 'perCellConsumption'>): string[] {
-	const fromCells = (p.perCellConsumption ?? []).filter((c) => c.basis === 'element').map((c) => c.key);
+export function listProfileElements(
+	p: Pick<ProfileElementFields, 'elementalFractions' | 'perCellConsumption'>
+): string[] {
+	const fromCells = (p.perCellConsumption ?? [])
+		.filter((c) => c.basis === 'element')
+		.map((c) => c.key);
 	return [...new Set([...Object.keys(p.elementalFractions ?? {}), ...fromCells])];
 }
 
@@ -72,7 +104,11 @@ export function listProfileElements(p: Pick<ProfileElementFields, 'elementalFrac
  * The form keeps a published table's fractions to 4 significant digits; a fraction still at that
  * value, under that table's citation, is the table's value and carries its grade.
  */
-function tableStatement(symbol: string, fraction: number | undefined, source: string | null): ElementStatement | undefined {
+function tableStatement(
+	symbol: string,
+	fraction: number | undefined,
+	source: string | null
+): ElementStatement | undefined {
 	if (fraction === undefined || !source) return undefined;
 	const table = BIOMASS_COMPOSITIONS.find((b) => b.source === source);
 	const published = table?.massFractions[symbol];
@@ -93,7 +129,9 @@ export function resolveElementStatements(p: ProfileElementFields): ElementStatem
 			out[symbol] = stored;
 			continue;
 		}
-		out[symbol] = tableStatement(symbol, p.elementalFractions?.[symbol], p.fractionsSource) ?? (p.fractionsSource ? { source: p.fractionsSource } : {});
+		out[symbol] =
+			tableStatement(symbol, p.elementalFractions?.[symbol], p.fractionsSource) ??
+			(p.fractionsSource ? { source: p.fractionsSource } : {});
 	}
 	return out;
 }
@@ -102,7 +140,11 @@ export function resolveElementStatements(p: ProfileElementFields): ElementStatem
  * The profile as the sufficiency engine reads it, with the carbon rule and the further substrates;
  * each element with its role and confidence, each yield with how it was obtained.
  */
-export function toSufficiencyProfile(profile: StudyProfile): { profile: OrganismProfile; carbon?: CarbonDemand; substrates: SubstrateDemand[] } {
+export function toSufficiencyProfile(profile: StudyProfile): {
+	profile: OrganismProfile;
+	carbon?: CarbonDemand;
+	substrates: SubstrateDemand[];
+} {
 	const cellDryMassPg = profile.cellDryMassPg ?? undefined;
 	const growth = requireGrowthData(profile);
 	const elements = resolveElementStatements(profile);
@@ -120,7 +162,10 @@ export function toSufficiencyProfile(profile: StudyProfile): { profile: Organism
 		yieldGPerG: growth.yieldXSGPerG,
 		// The form offers "Entered (measured)"; the balance methods work it out from a measurement.
 		confidence: profile.yieldXSMethod === 'entered' ? 'measured' : 'derived',
-		source: profile.yieldXSMethod === 'entered' ? 'Entered on the profile' : `${YIELD_METHOD_LABELS[profile.yieldXSMethod]} (see the yields a study uses)`
+		source:
+			profile.yieldXSMethod === 'entered'
+				? 'Entered on the profile'
+				: `${YIELD_METHOD_LABELS[profile.yieldXSMethod]} (see the yields a study uses)`
 	};
 	switch (profile.kind) {
 		case 'elementalFractions':
@@ -134,22 +179,46 @@ export function toSufficiencyProfile(profile: StudyProfile): { profile: Organism
 					fractions: profile.elementalFractions,
 					cellDryMassPg,
 					elements,
-					...(profile.biomassFormula ? { formula: profile.biomassFormula, ashFraction: profile.ashFraction ?? undefined } : {})
+					...(profile.biomassFormula
+						? { formula: profile.biomassFormula, ashFraction: profile.ashFraction ?? undefined }
+						: {})
 				},
 				carbon,
 				substrates
 			};
 		case 'componentRequirements':
-			if (!profile.componentRequirements || Object.keys(profile.componentRequirements).length === 0) {
+			if (
+				!profile.componentRequirements ||
+				Object.keys(profile.componentRequirements).length === 0
+			) {
 				missing(profile, 'component requirements', 'componentRequirements');
 			}
-			return { profile: { kind: 'componentRequirements', name: profile.name, requirementsGPerG: profile.componentRequirements, cellDryMassPg }, carbon, substrates };
+			return {
+				profile: {
+					kind: 'componentRequirements',
+					name: profile.name,
+					requirementsGPerG: profile.componentRequirements,
+					cellDryMassPg
+				},
+				carbon,
+				substrates
+			};
 		case 'perCell':
 			if (!profile.perCellConsumption || profile.perCellConsumption.length === 0) {
 				missing(profile, 'per-cell consumption rates', 'perCellConsumption');
 			}
-			if (profile.cellDryMassPg === null) missing(profile, 'cell dry mass (pg/cell)', 'cellDryMassPg');
-			return { profile: { kind: 'perCell', name: profile.name, consumption: profile.perCellConsumption, cellDryMassPg, elements }, substrates };
+			if (profile.cellDryMassPg === null)
+				missing(profile, 'cell dry mass (pg/cell)', 'cellDryMassPg');
+			return {
+				profile: {
+					kind: 'perCell',
+					name: profile.name,
+					consumption: profile.perCellConsumption,
+					cellDryMassPg,
+					elements
+				},
+				substrates
+			};
 	}
 }
 
@@ -157,7 +226,11 @@ export function toSufficiencyProfile(profile: StudyProfile): { profile: Organism
  * Yx/O2 in g biomass per g O2: entered; else from qO2 taken at μmax (a culture growing at μmax
  * respires qO2 = μmax / Yx/O2); else from the element balance with Yx/s. The route taken is listed.
  */
-export function resolveOxygenYield(profile: StudyProfile, carbonSourceFormula: string | null, defaults: DefaultUsed[]): number {
+export function resolveOxygenYield(
+	profile: StudyProfile,
+	carbonSourceFormula: string | null,
+	defaults: DefaultUsed[]
+): number {
 	if (profile.yieldXO2GPerG !== null) return profile.yieldXO2GPerG;
 	const growth = requireGrowthData(profile);
 	if (profile.qO2MmolPerGH !== null) {
@@ -169,13 +242,27 @@ export function resolveOxygenYield(profile: StudyProfile, carbonSourceFormula: s
 		});
 		return y;
 	}
-	if (!carbonSourceFormula) missing(profile, 'Yx/O2 or qO2 (and the carbon source has no formula for an element balance)', 'yieldXO2GPerG');
+	if (!carbonSourceFormula)
+		missing(
+			profile,
+			'Yx/O2 or qO2 (and the carbon source has no formula for an element balance)',
+			'yieldXO2GPerG'
+		);
 	const biomassFormula = profile.biomassFormula ?? STANDARD_BIOMASS_FORMULA;
 	const ash = profile.ashFraction ?? 0;
 	if (!profile.biomassFormula) {
-		defaults.push({ what: 'Biomass formula for the element balance', value: STANDARD_BIOMASS_FORMULA, source: 'Standard biomass formula (Roels 1983; Heijnen)' });
+		defaults.push({
+			what: 'Biomass formula for the element balance',
+			value: STANDARD_BIOMASS_FORMULA,
+			source: 'Standard biomass formula (Roels 1983; Heijnen)'
+		});
 	}
-	if (profile.ashFraction === null) defaults.push({ what: 'Ash fraction for the element balance', value: '0', source: 'Not entered on the profile' });
+	if (profile.ashFraction === null)
+		defaults.push({
+			what: 'Ash fraction for the element balance',
+			value: '0',
+			source: 'Not entered on the profile'
+		});
 	try {
 		const y = balanceAerobicGrowth({
 			substrateFormula: carbonSourceFormula,

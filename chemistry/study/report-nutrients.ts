@@ -1,5 +1,10 @@
 import { DEFAULT_ELEMENT_ROLES_BASIS } from '../data/element-roles';
-import { DEFAULT_IGNORED_ELEMENTS, DEFAULT_SAFETY_FACTOR, assessSufficiency, type SufficiencyResult } from '../sufficiency';
+import {
+	DEFAULT_IGNORED_ELEMENTS,
+	DEFAULT_SAFETY_FACTOR,
+	assessSufficiency,
+	type SufficiencyResult
+} from '../sufficiency';
 import { asStudyDataError } from './errors';
 import { findEmptyTime, findRunoutTimes } from './nutrient-runout';
 import { listYieldsUsed, toSufficiencyProfile } from './profile';
@@ -24,16 +29,35 @@ export function nameOf(inputs: StudyInputs, key: string, basis: 'element' | 'com
 
 function listNutrientDefaults(inputs: StudyInputs, sufficiency: SufficiencyResult, log: ReportLog) {
 	const { plan, profile } = inputs;
-	if (plan.safetyFactor === DEFAULT_SAFETY_FACTOR) defaults(log, { what: 'Safety factor', value: String(DEFAULT_SAFETY_FACTOR), source: 'Common practice (the study keeps the suggested value)' });
+	if (plan.safetyFactor === DEFAULT_SAFETY_FACTOR)
+		defaults(log, {
+			what: 'Safety factor',
+			value: String(DEFAULT_SAFETY_FACTOR),
+			source: 'Common practice (the study keeps the suggested value)'
+		});
 	if (profile.kind === 'elementalFractions') {
-		defaults(log, { what: 'Elements not assessed', value: DEFAULT_IGNORED_ELEMENTS.join(', '), source: 'Cells take H and O from water and O2, not from dissolved salts' });
+		defaults(log, {
+			what: 'Elements not assessed',
+			value: DEFAULT_IGNORED_ELEMENTS.join(', '),
+			source: 'Cells take H and O from water and O2, not from dissolved salts'
+		});
 	}
 	if (profile.elementalFractions && profile.fractionsSource) {
-		defaults(log, { what: 'Elemental mass fractions', value: 'from the profile', source: profile.fractionsSource });
+		defaults(log, {
+			what: 'Elemental mass fractions',
+			value: 'from the profile',
+			source: profile.fractionsSource
+		});
 	}
-	const ownRoles = sufficiency.lines.filter((l) => l.roleFrom === 'profile').map((l) => `${l.key} ${l.role}`);
+	const ownRoles = sufficiency.lines
+		.filter((l) => l.roleFrom === 'profile')
+		.map((l) => `${l.key} ${l.role}`);
 	if (sufficiency.lines.some((l) => l.basis === 'element' && l.roleFrom === 'default')) {
-		defaults(log, { what: 'Roles of the elements (required or trace)', value: ownRoles.length ? `default, except ${ownRoles.join(', ')} (the profile's)` : 'default', source: DEFAULT_ELEMENT_ROLES_BASIS });
+		defaults(log, {
+			what: 'Roles of the elements (required or trace)',
+			value: ownRoles.length ? `default, except ${ownRoles.join(', ')} (the profile's)` : 'default',
+			source: DEFAULT_ELEMENT_ROLES_BASIS
+		});
 	}
 }
 
@@ -44,13 +68,22 @@ const defaults = (log: ReportLog, entry: ReportLog['defaults'][number]) => log.d
  * drew from it, at most what is available) supply against safety factor × demand, with the time
  * each nutrient runs out along the simulated run.
  */
-export function assessNutrients(inputs: StudyInputs, point: OperatingPoint, run: StudyRun, log: ReportLog): NutrientSection {
+export function assessNutrients(
+	inputs: StudyInputs,
+	point: OperatingPoint,
+	run: StudyRun,
+	log: ReportLog
+): NutrientSection {
 	const { plan } = inputs;
 	const { feeds, target } = point;
 	const { simulated, growth } = run;
 	const { profile: sufficiencyProfile, carbon, substrates } = toSufficiencyProfile(inputs.profile);
 	log.defaults.push(...listYieldsUsed(inputs.profile, inputs));
-	const usedL = feeds.map((f, k) => (isControlled(f) && simulated ? Math.min(simulated.deliveries[k].deliveredL, f.volumeL) : f.volumeL));
+	const usedL = feeds.map((f, k) =>
+		isControlled(f) && simulated
+			? Math.min(simulated.deliveries[k].deliveredL, f.volumeL)
+			: f.volumeL
+	);
 	const feedUsedL = usedL.reduce((a, b) => a + b, 0);
 	const finalVolumeL = plan.initialVolumeL + feedUsedL;
 	const sufficiency: SufficiencyResult = asStudyDataError(() =>
@@ -61,7 +94,9 @@ export function assessNutrients(inputs: StudyInputs, point: OperatingPoint, run:
 				finalVolumeL,
 				sources: [
 					{ name: inputs.basal.label, volumeL: plan.initialVolumeL, ...inputs.basal.composition },
-					...feeds.flatMap((f, k) => (usedL[k] > 0 ? [{ name: f.label, volumeL: usedL[k], ...f.composition }] : []))
+					...feeds.flatMap((f, k) =>
+						usedL[k] > 0 ? [{ name: f.label, volumeL: usedL[k], ...f.composition }] : []
+					)
 				]
 			},
 			safetyFactor: plan.safetyFactor,
@@ -71,7 +106,15 @@ export function assessNutrients(inputs: StudyInputs, point: OperatingPoint, run:
 	);
 	listNutrientDefaults(inputs, sufficiency, log);
 	const runouts = simulated
-		? findRunoutTimes({ lines: sufficiency.lines, targetBiomassGPerL: target.biomassGPerL, basal: inputs.basal, initialVolumeL: plan.initialVolumeL, feeds, availableL: feeds.map((f) => f.volumeL), course: simulated })
+		? findRunoutTimes({
+				lines: sufficiency.lines,
+				targetBiomassGPerL: target.biomassGPerL,
+				basal: inputs.basal,
+				initialVolumeL: plan.initialVolumeL,
+				feeds,
+				availableL: feeds.map((f) => f.volumeL),
+				course: simulated
+			})
 		: sufficiency.lines.map(() => null);
 	const lines = sufficiency.lines.map((l, i) => ({
 		...l,
@@ -80,7 +123,9 @@ export function assessNutrients(inputs: StudyInputs, point: OperatingPoint, run:
 		runout: l.basis === 'component' && l.key === growth.carbonSourceId ? null : runouts[i]
 	}));
 	// Only required nutrients limit; a short trace element is among the warnings.
-	const limitLine = lines.find((l) => l.key === sufficiency.limiting!.key && l.basis === sufficiency.limiting!.basis)!;
+	const limitLine = lines.find(
+		(l) => l.key === sufficiency.limiting!.key && l.basis === sufficiency.limiting!.basis
+	)!;
 	if (!sufficiency.sufficient) {
 		const short = lines.filter((l) => l.role === 'required' && !l.sufficient).map((l) => l.name);
 		log.reasons.push(
@@ -91,17 +136,37 @@ export function assessNutrients(inputs: StudyInputs, point: OperatingPoint, run:
 }
 
 /** Each feed as planned and as the run drew it; a controlled feed that runs dry is a reason. */
-export function reportFeeds(point: OperatingPoint, run: StudyRun, usedL: number[], log: ReportLog): FeedReport[] {
+export function reportFeeds(
+	point: OperatingPoint,
+	run: StudyRun,
+	usedL: number[],
+	log: ReportLog
+): FeedReport[] {
 	const { simulated } = run;
 	const feedReports: FeedReport[] = point.feeds.map((f, k) => {
 		const controlled = isControlled(f);
 		const delivery = simulated?.deliveries[k] ?? null;
-		const emptyAtH = controlled && simulated && delivery ? findEmptyTime(simulated.t, delivery.cumulativeL, f.volumeL) : null;
-		return { label: f.label, versionId: f.versionId, strategy: f.plan.strategy, startH: f.plan.startH, controlled, volumeL: f.volumeL, deliveredL: delivery?.deliveredL ?? null, usedL: usedL[k], emptyAtH };
+		const emptyAtH =
+			controlled && simulated && delivery
+				? findEmptyTime(simulated.t, delivery.cumulativeL, f.volumeL)
+				: null;
+		return {
+			label: f.label,
+			versionId: f.versionId,
+			strategy: f.plan.strategy,
+			startH: f.plan.startH,
+			controlled,
+			volumeL: f.volumeL,
+			deliveredL: delivery?.deliveredL ?? null,
+			usedL: usedL[k],
+			emptyAtH
+		};
 	});
 	for (const f of feedReports) {
 		if (f.emptyAtH !== null) {
-			log.reasons.push(`${f.label} runs dry at about ${f.emptyAtH.toFixed(0)} h: its plan would draw ${f.deliveredL!.toPrecision(3)} L, but ${f.volumeL} L are available.`);
+			log.reasons.push(
+				`${f.label} runs dry at about ${f.emptyAtH.toFixed(0)} h: its plan would draw ${f.deliveredL!.toPrecision(3)} L, but ${f.volumeL} L are available.`
+			);
 		}
 	}
 	return feedReports;
@@ -112,8 +177,13 @@ export function reportFeeds(point: OperatingPoint, run: StudyRun, usedL: number[
  * below 1); one the feeds make good later is a warning: the totals hold, but growth would pause or
  * slow in between, which the time course (growing on the carbon source alone) does not show.
  */
-export function describeRunouts(lines: NutrientRow[], carbonName: string): { notes: string[]; warnings: string[] } {
-	const short = lines.filter((l) => l.runout !== null).sort((a, b) => a.runout!.shortFromH - b.runout!.shortFromH);
+export function describeRunouts(
+	lines: NutrientRow[],
+	carbonName: string
+): { notes: string[]; warnings: string[] } {
+	const short = lines
+		.filter((l) => l.runout !== null)
+		.sort((a, b) => a.runout!.shortFromH - b.runout!.shortFromH);
 	if (short.length === 0) return { notes: [], warnings: [] };
 	// A trace element that stays short already has its warning, and does not stop growth.
 	const lasting = short.filter((l) => l.runout!.coveredAgainH === null && l.role === 'required');
@@ -121,7 +191,10 @@ export function describeRunouts(lines: NutrientRow[], carbonName: string): { not
 	return {
 		notes: [
 			`The time course grows on ${carbonName} alone; the other nutrients are followed by their demand per g of biomass.`,
-			...lasting.map(({ name, runout }) => `${name} runs out at about ${runout!.shortFromH.toFixed(0)} h and stays short: a real run would stop growing there.`)
+			...lasting.map(
+				({ name, runout }) =>
+					`${name} runs out at about ${runout!.shortFromH.toFixed(0)} h and stays short: a real run would stop growing there.`
+			)
 		],
 		warnings: passing.map(
 			({ name, runout }) =>

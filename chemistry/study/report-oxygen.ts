@@ -25,22 +25,50 @@ export interface OxygenLoad {
  * culture there; growth the feeds would carry beyond it is noted, not required. Without a run, a rough
  * estimate μmax · X_target / Yx/O2 over the final volume, and never "supported".
  */
-export function findOxygenLoad(inputs: StudyInputs, point: OperatingPoint, run: StudyRun, finalVolumeL: number, log: ReportLog): OxygenLoad {
+export function findOxygenLoad(
+	inputs: StudyInputs,
+	point: OperatingPoint,
+	run: StudyRun,
+	finalVolumeL: number,
+	log: ReportLog
+): OxygenLoad {
 	const { demandCourse, courses, growth } = run;
 	if (!demandCourse) {
 		const estimate = asStudyDataError(
-			() => computeOxygenUptakeRate({ specificGrowthRatePerH: growth.muMaxPerH, biomassGPerL: point.target.biomassGPerL, yieldBiomassOnOxygenGPerG: run.yieldXO2GPerG }).mmolPerLH
+			() =>
+				computeOxygenUptakeRate({
+					specificGrowthRatePerH: growth.muMaxPerH,
+					biomassGPerL: point.target.biomassGPerL,
+					yieldBiomassOnOxygenGPerG: run.yieldXO2GPerG
+				}).mmolPerLH
 		);
-		const peakOurOrigin = 'μmax · X_target / Yx/O2, a rough estimate: the plan could not be simulated';
-		log.defaults.push({ what: 'Peak OUR', value: `${estimate.toPrecision(3)} mmol/(L·h)`, source: peakOurOrigin });
-		log.reasons.push(`The plan cannot be simulated (${'message' in courses.demand ? courses.demand.message : 'no time course'}), so its oxygen and heat load are rough estimates and it cannot be called supported.`);
-		return { peakOurMmolPerLH: estimate, uptakeOurMmolPerLH: estimate, uptakeVolumeL: finalVolumeL, atH: null, peakOurOrigin, lowerBound: true };
+		const peakOurOrigin =
+			'μmax · X_target / Yx/O2, a rough estimate: the plan could not be simulated';
+		log.defaults.push({
+			what: 'Peak OUR',
+			value: `${estimate.toPrecision(3)} mmol/(L·h)`,
+			source: peakOurOrigin
+		});
+		log.reasons.push(
+			`The plan cannot be simulated (${'message' in courses.demand ? courses.demand.message : 'no time course'}), so its oxygen and heat load are rough estimates and it cannot be called supported.`
+		);
+		return {
+			peakOurMmolPerLH: estimate,
+			uptakeOurMmolPerLH: estimate,
+			uptakeVolumeL: finalVolumeL,
+			atH: null,
+			peakOurOrigin,
+			lowerBound: true
+		};
 	}
 	const untilH = demandCourse.targetReachedAtH ?? Infinity;
 	const peak = findPeakOxygenLoad(demandCourse, untilH);
 	const peakOurOrigin = `the O2 demand of the plan as written${demandCourse.targetReachedAtH === null ? '' : ' up to the target'}, at ${hours(peak.peakOurAtH)}: the growth the feeds support, not held back by this vessel's transfer`;
 	const beyond = findPeakOxygenLoad(demandCourse);
-	if (demandCourse.targetReachedAtH !== null && beyond.peakOurMmolPerLH > 1.01 * peak.peakOurMmolPerLH) {
+	if (
+		demandCourse.targetReachedAtH !== null &&
+		beyond.peakOurMmolPerLH > 1.01 * peak.peakOurMmolPerLH
+	) {
 		log.notes.push(
 			`The plan reaches the target at ${hours(demandCourse.targetReachedAtH)} and feeds on: run to its end, its O2 demand rises to ${beyond.peakOurMmolPerLH.toPrecision(3)} mmol/(L·h) at ${hours(beyond.peakOurAtH)}, beyond what the target needs.`
 		);
@@ -51,11 +79,25 @@ export function findOxygenLoad(inputs: StudyInputs, point: OperatingPoint, run: 
 			`The plan fills the vessel at ${hours(demandCourse.stoppedAtH)}, before its end at ${hours(inputs.plan.durationH)}; the oxygen and heat figures cover the run only that far, so they are lower bounds.`
 		);
 	}
-	return { peakOurMmolPerLH: peak.peakOurMmolPerLH, uptakeOurMmolPerLH: peak.peakUptakeOurMmolPerLH, uptakeVolumeL: peak.peakUptakeVolumeL, atH: peak.peakOurAtH, peakOurOrigin, lowerBound };
+	return {
+		peakOurMmolPerLH: peak.peakOurMmolPerLH,
+		uptakeOurMmolPerLH: peak.peakUptakeOurMmolPerLH,
+		uptakeVolumeL: peak.peakUptakeVolumeL,
+		atH: peak.peakOurAtH,
+		peakOurOrigin,
+		lowerBound
+	};
 }
 
 /** Oxygen: the demand of the plan as written against what the vessel transfers at the DO setpoint. */
-export function assessOxygen(inputs: StudyInputs, point: OperatingPoint, run: StudyRun, load: OxygenLoad, finalVolumeL: number, log: ReportLog): StudyReport['oxygen'] {
+export function assessOxygen(
+	inputs: StudyInputs,
+	point: OperatingPoint,
+	run: StudyRun,
+	load: OxygenLoad,
+	finalVolumeL: number,
+	log: ReportLog
+): StudyReport['oxygen'] {
 	const { plan, vessel } = inputs;
 	const { o2MoleFraction, temperatureC, kLaPerH, target } = point;
 	const transfer = asStudyDataError(() =>
@@ -70,7 +112,8 @@ export function assessOxygen(inputs: StudyInputs, point: OperatingPoint, run: St
 	const kLaRecommendedPerH = roundUpToSignificant(transfer.kLaNeededPerH);
 	const o2MoleFractionRecommended = roundUpToSignificant(transfer.o2MoleFractionNeeded);
 	const enriched = o2MoleFraction > AIR_O2_MOLE_FRACTION + AIR_FRACTION_TOLERANCE;
-	const biomassFormedG = target.biomassGPerL * finalVolumeL - run.initialBiomassGPerL * plan.initialVolumeL;
+	const biomassFormedG =
+		target.biomassGPerL * finalVolumeL - run.initialBiomassGPerL * plan.initialVolumeL;
 	const oxygenDemand = computeOxygenDemand({
 		yieldBiomassOnOxygenGPerG: run.yieldXO2GPerG,
 		biomassProducedGPerL: Math.max(0, biomassFormedG / finalVolumeL),
@@ -97,10 +140,19 @@ export function assessOxygen(inputs: StudyInputs, point: OperatingPoint, run: St
 	}
 	if (enriched && !vessel.o2EnrichmentAllowed) {
 		oxygenOk = false;
-		log.reasons.push(`The plan sparges ${(o2MoleFraction * 100).toFixed(0)} % O2, but the vessel “${vessel.name}” does not allow O2 enrichment.`);
+		log.reasons.push(
+			`The plan sparges ${(o2MoleFraction * 100).toFixed(0)} % O2, but the vessel “${vessel.name}” does not allow O2 enrichment.`
+		);
 	}
-	if (o2MoleFraction === plan.o2MoleFraction && Math.abs(o2MoleFraction - AIR_O2_MOLE_FRACTION) < AIR_FRACTION_TOLERANCE) {
-		log.defaults.push({ what: 'Inlet gas', value: `air, O2 mole fraction ${AIR_O2_MOLE_FRACTION}`, source: 'Dry air' });
+	if (
+		o2MoleFraction === plan.o2MoleFraction &&
+		Math.abs(o2MoleFraction - AIR_O2_MOLE_FRACTION) < AIR_FRACTION_TOLERANCE
+	) {
+		log.defaults.push({
+			what: 'Inlet gas',
+			value: `air, O2 mole fraction ${AIR_O2_MOLE_FRACTION}`,
+			source: 'Dry air'
+		});
 	}
 	return {
 		check: oxygenOk ? 'ok' : 'short',
@@ -126,11 +178,21 @@ export function assessOxygen(inputs: StudyInputs, point: OperatingPoint, run: St
 }
 
 /** Heat: metabolic heat at the peak of the whole culture's uptake, OUR·V, plus the agitator, against the cooling. */
-export function assessHeat(inputs: StudyInputs, run: StudyRun, load: OxygenLoad, log: ReportLog): StudyReport['heat'] {
+export function assessHeat(
+	inputs: StudyInputs,
+	run: StudyRun,
+	load: OxygenLoad,
+	log: ReportLog
+): StudyReport['heat'] {
 	const { plan, vessel } = inputs;
 	const heatPerMolO2KJ = plan.heatPerMolO2KJ ?? DEFAULT_HEAT_PER_MOL_O2_KJ;
 	const agitationPowerW = vessel.agitationPowerW ?? 0;
-	if (vessel.agitationPowerW === null) log.defaults.push({ what: 'Agitation power added to the heat load', value: '0 W', source: 'Not entered for the vessel' });
+	if (vessel.agitationPowerW === null)
+		log.defaults.push({
+			what: 'Agitation power added to the heat load',
+			value: '0 W',
+			source: 'Not entered for the vessel'
+		});
 	const cooling = assessCooling({
 		ourMmolPerLH: load.uptakeOurMmolPerLH,
 		workingVolumeL: load.uptakeVolumeL,
@@ -139,16 +201,24 @@ export function assessHeat(inputs: StudyInputs, run: StudyRun, load: OxygenLoad,
 		agitationPowerW
 	});
 	if (plan.heatPerMolO2KJ === null) {
-		log.defaults.push({ what: 'Heat per mol O2 consumed', value: `${DEFAULT_HEAT_PER_MOL_O2_KJ} kJ/mol`, source: DEFAULT_HEAT_PER_MOL_O2_SOURCE });
+		log.defaults.push({
+			what: 'Heat per mol O2 consumed',
+			value: `${DEFAULT_HEAT_PER_MOL_O2_KJ} kJ/mol`,
+			source: DEFAULT_HEAT_PER_MOL_O2_SOURCE
+		});
 	}
 	log.defaults.push({
 		what: 'Heat load taken at',
 		value: run.demandCourse
 			? `the peak of OUR × volume, ${load.uptakeOurMmolPerLH.toPrecision(3)} mmol/(L·h) in ${load.uptakeVolumeL.toPrecision(3)} L`
 			: 'the estimated peak OUR over the final volume',
-		source: 'Metabolic heat in proportion to the O2 consumed (Cooney, Wang & Mateles 1969), plus the agitator power'
+		source:
+			'Metabolic heat in proportion to the O2 consumed (Cooney, Wang & Mateles 1969), plus the agitator power'
 	});
-	if (cooling.verdict !== 'sufficient') log.reasons.push(`Heat load ${cooling.heatLoadW.toFixed(0)} W exceeds the cooling capacity of ${vessel.coolingCapacityW} W.`);
+	if (cooling.verdict !== 'sufficient')
+		log.reasons.push(
+			`Heat load ${cooling.heatLoadW.toFixed(0)} W exceeds the cooling capacity of ${vessel.coolingCapacityW} W.`
+		);
 	return {
 		check: cooling.verdict === 'sufficient' && !load.lowerBound ? 'ok' : 'short',
 		heatLoadW: cooling.heatLoadW,

@@ -1,5 +1,11 @@
 import { ChemistryInputError } from '../errors';
-import { SimulationFailedError, simulateRun, type FeedInput, type SimulationRequest, type SimulationResult } from '../simulation';
+import {
+	SimulationFailedError,
+	simulateRun,
+	type FeedInput,
+	type SimulationRequest,
+	type SimulationResult
+} from '../simulation';
 import { StudyDataError } from './errors';
 import type { DefaultUsed, StudyFeedSource, StudyInputs, TimeCourse } from './types';
 import { isControlledPlan } from './vocabulary';
@@ -58,27 +64,54 @@ function toStream(run: PlanRun, feed: StudyFeedSource): FeedInput {
 		case 'constant':
 			return { ...common, strategy: 'constant', rateLPerH: feed.volumeL / spanH };
 		case 'linear':
-			return { ...common, strategy: 'linear', rateLPerH: 0, slopeLPerH2: (2 * feed.volumeL) / spanH ** 2 };
+			return {
+				...common,
+				strategy: 'linear',
+				rateLPerH: 0,
+				slopeLPerH2: (2 * feed.volumeL) / spanH ** 2
+			};
 		case 'exponential': {
 			const mu = plan.muSetPerH!;
 			// F(t) = F0·e^{μ(t − t0)} with F0 chosen so that ∫ F dt over the span is the planned volume.
 			const f0 = (feed.volumeL * mu) / Math.expm1(mu * spanH);
-			return { ...common, strategy: 'expression', expression: `${f0} * exp(${mu} * (t - ${plan.startH}))` };
+			return {
+				...common,
+				strategy: 'expression',
+				expression: `${f0} * exp(${mu} * (t - ${plan.startH}))`
+			};
 		}
 		case 'substrateStat': {
 			const slot = run.feeds.indexOf(feed) + 1;
-			const carbon = run.inputs.componentNames[run.growth.carbonSourceId] ?? run.growth.carbonSourceId;
-			const initialGPerL = run.inputs.basal.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0;
+			const carbon =
+				run.inputs.componentNames[run.growth.carbonSourceId] ?? run.growth.carbonSourceId;
+			const initialGPerL =
+				run.inputs.basal.composition.componentsGPerL[run.growth.carbonSourceId] ?? 0;
 			if (substrateGPerL <= plan.setpointGPerL! || substrateGPerL <= initialGPerL) {
-				const what = substrateGPerL === 0 ? `carries no ${carbon}` : `carries ${substrateGPerL.toPrecision(3)} g/L ${carbon}, not more than ${substrateGPerL <= plan.setpointGPerL! ? `the setpoint of ${plan.setpointGPerL} g/L` : `the basal medium's ${initialGPerL.toPrecision(3)} g/L`}`;
-				throw new StudyDataError(`${feed.label} ${what}, so a substrate-stat plan cannot hold ${carbon} at its setpoint with it. Choose another plan for this feed, or a feed that carries more ${carbon}.`, {
-					field: `feed${slot}Strategy`
-				});
+				const what =
+					substrateGPerL === 0
+						? `carries no ${carbon}`
+						: `carries ${substrateGPerL.toPrecision(3)} g/L ${carbon}, not more than ${substrateGPerL <= plan.setpointGPerL! ? `the setpoint of ${plan.setpointGPerL} g/L` : `the basal medium's ${initialGPerL.toPrecision(3)} g/L`}`;
+				throw new StudyDataError(
+					`${feed.label} ${what}, so a substrate-stat plan cannot hold ${carbon} at its setpoint with it. Choose another plan for this feed, or a feed that carries more ${carbon}.`,
+					{
+						field: `feed${slot}Strategy`
+					}
+				);
 			}
-			return { ...common, strategy: 'substrateStat', setpointGPerL: plan.setpointGPerL!, maxRateLPerH: plan.maxRateLPerH! };
+			return {
+				...common,
+				strategy: 'substrateStat',
+				setpointGPerL: plan.setpointGPerL!,
+				maxRateLPerH: plan.maxRateLPerH!
+			};
 		}
 		case 'doStat':
-			return { ...common, strategy: 'doStat', doSetpointMgPerL: (plan.doSetpointPercent! / 100) * run.airSaturationMgPerL, maxRateLPerH: plan.maxRateLPerH! };
+			return {
+				...common,
+				strategy: 'doStat',
+				doSetpointMgPerL: (plan.doSetpointPercent! / 100) * run.airSaturationMgPerL,
+				maxRateLPerH: plan.maxRateLPerH!
+			};
 	}
 }
 
@@ -93,7 +126,11 @@ const STREAM_FIELD_TO_SLOT: Record<string, string> = {
 };
 
 /** A stream's field `feeds.N.x` as the study form's field of that feed. */
-function studyFieldOf(field: string | undefined, streamFeeds: StudyFeedSource[], feeds: StudyFeedSource[]): string | undefined {
+function studyFieldOf(
+	field: string | undefined,
+	streamFeeds: StudyFeedSource[],
+	feeds: StudyFeedSource[]
+): string | undefined {
 	const m = /^feeds\.(\d+)\.(\w+)/.exec(field ?? '');
 	if (!m) return field;
 	const slot = feeds.indexOf(streamFeeds[Number(m[1])]) + 1;
@@ -107,7 +144,10 @@ function studyFieldOf(field: string | undefined, streamFeeds: StudyFeedSource[],
 function cumulative(t: number[], rate: number[], startH: number, totalL: number): number[] {
 	const out = new Array<number>(t.length).fill(0);
 	for (let i = 1; i < t.length; i++) {
-		const step = t[i - 1] < startH ? rate[i] * Math.max(0, t[i] - startH) : 0.5 * (rate[i] + rate[i - 1]) * (t[i] - t[i - 1]);
+		const step =
+			t[i - 1] < startH
+				? rate[i] * Math.max(0, t[i] - startH)
+				: 0.5 * (rate[i] + rate[i - 1]) * (t[i] - t[i - 1]);
 		out[i] = out[i - 1] + step;
 	}
 	const last = out[out.length - 1];
@@ -123,13 +163,20 @@ function findCrossingH(t: number[], values: number[], level: number): number | n
 }
 
 /** The run's series as the report keeps them, with each feed's delivery. */
-function toCourse(run: PlanRun, result: SimulationResult, streamFeeds: StudyFeedSource[]): PlanCourse {
+function toCourse(
+	run: PlanRun,
+	result: SimulationResult,
+	streamFeeds: StudyFeedSource[]
+): PlanCourse {
 	const last = result.biomassGPerL.length - 1;
 	const streams = result.feedStreams ?? [];
 	const deliveries = run.feeds.map((f) => {
 		const k = streamFeeds.indexOf(f);
 		if (k < 0) return { deliveredL: 0, cumulativeL: new Array<number>(result.t.length).fill(0) };
-		return { deliveredL: streams[k].deliveredL, cumulativeL: cumulative(result.t, streams[k].feedLPerH, f.plan.startH, streams[k].deliveredL) };
+		return {
+			deliveredL: streams[k].deliveredL,
+			cumulativeL: cumulative(result.t, streams[k].feedLPerH, f.plan.startH, streams[k].deliveredL)
+		};
 	});
 	return {
 		t: result.t,
@@ -142,7 +189,9 @@ function toCourse(run: PlanRun, result: SimulationResult, streamFeeds: StudyFeed
 		oxygenLimitedH: result.oxygenLimitedH ?? [],
 		events: result.events,
 		finalBiomassGPerL: result.biomassGPerL[last],
-		reachesTarget: result.biomassGPerL.some((x) => x >= run.targetBiomassGPerL * run.reachesFraction),
+		reachesTarget: result.biomassGPerL.some(
+			(x) => x >= run.targetBiomassGPerL * run.reachesFraction
+		),
 		targetReachedAtH: findCrossingH(result.t, result.biomassGPerL, run.targetBiomassGPerL),
 		stoppedAtH: result.stoppedAtH ?? null,
 		deliveries
@@ -179,12 +228,23 @@ export function simulatePlan(run: PlanRun): PlanCourses {
 	};
 	const attempt = (limitsGrowth: boolean): PlanCourse | { message: string } => {
 		try {
-			return toCourse(run, simulateRun({ ...request, oxygen: { ...request.oxygen!, limitsGrowth } }), streamFeeds);
+			return toCourse(
+				run,
+				simulateRun({ ...request, oxygen: { ...request.oxygen!, limitsGrowth } }),
+				streamFeeds
+			);
 		} catch (cause) {
-			if (!(cause instanceof ChemistryInputError || cause instanceof SimulationFailedError)) throw cause;
+			if (!(cause instanceof ChemistryInputError || cause instanceof SimulationFailedError))
+				throw cause;
 			if (streamFeeds.some(isControlled)) {
-				const field = cause instanceof ChemistryInputError ? studyFieldOf(cause.field, streamFeeds, run.feeds) : undefined;
-				throw new StudyDataError(`A substrate- or DO-stat feed delivers what the simulated run asks for, and the run cannot be simulated: ${cause.message}`, { field });
+				const field =
+					cause instanceof ChemistryInputError
+						? studyFieldOf(cause.field, streamFeeds, run.feeds)
+						: undefined;
+				throw new StudyDataError(
+					`A substrate- or DO-stat feed delivers what the simulated run asks for, and the run cannot be simulated: ${cause.message}`,
+					{ field }
+				);
 			}
 			return { message: cause.message };
 		}
@@ -194,12 +254,14 @@ export function simulatePlan(run: PlanRun): PlanCourses {
 	run.defaults.push({
 		what: 'Time course model',
 		value: `Monod growth on ${carbon}, Pirt maintenance to exhaustion, O2 maintenance 0; DO falls with uptake and, at 0, holds growth to what transfer supplies (OTR = OUR)`,
-		source: 'The model help of the simulation; other nutrients are followed by their demand per g of biomass'
+		source:
+			'The model help of the simulation; other nutrients are followed by their demand per g of biomass'
 	});
 	run.defaults.push({
 		what: 'Oxygen and heat figures',
 		value: 'from the O2 demand of the plan as written, up to the target density',
-		source: 'A second run of the same plan whose growth oxygen never holds back: the growth the feeds would support, and the O2 the vessel must supply for it'
+		source:
+			'A second run of the same plan whose growth oxygen never holds back: the growth the feeds would support, and the O2 the vessel must supply for it'
 	});
 	// Where DO never reached 0 in the demand run, oxygen held nothing back: the vessel run would be the
 	// same run again, to the last number.

@@ -1,7 +1,15 @@
 import type { SimulationEvent } from '../simulation';
 import type { ElementStatements, PerCellConsumption, SufficiencyLine } from '../sufficiency';
 import type { Runout } from './nutrient-runout';
-import type { FeedPlan, FeedPlanStrategy, OrganismGroup, ProfileKind, SubstrateYieldEntry, TargetBasis, YieldMethod } from './vocabulary';
+import type {
+	FeedPlan,
+	FeedPlanStrategy,
+	OrganismGroup,
+	ProfileKind,
+	SubstrateYieldEntry,
+	TargetBasis,
+	YieldMethod
+} from './vocabulary';
 
 /** What one recipe version puts into a litre of itself. */
 export interface SupplyComposition {
@@ -222,10 +230,19 @@ export interface StudyReport {
 		heatPerMolO2KJ: number;
 		lowerBound: boolean;
 	};
-	volume: { check: Check; initialL: number; feedL: number; finalL: number; minL: number; maxL: number };
+	volume: {
+		check: Check;
+		initialL: number;
+		feedL: number;
+		finalL: number;
+		minL: number;
+		maxL: number;
+	};
 	feeds: FeedReport[];
 	/** The plan in this vessel (oxygen may hold growth back), with the demand run's OUR beside it. */
-	timeCourse: ({ check: Check; demandOurMmolPerLH: number[] | null } & TimeCourse) | { check: 'unavailable'; message: string };
+	timeCourse:
+		| ({ check: Check; demandOurMmolPerLH: number[] | null } & TimeCourse)
+		| { check: 'unavailable'; message: string };
 	defaults: DefaultUsed[];
 	notes: string[];
 	cautions: string[];

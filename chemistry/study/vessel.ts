@@ -15,19 +15,34 @@ export const MAX_KLA_PER_H = 3600;
 export function computeVesselKLa(vessel: StudyVessel): { kLaPerH: number; origin: string } {
 	if (vessel.kLaMode === 'entered') {
 		if (vessel.kLaPerH === null || !(vessel.kLaPerH > 0)) {
-			throw new StudyDataError(`The vessel “${vessel.name}” has no kLa. Enter one, or the correlation constants.`, { field: 'vessel.kLaPerH' });
+			throw new StudyDataError(
+				`The vessel “${vessel.name}” has no kLa. Enter one, or the correlation constants.`,
+				{ field: 'vessel.kLaPerH' }
+			);
 		}
 		return { kLaPerH: vessel.kLaPerH, origin: 'entered for the vessel' };
 	}
-	const { correlationK: k, correlationA: a, correlationB: b, powerPerVolumeWPerM3: pv, superficialVelocityMPerS: vs } = vessel;
+	const {
+		correlationK: k,
+		correlationA: a,
+		correlationB: b,
+		powerPerVolumeWPerM3: pv,
+		superficialVelocityMPerS: vs
+	} = vessel;
 	if (k === null || a === null || b === null || pv === null || vs === null) {
-		throw new StudyDataError(`The vessel “${vessel.name}” uses the kLa correlation but lacks k, a, b, P/V or the superficial gas velocity.`, {
-			field: 'vessel.correlationK'
-		});
+		throw new StudyDataError(
+			`The vessel “${vessel.name}” uses the kLa correlation but lacks k, a, b, P/V or the superficial gas velocity.`,
+			{
+				field: 'vessel.correlationK'
+			}
+		);
 	}
 	const kLaPerH = k * pv ** a * vs ** b * SECONDS_PER_HOUR;
 	if (!Number.isFinite(kLaPerH) || kLaPerH <= 0) {
-		throw new StudyDataError(`The kLa correlation of “${vessel.name}” gives ${kLaPerH} 1/h; check its constants.`, { field: 'vessel.correlationK' });
+		throw new StudyDataError(
+			`The kLa correlation of “${vessel.name}” gives ${kLaPerH} 1/h; check its constants.`,
+			{ field: 'vessel.correlationK' }
+		);
 	}
 	return {
 		kLaPerH,

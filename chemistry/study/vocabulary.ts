@@ -23,7 +23,13 @@ export type SubstrateYieldEntry =
 export const TARGET_BASES = ['biomassGPerL', 'cellsPerMl'] as const;
 export type TargetBasis = (typeof TARGET_BASES)[number];
 
-export const FEED_PLAN_STRATEGIES = ['constant', 'linear', 'exponential', 'substrateStat', 'doStat'] as const;
+export const FEED_PLAN_STRATEGIES = [
+	'constant',
+	'linear',
+	'exponential',
+	'substrateStat',
+	'doStat'
+] as const;
 export type FeedPlanStrategy = (typeof FEED_PLAN_STRATEGIES)[number];
 const CONTROLLED_FEED_PLANS: readonly string[] = ['substrateStat', 'doStat'];
 

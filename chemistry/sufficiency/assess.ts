@@ -109,7 +109,9 @@ export function assessSufficiency(input: SufficiencyInput): SufficiencyResult {
 	for (const line of required) if (line.ratio < limiting.ratio) limiting = line;
 	const warnings = [
 		...checkProfileFormula(profile),
-		...lines.filter((l) => l.role === 'trace' && !l.sufficient).map((l) => describeShortTrace(l, target, safetyFactor))
+		...lines
+			.filter((l) => l.role === 'trace' && !l.sufficient)
+			.map((l) => describeShortTrace(l, target, safetyFactor))
 	];
 	return {
 		target,
@@ -137,9 +139,14 @@ function describeShortTrace(line: SufficiencyLine, target: Target, safetyFactor:
 			? `${significant(line.demandGPerL)} g/L at the target`
 			: `${formatPercentOfDryMass(line.demandGPerL / target.biomassGPerL)} % of dry mass`;
 	const value = `${share}, ${VALUE_CONFIDENCE_WORDS[line.confidence]}`;
-	const advice = 'a trace element does not set the limit; check that the water, the salts or a trace-element solution carry enough of it for this organism.';
-	if (line.supplyGPerL === 0) return `${line.key} is in no source (the profile counts it at ${value}): ${advice}`;
-	const allows = line.maxBiomassGPerL === null ? '' : `, enough for about ${significant(line.maxBiomassGPerL)} g/L at safety factor ${safetyFactor}`;
+	const advice =
+		'a trace element does not set the limit; check that the water, the salts or a trace-element solution carry enough of it for this organism.';
+	if (line.supplyGPerL === 0)
+		return `${line.key} is in no source (the profile counts it at ${value}): ${advice}`;
+	const allows =
+		line.maxBiomassGPerL === null
+			? ''
+			: `, enough for about ${significant(line.maxBiomassGPerL)} g/L at safety factor ${safetyFactor}`;
 	return `${line.key} covers ${significant(line.ratio)} × its demand (the profile counts it at ${value})${allows}: ${advice}`;
 }
 

@@ -115,7 +115,10 @@ export function readSupply(input: unknown): Supply {
 }
 
 /** An element's standing: the profile's statement where it makes one, else the default role and 'unstated'. */
-export function elementStanding(symbol: string, statement: ElementStatement | undefined): LineStanding {
+export function elementStanding(
+	symbol: string,
+	statement: ElementStatement | undefined
+): LineStanding {
 	return {
 		role: statement?.role ?? defaultElementRole(symbol),
 		roleFrom: statement?.role ? 'profile' : 'default',
@@ -125,11 +128,15 @@ export function elementStanding(symbol: string, statement: ElementStatement | un
 }
 
 /** The carbon source, a further substrate or a component demand: required; how sure, as given. */
-export function requiredStanding(basis: { confidence?: unknown; source?: unknown }, field: string): LineStanding {
+export function requiredStanding(
+	basis: { confidence?: unknown; source?: unknown },
+	field: string
+): LineStanding {
 	const { confidence, source } = basis;
 	if (confidence !== undefined && !(VALUE_CONFIDENCES as readonly unknown[]).includes(confidence))
 		fail(`Confidence must be one of ${VALUE_CONFIDENCES.join(', ')}`, `${field}.confidence`);
-	if (source !== undefined && typeof source !== 'string') fail('Source must be text', `${field}.source`);
+	if (source !== undefined && typeof source !== 'string')
+		fail('Source must be text', `${field}.source`);
 	return {
 		role: 'required',
 		roleFrom: 'default',
@@ -186,7 +193,11 @@ export function resolveProfile(profile: unknown): Exclude<OrganismProfile, { kin
 			);
 		}
 		// The table's own confidence for each value, under whatever the request states on top.
-		const overrides = readElementStatements(p.elements, 'profile.elements', new Set(Object.keys(found.massFractions)));
+		const overrides = readElementStatements(
+			p.elements,
+			'profile.elements',
+			new Set(Object.keys(found.massFractions))
+		);
 		return {
 			kind: 'elementalFractions',
 			name: found.name,
@@ -195,7 +206,10 @@ export function resolveProfile(profile: unknown): Exclude<OrganismProfile, { kin
 			),
 			cellDryMassPg: found.cellDryMassPg?.value,
 			elements: Object.fromEntries(
-				Object.entries(statementsOfComposition(found)).map(([k, v]) => [k, { ...v, ...overrides[k] }])
+				Object.entries(statementsOfComposition(found)).map(([k, v]) => [
+					k,
+					{ ...v, ...overrides[k] }
+				])
 			),
 			formula: found.formula ?? undefined,
 			ashFraction: found.ashFraction?.value
@@ -220,13 +234,25 @@ export function requireBiomass(target: Target, why: string): number {
 }
 
 /** The fractions of an elemental profile against its formula, when it gives one. */
-export function checkProfileFormula(profile: Exclude<OrganismProfile, { kind: 'preset' }>): string[] {
+export function checkProfileFormula(
+	profile: Exclude<OrganismProfile, { kind: 'preset' }>
+): string[] {
 	if (profile.kind !== 'elementalFractions' || profile.formula === undefined) return [];
-	if (typeof profile.formula !== 'string' || profile.formula.trim() === '') fail('Biomass formula must be text, e.g. CH1.8O0.5N0.2', 'profile.formula');
+	if (typeof profile.formula !== 'string' || profile.formula.trim() === '')
+		fail('Biomass formula must be text, e.g. CH1.8O0.5N0.2', 'profile.formula');
 	let ashFraction: number | null = null;
 	if (profile.ashFraction !== undefined) {
 		ashFraction = readNonNegative(profile.ashFraction, 'profile.ashFraction', 'Ash fraction');
-		if (ashFraction >= 1) fail(`Ash fraction must be below 1 g per g dry biomass, not ${ashFraction}`, 'profile.ashFraction');
+		if (ashFraction >= 1)
+			fail(
+				`Ash fraction must be below 1 g per g dry biomass, not ${ashFraction}`,
+				'profile.ashFraction'
+			);
 	}
-	return compareFractionsWithFormula({ formula: profile.formula, ashFraction, fractions: profile.fractions, field: 'profile.formula' }).map((m) => m.message);
+	return compareFractionsWithFormula({
+		formula: profile.formula,
+		ashFraction,
+		fractions: profile.fractions,
+		field: 'profile.formula'
+	}).map((m) => m.message);
 }

@@ -28,7 +28,8 @@ export function buildRequirements(
 	target: Target,
 	ignored: Set<string>
 ): Requirement[] {
-	if (profile.kind === 'elementalFractions') return requirementsFromFractions(profile, target, ignored);
+	if (profile.kind === 'elementalFractions')
+		return requirementsFromFractions(profile, target, ignored);
 	if (profile.kind === 'componentRequirements') return requirementsPerGram(profile, target);
 	return requirementsPerCell(profile, target, ignored);
 }
@@ -49,7 +50,11 @@ function requirementsFromFractions(
 			`Mass fractions add up to ${sum.toFixed(4)}, more than 1 g per g dry biomass`,
 			'profile.fractions'
 		);
-	const statements = readElementStatements(profile.elements, 'profile.elements', new Set(Object.keys(fractions)));
+	const statements = readElementStatements(
+		profile.elements,
+		'profile.elements',
+		new Set(Object.keys(fractions))
+	);
 	const x = requireBiomass(target, 'An elemental profile');
 	for (const [el, f] of Object.entries(fractions)) {
 		if (ignored.has(el)) continue;
@@ -80,7 +85,13 @@ function requirementsPerGram(
 	const x = requireBiomass(target, 'A per-g-biomass profile');
 	for (const [key, r] of Object.entries(reqs)) {
 		if (r === 0) continue;
-		lines.push({ key, basis: 'component', demandGPerL: x * r, molarMassGPerMol: null, ...requiredStanding({}, 'profile') });
+		lines.push({
+			key,
+			basis: 'component',
+			demandGPerL: x * r,
+			molarMassGPerMol: null,
+			...requiredStanding({}, 'profile')
+		});
 	}
 	return lines;
 }
@@ -102,7 +113,9 @@ function requirementsPerCell(
 	}
 	const cells = target.cellsPerMl;
 	const elementKeys = new Set(
-		profile.consumption.filter((c) => c !== null && typeof c === 'object' && c.basis === 'element').map((c) => c.key)
+		profile.consumption
+			.filter((c) => c !== null && typeof c === 'object' && c.basis === 'element')
+			.map((c) => c.key)
 	);
 	const statements = readElementStatements(profile.elements, 'profile.elements', elementKeys);
 	const lines: Requirement[] = [];
@@ -166,7 +179,9 @@ function readConsumption(
 		basis: c.basis,
 		demandGPerL,
 		molarMassGPerMol: molarMass,
-		...(c.basis === 'element' ? elementStanding(c.key, statements[c.key]) : requiredStanding({}, field))
+		...(c.basis === 'element'
+			? elementStanding(c.key, statements[c.key])
+			: requiredStanding({}, field))
 	};
 }
 
@@ -239,18 +254,26 @@ export function applyCarbon(
 	fail("Carbon basis must be 'component' or 'element'", 'carbon.basis');
 }
 
-export function applySubstrates(lines: Requirement[], substrates: unknown, target: Target): Requirement[] {
+export function applySubstrates(
+	lines: Requirement[],
+	substrates: unknown,
+	target: Target
+): Requirement[] {
 	if (substrates === undefined) return lines;
-	if (!Array.isArray(substrates)) fail('substrates must be a list of { component, yieldGPerG }', 'substrates');
+	if (!Array.isArray(substrates))
+		fail('substrates must be a list of { component, yieldGPerG }', 'substrates');
 	if (substrates.length === 0) return lines;
 	const x = requireBiomass(target, 'A yield on a substrate');
 	const seen = new Set<string>();
 	const added: Requirement[] = substrates.map((entry: unknown, i) => {
 		const field = `substrates.${i}`;
-		if (entry === null || typeof entry !== 'object') fail('Each substrate needs { component, yieldGPerG }', field);
+		if (entry === null || typeof entry !== 'object')
+			fail('Each substrate needs { component, yieldGPerG }', field);
 		const { component, yieldGPerG, note, confidence, source } = entry as SubstrateDemand;
-		if (typeof component !== 'string' || component === '') fail('Substrate component id is needed', `${field}.component`);
-		if (seen.has(component)) fail(`${component} is listed twice among the substrates`, `${field}.component`);
+		if (typeof component !== 'string' || component === '')
+			fail('Substrate component id is needed', `${field}.component`);
+		if (seen.has(component))
+			fail(`${component} is listed twice among the substrates`, `${field}.component`);
 		seen.add(component);
 		const y = readPositive(yieldGPerG, `${field}.yieldGPerG`, `Yield on ${component}`);
 		return {

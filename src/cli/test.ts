@@ -22,9 +22,14 @@ function ensureChromium(): void {
 	if (isRoot && hasApt && !process.env.CHROMIUM_PATH) {
 		console.log("Chromium is missing: installing Debian's chromium package.");
 		run('apt-get update', 'apt-get', ['update']);
-		run('apt-get install chromium', 'apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], {
-			DEBIAN_FRONTEND: 'noninteractive'
-		});
+		run(
+			'apt-get install chromium',
+			'apt-get',
+			['install', '-y', '--no-install-recommends', 'chromium'],
+			{
+				DEBIAN_FRONTEND: 'noninteractive'
+			}
+		);
 		if (existsSync(chromium)) return;
 	}
 	console.error(
@@ -41,5 +46,7 @@ run('type check', 'npx', ['svelte-kit', 'sync']);
 run('type check', 'npx', ['svelte-check', '--tsconfig', './tsconfig.json', '--fail-on-warnings']);
 run('unit and server tests (vitest)', 'npx', ['vitest', 'run']);
 run('build', 'npx', ['vite', 'build']);
-run('browser tests (Playwright, Chromium)', 'npx', ['playwright', 'test'], { CHROMIUM_PATH: chromium });
+run('browser tests (Playwright, Chromium)', 'npx', ['playwright', 'test'], {
+	CHROMIUM_PATH: chromium
+});
 console.log('\nAll tests passed.');

@@ -1,7 +1,13 @@
 // Words and constants of batches shared by server and browser, so this module holds no server code.
 import type { QuantityKind } from './inventory';
 import { formatMass, formatVolume, readAmountText, storedMass, storedVolumeUl } from './quantities';
-export const BATCH_STATES = ['planned', 'in_preparation', 'prepared', 'released', 'rejected'] as const;
+export const BATCH_STATES = [
+	'planned',
+	'in_preparation',
+	'prepared',
+	'released',
+	'rejected'
+] as const;
 export type BatchState = (typeof BATCH_STATES)[number];
 
 export const BATCH_STATE_LABELS: Record<BatchState, string> = {
@@ -36,7 +42,11 @@ export const DEFAULT_PH_TOLERANCE = 0.2;
 export type ToleranceVerdict = 'within' | 'below' | 'above';
 
 /** Whether an actual quantity is within ±tolerance % of the required one; the edges count as within. */
-export function checkTolerance(required: number, actual: number, tolerancePercent: number): ToleranceVerdict {
+export function checkTolerance(
+	required: number,
+	actual: number,
+	tolerancePercent: number
+): ToleranceVerdict {
 	const allowance = (Math.abs(required) * tolerancePercent) / 100;
 	// A relative epsilon keeps an edge value typed in decimal from falling outside by float rounding.
 	const epsilon = Math.abs(required) * 1e-9;
@@ -45,7 +55,8 @@ export function checkTolerance(required: number, actual: number, tolerancePercen
 	return 'within';
 }
 
-export type LineAmountRead = { ok: true; quantity: number; note?: string } | { ok: false; message: string };
+export type LineAmountRead =
+	{ ok: true; quantity: number; note?: string } | { ok: false; message: string };
 
 const LINE_AMOUNT = {
 	component: { label: 'Mass', units: ['g', 'mg', 'kg', 'µg'] as const, defaultUnit: 'g' as const },
@@ -59,11 +70,25 @@ const LINE_AMOUNT = {
 export function readLineAmount(text: string, kind: BatchLineKind): LineAmountRead {
 	const spec = LINE_AMOUNT[kind];
 	if (kind === 'component') {
-		const read = readAmountText(text, spec.label, LINE_AMOUNT.component.units, LINE_AMOUNT.component.defaultUnit);
-		return read.ok ? { ok: true, quantity: storedMass(read.value, read.unit, 'µg'), note: read.note } : read;
+		const read = readAmountText(
+			text,
+			spec.label,
+			LINE_AMOUNT.component.units,
+			LINE_AMOUNT.component.defaultUnit
+		);
+		return read.ok
+			? { ok: true, quantity: storedMass(read.value, read.unit, 'µg'), note: read.note }
+			: read;
 	}
-	const read = readAmountText(text, spec.label, LINE_AMOUNT.stock.units, LINE_AMOUNT.stock.defaultUnit);
-	return read.ok ? { ok: true, quantity: storedVolumeUl(read.value, read.unit), note: read.note } : read;
+	const read = readAmountText(
+		text,
+		spec.label,
+		LINE_AMOUNT.stock.units,
+		LINE_AMOUNT.stock.defaultUnit
+	);
+	return read.ok
+		? { ok: true, quantity: storedVolumeUl(read.value, read.unit), note: read.note }
+		: read;
 }
 
 /** The unit a line's required and actual quantities are kept in. */

@@ -29,17 +29,26 @@ export function parseFractions(text: string): Parsed<Record<string, number> | nu
 		if (!match || value === null) {
 			return { ok: false, error: `“${item}” is not an element fraction; write it as C=0.39.` };
 		}
-		if (value < 0 || value > 1) return { ok: false, error: `${match[1]}: a fraction is between 0 and 1 g per g, not ${value}.` };
+		if (value < 0 || value > 1)
+			return {
+				ok: false,
+				error: `${match[1]}: a fraction is between 0 and 1 g per g, not ${value}.`
+			};
 		if (match[1] in out) return { ok: false, error: `${match[1]} is given twice.` };
 		out[match[1]] = value;
 	}
 	const sum = Object.values(out).reduce((a, b) => a + b, 0);
-	if (sum > 1 + 1e-6) return { ok: false, error: `The fractions add up to ${sum.toFixed(3)}, more than 1 g per g.` };
+	if (sum > 1 + 1e-6)
+		return { ok: false, error: `The fractions add up to ${sum.toFixed(3)}, more than 1 g per g.` };
 	return { ok: true, value: Object.keys(out).length ? out : null };
 }
 
 export function formatFractions(value: Record<string, number> | null | undefined): string {
-	return value ? Object.entries(value).map(([s, f]) => `${s}=${f}`).join('; ') : '';
+	return value
+		? Object.entries(value)
+				.map(([s, f]) => `${s}=${f}`)
+				.join('; ')
+		: '';
 }
 
 export interface IonEntry {
@@ -53,15 +62,23 @@ export function parseIons(text: string): Parsed<IonEntry[] | null> {
 	for (const item of items(text)) {
 		const match = /^(?:(\d+(?:\.\d+)?)\s*[x×*]?\s+)?(\S+?)(?:\^(\d+))?([+-])$/.exec(item);
 		if (!match) {
-			return { ok: false, error: `“${item}” is not an ion; write it as 2 Na+ or HPO4^2- (count, label, charge).` };
+			return {
+				ok: false,
+				error: `“${item}” is not an ion; write it as 2 Na+ or HPO4^2- (count, label, charge).`
+			};
 		}
 		const count = match[1] ? Number(match[1]) : 1;
 		const magnitude = match[3] ? Number(match[3]) : 1;
-		out.push({ ion: `${match[2]}${match[3] ? `^${match[3]}` : ''}${match[4]}`, count, charge: match[4] === '+' ? magnitude : -magnitude });
+		out.push({
+			ion: `${match[2]}${match[3] ? `^${match[3]}` : ''}${match[4]}`,
+			count,
+			charge: match[4] === '+' ? magnitude : -magnitude
+		});
 	}
 	if (out.length === 0) return { ok: true, value: null };
 	const net = out.reduce((sum, i) => sum + i.count * i.charge, 0);
-	if (Math.abs(net) > 1e-9) return { ok: false, error: `The ions carry a net charge of ${net}; a salt must be neutral.` };
+	if (Math.abs(net) > 1e-9)
+		return { ok: false, error: `The ions carry a net charge of ${net}; a salt must be neutral.` };
 	return { ok: true, value: out };
 }
 
@@ -81,14 +98,22 @@ export function parseSolubility(text: string): Parsed<SolubilityEntry[] | null> 
 		const temperatureC = match ? numberFrom(match[1]) : null;
 		const gPerL = match ? numberFrom(match[2]) : null;
 		if (temperatureC === null || gPerL === null) {
-			return { ok: false, error: `“${item}” is not a solubility point; write it as 25:360 (°C : g per L water).` };
+			return {
+				ok: false,
+				error: `“${item}” is not a solubility point; write it as 25:360 (°C : g per L water).`
+			};
 		}
-		if (temperatureC < -20 || temperatureC > 150) return { ok: false, error: `${temperatureC} °C is outside −20 to 150 °C.` };
+		if (temperatureC < -20 || temperatureC > 150)
+			return { ok: false, error: `${temperatureC} °C is outside −20 to 150 °C.` };
 		if (!(gPerL > 0)) return { ok: false, error: `A solubility is more than 0 g/L, not ${gPerL}.` };
-		if (out.some((p) => p.temperatureC === temperatureC)) return { ok: false, error: `${temperatureC} °C is given twice.` };
+		if (out.some((p) => p.temperatureC === temperatureC))
+			return { ok: false, error: `${temperatureC} °C is given twice.` };
 		out.push({ temperatureC, gPerL });
 	}
-	return { ok: true, value: out.length ? out.sort((a, b) => a.temperatureC - b.temperatureC) : null };
+	return {
+		ok: true,
+		value: out.length ? out.sort((a, b) => a.temperatureC - b.temperatureC) : null
+	};
 }
 
 export function formatSolubility(value: SolubilityEntry[] | null | undefined): string {
@@ -100,14 +125,22 @@ export interface HazardEntry {
 	text: string;
 }
 
-export function parseHazards(text: string, known: Readonly<Record<string, string>>): Parsed<HazardEntry[]> {
+export function parseHazards(
+	text: string,
+	known: Readonly<Record<string, string>>
+): Parsed<HazardEntry[]> {
 	const out: HazardEntry[] = [];
 	for (const item of items(text)) {
 		const match = /^(EUH\d{3}|H\d{3}[A-Za-z]{0,2})(?:\s*[:\-–]\s*(.+)|\s+(.+))?$/.exec(item);
-		if (!match) return { ok: false, error: `“${item}” is not a GHS hazard statement; write it as H319 or H319: its text.` };
+		if (!match)
+			return {
+				ok: false,
+				error: `“${item}” is not a GHS hazard statement; write it as H319 or H319: its text.`
+			};
 		const code = match[1];
 		const textPart = (match[2] ?? match[3] ?? '').trim() || known[code];
-		if (!textPart) return { ok: false, error: `${code} is not a code we know; give its text too (${code}: …).` };
+		if (!textPart)
+			return { ok: false, error: `${code} is not a code we know; give its text too (${code}: …).` };
 		if (out.some((h) => h.code === code)) return { ok: false, error: `${code} is given twice.` };
 		out.push({ code, text: textPart });
 	}
@@ -124,5 +157,7 @@ export function checkCasNumber(text: string): string | null {
 	if (!match) return 'A CAS number looks like 7647-14-5.';
 	const digits = (match[1] + match[2]).split('').reverse();
 	const sum = digits.reduce((s, d, i) => s + (i + 1) * Number(d), 0);
-	return sum % 10 === Number(match[3]) ? null : `The check digit of ${text.trim()} is wrong; look at the number again.`;
+	return sum % 10 === Number(match[3])
+		? null
+		: `The check digit of ${text.trim()} is wrong; look at the number again.`;
 }

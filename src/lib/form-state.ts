@@ -1,5 +1,9 @@
 // Reading an action's failure in a page: the message, one field's errors, the values to refill.
-type Failure = { message?: string; fieldErrors?: Record<string, string[]>; values?: Record<string, string> };
+type Failure = {
+	message?: string;
+	fieldErrors?: Record<string, string[]>;
+	values?: Record<string, string>;
+};
 
 export function failureOf(form: unknown): Failure | null {
 	return form && typeof form === 'object' && 'message' in form ? (form as Failure) : null;

@@ -40,7 +40,8 @@ export const DEFAULT_EXPIRY_WINDOW_DAYS = 30;
 export function formatQuantity(quantity: number, kind: QuantityKind): string {
 	const abs = Math.abs(quantity);
 	const sign = quantity < 0 ? '−' : '';
-	const fmt = (n: number) => Number(n.toPrecision(6)).toLocaleString('en-GB', { maximumFractionDigits: 3 });
+	const fmt = (n: number) =>
+		Number(n.toPrecision(6)).toLocaleString('en-GB', { maximumFractionDigits: 3 });
 	if (kind === 'mass') {
 		const unit = abs >= 1_000_000 ? 'kg' : abs >= 1000 ? 'g' : 'mg';
 		return `${sign}${fmt(convertMass(abs, 'mg', unit))} ${unit}`;
@@ -60,12 +61,18 @@ export function isExpired(expiresOn: string, today = isoToday()): boolean {
 }
 
 /** Why a lot may not go into a batch on `onDate` (its status first, then its date), or null when it may. */
-export function lotUnusability(lot: { status: LotStatus; expiresOn: string }, onDate: string): 'quarantine' | 'rejected' | 'expired' | null {
+export function lotUnusability(
+	lot: { status: LotStatus; expiresOn: string },
+	onDate: string
+): 'quarantine' | 'rejected' | 'expired' | null {
 	if (lot.status !== 'released') return lot.status;
 	return isExpired(lot.expiresOn, onDate) ? 'expired' : null;
 }
 
 /** A usable lot is released and not expired on `onDate`. */
-export function isUsableLot(lot: { status: LotStatus; expiresOn: string }, onDate: string): boolean {
+export function isUsableLot(
+	lot: { status: LotStatus; expiresOn: string },
+	onDate: string
+): boolean {
 	return lotUnusability(lot, onDate) === null;
 }

@@ -38,5 +38,8 @@ function matches(href: string, pathname: string): boolean {
 /** The one item a page belongs to: the most specific match, so /batches/open is not also under /batches. */
 export function currentHref(items: NavItem[], pathname: string): string | null {
 	const matching = items.filter((item) => matches(item.href, pathname));
-	return matching.reduce<string | null>((best, item) => (best === null || item.href.length > best.length ? item.href : best), null);
+	return matching.reduce<string | null>(
+		(best, item) => (best === null || item.href.length > best.length ? item.href : best),
+		null
+	);
 }

@@ -16,7 +16,12 @@ export type VolumeUnit = (typeof VOLUME_UNITS)[number];
 const MICROGRAMS_PER: Record<MassUnit, number> = { µg: 1, mg: 1e3, g: 1e6, kg: 1e9 };
 const MICROLITRES_PER: Record<VolumeUnit, number> = { µL: 1, mL: 1e3, L: 1e6 };
 
-function convertBy(factors: Record<string, number>, value: number, from: string, to: string): number {
+function convertBy(
+	factors: Record<string, number>,
+	value: number,
+	from: string,
+	to: string
+): number {
 	const ratio = factors[from] / factors[to];
 	return ratio >= 1 ? value * ratio : value / (factors[to] / factors[from]);
 }
@@ -73,7 +78,8 @@ export function batchVolumeL(targetVolumeMl: number): number {
 	return convertVolume(targetVolumeMl, 'mL', 'L');
 }
 
-export type DecimalRead = { ok: true; value: number; note?: string } | { ok: false; message: string };
+export type DecimalRead =
+	{ ok: true; value: number; note?: string } | { ok: false; message: string };
 
 /**
  * Reads a number as a person types it; the one rule for every typed or imported decimal:
@@ -90,38 +96,86 @@ export function readDecimalText(text: string, label: string): DecimalRead {
 	if (digits === '') return { ok: false, message: `${label}: enter a number.` };
 	const commas = (digits.match(/,/g) ?? []).length;
 	const points = (digits.match(/\./g) ?? []).length;
-	if (commas && points) return { ok: false, message: `${label}: “${digits}” mixes commas and points; type the number with one decimal point and no thousands separator, e.g. 1250.5.` };
-	if (commas > 1 || points > 1) return { ok: false, message: `${label}: “${digits}” has more than one separator; type the number with one decimal point and no thousands separator.` };
+	if (commas && points)
+		return {
+			ok: false,
+			message: `${label}: “${digits}” mixes commas and points; type the number with one decimal point and no thousands separator, e.g. 1250.5.`
+		};
+	if (commas > 1 || points > 1)
+		return {
+			ok: false,
+			message: `${label}: “${digits}” has more than one separator; type the number with one decimal point and no thousands separator.`
+		};
 	let normal = digits;
 	let note: string | undefined;
 	if (commas === 1) {
-		if (/,\d{3}$/.test(digits)) return { ok: false, message: `${label}: “${digits}” is ambiguous: is it ${digits.replace(',', '.')} or ${digits.replace(',', '')}? Type it with a decimal point.` };
-		if (!/^[+-]?\d*,\d+$/.test(digits)) return { ok: false, message: `${label}: “${digits}” is not a number.` };
+		if (/,\d{3}$/.test(digits))
+			return {
+				ok: false,
+				message: `${label}: “${digits}” is ambiguous: is it ${digits.replace(',', '.')} or ${digits.replace(',', '')}? Type it with a decimal point.`
+			};
+		if (!/^[+-]?\d*,\d+$/.test(digits))
+			return { ok: false, message: `${label}: “${digits}” is not a number.` };
 		normal = digits.replace(',', '.');
 		note = `Read the decimal comma: ${normal}`;
 	}
-	if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(normal)) return { ok: false, message: `${label}: “${digits}” is not a number.` };
+	if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(normal))
+		return { ok: false, message: `${label}: “${digits}” is not a number.` };
 	const value = Number(normal);
-	if (!Number.isFinite(value)) return { ok: false, message: `${label}: “${digits}” is not a number.` };
+	if (!Number.isFinite(value))
+		return { ok: false, message: `${label}: “${digits}” is not a number.` };
 	return note ? { ok: true, value, note } : { ok: true, value };
 }
 
-export type AmountRead<U extends string> = { ok: true; value: number; unit: U; note?: string } | { ok: false; message: string };
+export type AmountRead<U extends string> =
+	{ ok: true; value: number; unit: U; note?: string } | { ok: false; message: string };
 
-const UNIT_SPELLINGS: Record<string, MassUnit | VolumeUnit> = { kg: 'kg', g: 'g', mg: 'mg', µg: 'µg', ug: 'µg', μg: 'µg', L: 'L', l: 'L', mL: 'mL', ml: 'mL', µL: 'µL', uL: 'µL', ul: 'µL', μL: 'µL' };
+const UNIT_SPELLINGS: Record<string, MassUnit | VolumeUnit> = {
+	kg: 'kg',
+	g: 'g',
+	mg: 'mg',
+	µg: 'µg',
+	ug: 'µg',
+	μg: 'µg',
+	L: 'L',
+	l: 'L',
+	mL: 'mL',
+	ml: 'mL',
+	µL: 'µL',
+	uL: 'µL',
+	ul: 'µL',
+	μL: 'µL'
+};
 
 /**
  * Reads an amount typed with an optional unit ("12,5", "350 mg", "2.5 mL") through readDecimalText;
  * the unit must be one of `units`, and a bare number is in `defaultUnit`. Zero and below are refused.
  */
-export function readAmountText<U extends MassUnit | VolumeUnit>(text: string, label: string, units: readonly U[], defaultUnit: U): AmountRead<U> {
+export function readAmountText<U extends MassUnit | VolumeUnit>(
+	text: string,
+	label: string,
+	units: readonly U[],
+	defaultUnit: U
+): AmountRead<U> {
 	const compact = text.trim().replace(/\s+/g, ' ');
 	const noun = units.includes('g' as U) ? 'mass' : 'volume';
-	if (!compact) return { ok: false, message: `${label}: enter the ${noun}${noun === 'mass' ? ' read from the balance' : ''}.` };
+	if (!compact)
+		return {
+			ok: false,
+			message: `${label}: enter the ${noun}${noun === 'mass' ? ' read from the balance' : ''}.`
+		};
 	const match = /^([+-]?[\d.,]+)\s*([a-zA-Zµμ]*)$/.exec(compact);
-	if (!match) return { ok: false, message: `${label}: “${compact}” is not a ${noun}: type a number such as 12.5 or 12.5 ${defaultUnit}.` };
+	if (!match)
+		return {
+			ok: false,
+			message: `${label}: “${compact}” is not a ${noun}: type a number such as 12.5 or 12.5 ${defaultUnit}.`
+		};
 	const unit = match[2] ? UNIT_SPELLINGS[match[2]] : defaultUnit;
-	if (!unit || !units.includes(unit as U)) return { ok: false, message: `${label}: “${match[2]}” is not a ${noun} unit here: use ${units.join(', ')}.` };
+	if (!unit || !units.includes(unit as U))
+		return {
+			ok: false,
+			message: `${label}: “${match[2]}” is not a ${noun} unit here: use ${units.join(', ')}.`
+		};
 	const read = readDecimalText(match[1], label);
 	if (!read.ok) return read;
 	if (read.value <= 0) return { ok: false, message: `${label}: the ${noun} must be above zero.` };

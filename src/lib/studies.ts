@@ -1,4 +1,3 @@
-
 import {
 	ORGANISM_GROUPS,
 	PROFILE_KINDS,
@@ -18,8 +17,24 @@ import {
 
 // Study vocabulary shared by server and pages; no server code here. The lists and types the science
 // switches on live in chemistry/study/vocabulary.ts; their labels live here.
-export { ORGANISM_GROUPS, PROFILE_KINDS, YIELD_METHODS, YIELD_METHOD_LABELS, TARGET_BASES, FEED_PLAN_STRATEGIES, isControlledPlan };
-export type { OrganismGroup, ProfileKind, YieldMethod, SubstrateYieldEntry, TargetBasis, FeedPlanStrategy, FeedPlan };
+export {
+	ORGANISM_GROUPS,
+	PROFILE_KINDS,
+	YIELD_METHODS,
+	YIELD_METHOD_LABELS,
+	TARGET_BASES,
+	FEED_PLAN_STRATEGIES,
+	isControlledPlan
+};
+export type {
+	OrganismGroup,
+	ProfileKind,
+	YieldMethod,
+	SubstrateYieldEntry,
+	TargetBasis,
+	FeedPlanStrategy,
+	FeedPlan
+};
 
 export const ORGANISM_GROUP_LABELS: Record<OrganismGroup, string> = {
 	bacterium: 'Bacterium',
@@ -33,7 +48,10 @@ export const PROFILE_KIND_LABELS: Record<ProfileKind, string> = {
 	perCell: 'Per-cell consumption (cell culture)'
 };
 
-export const TARGET_BASIS_UNITS: Record<TargetBasis, string> = { biomassGPerL: 'g/L dry biomass', cellsPerMl: 'cells/mL' };
+export const TARGET_BASIS_UNITS: Record<TargetBasis, string> = {
+	biomassGPerL: 'g/L dry biomass',
+	cellsPerMl: 'cells/mL'
+};
 
 export const FEED_PLAN_LABELS: Record<FeedPlanStrategy, string> = {
 	constant: 'Constant rate',
@@ -81,8 +99,14 @@ export function splitPairEntries(text: string): { entry: string; pair: [string, 
  * The element symbols typed in the fraction box and among the per-cell lines, in order, as the
  * profile form lists them for their role and confidence. `isElement` tells a symbol from a component id.
  */
-export function listTypedElements(fractionsText: string, consumptionText: string, isElement: (symbol: string) => boolean): string[] {
-	const fromFractions = splitPairEntries(fractionsText).flatMap(({ pair }) => (pair && isElement(pair[0]) ? [pair[0]] : []));
+export function listTypedElements(
+	fractionsText: string,
+	consumptionText: string,
+	isElement: (symbol: string) => boolean
+): string[] {
+	const fromFractions = splitPairEntries(fractionsText).flatMap(({ pair }) =>
+		pair && isElement(pair[0]) ? [pair[0]] : []
+	);
 	const fromCells = consumptionText
 		.split('\n')
 		.map((l) => CONSUMPTION_PATTERN.exec(l.trim()))

@@ -40,7 +40,13 @@ function timeCase(bench: BenchCase): { medianMs: number; p90Ms: number; repetiti
 
 const cases = await loadCases();
 let failures = 0;
-console.log('benchmark'.padEnd(58), 'median ms'.padStart(10), 'p90 ms'.padStart(10), 'target'.padStart(8), 'ratio'.padStart(7));
+console.log(
+	'benchmark'.padEnd(58),
+	'median ms'.padStart(10),
+	'p90 ms'.padStart(10),
+	'target'.padStart(8),
+	'ratio'.padStart(7)
+);
 for (const bench of cases) {
 	let timing: ReturnType<typeof timeCase>;
 	try {

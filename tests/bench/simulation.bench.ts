@@ -35,7 +35,13 @@ const threeStreams: SimulationRequest = {
 	...withoutFeed,
 	feeds: [
 		{ ...glucose!, label: 'Glucose (DO-stat)' },
-		{ label: 'Amino acids', strategy: 'constant', substrateGPerL: 0, rateLPerH: 0.0005, startH: 72 },
+		{
+			label: 'Amino acids',
+			strategy: 'constant',
+			substrateGPerL: 0,
+			rateLPerH: 0.0005,
+			startH: 72
+		},
 		{
 			label: 'Glucose top-up',
 			strategy: 'exponential',

@@ -135,7 +135,13 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 	it('drops the biomass by a third at m_s = 0.05 g/g/h, D = 0.05 /h, Y_G = 0.5', () => {
 		// Pirt 1965 (Proc. R. Soc. Lond. B 163:224): X = D·Y_G(S0 − S)/(D + m_s·Y_G), so X/X(m_s = 0) =
 		// D/(D + m_s·Y_G) = 0.05/(0.05 + 0.025) = 2/3, worked by hand.
-		const base = { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5, feedSubstrateGPerL: 20, dilutionPerH: 0.05 };
+		const base = {
+			muMaxPerH: 0.6,
+			ksGPerL: 0.05,
+			yieldXS: 0.5,
+			feedSubstrateGPerL: 20,
+			dilutionPerH: 0.05
+		};
 		const without = computeChemostatSteadyState(base);
 		const withMaintenance = computeChemostatSteadyState({ ...base, maintenanceGPerGH: 0.05 });
 		expect(withMaintenance.biomassGPerL / without.biomassGPerL).toBeCloseTo(2 / 3, 12);
@@ -154,14 +160,26 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 				expect(relativeError(r.productivityGPerLH, point.productivityGPerLH)).toBeLessThan(1e-9);
 				expect(r.washout).toBe(point.washout);
 			}
-			const r = computeChemostatSteadyState({ ...input, dilutionPerH: reference.points[0].dilutionPerH });
+			const r = computeChemostatSteadyState({
+				...input,
+				dilutionPerH: reference.points[0].dilutionPerH
+			});
 			// SciPy: μ(S0) = D, the largest D with a steady state X > 0 (chemostat-maintenance.json).
-			expect(relativeError(r.criticalDilutionPerH, reference.criticalDilutionPerH)).toBeLessThan(1e-12);
+			expect(relativeError(r.criticalDilutionPerH, reference.criticalDilutionPerH)).toBeLessThan(
+				1e-12
+			);
 			// SciPy: bounded Brent on −D·X refined by brentq on the slope (chemostat-maintenance.json);
 			// the golden section here is limited by the flat top to about √ε.
-			expect(relativeError(r.optimalDilutionPerH, reference.optimalDilutionPerH)).toBeLessThan(1e-7);
-			const atOptimum = computeChemostatSteadyState({ ...input, dilutionPerH: r.optimalDilutionPerH });
-			expect(relativeError(atOptimum.productivityGPerLH, reference.optimalProductivityGPerLH)).toBeLessThan(1e-12);
+			expect(relativeError(r.optimalDilutionPerH, reference.optimalDilutionPerH)).toBeLessThan(
+				1e-7
+			);
+			const atOptimum = computeChemostatSteadyState({
+				...input,
+				dilutionPerH: r.optimalDilutionPerH
+			});
+			expect(
+				relativeError(atOptimum.productivityGPerLH, reference.optimalProductivityGPerLH)
+			).toBeLessThan(1e-12);
 		});
 	}
 
@@ -199,9 +217,19 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 	});
 
 	it('sweeps from D = 0, where maintenance takes all the substrate, to D_crit', () => {
-		const r = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.3, maintenanceGPerGH: 0.05, sweepPoints: 11 });
+		const r = computeChemostatSteadyState({
+			...culture,
+			dilutionPerH: 0.3,
+			maintenanceGPerGH: 0.05,
+			sweepPoints: 11
+		});
 		// X = D·Y_G(S0 − S)/(D + m_s·Y_G) is 0 at D = 0 and at D_crit (Pirt 1965).
-		expect(r.sweep[0]).toEqual({ dilutionPerH: 0, biomassGPerL: 0, substrateGPerL: 0, productivityGPerLH: 0 });
+		expect(r.sweep[0]).toEqual({
+			dilutionPerH: 0,
+			biomassGPerL: 0,
+			substrateGPerL: 0,
+			productivityGPerLH: 0
+		});
 		expect(r.sweep[10].biomassGPerL).toBeCloseTo(0, 9);
 		const d = r.sweep[5].dilutionPerH;
 		const s = (0.2 * d) / (0.5 - d);
@@ -210,19 +238,30 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 
 	it('prices the safety margin against the D_opt with maintenance', () => {
 		const reference = scipyReference.chemostat.slowerCulture;
-		const r = computeChemostatSteadyState({ ...reference.input, dilutionPerH: 0.1, safetyMargin: 0.3 });
+		const r = computeChemostatSteadyState({
+			...reference.input,
+			dilutionPerH: 0.1,
+			safetyMargin: 0.3
+		});
 		const dMargin = 0.7 * reference.criticalDilutionPerH;
 		expect(r.marginDilutionPerH).toBeCloseTo(dMargin, 12);
 		// D·X at the margin from the balances (Pirt 1965), against SciPy's optimum (chemostat-maintenance.json).
 		const s = (0.2 * dMargin) / (0.5 - dMargin);
 		const atMargin = (dMargin * dMargin * (10 - s)) / (dMargin / 0.5 + 0.1);
-		expect(r.productivityLostToMargin).toBeCloseTo(1 - atMargin / reference.optimalProductivityGPerLH, 9);
+		expect(r.productivityLostToMargin).toBeCloseTo(
+			1 - atMargin / reference.optimalProductivityGPerLH,
+			9
+		);
 	});
 
 	it('agrees with the dynamic simulation with maintenance at steady state', () => {
 		// The integrator (odex) reaches the steady state of the same balances, maintenance in full.
 		const m = 0.05;
-		const steady = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.25, maintenanceGPerGH: m });
+		const steady = computeChemostatSteadyState({
+			...culture,
+			dilutionPerH: 0.25,
+			maintenanceGPerGH: m
+		});
 		const run = simulateChemostatAtQuarterPerHour(m);
 		expect(run.substrateGPerL.at(-1)! / steady.substrateGPerL - 1).toBeCloseTo(0, 6);
 		expect(run.biomassGPerL.at(-1)! / steady.biomassGPerL - 1).toBeCloseTo(0, 6);
@@ -230,14 +269,21 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 
 	it('leaves every result exactly as before when m_s is 0', () => {
 		const plain = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.3, safetyMargin: 0.3 });
-		const zero = computeChemostatSteadyState({ ...culture, dilutionPerH: 0.3, safetyMargin: 0.3, maintenanceGPerGH: 0 });
+		const zero = computeChemostatSteadyState({
+			...culture,
+			dilutionPerH: 0.3,
+			safetyMargin: 0.3,
+			maintenanceGPerGH: 0
+		});
 		expect(zero).toEqual(plain);
 	});
 
 	it('names maintenanceGPerGH when it is negative or not a number', () => {
 		for (const bad of [-0.01, Number.NaN, Number.POSITIVE_INFINITY]) {
 			expect(
-				errorOf(() => computeChemostatSteadyState({ ...culture, dilutionPerH: 0.1, maintenanceGPerGH: bad })).field
+				errorOf(() =>
+					computeChemostatSteadyState({ ...culture, dilutionPerH: 0.1, maintenanceGPerGH: bad })
+				).field
 			).toBe('maintenanceGPerGH');
 		}
 	});
@@ -309,19 +355,32 @@ describe('compareBatchWithContinuous', () => {
 		// Batch: SciPy solve_ivp (DOP853) of dX/dt = μX, dS/dt = −(μ/Y_G + m_s)X to S = 0.01·S0
 		// (chemostat-maintenance.json).
 		expect(relativeError(r.batch.growthTimeH, reference.growthTimeH)).toBeLessThan(1e-8);
-		expect(relativeError(r.batch.finalBiomassGPerL, reference.finalBiomassGPerL)).toBeLessThan(1e-8);
-		expect(r.batch.productivityGPerLH).toBeCloseTo((reference.finalBiomassGPerL - 0.1) / (reference.growthTimeH + 7), 9);
+		expect(relativeError(r.batch.finalBiomassGPerL, reference.finalBiomassGPerL)).toBeLessThan(
+			1e-8
+		);
+		expect(r.batch.productivityGPerLH).toBeCloseTo(
+			(reference.finalBiomassGPerL - 0.1) / (reference.growthTimeH + 7),
+			9
+		);
 		// Chemostat: X = D·Y_G(S0 − S)/(D + m_s·Y_G) (Pirt 1965), by hand at D = 0.4.
 		const s = (0.2 * 0.4) / (0.5 - 0.4);
 		const x = (0.4 * 0.5 * (10 - s)) / (0.4 + m * 0.5);
 		expect(r.continuous.biomassGPerL).toBeCloseTo(x, 12);
 		expect(r.continuous.productivityGPerLH).toBeCloseTo(0.4 * x, 12);
-		expect(r.continuousToBatchRatio).toBeCloseTo(r.continuous.productivityGPerLH / r.batch.productivityGPerLH, 12);
+		expect(r.continuousToBatchRatio).toBeCloseTo(
+			r.continuous.productivityGPerLH / r.batch.productivityGPerLH,
+			12
+		);
 	});
 
 	it('integrates the batch with maintenance as SciPy does for the page defaults too', () => {
 		const { input: b, growthTimeH, finalBiomassGPerL } = scipyReference.batch.pageDefaults;
-		const r = computeMonodBatchWithMaintenance(b, b.inoculumGPerL, b.substrateGPerL, (1 - b.conversion) * b.substrateGPerL);
+		const r = computeMonodBatchWithMaintenance(
+			b,
+			b.inoculumGPerL,
+			b.substrateGPerL,
+			(1 - b.conversion) * b.substrateGPerL
+		);
 		// SciPy solve_ivp DOP853 with a terminal event (chemostat-maintenance.json).
 		expect(relativeError(r.growthTimeH, growthTimeH)).toBeLessThan(1e-8);
 		expect(relativeError(r.biomassGPerL, finalBiomassGPerL)).toBeLessThan(1e-8);
@@ -329,15 +388,22 @@ describe('compareBatchWithContinuous', () => {
 
 	it('tends to the batch without maintenance as m_s → 0', () => {
 		// Closed-form Monod batch (textbook form, from memory) against the integration at a tiny m_s.
-		const r = computeMonodBatchWithMaintenance({ ...input, maintenanceGPerGH: 1e-12 }, 0.1, 10, 0.1);
-		expect(relativeError(r.growthTimeH, computeMonodBatchTimeH(input, 0.1, 10, 0.1))).toBeLessThan(1e-8);
+		const r = computeMonodBatchWithMaintenance(
+			{ ...input, maintenanceGPerGH: 1e-12 },
+			0.1,
+			10,
+			0.1
+		);
+		expect(relativeError(r.growthTimeH, computeMonodBatchTimeH(input, 0.1, 10, 0.1))).toBeLessThan(
+			1e-8
+		);
 		expect(relativeError(r.biomassGPerL, 0.1 + 0.5 * 9.9)).toBeLessThan(1e-8);
 	});
 
 	it('names the bad field', () => {
-		expect(errorOf(() => compareBatchWithContinuous({ ...input, maintenanceGPerGH: -1 })).field).toBe(
-			'maintenanceGPerGH'
-		);
+		expect(
+			errorOf(() => compareBatchWithContinuous({ ...input, maintenanceGPerGH: -1 })).field
+		).toBe('maintenanceGPerGH');
 		expect(errorOf(() => compareBatchWithContinuous({ ...input, inoculumGPerL: 0 })).field).toBe(
 			'inoculumGPerL'
 		);

@@ -173,7 +173,10 @@ describe('element sums', () => {
 				{ component: component('magnesium-sulfate-heptahydrate'), amount: 1, unit: 'g/L' }
 			]
 		});
-		expect(result.dissolvedSolidsGPerL).toBeCloseTo(6 + (20 * (6 * W.C + 12 * W.H + 6 * W.O)) / 1000 + 1, 9);
+		expect(result.dissolvedSolidsGPerL).toBeCloseTo(
+			6 + (20 * (6 * W.C + 12 * W.H + 6 * W.O)) / 1000 + 1,
+			9
+		);
 	});
 });
 
@@ -275,7 +278,11 @@ describe('warnings', () => {
 			]
 		});
 		const warning = result.warnings.find((w) => w.kind === 'precipitation');
-		expect(warning).toMatchObject({ basis: 'common practice', lineIndexes: [0, 2], precipitate: 'calcium phosphate' });
+		expect(warning).toMatchObject({
+			basis: 'common practice',
+			lineIndexes: [0, 2],
+			precipitate: 'calcium phosphate'
+		});
 		expect(warning?.message).toMatch(/Ca 2 mM with phosphate 3 mM/);
 		expect(warning?.message).toMatch(/common practice/);
 	});

@@ -1,12 +1,28 @@
 import { describe, expect, it } from 'vitest';
 import type { ComponentSpec } from '../../chemistry/components';
 import { computeComposition, PRECIPITATION_RULES } from '../../chemistry/composition';
-import { designFeeds, type FeedDesignInput, type FeedDesignResult } from '../../chemistry/feed-design';
+import {
+	designFeeds,
+	type FeedDesignInput,
+	type FeedDesignResult
+} from '../../chemistry/feed-design';
 import reference from './reference/feed-design-lp.json';
 import { errorOf } from './input-error';
 
 // IUPAC 2021 standard atomic weights, conventional values (Prohaska et al., Pure Appl. Chem. 94:573, 2022).
-const W = { H: 1.008, C: 12.011, N: 14.007, O: 15.999, Na: 22.98976928, Mg: 24.305, P: 30.973761998, S: 32.06, Cl: 35.45, K: 39.0983, Ca: 40.078 };
+const W = {
+	H: 1.008,
+	C: 12.011,
+	N: 14.007,
+	O: 15.999,
+	Na: 22.98976928,
+	Mg: 24.305,
+	P: 30.973761998,
+	S: 32.06,
+	Cl: 35.45,
+	K: 39.0983,
+	Ca: 40.078
+};
 // Osmotic coefficients at physiological concentration, 37 °C (chemistry/REFERENCES.md, Osmolality, "C"):
 // NaCl 0.93, KCl 0.92, KH2PO4 0.87, CaCl2 0.86, MgSO4 0.58, Na2SO4 0.74, glucose 1.01. Salts without a
 // value of their own borrow one of the same charge type, as the component library does.
@@ -15,18 +31,67 @@ const PHI = { KCl: 0.92, KH2PO4: 0.87, CaCl2: 0.86, MgSO4: 0.58, Na2SO4: 0.74, g
 function ion(label: string, charge: number, count = 1) {
 	return { ion: label, charge, count };
 }
-function spec(id: string, formula: string, ions: ReturnType<typeof ion>[], phi: number, solubilityGPerL: number): ComponentSpec {
-	return { id, name: id, formula, ions, osmoticCoefficient: phi, solubility: { points: [{ temperatureC: 25, gPerL: solubilityGPerL }], source: 'test value' } };
+function spec(
+	id: string,
+	formula: string,
+	ions: ReturnType<typeof ion>[],
+	phi: number,
+	solubilityGPerL: number
+): ComponentSpec {
+	return {
+		id,
+		name: id,
+		formula,
+		ions,
+		osmoticCoefficient: phi,
+		solubility: { points: [{ temperatureC: 25, gPerL: solubilityGPerL }], source: 'test value' }
+	};
 }
 
 // Solubilities at 25 °C as the component library holds them (CRC Handbook / Merck Index, from memory).
 const glucose = spec('d-glucose', 'C6H12O6', [], PHI.glucose, 909);
-const calciumChloride = spec('calcium-chloride', 'CaCl2', [ion('Ca^2+', 2), ion('Cl-', -1, 2)], PHI.CaCl2, 813);
-const sodiumPhosphate = spec('sodium-dihydrogen-phosphate', 'NaH2PO4', [ion('Na+', 1), ion('H2PO4-', -1)], PHI.KH2PO4, 950);
-const ammoniumChloride = spec('ammonium-chloride', 'NH4Cl', [ion('NH4+', 1), ion('Cl-', -1)], PHI.KCl, 395);
-const ammoniumSulfate = spec('ammonium-sulfate', '(NH4)2SO4', [ion('NH4+', 1, 2), ion('SO4^2-', -2)], PHI.Na2SO4, 764);
-const potassiumChloride = spec('potassium-chloride', 'KCl', [ion('K+', 1), ion('Cl-', -1)], PHI.KCl, 355);
-const potassiumSulfate = spec('potassium-sulfate', 'K2SO4', [ion('K+', 1, 2), ion('SO4^2-', -2)], PHI.Na2SO4, 120);
+const calciumChloride = spec(
+	'calcium-chloride',
+	'CaCl2',
+	[ion('Ca^2+', 2), ion('Cl-', -1, 2)],
+	PHI.CaCl2,
+	813
+);
+const sodiumPhosphate = spec(
+	'sodium-dihydrogen-phosphate',
+	'NaH2PO4',
+	[ion('Na+', 1), ion('H2PO4-', -1)],
+	PHI.KH2PO4,
+	950
+);
+const ammoniumChloride = spec(
+	'ammonium-chloride',
+	'NH4Cl',
+	[ion('NH4+', 1), ion('Cl-', -1)],
+	PHI.KCl,
+	395
+);
+const ammoniumSulfate = spec(
+	'ammonium-sulfate',
+	'(NH4)2SO4',
+	[ion('NH4+', 1, 2), ion('SO4^2-', -2)],
+	PHI.Na2SO4,
+	764
+);
+const potassiumChloride = spec(
+	'potassium-chloride',
+	'KCl',
+	[ion('K+', 1), ion('Cl-', -1)],
+	PHI.KCl,
+	355
+);
+const potassiumSulfate = spec(
+	'potassium-sulfate',
+	'K2SO4',
+	[ion('K+', 1, 2), ion('SO4^2-', -2)],
+	PHI.Na2SO4,
+	120
+);
 
 const M = {
 	glucose: 6 * W.C + 12 * W.H + 6 * W.O,
@@ -86,20 +151,35 @@ describe('one feed, worked by hand', () => {
 
 	it("reports the recipe analysis's osmolality and dissolved solids for the feed", () => {
 		// Σ c·ν·φ: 330/180.156 × 1000 × 1 × 1.01 + 85.54/53.489 × 1000 × 2 × 0.92 = 1850.0 + 2942.6 = 4792.6 mOsm/kg.
-		const hand = (330 / M.glucose) * 1000 * PHI.glucose + (nh4clGPerL / nh4clM) * 1000 * 2 * PHI.KCl;
+		const hand =
+			(330 / M.glucose) * 1000 * PHI.glucose + (nh4clGPerL / nh4clM) * 1000 * 2 * PHI.KCl;
 		expect(hand).toBeCloseTo(4792.6, 0);
 		const feed = result.feeds[0];
 		expect(feed.osmolalityMOsmPerKg).toBeGreaterThanOrEqual(hand * (1 - 1e-9));
 		expect(feed.osmolalityMOsmPerKg / hand - 1).toBeLessThan(1e-3);
 		// Dissolved solids: 330 g/L glucose + the NH4Cl line.
-		expect(feed.dissolvedSolidsGPerL).toBeCloseTo(330 + linesOf(result, 'single')['ammonium-chloride'].gPerL, 9);
-		const check = computeComposition({ lines: feed.lines.map((l) => ({ component: l.componentId === 'd-glucose' ? glucose : ammoniumChloride, amount: l.gPerL, unit: 'g/L' })) });
+		expect(feed.dissolvedSolidsGPerL).toBeCloseTo(
+			330 + linesOf(result, 'single')['ammonium-chloride'].gPerL,
+			9
+		);
+		const check = computeComposition({
+			lines: feed.lines.map((l) => ({
+				component: l.componentId === 'd-glucose' ? glucose : ammoniumChloride,
+				amount: l.gPerL,
+				unit: 'g/L'
+			}))
+		});
 		expect(feed.osmolalityMOsmPerKg).toBe(check.osmolality.estimateMOsmPerKg);
 		expect(feed.warnings).toEqual([]);
 	});
 
 	it('refuses the same feed under a 3000 mOsm/kg limit in one litre', () => {
-		const tight = designFeeds(input({ candidates: [{ component: glucose }, { component: ammoniumChloride }], needs: [need('d-glucose', 30), need('N', 2.4, 4)] }));
+		const tight = designFeeds(
+			input({
+				candidates: [{ component: glucose }, { component: ammoniumChloride }],
+				needs: [need('d-glucose', 30), need('N', 2.4, 4)]
+			})
+		);
 		expect(tight.feasible).toBe(false);
 		expect(tight.problems[0]).toContain('osmolality limit of 3000 mOsm/kg');
 	});
@@ -110,7 +190,13 @@ describe('the least-mass mix under an osmolality limit, against an independent L
 	// tests/chemistry/reference/feed-design-lp.json. The osmolality limit binds, so cheap NH4Cl gives way to (NH4)2SO4.
 	const result = designFeeds(
 		input({
-			candidates: [ammoniumChloride, ammoniumSulfate, potassiumChloride, potassiumSulfate, glucose].map((component) => ({ component })),
+			candidates: [
+				ammoniumChloride,
+				ammoniumSulfate,
+				potassiumChloride,
+				potassiumSulfate,
+				glucose
+			].map((component) => ({ component })),
 			needs: [need('d-glucose', 40), need('N', 3, 3), need('K', 2, 2), need('S', 0.5, 0.5)],
 			feedVolumeL: 2,
 			osmolalityMaxMOsmPerKg: 3600
@@ -132,7 +218,9 @@ describe('the least-mass mix under an osmolality limit, against an independent L
 		expect(total / reference.totalMassG - 1).toBeLessThan(1e-3);
 		// The limit binds (0.2 % below it, the designer's margin for rounding).
 		expect(result.feeds[0].osmolalityMOsmPerKg).toBeLessThanOrEqual(3600);
-		expect(result.feeds[0].osmolalityMOsmPerKg).toBeGreaterThanOrEqual(reference.bindingOsmolalityMOsmPerKg * (1 - 1e-6));
+		expect(result.feeds[0].osmolalityMOsmPerKg).toBeGreaterThanOrEqual(
+			reference.bindingOsmolalityMOsmPerKg * (1 - 1e-6)
+		);
 		for (const c of result.coverage) expect(c.providedG).toBeGreaterThanOrEqual(c.neededG);
 	});
 });
@@ -142,7 +230,11 @@ describe('a precipitation pair splits the proposal', () => {
 	// NaH2PO4 5.5 × 119.976 / 30.974 = 21.30 g; glucose 30 × 11 = 330 g. In one litre: Ca 54.9 mM with phosphate
 	// 177.6 mM, which the recipe analysis flags as calcium phosphate (from 1 mM each).
 	const design = input({
-		candidates: [{ component: glucose }, { component: calciumChloride }, { component: sodiumPhosphate }],
+		candidates: [
+			{ component: glucose },
+			{ component: calciumChloride },
+			{ component: sodiumPhosphate }
+		],
 		needs: [need('d-glucose', 30), need('Ca', 0.2), need('P', 0.5)]
 	});
 	const result = designFeeds(design);
@@ -150,21 +242,29 @@ describe('a precipitation pair splits the proposal', () => {
 	const phosphateG = (5.5 * M.NaH2PO4) / W.P;
 	// Osmoles by hand (Σ g/M × ν × φ, mOsm): A = CaCl2 × 3 × 0.86; B = NaH2PO4 × 2 × 0.87 + glucose × 1.01.
 	const osmolesA = (cacl2G / M.CaCl2) * 1000 * 3 * PHI.CaCl2;
-	const osmolesB = (phosphateG / M.NaH2PO4) * 1000 * 2 * PHI.KH2PO4 + (330 / M.glucose) * 1000 * PHI.glucose;
+	const osmolesB =
+		(phosphateG / M.NaH2PO4) * 1000 * 2 * PHI.KH2PO4 + (330 / M.glucose) * 1000 * PHI.glucose;
 
 	it('says which pair forbids one feed, with the analysis’s own rule', () => {
 		expect(result.split?.precipitates).toEqual(['calcium phosphate']);
 		const rule = PRECIPITATION_RULES.find((r) => r.product === 'calcium phosphate')!;
-		expect(result.split?.warnings[0]).toContain(`flagged from ${rule.cationMinMM} mM Ca and ${rule.anionMinMM} mM phosphate`);
+		expect(result.split?.warnings[0]).toContain(
+			`flagged from ${rule.cationMinMM} mM Ca and ${rule.anionMinMM} mM phosphate`
+		);
 	});
 
 	it('puts calcium in feed A and phosphate with the glucose in feed B', () => {
 		expect(result.feasible).toBe(true);
 		expect(result.feeds.map((f) => f.key)).toEqual(['cations', 'anions']);
 		expect(Object.keys(linesOf(result, 'cations'))).toEqual(['calcium-chloride']);
-		expect(Object.keys(linesOf(result, 'anions')).sort()).toEqual(['d-glucose', 'sodium-dihydrogen-phosphate']);
+		expect(Object.keys(linesOf(result, 'anions')).sort()).toEqual([
+			'd-glucose',
+			'sodium-dihydrogen-phosphate'
+		]);
 		expect(linesOf(result, 'cations')['calcium-chloride'].massG / cacl2G - 1).toBeLessThan(1e-3);
-		expect(linesOf(result, 'anions')['sodium-dihydrogen-phosphate'].massG / phosphateG - 1).toBeLessThan(1e-3);
+		expect(
+			linesOf(result, 'anions')['sodium-dihydrogen-phosphate'].massG / phosphateG - 1
+		).toBeLessThan(1e-3);
 	});
 
 	it('shares the volume so both feeds sit equally far below their tightest limit, together the volume asked for', () => {
@@ -174,15 +274,29 @@ describe('a precipitation pair splits the proposal', () => {
 		expect(a.volumeL + b.volumeL).toBeCloseTo(1, 12);
 		expect(a.volumeL).toBeCloseTo(osmolesA / (osmolesA + osmolesB), 6);
 		expect(osmolesA + osmolesB).toBeCloseTo(2300.9, 0);
-		for (const feed of result.feeds) expect(feed.osmolalityMOsmPerKg / (osmolesA + osmolesB) - 1).toBeLessThan(1e-3);
+		for (const feed of result.feeds)
+			expect(feed.osmolalityMOsmPerKg / (osmolesA + osmolesB) - 1).toBeLessThan(1e-3);
 	});
 
 	it('gives feeds the recipe analysis passes: no warning, within both limits', () => {
 		for (const feed of result.feeds) {
-			const specs = { 'd-glucose': glucose, 'calcium-chloride': calciumChloride, 'sodium-dihydrogen-phosphate': sodiumPhosphate } as Record<string, ComponentSpec>;
-			const analysis = computeComposition({ lines: feed.lines.map((l) => ({ component: specs[l.componentId], amount: l.gPerL, unit: 'g/L' })), temperatureC: 25 });
+			const specs = {
+				'd-glucose': glucose,
+				'calcium-chloride': calciumChloride,
+				'sodium-dihydrogen-phosphate': sodiumPhosphate
+			} as Record<string, ComponentSpec>;
+			const analysis = computeComposition({
+				lines: feed.lines.map((l) => ({
+					component: specs[l.componentId],
+					amount: l.gPerL,
+					unit: 'g/L'
+				})),
+				temperatureC: 25
+			});
 			expect(analysis.warnings).toEqual([]);
-			expect(analysis.osmolality.estimateMOsmPerKg).toBeLessThanOrEqual(design.osmolalityMaxMOsmPerKg);
+			expect(analysis.osmolality.estimateMOsmPerKg).toBeLessThanOrEqual(
+				design.osmolalityMaxMOsmPerKg
+			);
 			expect(analysis.dissolvedSolidsGPerL).toBeLessThanOrEqual(design.dissolvedSolidsMaxGPerL);
 		}
 	});
@@ -190,8 +304,20 @@ describe('a precipitation pair splits the proposal', () => {
 	it('says which pair forbids one feed when the two feeds cannot fit the volume', () => {
 		// Test salts that dissolve only to 10 g/L. Each nutrient needs 8 g of its salt at 1 L of feed (8 (10 + V) / 11 g at V L):
 		// one litre holds both (8 g/L each), but apart each feed needs 8 / (10 × 0.998) = 0.80 L, 1.60 L in all.
-		const calciumSalt = spec('calcium-salt', 'CaCl2', [ion('Ca^2+', 2), ion('Cl-', -1, 2)], PHI.CaCl2, 10);
-		const phosphateSalt = spec('phosphate-salt', 'NaH2PO4', [ion('Na+', 1), ion('H2PO4-', -1)], PHI.KH2PO4, 10);
+		const calciumSalt = spec(
+			'calcium-salt',
+			'CaCl2',
+			[ion('Ca^2+', 2), ion('Cl-', -1, 2)],
+			PHI.CaCl2,
+			10
+		);
+		const phosphateSalt = spec(
+			'phosphate-salt',
+			'NaH2PO4',
+			[ion('Na+', 1), ion('H2PO4-', -1)],
+			PHI.KH2PO4,
+			10
+		);
 		const tight = designFeeds(
 			input({
 				candidates: [{ component: calciumSalt }, { component: phosphateSalt }],
@@ -200,7 +326,9 @@ describe('a precipitation pair splits the proposal', () => {
 		);
 		expect(tight.feasible).toBe(false);
 		expect(tight.split?.precipitates).toEqual(['calcium phosphate']);
-		expect(tight.problems[0]).toBe('One feed is ruled out: the recipe analysis flags calcium phosphate in it (common practice: these are kept apart). Split in two, the feeds cannot meet every demand within the limits:');
+		expect(tight.problems[0]).toBe(
+			'One feed is ruled out: the recipe analysis flags calcium phosphate in it (common practice: these are kept apart). Split in two, the feeds cannot meet every demand within the limits:'
+		);
 		// Two feeds of V_A = V_B = 8 (10 + V) / 11 / 9.98 L: V = 16 (10 + V) / 109.78 → V = 160 / 93.78 = 1.7061 L.
 		const leastL = 160 / (11 * 10 * 0.998 - 16);
 		expect(leastL).toBeCloseTo(1.7061, 4);
@@ -211,19 +339,37 @@ describe('a precipitation pair splits the proposal', () => {
 	it('cannot split a component that brings both partners itself, and says so', () => {
 		// MgHPO4 (a test component): Mg 0.5 g/L × 11 L = 5.5 g → 27.2 g in 1 L, 226 mM of Mg and of phosphate,
 		// flagged as magnesium phosphate (from 1 mM Mg with 10 mM phosphate) in any feed that holds it.
-		const mgHpo4 = spec('magnesium-hydrogen-phosphate', 'MgHPO4', [ion('Mg^2+', 2), ion('HPO4^2-', -2)], PHI.MgSO4, 100);
+		const mgHpo4 = spec(
+			'magnesium-hydrogen-phosphate',
+			'MgHPO4',
+			[ion('Mg^2+', 2), ion('HPO4^2-', -2)],
+			PHI.MgSO4,
+			100
+		);
 		expect((5.5 * M.MgHPO4) / W.Mg).toBeCloseTo(27.22, 2);
-		const stuck = designFeeds(input({ candidates: [{ component: mgHpo4 }], needs: [need('Mg', 0.5)] }));
+		const stuck = designFeeds(
+			input({ candidates: [{ component: mgHpo4 }], needs: [need('Mg', 0.5)] })
+		);
 		expect(stuck.feasible).toBe(false);
 		expect(stuck.split?.precipitates).toEqual(['magnesium phosphate']);
-		expect(stuck.problems[0]).toMatch(/magnesium-hydrogen-phosphate brings both Mg and phosphate itself, so no split keeps that pair apart/);
+		expect(stuck.problems[0]).toMatch(
+			/magnesium-hydrogen-phosphate brings both Mg and phosphate itself, so no split keeps that pair apart/
+		);
 	});
 });
 
 describe('limits that cannot be met', () => {
 	// Glucose only, 10 L + V L, 30 g/L × (10 + V) g in V L, each g/L counting 1000 × 1.01 / 180.156 = 5.606 mOsm/kg.
 	const o = (1000 * PHI.glucose) / M.glucose;
-	const glucoseOnly = (partial: Partial<FeedDesignInput>) => designFeeds(input({ candidates: [{ component: glucose }], needs: [need('d-glucose', 30)], osmolalityMaxMOsmPerKg: 1500, ...partial }));
+	const glucoseOnly = (partial: Partial<FeedDesignInput>) =>
+		designFeeds(
+			input({
+				candidates: [{ component: glucose }],
+				needs: [need('d-glucose', 30)],
+				osmolalityMaxMOsmPerKg: 1500,
+				...partial
+			})
+		);
 
 	it('names the limit, how far off it is, and the least volume that works', () => {
 		const result = glucoseOnly({ feedVolumeL: 1 });
@@ -249,12 +395,21 @@ describe('limits that cannot be met', () => {
 	});
 
 	it('names a nutrient no chosen component carries', () => {
-		const result = designFeeds(input({ candidates: [{ component: glucose }], needs: [need('d-glucose', 30), need('Ca', 0.2)] }));
-		expect(result.problems).toEqual(['No chosen component provides Ca; the feed needs 2.2 g of it in all. Add a component that carries it.']);
+		const result = designFeeds(
+			input({
+				candidates: [{ component: glucose }],
+				needs: [need('d-glucose', 30), need('Ca', 0.2)]
+			})
+		);
+		expect(result.problems).toEqual([
+			'No chosen component provides Ca; the feed needs 2.2 g of it in all. Add a component that carries it.'
+		]);
 	});
 
 	it('proposes nothing when the basal medium already covers every need', () => {
-		const result = designFeeds(input({ candidates: [{ component: glucose }], needs: [need('d-glucose', 30, 400)] }));
+		const result = designFeeds(
+			input({ candidates: [{ component: glucose }], needs: [need('d-glucose', 30, 400)] })
+		);
 		expect(result.feasible).toBe(true);
 		expect(result.feeds).toEqual([]);
 		expect(result.notes.join(' ')).toMatch(/no feed is needed/);
@@ -267,11 +422,22 @@ describe('bad input names its field', () => {
 		['no feed volume', { feedVolumeL: 0 }, 'feedVolumeL'],
 		['more feed than room in the vessel', { feedVolumeL: 6 }, 'feedVolumeL'],
 		['no candidate', { candidates: [] }, 'candidates'],
-		['a candidate twice', { candidates: [{ component: glucose }, { component: glucose }] }, 'candidates.1'],
+		[
+			'a candidate twice',
+			{ candidates: [{ component: glucose }, { component: glucose }] },
+			'candidates.1'
+		],
 		['a negative osmolality limit', { osmolalityMaxMOsmPerKg: -1 }, 'osmolalityMaxMOsmPerKg'],
-		['a solids limit that is not a number', { dissolvedSolidsMaxGPerL: Number.NaN }, 'dissolvedSolidsMaxGPerL'],
+		[
+			'a solids limit that is not a number',
+			{ dissolvedSolidsMaxGPerL: Number.NaN },
+			'dissolvedSolidsMaxGPerL'
+		],
 		['a temperature beyond water', { temperatureC: 400 }, 'temperatureC']
-	] as [string, Partial<FeedDesignInput>, string][])('%s names its field', (_what, partial, field) => {
-		expect(errorOf(() => designFeeds(input({ ...base, ...partial }))).field).toBe(field);
-	});
+	] as [string, Partial<FeedDesignInput>, string][])(
+		'%s names its field',
+		(_what, partial, field) => {
+			expect(errorOf(() => designFeeds(input({ ...base, ...partial }))).field).toBe(field);
+		}
+	);
 });

@@ -30,7 +30,11 @@ function simulateMonodBatch(kinetics: { muMaxPerH: number; ksGPerL: number; yiel
 }
 
 /** The run's X and S with seeded multiplicative normal noise (S never below 0). */
-function withRelativeNoise(run: ReturnType<typeof simulateRun>, seed: number, relativeNoise: number) {
+function withRelativeNoise(
+	run: ReturnType<typeof simulateRun>,
+	seed: number,
+	relativeNoise: number
+) {
 	const normal = createNormalSource(seed);
 	return {
 		timeH: run.t,
@@ -78,7 +82,8 @@ describe('fitGrowthCurve', () => {
 	const truth = { muMaxPerH: 0.4, ksGPerL: 0.3, yieldXS: 0.45 };
 	// Every 15 min: Ks is only seen in the last hour before exhaustion, and μmax is tied to Ks.
 	const run = simulateMonodBatch(truth);
-	const noisyData = (seed: number, relativeNoise: number) => withRelativeNoise(run, seed, relativeNoise);
+	const noisyData = (seed: number, relativeNoise: number) =>
+		withRelativeNoise(run, seed, relativeNoise);
 
 	it('recovers μmax and Yx/s within 2 % from model data with 2 % noise', () => {
 		// Data from the integrated model (simulateRun); the fit uses the implicit closed form, so the
@@ -472,4 +477,5 @@ describe('whole-curve Monod fit: 95 % intervals and warnings', () => {
 
 const monodTruth = { muMaxPerH: 0.4, ksGPerL: 0.2, yieldXS: 0.45 };
 const monodRun = simulateMonodBatch(monodTruth);
-const noisyMonodData = (seed: number, relativeNoise: number) => withRelativeNoise(monodRun, seed, relativeNoise);
+const noisyMonodData = (seed: number, relativeNoise: number) =>
+	withRelativeNoise(monodRun, seed, relativeNoise);

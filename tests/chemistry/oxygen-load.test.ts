@@ -5,7 +5,11 @@ import { simulateRun, type SimulationRequest } from '../../chemistry/simulation'
 describe('the peak oxygen load of a run', () => {
 	it('finds the peak OUR and, apart from it, the peak of OUR·V that the heat follows', () => {
 		// Hand-made series: OUR levels off at 100 while the volume keeps growing.
-		const peak = findPeakOxygenLoad({ t: [0, 1, 2, 3], ourMmolPerLH: [10, 100, 90, 80], volumeL: [1, 1, 1.5, 2] });
+		const peak = findPeakOxygenLoad({
+			t: [0, 1, 2, 3],
+			ourMmolPerLH: [10, 100, 90, 80],
+			volumeL: [1, 1, 1.5, 2]
+		});
 		expect(peak.peakOurMmolPerLH).toBe(100);
 		expect(peak.peakOurAtH).toBe(1);
 		expect(peak.peakUptakeMmolPerH).toBe(160);
@@ -57,7 +61,10 @@ describe('the O2 demand of a run whose growth oxygen never holds back', () => {
 
 	it('with limitsGrowth false, DO is followed and held at 0 but growth is that of the run without oxygen', () => {
 		const free = simulateRun(base);
-		const followed = simulateRun({ ...base, oxygen: { kLaPerH: 100, saturationMgPerL: 7, limitsGrowth: false } });
+		const followed = simulateRun({
+			...base,
+			oxygen: { kLaPerH: 100, saturationMgPerL: 7, limitsGrowth: false }
+		});
 		expect(followed.oxygenLimitedH!.length).toBeGreaterThan(0);
 		followed.t.forEach((_, i) => {
 			expect(followed.biomassGPerL[i] / free.biomassGPerL[i] - 1).toBeCloseTo(0, 6);
@@ -74,7 +81,11 @@ describe('the O2 demand of a run whose growth oxygen never holds back', () => {
 
 	it('refuses K_O with limitsGrowth false, naming the field', () => {
 		expect(() =>
-			simulateRun({ ...base, kinetics: { ...base.kinetics, koMgPerL: 0.1 }, oxygen: { kLaPerH: 100, saturationMgPerL: 7, limitsGrowth: false } })
+			simulateRun({
+				...base,
+				kinetics: { ...base.kinetics, koMgPerL: 0.1 },
+				oxygen: { kLaPerH: 100, saturationMgPerL: 7, limitsGrowth: false }
+			})
 		).toThrow(/koMgPerL/);
 	});
 });

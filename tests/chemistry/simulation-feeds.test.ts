@@ -11,7 +11,10 @@ import { errorOf } from './input-error';
 
 const kinetics = { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 };
 
-function fedBatch(feeds: FeedInput[], overrides: Partial<SimulationRequest> = {}): SimulationRequest {
+function fedBatch(
+	feeds: FeedInput[],
+	overrides: Partial<SimulationRequest> = {}
+): SimulationRequest {
 	return {
 		mode: 'fedBatch',
 		kinetics,
@@ -213,7 +216,9 @@ describe('several feed streams: delivered volumes, rates and starts', () => {
 		expect(late.deliveredL).toBeCloseTo(0.4, 12);
 		expect(r.volumeL.at(-1)).toBeCloseTo(1.9, 12);
 		const started = r.events.find((e) => e.kind === 'feedStarted');
-		expect(started?.message).toBe('Feed 2 of 2 (constant) started after 0.4 L of its 0.5 L bolus (the vessel was full).');
+		expect(started?.message).toBe(
+			'Feed 2 of 2 (constant) started after 0.4 L of its 0.5 L bolus (the vessel was full).'
+		);
 		expect(r.events.at(-1)?.kind).toBe('maxVolumeReached');
 	});
 
@@ -260,7 +265,9 @@ describe('several feed streams: delivered volumes, rates and starts', () => {
 		const end = r.t.length - 1;
 		const vEnd = r.volumeL[end];
 		const conserved =
-			r.biomassGPerL[end] * vEnd + 0.5 * r.substrateGPerL[end] * vEnd - 0.5 * 300 * glucose.deliveredL;
+			r.biomassGPerL[end] * vEnd +
+			0.5 * r.substrateGPerL[end] * vEnd -
+			0.5 * 300 * glucose.deliveredL;
 		expectRelativelyClose(conserved, 0.5 + 0.5 * 5, 1e-6);
 		expect(glucose.deliveredL + aminoAcids.deliveredL).toBeCloseTo(vEnd - 1, 10);
 	});
@@ -288,7 +295,13 @@ describe('several feed streams: delivered volumes, rates and starts', () => {
 });
 
 describe('the single feed as one stream', () => {
-	const feed: FeedInput = { strategy: 'exponential', substrateGPerL: 200, muSetPerH: 0.2, startH: 3, bolusL: 0.05 };
+	const feed: FeedInput = {
+		strategy: 'exponential',
+		substrateGPerL: 200,
+		muSetPerH: 0.2,
+		startH: 3,
+		bolusL: 0.05
+	};
 
 	it('lists the single feed as one stream whose delivered volume is the volume gained', () => {
 		const { feeds: _, ...rest } = fedBatch([]);
@@ -354,17 +367,22 @@ describe('feeds validation names the field', () => {
 		expect(e.message).toMatch(/either feed .* or feeds .*not both/);
 	});
 
-	it.each(['batch', 'chemostat', 'perfusion', 'drawFill'] as const)('refuses feeds in %s mode', (mode) => {
-		const e = errorOf(() => simulateRun({ ...fedBatch([good]), mode }));
-		expect(e.field).toBe('feeds');
-		expect(e.message).toMatch(/feeds .*only in fedBatch mode/);
-	});
+	it.each(['batch', 'chemostat', 'perfusion', 'drawFill'] as const)(
+		'refuses feeds in %s mode',
+		(mode) => {
+			const e = errorOf(() => simulateRun({ ...fedBatch([good]), mode }));
+			expect(e.field).toBe('feeds');
+			expect(e.message).toMatch(/feeds .*only in fedBatch mode/);
+		}
+	);
 
 	it('takes 1 to 8 streams', () => {
 		expect(fieldOf(fedBatch([]))).toBe('feeds');
 		expect(fieldOf(fedBatch(new Array<FeedInput>(MAX_FEED_STREAMS + 1).fill(good)))).toBe('feeds');
 		expect(fieldOf(fedBatch(good as unknown as FeedInput[]))).toBe('feeds');
-		const eight = simulateRun(fedBatch(new Array<FeedInput>(MAX_FEED_STREAMS).fill(good), { endH: 2 }));
+		const eight = simulateRun(
+			fedBatch(new Array<FeedInput>(MAX_FEED_STREAMS).fill(good), { endH: 2 })
+		);
 		expect(streams(eight)).toHaveLength(8);
 		// Eight equal streams deliver eight times one (∫ constant, analytic).
 		expect(streams(eight).reduce((sum, s) => sum + s.deliveredL, 0)).toBeCloseTo(8 * 0.01 * 2, 12);
@@ -380,14 +398,26 @@ describe('feeds validation names the field', () => {
 		['feeds.0.muSetPerH', [{ ...good, muSetPerH: 0.2 }]],
 		['feeds.1.muSetPerH', [good, { strategy: 'exponential', substrateGPerL: 200, muSetPerH: 0.5 }]],
 		// exponential and substrate-stat streams divide by S_f − S: they need S_f above the initial S.
-		['feeds.1.substrateGPerL', [water, { strategy: 'exponential', substrateGPerL: 0, muSetPerH: 0.2 }]],
-		['feeds.0.substrateGPerL', [{ strategy: 'substrateStat', substrateGPerL: 0.8, setpointGPerL: 0.5 }]],
+		[
+			'feeds.1.substrateGPerL',
+			[water, { strategy: 'exponential', substrateGPerL: 0, muSetPerH: 0.2 }]
+		],
+		[
+			'feeds.0.substrateGPerL',
+			[{ strategy: 'substrateStat', substrateGPerL: 0.8, setpointGPerL: 0.5 }]
+		],
 		['feeds.0.setpointGPerL', [{ strategy: 'substrateStat', substrateGPerL: 2, setpointGPerL: 3 }]],
-		['feeds.0.maxRateLPerH', [{ strategy: 'linear', substrateGPerL: 0, rateLPerH: 0.1, slopeLPerH2: 0, maxRateLPerH: 0 }]],
+		[
+			'feeds.0.maxRateLPerH',
+			[{ strategy: 'linear', substrateGPerL: 0, rateLPerH: 0.1, slopeLPerH2: 0, maxRateLPerH: 0 }]
+		],
 		['feeds.0.label', [{ ...good, label: 'x'.repeat(81) }]],
 		['feeds.0.label', [{ ...good, label: '   ' }]],
 		['feeds.0.label', [{ ...good, label: 7 as unknown as string }]],
-		['feeds.1.expression', [good, { strategy: 'expression', substrateGPerL: 0, expression: 'volume * 2' }]],
+		[
+			'feeds.1.expression',
+			[good, { strategy: 'expression', substrateGPerL: 0, expression: 'volume * 2' }]
+		],
 		['oxygen', [{ strategy: 'doStat', substrateGPerL: 0, doSetpointMgPerL: 2, maxRateLPerH: 0.1 }]]
 	] as const)('%s', (field, feeds) => {
 		expect(fieldOf(fedBatch(feeds as unknown as FeedInput[]))).toBe(field);
@@ -406,7 +436,10 @@ describe('feeds validation names the field', () => {
 	it('names the stream of a feed expression that fails while running', () => {
 		const e = errorOf(() =>
 			simulateRun(
-				fedBatch([good, { strategy: 'expression', substrateGPerL: 0, expression: '0.01 - 0.002 * t' }])
+				fedBatch([
+					good,
+					{ strategy: 'expression', substrateGPerL: 0, expression: '0.01 - 0.002 * t' }
+				])
 			)
 		);
 		expect(e.field).toBe('feeds.1.expression');
@@ -428,7 +461,12 @@ describe('feeds validation names the field', () => {
 				}
 			)
 		);
-		expect(streams(r).map((s) => s.strategy)).toEqual(['constant', 'linear', 'expression', 'doStat']);
+		expect(streams(r).map((s) => s.strategy)).toEqual([
+			'constant',
+			'linear',
+			'expression',
+			'doStat'
+		]);
 	});
 
 	it('keeps the single feed’s rules: it still needs substrate, and a label only in fed-batch', () => {

@@ -40,26 +40,34 @@ describe('simulation against an independent stiff integrator (SciPy Radau, rtol 
 		expect(reference.cases.length).toBeGreaterThanOrEqual(6);
 	});
 
-	it.each(reference.cases.map((c) => [c.name, c] as const))('%s: X, S and V within 1 %', (_name, c) => {
-		const r = simulateRun(c.request);
-		expect(r.stoppedAtH).toBeUndefined();
-		c.t.forEach((tH, i) => {
-			const j = r.t.findIndex((t) => Math.abs(t - tH) < 1e-9);
-			expect(j, `output at ${tH} h`).toBeGreaterThanOrEqual(0);
-			expectWithinOnePercent(r.biomassGPerL[j], c.biomassGPerL[i], 1e-9, `X at ${tH} h`);
-			expectWithinOnePercent(r.substrateGPerL[j], c.substrateGPerL[i], 1e-6, `S at ${tH} h`);
-			expectWithinOnePercent(r.volumeL[j], c.volumeL[i], 1e-9, `V at ${tH} h`);
-			if (c.dissolvedOxygenMgPerL) {
-				// DO within 1 % of saturation: the library may solve it at quasi-steady state (see the model help).
-				const cStar = c.request.oxygen!.saturationMgPerL;
-				expect(Math.abs(r.dissolvedOxygenMgPerL![j] - c.dissolvedOxygenMgPerL[i])).toBeLessThan(0.01 * cStar);
-			}
-		});
-	});
+	it.each(reference.cases.map((c) => [c.name, c] as const))(
+		'%s: X, S and V within 1 %',
+		(_name, c) => {
+			const r = simulateRun(c.request);
+			expect(r.stoppedAtH).toBeUndefined();
+			c.t.forEach((tH, i) => {
+				const j = r.t.findIndex((t) => Math.abs(t - tH) < 1e-9);
+				expect(j, `output at ${tH} h`).toBeGreaterThanOrEqual(0);
+				expectWithinOnePercent(r.biomassGPerL[j], c.biomassGPerL[i], 1e-9, `X at ${tH} h`);
+				expectWithinOnePercent(r.substrateGPerL[j], c.substrateGPerL[i], 1e-6, `S at ${tH} h`);
+				expectWithinOnePercent(r.volumeL[j], c.volumeL[i], 1e-9, `V at ${tH} h`);
+				if (c.dissolvedOxygenMgPerL) {
+					// DO within 1 % of saturation: the library may solve it at quasi-steady state (see the model help).
+					const cStar = c.request.oxygen!.saturationMgPerL;
+					expect(Math.abs(r.dissolvedOxygenMgPerL![j] - c.dissolvedOxygenMgPerL[i])).toBeLessThan(
+						0.01 * cStar
+					);
+				}
+			});
+		}
+	);
 
 	it('a constant feed never carries more biomass than the Pirt ceiling F·S_f/m_s', () => {
 		const c = reference.cases.find((k) => k.name.startsWith('constant-feed'))!;
-		const { rateLPerH, substrateGPerL } = c.request.feed as { rateLPerH: number; substrateGPerL: number };
+		const { rateLPerH, substrateGPerL } = c.request.feed as {
+			rateLPerH: number;
+			substrateGPerL: number;
+		};
 		const ceilingG = (rateLPerH * substrateGPerL) / c.request.kinetics.maintenanceGPerGH!;
 		const r = simulateRun(c.request);
 		const masses = r.biomassGPerL.map((x, i) => x * r.volumeL[i]);
@@ -96,7 +104,9 @@ describe('simulation against an independent stiff integrator (SciPy Radau, rtol 
 		const oxygen = reference.cases.find((k) => k.request.oxygen)!;
 		const limited = simulateRun(oxygen.request).oxygenLimitedH!;
 		const starts = oxygen.regimeChanges.filter(([name]) => name === 'O2 limit').map(([, t]) => t);
-		const ends = oxygen.regimeChanges.filter(([name]) => name === 'leave O2 limit').map(([, t]) => t);
+		const ends = oxygen.regimeChanges
+			.filter(([name]) => name === 'leave O2 limit')
+			.map(([, t]) => t);
 		expect(limited.map((l) => l.fromH)).toHaveLength(starts.length);
 		limited.forEach((l, k) => {
 			expect(Math.abs(l.fromH - starts[k])).toBeLessThan(0.01);

@@ -212,14 +212,38 @@ describe('feed expression sandbox', () => {
 	});
 
 	it('refuses a rate of more than 1000 culture volumes per hour as a unit slip (a plausibility guard of this product, not a published limit)', () => {
-		const e = errorOf(() => simulateRun({ ...base, feed: { strategy: 'expression', substrateGPerL: 200, expression: '1e200' } }));
+		const e = errorOf(() =>
+			simulateRun({
+				...base,
+				feed: { strategy: 'expression', substrateGPerL: 200, expression: '1e200' }
+			})
+		);
 		expect(e.field).toBe('feed.expression');
 		expect(e.message).toMatch(/more than 1000 times the culture volume/);
-		expect(fieldOf({ feed: { strategy: 'constant', substrateGPerL: 200, rateLPerH: 1001 } })).toBe('feed.rateLPerH');
+		expect(fieldOf({ feed: { strategy: 'constant', substrateGPerL: 200, rateLPerH: 1001 } })).toBe(
+			'feed.rateLPerH'
+		);
 		// Capped by the pump's top rate, the same expression is a plan.
-		expect(() => simulateRun({ ...base, feed: { strategy: 'expression', substrateGPerL: 200, expression: '1e200', maxRateLPerH: 0.01 } })).not.toThrow();
+		expect(() =>
+			simulateRun({
+				...base,
+				feed: {
+					strategy: 'expression',
+					substrateGPerL: 200,
+					expression: '1e200',
+					maxRateLPerH: 0.01
+				}
+			})
+		).not.toThrow();
 		// 1000 volumes per hour exactly is still accepted.
-		expect(() => simulateRun({ ...base, endH: 0.001, outputEveryH: 0.001, feed: { strategy: 'constant', substrateGPerL: 200, rateLPerH: 1000 } })).not.toThrow();
+		expect(() =>
+			simulateRun({
+				...base,
+				endH: 0.001,
+				outputEveryH: 0.001,
+				feed: { strategy: 'constant', substrateGPerL: 200, rateLPerH: 1000 }
+			})
+		).not.toThrow();
 	});
 
 	it('refuses unknown names through simulateRun as well', () => {

@@ -39,11 +39,14 @@ describe('χ² distribution', () => {
 		[0.95, 100, 124.342],
 		[0.05, 10, 3.94],
 		[0.05, 100, 77.929]
-	])('quantile(%f, %i) matches the printed table value %f', (probability, degreesOfFreedom, table) => {
-		// NIST/SEMATECH e-Handbook of Statistical Methods, 1.3.6.7.4 "Critical values of the chi-square
-		// distribution", 3 decimals (values from memory; each agrees with scipy.stats.chi2.ppf).
-		expect(computeChiSquareQuantile(probability, degreesOfFreedom)).toBeCloseTo(table, 3);
-	});
+	])(
+		'quantile(%f, %i) matches the printed table value %f',
+		(probability, degreesOfFreedom, table) => {
+			// NIST/SEMATECH e-Handbook of Statistical Methods, 1.3.6.7.4 "Critical values of the chi-square
+			// distribution", 3 decimals (values from memory; each agrees with scipy.stats.chi2.ppf).
+			expect(computeChiSquareQuantile(probability, degreesOfFreedom)).toBeCloseTo(table, 3);
+		}
+	);
 
 	it('has the closed forms of two degrees of freedom', () => {
 		// χ²(2) is exponential with mean 2: F(x) = 1 − e^(−x/2), so the quantile is −2 ln(1 − p).
@@ -76,11 +79,14 @@ describe("Student's t distribution", () => {
 		[0.975, 100, 1.984],
 		[0.95, 1, 6.314],
 		[0.95, 10, 1.812]
-	])('quantile(%f, %i) matches the printed table value %f', (probability, degreesOfFreedom, table) => {
-		// NIST/SEMATECH e-Handbook of Statistical Methods, 1.3.6.7.2 "Critical values of the Student's t
-		// distribution", 3 decimals (values from memory; each agrees with scipy.stats.t.ppf).
-		expect(computeStudentTQuantile(probability, degreesOfFreedom)).toBeCloseTo(table, 3);
-	});
+	])(
+		'quantile(%f, %i) matches the printed table value %f',
+		(probability, degreesOfFreedom, table) => {
+			// NIST/SEMATECH e-Handbook of Statistical Methods, 1.3.6.7.2 "Critical values of the Student's t
+			// distribution", 3 decimals (values from memory; each agrees with scipy.stats.t.ppf).
+			expect(computeStudentTQuantile(probability, degreesOfFreedom)).toBeCloseTo(table, 3);
+		}
+	);
 
 	it('keeps the 97.5 % table within 1e-5 of SciPy beyond the exact range', () => {
 		// Above ν = 100 the table uses the Cornish–Fisher expansion; SciPy reference (statistics.json).

@@ -169,33 +169,73 @@ describe('nutrient sufficiency', () => {
 		expect(r.sufficient).toBe(true);
 		const fe = r.lines.find((l) => l.key === 'Fe')!;
 		expect(fe.note).toContain('Not supplied');
-		expect(fe).toMatchObject({ role: 'trace', roleFrom: 'default', confidence: 'from memory', sufficient: false, ratio: 0 });
+		expect(fe).toMatchObject({
+			role: 'trace',
+			roleFrom: 'default',
+			confidence: 'from memory',
+			sufficient: false,
+			ratio: 0
+		});
 		// Fe 0.2 % of dry mass (Neidhardt et al. 1990, from memory in our table).
-		expect(r.warnings).toEqual([expect.stringMatching(/^Fe is in no source \(the profile counts it at 0\.2 % of dry mass, from memory\): a trace element does not set the limit/)]);
+		expect(r.warnings).toEqual([
+			expect.stringMatching(
+				/^Fe is in no source \(the profile counts it at 0\.2 % of dry mass, from memory\): a trace element does not set the limit/
+			)
+		]);
 	});
 
 	it('lets a profile mark an element required or trace, and say how sure its value is', () => {
-		const supply = { sources: [{ elementsGPerL: { C: 10, N: 2, P: 1, S: 0.5, K: 1, Mg: 0.1, Fe: 0.004 } }] };
+		const supply = {
+			sources: [{ elementsGPerL: { C: 10, N: 2, P: 1, S: 0.5, K: 1, Mg: 0.1, Fe: 0.004 } }]
+		};
 		// Fe required by the profile's own statement: 0.004 g/L against 5 × 0.002 = 0.01 g/L → ratio 0.4,
 		// 5 × 0.4 / 1.2 = 1.667 g/L, now the limit.
 		const feRequired = assessSufficiency({
-			profile: { kind: 'preset', id: 'bacterium-neidhardt-1990', elements: { Fe: { role: 'required', confidence: 'measured', source: 'our ICP-OES, lot 12' } } },
+			profile: {
+				kind: 'preset',
+				id: 'bacterium-neidhardt-1990',
+				elements: {
+					Fe: { role: 'required', confidence: 'measured', source: 'our ICP-OES, lot 12' }
+				}
+			},
 			target: { biomassGPerL: 5 },
 			supply
 		});
-		expect(feRequired.limiting).toEqual({ key: 'Fe', basis: 'element', ratio: expect.closeTo(0.4, 12) });
+		expect(feRequired.limiting).toEqual({
+			key: 'Fe',
+			basis: 'element',
+			ratio: expect.closeTo(0.4, 12)
+		});
 		expect(feRequired.maximumSupportable.biomassGPerL).toBeCloseTo((5 * 0.4) / 1.2, 12);
-		expect(feRequired.lines.find((l) => l.key === 'Fe')).toMatchObject({ role: 'required', roleFrom: 'profile', confidence: 'measured', source: 'our ICP-OES, lot 12' });
+		expect(feRequired.lines.find((l) => l.key === 'Fe')).toMatchObject({
+			role: 'required',
+			roleFrom: 'profile',
+			confidence: 'measured',
+			source: 'our ICP-OES, lot 12'
+		});
 		// A statement with a confidence only keeps the default role.
 		const n = assessSufficiency({
-			profile: { kind: 'elementalFractions', fractions: bacterial, elements: { N: { confidence: 'measured' } } },
+			profile: {
+				kind: 'elementalFractions',
+				fractions: bacterial,
+				elements: { N: { confidence: 'measured' } }
+			},
 			target: { biomassGPerL: 5 },
 			supply
 		}).lines.find((l) => l.key === 'N');
-		expect(n).toMatchObject({ role: 'required', roleFrom: 'default', confidence: 'measured', source: null });
+		expect(n).toMatchObject({
+			role: 'required',
+			roleFrom: 'default',
+			confidence: 'measured',
+			source: null
+		});
 		// Mg marked trace and left out of the supply: a warning naming it, not the limit.
 		const mgTrace = assessSufficiency({
-			profile: { kind: 'elementalFractions', fractions: bacterial, elements: { Mg: { role: 'trace' } } },
+			profile: {
+				kind: 'elementalFractions',
+				fractions: bacterial,
+				elements: { Mg: { role: 'trace' } }
+			},
 			target: { biomassGPerL: 5 },
 			supply: { sources: [{ elementsGPerL: { C: 10, N: 2, P: 1, S: 0.5 } }] }
 		});
@@ -205,17 +245,61 @@ describe('nutrient sufficiency', () => {
 	});
 
 	it('refuses statements it cannot use, naming the field', () => {
-		const base = { target: { biomassGPerL: 5 }, supply: { sources: [{ elementsGPerL: { N: 1 } }] } };
-		expect(errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: bacterial, elements: { Zn: { role: 'trace' } } } })).field).toBe('profile.elements.Zn');
-		expect(errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: bacterial, elements: { Xq: {} } } })).field).toBe('profile.elements.Xq');
+		const base = {
+			target: { biomassGPerL: 5 },
+			supply: { sources: [{ elementsGPerL: { N: 1 } }] }
+		};
 		expect(
-			errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: bacterial, elements: { N: { role: 'essential' as never } } } })).field
+			errorOf(() =>
+				assessSufficiency({
+					...base,
+					profile: {
+						kind: 'elementalFractions',
+						fractions: bacterial,
+						elements: { Zn: { role: 'trace' } }
+					}
+				})
+			).field
+		).toBe('profile.elements.Zn');
+		expect(
+			errorOf(() =>
+				assessSufficiency({
+					...base,
+					profile: { kind: 'elementalFractions', fractions: bacterial, elements: { Xq: {} } }
+				})
+			).field
+		).toBe('profile.elements.Xq');
+		expect(
+			errorOf(() =>
+				assessSufficiency({
+					...base,
+					profile: {
+						kind: 'elementalFractions',
+						fractions: bacterial,
+						elements: { N: { role: 'essential' as never } }
+					}
+				})
+			).field
 		).toBe('profile.elements.N.role');
 		expect(
-			errorOf(() => assessSufficiency({ ...base, profile: { kind: 'preset', id: 'bacterium-neidhardt-1990', elements: { Fe: { confidence: 'sure' as never } } } })).field
+			errorOf(() =>
+				assessSufficiency({
+					...base,
+					profile: {
+						kind: 'preset',
+						id: 'bacterium-neidhardt-1990',
+						elements: { Fe: { confidence: 'sure' as never } }
+					}
+				})
+			).field
 		).toBe('profile.elements.Fe.confidence');
 		// Nothing left that could set a limit.
-		const allTrace = errorOf(() => assessSufficiency({ ...base, profile: { kind: 'elementalFractions', fractions: { Fe: 0.002, Zn: 0.0001 } } }));
+		const allTrace = errorOf(() =>
+			assessSufficiency({
+				...base,
+				profile: { kind: 'elementalFractions', fractions: { Fe: 0.002, Zn: 0.0001 } }
+			})
+		);
 		expect(allTrace.field).toBe('profile');
 		expect(allTrace.message).toMatch(/trace element/);
 	});
@@ -234,9 +318,17 @@ describe('nutrient sufficiency', () => {
 			target: { cellsPerMl: 1e7 },
 			supply: { sources: [{ componentsGPerL: { glutamine: 2 }, elementsGPerL: { Ca: 0.001 } }] }
 		});
-		expect(r.lines.find((l) => l.key === 'glutamine')).toMatchObject({ role: 'required', roleFrom: 'default', confidence: 'unstated' });
+		expect(r.lines.find((l) => l.key === 'glutamine')).toMatchObject({
+			role: 'required',
+			roleFrom: 'default',
+			confidence: 'unstated'
+		});
 		// Ca: 1e10 cells/L × 1 pg = 0.01 g/L demand against 0.001 → ratio 0.1: required by the profile, so it limits.
-		expect(r.lines.find((l) => l.key === 'Ca')).toMatchObject({ role: 'required', roleFrom: 'profile', confidence: 'from memory' });
+		expect(r.lines.find((l) => l.key === 'Ca')).toMatchObject({
+			role: 'required',
+			roleFrom: 'profile',
+			confidence: 'from memory'
+		});
 		expect(r.limiting?.key).toBe('Ca');
 		expect(r.defaultRolesBasis).toMatch(/common practice/i);
 	});
@@ -299,7 +391,10 @@ describe('yields on further substrates', () => {
 		// Glutamine in the feed only: 0.25 L × 40 g/L over 1.25 L = 8 g/L; demand 40 / 4 = 10 g/L → ratio 0.8.
 		const supply: SufficiencyInput['supply'] = {
 			finalVolumeL: 1.25,
-			sources: [...mediumAndFeed.sources.slice(0, 1), { ...mediumAndFeed.sources[1], componentsGPerL: { glucose: 500, glutamine: 40 } }]
+			sources: [
+				...mediumAndFeed.sources.slice(0, 1),
+				{ ...mediumAndFeed.sources[1], componentsGPerL: { glucose: 500, glutamine: 40 } }
+			]
 		};
 		const r = assessSufficiency({
 			profile: { kind: 'elementalFractions', fractions: bacterial },
@@ -320,18 +415,36 @@ describe('yields on further substrates', () => {
 
 	it('replaces a component requirement of the same component and refuses duplicates', () => {
 		const base = {
-			profile: { kind: 'componentRequirements' as const, requirementsGPerG: { glutamine: 0.05, glucose: 1 } },
+			profile: {
+				kind: 'componentRequirements' as const,
+				requirementsGPerG: { glutamine: 0.05, glucose: 1 }
+			},
 			target: { biomassGPerL: 10 },
 			supply: { finalVolumeL: 1, sources: [{ componentsGPerL: { glutamine: 5, glucose: 50 } }] }
 		};
-		const r = assessSufficiency({ ...base, substrates: [{ component: 'glutamine', yieldGPerG: 2 }] });
+		const r = assessSufficiency({
+			...base,
+			substrates: [{ component: 'glutamine', yieldGPerG: 2 }]
+		});
 		const lines = r.lines.filter((l) => l.key === 'glutamine');
 		expect(lines).toHaveLength(1);
 		expect(lines[0].demandGPerL).toBeCloseTo(5, 9);
-		expect(errorOf(() => assessSufficiency({ ...base, substrates: [{ component: 'glutamine', yieldGPerG: 2 }, { component: 'glutamine', yieldGPerG: 3 }] })).field).toBe(
-			'substrates.1.component'
-		);
-		expect(errorOf(() => assessSufficiency({ ...base, substrates: [{ component: 'glutamine', yieldGPerG: 0 }] })).field).toBe('substrates.0.yieldGPerG');
+		expect(
+			errorOf(() =>
+				assessSufficiency({
+					...base,
+					substrates: [
+						{ component: 'glutamine', yieldGPerG: 2 },
+						{ component: 'glutamine', yieldGPerG: 3 }
+					]
+				})
+			).field
+		).toBe('substrates.1.component');
+		expect(
+			errorOf(() =>
+				assessSufficiency({ ...base, substrates: [{ component: 'glutamine', yieldGPerG: 0 }] })
+			).field
+		).toBe('substrates.0.yieldGPerG');
 	});
 });
 

@@ -3,7 +3,10 @@ import { computeComposition } from '../../chemistry/composition';
 import { findReferenceComponent } from '../../chemistry/components';
 import { DEFAULT_ELEMENT_ROLES, defaultElementRole } from '../../chemistry/data/element-roles';
 import { findBiomassComposition } from '../../chemistry/data/biomass';
-import { FORMULA_FRACTION_TOLERANCE_G_PER_G, compareFractionsWithFormula } from '../../chemistry/profile-elements';
+import {
+	FORMULA_FRACTION_TOLERANCE_G_PER_G,
+	compareFractionsWithFormula
+} from '../../chemistry/profile-elements';
 import { assessSufficiency } from '../../chemistry/sufficiency';
 import { errorOf } from './input-error';
 
@@ -64,9 +67,19 @@ function assessM9(targetGPerL: number) {
 	return assessSufficiency({
 		profile: { kind: 'preset', id: 'bacterium-neidhardt-1990' },
 		target: { biomassGPerL: targetGPerL },
-		supply: { sources: [{ name: 'M9 glucose', elementsGPerL: M9_ELEMENTS_G_PER_L, componentsGPerL: { glucose: 4 } }] },
+		supply: {
+			sources: [
+				{ name: 'M9 glucose', elementsGPerL: M9_ELEMENTS_G_PER_L, componentsGPerL: { glucose: 4 } }
+			]
+		},
 		safetyFactor: 1,
-		carbon: { basis: 'component', component: 'glucose', yieldGPerG: YIELD_ON_GLUCOSE_G_PER_G, confidence: 'from memory', source: 'Common practice for E. coli on glucose' }
+		carbon: {
+			basis: 'component',
+			component: 'glucose',
+			yieldGPerG: YIELD_ON_GLUCOSE_G_PER_G,
+			confidence: 'from memory',
+			source: 'Common practice for E. coli on glucose'
+		}
 	});
 }
 
@@ -79,13 +92,17 @@ describe('M9 glucose medium (Sambrook & Russell 2001) with the Neidhardt et al. 
 		const handN = (molNH4Cl * N) / 0.14;
 		expect(handN).toBeCloseTo(1.8705, 4);
 		const r = assessM9(1.5);
-		expect(r.limiting).toEqual({ key: 'N', basis: 'element', ratio: expect.closeTo(handN / 1.5, 9) });
+		expect(r.limiting).toEqual({
+			key: 'N',
+			basis: 'element',
+			ratio: expect.closeTo(handN / 1.5, 9)
+		});
 		expect(r.maximumSupportable.biomassGPerL).toBeCloseTo(handN, 9);
 		expect(r.maximumSupportable.biomassGPerL).toBeCloseTo(1.87, 2);
 		const max = (key: string) => r.lines.find((l) => l.key === key)?.maxBiomassGPerL;
 		expect(max('glucose')).toBeCloseTo(4 * YIELD_ON_GLUCOSE_G_PER_G, 12);
-		expect(max('S')).toBeCloseTo(0.002 * S / 0.01, 9);
-		expect(max('Mg')).toBeCloseTo(0.002 * Mg / 0.005, 9);
+		expect(max('S')).toBeCloseTo((0.002 * S) / 0.01, 9);
+		expect(max('Mg')).toBeCloseTo((0.002 * Mg) / 0.005, 9);
 		expect(max('P')).toBeCloseTo(((molNa2HPO4 + molKH2PO4) * P) / 0.03, 9);
 		expect(max('K')).toBeCloseTo((molKH2PO4 * K) / 0.01, 9);
 		// At 1.5 g/L every required nutrient suffices: the medium supports the target.
@@ -93,22 +110,33 @@ describe('M9 glucose medium (Sambrook & Russell 2001) with the Neidhardt et al. 
 		// Above 1.87 g/L it does not, and N is what runs short.
 		const high = assessM9(2);
 		expect(high.sufficient).toBe(false);
-		expect(high.lines.filter((l) => l.role === 'required' && !l.sufficient).map((l) => l.key)).toEqual(['N']);
+		expect(
+			high.lines.filter((l) => l.role === 'required' && !l.sufficient).map((l) => l.key)
+		).toEqual(['N']);
 	});
 
 	it('warns of Fe (absent) and Ca (0.1 mM) by name instead of calling them limits', () => {
 		const r = assessM9(1.5);
 		const fe = r.lines.find((l) => l.key === 'Fe')!;
 		const ca = r.lines.find((l) => l.key === 'Ca')!;
-		expect(fe).toMatchObject({ role: 'trace', supplyGPerL: 0, sufficient: false, confidence: 'from memory' });
+		expect(fe).toMatchObject({
+			role: 'trace',
+			supplyGPerL: 0,
+			sufficient: false,
+			confidence: 'from memory'
+		});
 		// Ca: 0.1 mM × 40.078 = 4.008 mg/L against 0.5 % of dry mass (from memory): 0.80 g/L at safety factor 1.
 		expect(ca.maxBiomassGPerL).toBeCloseTo((molCaCl2 * Ca) / 0.005, 9);
 		expect(ca).toMatchObject({ role: 'trace', sufficient: false });
 		expect(r.limiting?.key).not.toBe('Fe');
 		expect(r.maximumSupportable.biomassGPerL).toBeGreaterThan(1.8);
 		expect(r.warnings).toHaveLength(2);
-		expect(r.warnings[0]).toMatch(/^Ca covers 0\.534 × its demand \(the profile counts it at 0\.5 % of dry mass, from memory\), enough for about 0\.802 g\/L at safety factor 1: a trace element does not set the limit/);
-		expect(r.warnings[1]).toMatch(/^Fe is in no source \(the profile counts it at 0\.2 % of dry mass, from memory\)/);
+		expect(r.warnings[0]).toMatch(
+			/^Ca covers 0\.534 × its demand \(the profile counts it at 0\.5 % of dry mass, from memory\), enough for about 0\.802 g\/L at safety factor 1: a trace element does not set the limit/
+		);
+		expect(r.warnings[1]).toMatch(
+			/^Fe is in no source \(the profile counts it at 0\.2 % of dry mass, from memory\)/
+		);
 	});
 
 	it('says for every value it used its role, its confidence and its source', () => {
@@ -116,7 +144,11 @@ describe('M9 glucose medium (Sambrook & Russell 2001) with the Neidhardt et al. 
 		const neidhardt = findBiomassComposition('bacterium-neidhardt-1990')!;
 		for (const line of r.lines) {
 			if (line.key === 'glucose') {
-				expect(line).toMatchObject({ role: 'required', confidence: 'from memory', source: 'Common practice for E. coli on glucose' });
+				expect(line).toMatchObject({
+					role: 'required',
+					confidence: 'from memory',
+					source: 'Common practice for E. coli on glucose'
+				});
 				continue;
 			}
 			// The preset's own grade for each value (chemistry/data/biomass.ts) and its citation.
@@ -126,11 +158,26 @@ describe('M9 glucose medium (Sambrook & Russell 2001) with the Neidhardt et al. 
 			expect(line.roleFrom).toBe('default');
 		}
 		expect(r.lines.find((l) => l.key === 'N')?.confidence).toBe('confirmed');
-		expect(r.lines.map((l) => l.key).sort()).toEqual(['Ca', 'Cl', 'Fe', 'K', 'Mg', 'N', 'Na', 'P', 'S', 'glucose']);
+		expect(r.lines.map((l) => l.key).sort()).toEqual([
+			'Ca',
+			'Cl',
+			'Fe',
+			'K',
+			'Mg',
+			'N',
+			'Na',
+			'P',
+			'S',
+			'glucose'
+		]);
 	});
 
 	it('gets the same supply from the recipe analysis of the library components', () => {
-		const line = (id: string, amount: number, unit: string) => ({ component: findReferenceComponent(id)!, amount, unit });
+		const line = (id: string, amount: number, unit: string) => ({
+			component: findReferenceComponent(id)!,
+			amount,
+			unit
+		});
 		const m9 = computeComposition({
 			lines: [
 				line('disodium-hydrogen-phosphate-heptahydrate', 12.8, 'g/L'),
@@ -151,8 +198,10 @@ describe('M9 glucose medium (Sambrook & Russell 2001) with the Neidhardt et al. 
 
 describe('the table of default roles (common practice)', () => {
 	it('makes C, N, P, S, K, Mg required and Fe, Ca, Zn, Cu, Mn, Co, Mo, Na, Cl trace; anything else trace', () => {
-		for (const el of ['C', 'N', 'P', 'S', 'K', 'Mg']) expect(DEFAULT_ELEMENT_ROLES[el]).toBe('required');
-		for (const el of ['Fe', 'Ca', 'Zn', 'Cu', 'Mn', 'Co', 'Mo', 'Na', 'Cl']) expect(DEFAULT_ELEMENT_ROLES[el]).toBe('trace');
+		for (const el of ['C', 'N', 'P', 'S', 'K', 'Mg'])
+			expect(DEFAULT_ELEMENT_ROLES[el]).toBe('required');
+		for (const el of ['Fe', 'Ca', 'Zn', 'Cu', 'Mn', 'Co', 'Mo', 'Na', 'Cl'])
+			expect(DEFAULT_ELEMENT_ROLES[el]).toBe('trace');
 		expect(defaultElementRole('Ge')).toBe('trace');
 	});
 });
@@ -164,39 +213,78 @@ describe('elemental fractions against the biomass formula', () => {
 	const neidhardtOrganic = { C: 0.5, H: 0.08, O: 0.2, N: 0.14, P: 0.03 };
 
 	it('names both values when the Neidhardt fractions meet the standard formula with 8 % ash', () => {
-		const mismatches = compareFractionsWithFormula({ formula: 'CH1.8O0.5N0.2', ashFraction: 0.08, fractions: neidhardtOrganic });
+		const mismatches = compareFractionsWithFormula({
+			formula: 'CH1.8O0.5N0.2',
+			ashFraction: 0.08,
+			fractions: neidhardtOrganic
+		});
 		const n = mismatches.find((m) => m.element === 'N')!;
-		expect(n.formulaFraction).toBeCloseTo((0.2 * 14.007 / 24.626) * 0.92, 5);
-		expect(n.message).toMatch(/^N is 14 % in the fractions but 10\.5 % by the formula CH1\.8O0\.5N0\.2 with 8 % ash/);
+		expect(n.formulaFraction).toBeCloseTo(((0.2 * 14.007) / 24.626) * 0.92, 5);
+		expect(n.message).toMatch(
+			/^N is 14 % in the fractions but 10\.5 % by the formula CH1\.8O0\.5N0\.2 with 8 % ash/
+		);
 		// C 50 against 44.9, O 20 against 29.9, H 8 against 6.78: all beyond 1 percentage point; P is not in the formula.
 		expect(mismatches.map((m) => m.element).sort()).toEqual(['C', 'H', 'N', 'O']);
-		expect(mismatches.find((m) => m.element === 'O')!.message).toContain('O is 20 % in the fractions but 29.9 % by the formula');
+		expect(mismatches.find((m) => m.element === 'O')!.message).toContain(
+			'O is 20 % in the fractions but 29.9 % by the formula'
+		);
 	});
 
 	it('passes fractions derived from the formula, and a formula derived from the fractions rounded to two decimals', () => {
 		// Fractions of CH1.8O0.5N0.2 with 8 % ash, as worked above.
-		expect(compareFractionsWithFormula({ formula: 'CH1.8O0.5N0.2', ashFraction: 0.08, fractions: { C: 0.4487, H: 0.0678, O: 0.2989, N: 0.1047 } })).toEqual([]);
+		expect(
+			compareFractionsWithFormula({
+				formula: 'CH1.8O0.5N0.2',
+				ashFraction: 0.08,
+				fractions: { C: 0.4487, H: 0.0678, O: 0.2989, N: 0.1047 }
+			})
+		).toEqual([]);
 		// The other way: per C-mol, H = (0.08 / 1.008) / (0.5 / 12.011) = 1.907, O = (0.2 / 15.999) / (0.5 / 12.011) = 0.300,
 		// N = (0.14 / 14.007) / (0.5 / 12.011) = 0.240; ash 1 − 0.92 = 0.08. Rounded, CH1.91O0.3N0.24 is within the tolerance.
-		expect(compareFractionsWithFormula({ formula: 'CH1.91O0.3N0.24', ashFraction: 0.08, fractions: neidhardtOrganic })).toEqual([]);
+		expect(
+			compareFractionsWithFormula({
+				formula: 'CH1.91O0.3N0.24',
+				ashFraction: 0.08,
+				fractions: neidhardtOrganic
+			})
+		).toEqual([]);
 		expect(FORMULA_FRACTION_TOLERANCE_G_PER_G).toBe(0.01);
 	});
 
 	it('says so when no ash is entered, and reports the contradiction through the sufficiency assessment', () => {
 		// Without ash the formula is the whole dry mass: N = 0.2 × 14.007 / 24.626 = 0.11376 → "11.4 %".
-		const [n] = compareFractionsWithFormula({ formula: 'CH1.8O0.5N0.2', ashFraction: null, fractions: { N: 0.14 } });
-		expect(n.message).toMatch(/^N is 14 % in the fractions but 11\.4 % by the formula CH1\.8O0\.5N0\.2 with no ash entered/);
+		const [n] = compareFractionsWithFormula({
+			formula: 'CH1.8O0.5N0.2',
+			ashFraction: null,
+			fractions: { N: 0.14 }
+		});
+		expect(n.message).toMatch(
+			/^N is 14 % in the fractions but 11\.4 % by the formula CH1\.8O0\.5N0\.2 with no ash entered/
+		);
 		const r = assessSufficiency({
-			profile: { kind: 'elementalFractions', fractions: neidhardtOrganic, formula: 'CH1.8O0.5N0.2', ashFraction: 0.08 },
+			profile: {
+				kind: 'elementalFractions',
+				fractions: neidhardtOrganic,
+				formula: 'CH1.8O0.5N0.2',
+				ashFraction: 0.08
+			},
 			target: { biomassGPerL: 1 },
 			supply: { sources: [{ elementsGPerL: { C: 5, N: 1, P: 1 } }] }
 		});
-		expect(r.warnings.some((w) => w.startsWith('N is 14 % in the fractions but 10.5 % by the formula CH1.8O0.5N0.2 with 8 % ash'))).toBe(true);
+		expect(
+			r.warnings.some((w) =>
+				w.startsWith(
+					'N is 14 % in the fractions but 10.5 % by the formula CH1.8O0.5N0.2 with 8 % ash'
+				)
+			)
+		).toBe(true);
 		// The published yeast table derives its C, H, O, N from its own formula: no warning.
 		const yeast = assessSufficiency({
 			profile: { kind: 'preset', id: 'yeast-bionumbers-101801' },
 			target: { biomassGPerL: 1 },
-			supply: { sources: [{ elementsGPerL: { C: 5, N: 1, P: 1, K: 1, S: 1, Mg: 1, Ca: 1, Fe: 1, Zn: 1 } }] }
+			supply: {
+				sources: [{ elementsGPerL: { C: 5, N: 1, P: 1, K: 1, S: 1, Mg: 1, Ca: 1, Fe: 1, Zn: 1 } }]
+			}
 		});
 		expect(yeast.warnings).toEqual([]);
 	});
@@ -211,6 +299,10 @@ describe('elemental fractions against the biomass formula', () => {
 		);
 		expect(e.field).toBe('profile.formula');
 		expect(e.message).toMatch(/^Biomass formula:/);
-		expect(errorOf(() => compareFractionsWithFormula({ formula: 'CH1.8O0.5N0.2', ashFraction: 1.2, fractions: {} })).field).toBe('ashFraction');
+		expect(
+			errorOf(() =>
+				compareFractionsWithFormula({ formula: 'CH1.8O0.5N0.2', ashFraction: 1.2, fractions: {} })
+			).field
+		).toBe('ashFraction');
 	});
 });

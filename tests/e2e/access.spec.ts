@@ -13,8 +13,12 @@ for (const [role, path] of Object.entries(REFUSED) as [DemoRole, string][]) {
 		test(`is refused ${path} with a 403 page that says why`, async ({ page }) => {
 			const response = await page.goto(path);
 			expect(response?.status()).toBe(403);
-			await expect(page.getByRole('heading', { name: 'This page is not open to you' })).toBeVisible();
-			await expect(page.getByTestId('error-message')).toContainText('This needs the role Administrator');
+			await expect(
+				page.getByRole('heading', { name: 'This page is not open to you' })
+			).toBeVisible();
+			await expect(page.getByTestId('error-message')).toContainText(
+				'This needs the role Administrator'
+			);
 		});
 	});
 }
@@ -28,8 +32,12 @@ for (const role of REFUSED_SIMULATION) {
 			test(`is refused ${path} with a 403 page that says why`, async ({ page }) => {
 				const response = await page.goto(path);
 				expect(response?.status()).toBe(403);
-				await expect(page.getByRole('heading', { name: 'This page is not open to you' })).toBeVisible();
-				await expect(page.getByTestId('error-message')).toContainText('This needs the role Process engineer or Media scientist');
+				await expect(
+					page.getByRole('heading', { name: 'This page is not open to you' })
+				).toBeVisible();
+				await expect(page.getByTestId('error-message')).toContainText(
+					'This needs the role Process engineer or Media scientist'
+				);
 			});
 		}
 		test('is refused the saved scenarios endpoint with a 403 problem', async ({ page }) => {
@@ -89,6 +97,9 @@ test.describe('signed in through the API', () => {
 	test.use({ role: 'engineer' });
 	test('me reports e-mail and roles', async ({ page }) => {
 		const response = await page.request.get('/api/v1/me');
-		expect(await response.json()).toMatchObject({ email: 'engineer@demo.test', roles: ['engineer'] });
+		expect(await response.json()).toMatchObject({
+			email: 'engineer@demo.test',
+			roles: ['engineer']
+		});
 	});
 });

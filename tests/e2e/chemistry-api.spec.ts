@@ -10,7 +10,12 @@ const AEROBIC_GLUCOSE_SPECIES = [
 ];
 
 test.describe('science endpoints need a signed-in user', () => {
-	for (const path of ['/api/v1/formula', '/api/v1/stoichiometry', '/api/v1/oxygen/saturation', '/api/v1/sufficiency']) {
+	for (const path of [
+		'/api/v1/formula',
+		'/api/v1/stoichiometry',
+		'/api/v1/oxygen/saturation',
+		'/api/v1/sufficiency'
+	]) {
 		test(`${path} answers 401 problem+json when signed out`, async ({ request }) => {
 			const response = await request.post(path, { data: {} });
 			expect(response.status()).toBe(401);
@@ -23,7 +28,9 @@ test.describe('science endpoints, signed in', () => {
 	test.use({ role: 'prep_technician' });
 
 	test('formula: a hydrate read back with its molar mass', async ({ page }) => {
-		const response = await page.request.post('/api/v1/formula', { data: { formula: 'MgSO4.7H2O' } });
+		const response = await page.request.post('/api/v1/formula', {
+			data: { formula: 'MgSO4.7H2O' }
+		});
 		expect(response.status()).toBe(200);
 		const body = await response.json();
 		expect(body.reading).toBe('MgSO4·7H2O');
@@ -41,7 +48,9 @@ test.describe('science endpoints, signed in', () => {
 	});
 
 	test('oxygen saturation at 25 °C fresh water matches the published table', async ({ page }) => {
-		const response = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 25 } });
+		const response = await page.request.post('/api/v1/oxygen/saturation', {
+			data: { temperatureC: 25 }
+		});
 		const body = await response.json();
 		// 8.26 mg/L at 25 °C (ISO 5814 table; Montgomery et al. 1964), chemistry/REFERENCES.md
 		expect(Math.abs(body.mgPerL - 8.26)).toBeLessThan(0.02);
@@ -50,14 +59,20 @@ test.describe('science endpoints, signed in', () => {
 		expect(body.o2MoleFraction).toBe(0.20946);
 	});
 
-	test('oxygen saturation under pure O2 scales by 1/0.20946, and a misspelt key is refused by name', async ({ page }) => {
-		const response = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 37, o2MoleFraction: 1 } });
+	test('oxygen saturation under pure O2 scales by 1/0.20946, and a misspelt key is refused by name', async ({
+		page
+	}) => {
+		const response = await page.request.post('/api/v1/oxygen/saturation', {
+			data: { temperatureC: 37, o2MoleFraction: 1 }
+		});
 		expect(response.status()).toBe(200);
 		const body = await response.json();
 		// 6.727 mg/L for air at 37 °C (Benson & Krause 1984, chemistry/REFERENCES.md) × 1/0.20946 (Henry's law) = 32.1 mg/L.
 		expect(body.mgPerL).toBeCloseTo(32.12, 1);
 		expect(body.o2MoleFraction).toBe(1);
-		const misspelt = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 37, o2MoleFractin: 1 } });
+		const misspelt = await page.request.post('/api/v1/oxygen/saturation', {
+			data: { temperatureC: 37, o2MoleFractin: 1 }
+		});
 		expect(misspelt.status()).toBe(400);
 		const problem = await misspelt.json();
 		expect(problem.errors[0].path).toBe('o2MoleFractin');
@@ -65,14 +80,18 @@ test.describe('science endpoints, signed in', () => {
 	});
 
 	test('oxygen saturation outside the valid range says the range', async ({ page }) => {
-		const response = await page.request.post('/api/v1/oxygen/saturation', { data: { temperatureC: 95 } });
+		const response = await page.request.post('/api/v1/oxygen/saturation', {
+			data: { temperatureC: 95 }
+		});
 		expect(response.status()).toBe(400);
 		const body = await response.json();
 		expect(body.errors[0].path).toBe('temperatureC');
 		expect(body.detail).toMatch(/0.*50 °C/);
 	});
 
-	test('stoichiometry: an under-specified balance says how many more specifications are needed', async ({ page }) => {
+	test('stoichiometry: an under-specified balance says how many more specifications are needed', async ({
+		page
+	}) => {
 		const response = await page.request.post('/api/v1/stoichiometry', {
 			data: {
 				species: AEROBIC_GLUCOSE_SPECIES,

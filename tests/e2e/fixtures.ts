@@ -35,7 +35,8 @@ export const test = base.extend<{ role: DemoRole | null }>({
 		const goto = page.goto.bind(page);
 		page.goto = async (url, options) => {
 			const response = await goto(url, options);
-			if (response?.headers()['content-type']?.includes('text/html')) await page.locator('html[data-hydrated]').waitFor({ state: 'attached' });
+			if (response?.headers()['content-type']?.includes('text/html'))
+				await page.locator('html[data-hydrated]').waitFor({ state: 'attached' });
 			return response;
 		};
 		if (role) {
@@ -53,7 +54,9 @@ export const test = base.extend<{ role: DemoRole | null }>({
 export async function pageAs(browser: Browser, role: DemoRole, baseURL: string): Promise<Page> {
 	const context = await browser.newContext({ baseURL });
 	const page = await context.newPage();
-	const response = await page.request.post('/api/v1/session', { data: { email: DEMO[role], password: DEMO_PASSWORD } });
+	const response = await page.request.post('/api/v1/session', {
+		data: { email: DEMO[role], password: DEMO_PASSWORD }
+	});
 	expect(response.status(), await response.text()).toBe(200);
 	return page;
 }

@@ -3,7 +3,10 @@ import { expect, test } from './fixtures';
 test.describe('an invitation, end to end through the outbox', () => {
 	test.use({ role: 'admin' });
 
-	test('admin invites, the invitee follows the mailed link, sets a password and lands with their role', async ({ page, browser }) => {
+	test('admin invites, the invitee follows the mailed link, sets a password and lands with their role', async ({
+		page,
+		browser
+	}) => {
 		const email = `new-${Date.now()}@demo.test`;
 		await page.goto('/admin/people/invite');
 		await page.getByLabel('E-mail').fill(email);
@@ -53,6 +56,8 @@ test.describe('an invitation, end to end through the outbox', () => {
 		const firstCell = page.getByRole('row').nth(1).getByRole('cell').nth(1);
 		await expect(firstCell).toHaveText('admin@demo.test');
 		await page.getByRole('button', { name: 'E-mail' }).click();
-		await expect(page.getByRole('row').nth(1).getByRole('cell').nth(1)).not.toHaveText('admin@demo.test');
+		await expect(page.getByRole('row').nth(1).getByRole('cell').nth(1)).not.toHaveText(
+			'admin@demo.test'
+		);
 	});
 });

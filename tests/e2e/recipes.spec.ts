@@ -4,12 +4,15 @@ import { DEMO, DEMO_PASSWORD, expect, test, type DemoRole } from './fixtures';
 async function signedInPage(browser: Browser, role: DemoRole): Promise<Page> {
 	const context = await browser.newContext();
 	const page = await context.newPage();
-	const response = await page.request.post('/api/v1/session', { data: { email: DEMO[role], password: DEMO_PASSWORD } });
+	const response = await page.request.post('/api/v1/session', {
+		data: { email: DEMO[role], password: DEMO_PASSWORD }
+	});
 	expect(response.status()).toBe(200);
 	return page;
 }
 
-const line = (page: Page, n: number) => page.getByRole('listitem', { name: `Line ${n}`, exact: true });
+const line = (page: Page, n: number) =>
+	page.getByRole('listitem', { name: `Line ${n}`, exact: true });
 
 async function addComponent(page: Page, n: number, name: string, amount: string, unit: string) {
 	await page.getByRole('button', { name: 'Add component' }).click();
@@ -28,7 +31,10 @@ async function recipeUrlByName(page: Page, name: string): Promise<string> {
 test.describe('a media scientist', () => {
 	test.use({ role: 'media_scientist' });
 
-	test('builds a recipe with live composition, submits it; an engineer approves it with a signature; the author cannot', async ({ page, browser }) => {
+	test('builds a recipe with live composition, submits it; an engineer approves it with a signature; the author cannot', async ({
+		page,
+		browser
+	}) => {
 		// Two people and a dozen steps: more than the default budget of one page's test.
 		test.setTimeout(90_000);
 		const name = `E2E salts ${Date.now()}`;
@@ -49,16 +55,24 @@ test.describe('a media scientist', () => {
 		await addComponent(page, 2, 'D-Glucose, anhydrous', '20', 'mM');
 		await expect(analysis.getByTestId('osmolality')).toHaveText('211 mOsm/kg');
 		await expect(analysis.getByTestId('total-carbon')).toHaveText('1.44 g/L');
-		await expect(analysis.getByRole('table', { name: 'Elements supplied' }).getByRole('row', { name: /^Na / })).toBeVisible();
+		await expect(
+			analysis.getByRole('table', { name: 'Elements supplied' }).getByRole('row', { name: /^Na / })
+		).toBeVisible();
 
 		// Bad input: the error sits next to the line, and every typed line stays.
 		await addComponent(page, 3, 'Sodium chloride', '1', 'g/L');
-		await expect(line(page, 3).getByTestId('line-errors')).toHaveText('Sodium chloride is already on line 1; combine the two lines.');
+		await expect(line(page, 3).getByTestId('line-errors')).toHaveText(
+			'Sodium chloride is already on line 1; combine the two lines.'
+		);
 		await page.getByLabel('Line 3: component').fill('L-Tyrosine');
 		await page.getByLabel('Line 3: amount').fill('0');
-		await expect(line(page, 3).getByTestId('line-errors')).toHaveText('the amount must be greater than zero, not 0.');
+		await expect(line(page, 3).getByTestId('line-errors')).toHaveText(
+			'the amount must be greater than zero, not 0.'
+		);
 		await page.getByLabel('Line 3: unit').fill('ppm');
-		await expect(line(page, 3).getByTestId('line-errors')).toContainText("Unknown concentration unit 'ppm'");
+		await expect(line(page, 3).getByTestId('line-errors')).toContainText(
+			"Unknown concentration unit 'ppm'"
+		);
 		await expect(page.getByTestId('line')).toHaveCount(3);
 		await page.getByLabel('Line 3: amount').fill('2');
 		await page.getByLabel('Line 3: unit').fill('g/L');
@@ -85,12 +99,18 @@ test.describe('a media scientist', () => {
 		await expect(page.getByTestId('status').first()).toHaveText('In review');
 
 		// The author is refused: no signature form, and the server refuses a signature sent anyway.
-		await expect(page.getByText('You wrote this version, so someone else must review and approve it.')).toBeVisible();
+		await expect(
+			page.getByText('You wrote this version, so someone else must review and approve it.')
+		).toBeVisible();
 		await expect(page.getByRole('form', { name: 'Electronic signature' })).toHaveCount(0);
 		const versionUrl = new URL(page.url());
 		const forced = await page.request.post(`${versionUrl.pathname}?/sign`, {
 			form: { meaning: 'approved', password: DEMO_PASSWORD, comment: '' },
-			headers: { accept: 'application/json', 'x-sveltekit-action': 'true', origin: versionUrl.origin }
+			headers: {
+				accept: 'application/json',
+				'x-sveltekit-action': 'true',
+				origin: versionUrl.origin
+			}
 		});
 		expect(await forced.json()).toMatchObject({ type: 'failure', status: 403 });
 
@@ -101,11 +121,15 @@ test.describe('a media scientist', () => {
 		await form.getByLabel('Approved: this version is released for use').check();
 		await form.getByLabel('Your password').fill('not-the-password');
 		await form.getByRole('button', { name: 'Sign' }).click();
-		await expect(form.getByText('The password is not right for your account; nothing was signed.')).toBeVisible();
+		await expect(
+			form.getByText('The password is not right for your account; nothing was signed.')
+		).toBeVisible();
 		await form.getByLabel('Your password').fill(DEMO_PASSWORD);
 		await form.getByLabel('Comment (optional)').fill('Range checked');
 		await form.getByRole('button', { name: 'Sign' }).click();
-		await expect(engineer.getByText('Version 1 is approved. Your signature is recorded.')).toBeVisible();
+		await expect(
+			engineer.getByText('Version 1 is approved. Your signature is recorded.')
+		).toBeVisible();
 		await expect(engineer.getByTestId('status').first()).toHaveText('Approved');
 		const signature = engineer.getByTestId('signature');
 		await expect(signature).toContainText('Demo Process Engineer');
@@ -122,7 +146,10 @@ test.describe('a media scientist', () => {
 		await expect(page.getByTestId('signature')).toContainText('Demo Process Engineer');
 	});
 
-	test('a stale edit is refused, showing the other person’s change and keeping mine', async ({ page, browser }) => {
+	test('a stale edit is refused, showing the other person’s change and keeping mine', async ({
+		page,
+		browser
+	}) => {
 		const url = await recipeUrlByName(page, 'PPN Feed GA-12');
 		await page.goto(`${url}/versions/1/edit`);
 		const other = await signedInPage(browser, 'media_scientist');
@@ -138,7 +165,9 @@ test.describe('a media scientist', () => {
 		await page.getByRole('button', { name: 'Save draft' }).click();
 		await expect(page.getByRole('alert').first()).toContainText('saved this draft');
 		const conflict = page.getByTestId('conflict');
-		await expect(conflict.getByRole('row', { name: /D-Glucose, anhydrous 240 g\/L/ })).toBeVisible();
+		await expect(
+			conflict.getByRole('row', { name: /D-Glucose, anhydrous 240 g\/L/ })
+		).toBeVisible();
 		await expect(page.getByLabel('Line 2: amount')).toHaveValue('9');
 		await expect(page.getByLabel('Line 1: amount')).toHaveValue('250');
 
@@ -153,30 +182,42 @@ test.describe('a media scientist', () => {
 		const url = await recipeUrlByName(page, 'PPN Yeast Extract Broth Y5');
 		await page.goto(url);
 		await page.getByRole('button', { name: 'Compare' }).click();
-		await expect(page.getByRole('heading', { name: 'Compare PPN Yeast Extract Broth Y5' })).toBeVisible();
+		await expect(
+			page.getByRole('heading', { name: 'Compare PPN Yeast Extract Broth Y5' })
+		).toBeVisible();
 		await expect(page.getByTestId('compare-changed')).toHaveCount(2);
 		await expect(page.getByTestId('compare-changed').first()).toContainText('amount 4 g/L → 3 g/L');
 		await expect(page.getByText('What changed in this version:')).toBeVisible();
 	});
 
-	test('a component CSV with a bad row shows the row and reason and imports nothing', async ({ page }) => {
+	test('a component CSV with a bad row shows the row and reason and imports nothing', async ({
+		page
+	}) => {
 		await page.goto('/components/import');
-		await page.getByLabel('…or paste the rows (header first)').fill('name,category,formula\nE2E salt one,salt,KCl\nE2E salt two,salt,Qq9\n');
+		await page
+			.getByLabel('…or paste the rows (header first)')
+			.fill('name,category,formula\nE2E salt one,salt,KCl\nE2E salt two,salt,Qq9\n');
 		await page.getByRole('button', { name: 'Preview' }).click();
-		await expect(page.getByRole('row', { name: /^3 E2E salt two/ }).getByTestId('row-errors')).toContainText('formula:');
+		await expect(
+			page.getByRole('row', { name: /^3 E2E salt two/ }).getByTestId('row-errors')
+		).toContainText('formula:');
 		await expect(page.getByRole('button', { name: /^Import/ })).toHaveCount(0);
 		await expect(page.getByLabel('…or paste the rows (header first)')).toHaveValue(/E2E salt two/);
 
 		await page.getByLabel('…or paste the rows (header first)').fill('title,formula\nx,NaCl');
 		await page.getByRole('button', { name: 'Preview' }).click();
-		await expect(page.getByRole('alert')).toContainText('Expected columns: name, category (required)');
+		await expect(page.getByRole('alert')).toContainText(
+			'Expected columns: name, category (required)'
+		);
 
 		await page.goto('/components');
 		await page.getByLabel('Search components').fill('E2E salt');
 		await expect(page.getByText('Nothing matches “E2E salt”.')).toBeVisible();
 	});
 
-	test('creates a component with the formula read back and its molar mass live', async ({ page }) => {
+	test('creates a component with the formula read back and its molar mass live', async ({
+		page
+	}) => {
 		await page.goto('/components/new');
 		await page.getByLabel('Name', { exact: true }).fill(`E2E sulfate ${Date.now()}`);
 		await page.getByLabel('Formula', { exact: true }).fill('MgSO4.7H2O');
@@ -185,7 +226,9 @@ test.describe('a media scientist', () => {
 		await page.getByLabel('CAS number (optional)').fill('10034-99-8');
 		await page.getByLabel('GHS hazard statements').fill('H999');
 		await page.getByRole('button', { name: 'Create component' }).click();
-		await expect(page.getByText('H999 is not a code we know; give its text too (H999: …).')).toBeVisible();
+		await expect(
+			page.getByText('H999 is not a code we know; give its text too (H999: …).')
+		).toBeVisible();
 		await expect(page.getByLabel('Formula', { exact: true })).toHaveValue('MgSO4.7H2O');
 		await page.getByLabel('GHS hazard statements').fill('H319');
 		await page.getByRole('button', { name: 'Create component' }).click();
@@ -207,7 +250,9 @@ test.describe('a prep technician', () => {
 		await expect(page.getByText(/L-Tyrosine at 3 g\/L exceeds its solubility/)).toBeVisible();
 		const response = await page.goto(`${url}/versions/1/edit`);
 		expect(response?.status()).toBe(403);
-		await expect(page.getByTestId('error-message')).toContainText('This needs the role Media scientist');
+		await expect(page.getByTestId('error-message')).toContainText(
+			'This needs the role Media scientist'
+		);
 		expect((await page.goto('/recipes/new'))?.status()).toBe(403);
 		expect((await page.goto('/components/new'))?.status()).toBe(403);
 	});
@@ -216,11 +261,15 @@ test.describe('a prep technician', () => {
 test.describe('the recipes API', () => {
 	test.use({ role: 'engineer' });
 
-	test('lists, filters and reads versions with composition; refuses bad lines as problem+json', async ({ page }) => {
+	test('lists, filters and reads versions with composition; refuses bad lines as problem+json', async ({
+		page
+	}) => {
 		const feeds = await (await page.request.get('/api/v1/recipes?kind=feed')).json();
 		expect(feeds.items.map((r: { name: string }) => r.name)).toContain('PPN Feed GA-12');
 		expect(feeds.items.every((r: { kind: string }) => r.kind === 'feed')).toBe(true);
-		const withTrace = await (await page.request.get('/api/v1/recipes?component=sodium-selenite')).json();
+		const withTrace = await (
+			await page.request.get('/api/v1/recipes?component=sodium-selenite')
+		).json();
 		expect(withTrace.items.map((r: { name: string }) => r.name)).toEqual(['PPN Trace Elements T2']);
 		const bad = await page.request.get('/api/v1/recipes?status=finished');
 		expect(bad.status()).toBe(400);
@@ -235,17 +284,27 @@ test.describe('the recipes API', () => {
 		expect(version.composition.warnings[0].kind).toBe('solubility');
 
 		const preview = await page.request.post('/api/v1/recipes/preview', {
-			data: { lines: [{ kind: 'component', componentId: 'sodium-chloride', amount: 0, unit: 'g/L' }, { componentId: 'missing-thing', amount: 1, unit: 'mM' }] }
+			data: {
+				lines: [
+					{ kind: 'component', componentId: 'sodium-chloride', amount: 0, unit: 'g/L' },
+					{ componentId: 'missing-thing', amount: 1, unit: 'mM' }
+				]
+			}
 		});
 		expect(preview.status()).toBe(400);
 		expect(preview.headers()['content-type']).toContain('application/problem+json');
 		const problem = await preview.json();
-		expect(problem.errors.map((e: { path: string }) => e.path).sort()).toEqual(['lines.0.amount', 'lines.1.componentId']);
+		expect(problem.errors.map((e: { path: string }) => e.path).sort()).toEqual([
+			'lines.0.amount',
+			'lines.1.componentId'
+		]);
 
 		const components = await (await page.request.get('/api/v1/components?q=glucose')).json();
 		expect(components.items.map((c: { id: string }) => c.id)).toContain('d-glucose');
 		const openapi = await (await page.request.get('/api/v1/openapi.json')).json();
-		expect(Object.keys(openapi.paths)).toEqual(expect.arrayContaining(['/api/v1/recipes/preview', '/api/v1/recipes/{id}/versions/{n}']));
+		expect(Object.keys(openapi.paths)).toEqual(
+			expect.arrayContaining(['/api/v1/recipes/preview', '/api/v1/recipes/{id}/versions/{n}'])
+		);
 	});
 
 	test('answers 401 without a session', async ({ browser }) => {

@@ -51,7 +51,9 @@ for (const [role, email] of Object.entries(DEMO) as [DemoRole, string][]) {
 
 test('a wrong password says so and keeps the e-mail filled in', async ({ page }) => {
 	await signInWithForm(page, DEMO.engineer, 'not-the-password');
-	await expect(page.getByRole('alert')).toContainText('The password is not right for this account.');
+	await expect(page.getByRole('alert')).toContainText(
+		'The password is not right for this account.'
+	);
 	await expect(page.getByLabel('E-mail')).toHaveValue(DEMO.engineer);
 });
 

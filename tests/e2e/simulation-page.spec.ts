@@ -5,7 +5,9 @@ test.use({ role: 'engineer' });
 
 const suffix = () => crypto.randomUUID().slice(0, 6);
 
-test('an engineer runs a fed-batch, saves two scenarios, overlays them and exports the series', async ({ page }) => {
+test('an engineer runs a fed-batch, saves two scenarios, overlays them and exports the series', async ({
+	page
+}) => {
 	await page.goto('/simulation');
 	await expect(page.getByTestId('simulation-caveats')).toContainText('model');
 	await expect(page.getByTestId('simulation-caveats')).toContainText('pressure rating');
@@ -15,7 +17,10 @@ test('an engineer runs a fed-batch, saves two scenarios, overlays them and expor
 	for (const id of ['concentrations', 'volume', 'oxygen', 'uptake']) {
 		await expect(page.getByTestId(`chart-${id}`).locator('canvas')).toBeVisible();
 	}
-	await expect(page.getByTestId('chart-uptake').locator('canvas')).toHaveAttribute('data-series', 'OUR | Maximum OTR (kLa·C*)');
+	await expect(page.getByTestId('chart-uptake').locator('canvas')).toHaveAttribute(
+		'data-series',
+		'OUR | Maximum OTR (kLa·C*)'
+	);
 	await expect(page.getByTestId('events-table')).toContainText('Feed started');
 	await expect(page.getByTestId('events-table')).toContainText('Oxygen-limited');
 
@@ -35,14 +40,21 @@ test('an engineer runs a fed-batch, saves two scenarios, overlays them and expor
 	await page.getByLabel(`Compare ${first}`).check();
 	await page.getByLabel(`Compare ${second}`).check();
 	await page.getByRole('button', { name: 'Overlay the two picked' }).click();
-	await expect(page.getByRole('heading', { name: `Comparison: ${first} against ${second}` })).toBeVisible();
+	await expect(
+		page.getByRole('heading', { name: `Comparison: ${first} against ${second}` })
+	).toBeVisible();
 	const series = page.getByTestId('chart-concentrations').locator('canvas');
-	await expect(series).toHaveAttribute('data-series', new RegExp(`${first}: Biomass X.*${second}: Biomass X`));
+	await expect(series).toHaveAttribute(
+		'data-series',
+		new RegExp(`${first}: Biomass X.*${second}: Biomass X`)
+	);
 
 	const downloading = page.waitForEvent('download');
 	await page.getByRole('button', { name: 'Export CSV' }).click();
 	const download = await downloading;
-	const lines = readFileSync(await download.path(), 'utf8').trim().split('\n');
+	const lines = readFileSync(await download.path(), 'utf8')
+		.trim()
+		.split('\n');
 	expect(lines[0]).toBe(
 		'scenario,t_h,biomass_g_per_l,substrate_g_per_l,product_g_per_l,volume_l,dissolved_oxygen_mg_per_l,feed_l_per_h,our_mmol_per_l_h,max_otr_mmol_per_l_h'
 	);
@@ -59,24 +71,32 @@ test('bad input shows the error at the field and keeps every value typed', async
 	await page.getByLabel('μmax (1/h)').fill('-1');
 	await page.getByLabel('Ks (g/L)').fill('0.07');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
-	await expect(page.getByLabel('μmax (1/h)')).toHaveAccessibleDescription(/kinetics\.muMaxPerH must be greater than 0/);
+	await expect(page.getByLabel('μmax (1/h)')).toHaveAccessibleDescription(
+		/kinetics\.muMaxPerH must be greater than 0/
+	);
 	await expect(page.getByLabel('μmax (1/h)')).toHaveValue('-1');
 	await expect(page.getByLabel('Ks (g/L)')).toHaveValue('0.07');
 
 	await page.getByLabel('μmax (1/h)').fill('0.6');
 	await page.getByLabel('Set growth rate μset (1/h)').fill('0.9');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
-	await expect(page.getByLabel('Set growth rate μset (1/h)')).toHaveAccessibleDescription(/must be below kinetics\.muMaxPerH/);
+	await expect(page.getByLabel('Set growth rate μset (1/h)')).toHaveAccessibleDescription(
+		/must be below kinetics\.muMaxPerH/
+	);
 
 	await page.getByLabel('Feeding strategy').selectOption('expression');
 	await page.getByLabel('Feed rate expression F (L/h)').fill('0.1 * t + pump');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
-	await expect(page.getByLabel('Feed rate expression F (L/h)')).toHaveAccessibleDescription(/Unknown name "pump"/);
+	await expect(page.getByLabel('Feed rate expression F (L/h)')).toHaveAccessibleDescription(
+		/Unknown name "pump"/
+	);
 	await expect(page.getByLabel('Feed rate expression F (L/h)')).toHaveValue('0.1 * t + pump');
 
 	await page.getByLabel('End time (h)').fill('soon');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
-	await expect(page.getByLabel('End time (h)')).toHaveAccessibleDescription('Enter a number (got “soon”).');
+	await expect(page.getByLabel('End time (h)')).toHaveAccessibleDescription(
+		'Enter a number (got “soon”).'
+	);
 	await expect(page.getByLabel('End time (h)')).toBeFocused();
 });
 
@@ -97,22 +117,31 @@ test('deleting a scenario asks first, and keeping it keeps it', async ({ page })
 	await expect(page.getByRole('button', { name: `Delete ${name}` })).toHaveCount(0);
 });
 
-test('the chemostat tab shows the steady state, the sweep and the productivity lost to the margin', async ({ page }) => {
+test('the chemostat tab shows the steady state, the sweep and the productivity lost to the margin', async ({
+	page
+}) => {
 	await page.goto('/simulation/continuous');
 	await page.getByRole('button', { name: 'Calculate steady state' }).click();
 	// D = 0.4, μmax 0.6, Ks 0.05, Sf 20: S = Ks·D/(μmax − D) = 0.1 g/L (Herbert, Elsworth & Telling 1956).
 	await expect(page.getByTestId('chemostat-result')).toContainText('0.100 g/L');
 	await expect(page.getByTestId('productivity-lost')).toHaveText(/\d+\.\d %/);
-	await expect(page.getByTestId('chart-chemostat').locator('canvas')).toHaveAttribute('aria-label', /D_opt 0\.570.*D_crit 0\.599/);
+	await expect(page.getByTestId('chart-chemostat').locator('canvas')).toHaveAttribute(
+		'aria-label',
+		/D_opt 0\.570.*D_crit 0\.599/
+	);
 	await page.getByLabel('Safety margin below D_crit (%)').fill('150');
 	await page.getByRole('button', { name: 'Calculate steady state' }).click();
-	await expect(page.getByLabel('Safety margin below D_crit (%)')).toHaveAccessibleDescription(/0 % to below 100 %/);
+	await expect(page.getByLabel('Safety margin below D_crit (%)')).toHaveAccessibleDescription(
+		/0 % to below 100 %/
+	);
 
 	await page.getByRole('button', { name: 'Compare productivities' }).click();
 	await expect(page.getByTestId('productivity-ratio')).toHaveText(/^\d+(\.\d+)?$/);
 });
 
-test('the chemostat tab takes Pirt maintenance, shows its D_opt, and names a bad value by its label', async ({ page }) => {
+test('the chemostat tab takes Pirt maintenance, shows its D_opt, and names a bad value by its label', async ({
+	page
+}) => {
 	await page.goto('/simulation/continuous');
 	const maintenance = page.getByLabel('Maintenance m_s (g/g/h)').first();
 	await expect(maintenance).toHaveAccessibleDescription(/g substrate per g biomass per hour/);
@@ -123,13 +152,20 @@ test('the chemostat tab takes Pirt maintenance, shows its D_opt, and names a bad
 	// thirds of the 10.0 g/L without maintenance (Pirt 1965; SciPy in tests/chemistry/reference).
 	await expect(page.getByTestId('chemostat-result')).toContainText('6.67 g/L');
 	// D_opt with maintenance 0.5706 /h (SciPy, chemostat-maintenance.json), above 0.5699 without it.
-	await expect(page.getByTestId('chart-chemostat').locator('canvas')).toHaveAttribute('aria-label', /D_opt 0\.571.*D_crit 0\.599/);
-	await expect(page.getByTestId('chemostat-maintenance-note')).toContainText('golden-section search');
+	await expect(page.getByTestId('chart-chemostat').locator('canvas')).toHaveAttribute(
+		'aria-label',
+		/D_opt 0\.571.*D_crit 0\.599/
+	);
+	await expect(page.getByTestId('chemostat-maintenance-note')).toContainText(
+		'golden-section search'
+	);
 
 	await maintenance.fill('-0.05');
 	await page.getByLabel('Feed substrate Sf (g/L)').fill('25');
 	await page.getByRole('button', { name: 'Calculate steady state' }).click();
-	await expect(maintenance).toHaveAccessibleDescription(/^Maintenance m_s \(g\/g\/h\) must be a finite number ≥ 0/);
+	await expect(maintenance).toHaveAccessibleDescription(
+		/^Maintenance m_s \(g\/g\/h\) must be a finite number ≥ 0/
+	);
 	await expect(maintenance).toHaveValue('-0.05');
 	await expect(page.getByLabel('Feed substrate Sf (g/L)')).toHaveValue('25');
 
@@ -155,23 +191,37 @@ test('a run-data upload shows the bad row and still fits the rest', async ({ pag
 		}
 	});
 	const run = await simulated.json();
-	const rows = run.t.map((t: number, i: number) => `${t},${(run.biomassGPerL[i] / 0.5).toFixed(5)},${run.substrateGPerL[i].toFixed(5)}`);
+	const rows = run.t.map(
+		(t: number, i: number) =>
+			`${t},${(run.biomassGPerL[i] / 0.5).toFixed(5)},${run.substrateGPerL[i].toFixed(5)}`
+	);
 	rows.splice(3, 0, '1.25,n/a,9.9');
 	const csv = ['time_h,OD600,glucose_g_per_l', ...rows].join('\n');
 
 	await page.goto('/simulation/fit');
-	await page.getByLabel('CSV file of the run (header row; time in hours)').setInputFiles({ name: 'run-17.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
-	await expect(page.getByTestId('row-errors')).toContainText('Line 5: biomass “n/a” is not a number');
-	await expect(page.getByTestId('row-summary')).toContainText(`${run.t.length} of ${run.t.length + 1} rows accepted; 1 excluded`);
+	await page
+		.getByLabel('CSV file of the run (header row; time in hours)')
+		.setInputFiles({ name: 'run-17.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+	await expect(page.getByTestId('row-errors')).toContainText(
+		'Line 5: biomass “n/a” is not a number'
+	);
+	await expect(page.getByTestId('row-summary')).toContainText(
+		`${run.t.length} of ${run.t.length + 1} rows accepted; 1 excluded`
+	);
 	await page.getByLabel('Conversion (g/L per OD unit)').fill('0.5');
 	await page.getByRole('button', { name: 'Fit growth parameters' }).click();
 	await expect(page.getByTestId('fit-results')).toBeVisible();
 	const mu = Number(await page.getByTestId('fit-mu-max').textContent());
 	expect(Math.abs(mu - 0.6)).toBeLessThan(0.02);
-	await expect(page.getByTestId('chart-fit').locator('canvas')).toHaveAttribute('data-series', /Monod model X/);
+	await expect(page.getByTestId('chart-fit').locator('canvas')).toHaveAttribute(
+		'data-series',
+		/Monod model X/
+	);
 	// The whole-curve parameters come with their 95 % intervals.
 	for (const key of ['mu-max', 'ks', 'yield']) {
-		await expect(page.getByTestId(`fit-monod-${key}-interval`)).toHaveText(/^[\d.e+-]+ – [\d.e+-]+$|^unbounded$/);
+		await expect(page.getByTestId(`fit-monod-${key}-interval`)).toHaveText(
+			/^[\d.e+-]+ – [\d.e+-]+$|^unbounded$/
+		);
 	}
 	await page.getByText('How the fit works').click();
 	await expect(page.getByTestId('model-help')).toContainText('steepest straight run');
@@ -180,19 +230,31 @@ test('a run-data upload shows the bad row and still fits the rest', async ({ pag
 test('a sparse run says which whole-curve parameter the data do not pin down', async ({ page }) => {
 	// Noisy samples every 2 h from an independent script (tests/chemistry/reference/growth-curves.py):
 	// the substrate runs out between two samples, so Ks is not determined.
-	const reference = JSON.parse(readFileSync('tests/chemistry/reference/growth-curves.json', 'utf8'));
+	const reference = JSON.parse(
+		readFileSync('tests/chemistry/reference/growth-curves.json', 'utf8')
+	);
 	const sparse = reference.monodFits.find((c: { label: string }) => c.label === 'every 2 h');
-	const rows = sparse.timeH.map((t: number, i: number) => `${t},${sparse.biomassGPerL[i]},${sparse.substrateGPerL[i]}`);
+	const rows = sparse.timeH.map(
+		(t: number, i: number) => `${t},${sparse.biomassGPerL[i]},${sparse.substrateGPerL[i]}`
+	);
 	await page.goto('/simulation/fit');
-	await page.getByLabel('CSV file of the run (header row; time in hours)').setInputFiles({ name: 'sparse.csv', mimeType: 'text/csv', buffer: Buffer.from(['time_h,biomass_g_per_l,glucose_g_per_l', ...rows].join('\n')) });
+	await page.getByLabel('CSV file of the run (header row; time in hours)').setInputFiles({
+		name: 'sparse.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from(['time_h,biomass_g_per_l,glucose_g_per_l', ...rows].join('\n'))
+	});
 	await page.getByRole('button', { name: 'Fit growth parameters' }).click();
-	await expect(page.getByTestId('fit-warnings')).toContainText('Ks is not determined by these data: its 95 % interval is unbounded');
+	await expect(page.getByTestId('fit-warnings')).toContainText(
+		'Ks is not determined by these data: its 95 % interval is unbounded'
+	);
 	await expect(page.getByTestId('fit-monod-ks')).toContainText('poorly determined');
 	await expect(page.getByTestId('fit-monod-ks-interval')).toHaveText('unbounded');
 	await expect(page.getByTestId('fit-monod-mu-max')).not.toContainText('poorly determined');
 });
 
-test('run data that cannot be fitted is refused with the reason, and nothing typed is lost', async ({ page }) => {
+test('run data that cannot be fitted is refused with the reason, and nothing typed is lost', async ({
+	page
+}) => {
 	await page.goto('/simulation/fit');
 	const upload = page.getByLabel('CSV file of the run (header row; time in hours)');
 	// A culture that never grew: the same OD at every time.
@@ -200,22 +262,40 @@ test('run data that cannot be fitted is refused with the reason, and nothing typ
 	await upload.setInputFiles({ name: 'flat.csv', mimeType: 'text/csv', buffer: Buffer.from(flat) });
 	await page.getByLabel('Conversion (g/L per OD unit)').fill('0.45');
 	await page.getByRole('button', { name: 'Fit growth parameters' }).click();
-	await expect(page.getByTestId('fit-message')).toContainText('at every point: the culture did not grow, so there is nothing to fit. (the biomass column)');
+	await expect(page.getByTestId('fit-message')).toContainText(
+		'at every point: the culture did not grow, so there is nothing to fit. (the biomass column)'
+	);
 	await expect(page.getByLabel('Conversion (g/L per OD unit)')).toHaveValue('0.45');
 	await expect(page.getByTestId('row-summary')).toContainText('8 of 8 rows accepted');
 
 	// Time that goes back: the row is left out with its reason, and 3 rows are too few to fit.
 	const backwards = ['time_h,OD600', '0,0.05', '1,0.1', '2,0.2', '1.5,0.3'].join('\n');
-	await upload.setInputFiles({ name: 'backwards.csv', mimeType: 'text/csv', buffer: Buffer.from(backwards) });
-	await expect(page.getByTestId('row-errors')).toContainText('Line 5: time 1.5 h does not come after 2 h');
-	await expect(page.getByTestId('fit-not-ready')).toHaveText('At least 4 accepted rows are needed (3 accepted).');
+	await upload.setInputFiles({
+		name: 'backwards.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from(backwards)
+	});
+	await expect(page.getByTestId('row-errors')).toContainText(
+		'Line 5: time 1.5 h does not come after 2 h'
+	);
+	await expect(page.getByTestId('fit-not-ready')).toHaveText(
+		'At least 4 accepted rows are needed (3 accepted).'
+	);
 	await expect(page.getByRole('button', { name: 'Fit growth parameters' })).toBeDisabled();
 });
 
 test('a file that is not text is refused with a reason', async ({ page }) => {
 	await page.goto('/simulation/fit');
-	await page.getByLabel('CSV file of the run (header row; time in hours)').setInputFiles({ name: 'run.csv', mimeType: 'text/csv', buffer: Buffer.from([0x50, 0x4b, 0x03, 0x04, 0x00, 0x00, 0x08, 0x00]) });
-	await expect(page.getByText('The file holds binary data, not text; export the sheet as CSV.')).toBeVisible();
-	await page.getByLabel('CSV file of the run (header row; time in hours)').setInputFiles({ name: 'run.png', mimeType: 'image/png', buffer: Buffer.from('x') });
+	await page.getByLabel('CSV file of the run (header row; time in hours)').setInputFiles({
+		name: 'run.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from([0x50, 0x4b, 0x03, 0x04, 0x00, 0x00, 0x08, 0x00])
+	});
+	await expect(
+		page.getByText('The file holds binary data, not text; export the sheet as CSV.')
+	).toBeVisible();
+	await page
+		.getByLabel('CSV file of the run (header row; time in hours)')
+		.setInputFiles({ name: 'run.png', mimeType: 'image/png', buffer: Buffer.from('x') });
 	await expect(page.getByText('“run.png” is not a .csv, .tsv or .txt file.')).toBeVisible();
 });

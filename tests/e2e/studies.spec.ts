@@ -16,7 +16,8 @@ function extractPdfText(bytes: Buffer): string {
 		} catch {
 			content = raw.slice(start, end);
 		}
-		for (const hex of content.matchAll(/<([0-9A-Fa-f]*)>\s*Tj/g)) texts.push(Buffer.from(hex[1], 'hex').toString('latin1'));
+		for (const hex of content.matchAll(/<([0-9A-Fa-f]*)>\s*Tj/g))
+			texts.push(Buffer.from(hex[1], 'hex').toString('latin1'));
 	}
 	return texts.join(' ');
 }
@@ -24,7 +25,9 @@ function extractPdfText(bytes: Buffer): string {
 test.describe('an engineer runs a study', () => {
 	test.use({ role: 'engineer' });
 
-	test('sees the verdict, lowers kLa and sees it change, then prints the report', async ({ page }) => {
+	test('sees the verdict, lowers kLa and sees it change, then prints the report', async ({
+		page
+	}) => {
 		await page.goto('/studies');
 		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
 		await expect(page.getByTestId('verdict-text')).toHaveText('Supported');
@@ -43,8 +46,10 @@ test.describe('an engineer runs a study', () => {
 		await page.getByRole('link', { name: 'Print view' }).click();
 		const report = page.getByTestId('study-report');
 		await expect(report.getByTestId('verdict-text')).toHaveText('Supported');
-		await expect(report.getByTestId('cautions')).toContainText('Oxygen-enriched gas raises the risk of fire');
-		await expect(report.getByTestId('cautions')).toContainText("pressure rating");
+		await expect(report.getByTestId('cautions')).toContainText(
+			'Oxygen-enriched gas raises the risk of fire'
+		);
+		await expect(report.getByTestId('cautions')).toContainText('pressure rating');
 		await expect(report.getByTestId('cautions')).toContainText('estimates');
 		await expect(report.getByTestId('cautions')).toContainText('qualified engineers decide');
 		await expect(report.getByTestId('defaults')).toContainText('Birou');
@@ -54,7 +59,9 @@ test.describe('an engineer runs a study', () => {
 		expect(pdf.byteLength).toBeGreaterThan(10_000);
 	});
 
-	test('follows the oxygen advice with one click, and the oxygen check then passes', async ({ page }) => {
+	test('follows the oxygen advice with one click, and the oxygen check then passes', async ({
+		page
+	}) => {
 		await page.goto('/studies');
 		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
 		await expect(page.getByTestId('verdict-text')).toHaveText('Supported');
@@ -80,7 +87,10 @@ test.describe('an engineer runs a study', () => {
 		await page.goto('/studies');
 		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
 		await expect(page.getByTestId('verdict-text')).toHaveText('Supported');
-		const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download PDF' }).click()]);
+		const [download] = await Promise.all([
+			page.waitForEvent('download'),
+			page.getByRole('link', { name: 'Download PDF' }).click()
+		]);
 		expect(download.suggestedFilename()).toBe('Yeast glycerol fed-batch, bench (demo).pdf');
 		const bytes = await readFile(await download.path());
 		expect(bytes.subarray(0, 5).toString()).toBe('%PDF-');
@@ -106,16 +116,22 @@ test.describe('an engineer runs a study', () => {
 	test('builds a study whose two feeds follow their own plans', async ({ page }) => {
 		await page.goto('/studies/new');
 		await page.getByLabel('Name').fill('E2E two feeds');
-		await page.getByLabel('Basal medium (recipe version)').selectOption({ label: 'NB-Min Salts 3 v1 (approved)' });
+		await page
+			.getByLabel('Basal medium (recipe version)')
+			.selectOption({ label: 'NB-Min Salts 3 v1 (approved)' });
 		await page.getByLabel('Organism profile').selectOption({ label: 'Demo bacterium PPN-B1' });
-		await page.getByLabel('Vessel').selectOption({ label: 'Bench stirred tank BST-10 (≤ 10 L, ≤ 150 kPa)' });
+		await page
+			.getByLabel('Vessel')
+			.selectOption({ label: 'Bench stirred tank BST-10 (≤ 10 L, ≤ 150 kPa)' });
 		await page.getByLabel('Target density').fill('20');
 		await page.getByLabel('Initial volume, L').fill('5');
 		await page.getByLabel('Inoculum density (same unit as the target)').fill('0.05');
 		await page.getByLabel('Run duration, h').fill('24');
 
 		const first = page.getByTestId('feed-slot-1');
-		await first.getByLabel('Feed 1 (recipe version)').selectOption({ label: 'PPN Glucose Feed B1 v1 (approved)' });
+		await first
+			.getByLabel('Feed 1 (recipe version)')
+			.selectOption({ label: 'PPN Glucose Feed B1 v1 (approved)' });
 		await expect(first.getByLabel('Pump top rate, L/h')).toHaveCount(0);
 		await first.getByLabel('Feed 1 plan').selectOption('doStat');
 		await expect(first.getByLabel('Feed 1 volume available, L')).toBeVisible();
@@ -126,11 +142,15 @@ test.describe('an engineer runs a study', () => {
 		// The pump rate was left out: the message names it and nothing typed is lost.
 		await expect(page.locator('#field-feed1MaxRateLPerH-error')).toContainText("pump's top rate");
 		await expect(page.getByLabel('Name')).toHaveValue('E2E two feeds');
-		await expect(first.getByLabel('Feeds while DO is above, % of air saturation')).toHaveValue('40');
+		await expect(first.getByLabel('Feeds while DO is above, % of air saturation')).toHaveValue(
+			'40'
+		);
 		await first.getByLabel('Pump top rate, L/h').fill('0.15');
 
 		const second = page.getByTestId('feed-slot-2');
-		await second.getByLabel('Feed 2 (recipe version)').selectOption({ label: 'PPN Nitrogen Top-up N2 v1 (approved)' });
+		await second
+			.getByLabel('Feed 2 (recipe version)')
+			.selectOption({ label: 'PPN Nitrogen Top-up N2 v1 (approved)' });
 		await second.getByLabel('Feed 2 plan').selectOption('constant');
 		await second.getByLabel('Feed 2 volume over the run, L').fill('0.4');
 		await second.getByLabel('Feed 2 starts at, h').fill('8');
@@ -145,10 +165,14 @@ test.describe('an engineer runs a study', () => {
 		await expect(page.getByTestId('nutrient-table').getByTestId('runs-out').first()).toBeVisible();
 	});
 
-	test('creates a study and is told plainly about a target beyond physical sense', async ({ page }) => {
+	test('creates a study and is told plainly about a target beyond physical sense', async ({
+		page
+	}) => {
 		await page.goto('/studies/new');
 		await page.getByLabel('Name').fill('E2E yeast check');
-		await page.getByLabel('Basal medium (recipe version)').selectOption({ label: 'PPN Yeast-Glycerol A v1 (in review)' });
+		await page
+			.getByLabel('Basal medium (recipe version)')
+			.selectOption({ label: 'PPN Yeast-Glycerol A v1 (in review)' });
 		await page.getByLabel('Organism profile').selectOption({ label: 'Demo yeast PPN-Y2' });
 		await page.getByLabel('Vessel').selectOption({ index: 1 });
 		await page.getByLabel('Target density').fill('900');
@@ -211,10 +235,14 @@ test.describe('organism profiles', () => {
 		await page.goto('/organisms');
 		await page.getByRole('link', { name: 'Demo mammalian line PPN-M3' }).click();
 		await expect(page.getByTestId('profile-yields')).toContainText(/Yx\/s on L-Glutamine/i);
-		await page.getByLabel('Yields on further substrates').fill('l-glutamine 0.684\npotassium-chloride from N');
+		await page
+			.getByLabel('Yields on further substrates')
+			.fill('l-glutamine 0.684\npotassium-chloride from N');
 		await page.getByRole('button', { name: 'Save profile' }).click();
 		await expect(page.locator('#field-substrateYields-help')).toContainText('contains no N');
-		await expect(page.getByLabel('Yields on further substrates')).toHaveValue('l-glutamine 0.684\npotassium-chloride from N');
+		await expect(page.getByLabel('Yields on further substrates')).toHaveValue(
+			'l-glutamine 0.684\npotassium-chloride from N'
+		);
 	});
 
 	test('show each element with its role and how sure its value is', async ({ page }) => {
@@ -225,14 +253,18 @@ test.describe('organism profiles', () => {
 		await expect(elements.getByTestId('profile-element-Fe')).toContainText('trace');
 		await expect(elements.getByTestId('profile-element-Fe')).toContainText('from memory');
 		// N: derived from the demo's formula CH1.8O0.5N0.2 with 8 % ash; it agrees with it, so no warning.
-		await expect(elements.getByTestId('profile-element-N')).toContainText('derived from published values');
+		await expect(elements.getByTestId('profile-element-N')).toContainText(
+			'derived from published values'
+		);
 		await expect(page.getByTestId('formula-warnings')).toHaveCount(0);
 		// The edit form holds the same, one row per element.
 		await expect(page.getByLabel('How sure the value of Fe is')).toHaveValue('from memory');
 		await expect(page.getByLabel('Role of Fe')).toHaveValue('');
 	});
 
-	test('sets the role and confidence of an element from the keyboard, is told what is missing by label, loses nothing', async ({ page }) => {
+	test('sets the role and confidence of an element from the keyboard, is told what is missing by label, loses nothing', async ({
+		page
+	}) => {
 		const name = `E2E elements ${Date.now()}`;
 		await page.goto('/organisms/new');
 		await page.getByLabel('Name', { exact: true }).fill(name);
@@ -253,7 +285,9 @@ test.describe('organism profiles', () => {
 		await page.getByRole('button', { name: 'Create profile' }).click();
 
 		// A published value needs its source: the message names the field by its label, and everything typed stays.
-		await expect(page.locator('#element-Fe-source-error')).toHaveText('Source of Fe: a published or derived value needs its source (the table or paper it comes from).');
+		await expect(page.locator('#element-Fe-source-error')).toHaveText(
+			'Source of Fe: a published or derived value needs its source (the table or paper it comes from).'
+		);
 		await expect(page.getByLabel('Source of Fe')).toHaveAttribute('aria-invalid', 'true');
 		await expect(page.getByLabel('Name', { exact: true })).toHaveValue(name);
 		await expect(fractions).toHaveValue('C 0.5\nH 0.08\nO 0.2\nN 0.14\nFe 0.002\nZn 0.0001');
@@ -270,23 +304,31 @@ test.describe('organism profiles', () => {
 
 		await expect(page.getByRole('heading', { name })).toBeVisible();
 		const fe = page.getByTestId('profile-element-Fe');
-		await expect(fe.getByTestId('profile-element-role')).toHaveText('required, set by this profile');
+		await expect(fe.getByTestId('profile-element-role')).toHaveText(
+			'required, set by this profile'
+		);
 		await expect(fe).toContainText('published');
 		await expect(fe).toContainText('Published iron content of the strain (test value)');
 		// Neidhardt-type fractions against CH1.8O0.5N0.2 with 8 % ash: N 0.2 × 14.007 / 24.626 × 0.92 = 10.5 %
 		// (24.626 g/C-mol, chemistry/REFERENCES.md, derived).
-		await expect(page.getByTestId('formula-warnings')).toContainText('N is 14 % in the fractions but 10.5 % by the formula CH1.8O0.5N0.2 with 8 % ash');
+		await expect(page.getByTestId('formula-warnings')).toContainText(
+			'N is 14 % in the fractions but 10.5 % by the formula CH1.8O0.5N0.2 with 8 % ash'
+		);
 	});
 });
 
 test.describe('a study report marks each nutrient line', () => {
 	test.use({ role: 'engineer' });
 
-	test('with its role and confidence, and names short trace elements among the warnings, not the reasons', async ({ page }) => {
+	test('with its role and confidence, and names short trace elements among the warnings, not the reasons', async ({
+		page
+	}) => {
 		await page.goto('/studies');
 		await page.getByRole('link', { name: 'Bacterium glucose fed-batch, pilot (demo)' }).click();
 		await expect(page.getByTestId('limit')).toContainText('N');
-		const fe = page.getByTestId('nutrient-row').filter({ has: page.getByText('Fe', { exact: true }) });
+		const fe = page
+			.getByTestId('nutrient-row')
+			.filter({ has: page.getByText('Fe', { exact: true }) });
 		await expect(fe.getByTestId('nutrient-role')).toHaveText('trace');
 		await expect(fe.getByTestId('nutrient-confidence')).toContainText('from memory');
 		await expect(fe).toContainText('Short: trace, a warning');

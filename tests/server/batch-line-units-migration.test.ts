@@ -23,7 +23,9 @@ describe('batch line quantities in columns named by their unit', () => {
 	it('moves each stored quantity to the column of its unit, also on a prepared batch, and drops the old columns', () => {
 		const path = join(mkdtempSync(join(tmpdir(), 'brothwright-db-')), 'old.db');
 		const sqlite = new Database(path);
-		migrate(drizzle(sqlite), { migrationsFolder: migrationsUpTo('0013_profile_element_statements') });
+		migrate(drizzle(sqlite), {
+			migrationsFolder: migrationsUpTo('0013_profile_element_statements')
+		});
 		// Rows as the previous release wrote them; references are not what is tested here.
 		sqlite.pragma('foreign_keys = OFF');
 		sqlite
@@ -50,17 +52,49 @@ describe('batch line quantities in columns named by their unit', () => {
 		line.run('liquid', 3, 'component', 'lot-volume', 1_300_000, 1_310_000, '1.31 g', 1_070);
 
 		migrate(drizzle(sqlite), { migrationsFolder: 'drizzle' });
-		const lines = sqlite.prepare(`SELECT id, required_ug, required_ul, actual_ug, actual_ul, consumed_mg, consumed_ul FROM batch_line ORDER BY position`).all();
+		const lines = sqlite
+			.prepare(
+				`SELECT id, required_ug, required_ul, actual_ug, actual_ul, consumed_mg, consumed_ul FROM batch_line ORDER BY position`
+			)
+			.all();
 		expect(lines).toEqual([
-			{ id: 'weighed', required_ug: 12_500_000, required_ul: null, actual_ug: 12_600_000, actual_ul: null, consumed_mg: 12_600, consumed_ul: null },
-			{ id: 'stock', required_ug: null, required_ul: 2_500, actual_ug: null, actual_ul: 2_500, consumed_mg: null, consumed_ul: null },
-			{ id: 'liquid', required_ug: 1_300_000, required_ul: null, actual_ug: 1_310_000, actual_ul: null, consumed_mg: null, consumed_ul: 1_070 }
+			{
+				id: 'weighed',
+				required_ug: 12_500_000,
+				required_ul: null,
+				actual_ug: 12_600_000,
+				actual_ul: null,
+				consumed_mg: 12_600,
+				consumed_ul: null
+			},
+			{
+				id: 'stock',
+				required_ug: null,
+				required_ul: 2_500,
+				actual_ug: null,
+				actual_ul: 2_500,
+				consumed_mg: null,
+				consumed_ul: null
+			},
+			{
+				id: 'liquid',
+				required_ug: 1_300_000,
+				required_ul: null,
+				actual_ug: 1_310_000,
+				actual_ul: null,
+				consumed_mg: null,
+				consumed_ul: 1_070
+			}
 		]);
-		const columns = (sqlite.prepare(`PRAGMA table_info(batch_line)`).all() as { name: string }[]).map((c) => c.name);
+		const columns = (
+			sqlite.prepare(`PRAGMA table_info(batch_line)`).all() as { name: string }[]
+		).map((c) => c.name);
 		expect(columns).not.toContain('required_quantity');
 		expect(columns).not.toContain('consumed_quantity');
 		// The prepared batch's record is locked again.
-		expect(() => sqlite.prepare(`UPDATE batch_line SET actual_text = 'changed' WHERE id = 'weighed'`).run()).toThrow('the batch is prepared; its record cannot change');
+		expect(() =>
+			sqlite.prepare(`UPDATE batch_line SET actual_text = 'changed' WHERE id = 'weighed'`).run()
+		).toThrow('the batch is prepared; its record cannot change');
 		sqlite.close();
 	});
 });

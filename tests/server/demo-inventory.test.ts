@@ -13,13 +13,16 @@ describe('the demo inventory', () => {
 		const lots = listLots();
 		expect(lots.some((l) => isExpired(l.expiresOn))).toBe(true);
 		expect(lots.some((l) => l.status === 'quarantine')).toBe(true);
-		expect(componentsBelowReorder().map((c) => c.componentId)).toContain('magnesium-sulfate-heptahydrate');
+		expect(componentsBelowReorder().map((c) => c.componentId)).toContain(
+			'magnesium-sulfate-heptahydrate'
+		);
 		expect(expiringLots(30).length).toBeGreaterThan(0);
 		const batches = listBatches();
 		expect(batches.map((b) => b.state).sort()).toEqual(['planned', 'released']);
 		const used = lots.filter((l) => batchesUsingLot(l.id).some((u) => u.state === 'released'));
 		expect(used.length).toBeGreaterThan(3);
-		for (const { lotId, total } of ledgerSums()) expect(lots.find((l) => l.id === lotId)?.onHand).toBe(total);
+		for (const { lotId, total } of ledgerSums())
+			expect(lots.find((l) => l.id === lotId)?.onHand).toBe(total);
 		expect(await seedDemo()).toBe(0);
 	});
 });

@@ -24,13 +24,30 @@ export function enterEvent(request: Request, { user, params = {} }: CallAs): Req
 	const url = new URL(request.url);
 	const jar = new Map<string, string>();
 	// Enough of SvelteKit's cookies for a handler that sets or reads one (sign-in).
-	const cookies = { get: (name: string) => jar.get(name), set: (name: string, value: string) => void jar.set(name, value), delete: (name: string) => void jar.delete(name), getAll: () => [...jar].map(([name, value]) => ({ name, value })) };
-	current = { request, url, params, cookies, locals: { user, session: null }, getClientAddress: () => '127.0.0.1' } as unknown as RequestEvent;
+	const cookies = {
+		get: (name: string) => jar.get(name),
+		set: (name: string, value: string) => void jar.set(name, value),
+		delete: (name: string) => void jar.delete(name),
+		getAll: () => [...jar].map(([name, value]) => ({ name, value }))
+	};
+	current = {
+		request,
+		url,
+		params,
+		cookies,
+		locals: { user, session: null },
+		getClientAddress: () => '127.0.0.1'
+	} as unknown as RequestEvent;
 	return current;
 }
 
 /** POSTs `body` as JSON to the handler at `path` (e.g. /api/v1/simulate). */
-export function postJson(handler: RequestHandler, path: string, body: unknown, as: CallAs): Promise<Response> {
+export function postJson(
+	handler: RequestHandler,
+	path: string,
+	body: unknown,
+	as: CallAs
+): Promise<Response> {
 	const request = new Request(new URL(path, 'http://127.0.0.1'), {
 		method: 'POST',
 		headers: { 'content-type': 'application/json' },
@@ -40,10 +57,18 @@ export function postJson(handler: RequestHandler, path: string, body: unknown, a
 }
 
 /** Calls the handler at `path` with `method`, sending `body` (when given) as JSON. */
-export function callJson(handler: RequestHandler, method: string, path: string, body: unknown, as: CallAs): Promise<Response> {
+export function callJson(
+	handler: RequestHandler,
+	method: string,
+	path: string,
+	body: unknown,
+	as: CallAs
+): Promise<Response> {
 	const request = new Request(new URL(path, 'http://127.0.0.1'), {
 		method: method.toUpperCase(),
-		...(body === undefined ? {} : { headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) })
+		...(body === undefined
+			? {}
+			: { headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) })
 	});
 	return Promise.resolve(handler(enterEvent(request, as)));
 }

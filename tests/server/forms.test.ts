@@ -2,7 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { formText, parseForm, revisionField } from '$lib/server/forms';
 
-const lineForm = z.object({ lineId: z.string().min(1, 'Which line?'), actual: formText, reason: formText });
+const lineForm = z.object({
+	lineId: z.string().min(1, 'Which line?'),
+	actual: formText,
+	reason: formText
+});
 
 function formOf(entries: [string, string | Blob][]): FormData {
 	const formData = new FormData();
@@ -12,12 +16,25 @@ function formOf(entries: [string, string | Blob][]): FormData {
 
 describe('parseForm', () => {
 	it('reads missing text fields as empty, so the domain rule says what is missing', () => {
-		const parsed = parseForm(lineForm, formOf([['lineId', 'l1'], ['actual', '12,5 g']]));
+		const parsed = parseForm(
+			lineForm,
+			formOf([
+				['lineId', 'l1'],
+				['actual', '12,5 g']
+			])
+		);
 		expect(parsed).toEqual({ ok: true, data: { lineId: 'l1', actual: '12,5 g', reason: '' } });
 	});
 
 	it('refuses a file where text belongs with a 400 naming the field, and keeps what was typed', () => {
-		const parsed = parseForm(lineForm, formOf([['lineId', 'l1'], ['actual', new Blob(['x'])], ['reason', 'spilt']]));
+		const parsed = parseForm(
+			lineForm,
+			formOf([
+				['lineId', 'l1'],
+				['actual', new Blob(['x'])],
+				['reason', 'spilt']
+			])
+		);
 		expect(parsed.ok).toBe(false);
 		if (parsed.ok) return;
 		expect(parsed.failure.status).toBe(400);
@@ -27,16 +44,33 @@ describe('parseForm', () => {
 	});
 
 	it('says the form’s own message when given, and never sends a password back', () => {
-		const confirmForm = z.object({ confirm: z.literal('yes', { error: 'Confirm first.' }), password: formText });
-		const parsed = parseForm(confirmForm, formOf([['password', 'secret']]), [], 'Tick the box to confirm.');
-		expect(parsed.ok || parsed.failure.data).toEqual({ message: 'Tick the box to confirm.', fieldErrors: { confirm: ['Confirm first.'] }, values: {} });
+		const confirmForm = z.object({
+			confirm: z.literal('yes', { error: 'Confirm first.' }),
+			password: formText
+		});
+		const parsed = parseForm(
+			confirmForm,
+			formOf([['password', 'secret']]),
+			[],
+			'Tick the box to confirm.'
+		);
+		expect(parsed.ok || parsed.failure.data).toEqual({
+			message: 'Tick the box to confirm.',
+			fieldErrors: { confirm: ['Confirm first.'] },
+			values: {}
+		});
 	});
 
 	it('reads a revision as a whole number and refuses anything else', () => {
 		const form = z.object({ revision: revisionField });
-		expect(parseForm(form, formOf([['revision', '3']]))).toEqual({ ok: true, data: { revision: 3 } });
+		expect(parseForm(form, formOf([['revision', '3']]))).toEqual({
+			ok: true,
+			data: { revision: 3 }
+		});
 		expect(parseForm(form, formOf([]))).toEqual({ ok: true, data: { revision: 0 } });
 		const stale = parseForm(form, formOf([['revision', 'three']]));
-		expect(stale.ok || stale.failure.data.fieldErrors).toEqual({ revision: ['The page is out of date; reload it and try again.'] });
+		expect(stale.ok || stale.failure.data.fieldErrors).toEqual({
+			revision: ['The page is out of date; reload it and try again.']
+		});
 	});
 });

@@ -4,7 +4,10 @@ import { createUser } from '$lib/server/people';
 let counter = 0;
 
 /** A real account in this test file's SQLite database. */
-export async function makeUser(roles: Role[] = ['engineer'], password = 'correct-horse-battery-42') {
+export async function makeUser(
+	roles: Role[] = ['engineer'],
+	password = 'correct-horse-battery-42'
+) {
 	counter++;
 	const email = `person${counter}-${crypto.randomUUID().slice(0, 6)}@lab.test`;
 	const id = await createUser({ email, name: `Person ${counter}`, password, roles });

@@ -16,10 +16,19 @@ import { makeUser } from './helpers';
 export const today = isoToday();
 
 /** The smallest real PDF header a sniffer accepts. */
-export const PDF_BYTES = new TextEncoder().encode('%PDF-1.4\n%demo\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n');
+export const PDF_BYTES = new TextEncoder().encode(
+	'%PDF-1.4\n%demo\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n'
+);
 
 export function pdfUpload(name = 'coa.pdf'): CheckedUpload {
-	return { bytes: PDF_BYTES, displayName: name, mediaType: 'application/pdf', extension: 'pdf', sizeBytes: PDF_BYTES.length, sha256: createHash('sha256').update(PDF_BYTES).digest('hex') };
+	return {
+		bytes: PDF_BYTES,
+		displayName: name,
+		mediaType: 'application/pdf',
+		extension: 'pdf',
+		sizeBytes: PDF_BYTES.length,
+		sha256: createHash('sha256').update(PDF_BYTES).digest('hex')
+	};
 }
 
 let counter = 0;
@@ -30,7 +39,10 @@ export async function makeLead() {
 }
 
 /** A lot received (with a certificate) and, unless told otherwise, released. */
-export function makeLot(lead: { id: string; email: string }, overrides: LotText & { status?: 'quarantine' | 'released' } = {}) {
+export function makeLot(
+	lead: { id: string; email: string },
+	overrides: LotText & { status?: 'quarantine' | 'released' } = {}
+) {
 	counter++;
 	const { status = 'released', ...fields } = overrides;
 	const checked = checkLotInput({
@@ -45,30 +57,69 @@ export function makeLot(lead: { id: string; email: string }, overrides: LotText 
 	});
 	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
 	const lot = receiveLot(lead, checked.value, [pdfUpload()]);
-	if (status === 'released') setLotStatus(lead, lot.id, 'released', '', String(fields.receivedOn ?? addDays(today, -5)));
+	if (status === 'released')
+		setLotStatus(lead, lot.id, 'released', '', String(fields.receivedOn ?? addDays(today, -5)));
 	return lot;
 }
 
-type Line = { componentId: string; amount: number; unit: string; shelfFormId?: string; tolerancePercent?: number };
+type Line = {
+	componentId: string;
+	amount: number;
+	unit: string;
+	shelfFormId?: string;
+	tolerancePercent?: number;
+};
 
 /** An approved recipe with these lines, written by one scientist and approved by an engineer. */
-export async function makeApprovedRecipe(lines: Line[], fields: Partial<DraftFieldsInput> = {}, stocks: { stockRecipeId: string; amount: number }[] = []) {
+export async function makeApprovedRecipe(
+	lines: Line[],
+	fields: Partial<DraftFieldsInput> = {},
+	stocks: { stockRecipeId: string; amount: number }[] = []
+) {
 	counter++;
 	const author = await makeUser(['media_scientist']);
 	const approver = await makeUser(['engineer']);
-	const recipeId = createRecipe(author, { name: `Test medium ${counter} ${crypto.randomUUID().slice(0, 4)}`, kind: 'basal' });
+	const recipeId = createRecipe(author, {
+		name: `Test medium ${counter} ${crypto.randomUUID().slice(0, 4)}`,
+		kind: 'basal'
+	});
 	const version = findVersion(recipeId, 1)!;
 	const draft = {
-		fields: { targetPh: '', osmolalityMinMOsmPerKg: '', osmolalityMaxMOsmPerKg: '', preparationTemperatureC: '25', shelfLifeDays: '', storage: '', instructions: '', changeNote: 'First issue.', ...fields },
+		fields: {
+			targetPh: '',
+			osmolalityMinMOsmPerKg: '',
+			osmolalityMaxMOsmPerKg: '',
+			preparationTemperatureC: '25',
+			shelfLifeDays: '',
+			storage: '',
+			instructions: '',
+			changeNote: 'First issue.',
+			...fields
+		},
 		lines: [
-			...lines.map((l) => ({ ...blankLine('component'), componentId: l.componentId, shelfFormId: l.shelfFormId ?? '', amount: String(l.amount), unit: l.unit, tolerancePercent: String(l.tolerancePercent ?? 2) })),
-			...stocks.map((s) => ({ ...blankLine('stock'), stockRecipeId: s.stockRecipeId, amount: String(s.amount) }))
+			...lines.map((l) => ({
+				...blankLine('component'),
+				componentId: l.componentId,
+				shelfFormId: l.shelfFormId ?? '',
+				amount: String(l.amount),
+				unit: l.unit,
+				tolerancePercent: String(l.tolerancePercent ?? 2)
+			})),
+			...stocks.map((s) => ({
+				...blankLine('stock'),
+				stockRecipeId: s.stockRecipeId,
+				amount: String(s.amount)
+			}))
 		]
 	};
 	const checked = checkDraft(draft, recipeId);
 	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
 	const revision = saveDraft(author, version.id, version.revision, checked.value);
 	submitForReview(author, version.id, revision);
-	await signVersion({ ...approver, roles: rolesOf(approver.id) as Role[] }, version.id, { password: approver.password, meaning: 'approved', comment: '' });
+	await signVersion({ ...approver, roles: rolesOf(approver.id) as Role[] }, version.id, {
+		password: approver.password,
+		meaning: 'approved',
+		comment: ''
+	});
 	return { recipeId, versionId: version.id };
 }

@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { listAuditEvents } from '$lib/server/audit';
 import { signIn } from '$lib/server/auth/sign-in';
-import { acceptInvitation, findUserByEmail, INVITATION_LIFETIME_MS, inspectInvitation, invitePerson, rolesOf } from '$lib/server/people';
+import {
+	acceptInvitation,
+	findUserByEmail,
+	INVITATION_LIFETIME_MS,
+	inspectInvitation,
+	invitePerson,
+	rolesOf
+} from '$lib/server/people';
 import { RuleError } from '$lib/server/rule-error';
 import { makeUser } from './helpers';
 import { latestMailTo, linkIn, useMailStandIn } from './mail';
@@ -24,19 +31,35 @@ async function invite(email: string, now = new Date()) {
 describe('invitations', () => {
 	it('arrive by mail through the stand-in, and the link creates the account with its roles', async () => {
 		const token = await invite('new.colleague@lab.test');
-		const userId = await acceptInvitation(token, { name: 'New Colleague', password: 'sterile-broth-figure', address: '127.0.0.1' });
+		const userId = await acceptInvitation(token, {
+			name: 'New Colleague',
+			password: 'sterile-broth-figure',
+			address: '127.0.0.1'
+		});
 		expect(findUserByEmail('new.colleague@lab.test')?.id).toBe(userId);
 		expect(rolesOf(userId)).toEqual(['engineer', 'inventory_lead']);
-		expect((await signIn('new.colleague@lab.test', 'sterile-broth-figure', '127.0.0.2')).ok).toBe(true);
-		expect(listAuditEvents({ action: 'person.invit', page: 1, pageSize: 10 }).total).toBeGreaterThanOrEqual(2);
+		expect((await signIn('new.colleague@lab.test', 'sterile-broth-figure', '127.0.0.2')).ok).toBe(
+			true
+		);
+		expect(
+			listAuditEvents({ action: 'person.invit', page: 1, pageSize: 10 }).total
+		).toBeGreaterThanOrEqual(2);
 	});
 
 	it('work only once', async () => {
 		const token = await invite('once-only@lab.test');
-		await acceptInvitation(token, { name: 'Once', password: 'sterile-broth-figure', address: '127.0.0.1' });
+		await acceptInvitation(token, {
+			name: 'Once',
+			password: 'sterile-broth-figure',
+			address: '127.0.0.1'
+		});
 		expect(inspectInvitation(token).state).toBe('used');
 		await expect(
-			acceptInvitation(token, { name: 'Twice', password: 'another-long-secret', address: '127.0.0.1' })
+			acceptInvitation(token, {
+				name: 'Twice',
+				password: 'another-long-secret',
+				address: '127.0.0.1'
+			})
 		).rejects.toThrow(/already been used/);
 	});
 
@@ -48,7 +71,11 @@ describe('invitations', () => {
 		expect(inspectInvitation(token, justBefore).state).toBe('valid');
 		expect(inspectInvitation(token, justAfter).state).toBe('expired');
 		await expect(
-			acceptInvitation(token, { name: 'Late', password: 'sterile-broth-figure', address: '127.0.0.1' }, justAfter)
+			acceptInvitation(
+				token,
+				{ name: 'Late', password: 'sterile-broth-figure', address: '127.0.0.1' },
+				justAfter
+			)
 		).rejects.toThrow(/expired/);
 		expect(findUserByEmail('late-reader@lab.test')).toBeUndefined();
 	});
@@ -73,7 +100,10 @@ describe('invitations', () => {
 		const existing = await makeUser();
 		const admin = await makeUser(['admin']);
 		await expect(
-			invitePerson({ id: admin.id, email: admin.email, name: 'A' }, { email: existing.email, name: '', roles: ['engineer'] })
+			invitePerson(
+				{ id: admin.id, email: admin.email, name: 'A' },
+				{ email: existing.email, name: '', roles: ['engineer'] }
+			)
 		).rejects.toThrow(/already has an account/);
 	});
 });

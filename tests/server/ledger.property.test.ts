@@ -23,15 +23,35 @@ type Op =
 
 const op: fc.Arbitrary<Op> = fc.oneof(
 	fc.record({ kind: fc.constant('consume' as const), mg: fc.integer({ min: 1, max: 60_000 }) }),
-	fc.record({ kind: fc.constant('adjust' as const), direction: fc.constantFrom('add' as const, 'remove' as const), g: fc.integer({ min: 1, max: 40 }) }),
+	fc.record({
+		kind: fc.constant('adjust' as const),
+		direction: fc.constantFrom('add' as const, 'remove' as const),
+		g: fc.integer({ min: 1, max: 40 })
+	}),
 	fc.record({ kind: fc.constant('dispose' as const), g: fc.integer({ min: 1, max: 50 }) }),
 	fc.constant({ kind: 'disposeAll' as const })
 );
 
 function apply(lotId: string, o: Op): void {
-	if (o.kind === 'consume') db.transaction((tx) => appendStockEntry(tx, { lotId, kind: 'consumption', quantity: -o.mg, reason: 'property test', actorId: lead.id }));
-	else if (o.kind === 'adjust') adjustLot(lead.actor, lotId, { direction: o.direction, amount: o.g, unit: 'g', reason: 'count correction' });
-	else if (o.kind === 'dispose') disposeLot(lead.actor, lotId, { all: false, amount: o.g, unit: 'g', reason: 'spilt' });
+	if (o.kind === 'consume')
+		db.transaction((tx) =>
+			appendStockEntry(tx, {
+				lotId,
+				kind: 'consumption',
+				quantity: -o.mg,
+				reason: 'property test',
+				actorId: lead.id
+			})
+		);
+	else if (o.kind === 'adjust')
+		adjustLot(lead.actor, lotId, {
+			direction: o.direction,
+			amount: o.g,
+			unit: 'g',
+			reason: 'count correction'
+		});
+	else if (o.kind === 'dispose')
+		disposeLot(lead.actor, lotId, { all: false, amount: o.g, unit: 'g', reason: 'spilt' });
 	else disposeLot(lead.actor, lotId, { all: true, reason: 'end of life' });
 }
 
@@ -70,17 +90,44 @@ describe('the stock ledger', () => {
 
 	it('is enforced by the database too: an insert that goes negative, an update and a delete are refused', () => {
 		const lot = makeLot(lead.actor, { quantity: '1', unit: 'g' });
-		expect(() => db.insert(stockEntry).values({ lotId: lot.id, kind: 'consumption', quantity: -1001, actorId: lead.id }).run()).toThrow(/negative/);
-		expect(() => db.update(stockEntry).set({ quantity: 5 }).where(eq(stockEntry.lotId, lot.id)).run()).toThrow(/append-only/);
-		expect(() => db.delete(stockEntry).where(eq(stockEntry.lotId, lot.id)).run()).toThrow(/append-only/);
-		expect(() => db.insert(stockEntry).values({ lotId: lot.id, kind: 'receipt', quantity: -5, actorId: lead.id }).run()).toThrow(/sign/);
-		expect(() => db.insert(stockEntry).values({ lotId: lot.id, kind: 'adjustment', quantity: 5, reason: ' ', actorId: lead.id }).run()).toThrow(/reason/);
-		const total = db.select({ t: sql<number>`sum(quantity)` }).from(stockEntry).where(eq(stockEntry.lotId, lot.id)).get()!.t;
+		expect(() =>
+			db
+				.insert(stockEntry)
+				.values({ lotId: lot.id, kind: 'consumption', quantity: -1001, actorId: lead.id })
+				.run()
+		).toThrow(/negative/);
+		expect(() =>
+			db.update(stockEntry).set({ quantity: 5 }).where(eq(stockEntry.lotId, lot.id)).run()
+		).toThrow(/append-only/);
+		expect(() => db.delete(stockEntry).where(eq(stockEntry.lotId, lot.id)).run()).toThrow(
+			/append-only/
+		);
+		expect(() =>
+			db
+				.insert(stockEntry)
+				.values({ lotId: lot.id, kind: 'receipt', quantity: -5, actorId: lead.id })
+				.run()
+		).toThrow(/sign/);
+		expect(() =>
+			db
+				.insert(stockEntry)
+				.values({ lotId: lot.id, kind: 'adjustment', quantity: 5, reason: ' ', actorId: lead.id })
+				.run()
+		).toThrow(/reason/);
+		const total = db
+			.select({ t: sql<number>`sum(quantity)` })
+			.from(stockEntry)
+			.where(eq(stockEntry.lotId, lot.id))
+			.get()!.t;
 		expect(total).toBe(1000);
 	});
 
 	it('refuses taking more than is on hand with a message that names the lot and the amounts', () => {
 		const lot = makeLot(lead.actor, { quantity: '2', unit: 'g' });
-		expect(() => disposeLot(lead.actor, lot.id, { all: false, amount: 3, unit: 'g', reason: 'test' })).toThrow(`Lot ${lot.code} has 2 g on hand; taking 3 g would make it negative. Nothing was taken.`);
+		expect(() =>
+			disposeLot(lead.actor, lot.id, { all: false, amount: 3, unit: 'g', reason: 'test' })
+		).toThrow(
+			`Lot ${lot.code} has 2 g on hand; taking 3 g would make it negative. Nothing was taken.`
+		);
 	});
 });

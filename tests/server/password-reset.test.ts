@@ -1,7 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { getLucia } from '$lib/server/auth/lucia';
 import { signIn } from '$lib/server/auth/sign-in';
-import { completePasswordReset, inspectPasswordReset, requestPasswordReset, RESET_LIFETIME_MS } from '$lib/server/people';
+import {
+	completePasswordReset,
+	inspectPasswordReset,
+	requestPasswordReset,
+	RESET_LIFETIME_MS
+} from '$lib/server/people';
 import { makeUser } from './helpers';
 import { latestMailTo, linkIn, useMailStandIn } from './mail';
 
@@ -27,21 +32,29 @@ describe('password reset by e-mail', () => {
 		expect((await signIn(person.email, person.password, '127.0.0.3')).ok).toBe(false);
 		expect((await signIn(person.email, 'fresh-medium-batch-7', '127.0.0.3')).ok).toBe(true);
 		expect(inspectPasswordReset(token).state).toBe('used');
-		await expect(completePasswordReset(token, 'yet-another-secret-9', '127.0.0.1')).rejects.toThrow(/already been used/);
+		await expect(completePasswordReset(token, 'yet-another-secret-9', '127.0.0.1')).rejects.toThrow(
+			/already been used/
+		);
 	});
 
 	it('expires after one hour', async () => {
 		const person = await makeUser();
 		const issued = new Date('2026-05-04T10:00:00Z');
 		const token = await resetLinkFor(person.email, issued);
-		expect(inspectPasswordReset(token, new Date(issued.getTime() + RESET_LIFETIME_MS - 1000)).state).toBe('valid');
+		expect(
+			inspectPasswordReset(token, new Date(issued.getTime() + RESET_LIFETIME_MS - 1000)).state
+		).toBe('valid');
 		const late = new Date(issued.getTime() + RESET_LIFETIME_MS + 1000);
 		expect(inspectPasswordReset(token, late).state).toBe('expired');
-		await expect(completePasswordReset(token, 'fresh-medium-batch-7', '127.0.0.1', late)).rejects.toThrow(/expired/);
+		await expect(
+			completePasswordReset(token, 'fresh-medium-batch-7', '127.0.0.1', late)
+		).rejects.toThrow(/expired/);
 		expect((await signIn(person.email, person.password, '127.0.0.4')).ok).toBe(true);
 	});
 
 	it('says so when no account uses the address', async () => {
-		await expect(requestPasswordReset('nobody-here@lab.test', '127.0.0.1')).rejects.toThrow(/No account uses this e-mail/);
+		await expect(requestPasswordReset('nobody-here@lab.test', '127.0.0.1')).rejects.toThrow(
+			/No account uses this e-mail/
+		);
 	});
 });

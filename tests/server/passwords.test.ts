@@ -3,7 +3,9 @@ import { checkPasswordPolicy, hashPassword, verifyPassword } from '$lib/server/a
 
 describe('password policy', () => {
 	it('needs at least 12 characters', () => {
-		expect(checkPasswordPolicy('short-pass1')).toMatch(/at least 12 characters \(this one has 11\)/);
+		expect(checkPasswordPolicy('short-pass1')).toMatch(
+			/at least 12 characters \(this one has 11\)/
+		);
 		expect(checkPasswordPolicy('tidal-kelp-ferment')).toBeNull();
 	});
 

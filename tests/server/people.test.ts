@@ -22,8 +22,14 @@ describe('people administration', () => {
 		const signedIn = await signIn(person.email, person.password, '127.0.0.1');
 		expect(signedIn.ok).toBe(true);
 		await setActive({ id: admin.id, email: admin.email }, person.id, false);
-		if (signedIn.ok) expect((await getLucia().validateSession(signedIn.cookie.value)).session).toBeNull();
-		expect(await signIn(person.email, person.password, '127.0.0.1')).toMatchObject({ ok: false, status: 403 });
-		await expect(setActive({ id: admin.id, email: admin.email }, admin.id, false)).rejects.toThrow(/deactivate yourself/);
+		if (signedIn.ok)
+			expect((await getLucia().validateSession(signedIn.cookie.value)).session).toBeNull();
+		expect(await signIn(person.email, person.password, '127.0.0.1')).toMatchObject({
+			ok: false,
+			status: 403
+		});
+		await expect(setActive({ id: admin.id, email: admin.email }, admin.id, false)).rejects.toThrow(
+			/deactivate yourself/
+		);
 	});
 });

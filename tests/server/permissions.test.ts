@@ -51,7 +51,11 @@ function serverFiles(dir: string): string[] {
 }
 
 /** The URL path of a route directory: groups dropped, each [param] filled in. */
-function urlPath(file: string): { pathname: string; params: Record<string, string>; routeId: string } {
+function urlPath(file: string): {
+	pathname: string;
+	params: Record<string, string>;
+	routeId: string;
+} {
 	const segments = relative(routesRoot, file).split(sep).slice(0, -1);
 	const params: Record<string, string> = {};
 	const path = segments
@@ -82,14 +86,24 @@ async function doorsOf(file: string): Promise<Door[]> {
 	const where = relative(routesRoot, file);
 	const doors: Door[] = [];
 	if (typeof module.load === 'function') {
-		doors.push({ name: `${where} load`, file, pathname, method: 'GET', call: module.load as Door['call'] });
+		doors.push({
+			name: `${where} load`,
+			file,
+			pathname,
+			method: 'GET',
+			call: module.load as Door['call']
+		});
 	}
-	for (const [name, action] of Object.entries((module.actions ?? {}) as Record<string, Door['call']>)) {
+	for (const [name, action] of Object.entries(
+		(module.actions ?? {}) as Record<string, Door['call']>
+	)) {
 		doors.push({ name: `${where} action ${name}`, file, pathname, method: 'POST', call: action });
 	}
 	for (const method of HTTP_METHODS) {
 		if (typeof module[method] !== 'function') continue;
-		const apiPath = routeId.startsWith('/api/v1/') ? routeId.replace(/\[(\w+)\]/g, '{$1}') : undefined;
+		const apiPath = routeId.startsWith('/api/v1/')
+			? routeId.replace(/\[(\w+)\]/g, '{$1}')
+			: undefined;
 		doors.push({
 			name: `${where} ${method}`,
 			file,
@@ -102,13 +116,21 @@ async function doorsOf(file: string): Promise<Door[]> {
 	return doors;
 }
 
-type Caller = { label: string; user: { id: string; email: string; name: string; roles: Role[] } | null };
+type Caller = {
+	label: string;
+	user: { id: string; email: string; name: string; roles: Role[] } | null;
+};
 
 function requestFor(door: Door): Request {
 	const url = new URL(door.pathname, 'http://127.0.0.1');
-	if (door.method === 'GET' || door.method === 'DELETE') return new Request(url, { method: door.method });
+	if (door.method === 'GET' || door.method === 'DELETE')
+		return new Request(url, { method: door.method });
 	if (door.operation) {
-		return new Request(url, { method: door.method, headers: { 'content-type': 'application/json' }, body: '{}' });
+		return new Request(url, {
+			method: door.method,
+			headers: { 'content-type': 'application/json' },
+			body: '{}'
+		});
 	}
 	return new Request(url, { method: door.method, body: new FormData() });
 }
@@ -122,7 +144,13 @@ async function knock(door: Door, caller: Caller): Promise<Outcome> {
 	const event = enterEvent(requestFor(door), { user: caller.user, params });
 	Object.assign(event, {
 		route: { id: null },
-		cookies: { get: () => undefined, getAll: () => [], set: () => {}, delete: () => {}, serialize: () => '' },
+		cookies: {
+			get: () => undefined,
+			getAll: () => [],
+			set: () => {},
+			delete: () => {},
+			serialize: () => ''
+		},
 		parent: async () => ({ user: caller.user }),
 		depends: () => {},
 		untrack: <T>(fn: () => T) => fn(),
@@ -141,7 +169,8 @@ async function knock(door: Door, caller: Caller): Promise<Outcome> {
 			return { passed: false, how: `threw ${cause.status}`, act: act() };
 		}
 		// The guard sends a signed-out page visit to sign-in and back; signing out also ends at /login, without `next`.
-		if (isRedirect(cause) && cause.location.startsWith('/login?next=')) return { passed: false, how: 'sent to sign-in', act: act() };
+		if (isRedirect(cause) && cause.location.startsWith('/login?next='))
+			return { passed: false, how: 'sent to sign-in', act: act() };
 		// Past the door: a missing record, a refused form or anything else is the door's business.
 		return { passed: true, how: 'went on past the guard', act: act() };
 	}
@@ -156,7 +185,10 @@ beforeAll(async () => {
 	callers.push({ label: 'nobody signed in', user: null });
 	for (const roles of [...ROLES.map((role) => [role]), []] as Role[][]) {
 		const person = await makeUser(roles);
-		callers.push({ label: roles[0] ?? 'no role', user: { id: person.id, email: person.email, name: 'Someone', roles } });
+		callers.push({
+			label: roles[0] ?? 'no role',
+			user: { id: person.id, email: person.email, name: 'Someone', roles }
+		});
 	}
 });
 
@@ -172,22 +204,35 @@ describe('every door of the route tree against the permission table', () => {
 	for (const file of files) {
 		it(`${relative(routesRoot, file)}: each door names an act and lets in exactly whom the table does`, async () => {
 			const doors = doorsByFile.get(file)!;
-			expect(doors.length, 'a server route file with no load, action or handler').toBeGreaterThan(0);
+			expect(doors.length, 'a server route file with no load, action or handler').toBeGreaterThan(
+				0
+			);
 			for (const door of doors) {
 				const acts = new Set<string | undefined>();
 				for (const caller of callers) {
 					const outcome = await knock(door, caller);
-					expect(outcome.act, `${door.name} names no act before it lets ${caller.label} in (${outcome.how})`).toBeDefined();
+					expect(
+						outcome.act,
+						`${door.name} names no act before it lets ${caller.label} in (${outcome.how})`
+					).toBeDefined();
 					const act = outcome.act as Act;
 					expect(ACTS, `${door.name} names ${act}, which the table does not hold`).toContain(act);
 					acts.add(act);
-					expect(outcome.passed, `${door.name} (${act}) for ${caller.label}: ${outcome.how}`).toBe(may(caller.user, act));
+					expect(outcome.passed, `${door.name} (${act}) for ${caller.label}: ${outcome.how}`).toBe(
+						may(caller.user, act)
+					);
 				}
-				expect([...acts], `${door.name} names a different act for different callers`).toHaveLength(1);
+				expect([...acts], `${door.name} names a different act for different callers`).toHaveLength(
+					1
+				);
 				if (door.operation) {
-					const operation = allOperations().find((op) => op.method === door.operation!.method && op.path === door.operation!.path);
+					const operation = allOperations().find(
+						(op) => op.method === door.operation!.method && op.path === door.operation!.path
+					);
 					expect(operation, `${door.name} has no OpenAPI operation`).toBeDefined();
-					expect(operation!.act, `${door.name}: the OpenAPI operation states another act`).toBe([...acts][0]);
+					expect(operation!.act, `${door.name}: the OpenAPI operation states another act`).toBe(
+						[...acts][0]
+					);
 				}
 			}
 		});
@@ -197,13 +242,18 @@ describe('every door of the route tree against the permission table', () => {
 describe('the menu', () => {
 	it('leads each person only to pages that let them in', async () => {
 		for (const item of NAVIGATION) {
-			const file = files.find((f) => f.endsWith('+page.server.ts') && urlPath(f).pathname === item.href);
+			const file = files.find(
+				(f) => f.endsWith('+page.server.ts') && urlPath(f).pathname === item.href
+			);
 			expect(file, `no page behind the menu entry ${item.href}`).toBeDefined();
 			const load = doorsByFile.get(file!)!.find((door) => door.name.endsWith(' load'))!;
 			for (const caller of callers) {
 				if (!may(caller.user, item.act)) continue;
 				const outcome = await knock(load, caller);
-				expect(outcome.passed, `${caller.label} sees ${item.href} in the menu but is refused it`).toBe(true);
+				expect(
+					outcome.passed,
+					`${caller.label} sees ${item.href} in the menu but is refused it`
+				).toBe(true);
 			}
 		}
 	});
@@ -212,7 +262,9 @@ describe('the menu', () => {
 describe('the table itself', () => {
 	it('lets a feed proposal be saved as recipe drafts only by those who both use studies and write recipes', () => {
 		for (const role of ROLES) {
-			expect(may([role], 'study.save-feed-drafts'), role).toBe(may([role], 'study.use') && may([role], 'recipe.edit'));
+			expect(may([role], 'study.save-feed-drafts'), role).toBe(
+				may([role], 'study.use') && may([role], 'recipe.edit')
+			);
 		}
 	});
 

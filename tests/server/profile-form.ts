@@ -3,7 +3,11 @@ import { db } from '$lib/server/db';
 import { organismProfile, user } from '$lib/server/db/schema';
 import { submitProfile } from '$lib/server/studies/profile-page';
 
-type FailureData = { message: string; fieldErrors: Record<string, string[]>; values: Record<string, string> };
+type FailureData = {
+	message: string;
+	fieldErrors: Record<string, string[]>;
+	values: Record<string, string>;
+};
 
 /**
  * Submits the organism profile form as the demo engineer, with `base` under each test's own fields

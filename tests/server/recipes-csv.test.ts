@@ -3,7 +3,11 @@ import { count } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import { component } from '$lib/server/db/schema';
-import { exportComponentsCsv, importComponentCsv, previewComponentCsv } from '$lib/server/components/csv';
+import {
+	exportComponentsCsv,
+	importComponentCsv,
+	previewComponentCsv
+} from '$lib/server/components/csv';
 import { findComponentByIdOrName } from '$lib/server/components/library';
 import { exportVersionCsv, importLineCsv, previewLineCsv } from '$lib/server/recipes/csv';
 import { findRecipe, findVersionById, linesOf } from '$lib/server/recipes/queries';
@@ -51,10 +55,16 @@ describe('component CSV import', () => {
 			[6, true]
 		]);
 		expect(preview.rows[1].errors.join(' ')).toMatch(/^formula: .*Xq/);
-		expect(preview.rows[2].errors).toEqual(['name: A component named “Sodium chloride” already exists.']);
-		expect(preview.rows[3].errors).toEqual(['cas_number: The check digit of 7447-40-8 is wrong; look at the number again.']);
+		expect(preview.rows[2].errors).toEqual([
+			'name: A component named “Sodium chloride” already exists.'
+		]);
+		expect(preview.rows[3].errors).toEqual([
+			'cas_number: The check digit of 7447-40-8 is wrong; look at the number again.'
+		]);
 		expect(preview.rows[4].errors).toEqual(['name: “Invented salt A” is also on row 2.']);
-		expect(ruleMessage(() => importComponentCsv(actor, csv))).toMatch(/4 rows have problems; nothing was imported/);
+		expect(ruleMessage(() => importComponentCsv(actor, csv))).toMatch(
+			/4 rows have problems; nothing was imported/
+		);
 		expect(componentCount()).toBe(before);
 		expect(findComponentByIdOrName('Invented salt A')).toBeUndefined();
 	});
@@ -62,7 +72,9 @@ describe('component CSV import', () => {
 	it('wrong columns refuse the whole file with the expected columns listed', () => {
 		const message = ruleMessage(() => previewComponentCsv('title,formula\nSomething,NaCl'));
 		expect(message).toMatch(/unknown column “title”; missing name, category/);
-		expect(message).toMatch(/Expected columns: name, category \(required\), and optionally id, formula,/);
+		expect(message).toMatch(
+			/Expected columns: name, category \(required\), and optionally id, formula,/
+		);
 	});
 
 	it('a clean file goes in whole, with complex materials and hazards', () => {
@@ -76,20 +88,31 @@ describe('component CSV import', () => {
 		const peptone = findComponentByIdOrName('invented peptone p1')!;
 		expect(peptone.elementalMassFractions).toEqual({ C: 0.42, N: 0.12, P: 0.01 });
 		expect(peptone.fractionsNote).toMatch(/certificate/);
-		expect(findComponentByIdOrName('Invented chelate Q')?.ghsHazards.map((h) => h.code)).toEqual(['H332', 'H373']);
+		expect(findComponentByIdOrName('Invented chelate Q')?.ghsHazards.map((h) => h.code)).toEqual([
+			'H332',
+			'H373'
+		]);
 	});
 
 	it('exports the library with the import columns', () => {
-		const parsed = Papa.parse<Record<string, string>>(exportComponentsCsv(), { header: true, comments: '#', skipEmptyLines: true });
+		const parsed = Papa.parse<Record<string, string>>(exportComponentsCsv(), {
+			header: true,
+			comments: '#',
+			skipEmptyLines: true
+		});
 		expect(parsed.meta.fields?.slice(0, 4)).toEqual(['id', 'name', 'category', 'formula']);
-		expect(parsed.data.find((r) => r.id === 'magnesium-sulfate-heptahydrate')).toMatchObject({ formula: 'MgSO4·7H2O', basis_component: 'magnesium-sulfate' });
+		expect(parsed.data.find((r) => r.id === 'magnesium-sulfate-heptahydrate')).toMatchObject({
+			formula: 'MgSO4·7H2O',
+			basis_component: 'magnesium-sulfate'
+		});
 	});
 });
 
 describe('recipe line CSV import', () => {
 	it('a bad row writes nothing; the preview gives row numbers and reasons', () => {
 		const draft = draftRecipe(actor, [line('sodium-chloride', 5)]);
-		const csv = 'component,amount,unit,note\nD-Glucose anhydrous,20,mM,\nPotassium chloride,0,g/L,\nGlycine,1,ppm,\nSodium chloride,1,g/L,\nNo such thing,1,g/L,';
+		const csv =
+			'component,amount,unit,note\nD-Glucose anhydrous,20,mM,\nPotassium chloride,0,g/L,\nGlycine,1,ppm,\nSodium chloride,1,g/L,\nNo such thing,1,g/L,';
 		const preview = previewLineCsv(findVersionById(draft.versionId)!, csv);
 		expect(preview.rows.map((r) => [r.rowNumber, r.errors])).toEqual([
 			[2, []],
@@ -99,22 +122,40 @@ describe('recipe line CSV import', () => {
 			[6, ['component: no component “No such thing” in the library.']]
 		]);
 		const before = findVersionById(draft.versionId)!.revision;
-		expect(ruleMessage(() => importLineCsv(actor, findVersionById(draft.versionId)!, csv))).toMatch(/4 rows have problems; nothing was imported/);
+		expect(ruleMessage(() => importLineCsv(actor, findVersionById(draft.versionId)!, csv))).toMatch(
+			/4 rows have problems; nothing was imported/
+		);
 		expect(linesOf(draft.versionId)).toHaveLength(1);
 		expect(findVersionById(draft.versionId)!.revision).toBe(before);
 	});
 
 	it('a clean file is appended in order, and the version exports back to the same lines', () => {
 		const draft = draftRecipe(actor, [line('sodium-chloride', 5)]);
-		const added = importLineCsv(actor, findVersionById(draft.versionId)!, 'component,amount,unit,shelf_form,note\nMagnesium sulfate,2,mM,Magnesium sulfate heptahydrate,add last\nd-glucose,4.5,g/L,,');
+		const added = importLineCsv(
+			actor,
+			findVersionById(draft.versionId)!,
+			'component,amount,unit,shelf_form,note\nMagnesium sulfate,2,mM,Magnesium sulfate heptahydrate,add last\nd-glucose,4.5,g/L,,'
+		);
 		expect(added).toBe(2);
-		expect(linesOf(draft.versionId).map((l) => [l.position, l.componentId, l.shelfFormId, l.amount, l.unit])).toEqual([
+		expect(
+			linesOf(draft.versionId).map((l) => [
+				l.position,
+				l.componentId,
+				l.shelfFormId,
+				l.amount,
+				l.unit
+			])
+		).toEqual([
 			[1, 'sodium-chloride', null, 5, 'g/L'],
 			[2, 'magnesium-sulfate', 'magnesium-sulfate-heptahydrate', 2, 'mM'],
 			[3, 'd-glucose', null, 4.5, 'g/L']
 		]);
 		const csv = exportVersionCsv(findRecipe(draft.recipeId)!, findVersionById(draft.versionId)!);
-		const rows = Papa.parse<Record<string, string>>(csv, { header: true, comments: '#', skipEmptyLines: true }).data;
+		const rows = Papa.parse<Record<string, string>>(csv, {
+			header: true,
+			comments: '#',
+			skipEmptyLines: true
+		}).data;
 		expect(rows.map((r) => [r.component, r.amount, r.unit])).toEqual([
 			['Sodium chloride', '5', 'g/L'],
 			['Magnesium sulfate, anhydrous', '2', 'mM'],
@@ -124,7 +165,9 @@ describe('recipe line CSV import', () => {
 
 	it('wrong columns are one clear message', () => {
 		const draft = draftRecipe(actor, [line('sodium-chloride', 5)]);
-		expect(ruleMessage(() => previewLineCsv(findVersionById(draft.versionId)!, 'ingredient;qty\nx;1'))).toMatch(
+		expect(
+			ruleMessage(() => previewLineCsv(findVersionById(draft.versionId)!, 'ingredient;qty\nx;1'))
+		).toMatch(
 			/The columns are not right: unknown columns “ingredient”, “qty”; missing component, amount, unit\. Expected columns: component, amount, unit \(required\)/
 		);
 	});

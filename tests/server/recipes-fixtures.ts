@@ -15,7 +15,12 @@ export const EMPTY_FIELDS: DraftFieldsInput = {
 	changeNote: ''
 };
 
-export function line(componentId: string, amount: string | number, unit = 'g/L', extra: Partial<DraftLineInput> = {}): DraftLineInput {
+export function line(
+	componentId: string,
+	amount: string | number,
+	unit = 'g/L',
+	extra: Partial<DraftLineInput> = {}
+): DraftLineInput {
 	return { ...blankLine('component'), componentId, amount: String(amount), unit, ...extra };
 }
 
@@ -31,10 +36,18 @@ export function loadLibrary() {
 
 let n = 0;
 /** A recipe with version 1 saved as a draft with these lines; returns ids and the draft's revision. */
-export function draftRecipe(author: { id: string; email: string }, lines: DraftLineInput[], kind = 'basal', fields: Partial<DraftFieldsInput> = {}) {
+export function draftRecipe(
+	author: { id: string; email: string },
+	lines: DraftLineInput[],
+	kind = 'basal',
+	fields: Partial<DraftFieldsInput> = {}
+) {
 	loadLibrary();
 	n++;
-	const recipeId = createRecipe(author, { name: `Test recipe ${n} ${crypto.randomUUID().slice(0, 4)}`, kind });
+	const recipeId = createRecipe(author, {
+		name: `Test recipe ${n} ${crypto.randomUUID().slice(0, 4)}`,
+		kind
+	});
 	const version = findVersion(recipeId, 1)!;
 	const checked = checkDraft({ fields: { ...EMPTY_FIELDS, ...fields }, lines }, recipeId);
 	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));

@@ -20,10 +20,13 @@ describe('the starting library and the demo recipes', () => {
 
 		const recipes = db.select().from(recipe).all();
 		expect(recipes.length).toBeGreaterThanOrEqual(6);
-		const statuses = db.select({ status: recipeVersion.status }).from(recipeVersion).all().map((v) => v.status);
+		const statuses = db
+			.select({ status: recipeVersion.status })
+			.from(recipeVersion)
+			.all()
+			.map((v) => v.status);
 		expect(statuses).toEqual(expect.arrayContaining(['approved', 'draft', 'in_review']));
 	});
-
 });
 
 describe('the demo recipes, once seeded', () => {
@@ -34,10 +37,18 @@ describe('the demo recipes, once seeded', () => {
 	});
 
 	it('each approval is signed by someone other than the author', () => {
-		const approved = db.select().from(recipeVersion).where(eq(recipeVersion.status, 'approved')).all();
+		const approved = db
+			.select()
+			.from(recipeVersion)
+			.where(eq(recipeVersion.status, 'approved'))
+			.all();
 		expect(approved.length).toBeGreaterThanOrEqual(3);
 		for (const version of approved) {
-			const signatures = db.select().from(eSignature).where(eq(eSignature.subjectId, version.id)).all();
+			const signatures = db
+				.select()
+				.from(eSignature)
+				.where(eq(eSignature.subjectId, version.id))
+				.all();
 			expect(signatures.map((s) => s.meaning)).toContain('approved');
 			expect(signatures.every((s) => s.signerId !== version.authorId)).toBe(true);
 		}
@@ -47,10 +58,16 @@ describe('the demo recipes, once seeded', () => {
 
 	it('the feed shows its solubility problem, and the trace stock is used by others', () => {
 		const feed = db.select().from(recipe).where(eq(recipe.name, 'PPN Feed GA-12')).get()!;
-		expect(versionView(feed.id, 1).analysis?.warnings.map((w) => w.message).join(' ')).toMatch(/L-Tyrosine at 3 g\/L exceeds its solubility/);
+		expect(
+			versionView(feed.id, 1)
+				.analysis?.warnings.map((w) => w.message)
+				.join(' ')
+		).toMatch(/L-Tyrosine at 3 g\/L exceeds its solubility/);
 		const basal = db.select().from(recipe).where(eq(recipe.name, 'PPN CD Basal M1')).get()!;
 		const view = versionView(basal.id, 1);
-		expect(view.lines.find((l) => l.kind === 'stock')?.stockRecipeName).toBe('PPN Trace Elements T2');
+		expect(view.lines.find((l) => l.kind === 'stock')?.stockRecipeName).toBe(
+			'PPN Trace Elements T2'
+		);
 		expect(view.analysis?.elements.find((e) => e.symbol === 'Zn')?.gPerL).toBeGreaterThan(0);
 		expect(view.analysis?.osmolality.verdict).toBe('within');
 		expect(view.analysis?.warnings).toEqual([]);

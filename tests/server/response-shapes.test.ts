@@ -24,21 +24,27 @@ vi.mock('$app/server', async (importOriginal) => ({
 
 type Route = Record<string, RequestHandler>;
 const routeModules = import.meta.glob<Route>('../../src/routes/api/v1/**/+server.ts');
-const route = (path: string): Promise<Route> => routeModules[`../../src/routes${path}/+server.ts`]();
+const route = (path: string): Promise<Route> =>
+	routeModules[`../../src/routes${path}/+server.ts`]();
 
 /** The paths at which `raw` has a key that `kept` (the schema's parse of it) dropped as undescribed. */
 function droppedKeys(raw: unknown, kept: unknown, path = ''): string[] {
-	if (Array.isArray(raw) && Array.isArray(kept)) return raw.flatMap((item, i) => droppedKeys(item, kept[i], `${path}${i}.`));
-	if (raw === null || kept === null || typeof raw !== 'object' || typeof kept !== 'object') return [];
+	if (Array.isArray(raw) && Array.isArray(kept))
+		return raw.flatMap((item, i) => droppedKeys(item, kept[i], `${path}${i}.`));
+	if (raw === null || kept === null || typeof raw !== 'object' || typeof kept !== 'object')
+		return [];
 	return Object.entries(raw).flatMap(([key, value]) =>
-		key in kept ? droppedKeys(value, (kept as Record<string, unknown>)[key], `${path}${key}.`) : [`${path}${key}: not in the schema`]
+		key in kept
+			? droppedKeys(value, (kept as Record<string, unknown>)[key], `${path}${key}.`)
+			: [`${path}${key}: not in the schema`]
 	);
 }
 
 /** What does not fit: the schema's issues, then the fields it does not describe. */
 function shapeProblems(schema: z.ZodType, body: unknown): string[] {
 	const parsed = schema.safeParse(body);
-	if (!parsed.success) return parsed.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
+	if (!parsed.success)
+		return parsed.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
 	return droppedKeys(body, parsed.data);
 }
 
@@ -70,24 +76,47 @@ const fedBatchWithOxygen = {
 	outputEveryH: 0.5
 };
 
-const post = (path: string, body: unknown) => async () => callJson((await route(path)).POST, 'post', path, body, { user });
-const get = (path: string, params: Record<string, string> = {}) => async () => {
-	const concrete = Object.entries(params).reduce((p, [key, value]) => p.replace(`[${key}]`, value), path);
-	return callJson((await route(path)).GET, 'get', concrete, undefined, { user, params });
-};
+const post = (path: string, body: unknown) => async () =>
+	callJson((await route(path)).POST, 'post', path, body, { user });
+const get =
+	(path: string, params: Record<string, string> = {}) =>
+	async () => {
+		const concrete = Object.entries(params).reduce(
+			(p, [key, value]) => p.replace(`[${key}]`, value),
+			path
+		);
+		return callJson((await route(path)).GET, 'get', concrete, undefined, { user, params });
+	};
 
 /** One real call per documented response, keyed `method path` as in the OpenAPI document. */
 const calls: Record<string, () => Promise<Response>> = {
 	'get /api/v1/health': get('/api/v1/health'),
 	'get /api/v1/me': get('/api/v1/me'),
 	'post /api/v1/session': async () =>
-		callJson((await route('/api/v1/session')).POST, 'post', '/api/v1/session', { email: scientist.email, password }, { user: null }),
+		callJson(
+			(await route('/api/v1/session')).POST,
+			'post',
+			'/api/v1/session',
+			{ email: scientist.email, password },
+			{ user: null }
+		),
 	'post /api/v1/formula': post('/api/v1/formula', { formula: 'MgSO4·7H2O' }),
-	'post /api/v1/oxygen/saturation': post('/api/v1/oxygen/saturation', { temperatureC: 37, salinityGPerKg: 5 }),
+	'post /api/v1/oxygen/saturation': post('/api/v1/oxygen/saturation', {
+		temperatureC: 37,
+		salinityGPerKg: 5
+	}),
 	'post /api/v1/sufficiency': post('/api/v1/sufficiency', {
 		profile: { kind: 'preset', id: 'bacterium-neidhardt-1990' },
 		target: { biomassGPerL: 1.5 },
-		supply: { sources: [{ name: 'M9', elementsGPerL: { N: 0.26, P: 2.2, Mg: 0.05 }, componentsGPerL: { glucose: 4 } }] },
+		supply: {
+			sources: [
+				{
+					name: 'M9',
+					elementsGPerL: { N: 0.26, P: 2.2, Mg: 0.05 },
+					componentsGPerL: { glucose: 4 }
+				}
+			]
+		},
 		carbon: { basis: 'component', component: 'glucose', yieldGPerG: 0.5 }
 	}),
 	'post /api/v1/recipes/preview': post('/api/v1/recipes/preview', {
@@ -108,26 +137,42 @@ const calls: Record<string, () => Promise<Response>> = {
 		dilutionPerH: 0.4,
 		safetyMargin: 0.1
 	}),
-	'post /api/v1/productivity/batch-vs-continuous': post('/api/v1/productivity/batch-vs-continuous', {
-		muMaxPerH: 0.6,
-		ksGPerL: 0.05,
-		yieldXS: 0.5,
-		substrateGPerL: 20,
-		inoculumGPerL: 0.1,
-		dilutionPerH: 0.4,
-		turnaround: { cleaningH: 2, sterilisingH: 1, fillingH: 1, lagH: 1 }
-	}),
+	'post /api/v1/productivity/batch-vs-continuous': post(
+		'/api/v1/productivity/batch-vs-continuous',
+		{
+			muMaxPerH: 0.6,
+			ksGPerL: 0.05,
+			yieldXS: 0.5,
+			substrateGPerL: 20,
+			inoculumGPerL: 0.1,
+			dilutionPerH: 0.4,
+			turnaround: { cleaningH: 2, sterilisingH: 1, fillingH: 1, lagH: 1 }
+		}
+	),
 	'post /api/v1/fit/growth': async () => {
 		// Run data from the simulator, with a small fixed ripple so the fit sees measurement noise.
 		const run = await (await post('/api/v1/simulate', batchRun)()).json();
 		const ripple = (values: number[]) => values.map((v, i) => v * (1 + 0.01 * Math.sin(7 * i)));
-		return post('/api/v1/fit/growth', { timeH: run.t, biomassGPerL: ripple(run.biomassGPerL), substrateGPerL: ripple(run.substrateGPerL) })();
+		return post('/api/v1/fit/growth', {
+			timeH: run.t,
+			biomassGPerL: ripple(run.biomassGPerL),
+			substrateGPerL: ripple(run.substrateGPerL)
+		})();
 	},
 	'get /api/v1/scenarios': get('/api/v1/scenarios'),
-	'post /api/v1/scenarios': post('/api/v1/scenarios', { name: 'Shapes: fed-batch with oxygen', request: fedBatchWithOxygen }),
+	'post /api/v1/scenarios': post('/api/v1/scenarios', {
+		name: 'Shapes: fed-batch with oxygen',
+		request: fedBatchWithOxygen
+	}),
 	'get /api/v1/scenarios/{id}': async () => get('/api/v1/scenarios/[id]', { id: scenarioId })(),
 	'patch /api/v1/scenarios/{id}': async () =>
-		callJson((await route('/api/v1/scenarios/[id]')).PATCH, 'patch', `/api/v1/scenarios/${scenarioId}`, { notes: 'renamed by the shapes test' }, { user, params: { id: scenarioId } }),
+		callJson(
+			(await route('/api/v1/scenarios/[id]')).PATCH,
+			'patch',
+			`/api/v1/scenarios/${scenarioId}`,
+			{ notes: 'renamed by the shapes test' },
+			{ user, params: { id: scenarioId } }
+		),
 	'post /api/v1/studies/evaluate': async () => post('/api/v1/studies/evaluate', { studyId })()
 };
 
@@ -142,13 +187,22 @@ beforeAll(async () => {
 	await seedDemo();
 	scientist = await makeUser(['engineer', 'media_scientist'], password);
 	user = { id: scientist.id, email: scientist.email, name: 'Shapes', roles: scientist.roles };
-	scenarioId = saveScenario({ ...user, address: '127.0.0.1' }, { name: 'Shapes: batch', request: batchRun as never }).id;
-	studyId = db.select().from(study).where(eq(study.name, 'Bacterium glucose fed-batch, pilot (demo)')).get()!.id;
+	scenarioId = saveScenario(
+		{ ...user, address: '127.0.0.1' },
+		{ name: 'Shapes: batch', request: batchRun as never }
+	).id;
+	studyId = db
+		.select()
+		.from(study)
+		.where(eq(study.name, 'Bacterium glucose fed-batch, pilot (demo)'))
+		.get()!.id;
 });
 
 describe('every documented response schema describes a real answer', () => {
 	it('has a real call here for each operation the OpenAPI document gives a response schema', () => {
-		expect(Object.keys(calls).sort()).toEqual(documented.map((op) => `${op.method} ${op.path}`).sort());
+		expect(Object.keys(calls).sort()).toEqual(
+			documented.map((op) => `${op.method} ${op.path}`).sort()
+		);
 	});
 
 	for (const op of documented) {
@@ -169,22 +223,43 @@ describe('the check fails when a real answer and its schema disagree', () => {
 		const body = await answerOf('post /api/v1/simulate');
 		expect(shapeProblems(simulate().response!, body)).toEqual([]);
 		const { biomassGPerL, ...rest } = body;
-		expect(shapeProblems(simulate().response!, { ...rest, biomassGperL: biomassGPerL })).toEqual([expect.stringMatching(/^biomassGPerL: /)]);
-		expect(shapeProblems(simulate().response!, { ...body, biomassGperL: biomassGPerL })).toEqual(['biomassGperL: not in the schema']);
+		expect(shapeProblems(simulate().response!, { ...rest, biomassGperL: biomassGPerL })).toEqual([
+			expect.stringMatching(/^biomassGPerL: /)
+		]);
+		expect(shapeProblems(simulate().response!, { ...body, biomassGperL: biomassGPerL })).toEqual([
+			'biomassGperL: not in the schema'
+		]);
 		const streams = body.feedStreams as Record<string, unknown>[];
 		const { deliveredL, ...stream } = streams[1];
-		const renamed = { ...body, feedStreams: [streams[0], { ...stream, deliveredLitres: deliveredL }] };
-		expect(shapeProblems(simulate().response!, renamed)).toEqual([expect.stringMatching(/^feedStreams\.1\.deliveredL: /)]);
-		const added = { ...body, feedStreams: [streams[0], { ...streams[1], deliveredLitres: deliveredL }] };
-		expect(shapeProblems(simulate().response!, added)).toEqual(['feedStreams.1.deliveredLitres: not in the schema']);
+		const renamed = {
+			...body,
+			feedStreams: [streams[0], { ...stream, deliveredLitres: deliveredL }]
+		};
+		expect(shapeProblems(simulate().response!, renamed)).toEqual([
+			expect.stringMatching(/^feedStreams\.1\.deliveredL: /)
+		]);
+		const added = {
+			...body,
+			feedStreams: [streams[0], { ...streams[1], deliveredLitres: deliveredL }]
+		};
+		expect(shapeProblems(simulate().response!, added)).toEqual([
+			'feedStreams.1.deliveredLitres: not in the schema'
+		]);
 	});
 
 	it('a field of the wrong type fails, and so does a renamed field the partial study schema documents', async () => {
 		const body = await answerOf('post /api/v1/simulate');
-		expect(shapeProblems(simulate().response!, { ...body, events: [{ kind: 'overflow', tH: 1, message: 'x' }] })).toHaveLength(1);
+		expect(
+			shapeProblems(simulate().response!, {
+				...body,
+				events: [{ kind: 'overflow', tH: 1, message: 'x' }]
+			})
+		).toHaveLength(1);
 		const report = await answerOf('post /api/v1/studies/evaluate');
 		const { verdict, ...rest } = report;
 		const schema = documented.find((op) => op.path === '/api/v1/studies/evaluate')!.response!;
-		expect(shapeProblems(schema, { ...rest, outcome: verdict })).toEqual([expect.stringMatching(/^verdict: /)]);
+		expect(shapeProblems(schema, { ...rest, outcome: verdict })).toEqual([
+			expect.stringMatching(/^verdict: /)
+		]);
 	});
 });

@@ -27,7 +27,15 @@ describe('hasRole, the pure check behind every guard', () => {
 			expect(isRole(role)).toBe(true);
 			expect(ROLE_LABELS[role], role).toMatch(/^[A-Z][a-z]+( [a-z]+)*$/);
 		}
-		for (const other of ['superuser', 'Admin', 'admin ', '', 'inventory-lead', 'constructor', 'toString']) {
+		for (const other of [
+			'superuser',
+			'Admin',
+			'admin ',
+			'',
+			'inventory-lead',
+			'constructor',
+			'toString'
+		]) {
 			expect(isRole(other), JSON.stringify(other)).toBe(false);
 		}
 		expect(describeRoles(['engineer', 'inventory_lead'])).toBe('Process engineer, Inventory lead');
@@ -45,7 +53,9 @@ describe('hasRole, the pure check behind every guard', () => {
 		for (const first of ROLES) {
 			for (const second of ROLES) {
 				for (const act of ACTS) {
-					expect(may([first, second], act), `${first} + ${second}: ${act}`).toBe(may([first], act) || may([second], act));
+					expect(may([first, second], act), `${first} + ${second}: ${act}`).toBe(
+						may([first], act) || may([second], act)
+					);
 				}
 			}
 		}

@@ -1,16 +1,49 @@
 import { describe, expect, it } from 'vitest';
-import { buildSimulationRequest, createDemoValues, readSimulationRequest } from '$lib/simulation/form-values';
-import { checkRunData, checkTextContent, checkUploadFile, describeFitFieldPath, guessColumnMapping, parseRunDataCsv } from '$lib/simulation/run-data';
+import {
+	buildSimulationRequest,
+	createDemoValues,
+	readSimulationRequest
+} from '$lib/simulation/form-values';
+import {
+	checkRunData,
+	checkTextContent,
+	checkUploadFile,
+	describeFitFieldPath,
+	guessColumnMapping,
+	parseRunDataCsv
+} from '$lib/simulation/run-data';
 import { formatSeriesCsv } from '$lib/simulation/series-csv';
 
-const CSV = ['time_h,OD600,glucose_g_per_l', '0,0.2,20', '1,0.4,19.6', '2,abc,19', '3,,18', '4,-1,17', '0.5,1.2,16', '5,2.5,15', '', '6,5,12', ''].join('\n');
+const CSV = [
+	'time_h,OD600,glucose_g_per_l',
+	'0,0.2,20',
+	'1,0.4,19.6',
+	'2,abc,19',
+	'3,,18',
+	'4,-1,17',
+	'0.5,1.2,16',
+	'5,2.5,15',
+	'',
+	'6,5,12',
+	''
+].join('\n');
 
 describe('run-data upload', () => {
 	it('refuses files that are not CSV text or are too large, before reading them', () => {
-		expect(checkUploadFile({ name: 'run.xlsx', size: 100, type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' })).toMatch(/not a \.csv/);
-		expect(checkUploadFile({ name: 'run.csv', size: 3 * 1024 * 1024, type: 'text/csv' })).toMatch(/limit is 2 MB/);
+		expect(
+			checkUploadFile({
+				name: 'run.xlsx',
+				size: 100,
+				type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
+			})
+		).toMatch(/not a \.csv/);
+		expect(checkUploadFile({ name: 'run.csv', size: 3 * 1024 * 1024, type: 'text/csv' })).toMatch(
+			/limit is 2 MB/
+		);
 		expect(checkUploadFile({ name: 'run.csv', size: 0, type: 'text/csv' })).toMatch(/empty/);
-		expect(checkUploadFile({ name: 'run.csv', size: 100, type: 'image/png' })).toMatch(/image\/png/);
+		expect(checkUploadFile({ name: 'run.csv', size: 100, type: 'image/png' })).toMatch(
+			/image\/png/
+		);
 		expect(checkUploadFile({ name: 'run.csv', size: 100, type: 'text/csv' })).toBeNull();
 		expect(checkTextContent('PK\u0003\u0004\u0000\u0000binary')).toMatch(/binary/);
 		expect(checkTextContent('time,od\n0,1\n')).toBeNull();
@@ -19,9 +52,16 @@ describe('run-data upload', () => {
 	it('excludes each bad row with its line and reason, and keeps the rest', () => {
 		const table = parseRunDataCsv(CSV);
 		const mapping = guessColumnMapping(table.columns);
-		expect(mapping).toMatchObject({ time: 'time_h', biomass: 'OD600', biomassUnit: 'od', substrate: 'glucose_g_per_l' });
+		expect(mapping).toMatchObject({
+			time: 'time_h',
+			biomass: 'OD600',
+			biomassUnit: 'od',
+			substrate: 'glucose_g_per_l'
+		});
 		const checked = checkRunData(table, { ...mapping, gPerLPerOd: '0.5' });
-		const problems = Object.fromEntries(checked.verdicts.filter((v) => v.problems.length).map((v) => [v.line, v.problems.join('; ')]));
+		const problems = Object.fromEntries(
+			checked.verdicts.filter((v) => v.problems.length).map((v) => [v.line, v.problems.join('; ')])
+		);
 		expect(problems).toEqual({
 			4: 'biomass “abc” is not a number',
 			5: 'biomass is missing',
@@ -51,7 +91,11 @@ describe('simulation form values', () => {
 		const built = buildSimulationRequest(createDemoValues());
 		expect(built.ok).toBe(true);
 		if (!built.ok) return;
-		expect(built.request).toMatchObject({ mode: 'fedBatch', feed: { strategy: 'exponential', muSetPerH: 0.2 }, oxygen: { kLaPerH: 500 } });
+		expect(built.request).toMatchObject({
+			mode: 'fedBatch',
+			feed: { strategy: 'exponential', muSetPerH: 0.2 },
+			oxygen: { kLaPerH: 500 }
+		});
 		expect(built.request).not.toHaveProperty('dilutionPerH');
 		const read = readSimulationRequest(built.request);
 		expect(read.ok).toBe(true);
@@ -64,15 +108,36 @@ describe('simulation form values', () => {
 		values.numbers['initial.volumeL'] = 'five';
 		values.numbers['kinetics.ksGPerL'] = '0,05';
 		const built = buildSimulationRequest(values);
-		expect(built).toEqual({ ok: false, fieldErrors: { 'kinetics.muMaxPerH': 'Required.', 'initial.volumeL': 'Enter a number (got “five”).' } });
+		expect(built).toEqual({
+			ok: false,
+			fieldErrors: {
+				'kinetics.muMaxPerH': 'Required.',
+				'initial.volumeL': 'Enter a number (got “five”).'
+			}
+		});
 	});
 
 	it('exports one CSV row per output time, with a scenario column when comparing', () => {
-		const result = { t: [0, 1], biomassGPerL: [1, 2], substrateGPerL: [3, 4], productGPerL: [0, 0], volumeL: [5, 5], dissolvedOxygenMgPerL: null, feedLPerH: [0, 0.1], ourMmolPerLH: null, maxOtrMmolPerLH: null };
+		const result = {
+			t: [0, 1],
+			biomassGPerL: [1, 2],
+			substrateGPerL: [3, 4],
+			productGPerL: [0, 0],
+			volumeL: [5, 5],
+			dissolvedOxygenMgPerL: null,
+			feedLPerH: [0, 0.1],
+			ourMmolPerLH: null,
+			maxOtrMmolPerLH: null
+		};
 		const single = formatSeriesCsv([{ label: 'A', result }]).split('\n');
-		expect(single[0]).toBe('t_h,biomass_g_per_l,substrate_g_per_l,product_g_per_l,volume_l,dissolved_oxygen_mg_per_l,feed_l_per_h,our_mmol_per_l_h,max_otr_mmol_per_l_h');
+		expect(single[0]).toBe(
+			't_h,biomass_g_per_l,substrate_g_per_l,product_g_per_l,volume_l,dissolved_oxygen_mg_per_l,feed_l_per_h,our_mmol_per_l_h,max_otr_mmol_per_l_h'
+		);
 		expect(single[2]).toBe('1,2,4,0,5,,0.1,,');
-		const both = formatSeriesCsv([{ label: 'A', result }, { label: 'B', result }]).split('\n');
+		const both = formatSeriesCsv([
+			{ label: 'A', result },
+			{ label: 'B', result }
+		]).split('\n');
 		expect(both[0].startsWith('scenario,t_h')).toBe(true);
 		expect(both).toHaveLength(5);
 	});

@@ -2,7 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { listAuditEvents } from '$lib/server/audit';
 import type { SimulateRequest } from '$lib/server/api/operations/simulation';
 import { RuleError } from '$lib/server/rule-error';
-import { deleteScenario, getScenario, listScenarios, saveScenario, updateScenario } from '$lib/server/scenarios';
+import {
+	deleteScenario,
+	getScenario,
+	listScenarios,
+	saveScenario,
+	updateScenario
+} from '$lib/server/scenarios';
 import { makeUser } from './helpers';
 
 const batch: SimulateRequest = {
@@ -32,7 +38,11 @@ describe('simulation scenarios are kept per person', () => {
 	it('saves the full request and lists it only for its owner', async () => {
 		const ana = await makeOwner();
 		const ben = await makeOwner();
-		const saved = saveScenario(ana, { name: '  Glucose batch ', notes: 'first try', request: batch });
+		const saved = saveScenario(ana, {
+			name: '  Glucose batch ',
+			notes: 'first try',
+			request: batch
+		});
 		expect(saved.name).toBe('Glucose batch');
 		expect(saved.mode).toBe('batch');
 		expect(listScenarios(ana.id).map((s) => s.request)).toEqual([batch]);
@@ -56,7 +66,10 @@ describe('simulation scenarios are kept per person', () => {
 		const first = saveScenario(ana, { name: 'One', request: batch });
 		saveScenario(ana, { name: 'Two', request: batch });
 		expect(ruleOf(() => updateScenario(ana, first.id, { name: 'Two' })).status).toBe(409);
-		expect(updateScenario(ana, first.id, { name: 'Uno', notes: 'renamed' })).toMatchObject({ name: 'Uno', notes: 'renamed' });
+		expect(updateScenario(ana, first.id, { name: 'Uno', notes: 'renamed' })).toMatchObject({
+			name: 'Uno',
+			notes: 'renamed'
+		});
 		expect(ruleOf(() => updateScenario(ben, first.id, { name: 'Stolen' })).status).toBe(404);
 		expect(getScenario(ana.id, first.id).name).toBe('Uno');
 	});
@@ -69,7 +82,9 @@ describe('simulation scenarios are kept per person', () => {
 		expect(ruleOf(() => deleteScenario(ben, gone.id)).status).toBe(404);
 		deleteScenario(ana, gone.id);
 		expect(listScenarios(ana.id).map((s) => s.id)).toEqual([kept.id]);
-		const actions = listAuditEvents({ actor: ana.email, page: 1, pageSize: 20 }).rows.map((r) => r.action);
+		const actions = listAuditEvents({ actor: ana.email, page: 1, pageSize: 20 }).rows.map(
+			(r) => r.action
+		);
 		expect(actions.filter((a) => a === 'simulation.scenario_saved')).toHaveLength(2);
 		expect(actions).toContain('simulation.scenario_deleted');
 	});

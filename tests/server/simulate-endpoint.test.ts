@@ -9,9 +9,15 @@ vi.mock('$app/server', async (importOriginal) => ({
 
 const { POST } = await import('../../src/routes/api/v1/simulate/+server');
 
-const engineer = { id: 'u-engineer', email: 'engineer@lab.test', name: 'Engineer', roles: ['engineer'] };
+const engineer = {
+	id: 'u-engineer',
+	email: 'engineer@lab.test',
+	name: 'Engineer',
+	roles: ['engineer']
+};
 
-const postSimulate = (body: unknown, user: typeof engineer | null = engineer) => postJson(POST, '/api/v1/simulate', body, { user });
+const postSimulate = (body: unknown, user: typeof engineer | null = engineer) =>
+	postJson(POST, '/api/v1/simulate', body, { user });
 
 const twoStreams = {
 	mode: 'fedBatch',
@@ -30,7 +36,10 @@ describe('POST /api/v1/simulate with several feed streams', () => {
 		const response = await postSimulate(twoStreams);
 		expect(response.status).toBe(200);
 		const body = await response.json();
-		expect(body.feedStreams.map((s: { label: string }) => s.label)).toEqual(['Glucose', 'Amino acids']);
+		expect(body.feedStreams.map((s: { label: string }) => s.label)).toEqual([
+			'Glucose',
+			'Amino acids'
+		]);
 		expect(body.feedStreams[1].feedLPerH).toHaveLength(body.t.length);
 		// ∫ of a constant rate from the stream's start (analytic): 0.02·10 and 0.01·6 L.
 		expect(body.feedStreams[0].deliveredL).toBeCloseTo(0.2, 10);
@@ -62,8 +71,15 @@ describe('POST /api/v1/simulate with several feed streams', () => {
 	});
 
 	it('reports every refusal of the request at once, each at its field with the library’s words', async () => {
-		const feeds = [{ ...twoStreams.feeds[0], rateLPerH: -1 }, { ...twoStreams.feeds[1], startH: 12 }];
-		const response = await postSimulate({ ...twoStreams, kinetics: { ...twoStreams.kinetics, ksGPerL: 0 }, feeds });
+		const feeds = [
+			{ ...twoStreams.feeds[0], rateLPerH: -1 },
+			{ ...twoStreams.feeds[1], startH: 12 }
+		];
+		const response = await postSimulate({
+			...twoStreams,
+			kinetics: { ...twoStreams.kinetics, ksGPerL: 0 },
+			feeds
+		});
 		expect(response.status).toBe(400);
 		const body = await response.json();
 		expect(body.errors).toEqual([

@@ -1,5 +1,11 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { MAX_FEED_LABEL_LENGTH, MAX_FEED_STREAMS, simulateRun, type FeedInput, type SimulationRequest } from '$chemistry';
+import {
+	MAX_FEED_LABEL_LENGTH,
+	MAX_FEED_STREAMS,
+	simulateRun,
+	type FeedInput,
+	type SimulationRequest
+} from '$chemistry';
 import { callApi } from '$lib/simulation/api-client';
 import { buildSimulationCharts, type SimulationRunView } from '$lib/simulation/chart-series';
 import { listFeedDeliveries } from '$lib/simulation/feed-stream-results';
@@ -10,7 +16,13 @@ import {
 	moveFeedStreamErrors,
 	nameFeedStreamsIn
 } from '$lib/simulation/feed-stream-values';
-import { buildSimulationRequest, createDemoValues, feedStreamPath, readSimulationRequest, type SimulationFormValues } from '$lib/simulation/form-values';
+import {
+	buildSimulationRequest,
+	createDemoValues,
+	feedStreamPath,
+	readSimulationRequest,
+	type SimulationFormValues
+} from '$lib/simulation/form-values';
 import { formatSeriesCsv } from '$lib/simulation/series-csv';
 import { enterEvent } from './endpoint-call';
 
@@ -21,12 +33,19 @@ vi.mock('$app/server', async (importOriginal) => ({
 }));
 const { POST } = await import('../../src/routes/api/v1/simulate/+server');
 
-const engineer = { id: 'u-engineer', email: 'engineer@lab.test', name: 'Engineer', roles: ['engineer'] };
+const engineer = {
+	id: 'u-engineer',
+	email: 'engineer@lab.test',
+	name: 'Engineer',
+	roles: ['engineer']
+};
 
 /** The browser's fetch answered by the real simulate endpoint, so callApi reads a real problem+json. */
 function answerFetchWithEndpoint() {
 	vi.stubGlobal('fetch', async (path: string, init: RequestInit) => {
-		return POST(enterEvent(new Request(new URL(path, 'http://127.0.0.1'), init), { user: engineer }));
+		return POST(
+			enterEvent(new Request(new URL(path, 'http://127.0.0.1'), init), { user: engineer })
+		);
 	});
 }
 
@@ -44,9 +63,29 @@ const base = {
 	outputEveryH: 0.5
 } satisfies Omit<SimulationRequest, 'feed' | 'feeds'>;
 
-const glucoseDoStat: FeedInput = { label: 'Glucose', strategy: 'doStat', substrateGPerL: 500, startH: 8, doSetpointMgPerL: 2, maxRateLPerH: 0.1 };
-const aminoAcids: FeedInput = { label: 'Amino acids', strategy: 'constant', substrateGPerL: 0, startH: 10, rateLPerH: 0.01, bolusL: 0.05 };
-const rampByExpression: FeedInput = { strategy: 'expression', substrateGPerL: 300, startH: 12, expression: '0.005 * (t - 12)', maxRateLPerH: 0.05 };
+const glucoseDoStat: FeedInput = {
+	label: 'Glucose',
+	strategy: 'doStat',
+	substrateGPerL: 500,
+	startH: 8,
+	doSetpointMgPerL: 2,
+	maxRateLPerH: 0.1
+};
+const aminoAcids: FeedInput = {
+	label: 'Amino acids',
+	strategy: 'constant',
+	substrateGPerL: 0,
+	startH: 10,
+	rateLPerH: 0.01,
+	bolusL: 0.05
+};
+const rampByExpression: FeedInput = {
+	strategy: 'expression',
+	substrateGPerL: 300,
+	startH: 12,
+	expression: '0.005 * (t - 12)',
+	maxRateLPerH: 0.05
+};
 
 function readInto(request: SimulationRequest): SimulationFormValues {
 	const read = readSimulationRequest(request);
@@ -61,7 +100,14 @@ describe('feed streams in the simulation form', () => {
 			ok: true,
 			request: {
 				mode: 'fedBatch',
-				kinetics: { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5, maintenanceGPerGH: 0.03, yieldXO2: 1, koMgPerL: 0.1 },
+				kinetics: {
+					muMaxPerH: 0.6,
+					ksGPerL: 0.05,
+					yieldXS: 0.5,
+					maintenanceGPerGH: 0.03,
+					yieldXO2: 1,
+					koMgPerL: 0.1
+				},
 				initial: { biomassGPerL: 0.1, substrateGPerL: 20, volumeL: 5 },
 				feed: { strategy: 'exponential', substrateGPerL: 500, startH: 8, muSetPerH: 0.2 },
 				oxygen: { kLaPerH: 500, saturationMgPerL: 7 },
@@ -86,7 +132,9 @@ describe('feed streams in the simulation form', () => {
 	])('reads %s streams into the form and builds the same request from it', (_, feeds) => {
 		const request: SimulationRequest = { ...base, feeds };
 		const values = readInto(request);
-		expect(values.feeds.map((s) => [s.label, s.strategy])).toEqual(feeds.map((f) => [f.label ?? '', f.strategy]));
+		expect(values.feeds.map((s) => [s.label, s.strategy])).toEqual(
+			feeds.map((f) => [f.label ?? '', f.strategy])
+		);
 		expect(values.feeds[1].numbers.substrateGPerL).toBe('0');
 		expect(buildSimulationRequest(values)).toEqual({ ok: true, request });
 	});
@@ -109,14 +157,27 @@ describe('feed streams in the simulation form', () => {
 	it('refuses a scenario with more streams than the page edits rather than cutting it', () => {
 		const five = [glucoseDoStat, aminoAcids, rampByExpression, aminoAcids, aminoAcids];
 		const read = readSimulationRequest({ ...base, feeds: five });
-		expect(read).toEqual({ ok: false, message: expect.stringContaining('This scenario has 5 feed streams and this page edits at most 3') });
+		expect(read).toEqual({
+			ok: false,
+			message: expect.stringContaining(
+				'This scenario has 5 feed streams and this page edits at most 3'
+			)
+		});
 		expect(MAX_FORM_FEED_STREAMS).toBeLessThanOrEqual(MAX_FEED_STREAMS);
 	});
 
 	it('names each stream’s own fields in its errors and sends a second stream as feeds', () => {
 		const values = createDemoValues();
-		values.feeds.push(createFeedStream({ label: '  Amino acids ', numbers: { substrateGPerL: '0', rateLPerH: '' } as never }));
-		expect(buildSimulationRequest(values)).toEqual({ ok: false, fieldErrors: { 'feeds.1.rateLPerH': 'Required.' } });
+		values.feeds.push(
+			createFeedStream({
+				label: '  Amino acids ',
+				numbers: { substrateGPerL: '0', rateLPerH: '' } as never
+			})
+		);
+		expect(buildSimulationRequest(values)).toEqual({
+			ok: false,
+			fieldErrors: { 'feeds.1.rateLPerH': 'Required.' }
+		});
 		values.feeds[1].numbers.rateLPerH = '0,02';
 		const built = buildSimulationRequest(values);
 		expect(built.ok && built.request.feeds).toEqual([
@@ -130,12 +191,18 @@ describe('feed streams in the simulation form', () => {
 		expect(FEED_LABEL_MAX_LENGTH).toBe(MAX_FEED_LABEL_LENGTH);
 		const values = createDemoValues();
 		values.feeds[0].label = 'x'.repeat(FEED_LABEL_MAX_LENGTH + 1);
-		expect(buildSimulationRequest(values)).toEqual({ ok: false, fieldErrors: { 'feed.label': 'At most 80 characters (this one has 81).' } });
+		expect(buildSimulationRequest(values)).toEqual({
+			ok: false,
+			fieldErrors: { 'feed.label': 'At most 80 characters (this one has 81).' }
+		});
 	});
 
 	it('maps the API’s feeds.1.rateLPerH problem to the field of the second stream', async () => {
 		answerFetchWithEndpoint();
-		const values = readInto({ ...base, feeds: [glucoseDoStat, { ...aminoAcids, rateLPerH: 0.01 }] });
+		const values = readInto({
+			...base,
+			feeds: [glucoseDoStat, { ...aminoAcids, rateLPerH: 0.01 }]
+		});
 		values.feeds[1].numbers.rateLPerH = '-0.01';
 		const built = buildSimulationRequest(values);
 		if (!built.ok) throw new Error(JSON.stringify(built.fieldErrors));
@@ -146,24 +213,43 @@ describe('feed streams in the simulation form', () => {
 		expect(Object.keys(answer.fieldErrors)).toEqual([secondRateField]);
 		expect(secondRateField).toBe('feeds.1.rateLPerH');
 		expect(answer.fieldErrors[secondRateField]).toMatch(/^feeds\.1\.rateLPerH must be/);
-		expect(nameFeedStreamsIn(answer.fieldErrors[secondRateField])).toMatch(/^rateLPerH of feed stream 2 must be/);
+		expect(nameFeedStreamsIn(answer.fieldErrors[secondRateField])).toMatch(
+			/^rateLPerH of feed stream 2 must be/
+		);
 	});
 
 	it('moves field errors with their stream when streams are added or removed', () => {
-		const errors = { feed: 'fedBatch mode needs the feed.', 'feed.rateLPerH': 'Required.', endH: 'Required.' };
+		const errors = {
+			feed: 'fedBatch mode needs the feed.',
+			'feed.rateLPerH': 'Required.',
+			endH: 'Required.'
+		};
 		expect(moveFeedStreamErrors(errors, [{ from: 'feed', to: 'feeds.0' }])).toEqual({
 			feed: 'fedBatch mode needs the feed.',
 			'feeds.0.rateLPerH': 'Required.',
 			endH: 'Required.'
 		});
-		const three = { 'feeds.0.bolusL': 'a', 'feeds.1.rateLPerH': 'b', 'feeds.1': 'c', 'feeds.2.startH': 'd' };
+		const three = {
+			'feeds.0.bolusL': 'a',
+			'feeds.1.rateLPerH': 'b',
+			'feeds.1': 'c',
+			'feeds.2.startH': 'd'
+		};
 		const removeSecond = [
 			{ from: 'feeds.0', to: 'feeds.0' },
 			{ from: 'feeds.1', to: null },
 			{ from: 'feeds.2', to: 'feeds.1' }
 		];
-		expect(moveFeedStreamErrors(three, removeSecond)).toEqual({ 'feeds.0.bolusL': 'a', 'feeds.1.startH': 'd' });
-		expect(moveFeedStreamErrors({ 'feeds.1.startH': 'd' }, [{ from: 'feeds.0', to: null }, { from: 'feeds.1', to: 'feed' }])).toEqual({ 'feed.startH': 'd' });
+		expect(moveFeedStreamErrors(three, removeSecond)).toEqual({
+			'feeds.0.bolusL': 'a',
+			'feeds.1.startH': 'd'
+		});
+		expect(
+			moveFeedStreamErrors({ 'feeds.1.startH': 'd' }, [
+				{ from: 'feeds.0', to: null },
+				{ from: 'feeds.1', to: 'feed' }
+			])
+		).toEqual({ 'feed.startH': 'd' });
 	});
 });
 
@@ -188,24 +274,50 @@ describe('feed streams in the results', () => {
 	const oneStream: SimulationRunView['result'] = {
 		...twoStreams,
 		feedLPerH: [0, 0.1, 0.2],
-		feedStreams: [{ label: null, strategy: 'exponential', feedLPerH: [0, 0.1, 0.2], deliveredL: 0.25 }]
+		feedStreams: [
+			{ label: null, strategy: 'exponential', feedLPerH: [0, 0.1, 0.2], deliveredL: 0.25 }
+		]
 	};
-	const volumeChart = (runs: SimulationRunView[]) => buildSimulationCharts(runs).find((spec) => spec.id === 'volume')!;
+	const volumeChart = (runs: SimulationRunView[]) =>
+		buildSimulationCharts(runs).find((spec) => spec.id === 'volume')!;
 
 	it('draws each stream’s rate beside the total when there are several, and only the total for one', () => {
 		const several = volumeChart([{ label: 'Current inputs', result: twoStreams }]);
-		expect(several.series.map((s) => s.label)).toEqual(['Volume V', 'Total feed rate F', 'Glucose', 'Feed 2']);
-		expect(several.series[3]).toMatchObject({ axis: 'y2', points: [{ x: 0, y: 0 }, { x: 1, y: 0.05 }, { x: 2, y: 0.05 }] });
-		expect(volumeChart([{ label: 'Current inputs', result: oneStream }]).series.map((s) => s.label)).toEqual(['Volume V', 'Feed rate F']);
+		expect(several.series.map((s) => s.label)).toEqual([
+			'Volume V',
+			'Total feed rate F',
+			'Glucose',
+			'Feed 2'
+		]);
+		expect(several.series[3]).toMatchObject({
+			axis: 'y2',
+			points: [
+				{ x: 0, y: 0 },
+				{ x: 1, y: 0.05 },
+				{ x: 2, y: 0.05 }
+			]
+		});
+		expect(
+			volumeChart([{ label: 'Current inputs', result: oneStream }]).series.map((s) => s.label)
+		).toEqual(['Volume V', 'Feed rate F']);
 	});
 
 	it('exports one rate column per stream, headed with its label, and none for a lone stream', () => {
 		const lines = formatSeriesCsv([{ label: 'A', result: twoStreams }]).split('\n');
-		expect(lines[0].endsWith(',feed_l_per_h,our_mmol_per_l_h,max_otr_mmol_per_l_h,feed_1_l_per_h (Glucose),feed_2_l_per_h')).toBe(true);
+		expect(
+			lines[0].endsWith(
+				',feed_l_per_h,our_mmol_per_l_h,max_otr_mmol_per_l_h,feed_1_l_per_h (Glucose),feed_2_l_per_h'
+			)
+		).toBe(true);
 		expect(lines[2].endsWith(',0.1,0.05')).toBe(true);
 		const single = formatSeriesCsv([{ label: 'A', result: oneStream }]).split('\n');
-		expect(single[0]).toBe('t_h,biomass_g_per_l,substrate_g_per_l,product_g_per_l,volume_l,dissolved_oxygen_mg_per_l,feed_l_per_h,our_mmol_per_l_h,max_otr_mmol_per_l_h');
-		const compared = formatSeriesCsv([{ label: 'A', result: oneStream }, { label: 'B', result: twoStreams }]).split('\n');
+		expect(single[0]).toBe(
+			't_h,biomass_g_per_l,substrate_g_per_l,product_g_per_l,volume_l,dissolved_oxygen_mg_per_l,feed_l_per_h,our_mmol_per_l_h,max_otr_mmol_per_l_h'
+		);
+		const compared = formatSeriesCsv([
+			{ label: 'A', result: oneStream },
+			{ label: 'B', result: twoStreams }
+		]).split('\n');
 		expect(compared[1]).toBe('A,0,1,5,0,5,,0,,,,');
 		expect(compared[4]).toBe('B,0,1,5,0,5,,0,,,0,0');
 	});

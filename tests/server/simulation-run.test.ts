@@ -51,14 +51,20 @@ describe('the simulate endpoint’s mapping', () => {
 
 	it('passes the library’s field errors through (μset ≥ μmax names feed.muSetPerH)', () => {
 		// Not parsed first: the endpoint's schema already refuses it; here the library reads it itself.
-		const body = { ...fedBatch, feed: { strategy: 'exponential', substrateGPerL: 500, muSetPerH: 0.6 } } as const;
+		const body = {
+			...fedBatch,
+			feed: { strategy: 'exponential', substrateGPerL: 500, muSetPerH: 0.6 }
+		} as const;
 		const failure = failureOf(() => runSimulation(body));
 		expect(failure).toBeInstanceOf(ChemistryInputError);
 		expect((failure as ChemistryInputError).field).toBe('feed.muSetPerH');
 	});
 
 	it('refuses an unknown key in the request rather than dropping it', () => {
-		const parsed = simulateRequest.safeParse({ ...fedBatch, kinetics: { ...fedBatch.kinetics, muMax: 1 } });
+		const parsed = simulateRequest.safeParse({
+			...fedBatch,
+			kinetics: { ...fedBatch.kinetics, muMax: 1 }
+		});
 		expect(parsed.success).toBe(false);
 		expect(parsed.error?.issues[0].path).toEqual(['kinetics']);
 	});

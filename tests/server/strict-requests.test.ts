@@ -13,22 +13,32 @@ const routes: Record<string, () => Promise<{ POST: RequestHandler }>> = {
 	'/api/v1/stoichiometry': () => import('../../src/routes/api/v1/stoichiometry/+server'),
 	'/api/v1/oxygen/saturation': () => import('../../src/routes/api/v1/oxygen/saturation/+server'),
 	'/api/v1/sufficiency': () => import('../../src/routes/api/v1/sufficiency/+server'),
-	'/api/v1/chemostat/steady-state': () => import('../../src/routes/api/v1/chemostat/steady-state/+server'),
+	'/api/v1/chemostat/steady-state': () =>
+		import('../../src/routes/api/v1/chemostat/steady-state/+server'),
 	'/api/v1/productivity/batch-vs-continuous': () =>
 		import('../../src/routes/api/v1/productivity/batch-vs-continuous/+server'),
 	'/api/v1/fit/growth': () => import('../../src/routes/api/v1/fit/growth/+server'),
 	'/api/v1/simulate': () => import('../../src/routes/api/v1/simulate/+server'),
 	'/api/v1/recipes/preview': () => import('../../src/routes/api/v1/recipes/preview/+server'),
 	'/api/v1/studies/evaluate': () => import('../../src/routes/api/v1/studies/evaluate/+server'),
-	'/api/v1/studies/{id}/feed-design': () => import('../../src/routes/api/v1/studies/[id]/feed-design/+server')
+	'/api/v1/studies/{id}/feed-design': () =>
+		import('../../src/routes/api/v1/studies/[id]/feed-design/+server')
 };
 
 // Both roles that may use every one of these endpoints (the study endpoints need one of them).
-const scientist = { id: 'u-strict', email: 'strict@lab.test', name: 'Strict', roles: ['engineer', 'media_scientist'] };
+const scientist = {
+	id: 'u-strict',
+	email: 'strict@lab.test',
+	name: 'Strict',
+	roles: ['engineer', 'media_scientist']
+};
 
 async function post(route: string, body: unknown): Promise<Response> {
 	const { POST } = await routes[route]();
-	return postJson(POST, route.replace('{id}', 'study-1'), body, { user: scientist, params: { id: 'study-1' } });
+	return postJson(POST, route.replace('{id}', 'study-1'), body, {
+		user: scientist,
+		params: { id: 'study-1' }
+	});
 }
 
 const species = [
@@ -42,11 +52,18 @@ const misspelt: [string, unknown, string[]][] = [
 	['/api/v1/formula', { formula: 'NaCl', fromula: 'KCl' }, ['fromula']],
 	[
 		'/api/v1/stoichiometry',
-		{ species, specifications: [{ kind: 'rate', species: 'glucose', mol: -1, relativeErorr: 0.1 }] },
+		{
+			species,
+			specifications: [{ kind: 'rate', species: 'glucose', mol: -1, relativeErorr: 0.1 }]
+		},
 		['species.1.ashFracton', 'specifications.0.relativeErorr']
 	],
 	// The old name of the field, refused rather than read as air.
-	['/api/v1/oxygen/saturation', { temperatureC: 37, oxygenMoleFraction: 1 }, ['oxygenMoleFraction']],
+	[
+		'/api/v1/oxygen/saturation',
+		{ temperatureC: 37, oxygenMoleFraction: 1 },
+		['oxygenMoleFraction']
+	],
 	[
 		'/api/v1/sufficiency',
 		{
@@ -59,15 +76,34 @@ const misspelt: [string, unknown, string[]][] = [
 	],
 	[
 		'/api/v1/chemostat/steady-state',
-		{ muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5, feedSubstrateGPerL: 20, dilutionPerH: 0.05, maintenanceGPerH: 0.05 },
+		{
+			muMaxPerH: 0.6,
+			ksGPerL: 0.05,
+			yieldXS: 0.5,
+			feedSubstrateGPerL: 20,
+			dilutionPerH: 0.05,
+			maintenanceGPerH: 0.05
+		},
 		['maintenanceGPerH']
 	],
 	[
 		'/api/v1/productivity/batch-vs-continuous',
-		{ muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5, substrateGPerL: 20, inoculumGPerL: 0.1, dilutionPerH: 0.4, turnaround: { cleaningHours: 4 } },
+		{
+			muMaxPerH: 0.6,
+			ksGPerL: 0.05,
+			yieldXS: 0.5,
+			substrateGPerL: 20,
+			inoculumGPerL: 0.1,
+			dilutionPerH: 0.4,
+			turnaround: { cleaningHours: 4 }
+		},
 		['turnaround.cleaningHours']
 	],
-	['/api/v1/fit/growth', { timeH: [0, 1, 2], biomassGPerL: [0.1, 0.2, 0.4], fitYeild: true }, ['fitYeild']],
+	[
+		'/api/v1/fit/growth',
+		{ timeH: [0, 1, 2], biomassGPerL: [0.1, 0.2, 0.4], fitYeild: true },
+		['fitYeild']
+	],
 	[
 		'/api/v1/simulate',
 		{
@@ -86,7 +122,11 @@ const misspelt: [string, unknown, string[]][] = [
 		{ lines: [{ componentId: 'sodium-chloride', amount: 5, unit: 'g/L', amout: 6 }] },
 		['lines.0.amout']
 	],
-	['/api/v1/studies/evaluate', { studyId: 'study-1', whatIf: { o2MoleFractin: 0.3 } }, ['whatIf.o2MoleFractin']],
+	[
+		'/api/v1/studies/evaluate',
+		{ studyId: 'study-1', whatIf: { o2MoleFractin: 0.3 } },
+		['whatIf.o2MoleFractin']
+	],
 	[
 		'/api/v1/studies/{id}/feed-design',
 		{ componentIds: ['d-glucose'], feedVolumeL: 1, temperatureC: 20, volumeL: 2 },
@@ -100,7 +140,10 @@ describe('every science endpoint refuses an unknown key and names it', () => {
 			const response = await post(route, body);
 			expect(response.status).toBe(400);
 			expect(response.headers.get('content-type')).toContain('application/problem+json');
-			const problem = (await response.json()) as { detail: string; errors: { path: string; message: string }[] };
+			const problem = (await response.json()) as {
+				detail: string;
+				errors: { path: string; message: string }[];
+			};
 			expect(problem.errors.map((e) => e.path).sort()).toEqual([...paths].sort());
 			for (const { path, message } of problem.errors) {
 				const key = path.split('.').at(-1)!;
@@ -123,7 +166,10 @@ describe('a value that fits none of a union’s shapes', () => {
 		const problem = (await response.json()) as { errors: { path: string; message: string }[] };
 		expect(problem.errors).toEqual([
 			{ path: 'target.cellsPerMl', message: 'Give a number.' },
-			{ path: 'target.cellDryMasPg', message: 'Unknown field "cellDryMasPg": this request has no such field; check its spelling.' }
+			{
+				path: 'target.cellDryMasPg',
+				message: 'Unknown field "cellDryMasPg": this request has no such field; check its spelling.'
+			}
 		]);
 	});
 });
@@ -131,7 +177,9 @@ describe('a value that fits none of a union’s shapes', () => {
 describe('POST /api/v1/oxygen/saturation speaks o2MoleFraction', () => {
 	it('gives pure O2 about 1/0.20946 times the air value and echoes the fraction', async () => {
 		const air = await (await post('/api/v1/oxygen/saturation', { temperatureC: 37 })).json();
-		const pure = await (await post('/api/v1/oxygen/saturation', { temperatureC: 37, o2MoleFraction: 1 })).json();
+		const pure = await (
+			await post('/api/v1/oxygen/saturation', { temperatureC: 37, o2MoleFraction: 1 })
+		).json();
 		// Benson & Krause 1984 (APHA 4500-O) at 37 °C: 6.727 mg/L for air (chemistry/REFERENCES.md, derived);
 		// Henry's law scales it by x/0.20946 (dry-air O2 fraction, from memory): 32.12 mg/L for pure O2.
 		expect(air.mgPerL).toBeCloseTo(6.727, 2);

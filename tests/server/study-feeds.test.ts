@@ -30,11 +30,27 @@ function withFeeds(change: (feeds: StudyInputs['feeds']) => void): StudyInputs {
 
 function formOf(name: string, overrides: Record<string, string | number | null>): StudyForm {
 	const values = studyFormValues(studyId(TWO_FEEDS))!;
-	const numeric = new Set(['targetValue', 'initialVolumeL', 'inoculumDensity', 'durationH', 'temperatureC', 'pressureKPa', 'o2MoleFraction', 'doSetpointPercent', 'safetyFactor']);
+	const numeric = new Set([
+		'targetValue',
+		'initialVolumeL',
+		'inoculumDensity',
+		'durationH',
+		'temperatureC',
+		'pressureKPa',
+		'o2MoleFraction',
+		'doSetpointPercent',
+		'safetyFactor'
+	]);
 	const form: Record<string, string | number | null> = {};
 	for (const [k, v] of Object.entries(values)) {
 		if (k === 'revision') continue;
-		form[k] = numeric.has(k) || /^feed\d(VolumeL|StartH|MuSetPerH|SetpointGPerL|DoSetpointPercent|MaxRateLPerH)$/.test(k) ? (v === '' ? null : Number(v)) : v || null;
+		form[k] =
+			numeric.has(k) ||
+			/^feed\d(VolumeL|StartH|MuSetPerH|SetpointGPerL|DoSetpointPercent|MaxRateLPerH)$/.test(k)
+				? v === ''
+					? null
+					: Number(v)
+				: v || null;
 	}
 	return { ...form, notes: '', name, ...overrides } as unknown as StudyForm;
 }
@@ -70,7 +86,10 @@ describe('feeds with their own plans', () => {
 		const nPerSulfate = (2 * ATOMIC_WEIGHTS.N) / formulaMolarMass('(NH4)2SO4');
 		const n = report.nutrients.lines.find((l) => l.key === 'N')!;
 		const drawn = report.feeds[0].usedL;
-		expect(n.supplyGPerL).toBeCloseTo(((5 * 5 + 70 * drawn + 200 * 0.4) * nPerSulfate) / report.volume.finalL, 4);
+		expect(n.supplyGPerL).toBeCloseTo(
+			((5 * 5 + 70 * drawn + 200 * 0.4) * nPerSulfate) / report.volume.finalL,
+			4
+		);
 	});
 
 	it('tells a shortfall the feeds make good from one that lasts', () => {
@@ -79,7 +98,9 @@ describe('feeds with their own plans', () => {
 		const n = report.nutrients.lines.find((l) => l.key === 'N')!;
 		expect(n.runout!.shortFromH).toBeLessThan(24);
 		expect(n.runout!.coveredAgainH!).toBeGreaterThan(24);
-		expect(report.warnings.join(' ')).toMatch(/N is used up at about \d+ h and covered again from about \d+ h/);
+		expect(report.warnings.join(' ')).toMatch(
+			/N is used up at about \d+ h and covered again from about \d+ h/
+		);
 		// Without the feeds it stays short.
 		const batch = structuredClone(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
 		batch.feeds = [];
@@ -97,7 +118,9 @@ describe('feeds with their own plans', () => {
 		expect(glycerol.deliveredL!).toBeGreaterThan(0.8);
 		expect(glycerol.usedL).toBe(0.8);
 		expect(report.verdict).toBe('not supported');
-		expect(report.reasons.join(' ')).toMatch(/runs dry at about \d+ h: its plan would draw [\d.]+ L, but 0.8 L are available/);
+		expect(report.reasons.join(' ')).toMatch(
+			/runs dry at about \d+ h: its plan would draw [\d.]+ L, but 0.8 L are available/
+		);
 	});
 
 	it('finds when a nutrient runs out along a batch run, as the crossing of X with target × ratio', () => {
@@ -127,7 +150,12 @@ describe('feeds with their own plans', () => {
 				continue;
 			}
 			crossings++;
-			const [t0, t1, x0, x1] = [course.t[i - 1], course.t[i], course.biomassGPerL[i - 1], course.biomassGPerL[i]];
+			const [t0, t1, x0, x1] = [
+				course.t[i - 1],
+				course.t[i],
+				course.biomassGPerL[i - 1],
+				course.biomassGPerL[i]
+			];
 			expect(line.runout!.shortFromH).toBeCloseTo(t0 + ((t1 - t0) * (level - x0)) / (x1 - x0), 6);
 		}
 		expect(crossings).toBeGreaterThan(0);
@@ -159,16 +187,30 @@ describe('bad feed plans', () => {
 		expect(refused({ feed1MaxRateLPerH: null }).field).toBe('feed1MaxRateLPerH');
 		expect(refused({ feed1DoSetpointPercent: null }).field).toBe('feed1DoSetpointPercent');
 		expect(refused({ feed2Strategy: 'exponential' }).field).toBe('feed2MuSetPerH');
-		expect(refused({ feed2Strategy: 'substrateStat', feed2MaxRateLPerH: 0.1 }).field).toBe('feed2SetpointGPerL');
+		expect(refused({ feed2Strategy: 'substrateStat', feed2MaxRateLPerH: 0.1 }).field).toBe(
+			'feed2SetpointGPerL'
+		);
 		expect(refused({ feed2Strategy: null }).field).toBe('feed2Strategy');
-		expect(refused({ feed2StartH: 70 }).message).toMatch(/must start before the end of the run at 60 h/);
+		expect(refused({ feed2StartH: 70 }).message).toMatch(
+			/must start before the end of the run at 60 h/
+		);
 	});
 
 	it('refuses a substrate-stat plan on a feed that carries no carbon source', () => {
-		const e = refused({ feed2Strategy: 'substrateStat', feed2SetpointGPerL: 0.5, feed2MaxRateLPerH: 0.1 });
+		const e = refused({
+			feed2Strategy: 'substrateStat',
+			feed2SetpointGPerL: 0.5,
+			feed2MaxRateLPerH: 0.1
+		});
 		expect(e.field).toBe('feed2Strategy');
-		expect(e.message).toMatch(/PPN Nitrogen Top-up N2 v1 carries no Glycerol, so a substrate-stat plan cannot hold Glycerol at its setpoint/);
-		const high = refused({ feed1Strategy: 'substrateStat', feed1SetpointGPerL: 600, feed1MaxRateLPerH: 0.1 });
+		expect(e.message).toMatch(
+			/PPN Nitrogen Top-up N2 v1 carries no Glycerol, so a substrate-stat plan cannot hold Glycerol at its setpoint/
+		);
+		const high = refused({
+			feed1Strategy: 'substrateStat',
+			feed1SetpointGPerL: 600,
+			feed1MaxRateLPerH: 0.1
+		});
 		expect(high.field).toBe('feed1Strategy');
 		expect(high.message).toMatch(/not more than the setpoint of 600 g\/L/);
 	});

@@ -42,7 +42,11 @@ function followAdvice(inputs: StudyInputs, start: WhatIf, report: StudyReport) {
 
 describe('oxygen and heat come from the demand of the plan as written', () => {
 	it('advice that holds when followed, for every demo study (at its own kLa, and at a kLa too small for it)', () => {
-		const names = db.select({ name: study.name }).from(study).all().map((s) => s.name);
+		const names = db
+			.select({ name: study.name })
+			.from(study)
+			.all()
+			.map((s) => s.name);
 		expect(names.length).toBeGreaterThanOrEqual(3);
 		let followed = 0;
 		for (const name of names) {
@@ -71,13 +75,18 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		expect(report.oxygen.check).toBe('short');
 		expect(report.oxygen.enrichmentFeasible).toBe(true);
 		followAdvice(inputs, start, report);
-		const enriched = evaluateStudy(inputs, { ...start, o2MoleFraction: report.oxygen.o2MoleFractionRecommended });
+		const enriched = evaluateStudy(inputs, {
+			...start,
+			o2MoleFraction: report.oxygen.o2MoleFractionRecommended
+		});
 		expect(enriched.oxygen.check).toBe('ok');
 	});
 
 	it('the demand does not depend on the kLa tried: the recommended kLa stays put', () => {
 		const inputs = inputsOf(BACTERIUM_STUDY);
-		const peaks = [50, 200, 800, 2000].map((kLaPerH) => evaluateStudy(inputs, { kLaPerH }).oxygen.peakOurMmolPerLH);
+		const peaks = [50, 200, 800, 2000].map(
+			(kLaPerH) => evaluateStudy(inputs, { kLaPerH }).oxygen.peakOurMmolPerLH
+		);
 		// Equal to the integrator's tolerance (the DO the demand run follows switches at other times).
 		for (const peak of peaks) expect(peak / peaks[0] - 1).toBeCloseTo(0, 5);
 	});
@@ -95,7 +104,9 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		expect(course.oxygenLimitedH.length).toBeGreaterThan(0);
 		expect(course.events.some((e) => e.kind === 'oxygenDepleted')).toBe(true);
 		// Where DO is at 0 in the vessel, OUR is held at the maximum transfer kLa·C* (mmol/L/h).
-		const k = course.t.findIndex((t) => t > course.oxygenLimitedH.at(-1)!.fromH + 0.5 && t < course.oxygenLimitedH.at(-1)!.toH);
+		const k = course.t.findIndex(
+			(t) => t > course.oxygenLimitedH.at(-1)!.fromH + 0.5 && t < course.oxygenLimitedH.at(-1)!.toH
+		);
 		expect(course.dissolvedOxygenMgPerL[k]).toBe(0);
 		expect(course.ourMmolPerLH[k]).toBeCloseTo(course.maxOtrMmolPerLH[k], 6);
 		// The plan's demand beside it is higher there: that is what the vessel cannot supply.
@@ -130,11 +141,18 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		// its target of 40 g/L (found here by linear interpolation between output points).
 		const k = course.biomassGPerL.findIndex((x) => x >= 40);
 		expect(k).toBeGreaterThan(0);
-		const f = (40 - course.biomassGPerL[k - 1]) / (course.biomassGPerL[k] - course.biomassGPerL[k - 1]);
+		const f =
+			(40 - course.biomassGPerL[k - 1]) / (course.biomassGPerL[k] - course.biomassGPerL[k - 1]);
 		const atTarget = (series: number[]) => series[k - 1] + f * (series[k] - series[k - 1]);
-		const uptakes = [...demand.slice(0, k).map((our, i) => our * course.volumeL[i]), atTarget(demand) * atTarget(course.volumeL)];
+		const uptakes = [
+			...demand.slice(0, k).map((our, i) => our * course.volumeL[i]),
+			atTarget(demand) * atTarget(course.volumeL)
+		];
 		const peakUptake = Math.max(...uptakes);
-		expect(report.oxygen.peakOurMmolPerLH).toBeCloseTo(Math.max(...demand.slice(0, k), atTarget(demand)), 9);
+		expect(report.oxygen.peakOurMmolPerLH).toBeCloseTo(
+			Math.max(...demand.slice(0, k), atTarget(demand)),
+			9
+		);
 		expect(report.heat.heatPerMolO2KJ).toBe(440);
 		expect(report.heat.heatLoadW).toBeCloseTo((peakUptake * 440) / 3600 + 30, 6);
 		expect(report.heat.lowerBound).toBe(false);
@@ -146,7 +164,9 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		doStat.plan.doSetpointPercent = 20;
 		const report = evaluateStudy(inputs, { kLaPerH: 2000 });
 		expect(report.oxygen.check).toBe('short');
-		expect(report.reasons.join(' ')).toMatch(/DO-stat down to 20 % .* Raise the feed's DO setpoint to at least 30 %/);
+		expect(report.reasons.join(' ')).toMatch(
+			/DO-stat down to 20 % .* Raise the feed's DO setpoint to at least 30 %/
+		);
 	});
 
 	it('a plan that cannot be simulated says why and is never supported', () => {
@@ -175,7 +195,8 @@ describe('the oxycaloric factor belongs to each study', () => {
 	/** The saved study's form, as its edit page fills it, with the factor and name changed. */
 	function formOf(name: string, heatPerMolO2KJ: string) {
 		const formData = new FormData();
-		for (const [key, value] of Object.entries(studyFormValues(studyRow(YEAST_STUDY).id)!)) formData.set(key, value);
+		for (const [key, value] of Object.entries(studyFormValues(studyRow(YEAST_STUDY).id)!))
+			formData.set(key, value);
 		formData.set('name', name);
 		formData.set('heatPerMolO2KJ', heatPerMolO2KJ);
 		return parseForm(studySchema, formData);
@@ -194,7 +215,9 @@ describe('the oxycaloric factor belongs to each study', () => {
 		expect(after.defaults.some((d) => d.what === 'Heat per mol O2 consumed')).toBe(false);
 		expect(after.heat.metabolicW / before.heat.metabolicW).toBeCloseTo(460 / 440, 9);
 		// Left blank, the default comes back with its source.
-		expect(before.defaults.find((d) => d.what === 'Heat per mol O2 consumed')!.source).toMatch(/Birou/);
+		expect(before.defaults.find((d) => d.what === 'Heat per mol O2 consumed')!.source).toMatch(
+			/Birou/
+		);
 	});
 
 	it('is refused outside the plausible range, by its label, keeping what was typed', () => {
@@ -202,7 +225,9 @@ describe('the oxycaloric factor belongs to each study', () => {
 			const parsed = formOf('Out of range', typed);
 			expect(parsed.ok).toBe(false);
 			if (parsed.ok) continue;
-			expect(parsed.failure.data.fieldErrors.heatPerMolO2KJ.join(' ')).toMatch(/Heat per mol O2 consumed/);
+			expect(parsed.failure.data.fieldErrors.heatPerMolO2KJ.join(' ')).toMatch(
+				/Heat per mol O2 consumed/
+			);
 			expect(parsed.failure.data.values.heatPerMolO2KJ).toBe(typed);
 		}
 	});

@@ -23,8 +23,12 @@ describe('a usable lot: released and not expired', () => {
 	});
 
 	it('is never usable in quarantine or rejected, whatever its date; the status is told first', () => {
-		expect(lotUnusability({ status: 'quarantine', expiresOn: '2030-01-01' }, '2026-01-01')).toBe('quarantine');
-		expect(lotUnusability({ status: 'rejected', expiresOn: '2020-01-01' }, '2026-01-01')).toBe('rejected');
+		expect(lotUnusability({ status: 'quarantine', expiresOn: '2030-01-01' }, '2026-01-01')).toBe(
+			'quarantine'
+		);
+		expect(lotUnusability({ status: 'rejected', expiresOn: '2020-01-01' }, '2026-01-01')).toBe(
+			'rejected'
+		);
 		expect(isUsableLot({ status: 'rejected', expiresOn: '2030-01-01' }, '2026-01-01')).toBe(false);
 	});
 
@@ -40,8 +44,18 @@ describe('a usable lot: released and not expired', () => {
 		setLotStatus(lead.actor, rejected.id, 'rejected', 'Certificate does not match the label.');
 		lots.push(rejected);
 		const ids = lots.map((l) => l.id);
-		const rows = db.select().from(lot).all().filter((row) => ids.includes(row.id));
-		const bySql = db.select({ id: lot.id }).from(lot).where(usableLotCondition(today)).all().map((r) => r.id).filter((id) => ids.includes(id));
+		const rows = db
+			.select()
+			.from(lot)
+			.all()
+			.filter((row) => ids.includes(row.id));
+		const bySql = db
+			.select({ id: lot.id })
+			.from(lot)
+			.where(usableLotCondition(today))
+			.all()
+			.map((r) => r.id)
+			.filter((id) => ids.includes(id));
 		const byPredicate = rows.filter((row) => isUsableLot(row, today)).map((r) => r.id);
 		expect(bySql.sort()).toEqual(byPredicate.sort());
 		expect(byPredicate.sort()).toEqual([lots[0].id, lots[1].id].sort());

@@ -40,7 +40,9 @@ export const statusBadgeClass: Record<'draft' | 'in_review' | 'approved' | 'reti
 
 export const tableClass = 'w-full text-left text-sm';
 // No uppercase: headers carry units and symbols (mmol, kPa, μmax, kLa) whose case is their meaning.
-export const tableHeadClass = 'border-b border-oat-200 bg-oat-100 text-xs font-semibold tracking-wide text-oat-700';
-export const tableWrapClass = 'overflow-x-auto rounded-card border border-oat-200 bg-white shadow-card';
+export const tableHeadClass =
+	'border-b border-oat-200 bg-oat-100 text-xs font-semibold tracking-wide text-oat-700';
+export const tableWrapClass =
+	'overflow-x-auto rounded-card border border-oat-200 bg-white shadow-card';
 export const labelClass = 'mb-1 block text-sm font-medium text-kelp-900';
 export const errorTextClass = 'text-sm text-halt-600';

@@ -17,7 +17,11 @@ export async function previewStep<P>(formData: FormData, preview: (text: string)
 	}
 }
 
-export async function confirmStep(formData: FormData, write: (text: string) => number, what: (count: number) => string) {
+export async function confirmStep(
+	formData: FormData,
+	write: (text: string) => number,
+	what: (count: number) => string
+) {
 	const text = typeof formData.get('csv') === 'string' ? String(formData.get('csv')) : '';
 	try {
 		return { done: what(write(text)), csv: '' };

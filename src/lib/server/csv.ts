@@ -21,14 +21,24 @@ export interface CsvRowResult<T> {
  * Parses CSV text with a header row. Columns outside `allowed`, or `required` ones missing, refuse the
  * whole file with one message listing the expected columns.
  */
-export function parseCsv(text: string, columns: { required: readonly string[]; allowed: readonly string[] }): CsvTable {
-	if (text.length > MAX_CSV_BYTES) throw new RuleError(`The file is larger than ${MAX_CSV_BYTES / 1_000_000} MB; split it.`, { field: 'csv' });
+export function parseCsv(
+	text: string,
+	columns: { required: readonly string[]; allowed: readonly string[] }
+): CsvTable {
+	if (text.length > MAX_CSV_BYTES)
+		throw new RuleError(`The file is larger than ${MAX_CSV_BYTES / 1_000_000} MB; split it.`, {
+			field: 'csv'
+		});
 	const body = text.replace(/^\uFEFF/, '');
-	if (!body.trim()) throw new RuleError('The CSV is empty: paste the rows or choose a file.', { field: 'csv' });
+	if (!body.trim())
+		throw new RuleError('The CSV is empty: paste the rows or choose a file.', { field: 'csv' });
 	const parsed = Papa.parse<string[]>(body, { skipEmptyLines: 'greedy', comments: '#' });
 	const fatal = parsed.errors.find((e) => e.type === 'Quotes' || e.type === 'Delimiter');
 	if (fatal) {
-		throw new RuleError(`The CSV cannot be read at row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`, { field: 'csv' });
+		throw new RuleError(
+			`The CSV cannot be read at row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`,
+			{ field: 'csv' }
+		);
 	}
 	const [header = [], ...data] = parsed.data;
 	const names = header.map((h) => h.trim().toLowerCase());
@@ -42,11 +52,15 @@ export function parseCsv(text: string, columns: { required: readonly string[]; a
 	const repeated = names.filter((n, i) => names.indexOf(n) !== i);
 	if (unknown.length || missing.length || repeated.length) {
 		const problems = [
-			unknown.length ? `unknown column${unknown.length > 1 ? 's' : ''} ${unknown.map((u) => `“${u}”`).join(', ')}` : '',
+			unknown.length
+				? `unknown column${unknown.length > 1 ? 's' : ''} ${unknown.map((u) => `“${u}”`).join(', ')}`
+				: '',
 			missing.length ? `missing ${missing.join(', ')}` : '',
 			repeated.length ? `repeated ${[...new Set(repeated)].join(', ')}` : ''
 		].filter(Boolean);
-		throw new RuleError(`The columns are not right: ${problems.join('; ')}. ${expected}`, { field: 'csv' });
+		throw new RuleError(`The columns are not right: ${problems.join('; ')}. ${expected}`, {
+			field: 'csv'
+		});
 	}
 	// Row numbers as a spreadsheet shows them: count the physical lines, comments included.
 	const lineNumbers: number[] = [];
@@ -62,9 +76,16 @@ export function parseCsv(text: string, columns: { required: readonly string[]; a
 	};
 }
 
-export function toCsv(rows: Record<string, unknown>[], columns: string[], comments: string[] = []): string {
+export function toCsv(
+	rows: Record<string, unknown>[],
+	columns: string[],
+	comments: string[] = []
+): string {
 	const header = comments.map((c) => `# ${c.replace(/[\r\n]+/g, ' ')}`).join('\r\n');
-	const table = Papa.unparse({ fields: columns, data: rows.map((r) => columns.map((c) => r[c] ?? '')) });
+	const table = Papa.unparse({
+		fields: columns,
+		data: rows.map((r) => columns.map((c) => r[c] ?? ''))
+	});
 	return header ? `${header}\r\n${table}` : table;
 }
 
@@ -82,7 +103,10 @@ export function csvDownload(csv: string, filename: string): Response {
 export async function csvTextFrom(formData: FormData): Promise<string> {
 	const file = formData.get('file');
 	if (file instanceof File && file.size > 0) {
-		if (file.size > MAX_CSV_BYTES) throw new RuleError(`The file is larger than ${MAX_CSV_BYTES / 1_000_000} MB; split it.`, { field: 'csv' });
+		if (file.size > MAX_CSV_BYTES)
+			throw new RuleError(`The file is larger than ${MAX_CSV_BYTES / 1_000_000} MB; split it.`, {
+				field: 'csv'
+			});
 		return await file.text();
 	}
 	const text = formData.get('csv');

@@ -47,14 +47,18 @@ export const revisionField = z.preprocess(
 );
 
 type Parsed<S extends z.ZodType> =
-	| { ok: true; data: z.infer<S> }
-	| { ok: false; failure: ActionFailure<FormFailure> };
+	{ ok: true; data: z.infer<S> } | { ok: false; failure: ActionFailure<FormFailure> };
 
 /**
  * Validates a form against its schema; multi-valued fields (checkbox groups) arrive as arrays. `message`
  * replaces the general one when the form has a more telling thing to say.
  */
-export function parseForm<S extends z.ZodType>(schema: S, formData: FormData, multi: string[] = [], message?: string): Parsed<S> {
+export function parseForm<S extends z.ZodType>(
+	schema: S,
+	formData: FormData,
+	multi: string[] = [],
+	message?: string
+): Parsed<S> {
 	const raw: Record<string, unknown> = {};
 	for (const key of new Set(formData.keys())) {
 		raw[key] = multi.includes(key) ? formData.getAll(key) : formData.get(key);
@@ -70,7 +74,11 @@ export function parseForm<S extends z.ZodType>(schema: S, formData: FormData, mu
 	const count = Object.keys(fieldErrors).length;
 	return {
 		ok: false,
-		failure: formFailure(formData, message ?? `Please correct ${count === 1 ? 'the field' : `${count} fields`} marked below.`, fieldErrors)
+		failure: formFailure(
+			formData,
+			message ?? `Please correct ${count === 1 ? 'the field' : `${count} fields`} marked below.`,
+			fieldErrors
+		)
 	};
 }
 

@@ -40,7 +40,9 @@ export function decideAccess(
 	return { kind: 'allow', user };
 }
 
-type UserFor<A extends Act> = (typeof PERMISSIONS)[A] extends 'public' ? SignedInUser | null : SignedInUser;
+type UserFor<A extends Act> = (typeof PERMISSIONS)[A] extends 'public'
+	? SignedInUser | null
+	: SignedInUser;
 
 /**
  * The one door check, by the act the door does (its roles are in `$lib/permissions`): call it in every
@@ -53,13 +55,17 @@ export function requirePermission<A extends Act>(act: A): UserFor<A> {
 		search: event.url.search,
 		method: event.request.method
 	});
-	if (decision.kind === 'sign-in') redirect(303, `/login?next=${encodeURIComponent(decision.next)}`);
-	if (decision.kind === 'deny') error(decision.status, { message: decision.message, needed: decision.needed });
+	if (decision.kind === 'sign-in')
+		redirect(303, `/login?next=${encodeURIComponent(decision.next)}`);
+	if (decision.kind === 'deny')
+		error(decision.status, { message: decision.message, needed: decision.needed });
 	return decision.user as UserFor<A>;
 }
 
 /** The door check for a change: the person who passed it, as the audit trail records them. */
-export function requireActor(act: Exclude<Act, PublicAct>): SignedInUser & Required<Actor> & { address: string } {
+export function requireActor(
+	act: Exclude<Act, PublicAct>
+): SignedInUser & Required<Actor> & { address: string } {
 	return actorOf(requirePermission(act) as SignedInUser);
 }
 

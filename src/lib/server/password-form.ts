@@ -3,7 +3,10 @@ import { MIN_PASSWORD_LENGTH } from './auth/passwords';
 
 /** A new password typed twice; the policy itself (length, common list) is checked by the domain. */
 export const newPasswordFields = {
-	password: z.string().min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`).max(256),
+	password: z
+		.string()
+		.min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`)
+		.max(256),
 	confirm: z.string()
 };
 

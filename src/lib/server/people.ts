@@ -14,7 +14,6 @@ import { invitationMail, passwordResetMail } from './mail/templates';
 export const INVITATION_LIFETIME_MS = 72 * 60 * 60 * 1000;
 export const RESET_LIFETIME_MS = 60 * 60 * 1000;
 
-
 export function normaliseEmail(email: string): string {
 	return email.trim().toLowerCase();
 }
@@ -30,7 +29,11 @@ export function rolesOf(userId: string): Role[] {
 }
 
 export function findUserByEmail(email: string): User | undefined {
-	return db.select().from(user).where(eq(user.email, normaliseEmail(email))).get();
+	return db
+		.select()
+		.from(user)
+		.where(eq(user.email, normaliseEmail(email)))
+		.get();
 }
 
 export function findUser(id: string): User | undefined {
@@ -138,9 +141,12 @@ export async function invitePerson(
 	now = new Date()
 ): Promise<InvitationOutcome> {
 	const email = normaliseEmail(input.email);
-	if (input.roles.length === 0) throw new RuleError('Choose at least one role.', { field: 'roles' });
+	if (input.roles.length === 0)
+		throw new RuleError('Choose at least one role.', { field: 'roles' });
 	if (findUserByEmail(email)) {
-		throw new RuleError('Someone already has an account with this e-mail address.', { field: 'email' });
+		throw new RuleError('Someone already has an account with this e-mail address.', {
+			field: 'email'
+		});
 	}
 	const { token, tokenHash } = createLinkToken();
 	const expiresAt = new Date(now.getTime() + INVITATION_LIFETIME_MS);
@@ -148,15 +154,35 @@ export async function invitePerson(
 		// A new invitation replaces any earlier one still open for the same address.
 		tx.update(invitation)
 			.set({ revokedAt: now })
-			.where(and(eq(invitation.email, email), isNull(invitation.acceptedAt), isNull(invitation.revokedAt)))
+			.where(
+				and(
+					eq(invitation.email, email),
+					isNull(invitation.acceptedAt),
+					isNull(invitation.revokedAt)
+				)
+			)
 			.run();
 		const id = crypto.randomUUID();
 		tx.insert(invitation)
-			.values({ id, email, name: input.name, roles: input.roles, tokenHash, invitedBy: actor.id!, createdAt: now, expiresAt })
+			.values({
+				id,
+				email,
+				name: input.name,
+				roles: input.roles,
+				tokenHash,
+				invitedBy: actor.id!,
+				createdAt: now,
+				expiresAt
+			})
 			.run();
 		recordAudit(
 			actor,
-			{ action: 'person.invited', subjectType: 'invitation', subjectId: id, detail: { email, roles: input.roles } },
+			{
+				action: 'person.invited',
+				subjectType: 'invitation',
+				subjectId: id,
+				detail: { email, roles: input.roles }
+			},
 			tx
 		);
 		return id;
@@ -164,11 +190,21 @@ export async function invitePerson(
 	const link = `${config.origin}/invite/${token}`;
 	try {
 		await sendMail(
-			invitationMail({ to: email, inviterName: actor.name, link, expiresAt, roles: describeRoles(input.roles) })
+			invitationMail({
+				to: email,
+				inviterName: actor.name,
+				link,
+				expiresAt,
+				roles: describeRoles(input.roles)
+			})
 		);
 		return { invitationId, link };
 	} catch (cause) {
-		return { invitationId, link, mailError: cause instanceof Error ? cause.message : String(cause) };
+		return {
+			invitationId,
+			link,
+			mailError: cause instanceof Error ? cause.message : String(cause)
+		};
 	}
 }
 
@@ -199,7 +235,8 @@ export async function acceptInvitation(
 	now = new Date()
 ): Promise<string> {
 	const { state, invitation: row } = inspectInvitation(token, now);
-	if (state !== 'valid' || !row) throw new RuleError(LINK_MESSAGES[state as Exclude<LinkState, 'valid'>]);
+	if (state !== 'valid' || !row)
+		throw new RuleError(LINK_MESSAGES[state as Exclude<LinkState, 'valid'>]);
 	const problem = checkPasswordPolicy(input.password);
 	if (problem) throw new RuleError(problem, { field: 'password' });
 	if (findUserByEmail(row.email)) {
@@ -211,17 +248,29 @@ export async function acceptInvitation(
 		const claimed = tx
 			.update(invitation)
 			.set({ acceptedAt: now })
-			.where(and(eq(invitation.id, row.id), isNull(invitation.acceptedAt), gt(invitation.expiresAt, now)))
+			.where(
+				and(eq(invitation.id, row.id), isNull(invitation.acceptedAt), gt(invitation.expiresAt, now))
+			)
 			.run();
 		if (claimed.changes !== 1) throw new RuleError(LINK_MESSAGES.used);
 		const userId = crypto.randomUUID();
 		tx.insert(user)
-			.values({ id: userId, email: row.email, name: input.name || row.name || row.email, passwordHash })
+			.values({
+				id: userId,
+				email: row.email,
+				name: input.name || row.name || row.email,
+				passwordHash
+			})
 			.run();
 		for (const role of row.roles) tx.insert(userRole).values({ userId, role }).run();
 		recordAudit(
 			{ id: userId, email: row.email, address: input.address },
-			{ action: 'person.invitation_accepted', subjectType: 'user', subjectId: userId, detail: { roles: row.roles } },
+			{
+				action: 'person.invitation_accepted',
+				subjectType: 'user',
+				subjectId: userId,
+				detail: { roles: row.roles }
+			},
 			tx
 		);
 		return userId;
@@ -235,11 +284,14 @@ export async function requestPasswordReset(
 ): Promise<{ link: string; mailError?: string }> {
 	const target = findUserByEmail(email);
 	if (!target) throw new RuleError('No account uses this e-mail address.', { field: 'email' });
-	if (!target.active) throw new RuleError('This account is deactivated; ask an administrator.', { field: 'email' });
+	if (!target.active)
+		throw new RuleError('This account is deactivated; ask an administrator.', { field: 'email' });
 	const { token, tokenHash } = createLinkToken();
 	const expiresAt = new Date(now.getTime() + RESET_LIFETIME_MS);
 	db.transaction((tx) => {
-		tx.insert(passwordReset).values({ userId: target.id, tokenHash, createdAt: now, expiresAt }).run();
+		tx.insert(passwordReset)
+			.values({ userId: target.id, tokenHash, createdAt: now, expiresAt })
+			.run();
 		recordAudit(
 			{ id: target.id, email: target.email, address },
 			{ action: 'password.reset_requested', subjectType: 'user', subjectId: target.id },
@@ -275,7 +327,8 @@ export async function completePasswordReset(
 	now = new Date()
 ): Promise<string> {
 	const { state, reset } = inspectPasswordReset(token, now);
-	if (state !== 'valid' || !reset) throw new RuleError(LINK_MESSAGES[state as Exclude<LinkState, 'valid'>]);
+	if (state !== 'valid' || !reset)
+		throw new RuleError(LINK_MESSAGES[state as Exclude<LinkState, 'valid'>]);
 	const problem = checkPasswordPolicy(password);
 	if (problem) throw new RuleError(problem, { field: 'password' });
 	const passwordHash = await hashPassword(password);

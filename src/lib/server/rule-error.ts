@@ -20,11 +20,18 @@ export class RuleError extends Error {
  * Runs science code and answers its bad-input error as a rule error: at `field` when given, else at
  * the field the science named.
  */
-export function withRuleErrors<T>(run: () => T, options: { field?: string; status?: RuleError['status'] } = {}): T {
+export function withRuleErrors<T>(
+	run: () => T,
+	options: { field?: string; status?: RuleError['status'] } = {}
+): T {
 	try {
 		return run();
 	} catch (cause) {
-		if (cause instanceof ChemistryInputError) throw new RuleError(cause.message, { field: options.field ?? cause.field, status: options.status });
+		if (cause instanceof ChemistryInputError)
+			throw new RuleError(cause.message, {
+				field: options.field ?? cause.field,
+				status: options.status
+			});
 		throw cause;
 	}
 }

@@ -90,7 +90,12 @@ export function saveScenario(
 			.get();
 		recordAudit(
 			owner,
-			{ action: 'simulation.scenario_saved', subjectType: 'simulation_scenario', subjectId: row.id, detail: { name, mode: row.mode } },
+			{
+				action: 'simulation.scenario_saved',
+				subjectType: 'simulation_scenario',
+				subjectId: row.id,
+				detail: { name, mode: row.mode }
+			},
 			tx
 		);
 		return toView(row);

@@ -34,7 +34,10 @@ export function digestOf(content: unknown): string {
  * other. A wrong password records nothing but an audit entry, and answers with a field error.
  * (better-sqlite3 transactions are synchronous, so the password is checked before the transaction opens.)
  */
-export async function signRecord<T>(request: SignatureRequest, write: (tx: Tx, signature: ESignature) => T): Promise<T> {
+export async function signRecord<T>(
+	request: SignatureRequest,
+	write: (tx: Tx, signature: ESignature) => T
+): Promise<T> {
 	const signer = db.select().from(user).where(eq(user.id, request.user.id)).get();
 	if (!signer || !signer.active) throw new RuleError('This account cannot sign.', { status: 403 });
 	const actor: Actor = { id: signer.id, email: signer.email, address: request.address ?? null };
@@ -48,7 +51,9 @@ export async function signRecord<T>(request: SignatureRequest, write: (tx: Tx, s
 			subjectId: request.subjectId,
 			detail: { meaning: request.meaning, reason: 'wrong password' }
 		});
-		throw new RuleError('The password is not right for your account; nothing was signed.', { field: 'password' });
+		throw new RuleError('The password is not right for your account; nothing was signed.', {
+			field: 'password'
+		});
 	}
 	return db.transaction((tx) => {
 		const signature = insertSignature(
@@ -70,7 +75,11 @@ export async function signRecord<T>(request: SignatureRequest, write: (tx: Tx, s
 				action: 'signature.recorded',
 				subjectType: request.subjectType,
 				subjectId: request.subjectId,
-				detail: { meaning: request.meaning, signatureId: signature.id, digest: signature.subjectDigest }
+				detail: {
+					meaning: request.meaning,
+					signatureId: signature.id,
+					digest: signature.subjectDigest
+				}
 			},
 			tx
 		);
@@ -79,7 +88,10 @@ export async function signRecord<T>(request: SignatureRequest, write: (tx: Tx, s
 }
 
 /** The bare insert, for seeding history; normal signing goes through `signRecord`. */
-export function insertSignature(values: typeof eSignature.$inferInsert, writer: Writer = db): ESignature {
+export function insertSignature(
+	values: typeof eSignature.$inferInsert,
+	writer: Writer = db
+): ESignature {
 	return writer.insert(eSignature).values(values).returning().get();
 }
 

@@ -2,11 +2,13 @@ import { simulateRun, SimulationFailedError, type SimulationRequest } from '$che
 import { ApiProblem } from './api/endpoint';
 
 const FAILURE_ADVICE: Record<SimulationFailedError['reason'], string> = {
-	stepLimit: 'the model became too stiff to follow; try a shorter end time, a gentler feed or a larger Ks',
+	stepLimit:
+		'the model became too stiff to follow; try a shorter end time, a gentler feed or a larger Ks',
 	nonFinite: 'a value grew without bound; check the feed and the kinetic parameters',
 	negativeState: 'a concentration went below zero; check the feed and the yields',
 	integratorMissing: 'the integrator is not available on this server',
-	regimeChatter: 'the culture kept switching in and out of a limit (exhaustion or O2) without settling; try a smoother feed law'
+	regimeChatter:
+		'the culture kept switching in and out of a limit (exhaustion or O2) without settling; try a smoother feed law'
 };
 
 /**

@@ -29,14 +29,20 @@ export async function callApi<T>(
 		});
 	} catch (cause) {
 		if ((cause as Error).name === 'AbortError') throw cause;
-		return { ok: false, status: 0, message: 'The server could not be reached; check the connection and try again.', fieldErrors: {} };
+		return {
+			ok: false,
+			status: 0,
+			message: 'The server could not be reached; check the connection and try again.',
+			fieldErrors: {}
+		};
 	}
 	if (response.status === 204) return { ok: true, data: undefined as T };
 	const payload: unknown = await response.json().catch(() => null);
 	if (response.ok) return { ok: true, data: payload as T };
 	const problem = (payload ?? {}) as Problem;
 	const fieldErrors: Record<string, string> = {};
-	for (const e of problem.errors ?? []) fieldErrors[e.path] = fieldErrors[e.path] ? `${fieldErrors[e.path]} ${e.message}` : e.message;
+	for (const e of problem.errors ?? [])
+		fieldErrors[e.path] = fieldErrors[e.path] ? `${fieldErrors[e.path]} ${e.message}` : e.message;
 	return {
 		ok: false,
 		status: response.status,

@@ -1,5 +1,10 @@
 import type { SimulationEvent, SimulationEventKind } from '$chemistry';
-import { SCENARIO_DASHES, SERIES_COLOURS, type ChartMarker, type ChartSeries } from '$lib/components/charts/chart-types';
+import {
+	SCENARIO_DASHES,
+	SERIES_COLOURS,
+	type ChartMarker,
+	type ChartSeries
+} from '$lib/components/charts/chart-types';
 import { feedStreamName, separateFeedStreams } from './feed-stream-results';
 import type { SimulationSeries } from './series-csv';
 
@@ -64,9 +69,18 @@ export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 	const markers: ChartMarker[] = runs.flatMap((run) =>
 		run.result.events
 			.filter((e) => e.kind !== 'draw')
-			.map((e) => ({ x: e.tH, label: `${many ? `${run.label}: ` : ''}${EVENT_LABELS[e.kind] ?? e.kind}` }))
+			.map((e) => ({
+				x: e.tH,
+				label: `${many ? `${run.label}: ` : ''}${EVENT_LABELS[e.kind] ?? e.kind}`
+			}))
 	);
-	const chart = (id: string, title: string, yTitle: string, quantities: Quantity[], y2Title?: string): ChartSpec => ({
+	const chart = (
+		id: string,
+		title: string,
+		yTitle: string,
+		quantities: Quantity[],
+		y2Title?: string
+	): ChartSpec => ({
 		id,
 		title,
 		yTitle,
@@ -91,7 +105,12 @@ export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 		'Volume (L)',
 		[
 			{ key: 'volumeL', label: 'Volume V', colour: blue },
-			{ key: 'feedLPerH', label: streams.length ? 'Total feed rate F' : 'Feed rate F', colour: brick, axis: 'y2' }
+			{
+				key: 'feedLPerH',
+				label: streams.length ? 'Total feed rate F' : 'Feed rate F',
+				colour: brick,
+				axis: 'y2'
+			}
 		],
 		'Feed rate (L/h)'
 	);
@@ -105,7 +124,11 @@ export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 		volume
 	];
 	if (runs.some((run) => run.result.dissolvedOxygenMgPerL !== null)) {
-		specs.push(chart('oxygen', 'Dissolved oxygen', 'DO (mg/L)', [{ key: 'dissolvedOxygenMgPerL', label: 'DO', colour: blue }]));
+		specs.push(
+			chart('oxygen', 'Dissolved oxygen', 'DO (mg/L)', [
+				{ key: 'dissolvedOxygenMgPerL', label: 'DO', colour: blue }
+			])
+		);
 		specs.push(
 			chart('uptake', 'Oxygen uptake against the maximum transfer rate', 'Rate (mmol O₂/L/h)', [
 				{ key: 'ourMmolPerLH', label: 'OUR', colour: green },

@@ -22,8 +22,15 @@ export interface FeedDelivery {
 }
 
 /** Every fed stream of every run with what it delivered, in request order. */
-export function listFeedDeliveries(runs: { label: string; result: FeedStreamsOfRun }[]): FeedDelivery[] {
+export function listFeedDeliveries(
+	runs: { label: string; result: FeedStreamsOfRun }[]
+): FeedDelivery[] {
 	return runs.flatMap(({ label, result }) =>
-		(result.feedStreams ?? []).map((stream, i) => ({ run: label, stream: feedStreamName(stream, i), strategy: stream.strategy, deliveredL: stream.deliveredL }))
+		(result.feedStreams ?? []).map((stream, i) => ({
+			run: label,
+			stream: feedStreamName(stream, i),
+			strategy: stream.strategy,
+			deliveredL: stream.deliveredL
+		}))
 	);
 }

@@ -52,13 +52,44 @@ const fedWith =
 		mode === 'fedBatch' && strategies.includes(stream.strategy);
 
 export const FEED_NUMBER_FIELDS: FeedNumberField[] = [
-	{ key: 'substrateGPerL', label: 'Substrate in feed or fresh medium Sf (g/L)', required: true, shows: (_, mode) => mode !== 'batch' },
-	{ key: 'startH', label: 'Start (h)', required: false, hint: 'Batch phase before it; default 0', shows: (_, mode) => mode !== 'batch' },
-	{ key: 'rateLPerH', label: 'Feed rate F (L/h)', required: true, shows: fedWith('constant', 'linear') },
+	{
+		key: 'substrateGPerL',
+		label: 'Substrate in feed or fresh medium Sf (g/L)',
+		required: true,
+		shows: (_, mode) => mode !== 'batch'
+	},
+	{
+		key: 'startH',
+		label: 'Start (h)',
+		required: false,
+		hint: 'Batch phase before it; default 0',
+		shows: (_, mode) => mode !== 'batch'
+	},
+	{
+		key: 'rateLPerH',
+		label: 'Feed rate F (L/h)',
+		required: true,
+		shows: fedWith('constant', 'linear')
+	},
 	{ key: 'slopeLPerH2', label: 'Ramp slope (L/h²)', required: true, shows: fedWith('linear') },
-	{ key: 'muSetPerH', label: 'Set growth rate μset (1/h)', required: true, shows: fedWith('exponential') },
-	{ key: 'setpointGPerL', label: 'Substrate setpoint (g/L)', required: true, shows: fedWith('substrateStat') },
-	{ key: 'doSetpointMgPerL', label: 'DO setpoint (mg/L)', required: true, shows: fedWith('doStat') },
+	{
+		key: 'muSetPerH',
+		label: 'Set growth rate μset (1/h)',
+		required: true,
+		shows: fedWith('exponential')
+	},
+	{
+		key: 'setpointGPerL',
+		label: 'Substrate setpoint (g/L)',
+		required: true,
+		shows: fedWith('substrateStat')
+	},
+	{
+		key: 'doSetpointMgPerL',
+		label: 'DO setpoint (mg/L)',
+		required: true,
+		shows: fedWith('doStat')
+	},
 	{
 		key: 'maxRateLPerH',
 		label: 'Pump maximum (L/h)',
@@ -66,17 +97,28 @@ export const FEED_NUMBER_FIELDS: FeedNumberField[] = [
 		hint: 'Caps the feed rate',
 		shows: fedWith('linear', 'exponential', 'substrateStat', 'doStat', 'expression')
 	},
-	{ key: 'bolusL', label: 'Bolus at start (L)', required: false, hint: 'Optional', shows: (_, mode) => mode === 'fedBatch' }
+	{
+		key: 'bolusL',
+		label: 'Bolus at start (L)',
+		required: false,
+		hint: 'Optional',
+		shows: (_, mode) => mode === 'fedBatch'
+	}
 ];
 
 let lastStreamKey = 0;
 
 function blankNumbers(): Record<FeedNumberKey, string> {
-	return Object.fromEntries(FEED_NUMBER_FIELDS.map((field) => [field.key, ''])) as Record<FeedNumberKey, string>;
+	return Object.fromEntries(FEED_NUMBER_FIELDS.map((field) => [field.key, ''])) as Record<
+		FeedNumberKey,
+		string
+	>;
 }
 
 /** A stream as "Add a feed stream" gives it: constant, nothing typed yet. */
-export function createFeedStream(start: Partial<Omit<FeedStreamValues, 'key'>> = {}): FeedStreamValues {
+export function createFeedStream(
+	start: Partial<Omit<FeedStreamValues, 'key'>> = {}
+): FeedStreamValues {
 	lastStreamKey += 1;
 	return {
 		key: `feed-stream-${lastStreamKey}`,
@@ -92,10 +134,15 @@ export function feedFieldsShown(stream: FeedStreamValues, mode: OperatingMode): 
 	return FEED_NUMBER_FIELDS.filter((field) => field.shows(stream, mode));
 }
 
-export type BuiltFeed = { ok: true; feed: FeedInput } | { ok: false; fieldErrors: Record<string, string> };
+export type BuiltFeed =
+	{ ok: true; feed: FeedInput } | { ok: false; fieldErrors: Record<string, string> };
 
 /** One stream's FeedInput; `path` (`feed` or `feeds.N`) names its fields in the errors. */
-export function buildFeedInput(stream: FeedStreamValues, mode: OperatingMode, path: string): BuiltFeed {
+export function buildFeedInput(
+	stream: FeedStreamValues,
+	mode: OperatingMode,
+	path: string
+): BuiltFeed {
 	const feed: Record<string, unknown> = {};
 	const fieldErrors: Record<string, string> = {};
 	for (const field of feedFieldsShown(stream, mode)) {
@@ -114,7 +161,8 @@ export function buildFeedInput(stream: FeedStreamValues, mode: OperatingMode, pa
 		if (stream.strategy === 'expression') feed.expression = stream.expression;
 		const label = stream.label.trim();
 		if (label.length > FEED_LABEL_MAX_LENGTH) {
-			fieldErrors[`${path}.label`] = `At most ${FEED_LABEL_MAX_LENGTH} characters (this one has ${label.length}).`;
+			fieldErrors[`${path}.label`] =
+				`At most ${FEED_LABEL_MAX_LENGTH} characters (this one has ${label.length}).`;
 		} else if (label !== '') feed.label = label;
 	}
 	if (Object.keys(fieldErrors).length) return { ok: false, fieldErrors };
@@ -125,7 +173,11 @@ export function buildFeedInput(stream: FeedStreamValues, mode: OperatingMode, pa
  * A request's stream in the form, on top of `base`: the fields this stream's strategy shows are
  * taken from the request (blank when it has none), the others keep what `base` holds.
  */
-export function readFeedInput(feed: FeedInput, mode: OperatingMode, base: FeedStreamValues): FeedStreamValues {
+export function readFeedInput(
+	feed: FeedInput,
+	mode: OperatingMode,
+	base: FeedStreamValues
+): FeedStreamValues {
 	const stream: FeedStreamValues = {
 		...base,
 		numbers: { ...base.numbers },
@@ -146,10 +198,15 @@ export function readFeedInput(feed: FeedInput, mode: OperatingMode, base: FeedSt
  * a removed stream's errors go with it. `moves` pairs each stream's path before with its path after
  * (null: removed). A bare `feed` stays: it is the feed block's own error.
  */
-export function moveFeedStreamErrors(errors: Record<string, string>, moves: { from: string; to: string | null }[]): Record<string, string> {
+export function moveFeedStreamErrors(
+	errors: Record<string, string>,
+	moves: { from: string; to: string | null }[]
+): Record<string, string> {
 	const moved: Record<string, string> = {};
 	for (const [path, text] of Object.entries(errors)) {
-		const move = moves.find(({ from }) => path.startsWith(`${from}.`) || (from !== 'feed' && path === from));
+		const move = moves.find(
+			({ from }) => path.startsWith(`${from}.`) || (from !== 'feed' && path === from)
+		);
 		if (!move) moved[path] = text;
 		else if (move.to !== null) moved[move.to + path.slice(move.from.length)] = text;
 	}
@@ -158,7 +215,9 @@ export function moveFeedStreamErrors(errors: Record<string, string>, moves: { fr
 
 /** The request's `feeds.N.field` paths in words a person reads, with streams counted from 1 as on the page. */
 export function nameFeedStreamsIn(text: string): string {
-	return text.replace(/\bfeeds\.(\d+)(?:\.([A-Za-z]+))?/g, (_, index: string, field?: string) =>
-		`${field ? `${field} of ` : ''}feed stream ${Number(index) + 1}`
+	return text.replace(
+		/\bfeeds\.(\d+)(?:\.([A-Za-z]+))?/g,
+		(_, index: string, field?: string) =>
+			`${field ? `${field} of ` : ''}feed stream ${Number(index) + 1}`
 	);
 }

@@ -60,19 +60,80 @@ export const GROUP_LEGENDS: Record<FieldGroup, string> = {
 export const NUMBER_FIELDS: NumberField[] = [
 	{ path: 'kinetics.muMaxPerH', label: 'μmax (1/h)', group: 'kinetics', required: true },
 	{ path: 'kinetics.ksGPerL', label: 'Ks (g/L)', group: 'kinetics', required: true },
-	{ path: 'kinetics.yieldXS', label: 'Yx/s (g biomass / g substrate)', group: 'kinetics', required: true },
-	{ path: 'kinetics.maintenanceGPerGH', label: 'Maintenance mₛ (g/g/h)', group: 'kinetics', required: false, hint: 'Optional; Pirt 1965' },
-	{ path: 'kinetics.alpha', label: 'Product α (g/g)', group: 'kinetics', required: false, hint: 'Optional; growth-associated' },
-	{ path: 'kinetics.beta', label: 'Product β (g/g/h)', group: 'kinetics', required: false, hint: 'Optional; non-growth' },
+	{
+		path: 'kinetics.yieldXS',
+		label: 'Yx/s (g biomass / g substrate)',
+		group: 'kinetics',
+		required: true
+	},
+	{
+		path: 'kinetics.maintenanceGPerGH',
+		label: 'Maintenance mₛ (g/g/h)',
+		group: 'kinetics',
+		required: false,
+		hint: 'Optional; Pirt 1965'
+	},
+	{
+		path: 'kinetics.alpha',
+		label: 'Product α (g/g)',
+		group: 'kinetics',
+		required: false,
+		hint: 'Optional; growth-associated'
+	},
+	{
+		path: 'kinetics.beta',
+		label: 'Product β (g/g/h)',
+		group: 'kinetics',
+		required: false,
+		hint: 'Optional; non-growth'
+	},
 	{ path: 'initial.biomassGPerL', label: 'Biomass X₀ (g/L)', group: 'initial', required: true },
 	{ path: 'initial.substrateGPerL', label: 'Substrate S₀ (g/L)', group: 'initial', required: true },
 	{ path: 'initial.volumeL', label: 'Volume V₀ (L)', group: 'initial', required: true },
-	{ path: 'initial.productGPerL', label: 'Product P₀ (g/L)', group: 'initial', required: false, hint: 'Optional; default 0' },
-	{ path: 'oxygen.kLaPerH', label: 'kLa (1/h)', group: 'oxygen', required: true, shows: (v) => v.oxygenBalance },
-	{ path: 'oxygen.saturationMgPerL', label: 'DO saturation C* (mg/L)', group: 'oxygen', required: true, shows: (v) => v.oxygenBalance },
-	{ path: 'kinetics.yieldXO2', label: 'Yx/O₂ (g biomass / g O₂)', group: 'oxygen', required: true, shows: (v) => v.oxygenBalance },
-	{ path: 'kinetics.koMgPerL', label: 'K_O (mg/L)', group: 'oxygen', required: false, hint: 'Optional; 0 = growth ignores DO', shows: (v) => v.oxygenBalance },
-	{ path: 'oxygen.maintenanceMgPerGH', label: 'O₂ maintenance (mg/g/h)', group: 'oxygen', required: false, hint: 'Optional', shows: (v) => v.oxygenBalance },
+	{
+		path: 'initial.productGPerL',
+		label: 'Product P₀ (g/L)',
+		group: 'initial',
+		required: false,
+		hint: 'Optional; default 0'
+	},
+	{
+		path: 'oxygen.kLaPerH',
+		label: 'kLa (1/h)',
+		group: 'oxygen',
+		required: true,
+		shows: (v) => v.oxygenBalance
+	},
+	{
+		path: 'oxygen.saturationMgPerL',
+		label: 'DO saturation C* (mg/L)',
+		group: 'oxygen',
+		required: true,
+		shows: (v) => v.oxygenBalance
+	},
+	{
+		path: 'kinetics.yieldXO2',
+		label: 'Yx/O₂ (g biomass / g O₂)',
+		group: 'oxygen',
+		required: true,
+		shows: (v) => v.oxygenBalance
+	},
+	{
+		path: 'kinetics.koMgPerL',
+		label: 'K_O (mg/L)',
+		group: 'oxygen',
+		required: false,
+		hint: 'Optional; 0 = growth ignores DO',
+		shows: (v) => v.oxygenBalance
+	},
+	{
+		path: 'oxygen.maintenanceMgPerGH',
+		label: 'O₂ maintenance (mg/g/h)',
+		group: 'oxygen',
+		required: false,
+		hint: 'Optional',
+		shows: (v) => v.oxygenBalance
+	},
 	{
 		path: 'initial.dissolvedOxygenMgPerL',
 		label: 'Initial DO (mg/L)',
@@ -81,7 +142,13 @@ export const NUMBER_FIELDS: NumberField[] = [
 		hint: 'Optional; default C*',
 		shows: (v) => v.oxygenBalance
 	},
-	{ path: 'dilutionPerH', label: 'Dilution rate D (1/h)', group: 'operation', required: true, shows: continuous },
+	{
+		path: 'dilutionPerH',
+		label: 'Dilution rate D (1/h)',
+		group: 'operation',
+		required: true,
+		shows: continuous
+	},
 	{
 		path: 'perfusion.retentionEfficiency',
 		label: 'Cell retention (fraction 0–1)',
@@ -89,10 +156,35 @@ export const NUMBER_FIELDS: NumberField[] = [
 		required: true,
 		shows: (v) => v.mode === 'perfusion'
 	},
-	{ path: 'perfusion.bleedPerH', label: 'Bleed (vessel volumes/h)', group: 'operation', required: true, shows: (v) => v.mode === 'perfusion' },
-	{ path: 'drawFill.fraction', label: 'Fraction drawn (0–1)', group: 'operation', required: true, shows: (v) => v.mode === 'drawFill' },
-	{ path: 'drawFill.everyH', label: 'Draw every (h)', group: 'operation', required: true, shows: (v) => v.mode === 'drawFill' },
-	{ path: 'maxVolumeL', label: 'Maximum working volume (L)', group: 'operation', required: false, hint: 'The run stops there', shows: fed },
+	{
+		path: 'perfusion.bleedPerH',
+		label: 'Bleed (vessel volumes/h)',
+		group: 'operation',
+		required: true,
+		shows: (v) => v.mode === 'perfusion'
+	},
+	{
+		path: 'drawFill.fraction',
+		label: 'Fraction drawn (0–1)',
+		group: 'operation',
+		required: true,
+		shows: (v) => v.mode === 'drawFill'
+	},
+	{
+		path: 'drawFill.everyH',
+		label: 'Draw every (h)',
+		group: 'operation',
+		required: true,
+		shows: (v) => v.mode === 'drawFill'
+	},
+	{
+		path: 'maxVolumeL',
+		label: 'Maximum working volume (L)',
+		group: 'operation',
+		required: false,
+		hint: 'The run stops there',
+		shows: fed
+	},
 	{ path: 'endH', label: 'End time (h)', group: 'operation', required: true },
 	{ path: 'outputEveryH', label: 'Output every (h)', group: 'operation', required: true }
 ];
@@ -165,10 +257,17 @@ function setPath(target: Record<string, unknown>, path: string, value: unknown):
 }
 
 function getPath(source: unknown, path: string): unknown {
-	return path.split('.').reduce<unknown>((node, key) => (node && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined), source);
+	return path
+		.split('.')
+		.reduce<unknown>(
+			(node, key) =>
+				node && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined,
+			source
+		);
 }
 
-export type BuiltRequest = { ok: true; request: SimulationRequest } | { ok: false; fieldErrors: Record<string, string> };
+export type BuiltRequest =
+	{ ok: true; request: SimulationRequest } | { ok: false; fieldErrors: Record<string, string> };
 
 /** Whether the request carries the streams as `feeds` (so their fields are `feeds.N.…`) rather than `feed`. */
 export function usesFeedsList(values: SimulationFormValues): boolean {
@@ -213,14 +312,16 @@ export function buildSimulationRequest(values: SimulationFormValues): BuiltReque
 	return { ok: true, request: request as unknown as SimulationRequest };
 }
 
-export type ReadRequest = { ok: true; values: SimulationFormValues } | { ok: false; message: string };
+export type ReadRequest =
+	{ ok: true; values: SimulationFormValues } | { ok: false; message: string };
 
 /**
  * The form as it was when a scenario was saved; fields the scenario does not use keep the demo values.
  * A scenario with more feed streams than the page edits is refused rather than cut.
  */
 export function readSimulationRequest(request: SimulationRequest): ReadRequest {
-	const asList = request.mode === 'fedBatch' && Array.isArray(request.feeds) && request.feeds.length > 0;
+	const asList =
+		request.mode === 'fedBatch' && Array.isArray(request.feeds) && request.feeds.length > 0;
 	const streams = asList ? request.feeds! : request.feed ? [request.feed] : [];
 	if (streams.length > MAX_FORM_FEED_STREAMS) {
 		return {
@@ -232,7 +333,10 @@ export function readSimulationRequest(request: SimulationRequest): ReadRequest {
 	values.mode = request.mode;
 	values.oxygenBalance = request.oxygen !== undefined && request.oxygen !== null;
 	values.feedsAsList = asList;
-	if (streams.length) values.feeds = streams.map((feed, i) => readFeedInput(feed, request.mode, i === 0 ? values.feeds[0] : createFeedStream()));
+	if (streams.length)
+		values.feeds = streams.map((feed, i) =>
+			readFeedInput(feed, request.mode, i === 0 ? values.feeds[0] : createFeedStream())
+		);
 	for (const field of NUMBER_FIELDS) {
 		if (!isFieldShown(field, values)) continue;
 		const value = getPath(request, field.path);

@@ -11,7 +11,9 @@ export interface SimpleField {
 export function readSimpleFields(
 	fields: SimpleField[],
 	values: Record<string, string>
-): { ok: true; numbers: Record<string, number> } | { ok: false; fieldErrors: Record<string, string> } {
+):
+	| { ok: true; numbers: Record<string, number> }
+	| { ok: false; fieldErrors: Record<string, string> } {
 	const numbers: Record<string, number> = {};
 	const fieldErrors: Record<string, string> = {};
 	for (const field of fields) {
@@ -32,12 +34,18 @@ const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&
 /** The API's messages name a field by its key; on a form they read by its label. */
 export function relabelMessage(fields: SimpleField[], message: string): string {
 	return fields.reduce(
-		(text, field) => text.replace(new RegExp(`(?<![\\w.])${escapeRegExp(field.key)}(?!\\w)`, 'g'), field.label),
+		(text, field) =>
+			text.replace(new RegExp(`(?<![\\w.])${escapeRegExp(field.key)}(?!\\w)`, 'g'), field.label),
 		message
 	);
 }
 
 /** Field errors keyed by field, each message relabelled. */
-export function relabelFieldErrors(fields: SimpleField[], fieldErrors: Record<string, string>): Record<string, string> {
-	return Object.fromEntries(Object.entries(fieldErrors).map(([key, message]) => [key, relabelMessage(fields, message)]));
+export function relabelFieldErrors(
+	fields: SimpleField[],
+	fieldErrors: Record<string, string>
+): Record<string, string> {
+	return Object.fromEntries(
+		Object.entries(fieldErrors).map(([key, message]) => [key, relabelMessage(fields, message)])
+	);
 }

@@ -4,11 +4,19 @@ import Papa from 'papaparse';
 import { readNumberText } from './number-text';
 
 export const MAX_UPLOAD_BYTES = 2 * 1024 * 1024;
-const TEXT_TYPES = new Set(['', 'text/csv', 'text/plain', 'application/csv', 'application/vnd.ms-excel', 'text/comma-separated-values']);
+const TEXT_TYPES = new Set([
+	'',
+	'text/csv',
+	'text/plain',
+	'application/csv',
+	'application/vnd.ms-excel',
+	'text/comma-separated-values'
+]);
 
 /** Refuses what cannot be a CSV before reading it: wrong extension or type, empty, too large. */
 export function checkUploadFile(file: { name: string; size: number; type: string }): string | null {
-	if (!/\.(csv|txt|tsv)$/i.test(file.name)) return `“${file.name}” is not a .csv, .tsv or .txt file.`;
+	if (!/\.(csv|txt|tsv)$/i.test(file.name))
+		return `“${file.name}” is not a .csv, .tsv or .txt file.`;
 	if (!TEXT_TYPES.has(file.type)) return `“${file.name}” is of type ${file.type}, not text or CSV.`;
 	if (file.size === 0) return `“${file.name}” is empty.`;
 	if (file.size > MAX_UPLOAD_BYTES) {
@@ -20,9 +28,11 @@ export function checkUploadFile(file: { name: string; size: number; type: string
 /** A renamed spreadsheet or image carries NUL bytes or undecodable runs; text does not. */
 export function checkTextContent(text: string): string | null {
 	const sample = text.slice(0, 8192);
-	if (sample.includes('\u0000')) return 'The file holds binary data, not text; export the sheet as CSV.';
+	if (sample.includes('\u0000'))
+		return 'The file holds binary data, not text; export the sheet as CSV.';
 	const undecodable = sample.split('\uFFFD').length - 1;
-	if (undecodable > Math.max(4, sample.length / 100)) return 'The file is not readable text (UTF-8); export the sheet as CSV.';
+	if (undecodable > Math.max(4, sample.length / 100))
+		return 'The file is not readable text (UTF-8); export the sheet as CSV.';
 	return null;
 }
 
@@ -84,13 +94,23 @@ export interface CheckedRunData {
 	mappingErrors: Partial<Record<keyof ColumnMapping, string>>;
 	verdicts: RowVerdict[];
 	/** the accepted rows, in file order */
-	series: { timeH: number[]; biomassGPerL: number[]; substrateGPerL?: number[]; dissolvedOxygenMgPerL?: number[] };
+	series: {
+		timeH: number[];
+		biomassGPerL: number[];
+		substrateGPerL?: number[];
+		dissolvedOxygenMgPerL?: number[];
+	};
 	/** file line of each accepted row, so an error about point i can name its line */
 	lines: number[];
 	rejectedCount: number;
 }
 
-function readCell(label: string, text: string | undefined, problems: string[], { positive = false } = {}): number | null {
+function readCell(
+	label: string,
+	text: string | undefined,
+	problems: string[],
+	{ positive = false } = {}
+): number | null {
 	const raw = (text ?? '').trim();
 	if (raw === '') {
 		problems.push(`${label} is missing`);
@@ -118,17 +138,25 @@ export function checkRunData(table: RunDataTable, mapping: ColumnMapping): Check
 	const index = (name: string) => table.columns.indexOf(name);
 	if (index(mapping.time) < 0) mappingErrors.time = 'Choose the column that holds time in hours.';
 	if (index(mapping.biomass) < 0) mappingErrors.biomass = 'Choose the column that holds biomass.';
-	if (mapping.biomass && mapping.biomass === mapping.time) mappingErrors.biomass = 'Biomass and time cannot be the same column.';
+	if (mapping.biomass && mapping.biomass === mapping.time)
+		mappingErrors.biomass = 'Biomass and time cannot be the same column.';
 	let factor = 1;
 	if (mapping.biomassUnit === 'od') {
 		const f = readNumberText(mapping.gPerLPerOd);
-		if (f === null || f <= 0) mappingErrors.gPerLPerOd = 'Give the conversion as a number above 0 (g/L per OD unit).';
+		if (f === null || f <= 0)
+			mappingErrors.gPerLPerOd = 'Give the conversion as a number above 0 (g/L per OD unit).';
 		else factor = f;
 	}
 	const series: CheckedRunData['series'] = { timeH: [], biomassGPerL: [] };
 	if (mapping.substrate) series.substrateGPerL = [];
 	if (mapping.dissolvedOxygen) series.dissolvedOxygenMgPerL = [];
-	const result: CheckedRunData = { mappingErrors, verdicts: [], series, lines: [], rejectedCount: 0 };
+	const result: CheckedRunData = {
+		mappingErrors,
+		verdicts: [],
+		series,
+		lines: [],
+		rejectedCount: 0
+	};
 	if (Object.keys(mappingErrors).length) return result;
 
 	const at = (cells: string[], name: string) => cells[index(name)];
@@ -139,10 +167,15 @@ export function checkRunData(table: RunDataTable, mapping: ColumnMapping): Check
 			problems.push(`has ${cells.length} fields where the header has ${table.columns.length}`);
 		}
 		const t = readCell('time', at(cells, mapping.time), problems);
-		if (t !== null && lastTimeH !== null && t <= lastTimeH) problems.push(`time ${t} h does not come after ${lastTimeH} h`);
+		if (t !== null && lastTimeH !== null && t <= lastTimeH)
+			problems.push(`time ${t} h does not come after ${lastTimeH} h`);
 		const x = readCell('biomass', at(cells, mapping.biomass), problems, { positive: true });
-		const s = mapping.substrate ? readCell('substrate', at(cells, mapping.substrate), problems) : null;
-		const c = mapping.dissolvedOxygen ? readCell('DO', at(cells, mapping.dissolvedOxygen), problems) : null;
+		const s = mapping.substrate
+			? readCell('substrate', at(cells, mapping.substrate), problems)
+			: null;
+		const c = mapping.dissolvedOxygen
+			? readCell('DO', at(cells, mapping.dissolvedOxygen), problems)
+			: null;
 		const shown: Record<string, string> = {};
 		table.columns.forEach((name, i) => (shown[name] = cells[i] ?? ''));
 		result.verdicts.push({ line, cells: shown, problems });

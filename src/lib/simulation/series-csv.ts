@@ -4,7 +4,15 @@ import { separateFeedStreams, type FeedStreamsOfRun } from './feed-stream-result
 
 export type SimulationSeries = Pick<
 	SimulationResult,
-	't' | 'biomassGPerL' | 'substrateGPerL' | 'productGPerL' | 'volumeL' | 'dissolvedOxygenMgPerL' | 'feedLPerH' | 'ourMmolPerLH' | 'maxOtrMmolPerLH'
+	| 't'
+	| 'biomassGPerL'
+	| 'substrateGPerL'
+	| 'productGPerL'
+	| 'volumeL'
+	| 'dissolvedOxygenMgPerL'
+	| 'feedLPerH'
+	| 'ourMmolPerLH'
+	| 'maxOtrMmolPerLH'
 > &
 	FeedStreamsOfRun;
 
@@ -27,7 +35,13 @@ export const SERIES_COLUMNS = [
 function streamColumnNames(runs: { result: SimulationSeries }[]): string[] {
 	const count = Math.max(0, ...runs.map(({ result }) => separateFeedStreams(result).length));
 	return Array.from({ length: count }, (_, i) => {
-		const labels = new Set(runs.flatMap(({ result }) => separateFeedStreams(result).slice(i, i + 1).map((stream) => stream.label ?? '')));
+		const labels = new Set(
+			runs.flatMap(({ result }) =>
+				separateFeedStreams(result)
+					.slice(i, i + 1)
+					.map((stream) => stream.label ?? '')
+			)
+		);
 		const named = [...labels].filter(Boolean);
 		const column = `feed_${i + 1}_l_per_h`;
 		return named.length ? `${column} (${named.join(' / ')})` : column;
@@ -41,12 +55,19 @@ function streamColumnNames(runs: { result: SimulationSeries }[]): string[] {
 export function formatSeriesCsv(runs: { label: string; result: SimulationSeries }[]): string {
 	const withLabel = runs.length > 1;
 	const streamColumns = streamColumnNames(runs);
-	const fields = [...(withLabel ? ['scenario'] : []), ...SERIES_COLUMNS.map(([name]) => name), ...streamColumns];
+	const fields = [
+		...(withLabel ? ['scenario'] : []),
+		...SERIES_COLUMNS.map(([name]) => name),
+		...streamColumns
+	];
 	const data: (string | number)[][] = [];
 	for (const { label, result } of runs) {
 		const streams = separateFeedStreams(result);
 		result.t.forEach((_, i) => {
-			const row = [...SERIES_COLUMNS.map(([, key]) => result[key]?.[i] ?? ''), ...streamColumns.map((_, s) => streams[s]?.feedLPerH[i] ?? '')];
+			const row = [
+				...SERIES_COLUMNS.map(([, key]) => result[key]?.[i] ?? ''),
+				...streamColumns.map((_, s) => streams[s]?.feedLPerH[i] ?? '')
+			];
 			data.push(withLabel ? [label, ...row] : row);
 		});
 	}

@@ -58,10 +58,29 @@ export function vesselOf(overrides: Partial<StudyVessel> = {}): StudyVessel {
 	};
 }
 
-export const constantPlan = (startH = 0): FeedPlan => ({ strategy: 'constant', startH, muSetPerH: null, setpointGPerL: null, doSetpointPercent: null, maxRateLPerH: null });
+export const constantPlan = (startH = 0): FeedPlan => ({
+	strategy: 'constant',
+	startH,
+	muSetPerH: null,
+	setpointGPerL: null,
+	doSetpointPercent: null,
+	maxRateLPerH: null
+});
 
-export function feedOf(volumeL: number, plan: FeedPlan, componentsGPerL: Record<string, number> = { [GLUCOSE]: 400 }, elementsGPerL: Record<string, number> = {}): StudyFeedSource {
-	return { versionId: 'feed-1', label: 'Glucose feed', composition: { componentsGPerL, elementsGPerL }, volumeL, temperatureC: 20, plan };
+export function feedOf(
+	volumeL: number,
+	plan: FeedPlan,
+	componentsGPerL: Record<string, number> = { [GLUCOSE]: 400 },
+	elementsGPerL: Record<string, number> = {}
+): StudyFeedSource {
+	return {
+		versionId: 'feed-1',
+		label: 'Glucose feed',
+		composition: { componentsGPerL, elementsGPerL },
+		volumeL,
+		temperatureC: 20,
+		plan
+	};
 }
 
 /** A 5 L batch on 20 g/L glucose to 5 g/L biomass, air at 1 atm and 37 °C. */
@@ -85,7 +104,10 @@ export function studyOf(overrides: Partial<StudyInputs> = {}): StudyInputs {
 		basal: {
 			versionId: 'basal-1',
 			label: 'Basal medium',
-			composition: { componentsGPerL: { [GLUCOSE]: 20 }, elementsGPerL: { C: 8, N: 1.5, P: 0.5, S: 0.2, K: 0.5, Mg: 0.1 } },
+			composition: {
+				componentsGPerL: { [GLUCOSE]: 20 },
+				elementsGPerL: { C: 8, N: 1.5, P: 0.5, S: 0.2, K: 0.5, Mg: 0.1 }
+			},
 			temperatureC: 20
 		},
 		feeds: [],

@@ -5,18 +5,39 @@ import { findEmptyTime, findRunoutTimes, type PlanCourse, type SufficiencyLine }
 // r = 0.56 g/L / 4 g/L = 0.14 g/g; the deficit at t is r·X(t)·V − basal − c_feed·min(delivered(t), available),
 // worked out by hand below and crossed by linear interpolation between the output points.
 const course = (biomassGPerL: number[]) =>
-	({ t: [0, 1, 2, 3], biomassGPerL, volumeL: [1, 1, 1, 1], deliveries: [{ deliveredL: 0.3, cumulativeL: [0, 0.1, 0.2, 0.3] }] }) as unknown as PlanCourse;
+	({
+		t: [0, 1, 2, 3],
+		biomassGPerL,
+		volumeL: [1, 1, 1, 1],
+		deliveries: [{ deliveredL: 0.3, cumulativeL: [0, 0.1, 0.2, 0.3] }]
+	}) as unknown as PlanCourse;
 const rising = course([1, 2, 3, 4]);
 
 const nitrogen = { key: 'N', basis: 'element', demandGPerL: 0.56 } as SufficiencyLine;
-const basal = (nGPerL: number) => ({ versionId: 'b', label: 'basal', temperatureC: 20, composition: { elementsGPerL: { N: nGPerL }, componentsGPerL: {} } });
+const basal = (nGPerL: number) => ({
+	versionId: 'b',
+	label: 'basal',
+	temperatureC: 20,
+	composition: { elementsGPerL: { N: nGPerL }, componentsGPerL: {} }
+});
 const feed = (nGPerL: number) => ({
 	...basal(nGPerL),
 	label: 'feed',
 	volumeL: 0.3,
-	plan: { strategy: 'constant' as const, startH: 0, muSetPerH: null, setpointGPerL: null, doSetpointPercent: null, maxRateLPerH: null }
+	plan: {
+		strategy: 'constant' as const,
+		startH: 0,
+		muSetPerH: null,
+		setpointGPerL: null,
+		doSetpointPercent: null,
+		maxRateLPerH: null
+	}
 });
-const runoutOf = (basalN: number, biomass: PlanCourse, feeds: { nGPerL: number; availableL: number }[] = []) =>
+const runoutOf = (
+	basalN: number,
+	biomass: PlanCourse,
+	feeds: { nGPerL: number; availableL: number }[] = []
+) =>
 	findRunoutTimes({
 		lines: [nitrogen],
 		targetBiomassGPerL: 4,
@@ -39,7 +60,10 @@ describe('when a nutrient runs out along the run', () => {
 	});
 
 	it('short from the start: basal 0.1 g/L and a 0.5 g/L feed, deficit [0.04, 0.13, 0.22, 0.31]', () => {
-		expect(runoutOf(0.1, rising, [{ nGPerL: 0.5, availableL: 0.3 }])).toEqual({ shortFromH: 0, coveredAgainH: null });
+		expect(runoutOf(0.1, rising, [{ nGPerL: 0.5, availableL: 0.3 }])).toEqual({
+			shortFromH: 0,
+			coveredAgainH: null
+		});
 	});
 
 	it('counts a feed only up to what is available: 3 g/L N capped at 0.1 L, deficit [−0.06, −0.22, −0.08, 0.06], short from 2 + 0.08/0.14 h', () => {

@@ -71,7 +71,10 @@ export class PendingSends {
 	}
 
 	private hold(send: PendingSend) {
-		this.items = [...this.items.filter((i) => !(i.lineId === send.lineId && i.action === send.action)), send];
+		this.items = [
+			...this.items.filter((i) => !(i.lineId === send.lineId && i.action === send.action)),
+			send
+		];
 		this.persist();
 	}
 
@@ -87,19 +90,38 @@ export class PendingSends {
 		for (const [k, v] of Object.entries(fields)) body.set(k, v);
 		let response: Response;
 		try {
-			response = await fetch(`?/${action}`, { method: 'POST', body, headers: { 'x-sveltekit-action': 'true' } });
+			response = await fetch(`?/${action}`, {
+				method: 'POST',
+				body,
+				headers: { 'x-sveltekit-action': 'true' }
+			});
 		} catch {
 			this.hold({ lineId, action, fields, savedAt: new Date().toISOString() }); // eslint-disable-line svelte/prefer-svelte-reactivity -- a timestamp string, never observed
 			return { kind: 'offline' };
 		}
 		const result = deserialize(await response.text());
 		this.release(lineId, action);
-		if (result.type === 'success') return { kind: 'ok', message: String((result.data as { saved?: string } | undefined)?.saved ?? 'Saved.') };
+		if (result.type === 'success')
+			return {
+				kind: 'ok',
+				message: String((result.data as { saved?: string } | undefined)?.saved ?? 'Saved.')
+			};
 		if (result.type === 'failure') {
-			const data = result.data as { message?: string; fieldErrors?: Record<string, string[]> } | undefined;
-			return { kind: 'refused', message: data?.message ?? 'Refused.', field: Object.keys(data?.fieldErrors ?? {})[0] };
+			const data = result.data as
+				{ message?: string; fieldErrors?: Record<string, string[]> } | undefined;
+			return {
+				kind: 'refused',
+				message: data?.message ?? 'Refused.',
+				field: Object.keys(data?.fieldErrors ?? {})[0]
+			};
 		}
-		if (result.type === 'error') return { kind: 'refused', message: (result.error as { message?: string } | undefined)?.message ?? `The server answered ${response.status}.` };
+		if (result.type === 'error')
+			return {
+				kind: 'refused',
+				message:
+					(result.error as { message?: string } | undefined)?.message ??
+					`The server answered ${response.status}.`
+			};
 		return { kind: 'refused', message: 'Unexpected answer; reload the page.' };
 	}
 

@@ -12,11 +12,19 @@ import {
 } from 'chart.js';
 import type { ChartMarker } from './chart-types';
 
-Chart.register(LineController, ScatterController, LineElement, PointElement, LinearScale, Legend, Tooltip, Decimation);
+Chart.register(
+	LineController,
+	ScatterController,
+	LineElement,
+	PointElement,
+	LinearScale,
+	Legend,
+	Tooltip,
+	Decimation
+);
 
 export { Chart };
 export type { ChartMarker, ChartSeries } from './chart-types';
-
 
 /** Dashed vertical lines with a short label, for run events and marked operating points. */
 export function createMarkerPlugin(markers: () => ChartMarker[]): Plugin<'line'> {
@@ -45,4 +53,3 @@ export function createMarkerPlugin(markers: () => ChartMarker[]): Plugin<'line'>
 		}
 	};
 }
-

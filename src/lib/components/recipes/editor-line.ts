@@ -18,7 +18,11 @@ let counter = 0;
 /** A line with a key for the list and the component's name in the search box. */
 export function toEditorLine(line: DraftLineInput, components: PickerComponent[]): EditorLine {
 	counter++;
-	return { ...line, key: `line-${counter}`, componentText: components.find((c) => c.id === line.componentId)?.name ?? line.componentId };
+	return {
+		...line,
+		key: `line-${counter}`,
+		componentText: components.find((c) => c.id === line.componentId)?.name ?? line.componentId
+	};
 }
 
 export function isBlankLine(line: DraftLineInput): boolean {
@@ -26,6 +30,10 @@ export function isBlankLine(line: DraftLineInput): boolean {
 }
 
 /** The line without the editor's own fields, as the server reads it. */
-export function toDraftLine({ key: _key, componentText: _text, ...line }: EditorLine): DraftLineInput {
+export function toDraftLine({
+	key: _key,
+	componentText: _text,
+	...line
+}: EditorLine): DraftLineInput {
 	return line;
 }

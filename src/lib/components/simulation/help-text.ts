@@ -26,8 +26,12 @@ export function parseHelpText(source: string): HelpBlock[] {
 		if (!joined) continue;
 		if (joined.includes('\n- ') || joined.startsWith('- ')) {
 			const [lead, ...items] = joined.split(/(?:^|\n)- /);
-			if (lead.trim()) blocks.push({ kind: 'paragraph', runs: splitRuns(lead.replace(/\s+/g, ' ').trim()) });
-			blocks.push({ kind: 'list', items: items.map((item) => splitRuns(item.replace(/\s+/g, ' ').trim())) });
+			if (lead.trim())
+				blocks.push({ kind: 'paragraph', runs: splitRuns(lead.replace(/\s+/g, ' ').trim()) });
+			blocks.push({
+				kind: 'list',
+				items: items.map((item) => splitRuns(item.replace(/\s+/g, ' ').trim()))
+			});
 		} else {
 			blocks.push({ kind: 'paragraph', runs: splitRuns(joined.replace(/\s+/g, ' ')) });
 		}

@@ -10,7 +10,9 @@ export function formatPercent(fraction: number): string {
 }
 
 /** "16 h", or "16 h (to 24 h)" when a feed covers the nutrient again; "—" when it never runs short. */
-export function formatRunout(runout: { shortFromH: number; coveredAgainH: number | null } | null): string {
+export function formatRunout(
+	runout: { shortFromH: number; coveredAgainH: number | null } | null
+): string {
 	if (runout === null) return '—';
 	const from = `${runout.shortFromH.toFixed(0)} h`;
 	return runout.coveredAgainH === null ? from : `${from} (to ${runout.coveredAgainH.toFixed(0)} h)`;

@@ -20,7 +20,12 @@ import {
 export const listFeatures = tableFeatures({
 	rowSortingFeature,
 	sortedRowModel: createSortedRowModel(),
-	sortFns: { alphanumeric: sortFn_alphanumeric, basic: sortFn_basic, text: sortFn_text, datetime: sortFn_datetime },
+	sortFns: {
+		alphanumeric: sortFn_alphanumeric,
+		basic: sortFn_basic,
+		text: sortFn_text,
+		datetime: sortFn_datetime
+	},
 	columnFilteringFeature,
 	globalFilteringFeature,
 	filteredRowModel: createFilteredRowModel(),

@@ -24,7 +24,10 @@ const joinPath = (path: readonly PropertyKey[]) => path.map(String).join('.') ||
  * at its own path (`oxygen.o2MoleFractin`), not at the object holding it; a value that fits none of
  * a union's shapes is reported against the closest shape, the one with the fewest problems.
  */
-export function zodProblems(issues: readonly z.core.$ZodIssue[], prefix: readonly PropertyKey[] = []): FieldProblem[] {
+export function zodProblems(
+	issues: readonly z.core.$ZodIssue[],
+	prefix: readonly PropertyKey[] = []
+): FieldProblem[] {
 	return issues.flatMap((issue): FieldProblem[] => {
 		const path = [...prefix, ...issue.path];
 		if (issue.code === 'unrecognized_keys') {
@@ -35,7 +38,9 @@ export function zodProblems(issues: readonly z.core.$ZodIssue[], prefix: readonl
 		}
 		if (issue.code === 'invalid_union' && issue.errors.length > 0) {
 			const candidates = issue.errors.map((memberIssues) => zodProblems(memberIssues, path));
-			return candidates.reduce((closest, problems) => (problems.length < closest.length ? problems : closest));
+			return candidates.reduce((closest, problems) =>
+				problems.length < closest.length ? problems : closest
+			);
 		}
 		return [{ path: joinPath(path), message: issue.message }];
 	});
@@ -53,7 +58,11 @@ function describeProblems(errors: FieldProblem[]): string {
 /** Where in a text field (a feed expression) the one refusal points, when its rule knows. */
 function positionOf(issues: readonly z.core.$ZodIssue[]): number | undefined {
 	const [issue] = issues;
-	return issues.length === 1 && issue.code === 'custom' && typeof issue.params?.position === 'number' ? issue.params.position : undefined;
+	return issues.length === 1 &&
+		issue.code === 'custom' &&
+		typeof issue.params?.position === 'number'
+		? issue.params.position
+		: undefined;
 }
 
 interface EndpointOptions<S extends z.ZodType | undefined> {
@@ -75,7 +84,8 @@ async function readJson(event: RequestEvent, maxBytes: number): Promise<unknown>
 		throw new ApiProblem(415, 'Send the body as JSON with Content-Type: application/json.');
 	}
 	const text = await event.request.text();
-	if (text.length > maxBytes) throw new ApiProblem(413, `The body is larger than ${maxBytes} bytes.`);
+	if (text.length > maxBytes)
+		throw new ApiProblem(413, `The body is larger than ${maxBytes} bytes.`);
 	try {
 		return JSON.parse(text);
 	} catch (cause) {
@@ -100,14 +110,18 @@ export function endpoint<S extends z.ZodType | undefined = undefined>(
 				const parsed = options.body.safeParse(raw);
 				if (!parsed.success) {
 					const errors = zodProblems(parsed.error.issues);
-					return problem(400, describeProblems(errors), { errors, position: positionOf(parsed.error.issues) });
+					return problem(400, describeProblems(errors), {
+						errors,
+						position: positionOf(parsed.error.issues)
+					});
 				}
 				body = parsed.data;
 			}
 			const result = await handler({ event, user, body } as Context<S>);
 			return result instanceof Response ? result : json(result);
 		} catch (cause) {
-			if (cause instanceof ApiProblem) return problem(cause.status, cause.message, { errors: cause.errors });
+			if (cause instanceof ApiProblem)
+				return problem(cause.status, cause.message, { errors: cause.errors });
 			if (cause instanceof ChemistryInputError) {
 				const errors = cause.field ? [{ path: cause.field, message: cause.message }] : undefined;
 				return problem(400, cause.message, { errors, position: cause.position });

@@ -44,7 +44,10 @@ const problemSchema = {
 } as const;
 
 function toSchema(schema: z.ZodType, io: 'input' | 'output') {
-	const { $schema: _ignored, ...rest } = z.toJSONSchema(schema, { io, unrepresentable: 'any' }) as Record<string, unknown>;
+	const { $schema: _ignored, ...rest } = z.toJSONSchema(schema, {
+		io,
+		unrepresentable: 'any'
+	}) as Record<string, unknown>;
 	return rest;
 }
 
@@ -94,12 +97,19 @@ export function buildOpenApiDocument(origin: string) {
 					}
 				: {}),
 			...(op.request
-				? { requestBody: { required: true, content: { 'application/json': { schema: toSchema(op.request, 'input') } } } }
+				? {
+						requestBody: {
+							required: true,
+							content: { 'application/json': { schema: toSchema(op.request, 'input') } }
+						}
+					}
 				: {}),
 			responses: {
 				[String(op.successStatus ?? 200)]: {
 					description: op.responseDescription ?? 'Success',
-					...(op.response ? { content: { 'application/json': { schema: toSchema(op.response, 'output') } } } : {})
+					...(op.response
+						? { content: { 'application/json': { schema: toSchema(op.response, 'output') } } }
+						: {})
 				},
 				...problems(errorStatuses)
 			}
@@ -129,8 +139,12 @@ export function buildOpenApiDocument(origin: string) {
 				Problem401: problemResponse('Not signed in'),
 				Problem403: problemResponse('Signed in without a role this needs'),
 				Problem404: problemResponse('No such record (or not one this person may see)'),
-				Problem409: problemResponse('Changed by someone else meanwhile, or in a state that forbids this; reload and retry'),
-				Problem422: problemResponse('Well-formed input that the science cannot use, e.g. a run the integrator cannot follow or a profile missing data; `detail` says why')
+				Problem409: problemResponse(
+					'Changed by someone else meanwhile, or in a state that forbids this; reload and retry'
+				),
+				Problem422: problemResponse(
+					'Well-formed input that the science cannot use, e.g. a run the integrator cannot follow or a profile missing data; `detail` says why'
+				)
 			}
 		}
 	};

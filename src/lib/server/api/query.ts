@@ -7,7 +7,11 @@ export function parseQuery<S extends z.ZodType>(schema: S, url: URL): z.infer<S>
 	const parsed = schema.safeParse(raw);
 	if (!parsed.success) {
 		const errors = zodProblems(parsed.error.issues);
-		throw new ApiProblem(400, `Invalid query: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, errors);
+		throw new ApiProblem(
+			400,
+			`Invalid query: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`,
+			errors
+		);
 	}
 	return parsed.data;
 }

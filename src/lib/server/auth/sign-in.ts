@@ -8,15 +8,28 @@ import { checkThrottle, recordSignInAttempt } from './throttle';
 
 export type SignInOutcome =
 	| { ok: true; userId: string; cookie: Cookie }
-	| { ok: false; status: 401 | 403 | 429; field?: 'email' | 'password'; message: string; retryAfterS?: number };
+	| {
+			ok: false;
+			status: 401 | 403 | 429;
+			field?: 'email' | 'password';
+			message: string;
+			retryAfterS?: number;
+	  };
 
-export async function signIn(emailInput: string, password: string, address: string): Promise<SignInOutcome> {
+export async function signIn(
+	emailInput: string,
+	password: string,
+	address: string
+): Promise<SignInOutcome> {
 	const email = normaliseEmail(emailInput);
 	const throttle = checkThrottle(email, address);
 	if (!throttle.allowed) {
 		recordAudit(
 			{ id: null, email, address },
-			{ action: 'sign_in.refused', detail: { reason: 'throttled', retryAfterS: throttle.retryAfterS } }
+			{
+				action: 'sign_in.refused',
+				detail: { reason: 'throttled', retryAfterS: throttle.retryAfterS }
+			}
 		);
 		return { ok: false, status: 429, message: throttle.reason, retryAfterS: throttle.retryAfterS };
 	}
@@ -25,7 +38,12 @@ export async function signIn(emailInput: string, password: string, address: stri
 		recordSignInAttempt(email, address, false);
 		recordAudit(
 			{ id: account?.id ?? null, email, address },
-			{ action: 'sign_in.failed', subjectType: account ? 'user' : undefined, subjectId: account?.id, detail: { reason } }
+			{
+				action: 'sign_in.failed',
+				subjectType: account ? 'user' : undefined,
+				subjectId: account?.id,
+				detail: { reason }
+			}
 		);
 		return { ok: false, status: 401, field, message };
 	};
@@ -39,9 +57,19 @@ export async function signIn(emailInput: string, password: string, address: stri
 	if (!account.active) {
 		recordAudit(
 			{ id: account.id, email, address },
-			{ action: 'sign_in.refused', subjectType: 'user', subjectId: account.id, detail: { reason: 'deactivated' } }
+			{
+				action: 'sign_in.refused',
+				subjectType: 'user',
+				subjectId: account.id,
+				detail: { reason: 'deactivated' }
+			}
 		);
-		return { ok: false, status: 403, field: 'email', message: 'This account is deactivated. Ask an administrator.' };
+		return {
+			ok: false,
+			status: 403,
+			field: 'email',
+			message: 'This account is deactivated. Ask an administrator.'
+		};
 	}
 	recordSignInAttempt(email, address, true);
 	const lucia = getLucia();
@@ -57,7 +85,11 @@ export function setSessionCookie(cookies: Cookies, cookie: Cookie): void {
 	cookies.set(cookie.name, cookie.value, { path: '/', ...cookie.attributes });
 }
 
-export async function signOut(cookies: Cookies, sessionId: string, actor: { id: string; email: string; address: string }) {
+export async function signOut(
+	cookies: Cookies,
+	sessionId: string,
+	actor: { id: string; email: string; address: string }
+) {
 	const lucia = getLucia();
 	await lucia.invalidateSession(sessionId);
 	setSessionCookie(cookies, lucia.createBlankSessionCookie());

@@ -8,7 +8,8 @@ export const THROTTLE = {
 	maxFailuresPerAddress: 20
 } as const;
 
-export type ThrottleVerdict = { allowed: true } | { allowed: false; retryAfterS: number; reason: string };
+export type ThrottleVerdict =
+	{ allowed: true } | { allowed: false; retryAfterS: number; reason: string };
 
 /**
  * Only failures count. Once the limit is reached within the window, tries are refused until the

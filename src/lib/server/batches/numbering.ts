@@ -10,7 +10,10 @@ export const BATCH_PATTERN_KEY = 'batch.number_pattern';
 const TOKENS = ['{YYYY}', '{YY}', '{MM}', '{seq}'];
 
 export function batchNumberPattern(reader: Reader = db): string {
-	return reader.select().from(siteSetting).where(eq(siteSetting.key, BATCH_PATTERN_KEY)).get()?.value ?? DEFAULT_BATCH_NUMBER_PATTERN;
+	return (
+		reader.select().from(siteSetting).where(eq(siteSetting.key, BATCH_PATTERN_KEY)).get()?.value ??
+		DEFAULT_BATCH_NUMBER_PATTERN
+	);
 }
 
 /** Why a pattern cannot be used, or null. The sequence restarts each year, so the year must be in it. */
@@ -19,10 +22,12 @@ export function patternProblem(pattern: string): string | null {
 	if (!trimmed) return 'Enter a pattern, for example MB-{YYYY}-{seq}.';
 	if (trimmed.length > 40) return 'At most 40 characters.';
 	if (!trimmed.includes('{seq}')) return 'The pattern needs {seq}, the running number.';
-	if (!trimmed.includes('{YYYY}') && !trimmed.includes('{YY}')) return 'The pattern needs {YYYY} or {YY}: the running number restarts every year.';
+	if (!trimmed.includes('{YYYY}') && !trimmed.includes('{YY}'))
+		return 'The pattern needs {YYYY} or {YY}: the running number restarts every year.';
 	const unknown = trimmed.replace(/\{YYYY\}|\{YY\}|\{MM\}|\{seq\}/g, '').match(/\{[^}]*\}/);
 	if (unknown) return `${unknown[0]} is not a field; use ${TOKENS.join(', ')}.`;
-	if (/[^A-Za-z0-9{}\-_/.]/.test(trimmed)) return 'Use letters, digits and - _ / . only, so the number scans and files cleanly.';
+	if (/[^A-Za-z0-9{}\-_/.]/.test(trimmed))
+		return 'Use letters, digits and - _ / . only, so the number scans and files cleanly.';
 	return null;
 }
 
@@ -36,7 +41,10 @@ export function formatBatchNumber(pattern: string, date: Date, seq: number): str
 }
 
 /** The next number of the year; call inside the transaction that inserts the batch. */
-export function nextBatchNumber(reader: Reader, now = new Date()): { number: string; year: number; seq: number } {
+export function nextBatchNumber(
+	reader: Reader,
+	now = new Date()
+): { number: string; year: number; seq: number } {
 	const year = now.getUTCFullYear();
 	const row = reader
 		.select({ last: sql<number | null>`max(${batch.numberSeq})` })
@@ -57,6 +65,14 @@ export function setBatchNumberPattern(actor: Actor, pattern: string): void {
 			.values({ key: BATCH_PATTERN_KEY, value })
 			.onConflictDoUpdate({ target: siteSetting.key, set: { value, updatedAt: new Date() } })
 			.run();
-		recordAudit(actor, { action: 'settings.batch_number_pattern', subjectType: 'site', detail: { from: before, to: value } }, tx);
+		recordAudit(
+			actor,
+			{
+				action: 'settings.batch_number_pattern',
+				subjectType: 'site',
+				detail: { from: before, to: value }
+			},
+			tx
+		);
 	});
 }

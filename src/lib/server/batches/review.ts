@@ -10,10 +10,19 @@ import { signRecord } from '../signatures';
 import { batchDigest, requireBatch } from './execution';
 
 /** Why this person may not review the batch, or null when they may. */
-export function reviewRefusal(reviewer: { id: string; roles: readonly Role[] }, b: Batch): string | null {
-	if (!may(reviewer, 'batch.review')) return 'Reviewing a batch needs the role Media scientist or Process engineer.';
-	if (b.preparedById === reviewer.id) return 'You prepared this batch, so someone else must review it.';
-	const signedLine = db.select({ id: batchLine.id }).from(batchLine).where(and(eq(batchLine.batchId, b.id), eq(batchLine.doneById, reviewer.id))).get();
+export function reviewRefusal(
+	reviewer: { id: string; roles: readonly Role[] },
+	b: Batch
+): string | null {
+	if (!may(reviewer, 'batch.review'))
+		return 'Reviewing a batch needs the role Media scientist or Process engineer.';
+	if (b.preparedById === reviewer.id)
+		return 'You prepared this batch, so someone else must review it.';
+	const signedLine = db
+		.select({ id: batchLine.id })
+		.from(batchLine)
+		.where(and(eq(batchLine.batchId, b.id), eq(batchLine.doneById, reviewer.id)))
+		.get();
 	if (signedLine) return 'You signed lines of this batch, so someone else must review it.';
 	return null;
 }
@@ -25,12 +34,18 @@ export async function reviewBatch(
 	input: { decision: string; password: string; reason: string }
 ): Promise<void> {
 	const b = requireBatch(batchId);
-	if (b.state !== 'prepared') throw new RuleError(`Batch ${b.number} is ${BATCH_STATE_LABELS[b.state].toLowerCase()}; only a prepared batch is reviewed.`, { status: 409 });
+	if (b.state !== 'prepared')
+		throw new RuleError(
+			`Batch ${b.number} is ${BATCH_STATE_LABELS[b.state].toLowerCase()}; only a prepared batch is reviewed.`,
+			{ status: 409 }
+		);
 	const refusal = reviewRefusal(reviewer, b);
 	if (refusal) throw new RuleError(refusal, { status: 403 });
-	if (input.decision !== 'released' && input.decision !== 'rejected') throw new RuleError('Choose: release for use, or reject.', { field: 'decision' });
+	if (input.decision !== 'released' && input.decision !== 'rejected')
+		throw new RuleError('Choose: release for use, or reject.', { field: 'decision' });
 	const reason = input.reason.trim();
-	if (input.decision === 'rejected' && reason.length < 3) throw new RuleError('Give the reason for rejecting the batch.', { field: 'reason' });
+	if (input.decision === 'rejected' && reason.length < 3)
+		throw new RuleError('Give the reason for rejecting the batch.', { field: 'reason' });
 	const decision = input.decision;
 	await signRecord(
 		{
@@ -45,9 +60,29 @@ export async function reviewBatch(
 		},
 		(tx) => {
 			const now = requireBatch(batchId, tx);
-			if (now.state !== 'prepared') throw new RuleError('Someone reviewed this batch meanwhile; nothing was signed.', { status: 409 });
-			tx.update(batch).set({ state: decision, reviewedById: reviewer.id, reviewedAt: new Date(), reviewNote: reason }).where(eq(batch.id, b.id)).run();
-			recordAudit({ id: reviewer.id, email: reviewer.email, address: reviewer.address ?? null }, { action: `batch.${decision}`, subjectType: 'batch', subjectId: b.id, detail: { number: b.number, reason } }, tx);
+			if (now.state !== 'prepared')
+				throw new RuleError('Someone reviewed this batch meanwhile; nothing was signed.', {
+					status: 409
+				});
+			tx.update(batch)
+				.set({
+					state: decision,
+					reviewedById: reviewer.id,
+					reviewedAt: new Date(),
+					reviewNote: reason
+				})
+				.where(eq(batch.id, b.id))
+				.run();
+			recordAudit(
+				{ id: reviewer.id, email: reviewer.email, address: reviewer.address ?? null },
+				{
+					action: `batch.${decision}`,
+					subjectType: 'batch',
+					subjectId: b.id,
+					detail: { number: b.number, reason }
+				},
+				tx
+			);
 		}
 	);
 }

@@ -20,13 +20,23 @@ export interface LotFactors {
  * The mass of the shelf form to weigh for one line of a batch: target × volume, converted to the
  * form on the shelf (hydrate factor) and to the chosen lot (assay, water content).
  */
-export function scaleComponentLine(line: ScalableComponentLine, volumeL: number, lot: LotFactors | null, field = 'line'): MassToWeighResult {
+export function scaleComponentLine(
+	line: ScalableComponentLine,
+	volumeL: number,
+	lot: LotFactors | null,
+	field = 'line'
+): MassToWeighResult {
 	const shelf = line.shelfForm ?? line.component;
 	try {
 		return computeMassToWeigh({
 			target: { amount: line.amount, unit: line.unit },
 			volumeL,
-			basis: line.shelfForm ? { formula: line.component.formula, molarMassGPerMol: line.component.formula ? null : line.component.molarMassGPerMol } : null,
+			basis: line.shelfForm
+				? {
+						formula: line.component.formula,
+						molarMassGPerMol: line.component.formula ? null : line.component.molarMassGPerMol
+					}
+				: null,
 			shelfForm: {
 				formula: shelf.formula,
 				molarMassGPerMol: shelf.formula ? null : shelf.molarMassGPerMol,
@@ -35,13 +45,22 @@ export function scaleComponentLine(line: ScalableComponentLine, volumeL: number,
 			}
 		});
 	} catch (cause) {
-		if (cause instanceof ChemistryInputError) throw new RuleError(`${shelf.name}: ${cause.message}`, { field });
+		if (cause instanceof ChemistryInputError)
+			throw new RuleError(`${shelf.name}: ${cause.message}`, { field });
 		throw cause;
 	}
 }
 
 /** A stock line is dosed in mL of stock per litre of medium. */
-export function scaleStockLine(doseMlPerL: number, volumeL: number): { volumeMl: number; steps: string[] } {
+export function scaleStockLine(
+	doseMlPerL: number,
+	volumeL: number
+): { volumeMl: number; steps: string[] } {
 	const volumeMl = doseMlPerL * volumeL;
-	return { volumeMl, steps: [`${doseMlPerL} mL/L × ${Number(volumeL.toPrecision(6))} L = ${Number(volumeMl.toPrecision(6))} mL of stock`] };
+	return {
+		volumeMl,
+		steps: [
+			`${doseMlPerL} mL/L × ${Number(volumeL.toPrecision(6))} L = ${Number(volumeMl.toPrecision(6))} mL of stock`
+		]
+	};
 }

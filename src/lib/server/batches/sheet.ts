@@ -1,10 +1,24 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { checkTolerance, DEFAULT_PH_TOLERANCE, formatLineQuantity, lineQuantityUnit } from '$lib/batches';
+import {
+	checkTolerance,
+	DEFAULT_PH_TOLERANCE,
+	formatLineQuantity,
+	lineQuantityUnit
+} from '$lib/batches';
 import { formatQuantity, isExpired, isoToday } from '$lib/inventory';
 import { batchVolumeL, storedMass, storedVolumeUl } from '$lib/quantities';
 import { findComponentsByIds } from '../components/library';
 import { db, type Db } from '../db';
-import { batchLine, lot, recipeLine, type Batch, type BatchLine, type Component, type Lot, type RecipeLine } from '../db/schema';
+import {
+	batchLine,
+	lot,
+	recipeLine,
+	type Batch,
+	type BatchLine,
+	type Component,
+	type Lot,
+	type RecipeLine
+} from '../db/schema';
 import { onHandByLot } from '../inventory/ledger';
 import { usableLotCondition } from '../inventory/usable';
 import { massToLotQuantity } from '../inventory/units';
@@ -34,34 +48,58 @@ function choiceOf(row: Lot, onHand: number, today: string): LotChoice {
 	};
 }
 
-type RequirementLine = { amount: number; unit: string; component: Component; shelf: Component | null };
+type RequirementLine = {
+	amount: number;
+	unit: string;
+	component: Component;
+	shelf: Component | null;
+};
 
 /**
  * What one component line needs, for a lot (its assay and water content) or nominal without one: µg to
  * weigh, that mass in the lot's base unit (for the stock check), and the working. Reads no database.
  */
-export function requirementFor(line: RequirementLine, volumeL: number, lotRow: Pick<Lot, 'assayPercent' | 'waterContentPercent' | 'quantityKind'> | null, weighed: Component) {
-	const scaled = scaleComponentLine({ amount: line.amount, unit: line.unit, component: line.component, shelfForm: line.shelf }, volumeL, lotRow);
+export function requirementFor(
+	line: RequirementLine,
+	volumeL: number,
+	lotRow: Pick<Lot, 'assayPercent' | 'waterContentPercent' | 'quantityKind'> | null,
+	weighed: Component
+) {
+	const scaled = scaleComponentLine(
+		{ amount: line.amount, unit: line.unit, component: line.component, shelfForm: line.shelf },
+		volumeL,
+		lotRow
+	);
 	const requiredUg = storedMass(scaled.massG, 'g', 'µg');
 	const inLotUnits = lotRow ? Math.max(1, massToLotQuantity(scaled.massG, lotRow, weighed)) : null;
 	return { requiredUg, inLotUnits, steps: scaled.steps };
 }
 
 /** What one stock line needs: µL of stock and the working. Reads no database. */
-export function stockRequirement(doseMlPerL: number, volumeL: number): { requiredUl: number; steps: string[] } {
+export function stockRequirement(
+	doseMlPerL: number,
+	volumeL: number
+): { requiredUl: number; steps: string[] } {
 	const scaled = scaleStockLine(doseMlPerL, volumeL);
 	return { requiredUl: storedVolumeUl(scaled.volumeMl, 'mL'), steps: scaled.steps };
 }
 
 /** Released, in-date lots of a component, first-expired first (FEFO), then first received. */
-export function usableLots(componentId: string, reader: Reader = db, today = isoToday()): { row: Lot; onHand: number }[] {
+export function usableLots(
+	componentId: string,
+	reader: Reader = db,
+	today = isoToday()
+): { row: Lot; onHand: number }[] {
 	const rows = reader
 		.select()
 		.from(lot)
 		.where(and(eq(lot.componentId, componentId), usableLotCondition(today)))
 		.orderBy(asc(lot.expiresOn), asc(lot.receivedOn), asc(lot.code))
 		.all();
-	const onHand = onHandByLot(rows.map((r) => r.id), reader);
+	const onHand = onHandByLot(
+		rows.map((r) => r.id),
+		reader
+	);
 	return rows.map((row) => ({ row, onHand: onHand.get(row.id) ?? 0 }));
 }
 
@@ -80,21 +118,38 @@ export function suggestLot(
 ): { suggestion: LotChoice | null; requirement: Requirement | null; note: string | null } {
 	for (const candidate of candidates) {
 		const need = requirementFor(line, volumeL, candidate.row, weighed);
-		if (candidate.onHand >= (need.inLotUnits ?? 0)) return { suggestion: choiceOf(candidate.row, candidate.onHand, today), requirement: need, note: null };
+		if (candidate.onHand >= (need.inLotUnits ?? 0))
+			return {
+				suggestion: choiceOf(candidate.row, candidate.onHand, today),
+				requirement: need,
+				note: null
+			};
 	}
-	const note = candidates.length ? `No released, in-date lot of ${weighed.name} has enough on hand for this line.` : `No released, in-date lot of ${weighed.name} is in stock.`;
+	const note = candidates.length
+		? `No released, in-date lot of ${weighed.name} has enough on hand for this line.`
+		: `No released, in-date lot of ${weighed.name} is in stock.`;
 	return { suggestion: null, requirement: null, note };
 }
 
 /** Everything a sheet reads once for all its lines. */
 function loadSheet(b: Batch, reader: Reader) {
-	const lines = reader.select().from(batchLine).where(eq(batchLine.batchId, b.id)).orderBy(asc(batchLine.position)).all();
+	const lines = reader
+		.select()
+		.from(batchLine)
+		.where(eq(batchLine.batchId, b.id))
+		.orderBy(asc(batchLine.position))
+		.all();
 	const recipeLines = new Map(
 		lines.length
 			? reader
 					.select()
 					.from(recipeLine)
-					.where(inArray(recipeLine.id, lines.map((l) => l.recipeLineId)))
+					.where(
+						inArray(
+							recipeLine.id,
+							lines.map((l) => l.recipeLineId)
+						)
+					)
 					.all()
 					.map((r) => [r.id, r])
 			: []
@@ -104,8 +159,23 @@ function loadSheet(b: Batch, reader: Reader) {
 		reader
 	);
 	const chosenIds = lines.map((l) => l.lotId).filter((id): id is string => Boolean(id));
-	const chosenRows = new Map(chosenIds.length ? reader.select().from(lot).where(inArray(lot.id, chosenIds)).all().map((l) => [l.id, l]) : []);
-	return { lines, recipeLines, components, chosenRows, chosenOnHand: onHandByLot(chosenIds, reader) };
+	const chosenRows = new Map(
+		chosenIds.length
+			? reader
+					.select()
+					.from(lot)
+					.where(inArray(lot.id, chosenIds))
+					.all()
+					.map((l) => [l.id, l])
+			: []
+	);
+	return {
+		lines,
+		recipeLines,
+		components,
+		chosenRows,
+		chosenOnHand: onHandByLot(chosenIds, reader)
+	};
 }
 
 type LoadedSheet = ReturnType<typeof loadSheet>;
@@ -135,7 +205,12 @@ function consumedTextOf(line: BatchLine, chosenRow: Lot | null): string | null {
 	return consumed === null ? null : formatQuantity(consumed, chosenRow.quantityKind);
 }
 
-function stockSheetLine(line: BatchLine, source: RecipeLine, volumeL: number, reader: Reader): SheetLine {
+function stockSheetLine(
+	line: BatchLine,
+	source: RecipeLine,
+	volumeL: number,
+	reader: Reader
+): SheetLine {
 	const { requiredUl, steps } = stockRequirement(source.amount, volumeL);
 	return {
 		...baseOf(line, source, null),
@@ -151,19 +226,35 @@ function stockSheetLine(line: BatchLine, source: RecipeLine, volumeL: number, re
 		chosen: null,
 		suggestion: null,
 		suggestionNote: null,
-		verdict: line.actualUl === null ? null : checkTolerance(requiredUl, line.actualUl, line.tolerancePercent)
+		verdict:
+			line.actualUl === null
+				? null
+				: checkTolerance(requiredUl, line.actualUl, line.tolerancePercent)
 	};
 }
 
-function componentSheetLine(line: BatchLine, source: RecipeLine, sheet: LoadedSheet, volumeL: number, reader: Reader, today: string): SheetLine {
+function componentSheetLine(
+	line: BatchLine,
+	source: RecipeLine,
+	sheet: LoadedSheet,
+	volumeL: number,
+	reader: Reader,
+	today: string
+): SheetLine {
 	const basis = sheet.components.get(source.componentId!)!;
-	const shelf = source.shelfFormId && source.shelfFormId !== source.componentId ? sheet.components.get(source.shelfFormId)! : null;
+	const shelf =
+		source.shelfFormId && source.shelfFormId !== source.componentId
+			? sheet.components.get(source.shelfFormId)!
+			: null;
 	const weighed = shelf ?? basis;
 	const requirementLine = { amount: source.amount, unit: source.unit, component: basis, shelf };
 	const chosenRow = line.lotId ? (sheet.chosenRows.get(line.lotId) ?? null) : null;
-	const suggested = line.doneAt ? null : suggestLot(requirementLine, weighed, volumeL, usableLots(weighed.id, reader, today), today);
+	const suggested = line.doneAt
+		? null
+		: suggestLot(requirementLine, weighed, volumeL, usableLots(weighed.id, reader, today), today);
 	const forChosen = chosenRow ? requirementFor(requirementLine, volumeL, chosenRow, weighed) : null;
-	const nominal = forChosen ?? suggested?.requirement ?? requirementFor(requirementLine, volumeL, null, weighed);
+	const nominal =
+		forChosen ?? suggested?.requirement ?? requirementFor(requirementLine, volumeL, null, weighed);
 	const requiredUg = line.requiredUg ?? nominal.requiredUg;
 	return {
 		...baseOf(line, source, chosenRow),
@@ -176,10 +267,15 @@ function componentSheetLine(line: BatchLine, source: RecipeLine, sheet: LoadedSh
 		requiredFor: forChosen ? 'chosen' : suggested?.requirement ? 'suggested' : 'nominal',
 		requiredText: formatLineQuantity(requiredUg, 'component'),
 		steps: nominal.steps,
-		chosen: chosenRow ? choiceOf(chosenRow, sheet.chosenOnHand.get(chosenRow.id) ?? 0, today) : null,
+		chosen: chosenRow
+			? choiceOf(chosenRow, sheet.chosenOnHand.get(chosenRow.id) ?? 0, today)
+			: null,
 		suggestion: suggested?.suggestion ?? null,
 		suggestionNote: suggested?.note ?? null,
-		verdict: line.actualUg === null ? null : checkTolerance(requiredUg, line.actualUg, line.tolerancePercent)
+		verdict:
+			line.actualUg === null
+				? null
+				: checkTolerance(requiredUg, line.actualUg, line.tolerancePercent)
 	};
 }
 
@@ -189,11 +285,17 @@ export function buildSheetLines(b: Batch, reader: Reader = db, today = isoToday(
 	const volumeL = batchVolumeL(b.targetVolumeMl);
 	return sheet.lines.map((line) => {
 		const source = sheet.recipeLines.get(line.recipeLineId)!;
-		return line.kind === 'stock' ? stockSheetLine(line, source, volumeL, reader) : componentSheetLine(line, source, sheet, volumeL, reader, today);
+		return line.kind === 'stock'
+			? stockSheetLine(line, source, volumeL, reader)
+			: componentSheetLine(line, source, sheet, volumeL, reader, today);
 	});
 }
 
 export function phRange(targetPh: number | null): { min: number; max: number } | null {
-	return targetPh === null ? null : { min: Number((targetPh - DEFAULT_PH_TOLERANCE).toFixed(2)), max: Number((targetPh + DEFAULT_PH_TOLERANCE).toFixed(2)) };
+	return targetPh === null
+		? null
+		: {
+				min: Number((targetPh - DEFAULT_PH_TOLERANCE).toFixed(2)),
+				max: Number((targetPh + DEFAULT_PH_TOLERANCE).toFixed(2))
+			};
 }
-

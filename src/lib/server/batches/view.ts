@@ -26,15 +26,35 @@ export interface Caution {
 }
 
 /** The cautions on a sheet: the components' GHS statements, and a hot-solution warning when it applies. */
-export function sheetCautions(version: { id: string; recipeId: string; preparationTemperatureC: number; osmolalityMinMOsmPerKg: number | null; osmolalityMaxMOsmPerKg: number | null; instructions: string }): Caution[] {
+export function sheetCautions(version: {
+	id: string;
+	recipeId: string;
+	preparationTemperatureC: number;
+	osmolalityMinMOsmPerKg: number | null;
+	osmolalityMaxMOsmPerKg: number | null;
+	instructions: string;
+}): Caution[] {
 	const cautions: Caution[] = [];
 	try {
-		cautions.push(...analyseVersion(version).hazards.map((h) => ({ code: h.code, text: h.text, components: h.components })));
+		cautions.push(
+			...analyseVersion(version).hazards.map((h) => ({
+				code: h.code,
+				text: h.text,
+				components: h.components
+			}))
+		);
 	} catch (cause) {
 		if (!(cause instanceof RuleError)) throw cause;
 	}
-	if (version.preparationTemperatureC > HOT_PREPARATION_C || /autoclav|hot|warm/i.test(version.instructions)) {
-		cautions.push({ code: 'HOT', text: 'Hot solution or autoclaved medium: risk of scalds; let it cool and use heat-resistant gloves.', components: [] });
+	if (
+		version.preparationTemperatureC > HOT_PREPARATION_C ||
+		/autoclav|hot|warm/i.test(version.instructions)
+	) {
+		cautions.push({
+			code: 'HOT',
+			text: 'Hot solution or autoclaved medium: risk of scalds; let it cool and use heat-resistant gloves.',
+			components: []
+		});
 	}
 	return cautions;
 }
@@ -45,13 +65,24 @@ export function batchView(batchId: string, today = isoToday()) {
 	const version = findVersionById(b.versionId)!;
 	const recipeRow = findRecipe(b.recipeId)!;
 	const deviations = db
-		.select({ id: batchDeviation.id, lineId: batchDeviation.lineId, kind: batchDeviation.kind, detail: batchDeviation.detail, reason: batchDeviation.reason, at: batchDeviation.at, by: user.name })
+		.select({
+			id: batchDeviation.id,
+			lineId: batchDeviation.lineId,
+			kind: batchDeviation.kind,
+			detail: batchDeviation.detail,
+			reason: batchDeviation.reason,
+			at: batchDeviation.at,
+			by: user.name
+		})
 		.from(batchDeviation)
 		.innerJoin(user, eq(batchDeviation.recordedById, user.id))
 		.where(eq(batchDeviation.batchId, b.id))
 		.orderBy(asc(batchDeviation.at))
 		.all();
-	const lines = buildSheetLines(b, db, today).map((l) => ({ ...l, doneByName: personName(l.doneById) }));
+	const lines = buildSheetLines(b, db, today).map((l) => ({
+		...l,
+		doneByName: personName(l.doneById)
+	}));
 	return {
 		batch: {
 			...b,
@@ -77,7 +108,8 @@ export function batchView(batchId: string, today = isoToday()) {
 		deviations,
 		signatures: signaturesFor('batch', [b.id]),
 		cautions: sheetCautions(version),
-		completionProblem: b.state === 'in_preparation' || b.state === 'planned' ? completionProblem(b) : null,
+		completionProblem:
+			b.state === 'in_preparation' || b.state === 'planned' ? completionProblem(b) : null,
 		recordUrl: batchRecordUrl(b.id)
 	};
 }
@@ -121,7 +153,13 @@ export function listBatches(filter: BatchFilter = {}) {
 /** Approved versions a batch can be made from. */
 export function approvedRecipes() {
 	return db
-		.select({ recipeId: recipe.id, name: recipe.name, kind: recipe.kind, versionId: recipeVersion.id, n: recipeVersion.n })
+		.select({
+			recipeId: recipe.id,
+			name: recipe.name,
+			kind: recipe.kind,
+			versionId: recipeVersion.id,
+			n: recipeVersion.n
+		})
 		.from(recipeVersion)
 		.innerJoin(recipe, eq(recipeVersion.recipeId, recipe.id))
 		.where(eq(recipeVersion.status, 'approved'))

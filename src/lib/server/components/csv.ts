@@ -3,7 +3,13 @@ import { db } from '../db';
 import { component } from '../db/schema';
 import { parseCsv, toCsv, type CsvRowResult } from '../csv';
 import { RuleError } from '../rule-error';
-import { checkComponentText, componentText, listComponents, type ComponentText, type NewComponent } from './library';
+import {
+	checkComponentText,
+	componentText,
+	listComponents,
+	type ComponentText,
+	type NewComponent
+} from './library';
 
 /** CSV column → the component field it fills. */
 const COLUMN_FIELDS: Record<string, keyof ComponentText> = {
@@ -37,16 +43,22 @@ export interface ComponentImportPreview {
 /** Checks every row against the library and against the rows above it; writes nothing. */
 export function previewComponentCsv(text: string): ComponentImportPreview {
 	const table = parseCsv(text, COMPONENT_CSV_COLUMNS);
-	if (table.rows.length === 0) throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
+	if (table.rows.length === 0)
+		throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
 	const seen = new Map<string, number>();
 	const rows = table.rows.map(({ rowNumber, values }) => {
-		const input = Object.fromEntries(Object.entries(COLUMN_FIELDS).map(([column, field]) => [field, values[column] ?? '']));
+		const input = Object.fromEntries(
+			Object.entries(COLUMN_FIELDS).map(([column, field]) => [field, values[column] ?? ''])
+		);
 		const checked = checkComponentText(input);
 		const errors = checked.ok
 			? []
-			: Object.entries(checked.fieldErrors).flatMap(([field, messages]) => messages.map((m) => `${FIELD_COLUMNS[field] ?? field}: ${m}`));
+			: Object.entries(checked.fieldErrors).flatMap(([field, messages]) =>
+					messages.map((m) => `${FIELD_COLUMNS[field] ?? field}: ${m}`)
+				);
 		const key = values.name.toLowerCase();
-		if (key && seen.has(key)) errors.push(`name: “${values.name}” is also on row ${seen.get(key)}.`);
+		if (key && seen.has(key))
+			errors.push(`name: “${values.name}” is also on row ${seen.get(key)}.`);
 		else seen.set(key, rowNumber);
 		return { rowNumber, values, errors, value: checked.ok ? checked.value : undefined };
 	});
@@ -57,11 +69,25 @@ export function previewComponentCsv(text: string): ComponentImportPreview {
 export function importComponentCsv(actor: Actor, text: string): number {
 	const preview = previewComponentCsv(text);
 	if (preview.errorCount) {
-		throw new RuleError(`${preview.errorCount} row${preview.errorCount === 1 ? ' has' : 's have'} problems; nothing was imported. Fix them and preview again.`, { field: 'csv' });
+		throw new RuleError(
+			`${preview.errorCount} row${preview.errorCount === 1 ? ' has' : 's have'} problems; nothing was imported. Fix them and preview again.`,
+			{ field: 'csv' }
+		);
 	}
 	return db.transaction((tx) => {
-		for (const row of preview.rows) tx.insert(component).values({ ...row.value!, id: crypto.randomUUID() }).run();
-		recordAudit(actor, { action: 'component.imported', subjectType: 'component', detail: { count: preview.rows.length, names: preview.rows.map((r) => r.value!.name) } }, tx);
+		for (const row of preview.rows)
+			tx.insert(component)
+				.values({ ...row.value!, id: crypto.randomUUID() })
+				.run();
+		recordAudit(
+			actor,
+			{
+				action: 'component.imported',
+				subjectType: 'component',
+				detail: { count: preview.rows.length, names: preview.rows.map((r) => r.value!.name) }
+			},
+			tx
+		);
 		return preview.rows.length;
 	});
 }
@@ -69,7 +95,16 @@ export function importComponentCsv(actor: Actor, text: string): number {
 export function exportComponentsCsv(): string {
 	const rows = listComponents().map((c) => {
 		const text = componentText(c);
-		return { id: c.id, ...Object.fromEntries(Object.entries(COLUMN_FIELDS).map(([column, field]) => [column, text[field]])) };
+		return {
+			id: c.id,
+			...Object.fromEntries(
+				Object.entries(COLUMN_FIELDS).map(([column, field]) => [column, text[field]])
+			)
+		};
 	});
-	return toCsv(rows, [...COMPONENT_CSV_COLUMNS.allowed], [`Brothwright component library, exported ${new Date().toISOString()}`]);
+	return toCsv(
+		rows,
+		[...COMPONENT_CSV_COLUMNS.allowed],
+		[`Brothwright component library, exported ${new Date().toISOString()}`]
+	);
 }

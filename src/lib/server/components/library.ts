@@ -1,7 +1,13 @@
 import { readDecimalText } from '$lib/quantities';
 import { asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { ChemistryInputError, molarMassOf, parseFormula, resolveComponent, type ComponentSpec } from '$chemistry';
+import {
+	ChemistryInputError,
+	molarMassOf,
+	parseFormula,
+	resolveComponent,
+	type ComponentSpec
+} from '$chemistry';
 import {
 	checkCasNumber,
 	formatFractions,
@@ -21,7 +27,10 @@ import { formText, type FieldErrors } from '../forms';
 import { RuleError } from '../rule-error';
 import { knownHazardTexts } from './hazards';
 
-export type NewComponent = Omit<typeof component.$inferInsert, 'id' | 'createdAt' | 'updatedAt' | 'revision'>;
+export type NewComponent = Omit<
+	typeof component.$inferInsert,
+	'id' | 'createdAt' | 'updatedAt' | 'revision'
+>;
 
 /** The text fields a component is entered with, on the form and in a CSV row alike. */
 export const COMPONENT_FIELDS = [
@@ -41,7 +50,12 @@ export const COMPONENT_FIELDS = [
 ] as const;
 
 /** The component form's shape: every field as text; checkComponentText says what each must hold. */
-export const componentForm = z.object(Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, formText])) as Record<(typeof COMPONENT_FIELDS)[number], typeof formText>);
+export const componentForm = z.object(
+	Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, formText])) as Record<
+		(typeof COMPONENT_FIELDS)[number],
+		typeof formText
+	>
+);
 export type ComponentField = (typeof COMPONENT_FIELDS)[number];
 export type ComponentText = Record<ComponentField, string>;
 
@@ -58,7 +72,14 @@ export function findComponent(id: string, reader: Reader = db): Component | unde
 export function findComponentsByIds(ids: string[], reader: Reader = db): Map<string, Component> {
 	const unique = [...new Set(ids.filter(Boolean))];
 	if (unique.length === 0) return new Map();
-	return new Map(reader.select().from(component).where(inArray(component.id, unique)).all().map((c) => [c.id, c]));
+	return new Map(
+		reader
+			.select()
+			.from(component)
+			.where(inArray(component.id, unique))
+			.all()
+			.map((c) => [c.id, c])
+	);
 }
 
 function normaliseName(text: string): string {
@@ -91,7 +112,10 @@ export function findComponentByIdOrName(text: string, reader: Reader = db): Comp
 	const starting = all.filter((c) => normaliseName(c.name).startsWith(`${wanted} `));
 	const bases = starting.filter((c) => !c.basisComponentId);
 	if (starting.length === 1) return starting[0];
-	return bases.length === 1 && starting.every((c) => c === bases[0] || c.basisComponentId === bases[0].id) ? bases[0] : undefined;
+	return bases.length === 1 &&
+		starting.every((c) => c === bases[0] || c.basisComponentId === bases[0].id)
+		? bases[0]
+		: undefined;
 }
 
 /** What the composition engine needs from a stored component. */
@@ -137,7 +161,12 @@ export function componentText(row: Component | undefined): ComponentText {
 	};
 }
 
-function optionalNumber(text: string, field: string, errors: FieldErrors, check: (n: number) => string | null): number | null {
+function optionalNumber(
+	text: string,
+	field: string,
+	errors: FieldErrors,
+	check: (n: number) => string | null
+): number | null {
 	const trimmed = text.trim();
 	if (!trimmed) return null;
 	const read = readDecimalText(trimmed, 'Number');
@@ -159,7 +188,9 @@ export function checkComponentText(
 	options: { selfId?: string; reader?: Reader } = {}
 ): { ok: true; value: NewComponent } | { ok: false; fieldErrors: FieldErrors } {
 	const reader = options.reader ?? db;
-	const t = Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, (input[f] ?? '').trim()])) as ComponentText;
+	const t = Object.fromEntries(
+		COMPONENT_FIELDS.map((f) => [f, (input[f] ?? '').trim()])
+	) as ComponentText;
 	const errors: FieldErrors = {};
 
 	checkNameAndCategory(t, errors, reader, options.selfId);
@@ -186,7 +217,11 @@ export function checkComponentText(
 		osmoticCoefficient: phi,
 		osmoticCoefficientSource: phi === null ? null : 'entered with the component',
 		solubility: solubility
-			? { points: solubility, basisFormula: t.solubilityBasisFormula || null, source: 'entered with the component' }
+			? {
+					points: solubility,
+					basisFormula: t.solubilityBasisFormula || null,
+					source: 'entered with the component'
+				}
 			: null,
 		ghsHazards: hazards,
 		hazardSource: hazards.length ? 'entered with the component; check the supplier SDS' : null,
@@ -205,7 +240,12 @@ export function checkComponentText(
 	return { ok: true, value };
 }
 
-function checkNameAndCategory(t: ComponentText, errors: FieldErrors, reader: Reader, selfId: string | undefined): void {
+function checkNameAndCategory(
+	t: ComponentText,
+	errors: FieldErrors,
+	reader: Reader,
+	selfId: string | undefined
+): void {
 	if (!t.name) errors.name = ['Give the component a name.'];
 	else if (t.name.length > 120) errors.name = ['Keep the name to 120 characters.'];
 	else {
@@ -214,14 +254,18 @@ function checkNameAndCategory(t: ComponentText, errors: FieldErrors, reader: Rea
 			.from(component)
 			.where(sql`lower(${component.name}) = lower(${t.name})`)
 			.get();
-		if (clash && clash.id !== selfId) errors.name = [`A component named “${t.name}” already exists.`];
+		if (clash && clash.id !== selfId)
+			errors.name = [`A component named “${t.name}” already exists.`];
 	}
 	if (!(COMPONENT_CATEGORIES as readonly string[]).includes(t.category)) {
 		errors.category = [`Choose a category: ${COMPONENT_CATEGORIES.join(', ')}.`];
 	}
 }
 
-function checkFormulaAndMass(t: ComponentText, errors: FieldErrors): { formulaMolarMass: number | null; molarMass: number | null } {
+function checkFormulaAndMass(
+	t: ComponentText,
+	errors: FieldErrors
+): { formulaMolarMass: number | null; molarMass: number | null } {
 	let formulaMolarMass: number | null = null;
 	if (t.formula) {
 		try {
@@ -235,7 +279,9 @@ function checkFormulaAndMass(t: ComponentText, errors: FieldErrors): { formulaMo
 		n > 0 ? null : 'A molar mass is more than 0 g/mol.'
 	);
 	if (molarMass !== null && t.formula) {
-		errors.molarMassGPerMol = ['Leave the molar mass empty when there is a formula: it is computed from the formula.'];
+		errors.molarMassGPerMol = [
+			'Leave the molar mass empty when there is a formula: it is computed from the formula.'
+		];
 	}
 	return { formulaMolarMass, molarMass };
 }
@@ -245,14 +291,24 @@ function checkMakeUp(t: ComponentText, errors: FieldErrors, molarMass: number | 
 	const fractions = parseFractions(t.elementalMassFractions);
 	if (!fractions.ok) errors.elementalMassFractions = [fractions.error];
 	else if (fractions.value && t.formula) {
-		errors.elementalMassFractions = ['Give either a formula or elemental fractions, not both: fractions are for complex materials.'];
+		errors.elementalMassFractions = [
+			'Give either a formula or elemental fractions, not both: fractions are for complex materials.'
+		];
 	}
-	if (!t.formula && !(fractions.ok && fractions.value) && t.category !== 'complex' && !errors.formula) {
-		errors.formula = ['Give a formula, or mark it a complex material and give its elemental fractions.'];
+	if (
+		!t.formula &&
+		!(fractions.ok && fractions.value) &&
+		t.category !== 'complex' &&
+		!errors.formula
+	) {
+		errors.formula = [
+			'Give a formula, or mark it a complex material and give its elemental fractions.'
+		];
 	}
 	const ions = parseIons(t.ions);
 	if (!ions.ok) errors.ions = [ions.error];
-	else if (ions.value && !t.formula && molarMass === null) errors.ions = ['Ions need a formula or molar mass.'];
+	else if (ions.value && !t.formula && molarMass === null)
+		errors.ions = ['Ions need a formula or molar mass.'];
 	return { fractions: fractions.ok ? fractions.value : null, ions: ions.ok ? ions.value : null };
 }
 
@@ -266,35 +322,70 @@ function checkSolubilityAndHazards(t: ComponentText, errors: FieldErrors) {
 			if (!(cause instanceof ChemistryInputError)) throw cause;
 			errors.solubilityBasisFormula = [cause.message];
 		}
-		if (!t.solubility) errors.solubilityBasisFormula = ['A basis formula goes with solubility values; give them too.'];
+		if (!t.solubility)
+			errors.solubilityBasisFormula = [
+				'A basis formula goes with solubility values; give them too.'
+			];
 	}
 	const hazards = parseHazards(t.ghsHazards, knownHazardTexts());
 	if (!hazards.ok) errors.ghsHazards = [hazards.error];
 	if (t.storage.length > 300) errors.storage = ['Keep storage to 300 characters.'];
-	return { solubility: solubility.ok ? solubility.value : null, hazards: hazards.ok ? hazards.value : [] };
+	return {
+		solubility: solubility.ok ? solubility.value : null,
+		hazards: hazards.ok ? hazards.value : []
+	};
 }
 
 /** The component this one is a form of (a hydrate of an anhydrous salt, say), by id or name. */
-function checkBasisComponent(t: ComponentText, errors: FieldErrors, reader: Reader, selfId: string | undefined): string | null {
+function checkBasisComponent(
+	t: ComponentText,
+	errors: FieldErrors,
+	reader: Reader,
+	selfId: string | undefined
+): string | null {
 	if (!t.basisComponent) return null;
 	const basis = findComponentByIdOrName(t.basisComponent, reader);
 	if (!basis) errors.basisComponent = [`No component “${t.basisComponent}” in the library.`];
-	else if (basis.id === selfId) errors.basisComponent = ['A component cannot be its own basis form.'];
-	else if (basis.basisComponentId) errors.basisComponent = [`${basis.name} is itself a form of another component; name that one.`];
-	else if (!t.formula || !basis.formula) errors.basisComponent = ['Both this component and its basis need a formula.'];
+	else if (basis.id === selfId)
+		errors.basisComponent = ['A component cannot be its own basis form.'];
+	else if (basis.basisComponentId)
+		errors.basisComponent = [`${basis.name} is itself a form of another component; name that one.`];
+	else if (!t.formula || !basis.formula)
+		errors.basisComponent = ['Both this component and its basis need a formula.'];
 	else return basis.id;
 	return null;
 }
 
-export function createComponent(actor: Actor, value: NewComponent, writer: Db | Parameters<Parameters<Db['transaction']>[0]>[0] = db): string {
+export function createComponent(
+	actor: Actor,
+	value: NewComponent,
+	writer: Db | Parameters<Parameters<Db['transaction']>[0]>[0] = db
+): string {
 	const id = crypto.randomUUID();
-	writer.insert(component).values({ ...value, id }).run();
-	recordAudit(actor, { action: 'component.created', subjectType: 'component', subjectId: id, detail: { name: value.name } }, writer);
+	writer
+		.insert(component)
+		.values({ ...value, id })
+		.run();
+	recordAudit(
+		actor,
+		{
+			action: 'component.created',
+			subjectType: 'component',
+			subjectId: id,
+			detail: { name: value.name }
+		},
+		writer
+	);
 	return id;
 }
 
 /** Saves an edit made from `revision`; an edit made meanwhile by someone else is not overwritten. */
-export function updateComponent(actor: Actor, id: string, revision: number, value: NewComponent): void {
+export function updateComponent(
+	actor: Actor,
+	id: string,
+	revision: number,
+	value: NewComponent
+): void {
 	db.transaction((tx) => {
 		const current = findComponent(id, tx);
 		if (!current) throw new RuleError('No component with this id.', { status: 404 });
@@ -305,12 +396,23 @@ export function updateComponent(actor: Actor, id: string, revision: number, valu
 			);
 		}
 		const changed = Object.keys(value).filter(
-			(k) => JSON.stringify(value[k as keyof NewComponent] ?? null) !== JSON.stringify(current[k as keyof Component] ?? null)
+			(k) =>
+				JSON.stringify(value[k as keyof NewComponent] ?? null) !==
+				JSON.stringify(current[k as keyof Component] ?? null)
 		);
 		tx.update(component)
 			.set({ ...value, synonyms: current.synonyms, revision: revision + 1, updatedAt: new Date() })
 			.where(eq(component.id, id))
 			.run();
-		recordAudit(actor, { action: 'component.updated', subjectType: 'component', subjectId: id, detail: { name: value.name, changed } }, tx);
+		recordAudit(
+			actor,
+			{
+				action: 'component.updated',
+				subjectType: 'component',
+				subjectId: id,
+				detail: { name: value.name, changed }
+			},
+			tx
+		);
 	});
 }

@@ -44,10 +44,18 @@ function rowOf(reference: ReferenceComponent): typeof component.$inferInsert {
  */
 export function seedReferenceLibrary(): number {
 	return db.transaction((tx) => {
-		const present = new Set(tx.select({ id: component.id }).from(component).all().map((r) => r.id));
+		const present = new Set(
+			tx
+				.select({ id: component.id })
+				.from(component)
+				.all()
+				.map((r) => r.id)
+		);
 		// Basis forms first, so each row's basis reference already exists.
 		const ordered = [...REFERENCE_COMPONENTS].sort(
-			(a, b) => Number(Boolean(a.anhydrousId ?? a.freeFormId)) - Number(Boolean(b.anhydrousId ?? b.freeFormId))
+			(a, b) =>
+				Number(Boolean(a.anhydrousId ?? a.freeFormId)) -
+				Number(Boolean(b.anhydrousId ?? b.freeFormId))
 		);
 		let added = 0;
 		for (const reference of ordered) {

@@ -5,7 +5,6 @@ import { component, recipe, recipeLine, recipeVersion } from './recipes.schema';
 import { user } from './schema';
 import { createdAt, id } from './columns';
 
-
 /** A batch of medium made from one approved recipe version: planned → in preparation → prepared → released | rejected. */
 export const batch = sqliteTable(
 	'batch',
@@ -79,7 +78,10 @@ export const batchLine = sqliteTable(
 		doneById: text('done_by_id').references(() => user.id),
 		doneAt: integer('done_at', { mode: 'timestamp_ms' })
 	},
-	(t) => [index('batch_line_batch_idx').on(t.batchId, t.position), index('batch_line_lot_idx').on(t.lotId)]
+	(t) => [
+		index('batch_line_batch_idx').on(t.batchId, t.position),
+		index('batch_line_lot_idx').on(t.lotId)
+	]
 );
 
 /** Deviations are history: append-only by trigger. */

@@ -4,7 +4,6 @@ import { component } from './recipes.schema';
 import { user } from './schema';
 import { createdAt, id } from './columns';
 
-
 /**
  * A received raw-material lot. Its stock is never stored here: on-hand is the sum of its ledger,
  * in the lot's base unit (mg for a mass, µL for a volume).
@@ -93,7 +92,10 @@ export const stockEntry = sqliteTable(
 			.notNull()
 			.$defaultFn(() => new Date())
 	},
-	(t) => [index('stock_entry_lot_idx').on(t.lotId, t.at), index('stock_entry_batch_idx').on(t.batchId)]
+	(t) => [
+		index('stock_entry_lot_idx').on(t.lotId, t.at),
+		index('stock_entry_batch_idx').on(t.batchId)
+	]
 );
 
 export type Lot = typeof lot.$inferSelect;

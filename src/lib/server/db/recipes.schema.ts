@@ -1,9 +1,16 @@
-import { index, integer, real, sqliteTable, text, uniqueIndex, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
+import {
+	index,
+	integer,
+	real,
+	sqliteTable,
+	text,
+	uniqueIndex,
+	type AnySQLiteColumn
+} from 'drizzle-orm/sqlite-core';
 import type { GhsHazard, IonSpec, SolubilitySpec } from '$chemistry';
 import type { LineKind, RecipeKind, VersionStatus } from '$lib/recipes';
 import { user } from './schema';
 import { createdAt, id } from './columns';
-
 
 /** The component library: the reference data loaded at start, plus what people add. */
 export const component = sqliteTable(
@@ -17,7 +24,9 @@ export const component = sqliteTable(
 		molarMassGPerMol: real('molar_mass_g_per_mol'),
 		casNumber: text('cas_number'),
 		/** Complex materials only: g element per g, typical values until a lot certificate replaces them. */
-		elementalMassFractions: text('elemental_mass_fractions', { mode: 'json' }).$type<Record<string, number>>(),
+		elementalMassFractions: text('elemental_mass_fractions', { mode: 'json' }).$type<
+			Record<string, number>
+		>(),
 		fractionsNote: text('fractions_note'),
 		ions: text('ions', { mode: 'json' }).$type<IonSpec[]>(),
 		osmoticCoefficient: real('osmotic_coefficient'),
@@ -68,7 +77,9 @@ export const recipeVersion = sqliteTable(
 		authorId: text('author_id')
 			.notNull()
 			.references(() => user.id),
-		basedOnVersionId: text('based_on_version_id').references((): AnySQLiteColumn => recipeVersion.id),
+		basedOnVersionId: text('based_on_version_id').references(
+			(): AnySQLiteColumn => recipeVersion.id
+		),
 		targetPh: real('target_ph'),
 		osmolalityMinMOsmPerKg: real('osmolality_min_mosm_per_kg'),
 		osmolalityMaxMOsmPerKg: real('osmolality_max_mosm_per_kg'),
@@ -89,7 +100,10 @@ export const recipeVersion = sqliteTable(
 		approvedById: text('approved_by_id').references(() => user.id),
 		retiredAt: integer('retired_at', { mode: 'timestamp_ms' })
 	},
-	(t) => [uniqueIndex('recipe_version_n_idx').on(t.recipeId, t.n), index('recipe_version_status_idx').on(t.status)]
+	(t) => [
+		uniqueIndex('recipe_version_n_idx').on(t.recipeId, t.n),
+		index('recipe_version_status_idx').on(t.status)
+	]
 );
 
 export const recipeLine = sqliteTable(
@@ -113,7 +127,10 @@ export const recipeLine = sqliteTable(
 		tolerancePercent: real('tolerance_percent').notNull().default(2),
 		note: text('note').notNull().default('')
 	},
-	(t) => [index('recipe_line_version_idx').on(t.versionId, t.position), index('recipe_line_component_idx').on(t.componentId)]
+	(t) => [
+		index('recipe_line_version_idx').on(t.versionId, t.position),
+		index('recipe_line_component_idx').on(t.componentId)
+	]
 );
 
 /**

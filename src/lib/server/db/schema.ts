@@ -3,7 +3,6 @@ import { index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlit
 import type { Role } from '$lib/roles';
 import { createdAt, id } from './columns';
 
-
 export const user = sqliteTable('user', {
 	id: id(),
 	email: text('email').notNull().unique(),
@@ -73,7 +72,10 @@ export const signInAttempt = sqliteTable(
 		succeeded: integer('succeeded', { mode: 'boolean' }).notNull(),
 		at: integer('at', { mode: 'timestamp_ms' }).notNull()
 	},
-	(t) => [index('attempt_email_idx').on(t.email, t.at), index('attempt_address_idx').on(t.address, t.at)]
+	(t) => [
+		index('attempt_email_idx').on(t.email, t.at),
+		index('attempt_address_idx').on(t.address, t.at)
+	]
 );
 
 /** Append-only: triggers in a migration refuse UPDATE and DELETE. */

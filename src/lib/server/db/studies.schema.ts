@@ -1,6 +1,13 @@
 import { index, integer, real, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import type { ElementStatements, PerCellConsumption } from '$chemistry';
-import type { FeedPlanStrategy, OrganismGroup, ProfileKind, SubstrateYieldEntry, TargetBasis, YieldMethod } from '$lib/studies';
+import type {
+	FeedPlanStrategy,
+	OrganismGroup,
+	ProfileKind,
+	SubstrateYieldEntry,
+	TargetBasis,
+	YieldMethod
+} from '$lib/studies';
 import { recipeVersion } from './recipes.schema';
 import { user } from './schema';
 import { createdAt, id } from './columns';
@@ -28,7 +35,9 @@ export const organismProfile = sqliteTable('organism_profile', {
 	 */
 	elementStatements: text('element_statements', { mode: 'json' }).$type<ElementStatements>(),
 	/** g component per g dry biomass. */
-	componentRequirements: text('component_requirements', { mode: 'json' }).$type<Record<string, number>>(),
+	componentRequirements: text('component_requirements', { mode: 'json' }).$type<
+		Record<string, number>
+	>(),
 	perCellConsumption: text('per_cell_consumption', { mode: 'json' }).$type<PerCellConsumption[]>(),
 	cellDryMassPg: real('cell_dry_mass_pg'),
 	carbonSourceId: text('carbon_source_id'),
@@ -38,7 +47,10 @@ export const organismProfile = sqliteTable('organism_profile', {
 	/** mol CO2 per mol O2, measured; the element balance turns it into Yx/s. */
 	respiratoryQuotient: real('respiratory_quotient'),
 	/** Yields on further substrates (beyond the carbon source), entered or by element balance. */
-	substrateYields: text('substrate_yields', { mode: 'json' }).$type<SubstrateYieldEntry[]>().notNull().default([]),
+	substrateYields: text('substrate_yields', { mode: 'json' })
+		.$type<SubstrateYieldEntry[]>()
+		.notNull()
+		.default([]),
 	muMaxPerH: real('mu_max_per_h'),
 	ksGPerL: real('ks_g_per_l'),
 	maintenanceGPerGH: real('maintenance_g_per_gh'),
@@ -66,7 +78,9 @@ export const vessel = sqliteTable('vessel', {
 	powerPerVolumeWPerM3: real('power_per_volume_w_per_m3'),
 	superficialVelocityMPerS: real('superficial_velocity_m_per_s'),
 	maxGasFlowVvm: real('max_gas_flow_vvm').notNull(),
-	o2EnrichmentAllowed: integer('o2_enrichment_allowed', { mode: 'boolean' }).notNull().default(false),
+	o2EnrichmentAllowed: integer('o2_enrichment_allowed', { mode: 'boolean' })
+		.notNull()
+		.default(false),
 	/** Absolute pressure rating of the headspace, kPa. */
 	maxPressureKPa: real('max_pressure_kpa').notNull(),
 	temperatureC: real('temperature_c').notNull(),
@@ -142,7 +156,10 @@ export const studyFeed = sqliteTable(
 		/** Controlled plans: the pump's top rate, L/h. */
 		maxRateLPerH: real('max_rate_l_per_h')
 	},
-	(t) => [index('study_feed_study_idx').on(t.studyId, t.position), index('study_feed_version_idx').on(t.versionId)]
+	(t) => [
+		index('study_feed_study_idx').on(t.studyId, t.position),
+		index('study_feed_version_idx').on(t.versionId)
+	]
 );
 
 export type OrganismProfileRow = typeof organismProfile.$inferSelect;

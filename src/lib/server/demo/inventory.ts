@@ -38,25 +38,158 @@ type DemoLot = {
 };
 
 export const DEMO_LOTS: DemoLot[] = [
-	{ component: 'sodium-chloride', supplier: 'Northfield Reagents', supplierLot: 'NR-24-0931', quantity: '5', unit: 'kg', receivedDaysAgo: 120, expiresInDays: 900, assayPercent: '99.7', waterContentPercent: '0.1' },
-	{ component: 'sodium-chloride', supplier: 'Harrowgate Fine Chemicals', supplierLot: 'HF-5521-B', quantity: '1', unit: 'kg', receivedDaysAgo: 30, expiresInDays: 1200, assayPercent: '99.9' },
-	{ component: 'dipotassium-hydrogen-phosphate', supplier: 'Northfield Reagents', supplierLot: 'NR-24-1107', quantity: '2.5', unit: 'kg', receivedDaysAgo: 90, expiresInDays: 700, assayPercent: '99.1', waterContentPercent: '0.4' },
-	{ component: 'potassium-dihydrogen-phosphate', supplier: 'Northfield Reagents', supplierLot: 'NR-24-1108', quantity: '2.5', unit: 'kg', receivedDaysAgo: 90, expiresInDays: 700, assayPercent: '99.5' },
-	{ component: 'ammonium-sulfate', supplier: 'Calder Lab Supply', supplierLot: 'CLS-77310', quantity: '5', unit: 'kg', receivedDaysAgo: 60, expiresInDays: 1000, assayPercent: '99.4' },
+	{
+		component: 'sodium-chloride',
+		supplier: 'Northfield Reagents',
+		supplierLot: 'NR-24-0931',
+		quantity: '5',
+		unit: 'kg',
+		receivedDaysAgo: 120,
+		expiresInDays: 900,
+		assayPercent: '99.7',
+		waterContentPercent: '0.1'
+	},
+	{
+		component: 'sodium-chloride',
+		supplier: 'Harrowgate Fine Chemicals',
+		supplierLot: 'HF-5521-B',
+		quantity: '1',
+		unit: 'kg',
+		receivedDaysAgo: 30,
+		expiresInDays: 1200,
+		assayPercent: '99.9'
+	},
+	{
+		component: 'dipotassium-hydrogen-phosphate',
+		supplier: 'Northfield Reagents',
+		supplierLot: 'NR-24-1107',
+		quantity: '2.5',
+		unit: 'kg',
+		receivedDaysAgo: 90,
+		expiresInDays: 700,
+		assayPercent: '99.1',
+		waterContentPercent: '0.4'
+	},
+	{
+		component: 'potassium-dihydrogen-phosphate',
+		supplier: 'Northfield Reagents',
+		supplierLot: 'NR-24-1108',
+		quantity: '2.5',
+		unit: 'kg',
+		receivedDaysAgo: 90,
+		expiresInDays: 700,
+		assayPercent: '99.5'
+	},
+	{
+		component: 'ammonium-sulfate',
+		supplier: 'Calder Lab Supply',
+		supplierLot: 'CLS-77310',
+		quantity: '5',
+		unit: 'kg',
+		receivedDaysAgo: 60,
+		expiresInDays: 1000,
+		assayPercent: '99.4'
+	},
 	// Expired: its date passed ten days ago, so it is never offered.
-	{ component: 'd-glucose', supplier: 'Brightwater Bioproducts', supplierLot: 'BWB-G-2291', quantity: '10', unit: 'kg', receivedDaysAgo: 400, expiresInDays: -10, assayPercent: '99.6', waterContentPercent: '0.2' },
+	{
+		component: 'd-glucose',
+		supplier: 'Brightwater Bioproducts',
+		supplierLot: 'BWB-G-2291',
+		quantity: '10',
+		unit: 'kg',
+		receivedDaysAgo: 400,
+		expiresInDays: -10,
+		assayPercent: '99.6',
+		waterContentPercent: '0.2'
+	},
 	// Expiring within the digest window.
-	{ component: 'd-glucose', supplier: 'Brightwater Bioproducts', supplierLot: 'BWB-G-2418', quantity: '10', unit: 'kg', receivedDaysAgo: 200, expiresInDays: 20, assayPercent: '99.8', waterContentPercent: '0.1' },
-	{ component: 'd-glucose', supplier: 'Northfield Reagents', supplierLot: 'NR-25-0044', quantity: '25', unit: 'kg', receivedDaysAgo: 15, expiresInDays: 700, assayPercent: '99.5', waterContentPercent: '0.3' },
+	{
+		component: 'd-glucose',
+		supplier: 'Brightwater Bioproducts',
+		supplierLot: 'BWB-G-2418',
+		quantity: '10',
+		unit: 'kg',
+		receivedDaysAgo: 200,
+		expiresInDays: 20,
+		assayPercent: '99.8',
+		waterContentPercent: '0.1'
+	},
+	{
+		component: 'd-glucose',
+		supplier: 'Northfield Reagents',
+		supplierLot: 'NR-25-0044',
+		quantity: '25',
+		unit: 'kg',
+		receivedDaysAgo: 15,
+		expiresInDays: 700,
+		assayPercent: '99.5',
+		waterContentPercent: '0.3'
+	},
 	// Low on stock: below its reorder level (set below).
-	{ component: 'magnesium-sulfate-heptahydrate', supplier: 'Harrowgate Fine Chemicals', supplierLot: 'HF-3390-M', quantity: '60', unit: 'g', receivedDaysAgo: 300, expiresInDays: 250, assayPercent: '99.2', waterContentPercent: '0.5' },
+	{
+		component: 'magnesium-sulfate-heptahydrate',
+		supplier: 'Harrowgate Fine Chemicals',
+		supplierLot: 'HF-3390-M',
+		quantity: '60',
+		unit: 'g',
+		receivedDaysAgo: 300,
+		expiresInDays: 250,
+		assayPercent: '99.2',
+		waterContentPercent: '0.5'
+	},
 	// In quarantine: received, certificate not yet checked.
-	{ component: 'magnesium-sulfate-heptahydrate', supplier: 'Northfield Reagents', supplierLot: 'NR-25-0102', quantity: '2', unit: 'kg', receivedDaysAgo: 2, expiresInDays: 900, assayPercent: '99.6', status: 'quarantine' },
-	{ component: 'yeast-extract', supplier: 'Brightwater Bioproducts', supplierLot: 'BWB-YE-118', quantity: '2', unit: 'kg', receivedDaysAgo: 45, expiresInDays: 400, dateKind: 'retest' },
-	{ component: 'soy-peptone', supplier: 'Calder Lab Supply', supplierLot: 'CLS-SP-4410', quantity: '2', unit: 'kg', receivedDaysAgo: 45, expiresInDays: 500 },
-	{ component: 'soy-peptone', supplier: 'Calder Lab Supply', supplierLot: 'CLS-SP-3907', quantity: '1', unit: 'kg', receivedDaysAgo: 200, expiresInDays: 300, status: { rejected: 'Certificate shows a microbial count above the specification.' } },
+	{
+		component: 'magnesium-sulfate-heptahydrate',
+		supplier: 'Northfield Reagents',
+		supplierLot: 'NR-25-0102',
+		quantity: '2',
+		unit: 'kg',
+		receivedDaysAgo: 2,
+		expiresInDays: 900,
+		assayPercent: '99.6',
+		status: 'quarantine'
+	},
+	{
+		component: 'yeast-extract',
+		supplier: 'Brightwater Bioproducts',
+		supplierLot: 'BWB-YE-118',
+		quantity: '2',
+		unit: 'kg',
+		receivedDaysAgo: 45,
+		expiresInDays: 400,
+		dateKind: 'retest'
+	},
+	{
+		component: 'soy-peptone',
+		supplier: 'Calder Lab Supply',
+		supplierLot: 'CLS-SP-4410',
+		quantity: '2',
+		unit: 'kg',
+		receivedDaysAgo: 45,
+		expiresInDays: 500
+	},
+	{
+		component: 'soy-peptone',
+		supplier: 'Calder Lab Supply',
+		supplierLot: 'CLS-SP-3907',
+		quantity: '1',
+		unit: 'kg',
+		receivedDaysAgo: 200,
+		expiresInDays: 300,
+		status: { rejected: 'Certificate shows a microbial count above the specification.' }
+	},
 	// A liquid kept by volume (its density is set below).
-	{ component: 'glycerol', supplier: 'Harrowgate Fine Chemicals', supplierLot: 'HF-GL-7702', quantity: '5', unit: 'L', receivedDaysAgo: 20, expiresInDays: 800, assayPercent: '99.5', waterContentPercent: '0.2' }
+	{
+		component: 'glycerol',
+		supplier: 'Harrowgate Fine Chemicals',
+		supplierLot: 'HF-GL-7702',
+		quantity: '5',
+		unit: 'L',
+		receivedDaysAgo: 20,
+		expiresInDays: 800,
+		assayPercent: '99.5',
+		waterContentPercent: '0.2'
+	}
 ];
 
 /** Reorder levels (g) and densities (g/mL) of the demo. Glycerol 1.261 g/mL at 20 °C: CRC Handbook, from memory. */
@@ -73,7 +206,12 @@ async function demoCertificate(title: string): Promise<CheckedUpload> {
 	const font = await doc.embedFont(StandardFonts.Helvetica);
 	page.drawText('Certificate of analysis (demo, invented)', { x: 30, y: 250, size: 14, font });
 	page.drawText(title, { x: 30, y: 220, size: 11, font });
-	page.drawText('Issued for the Pilot Plant North demonstration data only.', { x: 30, y: 190, size: 9, font });
+	page.drawText('Issued for the Pilot Plant North demonstration data only.', {
+		x: 30,
+		y: 190,
+		size: 9,
+		font
+	});
 	const bytes = await doc.save();
 	const type = sniffMediaType(bytes)!;
 	return {
@@ -96,9 +234,12 @@ export async function seedDemoInventory(today = isoToday()): Promise<number> {
 		const row = db.select().from(component).where(eq(component.id, componentId)).get();
 		if (!row) continue;
 		const set: Partial<typeof component.$inferInsert> = {};
-		if (settings.reorderLevelG !== undefined && row.reorderLevelG === null) set.reorderLevelG = settings.reorderLevelG;
-		if (settings.densityGPerMl !== undefined && row.densityGPerMl === null) set.densityGPerMl = settings.densityGPerMl;
-		if (Object.keys(set).length) db.update(component).set(set).where(eq(component.id, componentId)).run();
+		if (settings.reorderLevelG !== undefined && row.reorderLevelG === null)
+			set.reorderLevelG = settings.reorderLevelG;
+		if (settings.densityGPerMl !== undefined && row.densityGPerMl === null)
+			set.densityGPerMl = settings.densityGPerMl;
+		if (Object.keys(set).length)
+			db.update(component).set(set).where(eq(component.id, componentId)).run();
 	}
 	for (const demo of DEMO_LOTS) {
 		if (findDuplicateLot(demo.component, demo.supplier, demo.supplierLot)) continue;
@@ -120,13 +261,22 @@ export async function seedDemoInventory(today = isoToday()): Promise<number> {
 			db,
 			today
 		);
-		if (!checked.ok) throw new Error(`Demo lot ${demo.supplierLot} is invalid: ${JSON.stringify(checked.fieldErrors)}`);
+		if (!checked.ok)
+			throw new Error(
+				`Demo lot ${demo.supplierLot} is invalid: ${JSON.stringify(checked.fieldErrors)}`
+			);
 		const certificate = await demoCertificate(`${demo.supplier} ${demo.supplierLot}`);
 		const received = receiveLot(actor, checked.value, [certificate]);
 		const status = demo.status ?? 'released';
 		if (status === 'released') {
 			// An expired lot was released while it was in date; release it as of then, then it lapses.
-			setLotStatus(actor, received.id, 'released', 'Certificate checked against the specification.', receivedOn);
+			setLotStatus(
+				actor,
+				received.id,
+				'released',
+				'Certificate checked against the specification.',
+				receivedOn
+			);
 		} else if (typeof status === 'object') {
 			setLotStatus(actor, received.id, 'rejected', status.rejected);
 		}
@@ -137,8 +287,20 @@ export async function seedDemoInventory(today = isoToday()): Promise<number> {
 }
 
 const DEMO_BATCHES = [
-	{ recipe: 'NB-Min Salts 3', volumeL: 2, intendedUse: 'Fermenter F2, run 2026-14 (demo)', finished: true, ph: '7.02', osmolality: '262' },
-	{ recipe: 'PPN Yeast Extract Broth Y5', volumeL: 1, intendedUse: 'Seed flasks for run 2026-15 (demo)', finished: false }
+	{
+		recipe: 'NB-Min Salts 3',
+		volumeL: 2,
+		intendedUse: 'Fermenter F2, run 2026-14 (demo)',
+		finished: true,
+		ph: '7.02',
+		osmolality: '262'
+	},
+	{
+		recipe: 'PPN Yeast Extract Broth Y5',
+		volumeL: 1,
+		intendedUse: 'Seed flasks for run 2026-15 (demo)',
+		finished: false
+	}
 ];
 
 /** One batch made, signed and released (so where-used shows something), one planned. */
@@ -152,9 +314,19 @@ async function seedDemoBatches(today: string): Promise<number> {
 		const recipeRow = db.select().from(recipe).where(eq(recipe.name, demo.recipe)).get();
 		const version = recipeRow ? currentApprovedVersion(recipeRow.id) : undefined;
 		if (!recipeRow || !version) continue;
-		const existing = db.select({ id: batch.id }).from(batch).where(and(eq(batch.recipeId, recipeRow.id), eq(batch.intendedUse, demo.intendedUse))).get();
+		const existing = db
+			.select({ id: batch.id })
+			.from(batch)
+			.where(and(eq(batch.recipeId, recipeRow.id), eq(batch.intendedUse, demo.intendedUse)))
+			.get();
 		if (existing) continue;
-		const planned = createBatch(tech, { versionId: version.id, recipeId: recipeRow.id, targetVolumeMl: convertVolume(demo.volumeL, 'L', 'mL'), plannedOn: today, intendedUse: demo.intendedUse });
+		const planned = createBatch(tech, {
+			versionId: version.id,
+			recipeId: recipeRow.id,
+			targetVolumeMl: convertVolume(demo.volumeL, 'L', 'mL'),
+			plannedOn: today,
+			intendedUse: demo.intendedUse
+		});
 		added++;
 		if (!demo.finished) continue;
 		for (const line of buildSheetLines(planned, db, today)) {
@@ -165,11 +337,33 @@ async function seedDemoBatches(today: string): Promise<number> {
 			}
 		}
 		for (const line of buildSheetLines(planned, db, today)) {
-			recordLine(tech, planned.id, line.id, { actualText: line.requiredText, stockSource: line.kind === 'stock' ? 'Trace stock, demo bottle T2-001' : '' }, today);
+			recordLine(
+				tech,
+				planned.id,
+				line.id,
+				{
+					actualText: line.requiredText,
+					stockSource: line.kind === 'stock' ? 'Trace stock, demo bottle T2-001' : ''
+				},
+				today
+			);
 		}
 		recordMeasurements(tech, planned.id, { ph: demo.ph!, osmolality: demo.osmolality! });
-		await completeBatch(tech, planned.id, { password: DEMO_PASSWORD, comment: 'Demo batch.' }, today);
-		await reviewBatch({ id: reviewer.id, email: reviewer.email, roles: rolesOf(reviewer.id) }, planned.id, { decision: 'released', password: DEMO_PASSWORD, reason: 'Record complete; within tolerance.' });
+		await completeBatch(
+			tech,
+			planned.id,
+			{ password: DEMO_PASSWORD, comment: 'Demo batch.' },
+			today
+		);
+		await reviewBatch(
+			{ id: reviewer.id, email: reviewer.email, roles: rolesOf(reviewer.id) },
+			planned.id,
+			{
+				decision: 'released',
+				password: DEMO_PASSWORD,
+				reason: 'Record complete; within tolerance.'
+			}
+		);
 	}
 	return added;
 }

@@ -1,5 +1,10 @@
 import { eq } from 'drizzle-orm';
-import { blankLine, type DraftFieldsInput, type DraftLineInput, type RecipeKind } from '$lib/recipes';
+import {
+	blankLine,
+	type DraftFieldsInput,
+	type DraftLineInput,
+	type RecipeKind
+} from '$lib/recipes';
 import { db } from '../db';
 import { recipe } from '../db/schema';
 import { findUserByEmail, rolesOf } from '../people';
@@ -14,7 +19,13 @@ import { DEMO_PASSWORD } from './accounts';
  * were chosen for this demo, in realistic ranges.
  */
 
-type Line = [componentId: string, amount: number, unit: string, note?: string, shelfFormId?: string];
+type Line = [
+	componentId: string,
+	amount: number,
+	unit: string,
+	note?: string,
+	shelfFormId?: string
+];
 
 interface DemoRecipe {
 	name: string;
@@ -77,7 +88,13 @@ export const DEMO_RECIPES: DemoRecipe[] = [
 			['ammonium-sulfate', 2.4, 'g/L'],
 			['sodium-chloride', 0.6, 'g/L'],
 			['d-glucose', 12, 'g/L', 'Autoclave apart as a 10× solution'],
-			['magnesium-sulfate', 2, 'mM', 'Weighed as the heptahydrate; add after autoclaving', 'magnesium-sulfate-heptahydrate']
+			[
+				'magnesium-sulfate',
+				2,
+				'mM',
+				'Weighed as the heptahydrate; add after autoclaving',
+				'magnesium-sulfate-heptahydrate'
+			]
 		],
 		stocks: [[TRACE, 1, 'Filter-sterilised, added last']]
 	},
@@ -222,17 +239,29 @@ export const DEMO_RECIPES: DemoRecipe[] = [
 	}
 ];
 
-function draftOf(fields: Partial<DraftFieldsInput>, lines: Line[], stocks: DemoRecipe['stocks'], stockIds: Map<string, string>) {
-	const draftLines: DraftLineInput[] = lines.map(([componentId, amount, unit, note, shelfFormId]) => ({
-		...blankLine('component'),
-		componentId,
-		shelfFormId: shelfFormId ?? '',
-		amount: String(amount),
-		unit,
-		note: note ?? ''
-	}));
+function draftOf(
+	fields: Partial<DraftFieldsInput>,
+	lines: Line[],
+	stocks: DemoRecipe['stocks'],
+	stockIds: Map<string, string>
+) {
+	const draftLines: DraftLineInput[] = lines.map(
+		([componentId, amount, unit, note, shelfFormId]) => ({
+			...blankLine('component'),
+			componentId,
+			shelfFormId: shelfFormId ?? '',
+			amount: String(amount),
+			unit,
+			note: note ?? ''
+		})
+	);
 	for (const [name, ml, note] of stocks ?? []) {
-		draftLines.push({ ...blankLine('stock'), stockRecipeId: stockIds.get(name)!, amount: String(ml), note: note ?? '' });
+		draftLines.push({
+			...blankLine('stock'),
+			stockRecipeId: stockIds.get(name)!,
+			amount: String(ml),
+			note: note ?? ''
+		});
 	}
 	const allFields: DraftFieldsInput = {
 		targetPh: '',
@@ -254,7 +283,11 @@ export async function seedDemoRecipes(): Promise<number> {
 	const approverUser = findUserByEmail('engineer@demo.test');
 	if (!author || !approverUser) return 0;
 	const actor = { id: author.id, email: author.email };
-	const approver = { id: approverUser.id, email: approverUser.email, roles: rolesOf(approverUser.id) };
+	const approver = {
+		id: approverUser.id,
+		email: approverUser.email,
+		roles: rolesOf(approverUser.id)
+	};
 	const ids = new Map<string, string>();
 	let added = 0;
 	for (const demo of DEMO_RECIPES) {
@@ -267,19 +300,34 @@ export async function seedDemoRecipes(): Promise<number> {
 		ids.set(demo.name, recipeId);
 		const version = findVersion(recipeId, 1)!;
 		const checked = checkDraft(draftOf(demo.fields, demo.lines, demo.stocks, ids), recipeId);
-		if (!checked.ok) throw new Error(`Demo recipe ${demo.name} is invalid: ${JSON.stringify(checked.fieldErrors)}`);
+		if (!checked.ok)
+			throw new Error(
+				`Demo recipe ${demo.name} is invalid: ${JSON.stringify(checked.fieldErrors)}`
+			);
 		const revision = saveDraft(actor, version.id, version.revision, checked.value);
 		if (demo.state !== 'draft') submitForReview(actor, version.id, revision);
 		if (demo.state === 'approved') {
-			await signVersion(approver, version.id, { password: DEMO_PASSWORD, meaning: 'approved', comment: 'Checked against the target range; fine for use.' });
+			await signVersion(approver, version.id, {
+				password: DEMO_PASSWORD,
+				meaning: 'approved',
+				comment: 'Checked against the target range; fine for use.'
+			});
 		}
 		if (demo.nextDraft) {
 			const next = startDraftFrom(actor, version.id);
 			const nextChecked = checkDraft(
-				draftOf({ ...demo.fields, changeNote: demo.nextDraft.changeNote }, demo.nextDraft.lines, demo.stocks, ids),
+				draftOf(
+					{ ...demo.fields, changeNote: demo.nextDraft.changeNote },
+					demo.nextDraft.lines,
+					demo.stocks,
+					ids
+				),
 				recipeId
 			);
-			if (!nextChecked.ok) throw new Error(`Demo recipe ${demo.name} v2 is invalid: ${JSON.stringify(nextChecked.fieldErrors)}`);
+			if (!nextChecked.ok)
+				throw new Error(
+					`Demo recipe ${demo.name} v2 is invalid: ${JSON.stringify(nextChecked.fieldErrors)}`
+				);
 			saveDraft(actor, next.id, next.revision, nextChecked.value);
 		}
 		added++;

@@ -17,7 +17,12 @@ export async function seedDemo(): Promise<number> {
 		const id = await createUser({ ...account, password: DEMO_PASSWORD });
 		recordAudit(
 			{ id: null, email: null },
-			{ action: 'demo.account_created', subjectType: 'user', subjectId: id, detail: { email: account.email, roles: account.roles } }
+			{
+				action: 'demo.account_created',
+				subjectType: 'user',
+				subjectId: id,
+				detail: { email: account.email, roles: account.roles }
+			}
 		);
 		added++;
 	}

@@ -1,5 +1,13 @@
 import { eq } from 'drizzle-orm';
-import { AIR_O2_MOLE_FRACTION, STANDARD_BIOMASS_FORMULA, findBiomassComposition, organicMassFractions, parseFormula, solveAerobicGrowth, statementsOfComposition } from '$chemistry';
+import {
+	AIR_O2_MOLE_FRACTION,
+	STANDARD_BIOMASS_FORMULA,
+	findBiomassComposition,
+	organicMassFractions,
+	parseFormula,
+	solveAerobicGrowth,
+	statementsOfComposition
+} from '$chemistry';
 import { blankLine, type DraftFieldsInput, type DraftLineInput } from '$lib/recipes';
 import type { FeedPlanStrategy } from '$lib/studies';
 import { db } from '../db';
@@ -21,12 +29,15 @@ import { DEMO_PASSWORD } from './accounts';
  * in `$chemistry` and carry their source.
  */
 
-const DEMO_NOTE = 'Demo values for the Pilot Plant North scenario: replace them with your own measurements.';
+const DEMO_NOTE =
+	'Demo values for the Pilot Plant North scenario: replace them with your own measurements.';
 
 function presetFractions(id: string) {
 	const preset = findBiomassComposition(id)!;
 	return {
-		elementalFractions: Object.fromEntries(Object.entries(preset.massFractions).map(([k, v]) => [k, Number(v.value.toPrecision(4))])),
+		elementalFractions: Object.fromEntries(
+			Object.entries(preset.massFractions).map(([k, v]) => [k, Number(v.value.toPrecision(4))])
+		),
 		fractionsSource: preset.source,
 		elementStatements: statementsOfComposition(preset),
 		ashFraction: preset.ashFraction?.value ?? null,
@@ -50,21 +61,38 @@ const BACTERIUM_ASH = 0.08;
  */
 function bacteriumFractions() {
 	const neidhardt = presetFractions('bacterium-neidhardt-1990');
-	const organic = organicMassFractions(parseFormula(STANDARD_BIOMASS_FORMULA).elements, BACTERIUM_ASH);
+	const organic = organicMassFractions(
+		parseFormula(STANDARD_BIOMASS_FORMULA).elements,
+		BACTERIUM_ASH
+	);
 	const source = `C, H, O, N: standard formula ${STANDARD_BIOMASS_FORMULA} (Roels 1983; Heijnen) with ${BACTERIUM_ASH * 100} % ash (demo value); other elements: Neidhardt, Ingraham & Schaechter (1990)`;
 	return {
-		elementalFractions: { ...neidhardt.elementalFractions, ...Object.fromEntries(Object.entries(organic).map(([k, v]) => [k, Number(v.toPrecision(4))])) },
+		elementalFractions: {
+			...neidhardt.elementalFractions,
+			...Object.fromEntries(Object.entries(organic).map(([k, v]) => [k, Number(v.toPrecision(4))]))
+		},
 		fractionsSource: source,
 		elementStatements: {
 			...neidhardt.elementStatements,
-			...Object.fromEntries(Object.keys(organic).map((k) => [k, { confidence: 'derived' as const, source: `Standard formula ${STANDARD_BIOMASS_FORMULA} (Roels 1983; Heijnen) with ${BACTERIUM_ASH * 100} % ash (demo value)` }]))
+			...Object.fromEntries(
+				Object.keys(organic).map((k) => [
+					k,
+					{
+						confidence: 'derived' as const,
+						source: `Standard formula ${STANDARD_BIOMASS_FORMULA} (Roels 1983; Heijnen) with ${BACTERIUM_ASH * 100} % ash (demo value)`
+					}
+				])
+			)
 		},
 		ashFraction: BACTERIUM_ASH,
 		biomassFormula: STANDARD_BIOMASS_FORMULA
 	};
 }
 
-type ProfileValues = Omit<OrganismProfileRow, 'id' | 'createdAt' | 'updatedAt' | 'revision' | 'isDemo'>;
+type ProfileValues = Omit<
+	OrganismProfileRow,
+	'id' | 'createdAt' | 'updatedAt' | 'revision' | 'isDemo'
+>;
 
 export const DEMO_PROFILES: ProfileValues[] = [
 	{
@@ -80,7 +108,12 @@ export const DEMO_PROFILES: ProfileValues[] = [
 		yieldXSMethod: 'respiratoryQuotient',
 		respiratoryQuotient: BACTERIUM_RQ,
 		yieldXSGPerG: Number(
-			solveAerobicGrowth({ substrateFormula: 'C6H12O6', biomassFormula: STANDARD_BIOMASS_FORMULA, ashFraction: BACTERIUM_ASH, measured: { kind: 'respiratoryQuotient', molCo2PerMolO2: BACTERIUM_RQ } }).biomassOnSubstrateGPerG.toPrecision(4)
+			solveAerobicGrowth({
+				substrateFormula: 'C6H12O6',
+				biomassFormula: STANDARD_BIOMASS_FORMULA,
+				ashFraction: BACTERIUM_ASH,
+				measured: { kind: 'respiratoryQuotient', molCo2PerMolO2: BACTERIUM_RQ }
+			}).biomassOnSubstrateGPerG.toPrecision(4)
 		),
 		substrateYields: [],
 		muMaxPerH: 0.6,
@@ -188,7 +221,12 @@ export const DEMO_VESSELS: VesselForm[] = [
 
 type Line = [componentId: string, amount: number, unit: string];
 
-const DEMO_FEEDS: { name: string; lines: Line[]; stock?: [string, number]; instructions: string }[] = [
+const DEMO_FEEDS: {
+	name: string;
+	lines: Line[];
+	stock?: [string, number];
+	instructions: string;
+}[] = [
 	{
 		name: 'PPN Glycerol Feed Y2',
 		lines: [
@@ -200,7 +238,8 @@ const DEMO_FEEDS: { name: string; lines: Line[]; stock?: [string, number]; instr
 			['zinc-sulfate-heptahydrate', 0.1, 'g/L']
 		],
 		stock: ['PPN Trace Elements T2', 30],
-		instructions: 'Concentrated glycerol and salts feed for the yeast fed-batch. Dissolve the salts in 400 mL warm water, add the glycerol, make up to 1 L and filter through 0.2 µm. Add the calcium last, slowly, with stirring.'
+		instructions:
+			'Concentrated glycerol and salts feed for the yeast fed-batch. Dissolve the salts in 400 mL warm water, add the glycerol, make up to 1 L and filter through 0.2 µm. Add the calcium last, slowly, with stirring.'
 	},
 	{
 		name: 'PPN Nitrogen Top-up N2',
@@ -209,7 +248,8 @@ const DEMO_FEEDS: { name: string; lines: Line[]; stock?: [string, number]; instr
 			['iron-ii-sulfate-heptahydrate', 2, 'g/L'],
 			['zinc-sulfate-heptahydrate', 0.3, 'g/L']
 		],
-		instructions: 'Nitrogen and trace-metal top-up feed, carrying no carbon. Dissolve the ammonium sulfate in purified water, then the iron and zinc salts, make up to volume and filter through 0.2 µm. Wear eye protection: the solution is acidic. No calcium or phosphate here: with this much sulfate they would precipitate.'
+		instructions:
+			'Nitrogen and trace-metal top-up feed, carrying no carbon. Dissolve the ammonium sulfate in purified water, then the iron and zinc salts, make up to volume and filter through 0.2 µm. Wear eye protection: the solution is acidic. No calcium or phosphate here: with this much sulfate they would precipitate.'
 	},
 	{
 		name: 'PPN Glucose Feed B1',
@@ -217,7 +257,8 @@ const DEMO_FEEDS: { name: string; lines: Line[]; stock?: [string, number]; instr
 			['d-glucose', 550, 'g/L'],
 			['magnesium-sulfate-heptahydrate', 10, 'g/L']
 		],
-		instructions: 'Glucose feed for the bacterial fed-batch. Dissolve the glucose in hot purified water with stirring (scald risk), add the magnesium sulfate, make up to volume and autoclave.'
+		instructions:
+			'Glucose feed for the bacterial fed-batch. Dissolve the glucose in hot purified water with stirring (scald risk), add the magnesium sulfate, make up to volume and autoclave.'
 	}
 ];
 
@@ -240,22 +281,40 @@ async function seedDemoFeeds(): Promise<number> {
 	let added = 0;
 	for (const feed of DEMO_FEEDS) {
 		if (db.select().from(recipe).where(eq(recipe.name, feed.name)).get()) continue;
-		const lines: DraftLineInput[] = feed.lines.map(([componentId, amount, unit]) => ({ ...blankLine('component'), componentId, amount: String(amount), unit }));
+		const lines: DraftLineInput[] = feed.lines.map(([componentId, amount, unit]) => ({
+			...blankLine('component'),
+			componentId,
+			amount: String(amount),
+			unit
+		}));
 		if (feed.stock) {
 			const stock = db.select().from(recipe).where(eq(recipe.name, feed.stock[0])).get();
-			if (stock) lines.push({ ...blankLine('stock'), stockRecipeId: stock.id, amount: String(feed.stock[1]) });
+			if (stock)
+				lines.push({
+					...blankLine('stock'),
+					stockRecipeId: stock.id,
+					amount: String(feed.stock[1])
+				});
 		}
 		const recipeId = createRecipe(actor, { name: feed.name, kind: 'feed' });
 		const version = findVersion(recipeId, 1)!;
-		const checked = checkDraft({ fields: { ...FEED_FIELDS, instructions: feed.instructions }, lines }, recipeId);
-		if (!checked.ok) throw new Error(`Demo feed ${feed.name} is invalid: ${JSON.stringify(checked.fieldErrors)}`);
+		const checked = checkDraft(
+			{ fields: { ...FEED_FIELDS, instructions: feed.instructions }, lines },
+			recipeId
+		);
+		if (!checked.ok)
+			throw new Error(`Demo feed ${feed.name} is invalid: ${JSON.stringify(checked.fieldErrors)}`);
 		const revision = saveDraft(actor, version.id, version.revision, checked.value);
 		submitForReview(actor, version.id, revision);
-		await signVersion({ id: approverUser.id, email: approverUser.email, roles: rolesOf(approverUser.id) }, version.id, {
-			password: DEMO_PASSWORD,
-			meaning: 'approved',
-			comment: 'Fine for the demo fed-batch.'
-		});
+		await signVersion(
+			{ id: approverUser.id, email: approverUser.email, roles: rolesOf(approverUser.id) },
+			version.id,
+			{
+				password: DEMO_PASSWORD,
+				meaning: 'approved',
+				comment: 'Fine for the demo fed-batch.'
+			}
+		);
 		added++;
 	}
 	return added;
@@ -267,12 +326,20 @@ function versionIdOf(recipeName: string): string | null {
 	return (currentApprovedVersion(r.id) ?? latestVersion(r.id))?.id ?? null;
 }
 
-const idByName = (table: typeof organismProfile | typeof vessel, name: string) => db.select({ id: table.id }).from(table).where(eq(table.name, name)).get()?.id ?? null;
+const idByName = (table: typeof organismProfile | typeof vessel, name: string) =>
+	db.select({ id: table.id }).from(table).where(eq(table.name, name)).get()?.id ?? null;
 
 interface DemoFeed {
 	recipe: string;
 	volumeL: number;
-	plan: { Strategy: FeedPlanStrategy; StartH: number; MuSetPerH?: number; SetpointGPerL?: number; DoSetpointPercent?: number; MaxRateLPerH?: number };
+	plan: {
+		Strategy: FeedPlanStrategy;
+		StartH: number;
+		MuSetPerH?: number;
+		SetpointGPerL?: number;
+		DoSetpointPercent?: number;
+		MaxRateLPerH?: number;
+	};
 }
 
 interface DemoStudy {
@@ -281,7 +348,10 @@ interface DemoStudy {
 	profile: string;
 	vessel: string;
 	feeds: DemoFeed[];
-	plan: Omit<StudyForm, 'name' | 'basalVersionId' | 'profileId' | 'vesselId' | `feed${number}${string}`>;
+	plan: Omit<
+		StudyForm,
+		'name' | 'basalVersionId' | 'profileId' | 'vesselId' | `feed${number}${string}`
+	>;
 }
 
 export const DEMO_STUDIES: DemoStudy[] = [
@@ -290,7 +360,9 @@ export const DEMO_STUDIES: DemoStudy[] = [
 		basal: 'PPN Yeast-Glycerol A',
 		profile: 'Demo yeast PPN-Y2',
 		vessel: 'Bench stirred tank BST-10',
-		feeds: [{ recipe: 'PPN Glycerol Feed Y2', volumeL: 2, plan: { Strategy: 'constant', StartH: 24 } }],
+		feeds: [
+			{ recipe: 'PPN Glycerol Feed Y2', volumeL: 2, plan: { Strategy: 'constant', StartH: 24 } }
+		],
 		plan: {
 			targetBasis: 'biomassGPerL',
 			targetValue: 40,
@@ -303,7 +375,8 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
 			heatPerMolO2KJ: null,
-			notes: 'Demo study: glycerol batch, then a constant glycerol-salts feed; O2-enriched air from the batch phase on.'
+			notes:
+				'Demo study: glycerol batch, then a constant glycerol-salts feed; O2-enriched air from the batch phase on.'
 		}
 	},
 	{
@@ -311,7 +384,13 @@ export const DEMO_STUDIES: DemoStudy[] = [
 		basal: 'NB-Min Salts 3',
 		profile: 'Demo bacterium PPN-B1',
 		vessel: 'Pilot vessel PV-200',
-		feeds: [{ recipe: 'PPN Glucose Feed B1', volumeL: 20, plan: { Strategy: 'exponential', StartH: 10, MuSetPerH: 0.15 } }],
+		feeds: [
+			{
+				recipe: 'PPN Glucose Feed B1',
+				volumeL: 20,
+				plan: { Strategy: 'exponential', StartH: 10, MuSetPerH: 0.15 }
+			}
+		],
 		plan: {
 			targetBasis: 'biomassGPerL',
 			targetValue: 25,
@@ -324,7 +403,8 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
 			heatPerMolO2KJ: null,
-			notes: 'Demo study: the target is set deliberately high for this medium, to show what runs out first.'
+			notes:
+				'Demo study: the target is set deliberately high for this medium, to show what runs out first.'
 		}
 	},
 	{
@@ -333,7 +413,11 @@ export const DEMO_STUDIES: DemoStudy[] = [
 		profile: 'Demo yeast PPN-Y2',
 		vessel: 'Bench stirred tank BST-10',
 		feeds: [
-			{ recipe: 'PPN Glycerol Feed Y2', volumeL: 3, plan: { Strategy: 'doStat', StartH: 24, DoSetpointPercent: 35, MaxRateLPerH: 0.08 } },
+			{
+				recipe: 'PPN Glycerol Feed Y2',
+				volumeL: 3,
+				plan: { Strategy: 'doStat', StartH: 24, DoSetpointPercent: 35, MaxRateLPerH: 0.08 }
+			},
 			{ recipe: 'PPN Nitrogen Top-up N2', volumeL: 0.4, plan: { Strategy: 'constant', StartH: 24 } }
 		],
 		plan: {
@@ -348,13 +432,16 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
 			heatPerMolO2KJ: null,
-			notes: 'Demo study: glycerol-salts feed on DO-stat (the pump runs while DO is above 35 % of air saturation, that is once the batch glycerol is gone), with a constant nitrogen and trace-metal top-up alongside; O2-enriched air.'
+			notes:
+				'Demo study: glycerol-salts feed on DO-stat (the pump runs while DO is above 35 % of air saturation, that is once the batch glycerol is gone), with a constant nitrogen and trace-metal top-up alongside; O2-enriched air.'
 		}
 	}
 ];
 
 /** The form fields of a demo study's feeds, as the study form would send them. */
-function feedFormFields(feeds: (DemoFeed & { versionId: string })[]): Record<string, string | number> {
+function feedFormFields(
+	feeds: (DemoFeed & { versionId: string })[]
+): Record<string, string | number> {
 	return Object.fromEntries(
 		feeds.flatMap((f, i) => [
 			[`feed${i + 1}VersionId`, f.versionId],
@@ -387,7 +474,14 @@ export async function seedDemoStudies(): Promise<number> {
 		const vesselId = idByName(vessel, s.vessel);
 		const feeds = s.feeds.map((f) => ({ ...f, versionId: versionIdOf(f.recipe) }));
 		if (!basalVersionId || !profileId || !vesselId || feeds.some((f) => !f.versionId)) continue;
-		const form = { name: s.name, basalVersionId, profileId, vesselId, ...s.plan, ...feedFormFields(feeds as (DemoFeed & { versionId: string })[]) } as StudyForm;
+		const form = {
+			name: s.name,
+			basalVersionId,
+			profileId,
+			vesselId,
+			...s.plan,
+			...feedFormFields(feeds as (DemoFeed & { versionId: string })[])
+		} as StudyForm;
 		createStudy(actor, form);
 		added++;
 	}

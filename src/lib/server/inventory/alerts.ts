@@ -1,5 +1,10 @@
 import { isNotNull } from 'drizzle-orm';
-import { DEFAULT_EXPIRY_WINDOW_DAYS, isoToday, isUsableLot, type QuantityKind } from '$lib/inventory';
+import {
+	DEFAULT_EXPIRY_WINDOW_DAYS,
+	isoToday,
+	isUsableLot,
+	type QuantityKind
+} from '$lib/inventory';
 import { db, type Db } from '../db';
 import { component } from '../db/schema';
 import { listLots, type LotRow } from './lots';
@@ -18,11 +23,18 @@ export interface ExpiringLot extends LotRow {
 }
 
 /** Lots with stock that are not rejected and whose date falls within `days` (already expired included). */
-export function expiringLots(days = DEFAULT_EXPIRY_WINDOW_DAYS, today = isoToday(), reader: Reader = db): ExpiringLot[] {
+export function expiringLots(
+	days = DEFAULT_EXPIRY_WINDOW_DAYS,
+	today = isoToday(),
+	reader: Reader = db
+): ExpiringLot[] {
 	const limit = addDays(today, days);
 	return listLots({ expiringBefore: limit }, today, reader)
 		.filter((l) => l.status !== 'rejected' && l.onHand > 0)
-		.map((l) => ({ ...l, daysLeft: Math.round((Date.parse(l.expiresOn) - Date.parse(today)) / 86_400_000) }));
+		.map((l) => ({
+			...l,
+			daysLeft: Math.round((Date.parse(l.expiresOn) - Date.parse(today)) / 86_400_000)
+		}));
 }
 
 export interface LowComponent {
@@ -37,7 +49,12 @@ export interface LowComponent {
 /** Components whose released, in-date stock is below their reorder level. */
 export function componentsBelowReorder(today = isoToday(), reader: Reader = db): LowComponent[] {
 	const withLevel = reader
-		.select({ id: component.id, name: component.name, reorderLevelG: component.reorderLevelG, densityGPerMl: component.densityGPerMl })
+		.select({
+			id: component.id,
+			name: component.name,
+			reorderLevelG: component.reorderLevelG,
+			densityGPerMl: component.densityGPerMl
+		})
 		.from(component)
 		.where(isNotNull(component.reorderLevelG))
 		.all();
@@ -48,8 +65,19 @@ export function componentsBelowReorder(today = isoToday(), reader: Reader = db):
 	return withLevel
 		.map((c) => {
 			const own = lots.filter((l) => l.componentId === c.id);
-			const usableG = own.reduce((sum, l) => sum + (lotQuantityToGrams(l.onHand, l.quantityKind as QuantityKind, c.densityGPerMl) ?? 0), 0);
-			return { componentId: c.id, componentName: c.name, reorderLevelG: c.reorderLevelG!, usableG, lots: own.length };
+			const usableG = own.reduce(
+				(sum, l) =>
+					sum +
+					(lotQuantityToGrams(l.onHand, l.quantityKind as QuantityKind, c.densityGPerMl) ?? 0),
+				0
+			);
+			return {
+				componentId: c.id,
+				componentName: c.name,
+				reorderLevelG: c.reorderLevelG!,
+				usableG,
+				lots: own.length
+			};
 		})
 		.filter((c) => c.usableG < c.reorderLevelG)
 		.sort((a, b) => a.componentName.localeCompare(b.componentName));
@@ -61,9 +89,13 @@ export function quarantinedLots(today = isoToday(), reader: Reader = db): LotRow
 
 export function componentsWithStockSettings(reader: Reader = db) {
 	return reader
-		.select({ id: component.id, name: component.name, reorderLevelG: component.reorderLevelG, densityGPerMl: component.densityGPerMl })
+		.select({
+			id: component.id,
+			name: component.name,
+			reorderLevelG: component.reorderLevelG,
+			densityGPerMl: component.densityGPerMl
+		})
 		.from(component)
 		.orderBy(component.name)
 		.all();
 }
-

@@ -12,8 +12,18 @@ export const MAX_CERTIFICATE_BYTES = 10 * 1024 * 1024;
 export const MAX_CERTIFICATES_PER_UPLOAD = 10;
 
 const SIGNATURES: { mediaType: string; extension: string; label: string; bytes: number[] }[] = [
-	{ mediaType: 'application/pdf', extension: 'pdf', label: 'PDF', bytes: [0x25, 0x50, 0x44, 0x46, 0x2d] },
-	{ mediaType: 'image/png', extension: 'png', label: 'PNG', bytes: [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a] },
+	{
+		mediaType: 'application/pdf',
+		extension: 'pdf',
+		label: 'PDF',
+		bytes: [0x25, 0x50, 0x44, 0x46, 0x2d]
+	},
+	{
+		mediaType: 'image/png',
+		extension: 'png',
+		label: 'PNG',
+		bytes: [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]
+	},
 	{ mediaType: 'image/jpeg', extension: 'jpg', label: 'JPEG', bytes: [0xff, 0xd8, 0xff] }
 ];
 
@@ -39,7 +49,11 @@ export function cleanDisplayName(name: string, extension: string): string {
 		.trim()
 		.slice(0, 120);
 	if (!cleaned) cleaned = 'certificate';
-	if (!cleaned.toLowerCase().endsWith(`.${extension}`) && !(extension === 'jpg' && /\.jpe?g$/i.test(cleaned))) cleaned += `.${extension}`;
+	if (
+		!cleaned.toLowerCase().endsWith(`.${extension}`) &&
+		!(extension === 'jpg' && /\.jpe?g$/i.test(cleaned))
+	)
+		cleaned += `.${extension}`;
 	return cleaned;
 }
 
@@ -53,16 +67,25 @@ export interface CheckedUpload {
 }
 
 /** Checks one uploaded file; the message says exactly why a file is refused. */
-export async function checkCertificateFile(file: File, field = 'certificates'): Promise<CheckedUpload> {
+export async function checkCertificateFile(
+	file: File,
+	field = 'certificates'
+): Promise<CheckedUpload> {
 	const shownName = file.name.split(/[\\/]/).pop() || 'the file';
 	if (file.size === 0) throw new RuleError(`“${shownName}” is empty.`, { field });
 	if (file.size > MAX_CERTIFICATE_BYTES) {
-		throw new RuleError(`“${shownName}” is ${(file.size / 1024 / 1024).toFixed(1)} MB; certificates may be up to 10 MB.`, { field });
+		throw new RuleError(
+			`“${shownName}” is ${(file.size / 1024 / 1024).toFixed(1)} MB; certificates may be up to 10 MB.`,
+			{ field }
+		);
 	}
 	const bytes = new Uint8Array(await file.arrayBuffer());
 	const type = sniffMediaType(bytes);
 	if (!type) {
-		throw new RuleError(`“${shownName}” is not a PDF, PNG or JPEG file (judged from its contents, not its name); it was not stored.`, { field });
+		throw new RuleError(
+			`“${shownName}” is not a PDF, PNG or JPEG file (judged from its contents, not its name); it was not stored.`,
+			{ field }
+		);
 	}
 	return {
 		bytes,
@@ -75,9 +98,15 @@ export async function checkCertificateFile(file: File, field = 'certificates'): 
 }
 
 /** The non-empty files of a multi-file input, each checked; any bad file refuses them all. */
-export async function checkCertificateFiles(formData: FormData, field = 'certificates'): Promise<CheckedUpload[]> {
-	const files = formData.getAll(field).filter((f): f is File => f instanceof File && (f.size > 0 || f.name !== ''));
-	if (files.length > MAX_CERTIFICATES_PER_UPLOAD) throw new RuleError(`Upload at most ${MAX_CERTIFICATES_PER_UPLOAD} files at once.`, { field });
+export async function checkCertificateFiles(
+	formData: FormData,
+	field = 'certificates'
+): Promise<CheckedUpload[]> {
+	const files = formData
+		.getAll(field)
+		.filter((f): f is File => f instanceof File && (f.size > 0 || f.name !== ''));
+	if (files.length > MAX_CERTIFICATES_PER_UPLOAD)
+		throw new RuleError(`Upload at most ${MAX_CERTIFICATES_PER_UPLOAD} files at once.`, { field });
 	const checked: CheckedUpload[] = [];
 	for (const file of files) checked.push(await checkCertificateFile(file, field));
 	return checked;
@@ -113,7 +142,13 @@ export function removeCertificateFiles(storedNames: string[]): void {
 
 type Writer = Pick<Db, 'insert'>;
 
-export function insertCertificateRows(writer: Writer, lotId: string, uploadedById: string, uploads: CheckedUpload[], storedNames: string[]): void {
+export function insertCertificateRows(
+	writer: Writer,
+	lotId: string,
+	uploadedById: string,
+	uploads: CheckedUpload[],
+	storedNames: string[]
+): void {
 	uploads.forEach((upload, i) => {
 		writer
 			.insert(lotCertificate)
@@ -131,8 +166,13 @@ export function insertCertificateRows(writer: Writer, lotId: string, uploadedByI
 }
 
 /** Adds certificates to an existing lot: files first, then rows and audit in one transaction. */
-export function attachCertificates(actor: Actor & { id: string }, lotId: string, uploads: CheckedUpload[]): number {
-	if (uploads.length === 0) throw new RuleError('Choose at least one file to upload.', { field: 'certificates' });
+export function attachCertificates(
+	actor: Actor & { id: string },
+	lotId: string,
+	uploads: CheckedUpload[]
+): number {
+	if (uploads.length === 0)
+		throw new RuleError('Choose at least one file to upload.', { field: 'certificates' });
 	const found = db.select({ id: lot.id, code: lot.code }).from(lot).where(eq(lot.id, lotId)).get();
 	if (!found) throw new RuleError('No lot with this id.', { status: 404 });
 	const stored = writeCertificateFiles(uploads);
@@ -141,7 +181,12 @@ export function attachCertificates(actor: Actor & { id: string }, lotId: string,
 			insertCertificateRows(tx, lotId, actor.id, uploads, stored);
 			recordAudit(
 				actor,
-				{ action: 'lot.certificate_added', subjectType: 'lot', subjectId: lotId, detail: { code: found.code, files: uploads.map((u) => u.displayName) } },
+				{
+					action: 'lot.certificate_added',
+					subjectType: 'lot',
+					subjectId: lotId,
+					detail: { code: found.code, files: uploads.map((u) => u.displayName) }
+				},
 				tx
 			);
 		});
@@ -153,7 +198,12 @@ export function attachCertificates(actor: Actor & { id: string }, lotId: string,
 }
 
 export function certificatesOf(lotId: string): LotCertificate[] {
-	return db.select().from(lotCertificate).where(eq(lotCertificate.lotId, lotId)).orderBy(asc(lotCertificate.uploadedAt)).all();
+	return db
+		.select()
+		.from(lotCertificate)
+		.where(eq(lotCertificate.lotId, lotId))
+		.orderBy(asc(lotCertificate.uploadedAt))
+		.all();
 }
 
 export function findCertificate(lotId: string, certificateId: string): LotCertificate | undefined {
@@ -163,16 +213,22 @@ export function findCertificate(lotId: string, certificateId: string): LotCertif
 
 export function readCertificateBytes(row: LotCertificate): Buffer {
 	// The stored name is ours (random hex + extension); check it anyway before touching the disk.
-	if (!/^[0-9a-f]{36}\.(pdf|png|jpg)$/.test(row.storedName)) throw new RuleError('This certificate cannot be read.', { status: 404 });
+	if (!/^[0-9a-f]{36}\.(pdf|png|jpg)$/.test(row.storedName))
+		throw new RuleError('This certificate cannot be read.', { status: 404 });
 	try {
 		return readFileSync(join(certificatesFolder(), row.storedName));
 	} catch {
-		throw new RuleError('The file of this certificate is missing from the uploads folder.', { status: 404 });
+		throw new RuleError('The file of this certificate is missing from the uploads folder.', {
+			status: 404
+		});
 	}
 }
 
 /** Content-Disposition with an ASCII fallback and the UTF-8 name (RFC 6266 / RFC 5987). */
-export function contentDisposition(displayName: string, disposition: 'inline' | 'attachment' = 'attachment'): string {
+export function contentDisposition(
+	displayName: string,
+	disposition: 'inline' | 'attachment' = 'attachment'
+): string {
 	const ascii = displayName.replace(/[^\x20-\x7e]/g, '_').replace(/["\\]/g, '_');
 	return `${disposition}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(displayName)}`;
 }

@@ -24,7 +24,15 @@ const IMPORT_COLUMNS: Record<string, keyof LotText> = {
 	water_content_percent: 'waterContentPercent',
 	note: 'note'
 };
-const REQUIRED = ['component', 'supplier', 'supplier_lot', 'quantity', 'unit', 'received_on', 'expires_on'];
+const REQUIRED = [
+	'component',
+	'supplier',
+	'supplier_lot',
+	'quantity',
+	'unit',
+	'received_on',
+	'expires_on'
+];
 export const LOT_IMPORT_TEMPLATE = `${Object.keys(IMPORT_COLUMNS).join(',')}\r\nsodium-chloride,Northfield Reagents,NR-24-0931,5,kg,${isoToday()},2029-06-30,expiry,Room temperature,99.8,,0.1,\r\n`;
 
 export interface LotImportRow {
@@ -43,21 +51,38 @@ export interface LotImportPreview {
 /** Checks every row as it would be received, including duplicates within the file itself. */
 export function previewLotCsv(text: string, today = isoToday()): LotImportPreview {
 	const table = parseCsv(text, { required: REQUIRED, allowed: Object.keys(IMPORT_COLUMNS) });
-	if (table.rows.length === 0) throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
-	if (table.rows.length > 1000) throw new RuleError('At most 1000 lots per import; split the file.', { field: 'csv' });
+	if (table.rows.length === 0)
+		throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
+	if (table.rows.length > 1000)
+		throw new RuleError('At most 1000 lots per import; split the file.', { field: 'csv' });
 	const seen = new Map<string, number>();
 	const rows = table.rows.map(({ rowNumber, values }) => {
 		const input: LotText = {};
-		for (const [column, field] of Object.entries(IMPORT_COLUMNS)) input[field] = values[column] ?? '';
+		for (const [column, field] of Object.entries(IMPORT_COLUMNS))
+			input[field] = values[column] ?? '';
 		const checked = checkLotInput(input, db, today);
-		const errors = checked.ok ? [] : Object.entries(checked.fieldErrors).map(([field, messages]) => `${field}: ${messages.join(' ')}`);
+		const errors = checked.ok
+			? []
+			: Object.entries(checked.fieldErrors).map(
+					([field, messages]) => `${field}: ${messages.join(' ')}`
+				);
 		if (checked.ok) {
-			const key = [checked.value.componentId, checked.value.supplier.toLowerCase(), checked.value.supplierLot.toLowerCase()].join('|');
+			const key = [
+				checked.value.componentId,
+				checked.value.supplier.toLowerCase(),
+				checked.value.supplierLot.toLowerCase()
+			].join('|');
 			const earlier = seen.get(key);
-			if (earlier) errors.push(`supplierLot: the same supplier lot is on row ${earlier} of this file.`);
+			if (earlier)
+				errors.push(`supplierLot: the same supplier lot is on row ${earlier} of this file.`);
 			else seen.set(key, rowNumber);
 		}
-		return { rowNumber, values, errors, value: checked.ok && errors.length === 0 ? checked.value : undefined };
+		return {
+			rowNumber,
+			values,
+			errors,
+			value: checked.ok && errors.length === 0 ? checked.value : undefined
+		};
 	});
 	const invalid = rows.filter((r) => r.errors.length).length;
 	return { rows, valid: rows.length - invalid, invalid };
@@ -67,9 +92,15 @@ export function previewLotCsv(text: string, today = isoToday()): LotImportPrevie
 export function importLotCsv(actor: SignedActor, text: string, today = isoToday()): number {
 	const preview = previewLotCsv(text, today);
 	if (preview.invalid) {
-		throw new RuleError(`${preview.invalid} of ${preview.rows.length} rows have problems; nothing was imported. Correct them and preview again.`, { field: 'csv' });
+		throw new RuleError(
+			`${preview.invalid} of ${preview.rows.length} rows have problems; nothing was imported. Correct them and preview again.`,
+			{ field: 'csv' }
+		);
 	}
-	return receiveLots(actor, preview.rows.map((r) => r.value!)).length;
+	return receiveLots(
+		actor,
+		preview.rows.map((r) => r.value!)
+	).length;
 }
 
 export function exportLotsCsv(today = isoToday()): string {
@@ -93,8 +124,29 @@ export function exportLotsCsv(today = isoToday()): string {
 		purity_percent: l.purityPercent ?? '',
 		water_content_percent: l.waterContentPercent ?? ''
 	}));
-	const columns = ['lot_id', 'component', 'component_name', 'supplier', 'supplier_lot', 'status', 'expired', 'received_on', 'expires_on', 'date_kind', 'base_unit', 'received_quantity', 'on_hand', 'on_hand_text', 'storage', 'assay_percent', 'purity_percent', 'water_content_percent'];
-	return toCsv(rows, columns, [`Lots at Pilot Plant North, exported ${new Date().toISOString()}. Quantities are integers in the base unit (mg or uL).`]);
+	const columns = [
+		'lot_id',
+		'component',
+		'component_name',
+		'supplier',
+		'supplier_lot',
+		'status',
+		'expired',
+		'received_on',
+		'expires_on',
+		'date_kind',
+		'base_unit',
+		'received_quantity',
+		'on_hand',
+		'on_hand_text',
+		'storage',
+		'assay_percent',
+		'purity_percent',
+		'water_content_percent'
+	];
+	return toCsv(rows, columns, [
+		`Lots at Pilot Plant North, exported ${new Date().toISOString()}. Quantities are integers in the base unit (mg or uL).`
+	]);
 }
 
 export function exportLedgerCsv(lotId?: string): string {
@@ -114,8 +166,21 @@ export function exportLedgerCsv(lotId?: string): string {
 		.innerJoin(lot, eq(stockEntry.lotId, lot.id))
 		.innerJoin(component, eq(lot.componentId, component.id))
 		.leftJoin(user, eq(stockEntry.actorId, user.id));
-	const entries = (lotId ? query.where(eq(stockEntry.lotId, lotId)) : query).orderBy(asc(stockEntry.at), asc(stockEntry.id)).all();
-	const columns = ['at', 'lot_id', 'component', 'kind', 'quantity', 'base_unit', 'quantity_text', 'reason', 'batch_id', 'by'];
+	const entries = (lotId ? query.where(eq(stockEntry.lotId, lotId)) : query)
+		.orderBy(asc(stockEntry.at), asc(stockEntry.id))
+		.all();
+	const columns = [
+		'at',
+		'lot_id',
+		'component',
+		'kind',
+		'quantity',
+		'base_unit',
+		'quantity_text',
+		'reason',
+		'batch_id',
+		'by'
+	];
 	return toCsv(
 		entries.map((e) => ({
 			at: e.at.toISOString(),
@@ -146,9 +211,21 @@ export function whereUsedCsv(lotCode: string, uses: LotUse[]): string {
 			intended_use: u.intendedUse,
 			line: u.position,
 			consumed: u.consumedQuantity ?? '',
-			consumed_text: u.consumedQuantity === null ? '' : formatQuantity(u.consumedQuantity, u.quantityKind)
+			consumed_text:
+				u.consumedQuantity === null ? '' : formatQuantity(u.consumedQuantity, u.quantityKind)
 		})),
-		['lot_id', 'batch', 'state', 'recipe', 'planned_on', 'prepared_at', 'intended_use', 'line', 'consumed', 'consumed_text'],
+		[
+			'lot_id',
+			'batch',
+			'state',
+			'recipe',
+			'planned_on',
+			'prepared_at',
+			'intended_use',
+			'line',
+			'consumed',
+			'consumed_text'
+		],
 		[`Where lot ${lotCode} was used. Quantities in the lot's base unit (mg or uL).`]
 	);
 }
@@ -165,9 +242,21 @@ export function batchLotsCsv(batchNumber: string, uses: BatchLotUse[]): string {
 			expires_on: u.expiresOn,
 			lot_status: u.lotStatus,
 			consumed: u.consumedQuantity ?? '',
-			consumed_text: u.consumedQuantity === null ? '' : formatQuantity(u.consumedQuantity, u.quantityKind)
+			consumed_text:
+				u.consumedQuantity === null ? '' : formatQuantity(u.consumedQuantity, u.quantityKind)
 		})),
-		['batch', 'line', 'lot_id', 'component', 'supplier', 'supplier_lot', 'expires_on', 'lot_status', 'consumed', 'consumed_text'],
+		[
+			'batch',
+			'line',
+			'lot_id',
+			'component',
+			'supplier',
+			'supplier_lot',
+			'expires_on',
+			'lot_status',
+			'consumed',
+			'consumed_text'
+		],
 		[`Lots used by batch ${batchNumber}.`]
 	);
 }

@@ -1,5 +1,10 @@
 import { and, eq } from 'drizzle-orm';
-import { DEFAULT_EXPIRY_WINDOW_DAYS, formatQuantity, isoToday, type QuantityKind } from '$lib/inventory';
+import {
+	DEFAULT_EXPIRY_WINDOW_DAYS,
+	formatQuantity,
+	isoToday,
+	type QuantityKind
+} from '$lib/inventory';
 import { recordAudit } from '../audit';
 import { config } from '../config';
 import { db } from '../db';
@@ -16,7 +21,10 @@ export interface InventoryDigest {
 	low: ReturnType<typeof componentsBelowReorder>;
 }
 
-export function buildDigest(days = DEFAULT_EXPIRY_WINDOW_DAYS, today = isoToday()): InventoryDigest {
+export function buildDigest(
+	days = DEFAULT_EXPIRY_WINDOW_DAYS,
+	today = isoToday()
+): InventoryDigest {
 	return { today, days, expiring: expiringLots(days, today), low: componentsBelowReorder(today) };
 }
 
@@ -29,7 +37,10 @@ export function digestMail(digest: InventoryDigest, to: string[]): OutgoingMail 
 		(l) =>
 			`${l.code} · ${l.componentName} · ${l.supplier} ${l.supplierLot} · ${l.dateKind} ${l.expiresOn} (${l.daysLeft < 0 ? `${-l.daysLeft} days ago` : l.daysLeft === 0 ? 'today' : `in ${l.daysLeft} days`}) · ${formatQuantity(l.onHand, l.quantityKind as QuantityKind)} on hand · ${l.status}`
 	);
-	const low = digest.low.map((c) => `${c.componentName}: ${c.usableG.toFixed(1)} g released and in date, reorder level ${c.reorderLevelG} g`);
+	const low = digest.low.map(
+		(c) =>
+			`${c.componentName}: ${c.usableG.toFixed(1)} g released and in date, reorder level ${c.reorderLevelG} g`
+	);
 	const sections = [
 		`Inventory digest for ${digest.today}, Pilot Plant North.`,
 		`Expiring or due for retest within ${digest.days} days (${expiring.length}):`,
@@ -38,7 +49,10 @@ export function digestMail(digest: InventoryDigest, to: string[]): OutgoingMail 
 		...(low.length ? low.map((l) => `  - ${l}`) : ['  none'])
 	];
 	const link = `${config.origin}/inventory`;
-	const list = (items: string[]) => (items.length ? `<ul>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join('')}</ul>` : '<p>none</p>');
+	const list = (items: string[]) =>
+		items.length
+			? `<ul>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join('')}</ul>`
+			: '<p>none</p>';
 	return {
 		to,
 		subject: `Inventory digest ${digest.today}: ${expiring.length} expiring, ${low.length} below reorder level`,
@@ -63,7 +77,9 @@ export function inventoryLeadAddresses(): string[] {
 export class MailUnreachableError extends Error {}
 
 /** Builds the digest and mails it to every active inventory lead; remembers the day it was sent. */
-export async function sendInventoryDigest(options: { days?: number; today?: string } = {}): Promise<{ recipients: string[]; digest: InventoryDigest }> {
+export async function sendInventoryDigest(
+	options: { days?: number; today?: string } = {}
+): Promise<{ recipients: string[]; digest: InventoryDigest }> {
 	const digest = buildDigest(options.days, options.today);
 	const recipients = inventoryLeadAddresses();
 	if (recipients.length === 0) return { recipients, digest };
@@ -71,7 +87,12 @@ export async function sendInventoryDigest(options: { days?: number; today?: stri
 		await sendMail(digestMail(digest, recipients));
 	} catch (cause) {
 		const code = (cause as NodeJS.ErrnoException).code;
-		if (code === 'ECONNREFUSED' || code === 'ESOCKET' || code === 'ETIMEDOUT' || code === 'ECONNECTION') {
+		if (
+			code === 'ECONNREFUSED' ||
+			code === 'ESOCKET' ||
+			code === 'ETIMEDOUT' ||
+			code === 'ECONNECTION'
+		) {
 			const smtp = config.smtp;
 			throw new MailUnreachableError(
 				smtp.standIn
@@ -84,11 +105,18 @@ export async function sendInventoryDigest(options: { days?: number; today?: stri
 	db.transaction((tx) => {
 		tx.insert(siteSetting)
 			.values({ key: DIGEST_SENT_KEY, value: digest.today })
-			.onConflictDoUpdate({ target: siteSetting.key, set: { value: digest.today, updatedAt: new Date() } })
+			.onConflictDoUpdate({
+				target: siteSetting.key,
+				set: { value: digest.today, updatedAt: new Date() }
+			})
 			.run();
 		recordAudit(
 			{ id: null, email: null },
-			{ action: 'inventory.digest_sent', subjectType: 'site', detail: { recipients, expiring: digest.expiring.length, low: digest.low.length } },
+			{
+				action: 'inventory.digest_sent',
+				subjectType: 'site',
+				detail: { recipients, expiring: digest.expiring.length, low: digest.low.length }
+			},
 			tx
 		);
 	});
@@ -96,7 +124,9 @@ export async function sendInventoryDigest(options: { days?: number; today?: stri
 }
 
 export function lastDigestDate(): string | null {
-	return db.select().from(siteSetting).where(eq(siteSetting.key, DIGEST_SENT_KEY)).get()?.value ?? null;
+	return (
+		db.select().from(siteSetting).where(eq(siteSetting.key, DIGEST_SENT_KEY)).get()?.value ?? null
+	);
 }
 
 /** For the schedule: send once per day, at the first check on or after `hourUtc`. */

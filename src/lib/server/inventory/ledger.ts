@@ -21,7 +21,10 @@ export function onHandOf(lotId: string, reader: Reader = db): number {
 export function onHandByLot(lotIds: string[], reader: Reader = db): Map<string, number> {
 	if (lotIds.length === 0) return new Map();
 	const rows = reader
-		.select({ lotId: stockEntry.lotId, total: sql<number>`coalesce(sum(${stockEntry.quantity}), 0)` })
+		.select({
+			lotId: stockEntry.lotId,
+			total: sql<number>`coalesce(sum(${stockEntry.quantity}), 0)`
+		})
 		.from(stockEntry)
 		.where(inArray(stockEntry.lotId, lotIds))
 		.groupBy(stockEntry.lotId)
@@ -30,7 +33,12 @@ export function onHandByLot(lotIds: string[], reader: Reader = db): Map<string, 
 }
 
 export function ledgerOf(lotId: string, reader: Reader = db): StockEntry[] {
-	return reader.select().from(stockEntry).where(eq(stockEntry.lotId, lotId)).orderBy(asc(stockEntry.at), asc(stockEntry.id)).all();
+	return reader
+		.select()
+		.from(stockEntry)
+		.where(eq(stockEntry.lotId, lotId))
+		.orderBy(asc(stockEntry.at), asc(stockEntry.id))
+		.all();
 }
 
 export interface NewEntry {
@@ -50,9 +58,15 @@ export interface NewEntry {
  */
 export function appendStockEntry(tx: Tx | Db, entry: NewEntry): StockEntry {
 	if (!Number.isInteger(entry.quantity) || entry.quantity === 0) {
-		throw new RuleError('A ledger entry needs a whole, non-zero quantity in the base unit.', { field: 'amount' });
+		throw new RuleError('A ledger entry needs a whole, non-zero quantity in the base unit.', {
+			field: 'amount'
+		});
 	}
-	const row = tx.select({ code: lot.code, quantityKind: lot.quantityKind }).from(lot).where(eq(lot.id, entry.lotId)).get();
+	const row = tx
+		.select({ code: lot.code, quantityKind: lot.quantityKind })
+		.from(lot)
+		.where(eq(lot.id, entry.lotId))
+		.get();
 	if (!row) throw new RuleError('No lot with this id.', { status: 404 });
 	const onHand = onHandOf(entry.lotId, tx);
 	if (onHand + entry.quantity < 0) {
@@ -80,7 +94,10 @@ export function appendStockEntry(tx: Tx | Db, entry: NewEntry): StockEntry {
 			.get();
 	} catch (cause) {
 		if (sqliteRefusal(cause, /negative/)) {
-			throw new RuleError(`Lot ${row.code} does not have enough on hand any more; nothing was taken.`, { status: 409, field: 'amount' });
+			throw new RuleError(
+				`Lot ${row.code} does not have enough on hand any more; nothing was taken.`,
+				{ status: 409, field: 'amount' }
+			);
 		}
 		throw cause;
 	}
@@ -97,5 +114,10 @@ export function ledgerSums(reader: Reader = db): { lotId: string; total: number 
 }
 
 export function entriesForBatch(batchId: string, reader: Reader = db): StockEntry[] {
-	return reader.select().from(stockEntry).where(and(eq(stockEntry.batchId, batchId))).orderBy(asc(stockEntry.at)).all();
+	return reader
+		.select()
+		.from(stockEntry)
+		.where(and(eq(stockEntry.batchId, batchId)))
+		.orderBy(asc(stockEntry.at))
+		.all();
 }

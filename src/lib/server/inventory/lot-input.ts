@@ -54,33 +54,58 @@ function text(value: unknown): string {
 	return value === null || value === undefined ? '' : String(value).trim();
 }
 
-function checkDate(value: string, field: string, label: string, errors: FieldErrors): string | null {
+function checkDate(
+	value: string,
+	field: string,
+	label: string,
+	errors: FieldErrors
+): string | null {
 	if (!value) {
 		errors[field] = [`Enter the ${label} (YYYY-MM-DD).`];
 		return null;
 	}
 	const date = new Date(`${value}T00:00:00Z`);
-	if (!ISO_DATE.test(value) || Number.isNaN(date.getTime()) || date.toISOString().slice(0, 10) !== value) {
+	if (
+		!ISO_DATE.test(value) ||
+		Number.isNaN(date.getTime()) ||
+		date.toISOString().slice(0, 10) !== value
+	) {
 		errors[field] = [`“${value}” is not a date; write it as YYYY-MM-DD.`];
 		return null;
 	}
 	return value;
 }
 
-function checkPercent(value: string, field: string, label: string, min: number, max: number, minOpen: boolean, maxOpen: boolean, errors: FieldErrors): number | null {
+function checkPercent(
+	value: string,
+	field: string,
+	label: string,
+	min: number,
+	max: number,
+	minOpen: boolean,
+	maxOpen: boolean,
+	errors: FieldErrors
+): number | null {
 	if (!value) return null;
 	const n = Number(value.replace(/\s*%$/, ''));
 	const tooLow = minOpen ? n <= min : n < min;
 	const tooHigh = maxOpen ? n >= max : n > max;
 	if (!Number.isFinite(n) || tooLow || tooHigh) {
-		errors[field] = [`${label} must be a number ${minOpen ? 'above' : 'from'} ${min} ${maxOpen ? 'and below' : 'up to'} ${max} %.`];
+		errors[field] = [
+			`${label} must be a number ${minOpen ? 'above' : 'from'} ${min} ${maxOpen ? 'and below' : 'up to'} ${max} %.`
+		];
 		return null;
 	}
 	return n;
 }
 
 /** Case and spacing do not make a different supplier or supplier lot. */
-export function findDuplicateLot(componentId: string, supplier: string, supplierLot: string, reader: Reader = db) {
+export function findDuplicateLot(
+	componentId: string,
+	supplier: string,
+	supplierLot: string,
+	reader: Reader = db
+) {
 	return reader
 		.select({ id: lot.id, code: lot.code })
 		.from(lot)
@@ -95,7 +120,11 @@ export function findDuplicateLot(componentId: string, supplier: string, supplier
 }
 
 /** Checks every field and reports each problem against its field; nothing is written here. */
-export function checkLotInput(input: LotText, reader: Reader = db, today = isoToday()): { ok: true; value: CheckedLot } | { ok: false; fieldErrors: FieldErrors } {
+export function checkLotInput(
+	input: LotText,
+	reader: Reader = db,
+	today = isoToday()
+): { ok: true; value: CheckedLot } | { ok: false; fieldErrors: FieldErrors } {
 	const errors: FieldErrors = {};
 	const componentText = text(input.component);
 	const component = componentText ? findComponentByIdOrName(componentText, reader) : undefined;
@@ -106,7 +135,8 @@ export function checkLotInput(input: LotText, reader: Reader = db, today = isoTo
 	if (!supplier) errors.supplier = ['Enter the supplier.'];
 	else if (supplier.length > 120) errors.supplier = ['At most 120 characters.'];
 	const supplierLot = text(input.supplierLot);
-	if (!supplierLot) errors.supplierLot = ['Enter the supplier’s lot number from the label or certificate.'];
+	if (!supplierLot)
+		errors.supplierLot = ['Enter the supplier’s lot number from the label or certificate.'];
 	else if (supplierLot.length > 80) errors.supplierLot = ['At most 80 characters.'];
 
 	const quantityText = text(input.quantity);
@@ -117,7 +147,10 @@ export function checkLotInput(input: LotText, reader: Reader = db, today = isoTo
 	else if (!quantityRead.ok) errors.quantity = [quantityRead.message];
 	else if (component) {
 		try {
-			quantity = toBaseQuantity(quantityRead.value, unit, component, { amount: 'quantity', unit: 'unit' });
+			quantity = toBaseQuantity(quantityRead.value, unit, component, {
+				amount: 'quantity',
+				unit: 'unit'
+			});
 		} catch (cause) {
 			if (!(cause instanceof RuleError)) throw cause;
 			errors[cause.field ?? 'quantity'] = [cause.message];
@@ -125,17 +158,48 @@ export function checkLotInput(input: LotText, reader: Reader = db, today = isoTo
 	}
 
 	const receivedOn = checkDate(text(input.receivedOn), 'receivedOn', 'date received', errors);
-	if (receivedOn && receivedOn > today) errors.receivedOn = [`${receivedOn} is in the future; a lot is recorded when it arrives.`];
+	if (receivedOn && receivedOn > today)
+		errors.receivedOn = [`${receivedOn} is in the future; a lot is recorded when it arrives.`];
 	const expiresOn = checkDate(text(input.expiresOn), 'expiresOn', 'expiry or retest date', errors);
 	if (receivedOn && expiresOn && expiresOn <= receivedOn) {
-		errors.expiresOn = [`The expiry or retest date (${expiresOn}) must be after the date received (${receivedOn}).`];
+		errors.expiresOn = [
+			`The expiry or retest date (${expiresOn}) must be after the date received (${receivedOn}).`
+		];
 	}
 	const dateKindText = text(input.dateKind) || 'expiry';
-	if (!(DATE_KINDS as readonly string[]).includes(dateKindText)) errors.dateKind = ['Choose expiry or retest.'];
+	if (!(DATE_KINDS as readonly string[]).includes(dateKindText))
+		errors.dateKind = ['Choose expiry or retest.'];
 
-	const assayPercent = checkPercent(text(input.assayPercent), 'assayPercent', 'Assay', 0, MAX_ASSAY_PERCENT, true, false, errors);
-	const purityPercent = checkPercent(text(input.purityPercent), 'purityPercent', 'Purity', 0, 100, true, false, errors);
-	const waterContentPercent = checkPercent(text(input.waterContentPercent), 'waterContentPercent', 'Water content', 0, 100, false, true, errors);
+	const assayPercent = checkPercent(
+		text(input.assayPercent),
+		'assayPercent',
+		'Assay',
+		0,
+		MAX_ASSAY_PERCENT,
+		true,
+		false,
+		errors
+	);
+	const purityPercent = checkPercent(
+		text(input.purityPercent),
+		'purityPercent',
+		'Purity',
+		0,
+		100,
+		true,
+		false,
+		errors
+	);
+	const waterContentPercent = checkPercent(
+		text(input.waterContentPercent),
+		'waterContentPercent',
+		'Water content',
+		0,
+		100,
+		false,
+		true,
+		errors
+	);
 
 	const storage = text(input.storage) || component?.storage || '';
 	if (storage.length > 200) errors.storage = ['At most 200 characters.'];
@@ -144,7 +208,10 @@ export function checkLotInput(input: LotText, reader: Reader = db, today = isoTo
 
 	if (component && supplier && supplierLot && !errors.supplierLot) {
 		const duplicate = findDuplicateLot(component.id, supplier, supplierLot, reader);
-		if (duplicate) errors.supplierLot = [`${supplier} lot ${supplierLot} of ${component.name} is already received, as ${duplicate.code}.`];
+		if (duplicate)
+			errors.supplierLot = [
+				`${supplier} lot ${supplierLot} of ${component.name} is already received, as ${duplicate.code}.`
+			];
 	}
 
 	if (Object.keys(errors).length || !component || !quantity || !receivedOn || !expiresOn) {

@@ -1,11 +1,22 @@
 import { and, asc, desc, eq, like, lte, sql, type SQL } from 'drizzle-orm';
-import { isExpired, isoToday, LOT_STATUS_LABELS, type LotStatus, type QuantityKind } from '$lib/inventory';
+import {
+	isExpired,
+	isoToday,
+	LOT_STATUS_LABELS,
+	type LotStatus,
+	type QuantityKind
+} from '$lib/inventory';
 import { recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { sqliteRefusal } from '../db/errors';
 import { component, lot, lotCertificate, type Lot } from '../db/schema';
 import { RuleError } from '../rule-error';
-import { insertCertificateRows, removeCertificateFiles, writeCertificateFiles, type CheckedUpload } from './certificates';
+import {
+	insertCertificateRows,
+	removeCertificateFiles,
+	writeCertificateFiles,
+	type CheckedUpload
+} from './certificates';
 import { appendStockEntry, onHandByLot, onHandOf, type Tx } from './ledger';
 import type { CheckedLot } from './lot-input';
 import { toBaseQuantity } from './units';
@@ -53,18 +64,33 @@ function insertLot(tx: Tx, actor: SignedActor, value: CheckedLot, code?: string)
 			.get();
 	} catch (cause) {
 		if (sqliteRefusal(cause, /UNIQUE.*lot\.(component_id|supplier)/)) {
-			throw new RuleError(`${value.supplier} lot ${value.supplierLot} of ${value.componentName} is already received.`, { field: 'supplierLot', status: 409 });
+			throw new RuleError(
+				`${value.supplier} lot ${value.supplierLot} of ${value.componentName} is already received.`,
+				{ field: 'supplierLot', status: 409 }
+			);
 		}
 		throw cause;
 	}
-	appendStockEntry(tx, { lotId: row.id, kind: 'receipt', quantity: value.receivedQuantity, reason: `Received ${value.receivedUnit}`, actorId: actor.id });
+	appendStockEntry(tx, {
+		lotId: row.id,
+		kind: 'receipt',
+		quantity: value.receivedQuantity,
+		reason: `Received ${value.receivedUnit}`,
+		actorId: actor.id
+	});
 	recordAudit(
 		actor,
 		{
 			action: 'lot.received',
 			subjectType: 'lot',
 			subjectId: row.id,
-			detail: { code: row.code, component: value.componentId, supplier: value.supplier, supplierLot: value.supplierLot, quantity: value.receivedUnit }
+			detail: {
+				code: row.code,
+				component: value.componentId,
+				supplier: value.supplier,
+				supplierLot: value.supplierLot,
+				quantity: value.receivedUnit
+			}
 		},
 		tx
 	);
@@ -75,7 +101,11 @@ function insertLot(tx: Tx, actor: SignedActor, value: CheckedLot, code?: string)
  * Receives a lot into quarantine with its receipt entry and certificates. The files are written
  * first; if the transaction fails they are removed, so nothing is left half-stored.
  */
-export function receiveLot(actor: SignedActor, value: CheckedLot, uploads: CheckedUpload[] = []): Lot {
+export function receiveLot(
+	actor: SignedActor,
+	value: CheckedLot,
+	uploads: CheckedUpload[] = []
+): Lot {
 	const stored = writeCertificateFiles(uploads);
 	try {
 		return db.transaction((tx) => {
@@ -99,7 +129,11 @@ export function findLot(id: string, reader: Reader = db): Lot | undefined {
 }
 
 export function findLotByCode(code: string, reader: Reader = db): Lot | undefined {
-	return reader.select().from(lot).where(sql`upper(${lot.code}) = upper(${code.trim()})`).get();
+	return reader
+		.select()
+		.from(lot)
+		.where(sql`upper(${lot.code}) = upper(${code.trim()})`)
+		.get();
 }
 
 function requireLot(id: string, reader: Reader = db): Lot {
@@ -115,52 +149,152 @@ const TRANSITIONS: Record<LotStatus, LotStatus[]> = {
 };
 
 /** Release or reject. A release needs a certificate on file and an in-date lot; a rejection a reason. */
-export function setLotStatus(actor: SignedActor, lotId: string, to: 'released' | 'rejected', reason: string, today = isoToday()): void {
+export function setLotStatus(
+	actor: SignedActor,
+	lotId: string,
+	to: 'released' | 'rejected',
+	reason: string,
+	today = isoToday()
+): void {
 	db.transaction((tx) => {
 		const current = requireLot(lotId, tx);
 		if (!TRANSITIONS[current.status].includes(to)) {
-			throw new RuleError(`Lot ${current.code} is ${LOT_STATUS_LABELS[current.status].toLowerCase()}; it cannot be ${to} now.`, { status: 409 });
+			throw new RuleError(
+				`Lot ${current.code} is ${LOT_STATUS_LABELS[current.status].toLowerCase()}; it cannot be ${to} now.`,
+				{ status: 409 }
+			);
 		}
-		if (to === 'rejected' && !reason.trim()) throw new RuleError('Give the reason for rejecting the lot.', { field: 'reason' });
+		if (to === 'rejected' && !reason.trim())
+			throw new RuleError('Give the reason for rejecting the lot.', { field: 'reason' });
 		if (to === 'released') {
-			const certificates = tx.select({ id: lotCertificate.id }).from(lotCertificate).where(eq(lotCertificate.lotId, lotId)).all();
-			if (certificates.length === 0) throw new RuleError(`Lot ${current.code} has no certificate of analysis on file; upload it before release.`, { field: 'certificates' });
-			if (isExpired(current.expiresOn, today)) throw new RuleError(`Lot ${current.code} passed its ${current.dateKind} date (${current.expiresOn}); it cannot be released.`);
+			const certificates = tx
+				.select({ id: lotCertificate.id })
+				.from(lotCertificate)
+				.where(eq(lotCertificate.lotId, lotId))
+				.all();
+			if (certificates.length === 0)
+				throw new RuleError(
+					`Lot ${current.code} has no certificate of analysis on file; upload it before release.`,
+					{ field: 'certificates' }
+				);
+			if (isExpired(current.expiresOn, today))
+				throw new RuleError(
+					`Lot ${current.code} passed its ${current.dateKind} date (${current.expiresOn}); it cannot be released.`
+				);
 		}
-		tx.update(lot).set({ status: to, statusReason: reason.trim(), statusChangedAt: new Date(), statusChangedById: actor.id }).where(eq(lot.id, lotId)).run();
-		recordAudit(actor, { action: `lot.${to}`, subjectType: 'lot', subjectId: lotId, detail: { code: current.code, from: current.status, reason: reason.trim() } }, tx);
+		tx.update(lot)
+			.set({
+				status: to,
+				statusReason: reason.trim(),
+				statusChangedAt: new Date(),
+				statusChangedById: actor.id
+			})
+			.where(eq(lot.id, lotId))
+			.run();
+		recordAudit(
+			actor,
+			{
+				action: `lot.${to}`,
+				subjectType: 'lot',
+				subjectId: lotId,
+				detail: { code: current.code, from: current.status, reason: reason.trim() }
+			},
+			tx
+		);
 	});
 }
 
 /** A stock count correction, up or down, with its reason. */
-export function adjustLot(actor: SignedActor, lotId: string, input: { direction: 'add' | 'remove'; amount: number; unit: string; reason: string }): void {
+export function adjustLot(
+	actor: SignedActor,
+	lotId: string,
+	input: { direction: 'add' | 'remove'; amount: number; unit: string; reason: string }
+): void {
 	db.transaction((tx) => {
 		const current = requireLot(lotId, tx);
-		const materials = tx.select().from(component).where(eq(component.id, current.componentId)).get()!;
-		const { kind, quantity } = toBaseQuantity(input.amount, input.unit, materials, { amount: 'amount', unit: 'unit' });
-		if (kind !== current.quantityKind) throw new RuleError(`Lot ${current.code} is kept by ${current.quantityKind}; give the amount in ${current.quantityKind === 'mass' ? 'g or kg' : 'mL or L'}.`, { field: 'unit' });
+		const materials = tx
+			.select()
+			.from(component)
+			.where(eq(component.id, current.componentId))
+			.get()!;
+		const { kind, quantity } = toBaseQuantity(input.amount, input.unit, materials, {
+			amount: 'amount',
+			unit: 'unit'
+		});
+		if (kind !== current.quantityKind)
+			throw new RuleError(
+				`Lot ${current.code} is kept by ${current.quantityKind}; give the amount in ${current.quantityKind === 'mass' ? 'g or kg' : 'mL or L'}.`,
+				{ field: 'unit' }
+			);
 		const signed = input.direction === 'add' ? quantity : -quantity;
-		appendStockEntry(tx, { lotId, kind: 'adjustment', quantity: signed, reason: input.reason, actorId: actor.id });
-		recordAudit(actor, { action: 'lot.adjusted', subjectType: 'lot', subjectId: lotId, detail: { code: current.code, quantity: signed, reason: input.reason.trim() } }, tx);
+		appendStockEntry(tx, {
+			lotId,
+			kind: 'adjustment',
+			quantity: signed,
+			reason: input.reason,
+			actorId: actor.id
+		});
+		recordAudit(
+			actor,
+			{
+				action: 'lot.adjusted',
+				subjectType: 'lot',
+				subjectId: lotId,
+				detail: { code: current.code, quantity: signed, reason: input.reason.trim() }
+			},
+			tx
+		);
 	});
 }
 
 /** Throws away some or all of what is left. */
-export function disposeLot(actor: SignedActor, lotId: string, input: { all: boolean; amount?: number; unit?: string; reason: string }): void {
+export function disposeLot(
+	actor: SignedActor,
+	lotId: string,
+	input: { all: boolean; amount?: number; unit?: string; reason: string }
+): void {
 	db.transaction((tx) => {
 		const current = requireLot(lotId, tx);
 		let quantity: number;
 		if (input.all) {
 			quantity = onHandOf(lotId, tx);
-			if (quantity <= 0) throw new RuleError(`Lot ${current.code} has nothing left to dispose of.`, { field: 'amount' });
+			if (quantity <= 0)
+				throw new RuleError(`Lot ${current.code} has nothing left to dispose of.`, {
+					field: 'amount'
+				});
 		} else {
-			const materials = tx.select().from(component).where(eq(component.id, current.componentId)).get()!;
-			const parsed = toBaseQuantity(input.amount ?? NaN, input.unit ?? '', materials, { amount: 'amount', unit: 'unit' });
-			if (parsed.kind !== current.quantityKind) throw new RuleError(`Lot ${current.code} is kept by ${current.quantityKind}.`, { field: 'unit' });
+			const materials = tx
+				.select()
+				.from(component)
+				.where(eq(component.id, current.componentId))
+				.get()!;
+			const parsed = toBaseQuantity(input.amount ?? NaN, input.unit ?? '', materials, {
+				amount: 'amount',
+				unit: 'unit'
+			});
+			if (parsed.kind !== current.quantityKind)
+				throw new RuleError(`Lot ${current.code} is kept by ${current.quantityKind}.`, {
+					field: 'unit'
+				});
 			quantity = parsed.quantity;
 		}
-		appendStockEntry(tx, { lotId, kind: 'disposal', quantity: -quantity, reason: input.reason, actorId: actor.id });
-		recordAudit(actor, { action: 'lot.disposed', subjectType: 'lot', subjectId: lotId, detail: { code: current.code, quantity: -quantity, reason: input.reason.trim() } }, tx);
+		appendStockEntry(tx, {
+			lotId,
+			kind: 'disposal',
+			quantity: -quantity,
+			reason: input.reason,
+			actorId: actor.id
+		});
+		recordAudit(
+			actor,
+			{
+				action: 'lot.disposed',
+				subjectType: 'lot',
+				subjectId: lotId,
+				detail: { code: current.code, quantity: -quantity, reason: input.reason.trim() }
+			},
+			tx
+		);
 	});
 }
 
@@ -193,14 +327,20 @@ export interface LotRow {
 	waterContentPercent: number | null;
 }
 
-export function listLots(filter: LotFilter = {}, today = isoToday(), reader: Reader = db): LotRow[] {
+export function listLots(
+	filter: LotFilter = {},
+	today = isoToday(),
+	reader: Reader = db
+): LotRow[] {
 	const conditions: SQL[] = [];
 	if (filter.componentId) conditions.push(eq(lot.componentId, filter.componentId));
 	if (filter.status) conditions.push(eq(lot.status, filter.status));
 	if (filter.expiringBefore) conditions.push(lte(lot.expiresOn, filter.expiringBefore));
 	if (filter.search) {
 		const term = `%${filter.search.toLowerCase().replace(/[%_]/g, '')}%`;
-		conditions.push(sql`(lower(${lot.code}) like ${term} or lower(${lot.supplier}) like ${term} or lower(${lot.supplierLot}) like ${term} or lower(${component.name}) like ${term})`);
+		conditions.push(
+			sql`(lower(${lot.code}) like ${term} or lower(${lot.supplier}) like ${term} or lower(${lot.supplierLot}) like ${term} or lower(${component.name}) like ${term})`
+		);
 	}
 	const rows = reader
 		.select({
@@ -226,37 +366,71 @@ export function listLots(filter: LotFilter = {}, today = isoToday(), reader: Rea
 		.where(conditions.length ? and(...conditions) : undefined)
 		.orderBy(asc(lot.expiresOn), asc(lot.code))
 		.all();
-	const onHand = onHandByLot(rows.map((r) => r.id), reader);
-	return rows.map((r) => ({ ...r, onHand: onHand.get(r.id) ?? 0, expired: isExpired(r.expiresOn, today) }));
+	const onHand = onHandByLot(
+		rows.map((r) => r.id),
+		reader
+	);
+	return rows.map((r) => ({
+		...r,
+		onHand: onHand.get(r.id) ?? 0,
+		expired: isExpired(r.expiresOn, today)
+	}));
 }
 
 /**
  * The stock settings of a component: the reorder level in grams (empty clears it) and the density
  * that lets a liquid be received by volume (it cannot be cleared while volume lots exist).
  */
-export function setStockSettings(actor: SignedActor, componentId: string, input: { reorderLevelG: number | null; densityGPerMl: number | null }): void {
+export function setStockSettings(
+	actor: SignedActor,
+	componentId: string,
+	input: { reorderLevelG: number | null; densityGPerMl: number | null }
+): void {
 	const { reorderLevelG, densityGPerMl } = input;
 	if (reorderLevelG !== null && (!Number.isFinite(reorderLevelG) || reorderLevelG < 0)) {
-		throw new RuleError('The reorder level must be a number of grams from 0 up, or empty.', { field: 'reorderLevelG' });
+		throw new RuleError('The reorder level must be a number of grams from 0 up, or empty.', {
+			field: 'reorderLevelG'
+		});
 	}
-	if (densityGPerMl !== null && (!Number.isFinite(densityGPerMl) || densityGPerMl <= 0 || densityGPerMl > 25)) {
-		throw new RuleError('The density must be a number of g/mL above 0 (and at most 25), or empty.', { field: 'densityGPerMl' });
+	if (
+		densityGPerMl !== null &&
+		(!Number.isFinite(densityGPerMl) || densityGPerMl <= 0 || densityGPerMl > 25)
+	) {
+		throw new RuleError(
+			'The density must be a number of g/mL above 0 (and at most 25), or empty.',
+			{ field: 'densityGPerMl' }
+		);
 	}
 	db.transaction((tx) => {
 		const found = tx.select().from(component).where(eq(component.id, componentId)).get();
-		if (!found) throw new RuleError('No component with this id.', { status: 404, field: 'componentId' });
+		if (!found)
+			throw new RuleError('No component with this id.', { status: 404, field: 'componentId' });
 		if (densityGPerMl === null && found.densityGPerMl !== null) {
-			const volumeLot = tx.select({ code: lot.code }).from(lot).where(and(eq(lot.componentId, componentId), eq(lot.quantityKind, 'volume'))).get();
-			if (volumeLot) throw new RuleError(`Lot ${volumeLot.code} of ${found.name} is kept by volume, so its density must stay.`, { field: 'densityGPerMl' });
+			const volumeLot = tx
+				.select({ code: lot.code })
+				.from(lot)
+				.where(and(eq(lot.componentId, componentId), eq(lot.quantityKind, 'volume')))
+				.get();
+			if (volumeLot)
+				throw new RuleError(
+					`Lot ${volumeLot.code} of ${found.name} is kept by volume, so its density must stay.`,
+					{ field: 'densityGPerMl' }
+				);
 		}
-		tx.update(component).set({ reorderLevelG, densityGPerMl, updatedAt: new Date() }).where(eq(component.id, componentId)).run();
+		tx.update(component)
+			.set({ reorderLevelG, densityGPerMl, updatedAt: new Date() })
+			.where(eq(component.id, componentId))
+			.run();
 		recordAudit(
 			actor,
 			{
 				action: 'component.stock_settings_set',
 				subjectType: 'component',
 				subjectId: componentId,
-				detail: { reorderLevelG: { from: found.reorderLevelG, to: reorderLevelG }, densityGPerMl: { from: found.densityGPerMl, to: densityGPerMl } }
+				detail: {
+					reorderLevelG: { from: found.reorderLevelG, to: reorderLevelG },
+					densityGPerMl: { from: found.densityGPerMl, to: densityGPerMl }
+				}
 			},
 			tx
 		);

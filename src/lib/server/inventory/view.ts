@@ -16,7 +16,15 @@ export function lotView(lotId: string, today = isoToday()) {
 	if (!lot) throw new RuleError('No lot with this id.', { status: 404 });
 	const material = findComponent(lot.componentId)!;
 	const ledger = db
-		.select({ id: stockEntry.id, at: stockEntry.at, kind: stockEntry.kind, quantity: stockEntry.quantity, reason: stockEntry.reason, batchId: stockEntry.batchId, by: user.email })
+		.select({
+			id: stockEntry.id,
+			at: stockEntry.at,
+			kind: stockEntry.kind,
+			quantity: stockEntry.quantity,
+			reason: stockEntry.reason,
+			batchId: stockEntry.batchId,
+			by: user.email
+		})
 		.from(stockEntry)
 		.leftJoin(user, eq(stockEntry.actorId, user.id))
 		.where(eq(stockEntry.lotId, lotId))
@@ -29,10 +37,22 @@ export function lotView(lotId: string, today = isoToday()) {
 			receivedByName: personName(lot.receivedById),
 			statusChangedByName: personName(lot.statusChangedById)
 		},
-		component: { id: material.id, name: material.name, formula: material.formula, densityGPerMl: material.densityGPerMl, ghsHazards: material.ghsHazards },
+		component: {
+			id: material.id,
+			name: material.name,
+			formula: material.formula,
+			densityGPerMl: material.densityGPerMl,
+			ghsHazards: material.ghsHazards
+		},
 		onHand: onHandOf(lotId),
 		ledger,
-		certificates: certificatesOf(lotId).map((c) => ({ id: c.id, displayName: c.displayName, mediaType: c.mediaType, sizeBytes: c.sizeBytes, uploadedAt: c.uploadedAt })),
+		certificates: certificatesOf(lotId).map((c) => ({
+			id: c.id,
+			displayName: c.displayName,
+			mediaType: c.mediaType,
+			sizeBytes: c.sizeBytes,
+			uploadedAt: c.uploadedAt
+		})),
 		whereUsed: batchesUsingLot(lotId)
 	};
 }

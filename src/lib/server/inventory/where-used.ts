@@ -7,7 +7,9 @@ import { batch, batchLine, component, lot, recipe } from '../db/schema';
 type Reader = Pick<Db, 'select'>;
 
 /** Taken from the lot, in its base unit as the ledger keeps it: mg by mass, µL by volume (`quantityKind`). */
-const consumedInLotUnit = sql<number | null>`coalesce(${batchLine.consumedMg}, ${batchLine.consumedUl})`;
+const consumedInLotUnit = sql<
+	number | null
+>`coalesce(${batchLine.consumedMg}, ${batchLine.consumedUl})`;
 
 export interface LotUse {
 	batchId: string;

@@ -30,7 +30,11 @@ export function invitationMail(input: {
 	};
 }
 
-export function passwordResetMail(input: { to: string; link: string; expiresAt: Date }): OutgoingMail {
+export function passwordResetMail(input: {
+	to: string;
+	link: string;
+	expiresAt: Date;
+}): OutgoingMail {
 	const lines = [
 		'Someone asked to reset the password of your Brothwright account. If it was not you, ignore this message.',
 		`The link below works once and expires on ${input.expiresAt.toUTCString()}.`

@@ -1,7 +1,26 @@
 import { rgb, type PDFDocument, type PDFFont, type PDFPage } from 'pdf-lib';
 
 // The standard PDF fonts speak WinAnsi only; map what they cannot draw to plain equivalents.
-const REPLACEMENTS: Record<string, string> = { '−': '-', '→': '->', '≤': '<=', '≥': '>=', '·': '·', '₂': '2', '₃': '3', '₄': '4', '⁺': '+', '⁻': '-', 'µ': 'µ', '…': '...', '“': '"', '”': '"', '‘': "'", '’': "'", '–': '-', '—': '-' };
+const REPLACEMENTS: Record<string, string> = {
+	'−': '-',
+	'→': '->',
+	'≤': '<=',
+	'≥': '>=',
+	'·': '·',
+	'₂': '2',
+	'₃': '3',
+	'₄': '4',
+	'⁺': '+',
+	'⁻': '-',
+	µ: 'µ',
+	'…': '...',
+	'“': '"',
+	'”': '"',
+	'‘': "'",
+	'’': "'",
+	'–': '-',
+	'—': '-'
+};
 export function toWinAnsi(text: string): string {
 	return [...text]
 		.map((c) => REPLACEMENTS[c] ?? c)
@@ -37,13 +56,22 @@ export class Writer {
 		this.page = this.doc.addPage(A4);
 		this.y = A4[1] - MARGIN;
 	}
-	text(text: string, options: { size?: number; bold?: boolean; x?: number; color?: [number, number, number] } = {}) {
+	text(
+		text: string,
+		options: { size?: number; bold?: boolean; x?: number; color?: [number, number, number] } = {}
+	) {
 		const size = options.size ?? 9.5;
 		const font = options.bold ? this.bold : this.font;
 		const maxWidth = A4[0] - MARGIN - (options.x ?? MARGIN);
 		for (const line of this.wrap(toWinAnsi(text), font, size, maxWidth)) {
 			this.ensure(size + 3);
-			this.page.drawText(line, { x: options.x ?? MARGIN, y: this.y - size, size, font, color: options.color ? rgb(...options.color) : rgb(0, 0, 0) });
+			this.page.drawText(line, {
+				x: options.x ?? MARGIN,
+				y: this.y - size,
+				size,
+				font,
+				color: options.color ? rgb(...options.color) : rgb(0, 0, 0)
+			});
 			this.y -= size + 3;
 		}
 	}
@@ -54,7 +82,8 @@ export class Writer {
 	table(columns: TableColumn[], rows: string[][], options: { size?: number } = {}) {
 		const size = options.size ?? 8.5;
 		const lineHeight = size + 3;
-		const cellLines = (cells: string[], font: PDFFont) => cells.map((cell, i) => this.wrap(toWinAnsi(cell), font, size, columns[i].width - 4));
+		const cellLines = (cells: string[], font: PDFFont) =>
+			cells.map((cell, i) => this.wrap(toWinAnsi(cell), font, size, columns[i].width - 4));
 		const header = cellLines(
 			columns.map((c) => c.header),
 			this.bold
@@ -65,8 +94,17 @@ export class Writer {
 			lines.forEach((cell, i) => {
 				const column = columns[i];
 				cell.forEach((line, n) => {
-					const lineX = column.align === 'right' ? x + column.width - 4 - font.widthOfTextAtSize(line, size) : x;
-					this.page.drawText(line, { x: lineX, y: this.y - size - n * lineHeight, size, font, color: rgb(0, 0, 0) });
+					const lineX =
+						column.align === 'right'
+							? x + column.width - 4 - font.widthOfTextAtSize(line, size)
+							: x;
+					this.page.drawText(line, {
+						x: lineX,
+						y: this.y - size - n * lineHeight,
+						size,
+						font,
+						color: rgb(0, 0, 0)
+					});
 				});
 				x += column.width;
 			});
@@ -74,7 +112,12 @@ export class Writer {
 		};
 		const drawHeader = () => {
 			drawRow(header, this.bold);
-			this.page.drawLine({ start: { x: MARGIN, y: this.y + 1 }, end: { x: MARGIN + columns.reduce((s, c) => s + c.width, 0), y: this.y + 1 }, thickness: 0.5, color: rgb(0.5, 0.5, 0.5) });
+			this.page.drawLine({
+				start: { x: MARGIN, y: this.y + 1 },
+				end: { x: MARGIN + columns.reduce((s, c) => s + c.width, 0), y: this.y + 1 },
+				thickness: 0.5,
+				color: rgb(0.5, 0.5, 0.5)
+			});
 			this.y -= 2;
 		};
 		this.ensure(headerHeight + lineHeight + 2);

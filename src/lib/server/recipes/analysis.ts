@@ -12,7 +12,13 @@ import { db, type Db } from '../db';
 import type { Component } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { componentSpecOf, findComponentsByIds, molarMassOfComponent } from '../components/library';
-import { currentApprovedVersion, findRecipe, findVersionById, latestVersion, linesOf } from './queries';
+import {
+	currentApprovedVersion,
+	findRecipe,
+	findVersionById,
+	latestVersion,
+	linesOf
+} from './queries';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -62,7 +68,12 @@ export interface RecipeAnalysis {
 	/** Σ g/L of the components as weighed. */
 	dissolvedSolidsGPerL: number;
 	temperatureC: number;
-	warnings: { kind: 'solubility' | 'precipitation'; basis: string; message: string; lines: number[] }[];
+	warnings: {
+		kind: 'solubility' | 'precipitation';
+		basis: string;
+		message: string;
+		lines: number[];
+	}[];
 	/** Which stock versions were used, and anything provisional about them. */
 	notes: string[];
 	hazards: (GhsHazard & { components: string[] })[];
@@ -93,36 +104,65 @@ class Expander {
 	}
 
 	preload(ids: (string | null)[]) {
-		for (const [id, c] of findComponentsByIds(ids.filter((i): i is string => Boolean(i)), this.reader)) this.components.set(id, c);
+		for (const [id, c] of findComponentsByIds(
+			ids.filter((i): i is string => Boolean(i)),
+			this.reader
+		))
+			this.components.set(id, c);
 	}
 
 	/** g/L of the form that goes into the liquid (the shelf form when one is named). */
 	componentLine(line: AnalysisLine, field: string): { component: Component; gPerL: number } {
 		const base = this.component(line.componentId!);
 		const baseMolarMass = molarMassOfComponent(base);
-		const basisGPerL = toGramsPerLitre(line.amount, line.unit, baseMolarMass, `${field}.amount`, `${field}.unit`);
-		if (!line.shelfFormId || line.shelfFormId === base.id) return { component: base, gPerL: basisGPerL };
+		const basisGPerL = toGramsPerLitre(
+			line.amount,
+			line.unit,
+			baseMolarMass,
+			`${field}.amount`,
+			`${field}.unit`
+		);
+		if (!line.shelfFormId || line.shelfFormId === base.id)
+			return { component: base, gPerL: basisGPerL };
 		const shelf = this.component(line.shelfFormId);
 		const shelfMolarMass = molarMassOfComponent(shelf);
 		if (baseMolarMass === null || shelfMolarMass === null) {
-			throw new RuleError(`${shelf.name} and ${base.name} both need a formula to weigh one as the other.`, { field: `${field}.shelfFormId` });
+			throw new RuleError(
+				`${shelf.name} and ${base.name} both need a formula to weigh one as the other.`,
+				{ field: `${field}.shelfFormId` }
+			);
 		}
 		// One basis unit per shelf formula unit: the same moles, weighed as the heavier form.
 		return { component: shelf, gPerL: basisGPerL * hydrateFactor(shelfMolarMass, baseMolarMass) };
 	}
 
 	/** g/L of each component in one stock, expanded through stocks it contains. */
-	stockContents(line: AnalysisLine, field: string, trail: string[]): Map<string, { component: Component; gPerL: number }> {
+	stockContents(
+		line: AnalysisLine,
+		field: string,
+		trail: string[]
+	): Map<string, { component: Component; gPerL: number }> {
 		const stock = findRecipe(line.stockRecipeId!, this.reader);
-		if (!stock) throw new RuleError(`No stock solution “${line.stockRecipeId}”.`, { field: `${field}.stockRecipeId` });
+		if (!stock)
+			throw new RuleError(`No stock solution “${line.stockRecipeId}”.`, {
+				field: `${field}.stockRecipeId`
+			});
 		if (trail.includes(stock.id) || trail.length > MAX_STOCK_DEPTH) {
-			throw new RuleError(`${stock.name} contains, through its stocks, the recipe it is added to.`, { field: `${field}.stockRecipeId` });
+			throw new RuleError(
+				`${stock.name} contains, through its stocks, the recipe it is added to.`,
+				{ field: `${field}.stockRecipeId` }
+			);
 		}
-		let version = line.stockVersionId ? findVersionById(line.stockVersionId, this.reader) : undefined;
+		let version = line.stockVersionId
+			? findVersionById(line.stockVersionId, this.reader)
+			: undefined;
 		if (!version) version = currentApprovedVersion(stock.id, this.reader);
 		if (!version) {
 			version = latestVersion(stock.id, this.reader);
-			if (version) this.notes.push(`${stock.name} has no approved version yet: its version ${version.n} (${version.status.replace('_', ' ')}) is used, and this recipe cannot be approved until it is.`);
+			if (version)
+				this.notes.push(
+					`${stock.name} has no approved version yet: its version ${version.n} (${version.status.replace('_', ' ')}) is used, and this recipe cannot be approved until it is.`
+				);
 		} else {
 			this.notes.push(`${stock.name}: version ${version.n} (${version.status.replace('_', ' ')}).`);
 		}
@@ -131,7 +171,10 @@ class Expander {
 		for (const inner of linesOf(version.id, this.reader)) {
 			const parts =
 				inner.kind === 'stock'
-					? [...this.stockContents(inner, field, [...trail, stock.id]).values()].map((p) => ({ ...p, gPerL: p.gPerL * convertVolume(inner.amount, 'mL', 'L') }))
+					? [...this.stockContents(inner, field, [...trail, stock.id]).values()].map((p) => ({
+							...p,
+							gPerL: p.gPerL * convertVolume(inner.amount, 'mL', 'L')
+						}))
 					: [this.componentLine(inner, field)];
 			for (const part of parts) {
 				const entry = out.get(part.component.id);
@@ -154,7 +197,11 @@ function verdictOf(estimate: number, min: number | null, max: number | null): Os
  * The composition of a recipe: its component lines, plus the components of its stocks scaled by
  * dose/1000, merged per component, then put through the chemistry library.
  */
-export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, reader: Reader = db): RecipeAnalysis {
+export function analyseLines(
+	lines: AnalysisLine[],
+	options: AnalysisOptions,
+	reader: Reader = db
+): RecipeAnalysis {
 	const expander = new Expander(reader);
 	expander.preload(lines.flatMap((l) => [l.componentId, l.shelfFormId]));
 	const merged = new Map<string, Contribution>();
@@ -171,12 +218,19 @@ export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, re
 			const field = `lines.${index}`;
 			if (line.kind === 'stock') {
 				for (const part of expander.stockContents(line, field, trail).values()) {
-					add({ component: part.component, gPerL: part.gPerL * convertVolume(line.amount, 'mL', 'L') }, index);
+					add(
+						{
+							component: part.component,
+							gPerL: part.gPerL * convertVolume(line.amount, 'mL', 'L')
+						},
+						index
+					);
 				}
 			} else add(expander.componentLine(line, field), index);
 		});
 	} catch (cause) {
-		if (cause instanceof ChemistryInputError) throw new RuleError(cause.message, { field: cause.field });
+		if (cause instanceof ChemistryInputError)
+			throw new RuleError(cause.message, { field: cause.field });
 		throw cause;
 	}
 
@@ -184,7 +238,11 @@ export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, re
 	let result: CompositionResult;
 	try {
 		result = computeComposition({
-			lines: entries.map((e) => ({ component: componentSpecOf(e.component), amount: e.gPerL, unit: 'g/L' })),
+			lines: entries.map((e) => ({
+				component: componentSpecOf(e.component),
+				amount: e.gPerL,
+				unit: 'g/L'
+			})),
 			temperatureC: options.temperatureC
 		});
 	} catch (cause) {
@@ -192,9 +250,12 @@ export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, re
 		// The engine speaks of merged entries; point the user at the first line behind the entry.
 		const merged = /^lines\.(\d+)/.exec(cause.field ?? '');
 		const line = merged ? Math.min(...entries[Number(merged[1])].lines) : null;
-		throw new RuleError(cause.message, { field: line === null ? cause.field : `lines.${line}.componentId` });
+		throw new RuleError(cause.message, {
+			field: line === null ? cause.field : `lines.${line}.componentId`
+		});
 	}
-	const linesOfEntries = (indexes: number[]) => [...new Set(indexes.flatMap((i) => [...entries[i].lines]))].sort((a, b) => a - b);
+	const linesOfEntries = (indexes: number[]) =>
+		[...new Set(indexes.flatMap((i) => [...entries[i].lines]))].sort((a, b) => a - b);
 
 	const hazards = new Map<string, GhsHazard & { components: string[] }>();
 	for (const { component } of entries) {
@@ -220,15 +281,26 @@ export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, re
 		totalNitrogenGPerL: result.totalNitrogenGPerL,
 		osmolality: {
 			...result.osmolality,
-			excludedNames: entries.filter((e) => excluded.has(e.component.id)).map((e) => e.component.name),
+			excludedNames: entries
+				.filter((e) => excluded.has(e.component.id))
+				.map((e) => e.component.name),
 			minMOsmPerKg: options.osmolalityMinMOsmPerKg,
 			maxMOsmPerKg: options.osmolalityMaxMOsmPerKg,
-			verdict: verdictOf(result.osmolality.estimateMOsmPerKg, options.osmolalityMinMOsmPerKg, options.osmolalityMaxMOsmPerKg)
+			verdict: verdictOf(
+				result.osmolality.estimateMOsmPerKg,
+				options.osmolalityMinMOsmPerKg,
+				options.osmolalityMaxMOsmPerKg
+			)
 		},
 		ionicStrengthMolPerL: result.ionicStrengthMolPerL,
 		dissolvedSolidsGPerL: result.dissolvedSolidsGPerL,
 		temperatureC: result.temperatureC,
-		warnings: result.warnings.map((w) => ({ kind: w.kind, basis: w.basis, message: w.message, lines: linesOfEntries(w.lineIndexes) })),
+		warnings: result.warnings.map((w) => ({
+			kind: w.kind,
+			basis: w.basis,
+			message: w.message,
+			lines: linesOfEntries(w.lineIndexes)
+		})),
 		notes: [...new Set(expander.notes)],
 		hazards: [...hazards.values()].sort((a, b) => a.code.localeCompare(b.code))
 	};
@@ -236,7 +308,13 @@ export function analyseLines(lines: AnalysisLine[], options: AnalysisOptions, re
 
 /** The analysis of a stored version, with its pinned stock versions. */
 export function analyseVersion(
-	version: { id: string; recipeId: string; preparationTemperatureC: number; osmolalityMinMOsmPerKg: number | null; osmolalityMaxMOsmPerKg: number | null },
+	version: {
+		id: string;
+		recipeId: string;
+		preparationTemperatureC: number;
+		osmolalityMinMOsmPerKg: number | null;
+		osmolalityMaxMOsmPerKg: number | null;
+	},
 	reader: Reader = db
 ): RecipeAnalysis {
 	return analyseLines(

@@ -49,7 +49,12 @@ export function compareVersions(
 ): VersionComparison {
 	const fields = (Object.keys(DRAFT_FIELD_LABELS) as (keyof CheckedFields)[])
 		.filter((f) => a.fields[f] !== b.fields[f])
-		.map((f) => ({ field: f, label: DRAFT_FIELD_LABELS[f], before: shown(a.fields[f]), after: shown(b.fields[f]) }));
+		.map((f) => ({
+			field: f,
+			label: DRAFT_FIELD_LABELS[f],
+			before: shown(a.fields[f]),
+			after: shown(b.fields[f])
+		}));
 
 	const before = new Map(a.lines.map((l) => [keyOf(l), l]));
 	const after = new Map(b.lines.map((l) => [keyOf(l), l]));
@@ -58,20 +63,46 @@ export function compareVersions(
 		const key = keyOf(line);
 		const old = before.get(key);
 		if (!old) {
-			lines.push({ key, name: nameOf(line), status: 'added', before: null, after: line, changes: [] });
+			lines.push({
+				key,
+				name: nameOf(line),
+				status: 'added',
+				before: null,
+				after: line,
+				changes: []
+			});
 			continue;
 		}
 		const changes: string[] = [];
-		if (old.amount !== line.amount || old.unit !== line.unit) changes.push(`amount ${old.amount} ${old.unit} → ${line.amount} ${line.unit}`);
-		if (old.shelfFormId !== line.shelfFormId) changes.push(`form weighed ${shown(old.shelfFormName)} → ${shown(line.shelfFormName)}`);
-		if (old.position !== line.position) changes.push(`order of addition ${old.position} → ${line.position}`);
-		if (old.tolerancePercent !== line.tolerancePercent) changes.push(`tolerance ${old.tolerancePercent} % → ${line.tolerancePercent} %`);
+		if (old.amount !== line.amount || old.unit !== line.unit)
+			changes.push(`amount ${old.amount} ${old.unit} → ${line.amount} ${line.unit}`);
+		if (old.shelfFormId !== line.shelfFormId)
+			changes.push(`form weighed ${shown(old.shelfFormName)} → ${shown(line.shelfFormName)}`);
+		if (old.position !== line.position)
+			changes.push(`order of addition ${old.position} → ${line.position}`);
+		if (old.tolerancePercent !== line.tolerancePercent)
+			changes.push(`tolerance ${old.tolerancePercent} % → ${line.tolerancePercent} %`);
 		if (old.note !== line.note) changes.push(`note “${shown(old.note)}” → “${shown(line.note)}”`);
-		lines.push({ key, name: nameOf(line), status: changes.length ? 'changed' : 'same', before: old, after: line, changes });
+		lines.push({
+			key,
+			name: nameOf(line),
+			status: changes.length ? 'changed' : 'same',
+			before: old,
+			after: line,
+			changes
+		});
 	}
 	for (const line of a.lines) {
 		const key = keyOf(line);
-		if (!after.has(key)) lines.push({ key, name: nameOf(line), status: 'removed', before: line, after: null, changes: [] });
+		if (!after.has(key))
+			lines.push({
+				key,
+				name: nameOf(line),
+				status: 'removed',
+				before: line,
+				after: null,
+				changes: []
+			});
 	}
 	return { fields, lines };
 }

@@ -13,7 +13,16 @@ import { describedLinesOf, linesOf } from './queries';
 
 export const LINE_CSV_COLUMNS = {
 	required: ['component', 'amount', 'unit'],
-	allowed: ['kind', 'component', 'shelf_form', 'stock', 'amount', 'unit', 'tolerance_percent', 'note']
+	allowed: [
+		'kind',
+		'component',
+		'shelf_form',
+		'stock',
+		'amount',
+		'unit',
+		'tolerance_percent',
+		'note'
+	]
 } as const;
 
 const COLUMN_OF_FIELD: Record<string, string> = {
@@ -31,7 +40,11 @@ function findRecipeByIdOrName(text: string): Recipe | undefined {
 	if (!text) return undefined;
 	return (
 		db.select().from(recipe).where(eq(recipe.id, text)).get() ??
-		db.select().from(recipe).where(sql`lower(${recipe.name}) = lower(${text})`).get()
+		db
+			.select()
+			.from(recipe)
+			.where(sql`lower(${recipe.name}) = lower(${text})`)
+			.get()
 	);
 }
 
@@ -46,11 +59,14 @@ export interface LineImportPreview {
  */
 export function previewLineCsv(version: RecipeVersion, text: string): LineImportPreview {
 	const table = parseCsv(text, LINE_CSV_COLUMNS);
-	if (table.rows.length === 0) throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
+	if (table.rows.length === 0)
+		throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
 	const existing = toDraftLines(linesOf(version.id));
 	const nameErrors = new Map<number, string[]>();
 	const incoming: DraftLineInput[] = table.rows.map(({ values }, i) => {
-		const kind = (values.kind || (values.stock && !values.component ? 'stock' : 'component')).toLowerCase();
+		const kind = (
+			values.kind || (values.stock && !values.component ? 'stock' : 'component')
+		).toLowerCase();
 		const problems: string[] = [];
 		let componentId = '';
 		let shelfFormId = '';
@@ -62,11 +78,13 @@ export function previewLineCsv(version: RecipeVersion, text: string): LineImport
 		} else {
 			const found = findComponentByIdOrName(values.component);
 			if (!values.component) problems.push('component: give the component’s name or id.');
-			else if (!found) problems.push(`component: no component “${values.component}” in the library.`);
+			else if (!found)
+				problems.push(`component: no component “${values.component}” in the library.`);
 			else componentId = found.id;
 			if (values.shelf_form) {
 				const shelf = findComponentByIdOrName(values.shelf_form);
-				if (!shelf) problems.push(`shelf_form: no component “${values.shelf_form}” in the library.`);
+				if (!shelf)
+					problems.push(`shelf_form: no component “${values.shelf_form}” in the library.`);
 				else shelfFormId = shelf.id;
 			}
 		}
@@ -97,19 +115,35 @@ export function previewLineCsv(version: RecipeVersion, text: string): LineImport
 			rowErrors.push(...messages.map((m) => `${column}: ${m.replace(/^Line \d+: /, '')}`));
 		}
 		const line = byPosition.get(index + 1);
-		return { rowNumber, values, errors: rowErrors, value: line && !rowErrors.length ? (({ position: _p, ...rest }) => rest)(line) : undefined };
+		return {
+			rowNumber,
+			values,
+			errors: rowErrors,
+			value: line && !rowErrors.length ? (({ position: _p, ...rest }) => rest)(line) : undefined
+		};
 	});
 	return { rows, errorCount: rows.filter((r) => r.errors.length).length };
 }
 
 /** All rows or none. Returns how many lines were added. */
 export function importLineCsv(actor: Actor, version: RecipeVersion, text: string): number {
-	if (version.status !== 'draft') throw new RuleError(`Version ${version.n} is not a draft; lines can only be imported into a draft.`, { status: 409 });
+	if (version.status !== 'draft')
+		throw new RuleError(
+			`Version ${version.n} is not a draft; lines can only be imported into a draft.`,
+			{ status: 409 }
+		);
 	const preview = previewLineCsv(version, text);
 	if (preview.errorCount) {
-		throw new RuleError(`${preview.errorCount} row${preview.errorCount === 1 ? ' has' : 's have'} problems; nothing was imported. Fix them and preview again.`, { field: 'csv' });
+		throw new RuleError(
+			`${preview.errorCount} row${preview.errorCount === 1 ? ' has' : 's have'} problems; nothing was imported. Fix them and preview again.`,
+			{ field: 'csv' }
+		);
 	}
-	appendLines(actor, version.id, preview.rows.map((r) => r.value!));
+	appendLines(
+		actor,
+		version.id,
+		preview.rows.map((r) => r.value!)
+	);
 	return preview.rows.length;
 }
 
@@ -124,8 +158,12 @@ export function exportVersionCsv(recipeRow: Recipe, version: RecipeVersion): str
 		tolerance_percent: l.tolerancePercent,
 		note: l.note
 	}));
-	return toCsv(rows, [...LINE_CSV_COLUMNS.allowed], [
-		`Brothwright recipe: ${recipeRow.name}, version ${version.n} (${VERSION_STATUS_LABELS[version.status]})`,
-		`Lines in order of addition; amounts are concentrations in the finished medium, stocks in mL per L. Exported ${new Date().toISOString()}`
-	]);
+	return toCsv(
+		rows,
+		[...LINE_CSV_COLUMNS.allowed],
+		[
+			`Brothwright recipe: ${recipeRow.name}, version ${version.n} (${VERSION_STATUS_LABELS[version.status]})`,
+			`Lines in order of addition; amounts are concentrations in the finished medium, stocks in mL per L. Exported ${new Date().toISOString()}`
+		]
+	);
 }

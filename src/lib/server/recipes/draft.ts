@@ -58,7 +58,16 @@ const FIELD_KEYS: (keyof DraftFieldsInput)[] = [
 	'instructions',
 	'changeNote'
 ];
-const LINE_KEYS: (keyof DraftLineInput)[] = ['kind', 'componentId', 'shelfFormId', 'stockRecipeId', 'amount', 'unit', 'tolerancePercent', 'note'];
+const LINE_KEYS: (keyof DraftLineInput)[] = [
+	'kind',
+	'componentId',
+	'shelfFormId',
+	'stockRecipeId',
+	'amount',
+	'unit',
+	'tolerancePercent',
+	'note'
+];
 
 function text(value: unknown): string {
 	return typeof value === 'string' ? value : typeof value === 'number' ? String(value) : '';
@@ -66,7 +75,9 @@ function text(value: unknown): string {
 
 /** Reads the editor's form: recipe fields by name, lines as `lines.<i>.<field>`, in index order. */
 export function readDraftForm(formData: FormData): DraftInput {
-	const fields = Object.fromEntries(FIELD_KEYS.map((k) => [k, text(formData.get(k))])) as unknown as DraftFieldsInput;
+	const fields = Object.fromEntries(
+		FIELD_KEYS.map((k) => [k, text(formData.get(k))])
+	) as unknown as DraftFieldsInput;
 	const byIndex = new Map<number, Partial<DraftLineInput>>();
 	for (const [key, value] of formData.entries()) {
 		const match = /^lines\.(\d{1,4})\.(\w+)$/.exec(key);
@@ -76,12 +87,16 @@ export function readDraftForm(formData: FormData): DraftInput {
 		line[match[2] as keyof DraftLineInput] = text(value) as never;
 		byIndex.set(index, line);
 	}
-	const lines = [...byIndex.entries()].sort((a, b) => a[0] - b[0]).map(([, l]) => normaliseLineInput(l));
+	const lines = [...byIndex.entries()]
+		.sort((a, b) => a[0] - b[0])
+		.map(([, l]) => normaliseLineInput(l));
 	return { fields, lines };
 }
 
 /** Any loosely shaped line (JSON, CSV, form) as the editor's text line. */
-export function normaliseLineInput(line: Partial<Record<keyof DraftLineInput, unknown>>): DraftLineInput {
+export function normaliseLineInput(
+	line: Partial<Record<keyof DraftLineInput, unknown>>
+): DraftLineInput {
 	const kind = text(line.kind) === 'stock' ? 'stock' : text(line.kind) || 'component';
 	return {
 		kind: kind as LineKind,
@@ -109,26 +124,51 @@ function optionalNumberField(
 	if (!raw.trim()) return null;
 	const value = parseNumber(raw);
 	if (value === null) errors[field] = [`${range.what}: “${raw.trim()}” is not a number.`];
-	else if (value < range.min || value > range.max) errors[field] = [`${range.what} is between ${range.min} and ${range.max}, not ${value}.`];
-	else if (range.integer && !Number.isInteger(value)) errors[field] = [`${range.what} is a whole number.`];
+	else if (value < range.min || value > range.max)
+		errors[field] = [`${range.what} is between ${range.min} and ${range.max}, not ${value}.`];
+	else if (range.integer && !Number.isInteger(value))
+		errors[field] = [`${range.what} is a whole number.`];
 	else return value;
 	return null;
 }
 
 export function checkFields(input: DraftFieldsInput, errors: FieldErrors): CheckedFields {
-	const targetPh = optionalNumberField(input.targetPh, 'targetPh', errors, { min: 0, max: 14, what: 'Target pH' });
-	const min = optionalNumberField(input.osmolalityMinMOsmPerKg, 'osmolalityMinMOsmPerKg', errors, { min: 0, max: 10000, what: 'Lowest osmolality' });
-	const max = optionalNumberField(input.osmolalityMaxMOsmPerKg, 'osmolalityMaxMOsmPerKg', errors, { min: 0, max: 10000, what: 'Highest osmolality' });
+	const targetPh = optionalNumberField(input.targetPh, 'targetPh', errors, {
+		min: 0,
+		max: 14,
+		what: 'Target pH'
+	});
+	const min = optionalNumberField(input.osmolalityMinMOsmPerKg, 'osmolalityMinMOsmPerKg', errors, {
+		min: 0,
+		max: 10000,
+		what: 'Lowest osmolality'
+	});
+	const max = optionalNumberField(input.osmolalityMaxMOsmPerKg, 'osmolalityMaxMOsmPerKg', errors, {
+		min: 0,
+		max: 10000,
+		what: 'Highest osmolality'
+	});
 	if (min !== null && max !== null && min > max) {
 		errors.osmolalityMaxMOsmPerKg = [`The range runs from low to high: ${max} is below ${min}.`];
 	}
 	const temperature = input.preparationTemperatureC.trim()
-		? optionalNumberField(input.preparationTemperatureC, 'preparationTemperatureC', errors, { min: -10, max: 100, what: 'Preparation temperature' })
+		? optionalNumberField(input.preparationTemperatureC, 'preparationTemperatureC', errors, {
+				min: -10,
+				max: 100,
+				what: 'Preparation temperature'
+			})
 		: 25;
-	const shelfLifeDays = optionalNumberField(input.shelfLifeDays, 'shelfLifeDays', errors, { min: 0, max: 3650, what: 'Shelf life', integer: true });
+	const shelfLifeDays = optionalNumberField(input.shelfLifeDays, 'shelfLifeDays', errors, {
+		min: 0,
+		max: 3650,
+		what: 'Shelf life',
+		integer: true
+	});
 	if (input.storage.length > 300) errors.storage = ['Keep storage to 300 characters.'];
-	if (input.instructions.length > 20000) errors.instructions = ['Keep instructions to 20 000 characters.'];
-	if (input.changeNote.length > 1000) errors.changeNote = ['Keep the change note to 1 000 characters.'];
+	if (input.instructions.length > 20000)
+		errors.instructions = ['Keep instructions to 20 000 characters.'];
+	if (input.changeNote.length > 1000)
+		errors.changeNote = ['Keep the change note to 1 000 characters.'];
 	return {
 		targetPh,
 		osmolalityMinMOsmPerKg: min,
@@ -145,57 +185,93 @@ export function checkFields(input: DraftFieldsInput, errors: FieldErrors): Check
  * Checks every line and reports each problem at `lines.<i>.<field>`, all at once, so the editor can
  * show them beside the lines. `recipeId` is the recipe being edited (it cannot dose itself).
  */
-export function checkLines(lines: DraftLineInput[], recipeId: string | null, errors: FieldErrors, reader: Reader = db): CheckedLine[] {
+export function checkLines(
+	lines: DraftLineInput[],
+	recipeId: string | null,
+	errors: FieldErrors,
+	reader: Reader = db
+): CheckedLine[] {
 	if (lines.length > MAX_LINES) {
 		errors.lines = [`A recipe has at most ${MAX_LINES} lines; this one has ${lines.length}.`];
 		return [];
 	}
-	const components = findComponentsByIds(lines.flatMap((l) => [l.componentId, l.shelfFormId]), reader);
+	const components = findComponentsByIds(
+		lines.flatMap((l) => [l.componentId, l.shelfFormId]),
+		reader
+	);
 	const firstComponentLine = new Map<string, number>();
 	const firstStockLine = new Map<string, number>();
 	const checked: CheckedLine[] = [];
 
 	lines.forEach((line, i) => {
-		const at = (field: string, message: string) => ((errors[`lines.${i}.${field}`] ??= []).push(message), null);
+		const at = (field: string, message: string) => (
+			(errors[`lines.${i}.${field}`] ??= []).push(message),
+			null
+		);
 		const before = Object.keys(errors).length;
-		if (!(LINE_KINDS as readonly string[]).includes(line.kind)) at('kind', `Line ${i + 1}: the kind is “component” or “stock”.`);
+		if (!(LINE_KINDS as readonly string[]).includes(line.kind))
+			at('kind', `Line ${i + 1}: the kind is “component” or “stock”.`);
 		const amount = parseNumber(line.amount);
 		if (!line.amount.trim()) at('amount', `Line ${i + 1}: give an amount.`);
 		else if (amount === null) at('amount', `Line ${i + 1}: “${line.amount}” is not a number.`);
-		else if (amount <= 0) at('amount', `Line ${i + 1}: the amount must be greater than zero, not ${amount}.`);
+		else if (amount <= 0)
+			at('amount', `Line ${i + 1}: the amount must be greater than zero, not ${amount}.`);
 		let tolerance = DEFAULT_TOLERANCE_PERCENT;
 		if (line.tolerancePercent.trim()) {
 			const t = parseNumber(line.tolerancePercent);
-			if (t === null || t <= 0 || t > 50) at('tolerancePercent', `Line ${i + 1}: the weighing tolerance is a percentage above 0 and up to 50.`);
+			if (t === null || t <= 0 || t > 50)
+				at(
+					'tolerancePercent',
+					`Line ${i + 1}: the weighing tolerance is a percentage above 0 and up to 50.`
+				);
 			else tolerance = t;
 		}
 		if (line.note.length > 500) at('note', `Line ${i + 1}: keep the note to 500 characters.`);
 
 		let unit = line.unit.trim();
 		if (line.kind === 'stock') {
-			if (!line.stockRecipeId) at('stockRecipeId', `Line ${i + 1}: choose the stock solution to add.`);
+			if (!line.stockRecipeId)
+				at('stockRecipeId', `Line ${i + 1}: choose the stock solution to add.`);
 			else {
 				const stock = reader.select().from(recipe).where(eq(recipe.id, line.stockRecipeId)).get();
-				if (!stock) at('stockRecipeId', `Line ${i + 1}: no recipe with id “${line.stockRecipeId}”.`);
-				else if (stock.kind !== 'stock_solution') at('stockRecipeId', `Line ${i + 1}: ${stock.name} is not a stock solution.`);
-				else if (stock.id === recipeId) at('stockRecipeId', `Line ${i + 1}: a recipe cannot contain itself.`);
+				if (!stock)
+					at('stockRecipeId', `Line ${i + 1}: no recipe with id “${line.stockRecipeId}”.`);
+				else if (stock.kind !== 'stock_solution')
+					at('stockRecipeId', `Line ${i + 1}: ${stock.name} is not a stock solution.`);
+				else if (stock.id === recipeId)
+					at('stockRecipeId', `Line ${i + 1}: a recipe cannot contain itself.`);
 				else if (firstStockLine.has(stock.id)) {
-					at('stockRecipeId', `Line ${i + 1}: ${stock.name} is already on line ${firstStockLine.get(stock.id)! + 1}; combine the two lines.`);
+					at(
+						'stockRecipeId',
+						`Line ${i + 1}: ${stock.name} is already on line ${firstStockLine.get(stock.id)! + 1}; combine the two lines.`
+					);
 				} else firstStockLine.set(stock.id, i);
 			}
-			if (unit !== STOCK_DOSE_UNIT) at('unit', `Line ${i + 1}: a stock is dosed in ${STOCK_DOSE_UNIT} (millilitres of stock per litre of medium), not “${unit}”.`);
-			else if (amount !== null && amount > 1000) at('amount', `Line ${i + 1}: at most 1000 mL of stock fit in a litre of medium.`);
+			if (unit !== STOCK_DOSE_UNIT)
+				at(
+					'unit',
+					`Line ${i + 1}: a stock is dosed in ${STOCK_DOSE_UNIT} (millilitres of stock per litre of medium), not “${unit}”.`
+				);
+			else if (amount !== null && amount > 1000)
+				at('amount', `Line ${i + 1}: at most 1000 mL of stock fit in a litre of medium.`);
 		} else {
 			const component = line.componentId ? components.get(line.componentId) : undefined;
 			if (!line.componentId) at('componentId', `Line ${i + 1}: choose a component.`);
-			else if (!component) at('componentId', `Line ${i + 1}: no component “${line.componentId}” in the library.`);
+			else if (!component)
+				at('componentId', `Line ${i + 1}: no component “${line.componentId}” in the library.`);
 			else if (firstComponentLine.has(component.id)) {
-				at('componentId', `Line ${i + 1}: ${component.name} is already on line ${firstComponentLine.get(component.id)! + 1}; combine the two lines.`);
+				at(
+					'componentId',
+					`Line ${i + 1}: ${component.name} is already on line ${firstComponentLine.get(component.id)! + 1}; combine the two lines.`
+				);
 			} else firstComponentLine.set(component.id, i);
 			try {
 				unit = normalizeConcentrationUnit(unit, 'unit');
 				if (component && isMolarUnit(unit as never) && molarMassOfComponent(component) === null) {
-					at('unit', `Line ${i + 1}: ${component.name} has no formula or molar mass, so give it in a mass unit such as g/L.`);
+					at(
+						'unit',
+						`Line ${i + 1}: ${component.name} has no formula or molar mass, so give it in a mass unit such as g/L.`
+					);
 				}
 			} catch (cause) {
 				if (!(cause instanceof ChemistryInputError)) throw cause;
@@ -203,7 +279,8 @@ export function checkLines(lines: DraftLineInput[], recipeId: string | null, err
 			}
 			if (line.shelfFormId && component) {
 				const shelf = components.get(line.shelfFormId);
-				if (!shelf) at('shelfFormId', `Line ${i + 1}: no component “${line.shelfFormId}” to weigh.`);
+				if (!shelf)
+					at('shelfFormId', `Line ${i + 1}: no component “${line.shelfFormId}” to weigh.`);
 				else if (shelf.id !== component.id && shelf.basisComponentId !== component.id) {
 					at('shelfFormId', `Line ${i + 1}: ${shelf.name} is not a form of ${component.name}.`);
 				}
@@ -215,7 +292,10 @@ export function checkLines(lines: DraftLineInput[], recipeId: string | null, err
 			position: i + 1,
 			kind: line.kind,
 			componentId: isStock ? null : line.componentId,
-			shelfFormId: isStock || !line.shelfFormId || line.shelfFormId === line.componentId ? null : line.shelfFormId,
+			shelfFormId:
+				isStock || !line.shelfFormId || line.shelfFormId === line.componentId
+					? null
+					: line.shelfFormId,
 			stockRecipeId: isStock ? line.stockRecipeId : null,
 			amount,
 			unit,
@@ -226,7 +306,11 @@ export function checkLines(lines: DraftLineInput[], recipeId: string | null, err
 	return checked;
 }
 
-export function checkDraft(input: DraftInput, recipeId: string | null, reader: Reader = db): Checked<{ fields: CheckedFields; lines: CheckedLine[] }> {
+export function checkDraft(
+	input: DraftInput,
+	recipeId: string | null,
+	reader: Reader = db
+): Checked<{ fields: CheckedFields; lines: CheckedLine[] }> {
 	const errors: FieldErrors = {};
 	const fields = checkFields(input.fields, errors);
 	const lines = checkLines(input.lines, recipeId, errors, reader);

@@ -38,15 +38,23 @@ export function fieldsOf(version: RecipeVersion): CheckedFields {
 	};
 }
 
-export function checkRecipeHead(input: { name: string; kind: string }, selfId?: string): { name: string; kind: RecipeKind } {
+export function checkRecipeHead(
+	input: { name: string; kind: string },
+	selfId?: string
+): { name: string; kind: RecipeKind } {
 	const name = input.name.trim();
 	if (!name) throw new RuleError('Give the recipe a name.', { field: 'name' });
 	if (name.length > 120) throw new RuleError('Keep the name to 120 characters.', { field: 'name' });
 	if (!(RECIPE_KINDS as readonly string[]).includes(input.kind)) {
 		throw new RuleError('Choose what kind of recipe this is.', { field: 'kind' });
 	}
-	const clash = db.select({ id: recipe.id }).from(recipe).where(sql`lower(${recipe.name}) = lower(${name})`).get();
-	if (clash && clash.id !== selfId) throw new RuleError(`A recipe named “${name}” already exists.`, { field: 'name' });
+	const clash = db
+		.select({ id: recipe.id })
+		.from(recipe)
+		.where(sql`lower(${recipe.name}) = lower(${name})`)
+		.get();
+	if (clash && clash.id !== selfId)
+		throw new RuleError(`A recipe named “${name}” already exists.`, { field: 'name' });
 	return { name, kind: input.kind as RecipeKind };
 }
 
@@ -73,21 +81,50 @@ function insertRecipe(
 	tx: Tx,
 	actor: Actor,
 	head: { name: string; kind: RecipeKind },
-	draft: { fields?: Partial<CheckedFields>; lines?: CheckedLine[]; origin?: Record<string, unknown> } = {}
+	draft: {
+		fields?: Partial<CheckedFields>;
+		lines?: CheckedLine[];
+		origin?: Record<string, unknown>;
+	} = {}
 ): string {
 	const recipeId = crypto.randomUUID();
-	tx.insert(recipe).values({ id: recipeId, name: head.name, kind: head.kind, ownerId: actor.id! }).run();
+	tx.insert(recipe)
+		.values({ id: recipeId, name: head.name, kind: head.kind, ownerId: actor.id! })
+		.run();
 	const versionId = crypto.randomUUID();
-	tx.insert(recipeVersion).values({ id: versionId, recipeId, n: 1, authorId: actor.id!, updatedById: actor.id, ...draft.fields }).run();
+	tx.insert(recipeVersion)
+		.values({
+			id: versionId,
+			recipeId,
+			n: 1,
+			authorId: actor.id!,
+			updatedById: actor.id,
+			...draft.fields
+		})
+		.run();
 	const lines = draft.lines ?? [];
 	insertLines(tx, versionId, lines);
-	const detail = { name: head.name, kind: head.kind, versionId, ...(lines.length ? { lines: lines.length } : {}), ...(draft.origin ? { origin: draft.origin } : {}) };
-	recordAudit(actor, { action: 'recipe.created', subjectType: 'recipe', subjectId: recipeId, detail }, tx);
+	const detail = {
+		name: head.name,
+		kind: head.kind,
+		versionId,
+		...(lines.length ? { lines: lines.length } : {}),
+		...(draft.origin ? { origin: draft.origin } : {})
+	};
+	recordAudit(
+		actor,
+		{ action: 'recipe.created', subjectType: 'recipe', subjectId: recipeId, detail },
+		tx
+	);
 	return recipeId;
 }
 
 /** A new recipe with an empty draft, version 1. Returns the recipe id. */
-export function createRecipe(actor: Actor, input: { name: string; kind: string }, fields?: Partial<CheckedFields>): string {
+export function createRecipe(
+	actor: Actor,
+	input: { name: string; kind: string },
+	fields?: Partial<CheckedFields>
+): string {
 	const head = checkRecipeHead(input);
 	return db.transaction((tx) => insertRecipe(tx, actor, head, { fields }));
 }
@@ -98,7 +135,13 @@ export function createRecipe(actor: Actor, input: { name: string; kind: string }
  */
 export function createRecipesWithDrafts(
 	actor: Actor,
-	drafts: { name: string; kind: string; nameField?: string; fields: CheckedFields; lines: CheckedLine[] }[],
+	drafts: {
+		name: string;
+		kind: string;
+		nameField?: string;
+		fields: CheckedFields;
+		lines: CheckedLine[];
+	}[],
 	origin?: Record<string, unknown>
 ): string[] {
 	return db.transaction((tx) =>
@@ -108,7 +151,8 @@ export function createRecipesWithDrafts(
 				// Inside the transaction, so two new recipes of one call cannot share a name either.
 				head = checkRecipeHead(draft);
 			} catch (cause) {
-				if (cause instanceof RuleError && cause.field === 'name' && draft.nameField) throw new RuleError(cause.message, { field: draft.nameField, status: cause.status });
+				if (cause instanceof RuleError && cause.field === 'name' && draft.nameField)
+					throw new RuleError(cause.message, { field: draft.nameField, status: cause.status });
 				throw cause;
 			}
 			return insertRecipe(tx, actor, head, { fields: draft.fields, lines: draft.lines, origin });
@@ -131,27 +175,53 @@ function requireDraft(version: RecipeVersion | undefined): RecipeVersion {
  * Saves a draft edited from `revision`. If anyone saved it since, nothing is written and the error
  * carries their version, so the editor can show it beside the user's own unsaved lines.
  */
-export function saveDraft(actor: Actor, versionId: string, revision: number, draft: { fields: CheckedFields; lines: CheckedLine[] }): number {
+export function saveDraft(
+	actor: Actor,
+	versionId: string,
+	revision: number,
+	draft: { fields: CheckedFields; lines: CheckedLine[] }
+): number {
 	return db.transaction((tx) => {
 		const version = requireDraft(findVersionById(versionId, tx));
 		if (version.revision !== revision) {
-			const byName = version.updatedById ? (tx.select({ name: user.name }).from(user).where(eq(user.id, version.updatedById)).get()?.name ?? null) : null;
+			const byName = version.updatedById
+				? (tx.select({ name: user.name }).from(user).where(eq(user.id, version.updatedById)).get()
+						?.name ?? null)
+				: null;
 			throw new StaleEditError(
 				`${byName ?? 'Someone'} saved this draft at ${version.updatedAt.toISOString().slice(11, 16)} UTC, after you opened it. Nothing of yours was saved: your lines are still here. Compare with theirs below, then save again to replace theirs, or take theirs.`,
-				{ revision: version.revision, byName, at: version.updatedAt, fields: fieldsOf(version), lines: describedLinesOf(version.id) }
+				{
+					revision: version.revision,
+					byName,
+					at: version.updatedAt,
+					fields: fieldsOf(version),
+					lines: describedLinesOf(version.id)
+				}
 			);
 		}
 		const before = fieldsOf(version);
-		const changed = (Object.keys(draft.fields) as (keyof CheckedFields)[]).filter((k) => before[k] !== draft.fields[k]);
+		const changed = (Object.keys(draft.fields) as (keyof CheckedFields)[]).filter(
+			(k) => before[k] !== draft.fields[k]
+		);
 		tx.update(recipeVersion)
-			.set({ ...draft.fields, revision: revision + 1, updatedById: actor.id, updatedAt: new Date() })
+			.set({
+				...draft.fields,
+				revision: revision + 1,
+				updatedById: actor.id,
+				updatedAt: new Date()
+			})
 			.where(eq(recipeVersion.id, versionId))
 			.run();
 		tx.delete(recipeLine).where(eq(recipeLine.versionId, versionId)).run();
 		insertLines(tx, versionId, draft.lines);
 		recordAudit(
 			actor,
-			{ action: 'recipe.draft_saved', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n, lines: draft.lines.length, changed, revision: revision + 1 } },
+			{
+				action: 'recipe.draft_saved',
+				subjectType: 'recipe_version',
+				subjectId: versionId,
+				detail: { n: version.n, lines: draft.lines.length, changed, revision: revision + 1 }
+			},
 			tx
 		);
 		return revision + 1;
@@ -159,13 +229,37 @@ export function saveDraft(actor: Actor, versionId: string, revision: number, dra
 }
 
 /** Appends lines (a CSV import) to a draft, in one transaction. */
-export function appendLines(actor: Actor, versionId: string, lines: Omit<CheckedLine, 'position'>[]): void {
+export function appendLines(
+	actor: Actor,
+	versionId: string,
+	lines: Omit<CheckedLine, 'position'>[]
+): void {
 	db.transaction((tx) => {
 		const version = requireDraft(findVersionById(versionId, tx));
-		const [{ last }] = tx.select({ last: max(recipeLine.position) }).from(recipeLine).where(eq(recipeLine.versionId, versionId)).all();
-		insertLines(tx, versionId, lines.map((l, i) => ({ ...l, position: (last ?? 0) + i + 1 })));
-		tx.update(recipeVersion).set({ revision: version.revision + 1, updatedById: actor.id, updatedAt: new Date() }).where(eq(recipeVersion.id, versionId)).run();
-		recordAudit(actor, { action: 'recipe.lines_imported', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n, lines: lines.length } }, tx);
+		const [{ last }] = tx
+			.select({ last: max(recipeLine.position) })
+			.from(recipeLine)
+			.where(eq(recipeLine.versionId, versionId))
+			.all();
+		insertLines(
+			tx,
+			versionId,
+			lines.map((l, i) => ({ ...l, position: (last ?? 0) + i + 1 }))
+		);
+		tx.update(recipeVersion)
+			.set({ revision: version.revision + 1, updatedById: actor.id, updatedAt: new Date() })
+			.where(eq(recipeVersion.id, versionId))
+			.run();
+		recordAudit(
+			actor,
+			{
+				action: 'recipe.lines_imported',
+				subjectType: 'recipe_version',
+				subjectId: versionId,
+				detail: { n: version.n, lines: lines.length }
+			},
+			tx
+		);
 	});
 }
 
@@ -177,12 +271,24 @@ export function startDraftFrom(actor: Actor, sourceVersionId: string): RecipeVer
 		const open = tx
 			.select({ n: recipeVersion.n, status: recipeVersion.status })
 			.from(recipeVersion)
-			.where(and(eq(recipeVersion.recipeId, source.recipeId), inArray(recipeVersion.status, ['draft', 'in_review'])))
+			.where(
+				and(
+					eq(recipeVersion.recipeId, source.recipeId),
+					inArray(recipeVersion.status, ['draft', 'in_review'])
+				)
+			)
 			.get();
 		if (open) {
-			throw new RuleError(`Version ${open.n} is still ${open.status.replace('_', ' ')}; finish it (or return it to draft and edit it) before starting another.`, { status: 409 });
+			throw new RuleError(
+				`Version ${open.n} is still ${open.status.replace('_', ' ')}; finish it (or return it to draft and edit it) before starting another.`,
+				{ status: 409 }
+			);
 		}
-		const [{ last }] = tx.select({ last: max(recipeVersion.n) }).from(recipeVersion).where(eq(recipeVersion.recipeId, source.recipeId)).all();
+		const [{ last }] = tx
+			.select({ last: max(recipeVersion.n) })
+			.from(recipeVersion)
+			.where(eq(recipeVersion.recipeId, source.recipeId))
+			.all();
 		const created = tx
 			.insert(recipeVersion)
 			.values({
@@ -199,7 +305,12 @@ export function startDraftFrom(actor: Actor, sourceVersionId: string): RecipeVer
 		insertLines(tx, created.id, linesOf(source.id, tx));
 		recordAudit(
 			actor,
-			{ action: 'recipe.draft_started', subjectType: 'recipe_version', subjectId: created.id, detail: { n: created.n, basedOn: source.n } },
+			{
+				action: 'recipe.draft_started',
+				subjectType: 'recipe_version',
+				subjectId: created.id,
+				detail: { n: created.n, basedOn: source.n }
+			},
 			tx
 		);
 		return created;

@@ -1,7 +1,8 @@
 import type { DraftFieldsInput, DraftLineInput, LineKind } from '$lib/recipes';
 import type { CheckedFields } from './draft';
 
-const text = (value: number | string | null | undefined) => (value === null || value === undefined ? '' : String(value));
+const text = (value: number | string | null | undefined) =>
+	value === null || value === undefined ? '' : String(value);
 
 /** Stored fields as the editor's text fields. */
 export function toDraftFields(fields: CheckedFields): DraftFieldsInput {
@@ -19,7 +20,16 @@ export function toDraftFields(fields: CheckedFields): DraftFieldsInput {
 
 /** Stored lines as the editor's text lines. */
 export function toDraftLines(
-	lines: { kind: LineKind; componentId: string | null; shelfFormId: string | null; stockRecipeId: string | null; amount: number; unit: string; tolerancePercent: number; note: string }[]
+	lines: {
+		kind: LineKind;
+		componentId: string | null;
+		shelfFormId: string | null;
+		stockRecipeId: string | null;
+		amount: number;
+		unit: string;
+		tolerancePercent: number;
+		note: string;
+	}[]
 ): DraftLineInput[] {
 	return lines.map((l) => ({
 		kind: l.kind,

@@ -9,7 +9,9 @@ import { checkFields, checkLines, normaliseLineInput } from './draft';
 export class DraftProblems extends Error {
 	constructor(readonly fieldErrors: FieldErrors) {
 		const count = Object.keys(fieldErrors).length;
-		super(`${count} input${count === 1 ? ' needs' : 's need'} attention: ${Object.values(fieldErrors).flat().join(' ')}`);
+		super(
+			`${count} input${count === 1 ? ' needs' : 's need'} attention: ${Object.values(fieldErrors).flat().join(' ')}`
+		);
 	}
 }
 
@@ -43,7 +45,8 @@ export function previewDraft(body: z.infer<typeof previewRequest>): RecipeAnalys
 			recipeId: body.recipeId ?? null
 		});
 	} catch (cause) {
-		if (cause instanceof RuleError && cause.field) throw new DraftProblems({ [cause.field]: [cause.message] });
+		if (cause instanceof RuleError && cause.field)
+			throw new DraftProblems({ [cause.field]: [cause.message] });
 		throw cause;
 	}
 }

@@ -2,7 +2,16 @@ import { and, asc, count, desc, eq, exists, inArray, like, or, sql, type SQL } f
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { RecipeKind, VersionStatus } from '$lib/recipes';
 import { db, type Db } from '../db';
-import { component, recipe, recipeLine, recipeVersion, user, type Recipe, type RecipeLine, type RecipeVersion } from '../db/schema';
+import {
+	component,
+	recipe,
+	recipeLine,
+	recipeVersion,
+	user,
+	type Recipe,
+	type RecipeLine,
+	type RecipeVersion
+} from '../db/schema';
 import { signaturesFor } from '../signatures';
 
 type Reader = Pick<Db, 'select'>;
@@ -31,14 +40,19 @@ export interface RecipeSummary {
 function filterConditions(filter: Omit<RecipeFilter, 'page' | 'pageSize'>): SQL | undefined {
 	const conditions: SQL[] = [];
 	if (filter.kind) conditions.push(eq(recipe.kind, filter.kind));
-	if (filter.search) conditions.push(like(sql`lower(${recipe.name})`, `%${filter.search.toLowerCase().replace(/[%_]/g, '')}%`));
+	if (filter.search)
+		conditions.push(
+			like(sql`lower(${recipe.name})`, `%${filter.search.toLowerCase().replace(/[%_]/g, '')}%`)
+		);
 	if (filter.status) {
 		conditions.push(
 			exists(
 				db
 					.select({ one: sql`1` })
 					.from(recipeVersion)
-					.where(and(eq(recipeVersion.recipeId, recipe.id), eq(recipeVersion.status, filter.status)))
+					.where(
+						and(eq(recipeVersion.recipeId, recipe.id), eq(recipeVersion.status, filter.status))
+					)
 			)
 		);
 	}
@@ -52,7 +66,10 @@ function filterConditions(filter: Omit<RecipeFilter, 'page' | 'pageSize'>): SQL 
 					.where(
 						and(
 							eq(recipeVersion.recipeId, recipe.id),
-							or(eq(recipeLine.componentId, filter.componentId), eq(recipeLine.shelfFormId, filter.componentId))
+							or(
+								eq(recipeLine.componentId, filter.componentId),
+								eq(recipeLine.shelfFormId, filter.componentId)
+							)
 						)
 					)
 			)
@@ -75,9 +92,19 @@ export function listRecipes(filter: RecipeFilter): { rows: RecipeSummary[]; tota
 		.all();
 	const versions = recipes.length
 		? db
-				.select({ recipeId: recipeVersion.recipeId, n: recipeVersion.n, status: recipeVersion.status, updatedAt: recipeVersion.updatedAt })
+				.select({
+					recipeId: recipeVersion.recipeId,
+					n: recipeVersion.n,
+					status: recipeVersion.status,
+					updatedAt: recipeVersion.updatedAt
+				})
 				.from(recipeVersion)
-				.where(inArray(recipeVersion.recipeId, recipes.map((r) => r.id)))
+				.where(
+					inArray(
+						recipeVersion.recipeId,
+						recipes.map((r) => r.id)
+					)
+				)
 				.orderBy(desc(recipeVersion.n))
 				.all()
 		: [];
@@ -98,7 +125,12 @@ export function findRecipe(id: string, reader: Reader = db): Recipe | undefined 
 }
 
 export function listStockRecipes(): { id: string; name: string; approvedN: number | null }[] {
-	const stocks = db.select({ id: recipe.id, name: recipe.name }).from(recipe).where(eq(recipe.kind, 'stock_solution')).orderBy(asc(recipe.name)).all();
+	const stocks = db
+		.select({ id: recipe.id, name: recipe.name })
+		.from(recipe)
+		.where(eq(recipe.kind, 'stock_solution'))
+		.orderBy(asc(recipe.name))
+		.all();
 	return stocks.map((s) => ({ ...s, approvedN: currentApprovedVersion(s.id)?.n ?? null }));
 }
 
@@ -129,7 +161,11 @@ export function versionsOf(recipeId: string) {
 		.all();
 }
 
-export function findVersion(recipeId: string, n: number, reader: Reader = db): RecipeVersion | undefined {
+export function findVersion(
+	recipeId: string,
+	n: number,
+	reader: Reader = db
+): RecipeVersion | undefined {
 	if (!Number.isInteger(n)) return undefined;
 	return reader
 		.select()
@@ -142,7 +178,10 @@ export function findVersionById(id: string, reader: Reader = db): RecipeVersion 
 	return reader.select().from(recipeVersion).where(eq(recipeVersion.id, id)).get();
 }
 
-export function currentApprovedVersion(recipeId: string, reader: Reader = db): RecipeVersion | undefined {
+export function currentApprovedVersion(
+	recipeId: string,
+	reader: Reader = db
+): RecipeVersion | undefined {
 	return reader
 		.select()
 		.from(recipeVersion)
@@ -152,11 +191,21 @@ export function currentApprovedVersion(recipeId: string, reader: Reader = db): R
 }
 
 export function latestVersion(recipeId: string, reader: Reader = db): RecipeVersion | undefined {
-	return reader.select().from(recipeVersion).where(eq(recipeVersion.recipeId, recipeId)).orderBy(desc(recipeVersion.n)).get();
+	return reader
+		.select()
+		.from(recipeVersion)
+		.where(eq(recipeVersion.recipeId, recipeId))
+		.orderBy(desc(recipeVersion.n))
+		.get();
 }
 
 export function linesOf(versionId: string, reader: Reader = db): RecipeLine[] {
-	return reader.select().from(recipeLine).where(eq(recipeLine.versionId, versionId)).orderBy(asc(recipeLine.position)).all();
+	return reader
+		.select()
+		.from(recipeLine)
+		.where(eq(recipeLine.versionId, versionId))
+		.orderBy(asc(recipeLine.position))
+		.all();
 }
 
 const shelf = alias(component, 'shelf');

@@ -1,6 +1,13 @@
 import { RuleError } from '../rule-error';
 import { analyseVersion, type RecipeAnalysis } from './analysis';
-import { describedLinesOf, findRecipe, findVersion, personName, versionSignatures, versionsOf } from './queries';
+import {
+	describedLinesOf,
+	findRecipe,
+	findVersion,
+	personName,
+	versionSignatures,
+	versionsOf
+} from './queries';
 
 /** Everything a person (or script) reads about one version: lines, composition, signatures. */
 export function versionView(recipeId: string, n: number) {
@@ -18,7 +25,11 @@ export function versionView(recipeId: string, n: number) {
 	}
 	return {
 		recipe,
-		version: { ...version, authorName: personName(version.authorId), approvedByName: personName(version.approvedById) },
+		version: {
+			...version,
+			authorName: personName(version.authorId),
+			approvedByName: personName(version.approvedById)
+		},
 		lines: describedLinesOf(version.id),
 		analysis,
 		analysisError,
@@ -29,5 +40,8 @@ export function versionView(recipeId: string, n: number) {
 export function recipeView(recipeId: string) {
 	const recipe = findRecipe(recipeId);
 	if (!recipe) throw new RuleError('No recipe with this id.', { status: 404 });
-	return { recipe: { ...recipe, ownerName: personName(recipe.ownerId) }, versions: versionsOf(recipe.id) };
+	return {
+		recipe: { ...recipe, ownerName: personName(recipe.ownerId) },
+		versions: versionsOf(recipe.id)
+	};
 }

@@ -11,7 +11,6 @@ import { analyseVersion } from './analysis';
 import { fieldsOf } from './drafts';
 import { currentApprovedVersion, findRecipe, findVersionById, linesOf } from './queries';
 
-
 function requireVersion(id: string): RecipeVersion {
 	const version = findVersionById(id);
 	if (!version) throw new RuleError('No such recipe version.', { status: 404 });
@@ -20,7 +19,10 @@ function requireVersion(id: string): RecipeVersion {
 
 function requireStatus(version: RecipeVersion, status: RecipeVersion['status'], doing: string) {
 	if (version.status !== status) {
-		throw new RuleError(`Version ${version.n} is ${version.status.replace('_', ' ')}; only a version ${status.replace('_', ' ')} can be ${doing}.`, { status: 409 });
+		throw new RuleError(
+			`Version ${version.n} is ${version.status.replace('_', ' ')}; only a version ${status.replace('_', ' ')} can be ${doing}.`,
+			{ status: 409 }
+		);
 	}
 }
 
@@ -28,7 +30,12 @@ function requireStatus(version: RecipeVersion, status: RecipeVersion['status'], 
 export function versionDigest(version: RecipeVersion): string {
 	const recipe = findRecipe(version.recipeId)!;
 	const lines = linesOf(version.id).map(({ id: _id, versionId: _v, ...line }) => line);
-	return digestOf({ recipe: { id: recipe.id, name: recipe.name, kind: recipe.kind }, n: version.n, fields: fieldsOf(version), lines });
+	return digestOf({
+		recipe: { id: recipe.id, name: recipe.name, kind: recipe.kind },
+		n: version.n,
+		fields: fieldsOf(version),
+		lines
+	});
 }
 
 /**
@@ -39,29 +46,58 @@ export function submitForReview(actor: Actor, versionId: string, revision: numbe
 	const version = requireVersion(versionId);
 	requireStatus(version, 'draft', 'submitted');
 	if (version.revision !== revision) {
-		throw new RuleError('Someone saved this draft after you opened it; reload and check their change before submitting.', { status: 409 });
+		throw new RuleError(
+			'Someone saved this draft after you opened it; reload and check their change before submitting.',
+			{ status: 409 }
+		);
 	}
 	const lines = linesOf(version.id);
-	if (lines.length === 0) throw new RuleError('Add at least one line before submitting for review.');
+	if (lines.length === 0)
+		throw new RuleError('Add at least one line before submitting for review.');
 	analyseVersion(version);
 	db.transaction((tx) => {
 		for (const line of lines.filter((l) => l.kind === 'stock')) {
 			const approved = currentApprovedVersion(line.stockRecipeId!, tx);
 			const stock = findRecipe(line.stockRecipeId!, tx)!;
 			if (!approved) {
-				throw new RuleError(`Line ${line.position}: ${stock.name} has no approved version yet; it must be approved first.`, {
-					field: `lines.${line.position - 1}.stockRecipeId`
-				});
+				throw new RuleError(
+					`Line ${line.position}: ${stock.name} has no approved version yet; it must be approved first.`,
+					{
+						field: `lines.${line.position - 1}.stockRecipeId`
+					}
+				);
 			}
-			tx.update(recipeLine).set({ stockVersionId: approved.id }).where(eq(recipeLine.id, line.id)).run();
+			tx.update(recipeLine)
+				.set({ stockVersionId: approved.id })
+				.where(eq(recipeLine.id, line.id))
+				.run();
 		}
 		const done = tx
 			.update(recipeVersion)
 			.set({ status: 'in_review', submittedAt: new Date() })
-			.where(and(eq(recipeVersion.id, versionId), eq(recipeVersion.status, 'draft'), eq(recipeVersion.revision, revision)))
+			.where(
+				and(
+					eq(recipeVersion.id, versionId),
+					eq(recipeVersion.status, 'draft'),
+					eq(recipeVersion.revision, revision)
+				)
+			)
 			.run();
-		if (done.changes !== 1) throw new RuleError('This draft changed while you were submitting it; reload and try again.', { status: 409 });
-		recordAudit(actor, { action: 'recipe.submitted', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n } }, tx);
+		if (done.changes !== 1)
+			throw new RuleError(
+				'This draft changed while you were submitting it; reload and try again.',
+				{ status: 409 }
+			);
+		recordAudit(
+			actor,
+			{
+				action: 'recipe.submitted',
+				subjectType: 'recipe_version',
+				subjectId: versionId,
+				detail: { n: version.n }
+			},
+			tx
+		);
 	});
 }
 
@@ -69,23 +105,49 @@ export function submitForReview(actor: Actor, versionId: string, revision: numbe
 export function returnToDraft(actor: Actor, versionId: string, comment: string): void {
 	const version = requireVersion(versionId);
 	requireStatus(version, 'in_review', 'returned to draft');
-	if (!comment.trim()) throw new RuleError('Say what needs to change, so the author knows.', { field: 'comment' });
+	if (!comment.trim())
+		throw new RuleError('Say what needs to change, so the author knows.', { field: 'comment' });
 	db.transaction((tx) => {
-		tx.update(recipeLine).set({ stockVersionId: null }).where(eq(recipeLine.versionId, versionId)).run();
+		tx.update(recipeLine)
+			.set({ stockVersionId: null })
+			.where(eq(recipeLine.versionId, versionId))
+			.run();
 		tx.update(recipeVersion)
-			.set({ status: 'draft', submittedAt: null, revision: version.revision + 1, updatedAt: new Date() })
+			.set({
+				status: 'draft',
+				submittedAt: null,
+				revision: version.revision + 1,
+				updatedAt: new Date()
+			})
 			.where(eq(recipeVersion.id, versionId))
 			.run();
-		recordAudit(actor, { action: 'recipe.returned_to_draft', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n, comment: comment.trim() } }, tx);
+		recordAudit(
+			actor,
+			{
+				action: 'recipe.returned_to_draft',
+				subjectType: 'recipe_version',
+				subjectId: versionId,
+				detail: { n: version.n, comment: comment.trim() }
+			},
+			tx
+		);
 	});
 }
 
 /** Why this person may not sign the version, or null when they may. */
-export function signingRefusal(signer: { id: string; roles: readonly Role[] }, version: RecipeVersion): string | null {
-	if (!may(signer, 'recipe.sign')) return 'Review and approval need the role Media scientist or Process engineer.';
-	if (version.authorId === signer.id) return 'You wrote this version, so someone else must review and approve it.';
-	const edited = auditEventsFor('recipe_version', version.id).some((e) => e.action === 'recipe.draft_saved' && e.actorId === signer.id);
-	if (edited) return 'You edited this version, so someone who did not write it must review and approve it.';
+export function signingRefusal(
+	signer: { id: string; roles: readonly Role[] },
+	version: RecipeVersion
+): string | null {
+	if (!may(signer, 'recipe.sign'))
+		return 'Review and approval need the role Media scientist or Process engineer.';
+	if (version.authorId === signer.id)
+		return 'You wrote this version, so someone else must review and approve it.';
+	const edited = auditEventsFor('recipe_version', version.id).some(
+		(e) => e.action === 'recipe.draft_saved' && e.actorId === signer.id
+	);
+	if (edited)
+		return 'You edited this version, so someone who did not write it must review and approve it.';
 	return null;
 }
 
@@ -109,7 +171,9 @@ export async function signVersion(
 	const refusal = signingRefusal(signer, version);
 	if (refusal) throw new RuleError(refusal, { status: 403 });
 	if (!(SIGNATURE_MEANINGS as readonly string[]).includes(input.meaning)) {
-		throw new RuleError('Choose what your signature means: reviewed or approved.', { field: 'meaning' });
+		throw new RuleError('Choose what your signature means: reviewed or approved.', {
+			field: 'meaning'
+		});
 	}
 	const meaning = input.meaning as SignatureMeaning;
 	const digest = versionDigest(version);
@@ -128,23 +192,55 @@ export async function signVersion(
 		(tx) => {
 			const now = findVersionById(versionId, tx);
 			if (!now || now.status !== 'in_review' || now.revision !== version.revision) {
-				throw new RuleError('This version changed while you were signing; nothing was signed. Reload and look again.', { status: 409 });
+				throw new RuleError(
+					'This version changed while you were signing; nothing was signed. Reload and look again.',
+					{ status: 409 }
+				);
 			}
 			if (meaning === 'reviewed') {
-				recordAudit(actor, { action: 'recipe.reviewed', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n } }, tx);
+				recordAudit(
+					actor,
+					{
+						action: 'recipe.reviewed',
+						subjectType: 'recipe_version',
+						subjectId: versionId,
+						detail: { n: version.n }
+					},
+					tx
+				);
 				return;
 			}
 			const previous = currentApprovedVersion(version.recipeId, tx);
 			if (previous) {
-				tx.update(recipeVersion).set({ status: 'retired', retiredAt: new Date() }).where(eq(recipeVersion.id, previous.id)).run();
+				tx.update(recipeVersion)
+					.set({ status: 'retired', retiredAt: new Date() })
+					.where(eq(recipeVersion.id, previous.id))
+					.run();
 				recordAudit(
 					actor,
-					{ action: 'recipe.retired', subjectType: 'recipe_version', subjectId: previous.id, detail: { n: previous.n, reason: `superseded by version ${version.n}` } },
+					{
+						action: 'recipe.retired',
+						subjectType: 'recipe_version',
+						subjectId: previous.id,
+						detail: { n: previous.n, reason: `superseded by version ${version.n}` }
+					},
 					tx
 				);
 			}
-			tx.update(recipeVersion).set({ status: 'approved', approvedAt: new Date(), approvedById: signer.id }).where(eq(recipeVersion.id, versionId)).run();
-			recordAudit(actor, { action: 'recipe.approved', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n, digest } }, tx);
+			tx.update(recipeVersion)
+				.set({ status: 'approved', approvedAt: new Date(), approvedById: signer.id })
+				.where(eq(recipeVersion.id, versionId))
+				.run();
+			recordAudit(
+				actor,
+				{
+					action: 'recipe.approved',
+					subjectType: 'recipe_version',
+					subjectId: versionId,
+					detail: { n: version.n, digest }
+				},
+				tx
+			);
 		}
 	);
 }
@@ -154,7 +250,19 @@ export function retireVersion(actor: Actor, versionId: string, reason: string): 
 	const version = requireVersion(versionId);
 	requireStatus(version, 'approved', 'retired');
 	db.transaction((tx) => {
-		tx.update(recipeVersion).set({ status: 'retired', retiredAt: new Date() }).where(eq(recipeVersion.id, versionId)).run();
-		recordAudit(actor, { action: 'recipe.retired', subjectType: 'recipe_version', subjectId: versionId, detail: { n: version.n, reason: reason.trim() } }, tx);
+		tx.update(recipeVersion)
+			.set({ status: 'retired', retiredAt: new Date() })
+			.where(eq(recipeVersion.id, versionId))
+			.run();
+		recordAudit(
+			actor,
+			{
+				action: 'recipe.retired',
+				subjectType: 'recipe_version',
+				subjectId: versionId,
+				detail: { n: version.n, reason: reason.trim() }
+			},
+			tx
+		);
 	});
 }

@@ -1,11 +1,24 @@
-import { ChemistryInputError, StudyDataError, designStudyFeed, requireFeedVolumeFits, type FeedCandidate, type FeedDesign, type FeedDesignRequest } from '$chemistry';
+import {
+	ChemistryInputError,
+	StudyDataError,
+	designStudyFeed,
+	requireFeedVolumeFits,
+	type FeedCandidate,
+	type FeedDesign,
+	type FeedDesignRequest
+} from '$chemistry';
 import type { Component } from '../db/schema';
 import { componentSpecOf, molarMassOfComponent } from '../components/library';
 import { RuleError } from '../rule-error';
 import type { StudyInputs } from './types';
 
 // The feed designer's model (needs, limits, the LP) is chemistry/study/feed-designer.ts; here the library is looked up.
-export { defaultFeedLimits, type DefaultFeedLimits, type FeedDesign, type FeedDesignRequest } from '$chemistry';
+export {
+	defaultFeedLimits,
+	type DefaultFeedLimits,
+	type FeedDesign,
+	type FeedDesignRequest
+} from '$chemistry';
 
 /**
  * The substance a component is a form of: the end of its basis chain (MgSO4·7H2O → MgSO4,
@@ -47,7 +60,10 @@ export interface SubstanceChoice {
  * The designer's list: each substance once, offered in the form the study's recipes use (feeds first,
  * then the basal medium), else in its basis form, the form the library's solubility is stated for.
  */
-export function listSubstanceChoices(components: Component[], studyFormIds: string[]): SubstanceChoice[] {
+export function listSubstanceChoices(
+	components: Component[],
+	studyFormIds: string[]
+): SubstanceChoice[] {
 	const byId = new Map(components.map((c) => [c.id, c]));
 	const groups = new Map<string, Component[]>();
 	for (const c of components) {
@@ -59,17 +75,21 @@ export function listSubstanceChoices(components: Component[], studyFormIds: stri
 		.map(([substanceId, forms]) => ({
 			substanceId,
 			offeredId: used.find((id) => substanceIdOf(id, byId) === substanceId) ?? substanceId,
-			forms: forms.map((f) => ({ id: f.id, name: f.name })).sort((a, b) => a.name.localeCompare(b.name))
+			forms: forms
+				.map((f) => ({ id: f.id, name: f.name }))
+				.sort((a, b) => a.name.localeCompare(b.name))
 		}))
 		.sort((a, b) => byId.get(a.offeredId)!.name.localeCompare(byId.get(b.offeredId)!.name));
 }
 
 function checkCandidates(componentIds: string[], components: Map<string, Component>): Component[] {
-	if (componentIds.length === 0) throw new RuleError('Choose at least one component for the feed.', { field: 'componentIds' });
+	if (componentIds.length === 0)
+		throw new RuleError('Choose at least one component for the feed.', { field: 'componentIds' });
 	const firstOfSubstance = new Map<string, number>();
 	return componentIds.map((id, i) => {
 		const c = components.get(id);
-		if (!c) throw new RuleError(`No component “${id}” in the library.`, { field: `componentIds.${i}` });
+		if (!c)
+			throw new RuleError(`No component “${id}” in the library.`, { field: `componentIds.${i}` });
 		const substance = substanceIdOf(id, components);
 		const earlier = firstOfSubstance.get(substance);
 		if (earlier !== undefined) {
@@ -107,13 +127,22 @@ function requestField(field: string | undefined): string | undefined {
  * Looks up the chosen components and proposes the feed(s) (`designStudyFeed`); the science's fields
  * are the request's, except candidates, which the request names by id.
  */
-export function designFeed(inputs: StudyInputs, components: Map<string, Component>, request: FeedDesignRequest): FeedDesign {
+export function designFeed(
+	inputs: StudyInputs,
+	components: Map<string, Component>,
+	request: FeedDesignRequest
+): FeedDesign {
 	try {
 		requireFeedVolumeFits(inputs, request.feedVolumeL);
 		const chosen = checkCandidates(request.componentIds, components);
-		return designStudyFeed(inputs, chosen.map((c) => candidateOf(c, components)), request);
+		return designStudyFeed(
+			inputs,
+			chosen.map((c) => candidateOf(c, components)),
+			request
+		);
 	} catch (cause) {
-		if (cause instanceof StudyDataError) throw new RuleError(cause.message, { field: cause.field, status: 422 });
+		if (cause instanceof StudyDataError)
+			throw new RuleError(cause.message, { field: cause.field, status: 422 });
 		if (cause instanceof ChemistryInputError) {
 			const field = requestField(cause.field);
 			throw new RuleError(cause.message, { field, status: field ? 400 : 422 });

@@ -1,7 +1,12 @@
 import { decimalOrNaN } from '$lib/quantities';
 import { z } from 'zod';
 
-const blankToUndefined = (v: unknown) => (v === null || v === undefined || (typeof v === 'string' && v.trim() === '') ? undefined : typeof v === 'string' ? decimalOrNaN(v) : v);
+const blankToUndefined = (v: unknown) =>
+	v === null || v === undefined || (typeof v === 'string' && v.trim() === '')
+		? undefined
+		: typeof v === 'string'
+			? decimalOrNaN(v)
+			: v;
 
 interface Bounds {
 	min?: number;
@@ -11,17 +16,24 @@ interface Bounds {
 }
 
 function bounded(label: string, b: Bounds) {
-	let schema = z.number({ error: `${label}: enter a number` }).refine(Number.isFinite, `${label}: enter a number`);
+	let schema = z
+		.number({ error: `${label}: enter a number` })
+		.refine(Number.isFinite, `${label}: enter a number`);
 	const unit = b.unit ? ` ${b.unit}` : '';
-	if (b.gt !== undefined) schema = schema.refine((v) => v > b.gt!, `${label} must be greater than ${b.gt}${unit}`);
-	if (b.min !== undefined) schema = schema.refine((v) => v >= b.min!, `${label} must be at least ${b.min}${unit}`);
-	if (b.max !== undefined) schema = schema.refine((v) => v <= b.max!, `${label} must be at most ${b.max}${unit}`);
+	if (b.gt !== undefined)
+		schema = schema.refine((v) => v > b.gt!, `${label} must be greater than ${b.gt}${unit}`);
+	if (b.min !== undefined)
+		schema = schema.refine((v) => v >= b.min!, `${label} must be at least ${b.min}${unit}`);
+	if (b.max !== undefined)
+		schema = schema.refine((v) => v <= b.max!, `${label} must be at most ${b.max}${unit}`);
 	return schema;
 }
 
 /** A required number typed in a form; '' is "missing", not 0. */
 export function requiredNumber(label: string, b: Bounds = {}) {
-	return z.preprocess(blankToUndefined, bounded(label, b).optional()).refine((v) => v !== undefined, `${label} is required`) as unknown as z.ZodType<number>;
+	return z
+		.preprocess(blankToUndefined, bounded(label, b).optional())
+		.refine((v) => v !== undefined, `${label} is required`) as unknown as z.ZodType<number>;
 }
 
 /** An optional number typed in a form; '' becomes null. */
@@ -29,6 +41,17 @@ export function optionalNumber(label: string, b: Bounds = {}) {
 	return z.preprocess(blankToUndefined, bounded(label, b).optional()).transform((v) => v ?? null);
 }
 
-export const requiredText = (label: string, max = 120) => z.string({ error: `${label} is required` }).trim().min(1, `${label} is required`).max(max, `${label}: at most ${max} characters`);
-export const optionalText = (max = 2000) => z.string().trim().max(max).optional().transform((v) => v ?? '');
+export const requiredText = (label: string, max = 120) =>
+	z
+		.string({ error: `${label} is required` })
+		.trim()
+		.min(1, `${label} is required`)
+		.max(max, `${label}: at most ${max} characters`);
+export const optionalText = (max = 2000) =>
+	z
+		.string()
+		.trim()
+		.max(max)
+		.optional()
+		.transform((v) => v ?? '');
 export const checkbox = z.preprocess((v) => v === 'on' || v === 'true' || v === true, z.boolean());

@@ -25,8 +25,19 @@ export function loadStudyReport(id: string) {
 	}
 	return {
 		study: { id, ...inputs.plan },
-		profile: { id: inputs.profile.id, name: inputs.profile.name, group: inputs.profile.group, kind: inputs.profile.kind },
-		vessel: { id: inputs.vessel.id, name: inputs.vessel.name, o2EnrichmentAllowed: inputs.vessel.o2EnrichmentAllowed, maxWorkingVolumeL: inputs.vessel.maxWorkingVolumeL, kLaPerH: vesselKLaPerH },
+		profile: {
+			id: inputs.profile.id,
+			name: inputs.profile.name,
+			group: inputs.profile.group,
+			kind: inputs.profile.kind
+		},
+		vessel: {
+			id: inputs.vessel.id,
+			name: inputs.vessel.name,
+			o2EnrichmentAllowed: inputs.vessel.o2EnrichmentAllowed,
+			maxWorkingVolumeL: inputs.vessel.maxWorkingVolumeL,
+			kLaPerH: vesselKLaPerH
+		},
 		basal: versions.get(inputs.basal.versionId)!,
 		basalComponentIds: Object.keys(inputs.basal.composition.componentsGPerL),
 		feeds: inputs.feeds.map((f) => ({

@@ -49,25 +49,38 @@ export function describeProfileElements(p: ProfileElementFields): ProfileElement
 }
 
 /** The fractions against the formula, as warnings for the profile page; a formula that cannot be read says so. */
-export function checkProfileFormula(p: { biomassFormula: string | null; ashFraction: number | null; elementalFractions: Record<string, number> | null }): string[] {
+export function checkProfileFormula(p: {
+	biomassFormula: string | null;
+	ashFraction: number | null;
+	elementalFractions: Record<string, number> | null;
+}): string[] {
 	if (!p.biomassFormula || !p.elementalFractions) return [];
 	try {
-		return compareFractionsWithFormula({ formula: p.biomassFormula, ashFraction: p.ashFraction, fractions: p.elementalFractions }).map((m) => m.message);
+		return compareFractionsWithFormula({
+			formula: p.biomassFormula,
+			ashFraction: p.ashFraction,
+			fractions: p.elementalFractions
+		}).map((m) => m.message);
 	} catch (cause) {
-		if (cause instanceof ChemistryInputError) return [`The fractions cannot be checked against the formula: ${cause.message}`];
+		if (cause instanceof ChemistryInputError)
+			return [`The fractions cannot be checked against the formula: ${cause.message}`];
 		throw cause;
 	}
 }
 
 /** Form field names of one element's statement. */
-export const elementField = (symbol: string, part: 'role' | 'confidence' | 'source') => `element.${symbol}.${part}`;
+export const elementField = (symbol: string, part: 'role' | 'confidence' | 'source') =>
+	`element.${symbol}.${part}`;
 
 /**
  * Reads each element's role, confidence and source from the profile form. Only elements the profile
  * gives a value for are kept; rows the form still holds for elements taken out of the fractions are
  * left behind (their inputs are disabled in the browser, so they normally do not arrive at all).
  */
-export function readElementStatementsForm(formData: FormData, elements: string[]): ElementStatements {
+export function readElementStatementsForm(
+	formData: FormData,
+	elements: string[]
+): ElementStatements {
 	const text = (name: string) => {
 		const v = formData.get(name);
 		return typeof v === 'string' ? v.trim() : '';
@@ -79,24 +92,38 @@ export function readElementStatementsForm(formData: FormData, elements: string[]
 		const role = text(elementField(symbol, 'role'));
 		if (role !== '') {
 			if (!(ELEMENT_ROLES as readonly string[]).includes(role)) {
-				throw new RuleError(`Role of ${symbol}: choose required or trace (or keep the default).`, { field: elementField(symbol, 'role') });
+				throw new RuleError(`Role of ${symbol}: choose required or trace (or keep the default).`, {
+					field: elementField(symbol, 'role')
+				});
 			}
 			statement.role = role as ElementRole;
 		}
 		const confidence = text(elementField(symbol, 'confidence'));
 		if (confidence !== '') {
 			if (!(VALUE_CONFIDENCES as readonly string[]).includes(confidence)) {
-				throw new RuleError(`How sure the value of ${symbol} is: choose one of the listed grades.`, { field: elementField(symbol, 'confidence') });
+				throw new RuleError(
+					`How sure the value of ${symbol} is: choose one of the listed grades.`,
+					{ field: elementField(symbol, 'confidence') }
+				);
 			}
 			statement.confidence = confidence as ValueConfidence;
 		}
 		const source = text(elementField(symbol, 'source'));
 		if (source.length > MAX_SOURCE_LENGTH) {
-			throw new RuleError(`Source of ${symbol}: at most ${MAX_SOURCE_LENGTH} characters (now ${source.length}).`, { field: elementField(symbol, 'source') });
+			throw new RuleError(
+				`Source of ${symbol}: at most ${MAX_SOURCE_LENGTH} characters (now ${source.length}).`,
+				{ field: elementField(symbol, 'source') }
+			);
 		}
 		if (source !== '') statement.source = source;
-		if ((statement.confidence === 'confirmed' || statement.confidence === 'derived') && !statement.source) {
-			throw new RuleError(`Source of ${symbol}: a published or derived value needs its source (the table or paper it comes from).`, { field: elementField(symbol, 'source') });
+		if (
+			(statement.confidence === 'confirmed' || statement.confidence === 'derived') &&
+			!statement.source
+		) {
+			throw new RuleError(
+				`Source of ${symbol}: a published or derived value needs its source (the table or paper it comes from).`,
+				{ field: elementField(symbol, 'source') }
+			);
 		}
 		out[symbol] = statement;
 	}

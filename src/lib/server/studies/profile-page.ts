@@ -8,7 +8,12 @@ import type { Actor } from '../audit';
 /** Published tables the form can fill fractions from, each with its source. */
 export function profileChoices() {
 	return {
-		presets: BIOMASS_COMPOSITIONS.map((b) => ({ id: b.id, name: b.name, source: b.source, group: b.group })),
+		presets: BIOMASS_COMPOSITIONS.map((b) => ({
+			id: b.id,
+			name: b.name,
+			source: b.source,
+			group: b.group
+		})),
 		carbonSources: listComponents()
 			.filter((c) => ['sugar', 'polyol', 'amino-acid', 'other'].includes(c.category))
 			.map((c) => ({ id: c.id, name: c.name }))
@@ -19,7 +24,8 @@ export function profileChoices() {
 export function submitProfile(actor: Actor, formData: FormData, id: string | null) {
 	const parsed = parseForm(profileSchema, formData);
 	if (!parsed.ok) return { failure: parsed.failure };
-	const revisionRead = id === null ? null : parseForm(z.object({ revision: revisionField }), formData);
+	const revisionRead =
+		id === null ? null : parseForm(z.object({ revision: revisionField }), formData);
 	if (revisionRead && !revisionRead.ok) return { failure: revisionRead.failure };
 	try {
 		const revision = revisionRead ? revisionRead.data.revision : null;

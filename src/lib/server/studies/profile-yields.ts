@@ -1,4 +1,10 @@
-import { ATOMIC_WEIGHTS, balanceCarbonYield, computeSoleSourceYield, type SubstrateYieldEntry, type YieldFields } from '$chemistry';
+import {
+	ATOMIC_WEIGHTS,
+	balanceCarbonYield,
+	computeSoleSourceYield,
+	type SubstrateYieldEntry,
+	type YieldFields
+} from '$chemistry';
 import { readDecimalText } from '$lib/quantities';
 import { findComponent } from '../components/library';
 import { RuleError, withRuleErrors } from '../rule-error';
@@ -8,15 +14,27 @@ export type { YieldFields };
 
 function formulaOf(componentId: string, field: string): string {
 	const component = findComponent(componentId);
-	if (!component) throw new RuleError(`No component “${componentId}” in the library (use its id, e.g. l-glutamine).`, { field });
-	if (!component.formula) throw new RuleError(`${component.name} has no formula, so no element balance can be made with it; enter its yield instead.`, { field });
+	if (!component)
+		throw new RuleError(
+			`No component “${componentId}” in the library (use its id, e.g. l-glutamine).`,
+			{ field }
+		);
+	if (!component.formula)
+		throw new RuleError(
+			`${component.name} has no formula, so no element balance can be made with it; enter its yield instead.`,
+			{ field }
+		);
 	return component.formula;
 }
 
 /** Yx/s as stored: typed in, or worked out on save with the carbon source's formula from the library. */
 export function resolveCarbonYield(f: YieldFields): number | null {
 	if (f.yieldXSMethod === 'entered') return f.yieldXSGPerG;
-	if (!f.carbonSourceId) throw new RuleError('Choose the carbon source: its formula is needed for the element balance.', { field: 'carbonSourceId' });
+	if (!f.carbonSourceId)
+		throw new RuleError(
+			'Choose the carbon source: its formula is needed for the element balance.',
+			{ field: 'carbonSourceId' }
+		);
 	const formula = formulaOf(f.carbonSourceId, 'carbonSourceId');
 	return withRuleErrors(() => balanceCarbonYield(f, formula)).yieldGPerG;
 }
@@ -33,24 +51,44 @@ export function parseSubstrateYields(text: string, f: YieldFields): SubstrateYie
 		.map((entry, i): SubstrateYieldEntry => {
 			const m = /^(\S+)\s+(?:from\s+([A-Z][a-z]?)|([\d.,eE+-]+))$/.exec(entry);
 			if (!m) {
-				throw new RuleError(`Line ${i + 1} (“${entry}”) should be a component id and a yield in g/g (“l-glutamine 0.9”), or “from” and the element it alone supplies (“ammonium-sulfate from N”).`, { field });
+				throw new RuleError(
+					`Line ${i + 1} (“${entry}”) should be a component id and a yield in g/g (“l-glutamine 0.9”), or “from” and the element it alone supplies (“ammonium-sulfate from N”).`,
+					{ field }
+				);
 			}
 			const [, componentId, element, number] = m;
 			const component = findComponent(componentId);
-			if (!component) throw new RuleError(`No component “${componentId}” in the library (use its id, e.g. l-glutamine).`, { field });
-			if (componentId === f.carbonSourceId) throw new RuleError(`${component.name} is the carbon source: its yield is Yx/s above, not a further substrate.`, { field });
-			if (seen.has(componentId)) throw new RuleError(`${component.name} is listed twice.`, { field });
-			if (perCell.has(componentId)) throw new RuleError(`${component.name} has both a per-cell consumption rate and a yield; keep one of them.`, { field });
+			if (!component)
+				throw new RuleError(
+					`No component “${componentId}” in the library (use its id, e.g. l-glutamine).`,
+					{ field }
+				);
+			if (componentId === f.carbonSourceId)
+				throw new RuleError(
+					`${component.name} is the carbon source: its yield is Yx/s above, not a further substrate.`,
+					{ field }
+				);
+			if (seen.has(componentId))
+				throw new RuleError(`${component.name} is listed twice.`, { field });
+			if (perCell.has(componentId))
+				throw new RuleError(
+					`${component.name} has both a per-cell consumption rate and a yield; keep one of them.`,
+					{ field }
+				);
 			seen.add(componentId);
 			if (number !== undefined) {
 				const read = readDecimalText(number, 'Yield');
 				const yieldGPerG = read.ok ? read.value : NaN;
 				if (!Number.isFinite(yieldGPerG) || yieldGPerG <= 0 || yieldGPerG > 1000) {
-					throw new RuleError(`The yield on ${component.name} must be a number above 0 and at most 1000 g/g, not “${number}”.`, { field });
+					throw new RuleError(
+						`The yield on ${component.name} must be a number above 0 and at most 1000 g/g, not “${number}”.`,
+						{ field }
+					);
 				}
 				return { componentId, method: 'entered', yieldGPerG };
 			}
-			if (!(element in ATOMIC_WEIGHTS)) throw new RuleError(`“${element}” is not an element symbol.`, { field });
+			if (!(element in ATOMIC_WEIGHTS))
+				throw new RuleError(`“${element}” is not an element symbol.`, { field });
 			const substrateFormula = formulaOf(componentId, field);
 			const fraction = f.elementalFractions?.[element];
 			const yieldGPerG = withRuleErrors(
@@ -58,14 +96,30 @@ export function parseSubstrateYields(text: string, f: YieldFields): SubstrateYie
 					computeSoleSourceYield(
 						fraction !== undefined && fraction > 0
 							? { substrateFormula, element, biomassElementFraction: fraction }
-							: { substrateFormula, element, biomassFormula: f.biomassFormula ?? undefined, ashFraction: f.ashFraction ?? 0 }
+							: {
+									substrateFormula,
+									element,
+									biomassFormula: f.biomassFormula ?? undefined,
+									ashFraction: f.ashFraction ?? 0
+								}
 					),
 				{ field }
 			);
-			return { componentId, method: 'soleSource', element, yieldGPerG: Number(yieldGPerG.toPrecision(4)) };
+			return {
+				componentId,
+				method: 'soleSource',
+				element,
+				yieldGPerG: Number(yieldGPerG.toPrecision(4))
+			};
 		});
 }
 
 export function formatSubstrateYields(list: SubstrateYieldEntry[]): string {
-	return list.map((y) => (y.method === 'soleSource' ? `${y.componentId} from ${y.element}` : `${y.componentId} ${y.yieldGPerG}`)).join('\n');
+	return list
+		.map((y) =>
+			y.method === 'soleSource'
+				? `${y.componentId} from ${y.element}`
+				: `${y.componentId} ${y.yieldGPerG}`
+		)
+		.join('\n');
 }

@@ -1,6 +1,12 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { VALUE_CONFIDENCE_WORDS } from '$chemistry';
-import { formatAmount, formatCells, formatDateTime, formatRunout, listValueSources } from '$lib/components/studies/format';
+import {
+	formatAmount,
+	formatCells,
+	formatDateTime,
+	formatRunout,
+	listValueSources
+} from '$lib/components/studies/format';
 import { FEED_PLAN_LABELS, TARGET_BASIS_UNITS } from '$lib/studies';
 import { MARGIN, Writer } from '../pdf/layout';
 import { STUDY_CAUTIONS } from '$chemistry';
@@ -10,7 +16,13 @@ export type LoadedStudyReport = ReturnType<typeof loadStudyReport>;
 
 const CAUTION_COLOR: [number, number, number] = [0.6, 0.1, 0.1];
 
-function describeVersion(v: { recipeName: string; n: number; status: string; superseded: boolean; supersededBy: number | null }): string {
+function describeVersion(v: {
+	recipeName: string;
+	n: number;
+	status: string;
+	superseded: boolean;
+	supersededBy: number | null;
+}): string {
 	return `${v.recipeName} v${v.n} (${v.status}${v.superseded ? `, superseded${v.supersededBy ? ` by v${v.supersededBy}` : ''}` : ''})`;
 }
 
@@ -28,11 +40,18 @@ export function toSafeFileName(name: string): string {
 type Report = NonNullable<LoadedStudyReport['report']>;
 
 /** The sufficiency-study report as a PDF: the same content as the print view, without the chart. */
-export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt = new Date()): Promise<Uint8Array> {
+export async function buildStudyReportPdf(
+	loaded: LoadedStudyReport,
+	printedAt = new Date()
+): Promise<Uint8Array> {
 	const { study, report } = loaded;
 	const doc = await PDFDocument.create();
 	doc.setTitle(`Sufficiency study: ${study.name}`);
-	doc.setSubject(report ? `Verdict: ${report.verdict === 'supported' ? 'Supported' : 'Not supported'}` : 'Not evaluated');
+	doc.setSubject(
+		report
+			? `Verdict: ${report.verdict === 'supported' ? 'Supported' : 'Not supported'}`
+			: 'Not evaluated'
+	);
 	doc.setCreator('Brothwright');
 	const font = await doc.embedFont(StandardFonts.Helvetica);
 	const bold = await doc.embedFont(StandardFonts.HelveticaBold);
@@ -41,7 +60,10 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 	writeHeading(w, loaded, printedAt);
 	writeWhatItUses(w, loaded);
 	if (!report) {
-		w.text(`This study cannot be evaluated: ${loaded.reportError ?? 'unknown reason'}`, { bold: true, color: CAUTION_COLOR });
+		w.text(`This study cannot be evaluated: ${loaded.reportError ?? 'unknown reason'}`, {
+			bold: true,
+			color: CAUTION_COLOR
+		});
 		return doc.save();
 	}
 	writeVerdict(w, report);
@@ -56,11 +78,14 @@ export async function buildStudyReportPdf(loaded: LoadedStudyReport, printedAt =
 function writeHeading(w: Writer, { study, report }: LoadedStudyReport, printedAt: Date): void {
 	w.text('Brothwright sufficiency study · Pilot Plant North', { size: 8 });
 	w.text(study.name, { size: 18, bold: true });
-	w.text(`Printed ${formatDateTime(printedAt)} · target ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]} · safety factor ${study.safetyFactor}`);
+	w.text(
+		`Printed ${formatDateTime(printedAt)} · target ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]} · safety factor ${study.safetyFactor}`
+	);
 	w.gap(10);
 
 	w.text('Safety cautions', { bold: true, size: 11, color: CAUTION_COLOR });
-	for (const caution of report?.cautions ?? STUDY_CAUTIONS) w.text(`- ${caution}`, { x: MARGIN + 8, color: CAUTION_COLOR });
+	for (const caution of report?.cautions ?? STUDY_CAUTIONS)
+		w.text(`- ${caution}`, { x: MARGIN + 8, color: CAUTION_COLOR });
 	w.gap(10);
 }
 
@@ -68,33 +93,50 @@ function writeWhatItUses(w: Writer, loaded: LoadedStudyReport): void {
 	const { study } = loaded;
 	w.text('What it uses', { bold: true, size: 11 });
 	w.text(`Basal: ${describeVersion(loaded.basal)}`);
-	w.text(`Feeds: ${loaded.feeds.length ? loaded.feeds.map((f) => `${describeVersion(f)}: ${f.planText}`).join('; ') : 'none (batch)'}`);
+	w.text(
+		`Feeds: ${loaded.feeds.length ? loaded.feeds.map((f) => `${describeVersion(f)}: ${f.planText}`).join('; ') : 'none (batch)'}`
+	);
 	w.text(`Organism: ${loaded.profile.name}`);
 	w.text(`Vessel: ${loaded.vessel.name}`);
 	w.text(`Target: ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]}`);
 	w.text(`Plan: run ${study.durationH} h, ${study.initialVolumeL} L at start`);
-	w.text(`Conditions: ${study.temperatureC} °C, ${study.pressureKPa} kPa, O2 fraction ${study.o2MoleFraction}, DO setpoint ${study.doSetpointPercent} %`);
+	w.text(
+		`Conditions: ${study.temperatureC} °C, ${study.pressureKPa} kPa, O2 fraction ${study.o2MoleFraction}, DO setpoint ${study.doSetpointPercent} %`
+	);
 	if (study.notes) w.text(`Notes: ${study.notes}`);
 	w.gap(10);
 }
 
 function writeVerdict(w: Writer, report: Report): void {
 	const supported = report.verdict === 'supported';
-	w.text(`Verdict: ${supported ? 'Supported' : 'Not supported'}`, { bold: true, size: 14, color: supported ? [0.1, 0.4, 0.15] : CAUTION_COLOR });
-	const cells = report.limit.maxCellsPerMl !== null ? ` (${formatCells(report.limit.maxCellsPerMl)} cells/mL)` : '';
-	w.text(`Limiting: ${report.limit.name} · maximum supportable about ${formatAmount(report.limit.maxBiomassGPerL)} g/L${cells} against the target ${formatAmount(report.inputs.targetBiomassGPerL)} g/L.`);
+	w.text(`Verdict: ${supported ? 'Supported' : 'Not supported'}`, {
+		bold: true,
+		size: 14,
+		color: supported ? [0.1, 0.4, 0.15] : CAUTION_COLOR
+	});
+	const cells =
+		report.limit.maxCellsPerMl !== null
+			? ` (${formatCells(report.limit.maxCellsPerMl)} cells/mL)`
+			: '';
+	w.text(
+		`Limiting: ${report.limit.name} · maximum supportable about ${formatAmount(report.limit.maxBiomassGPerL)} g/L${cells} against the target ${formatAmount(report.inputs.targetBiomassGPerL)} g/L.`
+	);
 	for (const reason of report.reasons) w.text(`- ${reason}`, { x: MARGIN + 8 });
 	if (report.warnings.length > 0) {
 		w.gap(4);
 		w.text('Watch during the run', { bold: true, color: CAUTION_COLOR });
-		for (const warning of report.warnings) w.text(`- ${warning}`, { x: MARGIN + 8, color: CAUTION_COLOR });
+		for (const warning of report.warnings)
+			w.text(`- ${warning}`, { x: MARGIN + 8, color: CAUTION_COLOR });
 	}
 	w.gap(10);
 }
 
 function writeNutrients(w: Writer, report: Report): void {
 	w.text(`Nutrients: ${report.nutrients.check}`, { bold: true, size: 11 });
-	w.text(`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand. Only required nutrients set the limit; a short trace element is a warning.`, { size: 8.5 });
+	w.text(
+		`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand. Only required nutrients set the limit; a short trace element is a warning.`,
+		{ size: 8.5 }
+	);
 	w.gap(3);
 	const lines = [...report.nutrients.lines].sort((a, b) => a.ratio - b.ratio);
 	w.table(
@@ -133,40 +175,62 @@ function writeOxygen(w: Writer, report: Report): void {
 	w.text(`Oxygen: ${o.check}`, { bold: true, size: 11 });
 	w.text(`Total O2 needed: ${formatAmount(o.totalO2G)} g (${formatAmount(o.totalO2Mol)} mol)`);
 	const atLeast = o.lowerBound ? 'at least ' : '';
-	w.text(`Peak OUR of the plan ${atLeast}${formatAmount(o.peakOurMmolPerLH)} mmol/(L·h) against max OTR at DO setpoint ${formatAmount(o.maxOtrMmolPerLH)} mmol/(L·h)`);
-	w.text(`kLa used / needed: ${formatAmount(report.inputs.kLaPerH)} / ${atLeast}${o.kLaRecommendedPerH} 1/h`);
-	w.text(`O2 fraction used / needed: ${formatAmount(report.inputs.o2MoleFraction)} / ${o.enrichmentFeasible ? `${atLeast}${o.o2MoleFractionRecommended}` : 'above 1'}${o.enrichmentAllowed ? '' : ' · enrichment not allowed'}`);
+	w.text(
+		`Peak OUR of the plan ${atLeast}${formatAmount(o.peakOurMmolPerLH)} mmol/(L·h) against max OTR at DO setpoint ${formatAmount(o.maxOtrMmolPerLH)} mmol/(L·h)`
+	);
+	w.text(
+		`kLa used / needed: ${formatAmount(report.inputs.kLaPerH)} / ${atLeast}${o.kLaRecommendedPerH} 1/h`
+	);
+	w.text(
+		`O2 fraction used / needed: ${formatAmount(report.inputs.o2MoleFraction)} / ${o.enrichmentFeasible ? `${atLeast}${o.o2MoleFractionRecommended}` : 'above 1'}${o.enrichmentAllowed ? '' : ' · enrichment not allowed'}`
+	);
 	w.text(`Reserve at setpoint: ${o.reserveS === null ? '—' : `${formatAmount(o.reserveS)} s`}`);
-	w.text(`Peak OUR from ${o.peakOurOrigin}; kLa ${report.inputs.kLaOrigin}. Needed values are rounded up.${o.lowerBound ? ' The run could not cover the whole plan, so these are lower bounds.' : ''}`, { size: 8.5 });
+	w.text(
+		`Peak OUR from ${o.peakOurOrigin}; kLa ${report.inputs.kLaOrigin}. Needed values are rounded up.${o.lowerBound ? ' The run could not cover the whole plan, so these are lower bounds.' : ''}`,
+		{ size: 8.5 }
+	);
 	w.gap(10);
 }
 
 function writeHeat(w: Writer, report: Report): void {
 	w.ensure(60);
 	w.text(`Heat: ${report.heat.check}`, { bold: true, size: 11 });
-	w.text(`Heat load ${report.heat.lowerBound ? 'at least ' : ''}${formatAmount(report.heat.heatLoadW)} W (metabolic ${formatAmount(report.heat.metabolicW)} W at ${formatAmount(report.heat.heatPerMolO2KJ)} kJ/mol O2, agitation ${formatAmount(report.heat.agitationPowerW)} W) against cooling capacity ${formatAmount(report.heat.coolingCapacityW)} W: ${formatAmount(report.heat.utilisation * 100)} % used`);
+	w.text(
+		`Heat load ${report.heat.lowerBound ? 'at least ' : ''}${formatAmount(report.heat.heatLoadW)} W (metabolic ${formatAmount(report.heat.metabolicW)} W at ${formatAmount(report.heat.heatPerMolO2KJ)} kJ/mol O2, agitation ${formatAmount(report.heat.agitationPowerW)} W) against cooling capacity ${formatAmount(report.heat.coolingCapacityW)} W: ${formatAmount(report.heat.utilisation * 100)} % used`
+	);
 	w.gap(10);
 }
 
 function writeVolume(w: Writer, report: Report): void {
 	w.ensure(60);
 	w.text(`Volume: ${report.volume.check}`, { bold: true, size: 11 });
-	w.text(`Final ${formatAmount(report.volume.finalL)} L (initial ${formatAmount(report.volume.initialL)} L + feeds ${formatAmount(report.volume.feedL)} L) against the vessel's maximum ${formatAmount(report.volume.maxL)} L (working range ${formatAmount(report.volume.minL)}–${formatAmount(report.volume.maxL)} L)`);
+	w.text(
+		`Final ${formatAmount(report.volume.finalL)} L (initial ${formatAmount(report.volume.initialL)} L + feeds ${formatAmount(report.volume.feedL)} L) against the vessel's maximum ${formatAmount(report.volume.maxL)} L (working range ${formatAmount(report.volume.minL)}–${formatAmount(report.volume.maxL)} L)`
+	);
 	for (const f of report.feeds) {
-		const drawn = f.deliveredL === null ? '' : `, the simulated run draws ${formatAmount(f.deliveredL)} L`;
+		const drawn =
+			f.deliveredL === null ? '' : `, the simulated run draws ${formatAmount(f.deliveredL)} L`;
 		const dry = f.emptyAtH === null ? '' : `; runs dry at ${formatAmount(f.emptyAtH)} h`;
-		w.text(`${f.label}: ${FEED_PLAN_LABELS[f.strategy]} from ${formatAmount(f.startH)} h, ${formatAmount(f.volumeL)} L ${f.controlled ? 'available' : 'planned'}${drawn}${dry}`, { size: 8.5, x: MARGIN + 8 });
+		w.text(
+			`${f.label}: ${FEED_PLAN_LABELS[f.strategy]} from ${formatAmount(f.startH)} h, ${formatAmount(f.volumeL)} L ${f.controlled ? 'available' : 'planned'}${drawn}${dry}`,
+			{ size: 8.5, x: MARGIN + 8 }
+		);
 	}
 	const course = report.timeCourse;
 	if (course.check !== 'unavailable') {
-		w.text(`Time course: ${course.check}, reaches ${formatAmount(course.finalBiomassGPerL)} g/L${course.stoppedAtH !== null ? `, stops at ${formatAmount(course.stoppedAtH)} h` : ''}; the chart is in the app.`);
+		w.text(
+			`Time course: ${course.check}, reaches ${formatAmount(course.finalBiomassGPerL)} g/L${course.stoppedAtH !== null ? `, stops at ${formatAmount(course.stoppedAtH)} h` : ''}; the chart is in the app.`
+		);
 	} else w.text(`Time course not available: ${course.message}`);
 	w.gap(10);
 }
 
 function writeDefaults(w: Writer, report: Report): void {
 	w.text('Values and defaults used', { bold: true, size: 11 });
-	w.text('Every value this study assumed, or worked out from your entries, with where it comes from.', { size: 8.5 });
+	w.text(
+		'Every value this study assumed, or worked out from your entries, with where it comes from.',
+		{ size: 8.5 }
+	);
 	w.gap(3);
 	w.table(
 		[

@@ -9,8 +9,10 @@ export function withStudyRuleErrors<T>(run: () => T): T {
 	try {
 		return run();
 	} catch (cause) {
-		if (cause instanceof StudyDataError) throw new RuleError(cause.message, { field: cause.field, status: 422 });
-		if (cause instanceof ChemistryInputError) throw new RuleError(cause.message, { field: cause.field, status: 400 });
+		if (cause instanceof StudyDataError)
+			throw new RuleError(cause.message, { field: cause.field, status: 422 });
+		if (cause instanceof ChemistryInputError)
+			throw new RuleError(cause.message, { field: cause.field, status: 400 });
 		throw cause;
 	}
 }

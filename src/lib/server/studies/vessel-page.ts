@@ -7,7 +7,8 @@ import { saveVessel, vesselSchema } from './vessel-store';
 export function submitVessel(actor: Actor, formData: FormData, id: string | null) {
 	const parsed = parseForm(vesselSchema, formData);
 	if (!parsed.ok) return { failure: parsed.failure };
-	const revisionRead = id === null ? null : parseForm(z.object({ revision: revisionField }), formData);
+	const revisionRead =
+		id === null ? null : parseForm(z.object({ revision: revisionField }), formData);
 	if (revisionRead && !revisionRead.ok) return { failure: revisionRead.failure };
 	try {
 		const revision = revisionRead ? revisionRead.data.revision : null;

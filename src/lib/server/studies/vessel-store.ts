@@ -17,11 +17,23 @@ export const vesselSchema = z.object({
 	correlationA: optionalNumber('a', { min: 0, max: 2 }),
 	correlationB: optionalNumber('b', { min: 0, max: 2 }),
 	powerPerVolumeWPerM3: optionalNumber('P/V', { gt: 0, max: 100000, unit: 'W/m³' }),
-	superficialVelocityMPerS: optionalNumber('Superficial gas velocity', { gt: 0, max: 1, unit: 'm/s' }),
+	superficialVelocityMPerS: optionalNumber('Superficial gas velocity', {
+		gt: 0,
+		max: 1,
+		unit: 'm/s'
+	}),
 	maxGasFlowVvm: requiredNumber('Maximum gas flow', { gt: 0, max: 10, unit: 'vvm' }),
 	o2EnrichmentAllowed: checkbox,
-	maxPressureKPa: requiredNumber('Maximum pressure (absolute)', { min: 100, max: 1000, unit: 'kPa' }),
-	temperatureC: requiredNumber('Temperature', { min: STUDY_TEMPERATURE_RANGE_C[0], max: STUDY_TEMPERATURE_RANGE_C[1], unit: '°C' }),
+	maxPressureKPa: requiredNumber('Maximum pressure (absolute)', {
+		min: 100,
+		max: 1000,
+		unit: 'kPa'
+	}),
+	temperatureC: requiredNumber('Temperature', {
+		min: STUDY_TEMPERATURE_RANGE_C[0],
+		max: STUDY_TEMPERATURE_RANGE_C[1],
+		unit: '°C'
+	}),
 	coolingCapacityW: requiredNumber('Cooling capacity', { gt: 0, unit: 'W' }),
 	agitationPowerW: optionalNumber('Agitation power', { min: 0, unit: 'W' }),
 	notes: optionalText()
@@ -30,11 +42,25 @@ export const vesselSchema = z.object({
 export type VesselForm = z.infer<typeof vesselSchema>;
 
 export function checkVessel(form: VesselForm): VesselForm {
-	if (form.minWorkingVolumeL >= form.maxWorkingVolumeL) throw new RuleError('The minimum working volume must be below the maximum.', { field: 'minWorkingVolumeL' });
-	if (form.kLaMode === 'entered' && form.kLaPerH === null) throw new RuleError('Enter the kLa, or choose the correlation.', { field: 'kLaPerH' });
+	if (form.minWorkingVolumeL >= form.maxWorkingVolumeL)
+		throw new RuleError('The minimum working volume must be below the maximum.', {
+			field: 'minWorkingVolumeL'
+		});
+	if (form.kLaMode === 'entered' && form.kLaPerH === null)
+		throw new RuleError('Enter the kLa, or choose the correlation.', { field: 'kLaPerH' });
 	if (form.kLaMode === 'correlation') {
-		for (const key of ['correlationK', 'correlationA', 'correlationB', 'powerPerVolumeWPerM3', 'superficialVelocityMPerS'] as const) {
-			if (form[key] === null) throw new RuleError('The correlation needs k, a, b, P/V and the superficial gas velocity.', { field: key });
+		for (const key of [
+			'correlationK',
+			'correlationA',
+			'correlationB',
+			'powerPerVolumeWPerM3',
+			'superficialVelocityMPerS'
+		] as const) {
+			if (form[key] === null)
+				throw new RuleError(
+					'The correlation needs k, a, b, P/V and the superficial gas velocity.',
+					{ field: key }
+				);
 		}
 	}
 	return form;
@@ -42,26 +68,77 @@ export function checkVessel(form: VesselForm): VesselForm {
 
 export function vesselFormValues(row: VesselRow): Record<string, string> {
 	const values: Record<string, string> = {};
-	for (const [k, v] of Object.entries(row)) values[k] = v === null ? '' : typeof v === 'boolean' ? (v ? 'on' : '') : v instanceof Date ? v.toISOString() : String(v);
+	for (const [k, v] of Object.entries(row))
+		values[k] =
+			v === null
+				? ''
+				: typeof v === 'boolean'
+					? v
+						? 'on'
+						: ''
+					: v instanceof Date
+						? v.toISOString()
+						: String(v);
 	return values;
 }
 
-export function saveVessel(actor: Actor, id: string | null, revision: number | null, form: VesselForm, isDemo = false): string {
+export function saveVessel(
+	actor: Actor,
+	id: string | null,
+	revision: number | null,
+	form: VesselForm,
+	isDemo = false
+): string {
 	const values = checkVessel(form);
 	return db.transaction((tx) => {
-		const other = tx.select({ id: vessel.id }).from(vessel).where(eq(vessel.name, values.name)).get();
-		if (other && other.id !== id) throw new RuleError('A vessel with this name exists; choose another name.', { field: 'name', status: 409 });
+		const other = tx
+			.select({ id: vessel.id })
+			.from(vessel)
+			.where(eq(vessel.name, values.name))
+			.get();
+		if (other && other.id !== id)
+			throw new RuleError('A vessel with this name exists; choose another name.', {
+				field: 'name',
+				status: 409
+			});
 		if (id === null) {
 			const newId = crypto.randomUUID();
-			tx.insert(vessel).values({ id: newId, ...values, isDemo }).run();
-			recordAudit(actor, { action: 'vessel.created', subjectType: 'vessel', subjectId: newId, detail: { name: values.name } }, tx);
+			tx.insert(vessel)
+				.values({ id: newId, ...values, isDemo })
+				.run();
+			recordAudit(
+				actor,
+				{
+					action: 'vessel.created',
+					subjectType: 'vessel',
+					subjectId: newId,
+					detail: { name: values.name }
+				},
+				tx
+			);
 			return newId;
 		}
 		const current = tx.select().from(vessel).where(eq(vessel.id, id)).get();
 		if (!current) throw new RuleError('No such vessel.', { status: 404 });
-		if (current.revision !== revision) throw new RuleError('Someone else saved this vessel meanwhile. Reload to see their changes.', { status: 409 });
-		tx.update(vessel).set({ ...values, revision: current.revision + 1, updatedAt: new Date() }).where(eq(vessel.id, id)).run();
-		recordAudit(actor, { action: 'vessel.updated', subjectType: 'vessel', subjectId: id, detail: { name: values.name } }, tx);
+		if (current.revision !== revision)
+			throw new RuleError(
+				'Someone else saved this vessel meanwhile. Reload to see their changes.',
+				{ status: 409 }
+			);
+		tx.update(vessel)
+			.set({ ...values, revision: current.revision + 1, updatedAt: new Date() })
+			.where(eq(vessel.id, id))
+			.run();
+		recordAudit(
+			actor,
+			{
+				action: 'vessel.updated',
+				subjectType: 'vessel',
+				subjectId: id,
+				detail: { name: values.name }
+			},
+			tx
+		);
 		return id;
 	});
 }

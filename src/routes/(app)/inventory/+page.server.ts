@@ -4,8 +4,17 @@ import { DEFAULT_EXPIRY_WINDOW_DAYS } from '$lib/inventory';
 import { tagged } from '$lib/server/form-tag';
 import { parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
-import { componentsBelowReorder, componentsWithStockSettings, expiringLots, quarantinedLots } from '$lib/server/inventory/alerts';
-import { lastDigestDate, MailUnreachableError, sendInventoryDigest } from '$lib/server/inventory/digest';
+import {
+	componentsBelowReorder,
+	componentsWithStockSettings,
+	expiringLots,
+	quarantinedLots
+} from '$lib/server/inventory/alerts';
+import {
+	lastDigestDate,
+	MailUnreachableError,
+	sendInventoryDigest
+} from '$lib/server/inventory/digest';
 import { setStockSettings } from '$lib/server/inventory/lots';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -25,7 +34,10 @@ const settingsForm = z.object({
 export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('inventory.manage');
 	const requested = Number(url.searchParams.get('days') ?? DEFAULT_EXPIRY_WINDOW_DAYS);
-	const days = Number.isInteger(requested) && requested >= 1 && requested <= 730 ? requested : DEFAULT_EXPIRY_WINDOW_DAYS;
+	const days =
+		Number.isInteger(requested) && requested >= 1 && requested <= 730
+			? requested
+			: DEFAULT_EXPIRY_WINDOW_DAYS;
 	return {
 		days,
 		daysRefused: url.searchParams.has('days') && days !== requested,
@@ -45,7 +57,11 @@ export const actions: Actions = {
 			const parsed = parseForm(settingsForm, formData);
 			if (!parsed.ok) return parsed.failure;
 			try {
-				setStockSettings({ id: user.id, email: user.email, address: clientAddress() }, parsed.data.componentId, parsed.data);
+				setStockSettings(
+					{ id: user.id, email: user.email, address: clientAddress() },
+					parsed.data.componentId,
+					parsed.data
+				);
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}
@@ -55,7 +71,11 @@ export const actions: Actions = {
 		requirePermission('inventory.manage');
 		try {
 			const { recipients } = await sendInventoryDigest();
-			return { saved: recipients.length ? `Digest sent to ${recipients.join(', ')}.` : 'No active inventory lead to send the digest to.' };
+			return {
+				saved: recipients.length
+					? `Digest sent to ${recipients.join(', ')}.`
+					: 'No active inventory lead to send the digest to.'
+			};
 		} catch (cause) {
 			if (cause instanceof MailUnreachableError) return { mailError: cause.message };
 			throw cause;

@@ -27,7 +27,12 @@ export const load: PageServerLoad = async ({ url }) => {
 		total,
 		page,
 		pageSize: PAGE_SIZE,
-		filter: { kind: filter.kind ?? '', status: filter.status ?? '', component: filter.componentId ?? '', q: filter.search ?? '' },
+		filter: {
+			kind: filter.kind ?? '',
+			status: filter.status ?? '',
+			component: filter.componentId ?? '',
+			q: filter.search ?? ''
+		},
 		components: listComponents().map((c) => ({ id: c.id, name: c.name })),
 		canCreate: may(user, 'recipe.edit')
 	};

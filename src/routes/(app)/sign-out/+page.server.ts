@@ -12,7 +12,11 @@ export const actions: Actions = {
 	default: async ({ locals, cookies }) => {
 		const user = requirePermission('session.end');
 		if (locals.session) {
-			await signOut(cookies, locals.session.id, { id: user.id, email: user.email, address: clientAddress() });
+			await signOut(cookies, locals.session.id, {
+				id: user.id,
+				email: user.email,
+				address: clientAddress()
+			});
 		}
 		redirect(303, '/login');
 	}

@@ -13,7 +13,18 @@ export const load: PageServerLoad = async () => {
 			} catch (cause) {
 				if (!(cause instanceof StudyDataError)) throw cause;
 			}
-			return { id: v.id, name: v.name, minWorkingVolumeL: v.minWorkingVolumeL, maxWorkingVolumeL: v.maxWorkingVolumeL, kLaPerH, kLaMode: v.kLaMode, o2EnrichmentAllowed: v.o2EnrichmentAllowed, coolingCapacityW: v.coolingCapacityW, maxPressureKPa: v.maxPressureKPa, isDemo: v.isDemo };
+			return {
+				id: v.id,
+				name: v.name,
+				minWorkingVolumeL: v.minWorkingVolumeL,
+				maxWorkingVolumeL: v.maxWorkingVolumeL,
+				kLaPerH,
+				kLaMode: v.kLaMode,
+				o2EnrichmentAllowed: v.o2EnrichmentAllowed,
+				coolingCapacityW: v.coolingCapacityW,
+				maxPressureKPa: v.maxPressureKPa,
+				isDemo: v.isDemo
+			};
 		})
 	};
 };

@@ -33,7 +33,12 @@ export const actions: Actions = {
 		const outcome = await signIn(email, password, clientAddress());
 		if (!outcome.ok) {
 			const fieldErrors = outcome.field ? { [outcome.field]: [outcome.message] } : {};
-			return formFailure(formData, outcome.message, fieldErrors, outcome.status === 429 ? 429 : 400);
+			return formFailure(
+				formData,
+				outcome.message,
+				fieldErrors,
+				outcome.status === 429 ? 429 : 400
+			);
 		}
 		setSessionCookie(cookies, outcome.cookie);
 		redirect(303, safeNext(next));

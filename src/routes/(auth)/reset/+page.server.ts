@@ -4,7 +4,9 @@ import { clientAddress, requirePermission } from '$lib/server/guard';
 import { requestPasswordReset } from '$lib/server/people';
 import type { Actions, PageServerLoad } from './$types';
 
-const requestForm = z.object({ email: z.email('Enter an e-mail address such as name@site.example.').max(254) });
+const requestForm = z.object({
+	email: z.email('Enter an e-mail address such as name@site.example.').max(254)
+});
 
 // Public by design: people who cannot sign in ask for a link here.
 export const load: PageServerLoad = async () => {
@@ -23,7 +25,9 @@ export const actions: Actions = {
 			return {
 				sent: true,
 				email: parsed.data.email,
-				mailError: outcome.mailError ? 'The mail could not be sent; ask an administrator.' : undefined
+				mailError: outcome.mailError
+					? 'The mail could not be sent; ask an administrator.'
+					: undefined
 			};
 		} catch (cause) {
 			return ruleFailure(formData, cause);

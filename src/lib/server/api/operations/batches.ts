@@ -13,20 +13,33 @@ export const batchListQuery = z.object({
 
 export const batchCreateRequest = z
 	.object({
-		recipeId: z.string().max(80).optional().describe("The recipe; its current approved version is used"),
+		recipeId: z
+			.string()
+			.max(80)
+			.optional()
+			.describe('The recipe; its current approved version is used'),
 		versionId: z.string().max(80).optional().describe('A specific approved version'),
 		targetVolumeL: z.union([z.number(), z.string().max(20)]).describe('Litres'),
 		plannedOn: z.string().max(10).describe('YYYY-MM-DD'),
 		intendedUse: z.string().max(200).describe('The vessel or run')
 	})
-	.refine((b) => b.recipeId || b.versionId, { message: 'Give recipeId or versionId', path: ['recipeId'] });
+	.refine((b) => b.recipeId || b.versionId, {
+		message: 'Give recipeId or versionId',
+		path: ['recipeId']
+	});
 
 export const batchesOperations: ApiOperation[] = [
-	{ method: 'get', path: '/api/v1/batches', summary: 'Batches. Query: state, recipe, from, to (planned date)', act: 'batch.view' },
+	{
+		method: 'get',
+		path: '/api/v1/batches',
+		summary: 'Batches. Query: state, recipe, from, to (planned date)',
+		act: 'batch.view'
+	},
 	{
 		method: 'post',
 		path: '/api/v1/batches',
-		summary: 'Plans a batch from an approved recipe version and a volume; the number follows the site pattern',
+		summary:
+			'Plans a batch from an approved recipe version and a volume; the number follows the site pattern',
 		act: 'batch.plan',
 		request: batchCreateRequest,
 		successStatus: 201,
@@ -35,7 +48,8 @@ export const batchesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/batches/{id}',
-		summary: 'One batch record: lines with required and actual quantities (µg for masses, µL for stock volumes), lots, deviations, signatures',
+		summary:
+			'One batch record: lines with required and actual quantities (µg for masses, µL for stock volumes), lots, deviations, signatures',
 		act: 'batch.view'
 	}
 ];

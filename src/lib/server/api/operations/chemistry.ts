@@ -1,6 +1,12 @@
 import { z } from 'zod';
 import type { OxygenSaturationResult, SufficiencyResult } from '$chemistry';
-import { AIR_O2_MOLE_FRACTION, AIR_O2_MOLE_FRACTION_SOURCE, DEFAULT_ELEMENT_ROLES_BASIS, ELEMENT_ROLES, VALUE_CONFIDENCES } from '$chemistry';
+import {
+	AIR_O2_MOLE_FRACTION,
+	AIR_O2_MOLE_FRACTION_SOURCE,
+	DEFAULT_ELEMENT_ROLES_BASIS,
+	ELEMENT_ROLES,
+	VALUE_CONFIDENCES
+} from '$chemistry';
 import type { ApiOperation } from '../openapi';
 import { describes } from '../shapes';
 
@@ -22,17 +28,26 @@ const speciesId = z.string().min(1).max(60);
 
 export const formulaRequest = z.strictObject({ formula: z.string().max(500) });
 
-export const formulaResponse = describes<FormulaAnswer>()(z.object({
-	formula: z.string(),
-	reading: z.string(),
-	molarMass: z.number().describe('g/mol, IUPAC 2021 standard atomic weights (conventional values)'),
-	elements: z.record(z.string(), z.number()),
-	parts: z.array(z.object({ formula: z.string(), multiplier: z.number() })),
-	dotRule: z.string()
-}));
+export const formulaResponse = describes<FormulaAnswer>()(
+	z.object({
+		formula: z.string(),
+		reading: z.string(),
+		molarMass: z
+			.number()
+			.describe('g/mol, IUPAC 2021 standard atomic weights (conventional values)'),
+		elements: z.record(z.string(), z.number()),
+		parts: z.array(z.object({ formula: z.string(), multiplier: z.number() })),
+		dotRule: z.string()
+	})
+);
 
 const specification = z.discriminatedUnion('kind', [
-	z.strictObject({ kind: z.literal('rate'), species: speciesId, mol: finite, relativeError: finite.positive().optional() }),
+	z.strictObject({
+		kind: z.literal('rate'),
+		species: speciesId,
+		mol: finite,
+		relativeError: finite.positive().optional()
+	}),
 	z.strictObject({
 		kind: z.literal('massYield'),
 		product: speciesId,
@@ -56,12 +71,17 @@ export const stoichiometryRequest = z.strictObject({
 				id: speciesId,
 				formula: z.string().max(200),
 				ashFraction: finite.min(0).max(0.5).optional(),
-				role: z.enum(['substrate', 'nitrogen', 'oxygen', 'biomass', 'carbonDioxide', 'water', 'product']).optional()
+				role: z
+					.enum(['substrate', 'nitrogen', 'oxygen', 'biomass', 'carbonDioxide', 'water', 'product'])
+					.optional()
 			})
 		)
 		.min(2)
 		.max(30),
-	elements: z.array(z.string().regex(/^[A-Z][a-z]?$/, 'An element symbol such as C or Mg.')).max(10).optional(),
+	elements: z
+		.array(z.string().regex(/^[A-Z][a-z]?$/, 'An element symbol such as C or Mg.'))
+		.max(10)
+		.optional(),
 	specifications: z.array(specification).max(40),
 	consistencyConfidence: finite.gt(0).lt(1).optional()
 });
@@ -80,20 +100,28 @@ export const oxygenSaturationRequest = z.strictObject({
 
 const range = z.tuple([z.number(), z.number()]);
 
-export const oxygenSaturationResponse = describes<OxygenSaturationResult>()(z.object({
-	mgPerL: z.number(),
-	mmolPerL: z.number(),
-	umolPerKg: z.number().optional().describe('native Garcia–Gordon basis; only for that method'),
-	airSaturationMgPerL: z.number().describe('C* for air at the same temperature, salinity and pressure (the 100 % of a DO probe)'),
-	method: oxygenMethod,
-	validRange: z.object({ temperatureC: range, salinityGPerKg: range, source: z.string() }).describe('where the method’s fit holds, [min, max]'),
-	temperatureC: z.number(),
-	salinityGPerKg: z.number(),
-	pressureKPa: z.number(),
-	o2MoleFraction: z.number(),
-	waterVapourPressureKPa: z.number(),
-	pressureFactor: z.number().describe('factor from 1 atm to pressureKPa (APHA/USGS)')
-}));
+export const oxygenSaturationResponse = describes<OxygenSaturationResult>()(
+	z.object({
+		mgPerL: z.number(),
+		mmolPerL: z.number(),
+		umolPerKg: z.number().optional().describe('native Garcia–Gordon basis; only for that method'),
+		airSaturationMgPerL: z
+			.number()
+			.describe(
+				'C* for air at the same temperature, salinity and pressure (the 100 % of a DO probe)'
+			),
+		method: oxygenMethod,
+		validRange: z
+			.object({ temperatureC: range, salinityGPerKg: range, source: z.string() })
+			.describe('where the method’s fit holds, [min, max]'),
+		temperatureC: z.number(),
+		salinityGPerKg: z.number(),
+		pressureKPa: z.number(),
+		o2MoleFraction: z.number(),
+		waterVapourPressureKPa: z.number(),
+		pressureFactor: z.number().describe('factor from 1 atm to pressureKPa (APHA/USGS)')
+	})
+);
 
 const amounts = z.record(z.string().max(80), finite);
 
@@ -102,29 +130,54 @@ const confidence = z
 	.describe(
 		"How sure the value is: 'confirmed' (printed in the cited source), 'derived' (computed from confirmed inputs), 'from memory' (recalled, unchecked), 'measured' (your own analysis), 'unstated'"
 	);
-const role = z.enum(ELEMENT_ROLES).describe(`'required': a shortfall sets the limit; 'trace': a shortfall is a warning. ${DEFAULT_ELEMENT_ROLES_BASIS}`);
+const role = z
+	.enum(ELEMENT_ROLES)
+	.describe(
+		`'required': a shortfall sets the limit; 'trace': a shortfall is a warning. ${DEFAULT_ELEMENT_ROLES_BASIS}`
+	);
 const sourceText = z.string().max(400);
 
 const elementStatements = z
 	.record(
 		z.string().regex(/^[A-Z][a-z]?$/, 'An element symbol such as Fe or Mg.'),
-		z.strictObject({ role: role.optional(), confidence: confidence.optional(), source: sourceText.optional() })
+		z.strictObject({
+			role: role.optional(),
+			confidence: confidence.optional(),
+			source: sourceText.optional()
+		})
 	)
-	.describe("Per element of the profile: a role that overrides the default, how sure its value is, and where it comes from. A preset's own confidence and source apply where none is given.");
+	.describe(
+		"Per element of the profile: a role that overrides the default, how sure its value is, and where it comes from. A preset's own confidence and source apply where none is given."
+	);
 
-const yieldStanding = { confidence: confidence.optional(), source: sourceText.optional().describe('Where the yield comes from') };
+const yieldStanding = {
+	confidence: confidence.optional(),
+	source: sourceText.optional().describe('Where the yield comes from')
+};
 
 export const sufficiencyRequest = z.strictObject({
 	profile: z.discriminatedUnion('kind', [
-		z.strictObject({ kind: z.literal('preset'), id: z.string(), elements: elementStatements.optional() }),
+		z.strictObject({
+			kind: z.literal('preset'),
+			id: z.string(),
+			elements: elementStatements.optional()
+		}),
 		z.strictObject({
 			kind: z.literal('elementalFractions'),
 			name: z.string().optional(),
 			fractions: amounts,
 			cellDryMassPg: finite.optional(),
 			elements: elementStatements.optional(),
-			formula: z.string().max(200).optional().describe('Ash-free biomass formula per C-mol; when given, each fraction of its elements is checked against it (a warning beyond 1 percentage point)'),
-			ashFraction: finite.optional().describe('g ash per g dry biomass, for the check against the formula')
+			formula: z
+				.string()
+				.max(200)
+				.optional()
+				.describe(
+					'Ash-free biomass formula per C-mol; when given, each fraction of its elements is checked against it (a warning beyond 1 percentage point)'
+				),
+			ashFraction: finite
+				.optional()
+				.describe('g ash per g dry biomass, for the check against the formula')
 		}),
 		z.strictObject({
 			kind: z.literal('componentRequirements'),
@@ -174,7 +227,12 @@ export const sufficiencyRequest = z.strictObject({
 	safetyFactor: finite.optional(),
 	carbon: z
 		.discriminatedUnion('basis', [
-			z.strictObject({ basis: z.literal('component'), component: z.string(), yieldGPerG: finite, ...yieldStanding }),
+			z.strictObject({
+				basis: z.literal('component'),
+				component: z.string(),
+				yieldGPerG: finite,
+				...yieldStanding
+			}),
 			z.strictObject({ basis: z.literal('element'), yieldGPerGCarbon: finite, ...yieldStanding })
 		])
 		.optional(),
@@ -195,33 +253,53 @@ export const sufficiencyLineResponse = z.object({
 	maxBiomassGPerL: z.number().nullable(),
 	maxCellsPerMl: z.number().nullable(),
 	role: role,
-	roleFrom: z.enum(['default', 'profile']).describe("'default': the table of default roles (common practice), or the rule that the carbon source, substrates and component demands are required; 'profile': the profile's own statement"),
+	roleFrom: z
+		.enum(['default', 'profile'])
+		.describe(
+			"'default': the table of default roles (common practice), or the rule that the carbon source, substrates and component demands are required; 'profile': the profile's own statement"
+		),
 	confidence: confidence.describe('How sure the composition value (or yield) behind the demand is'),
-	source: z.string().nullable().describe('Where that value comes from: the published table, the analysis, the yield method'),
+	source: z
+		.string()
+		.nullable()
+		.describe('Where that value comes from: the published table, the analysis, the yield method'),
 	note: z.string().optional()
 });
 
-export const sufficiencyResponse = describes<SufficiencyResult>()(z.object({
-	target: z.object({ biomassGPerL: z.number().nullable(), cellsPerMl: z.number().nullable(), cellDryMassPg: z.number().nullable() }),
-	safetyFactor: z.number(),
-	finalVolumeL: z.number().nullable(),
-	lines: z.array(sufficiencyLineResponse),
-	limiting: z
-		.object({ key: z.string(), basis: z.enum(['element', 'component']), ratio: z.number() })
-		.nullable()
-		.describe('The required line of lowest ratio; trace lines never limit'),
-	maximumSupportable: z.object({ biomassGPerL: z.number().nullable(), cellsPerMl: z.number().nullable() }).describe("From the limiting required line: target × ratio / safety factor"),
-	sufficient: z.boolean().describe('Every required line has supply ≥ safety factor × demand'),
-	warnings: z.array(z.string()).describe('Trace elements short of safety factor × demand, each by name; fractions that contradict the formula'),
-	notes: z.array(z.string()),
-	defaultRolesBasis: z.string().describe('Where the default roles come from')
-}));
+export const sufficiencyResponse = describes<SufficiencyResult>()(
+	z.object({
+		target: z.object({
+			biomassGPerL: z.number().nullable(),
+			cellsPerMl: z.number().nullable(),
+			cellDryMassPg: z.number().nullable()
+		}),
+		safetyFactor: z.number(),
+		finalVolumeL: z.number().nullable(),
+		lines: z.array(sufficiencyLineResponse),
+		limiting: z
+			.object({ key: z.string(), basis: z.enum(['element', 'component']), ratio: z.number() })
+			.nullable()
+			.describe('The required line of lowest ratio; trace lines never limit'),
+		maximumSupportable: z
+			.object({ biomassGPerL: z.number().nullable(), cellsPerMl: z.number().nullable() })
+			.describe('From the limiting required line: target × ratio / safety factor'),
+		sufficient: z.boolean().describe('Every required line has supply ≥ safety factor × demand'),
+		warnings: z
+			.array(z.string())
+			.describe(
+				'Trace elements short of safety factor × demand, each by name; fractions that contradict the formula'
+			),
+		notes: z.array(z.string()),
+		defaultRolesBasis: z.string().describe('Where the default roles come from')
+	})
+);
 
 export const chemistryOperations: ApiOperation[] = [
 	{
 		method: 'post',
 		path: '/api/v1/formula',
-		summary: 'Parses a chemical formula (hydrates, decimal subscripts) and gives its molar mass and element counts',
+		summary:
+			'Parses a chemical formula (hydrates, decimal subscripts) and gives its molar mass and element counts',
 		act: 'calculation.run',
 		request: formulaRequest,
 		response: formulaResponse
@@ -237,8 +315,7 @@ export const chemistryOperations: ApiOperation[] = [
 	{
 		method: 'post',
 		path: '/api/v1/oxygen/saturation',
-		summary:
-			`Dissolved-oxygen saturation: Benson & Krause (1984) as given in APHA Standard Methods 4500-O by default, or Garcia & Gordon (1992). Defaults: salinity 0 g/kg, 101.325 kPa, o2MoleFraction ${AIR_O2_MOLE_FRACTION} (dry air; ${AIR_O2_MOLE_FRACTION_SOURCE})`,
+		summary: `Dissolved-oxygen saturation: Benson & Krause (1984) as given in APHA Standard Methods 4500-O by default, or Garcia & Gordon (1992). Defaults: salinity 0 g/kg, 101.325 kPa, o2MoleFraction ${AIR_O2_MOLE_FRACTION} (dry air; ${AIR_O2_MOLE_FRACTION_SOURCE})`,
 		act: 'calculation.run',
 		request: oxygenSaturationRequest,
 		response: oxygenSaturationResponse

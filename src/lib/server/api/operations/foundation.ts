@@ -9,12 +9,14 @@ export const sessionRequest = z.object({
 	password: z.string().min(1).max(256)
 });
 
-export const meResponse = describes<SignedInUser>()(z.object({
-	id: z.string(),
-	email: z.string(),
-	name: z.string(),
-	roles: z.array(z.enum(ROLES))
-}));
+export const meResponse = describes<SignedInUser>()(
+	z.object({
+		id: z.string(),
+		email: z.string(),
+		name: z.string(),
+		roles: z.array(z.enum(ROLES))
+	})
+);
 
 export const healthResponse = z.object({
 	status: z.literal('ok'),
@@ -23,8 +25,20 @@ export const healthResponse = z.object({
 });
 
 export const foundationOperations: ApiOperation[] = [
-	{ method: 'get', path: '/api/v1/health', summary: 'Reports that the service and its database answer', act: 'service.describe', response: healthResponse },
-	{ method: 'get', path: '/api/v1/me', summary: 'The signed-in user: e-mail, name and roles', act: 'workspace.view', response: meResponse },
+	{
+		method: 'get',
+		path: '/api/v1/health',
+		summary: 'Reports that the service and its database answer',
+		act: 'service.describe',
+		response: healthResponse
+	},
+	{
+		method: 'get',
+		path: '/api/v1/me',
+		summary: 'The signed-in user: e-mail, name and roles',
+		act: 'workspace.view',
+		response: meResponse
+	},
 	{
 		method: 'post',
 		path: '/api/v1/session',
@@ -33,6 +47,18 @@ export const foundationOperations: ApiOperation[] = [
 		request: sessionRequest,
 		response: meResponse
 	},
-	{ method: 'delete', path: '/api/v1/session', summary: 'Signs out (ends the session)', act: 'session.end', successStatus: 204, responseDescription: 'Signed out' },
-	{ method: 'get', path: '/api/v1/openapi.json', summary: 'This description (OpenAPI 3.1)', act: 'service.describe' }
+	{
+		method: 'delete',
+		path: '/api/v1/session',
+		summary: 'Signs out (ends the session)',
+		act: 'session.end',
+		successStatus: 204,
+		responseDescription: 'Signed out'
+	},
+	{
+		method: 'get',
+		path: '/api/v1/openapi.json',
+		summary: 'This description (OpenAPI 3.1)',
+		act: 'service.describe'
+	}
 ];

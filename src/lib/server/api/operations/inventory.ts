@@ -20,7 +20,10 @@ export const lotCreateRequest = z.object({
 	supplier: z.string().max(120),
 	supplierLot: z.string().max(80),
 	quantity: text(30).describe('Amount received'),
-	unit: z.string().max(10).describe(`One of ${QUANTITY_UNITS.join(', ')}`),
+	unit: z
+		.string()
+		.max(10)
+		.describe(`One of ${QUANTITY_UNITS.join(', ')}`),
 	receivedOn: z.string().max(10).describe('YYYY-MM-DD'),
 	expiresOn: z.string().max(10).describe('YYYY-MM-DD, after receivedOn'),
 	dateKind: z.enum(DATE_KINDS).optional(),
@@ -35,17 +38,24 @@ export const inventoryOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/lots',
-		summary: 'Lots with on-hand (sum of the ledger, base unit mg or µL). Query: component, status, expiringBefore (YYYY-MM-DD), q',
+		summary:
+			'Lots with on-hand (sum of the ledger, base unit mg or µL). Query: component, status, expiringBefore (YYYY-MM-DD), q',
 		act: 'lot.view'
 	},
 	{
 		method: 'post',
 		path: '/api/v1/lots',
-		summary: 'Receives a lot into quarantine with its receipt ledger entry. Field problems come back as errors at their field',
+		summary:
+			'Receives a lot into quarantine with its receipt ledger entry. Field problems come back as errors at their field',
 		act: 'lot.receive',
 		request: lotCreateRequest,
 		successStatus: 201,
 		errors: [404, 409]
 	},
-	{ method: 'get', path: '/api/v1/lots/{id}', summary: 'One lot with its ledger, certificates and where-used (batches that used it)', act: 'lot.view' }
+	{
+		method: 'get',
+		path: '/api/v1/lots/{id}',
+		summary: 'One lot with its ledger, certificates and where-used (batches that used it)',
+		act: 'lot.view'
+	}
 ];

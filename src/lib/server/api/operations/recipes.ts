@@ -8,7 +8,11 @@ const numberOrText = z.union([z.number(), z.string().max(40)]);
 
 // Strict at every level: a misspelt key is a 400 naming it, never silently ignored.
 export const previewRequest = z.strictObject({
-	recipeId: z.string().max(80).optional().describe('The recipe being edited, so a stock cannot contain it'),
+	recipeId: z
+		.string()
+		.max(80)
+		.optional()
+		.describe('The recipe being edited, so a stock cannot contain it'),
 	preparationTemperatureC: numberOrText.optional().describe('°C; 25 when omitted'),
 	osmolalityMinMOsmPerKg: numberOrText.optional(),
 	osmolalityMaxMOsmPerKg: numberOrText.optional(),
@@ -42,51 +46,71 @@ export const componentListQuery = z.object({
 
 const element = z.object({ symbol: z.string(), gPerL: z.number(), mmolPerL: z.number() });
 
-export const analysisResponse = describes<RecipeAnalysis>()(z.object({
-	components: z.array(
-		z.object({
-			id: z.string(),
-			name: z.string(),
-			gPerL: z.number(),
-			mM: z.number().nullable(),
-			osmolalityMOsmPerKg: z.number().nullable(),
-			osmoticCoefficient: z.number().nullable(),
-			lines: z.array(z.number()).describe('0-based indexes of the request lines it comes from')
-		})
-	),
-	elements: z.array(element),
-	totalCarbonGPerL: z.number(),
-	totalNitrogenGPerL: z.number(),
-	osmolality: z.object({
-		estimateMOsmPerKg: z.number(),
-		idealMOsmPerL: z.number(),
-		excludedComponentIds: z.array(z.string()).describe('components without a molar mass (complex materials), left out of the estimate'),
-		excludedNames: z.array(z.string()),
-		minMOsmPerKg: z.number().nullable(),
-		maxMOsmPerKg: z.number().nullable(),
-		verdict: z.enum(['within', 'below', 'above', 'no-target']),
-		note: z.string()
-	}),
-	ionicStrengthMolPerL: z.number(),
-	dissolvedSolidsGPerL: z.number().describe('Σ g/L of the components as weighed'),
-	temperatureC: z.number(),
-	warnings: z.array(z.object({ kind: z.enum(['solubility', 'precipitation']), basis: z.string(), message: z.string(), lines: z.array(z.number()) })),
-	notes: z.array(z.string()),
-	hazards: z.array(z.object({ code: z.string(), text: z.string(), components: z.array(z.string()) }))
-}));
+export const analysisResponse = describes<RecipeAnalysis>()(
+	z.object({
+		components: z.array(
+			z.object({
+				id: z.string(),
+				name: z.string(),
+				gPerL: z.number(),
+				mM: z.number().nullable(),
+				osmolalityMOsmPerKg: z.number().nullable(),
+				osmoticCoefficient: z.number().nullable(),
+				lines: z.array(z.number()).describe('0-based indexes of the request lines it comes from')
+			})
+		),
+		elements: z.array(element),
+		totalCarbonGPerL: z.number(),
+		totalNitrogenGPerL: z.number(),
+		osmolality: z.object({
+			estimateMOsmPerKg: z.number(),
+			idealMOsmPerL: z.number(),
+			excludedComponentIds: z
+				.array(z.string())
+				.describe('components without a molar mass (complex materials), left out of the estimate'),
+			excludedNames: z.array(z.string()),
+			minMOsmPerKg: z.number().nullable(),
+			maxMOsmPerKg: z.number().nullable(),
+			verdict: z.enum(['within', 'below', 'above', 'no-target']),
+			note: z.string()
+		}),
+		ionicStrengthMolPerL: z.number(),
+		dissolvedSolidsGPerL: z.number().describe('Σ g/L of the components as weighed'),
+		temperatureC: z.number(),
+		warnings: z.array(
+			z.object({
+				kind: z.enum(['solubility', 'precipitation']),
+				basis: z.string(),
+				message: z.string(),
+				lines: z.array(z.number())
+			})
+		),
+		notes: z.array(z.string()),
+		hazards: z.array(
+			z.object({ code: z.string(), text: z.string(), components: z.array(z.string()) })
+		)
+	})
+);
 
 export const recipesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/recipes',
-		summary: 'Lists recipes. Query: kind, status (has a version in it), component (id; has a version containing it), q (name contains), page, pageSize',
+		summary:
+			'Lists recipes. Query: kind, status (has a version in it), component (id; has a version containing it), q (name contains), page, pageSize',
 		act: 'recipe.view'
 	},
-	{ method: 'get', path: '/api/v1/recipes/{id}', summary: 'One recipe with its versions', act: 'recipe.view' },
+	{
+		method: 'get',
+		path: '/api/v1/recipes/{id}',
+		summary: 'One recipe with its versions',
+		act: 'recipe.view'
+	},
 	{
 		method: 'get',
 		path: '/api/v1/recipes/{id}/versions/{n}',
-		summary: 'One version with its lines, composition (elements, osmolality, warnings) and signatures',
+		summary:
+			'One version with its lines, composition (elements, osmolality, warnings) and signatures',
 		act: 'recipe.view'
 	},
 	{
@@ -98,5 +122,10 @@ export const recipesOperations: ApiOperation[] = [
 		request: previewRequest,
 		response: analysisResponse
 	},
-	{ method: 'get', path: '/api/v1/components', summary: 'The component library. Query: category, q (name, formula or CAS contains)', act: 'component.view' }
+	{
+		method: 'get',
+		path: '/api/v1/components',
+		summary: 'The component library. Query: category, q (name, formula or CAS contains)',
+		act: 'component.view'
+	}
 ];

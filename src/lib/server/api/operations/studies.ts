@@ -12,7 +12,11 @@ export const evaluateRequest = z.strictObject({
 	whatIf: z
 		.strictObject({
 			targetValue: finite.optional().describe('g/L dry biomass or cells/mL, as the study'),
-			feedVolumeL: finite.optional().describe('Total feed volume: planned for open plans, available for substrate- and DO-stat plans; every feed is scaled in proportion'),
+			feedVolumeL: finite
+				.optional()
+				.describe(
+					'Total feed volume: planned for open plans, available for substrate- and DO-stat plans; every feed is scaled in proportion'
+				),
 			kLaPerH: finite.optional(),
 			o2MoleFraction: finite.optional().describe('O2 mole fraction of the inlet gas, 0–1'),
 			temperatureC: finite.optional()
@@ -21,63 +25,93 @@ export const evaluateRequest = z.strictObject({
 });
 
 /** The report's verdict and nutrient part; oxygen, heat, volume, feeds and the time course are not described here. */
-export const evaluateResponse = documentsPartOf<StudyReport>()(z
-	.object({
-		verdict: z.enum(['supported', 'not supported']),
-		reasons: z.array(z.string()).describe('Why not, one sentence each: required nutrients short of the safety factor, oxygen, heat, volume, feeds'),
-		warnings: z
-			.array(z.string())
-			.describe("What holds but needs watching: trace elements short of the safety factor (each by name; they never set the limit), nutrients a feed covers only later, a profile whose fractions contradict its formula"),
-		limit: z
-			.object({
-				key: z.string(),
-				name: z.string(),
-				basis: z.enum(['element', 'component']),
-				ratio: z.number(),
-				maxBiomassGPerL: z.number().nullable(),
-				maxCellsPerMl: z.number().nullable()
-			})
-			.describe('The limiting required nutrient and the maximum supportable density'),
-		nutrients: z.object({
-			check: z.enum(['ok', 'short']).describe("'short' when a required nutrient is"),
-			lines: z.array(
-				sufficiencyLineResponse.extend({
+export const evaluateResponse = documentsPartOf<StudyReport>()(
+	z
+		.object({
+			verdict: z.enum(['supported', 'not supported']),
+			reasons: z
+				.array(z.string())
+				.describe(
+					'Why not, one sentence each: required nutrients short of the safety factor, oxygen, heat, volume, feeds'
+				),
+			warnings: z
+				.array(z.string())
+				.describe(
+					'What holds but needs watching: trace elements short of the safety factor (each by name; they never set the limit), nutrients a feed covers only later, a profile whose fractions contradict its formula'
+				),
+			limit: z
+				.object({
+					key: z.string(),
 					name: z.string(),
-					runout: z.object({ shortFromH: z.number(), coveredAgainH: z.number().nullable() }).nullable()
+					basis: z.enum(['element', 'component']),
+					ratio: z.number(),
+					maxBiomassGPerL: z.number().nullable(),
+					maxCellsPerMl: z.number().nullable()
 				})
-			),
-			notes: z.array(z.string())
+				.describe('The limiting required nutrient and the maximum supportable density'),
+			nutrients: z.object({
+				check: z.enum(['ok', 'short']).describe("'short' when a required nutrient is"),
+				lines: z.array(
+					sufficiencyLineResponse.extend({
+						name: z.string(),
+						runout: z
+							.object({ shortFromH: z.number(), coveredAgainH: z.number().nullable() })
+							.nullable()
+					})
+				),
+				notes: z.array(z.string())
+			})
 		})
-	})
-	.loose());
+		.loose()
+);
 
 export const feedDesignRequest = z.strictObject({
-	componentIds: z.array(z.string().min(1, 'Choose a component.').max(80)).min(1, 'Choose at least one component.').max(40, 'At most 40 components.'),
+	componentIds: z
+		.array(z.string().min(1, 'Choose a component.').max(80))
+		.min(1, 'Choose at least one component.')
+		.max(40, 'At most 40 components.'),
 	feedVolumeL: finite.describe('All proposed feeds together, L'),
 	temperatureC: finite.min(0, 'At least 0 °C').max(60, 'At most 60 °C'),
 	osmolalityMaxMOsmPerKg: finite
 		.gt(0, 'Above 0 mOsm/kg')
 		.max(10000, 'At most 10 000 mOsm/kg')
 		.optional()
-		.describe("Highest osmolality of each feed (the recipe analysis's estimate); the organism group's default when omitted"),
-	dissolvedSolidsMaxGPerL: finite.gt(0, 'Above 0 g/L').max(2000, 'At most 2 000 g/L').optional().describe("Highest Σ g/L of each feed; the organism group's default when omitted")
+		.describe(
+			"Highest osmolality of each feed (the recipe analysis's estimate); the organism group's default when omitted"
+		),
+	dissolvedSolidsMaxGPerL: finite
+		.gt(0, 'Above 0 g/L')
+		.max(2000, 'At most 2 000 g/L')
+		.optional()
+		.describe("Highest Σ g/L of each feed; the organism group's default when omitted")
 });
 
 export const feedDesignDraftsRequest = feedDesignRequest.extend({
 	names: z
-		.array(z.string().trim().min(1, 'Give the draft a name.').max(120, 'Keep the name to 120 characters.'))
+		.array(
+			z
+				.string()
+				.trim()
+				.min(1, 'Give the draft a name.')
+				.max(120, 'Keep the name to 120 characters.')
+		)
 		.min(1, 'Give each proposed feed a name.')
 		.max(2, 'A proposal has at most two feeds.')
 		.describe('One recipe name per proposed feed, in the order of the proposal')
 });
 
-
 export const studiesOperations: ApiOperation[] = [
-	{ method: 'get', path: '/api/v1/studies', summary: 'Lists saved studies with the recipe versions they use and whether any is superseded', act: 'study.use' },
+	{
+		method: 'get',
+		path: '/api/v1/studies',
+		summary: 'Lists saved studies with the recipe versions they use and whether any is superseded',
+		act: 'study.use'
+	},
 	{
 		method: 'post',
 		path: '/api/v1/studies/evaluate',
-		summary: 'Evaluates a saved study with what-if changes (target, feed volume, kLa, O2 fraction, temperature): verdict, limit (required nutrients only), per-nutrient table with the role, confidence and source of each line, warnings (short trace elements by name), oxygen, heat, volume, time course, defaults used',
+		summary:
+			'Evaluates a saved study with what-if changes (target, feed volume, kLa, O2 fraction, temperature): verdict, limit (required nutrients only), per-nutrient table with the role, confidence and source of each line, warnings (short trace elements by name), oxygen, heat, volume, time course, defaults used',
 		act: 'study.use',
 		request: evaluateRequest,
 		response: evaluateResponse,
@@ -86,7 +120,8 @@ export const studiesOperations: ApiOperation[] = [
 	{
 		method: 'post',
 		path: '/api/v1/studies/{id}/feed-design',
-		summary: "Proposes a feed concentrate (g/L per component) that covers every nutrient at the study's target and safety factor within solubility and vessel volume, or says why it cannot",
+		summary:
+			"Proposes a feed concentrate (g/L per component) that covers every nutrient at the study's target and safety factor within solubility and vessel volume, or says why it cannot",
 		act: 'study.use',
 		request: feedDesignRequest,
 		errors: [422]
@@ -95,7 +130,7 @@ export const studiesOperations: ApiOperation[] = [
 		method: 'post',
 		path: '/api/v1/studies/{id}/feed-design/drafts',
 		summary:
-			'Designs the feed(s) again from the same request and saves each proposed feed as a new feed recipe whose version 1 draft holds its lines, with the recipe editor\'s checks and audit; answers the drafts and their editor links',
+			"Designs the feed(s) again from the same request and saves each proposed feed as a new feed recipe whose version 1 draft holds its lines, with the recipe editor's checks and audit; answers the drafts and their editor links",
 		act: 'study.save-feed-drafts',
 		request: feedDesignDraftsRequest,
 		successStatus: 201,

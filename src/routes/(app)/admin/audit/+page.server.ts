@@ -5,7 +5,11 @@ import type { PageServerLoad } from './$types';
 
 const PAGE_SIZE = 50;
 
-function dateParam(url: URL, name: string, endOfDay: boolean): { value: string; date?: Date; error?: string } {
+function dateParam(
+	url: URL,
+	name: string,
+	endOfDay: boolean
+): { value: string; date?: Date; error?: string } {
 	const value = url.searchParams.get(name) ?? '';
 	if (!value) return { value };
 	const date = new Date(`${value}T${endOfDay ? '23:59:59.999' : '00:00:00'}Z`);

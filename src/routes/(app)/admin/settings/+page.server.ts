@@ -1,5 +1,9 @@
 import { z } from 'zod';
-import { batchNumberPattern, formatBatchNumber, setBatchNumberPattern } from '$lib/server/batches/numbering';
+import {
+	batchNumberPattern,
+	formatBatchNumber,
+	setBatchNumberPattern
+} from '$lib/server/batches/numbering';
 import { parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
@@ -19,10 +23,15 @@ export const actions: Actions = {
 		const parsed = parseForm(patternForm, formData);
 		if (!parsed.ok) return parsed.failure;
 		try {
-			setBatchNumberPattern({ id: admin.id, email: admin.email, address: clientAddress() }, parsed.data.pattern);
+			setBatchNumberPattern(
+				{ id: admin.id, email: admin.email, address: clientAddress() },
+				parsed.data.pattern
+			);
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
-		return { saved: `Saved. The next batch number will look like ${formatBatchNumber(parsed.data.pattern.trim(), new Date(), 1)}.` };
+		return {
+			saved: `Saved. The next batch number will look like ${formatBatchNumber(parsed.data.pattern.trim(), new Date(), 1)}.`
+		};
 	}
 };

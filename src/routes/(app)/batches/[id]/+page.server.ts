@@ -1,6 +1,12 @@
 import { error, fail } from '@sveltejs/kit';
 import { auditEventsFor } from '$lib/server/audit';
-import { completeBatch, chooseLot, recordLine, recordMeasurements, requireBatch } from '$lib/server/batches/execution';
+import {
+	completeBatch,
+	chooseLot,
+	recordLine,
+	recordMeasurements,
+	requireBatch
+} from '$lib/server/batches/execution';
 import { reviewBatch, reviewRefusal } from '$lib/server/batches/review';
 import { clientAddress, requireActor, requirePermission } from '$lib/server/guard';
 import { batchView } from '$lib/server/batches/view';
@@ -13,10 +19,17 @@ import { may } from '$lib/permissions';
 
 // Shapes only: what a value must be is the batch rules' to say (RuleError names the field).
 const text = z.string().default('');
-const lineForm = z.object({ lineId: z.string().min(1, 'Which line? Reload the sheet and try again.') });
+const lineForm = z.object({
+	lineId: z.string().min(1, 'Which line? Reload the sheet and try again.')
+});
 const chooseLotForm = lineForm.extend({ scan: text });
 const recordLineForm = lineForm.extend({ actual: text, reason: text, stockSource: text });
-const measureForm = z.object({ ph: text, osmolality: text, phReason: text, osmolalityReason: text });
+const measureForm = z.object({
+	ph: text,
+	osmolality: text,
+	phReason: text,
+	osmolalityReason: text
+});
 const completeForm = z.object({ password: text, comment: text });
 const reviewForm = z.object({ decision: text, password: text, reason: text });
 
@@ -30,7 +43,8 @@ export const load: PageServerLoad = async ({ params }) => {
 		throw cause;
 	}
 	const open = view.batch.state === 'planned' || view.batch.state === 'in_preparation';
-	const refusal = view.batch.state === 'prepared' ? reviewRefusal(user, requireBatch(params.id)) : null;
+	const refusal =
+		view.batch.state === 'prepared' ? reviewRefusal(user, requireBatch(params.id)) : null;
 	return {
 		...view,
 		canPrepare: open && may(user, 'batch.execute'),
@@ -53,7 +67,10 @@ function parseLineForm<S extends z.ZodType>(schema: S, formData: FormData) {
 	const parsed = parseForm(schema, formData);
 	if (parsed.ok) return parsed;
 	const { status, data } = parsed.failure;
-	return { ok: false as const, failure: fail(status, { ...data, lineId: data.values.lineId ?? '' }) };
+	return {
+		ok: false as const,
+		failure: fail(status, { ...data, lineId: data.values.lineId ?? '' })
+	};
 }
 
 export const actions: Actions = {
@@ -65,7 +82,12 @@ export const actions: Actions = {
 		const { lineId, scan } = parsed.data;
 		try {
 			const chosen = chooseLot(actor, params.id, lineId, scan);
-			return { lineId, saved: chosen.repeated ? `Lot ${chosen.lotCode} was already chosen for this line.` : `Lot ${chosen.lotCode} accepted: weigh ${chosen.requiredText}.` };
+			return {
+				lineId,
+				saved: chosen.repeated
+					? `Lot ${chosen.lotCode} was already chosen for this line.`
+					: `Lot ${chosen.lotCode} accepted: weigh ${chosen.requiredText}.`
+			};
 		} catch (cause) {
 			return lineFailure(formData, cause);
 		}
@@ -77,8 +99,17 @@ export const actions: Actions = {
 		if (!parsed.ok) return parsed.failure;
 		const { lineId, actual, reason, stockSource } = parsed.data;
 		try {
-			const done = recordLine(actor, params.id, lineId, { actualText: actual, reason, stockSource });
-			return { lineId, saved: done.repeated ? 'This line was already recorded; nothing changed.' : 'Line signed as done.' };
+			const done = recordLine(actor, params.id, lineId, {
+				actualText: actual,
+				reason,
+				stockSource
+			});
+			return {
+				lineId,
+				saved: done.repeated
+					? 'This line was already recorded; nothing changed.'
+					: 'Line signed as done.'
+			};
 		} catch (cause) {
 			return lineFailure(formData, cause);
 		}
@@ -120,6 +151,8 @@ export const actions: Actions = {
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}
-			return { saved: parsed.data.decision === 'rejected' ? 'Batch rejected.' : 'Batch released for use.' };
+			return {
+				saved: parsed.data.decision === 'rejected' ? 'Batch rejected.' : 'Batch released for use.'
+			};
 		})
 };

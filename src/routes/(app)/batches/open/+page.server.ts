@@ -21,7 +21,13 @@ export const actions: Actions = {
 		const { code } = parsed.data;
 		const found = batchFromScan(code);
 		if (!found) {
-			return formFailure(formData, code.trim() ? `“${code.trim().slice(0, 120)}” is not a batch sheet known here. Scan the QR code at the top of the sheet, or type the batch number.` : 'Scan the sheet or type the batch number.', { code: ['Not a batch.'] });
+			return formFailure(
+				formData,
+				code.trim()
+					? `“${code.trim().slice(0, 120)}” is not a batch sheet known here. Scan the QR code at the top of the sheet, or type the batch number.`
+					: 'Scan the sheet or type the batch number.',
+				{ code: ['Not a batch.'] }
+			);
 		}
 		redirect(303, `/batches/${found.id}`);
 	}

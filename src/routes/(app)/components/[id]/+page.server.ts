@@ -24,10 +24,17 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		component,
 		molarMassGPerMol: molarMassOfComponent(component),
 		basis: basis ? { id: basis.id, name: basis.name } : null,
-		forms: listComponents().filter((c) => c.basisComponentId === component.id).map((c) => ({ id: c.id, name: c.name })),
-		usedIn: listRecipes({ componentId: component.id, page: 1, pageSize: 50 }).rows.map((r) => ({ id: r.id, name: r.name })),
+		forms: listComponents()
+			.filter((c) => c.basisComponentId === component.id)
+			.map((c) => ({ id: c.id, name: c.name })),
+		usedIn: listRecipes({ componentId: component.id, page: 1, pageSize: 50 }).rows.map((r) => ({
+			id: r.id,
+			name: r.name
+		})),
 		values: componentText(component) as Record<string, string>,
-		basisChoices: listComponents().filter((c) => !c.basisComponentId && c.id !== component.id).map((c) => ({ id: c.id, name: c.name })),
+		basisChoices: listComponents()
+			.filter((c) => !c.basisComponentId && c.id !== component.id)
+			.map((c) => ({ id: c.id, name: c.name })),
 		canEdit: may(user, 'component.edit'),
 		created: url.searchParams.has('created')
 	};
@@ -37,18 +44,31 @@ export const actions: Actions = {
 	save: async ({ request, params }) => {
 		const actor = requireActor('component.edit');
 		const formData = await request.formData();
-		const parsed = parseForm(componentForm.extend({ revision: revisionField }), formData, [], 'Nothing was saved: correct the fields marked below.');
+		const parsed = parseForm(
+			componentForm.extend({ revision: revisionField }),
+			formData,
+			[],
+			'Nothing was saved: correct the fields marked below.'
+		);
 		if (!parsed.ok) return parsed.failure;
 		const { revision, ...input } = parsed.data;
 		const checked = checkComponentText(input, { selfId: params.id });
 		if (!checked.ok) {
-			return fail(400, { message: 'Nothing was saved: correct the fields marked below.', fieldErrors: checked.fieldErrors, values: formValues(formData) });
+			return fail(400, {
+				message: 'Nothing was saved: correct the fields marked below.',
+				fieldErrors: checked.fieldErrors,
+				values: formValues(formData)
+			});
 		}
 		try {
 			updateComponent(actor, params.id, revision, checked.value);
 		} catch (cause) {
 			if (!(cause instanceof RuleError)) throw cause;
-			return fail(cause.status, { message: cause.message, fieldErrors: {} as Record<string, string[]>, values: formValues(formData) });
+			return fail(cause.status, {
+				message: cause.message,
+				fieldErrors: {} as Record<string, string[]>,
+				values: formValues(formData)
+			});
 		}
 		return { saved: 'Saved.' };
 	}

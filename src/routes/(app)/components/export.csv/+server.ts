@@ -5,5 +5,8 @@ import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async () => {
 	requirePermission('component.view');
-	return csvDownload(exportComponentsCsv(), `components-${new Date().toISOString().slice(0, 10)}.csv`);
+	return csvDownload(
+		exportComponentsCsv(),
+		`components-${new Date().toISOString().slice(0, 10)}.csv`
+	);
 };

@@ -119,7 +119,11 @@ export const actions: Actions = {
 			const all = parsed.data.all === 'yes';
 			const amount = decimalOrNaN(parsed.data.amount ?? '');
 			if (!all && !(parsed.data.amount ?? '').trim()) {
-				return formFailure(formData, 'Enter the amount to dispose of, or tick “all that is left”.', { amount: ['Enter the amount.'] });
+				return formFailure(
+					formData,
+					'Enter the amount to dispose of, or tick “all that is left”.',
+					{ amount: ['Enter the amount.'] }
+				);
 			}
 			try {
 				disposeLot(actor, params.id, {

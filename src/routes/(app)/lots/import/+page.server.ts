@@ -21,9 +21,21 @@ export const actions: Actions = {
 		try {
 			text = await csvTextFrom(formData);
 			const preview = previewLotCsv(text);
-			return { preview: { rows: preview.rows.map((r) => ({ rowNumber: r.rowNumber, values: r.values, errors: r.errors })), valid: preview.valid, invalid: preview.invalid }, csv: text };
+			return {
+				preview: {
+					rows: preview.rows.map((r) => ({
+						rowNumber: r.rowNumber,
+						values: r.values,
+						errors: r.errors
+					})),
+					valid: preview.valid,
+					invalid: preview.invalid
+				},
+				csv: text
+			};
 		} catch (cause) {
-			if (cause instanceof RuleError) return formFailure(formData, cause.message, { csv: [cause.message] });
+			if (cause instanceof RuleError)
+				return formFailure(formData, cause.message, { csv: [cause.message] });
 			throw cause;
 		}
 	},
@@ -33,7 +45,10 @@ export const actions: Actions = {
 		const parsed = parseForm(importForm, formData);
 		if (!parsed.ok) return parsed.failure;
 		try {
-			const count = importLotCsv({ id: user.id, email: user.email, address: clientAddress() }, parsed.data.csv);
+			const count = importLotCsv(
+				{ id: user.id, email: user.email, address: clientAddress() },
+				parsed.data.csv
+			);
 			return { imported: count };
 		} catch (cause) {
 			return ruleFailure(formData, cause);

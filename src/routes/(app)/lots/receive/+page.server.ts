@@ -11,12 +11,22 @@ import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
 // Shapes only: checkLotInput says what each value must hold; certificate files are read apart.
-const lotForm = z.object(Object.fromEntries(LOT_FIELDS.map((f) => [f, formText])) as Record<(typeof LOT_FIELDS)[number], typeof formText>);
+const lotForm = z.object(
+	Object.fromEntries(LOT_FIELDS.map((f) => [f, formText])) as Record<
+		(typeof LOT_FIELDS)[number],
+		typeof formText
+	>
+);
 
 export const load: PageServerLoad = async () => {
 	requirePermission('lot.receive');
 	return {
-		components: listComponents().map((c) => ({ id: c.id, name: c.name, storage: c.storage, densityGPerMl: c.densityGPerMl })),
+		components: listComponents().map((c) => ({
+			id: c.id,
+			name: c.name,
+			storage: c.storage,
+			densityGPerMl: c.densityGPerMl
+		})),
 		today: isoToday()
 	};
 };
@@ -34,15 +44,27 @@ export const actions: Actions = {
 		} catch (cause) {
 			if (!(cause instanceof RuleError)) throw cause;
 			const fieldErrors = checked.ok ? {} : checked.fieldErrors;
-			return formFailure(formData, `${cause.message} Choose the file again; everything else you typed is kept.`, { ...fieldErrors, certificates: [cause.message] });
+			return formFailure(
+				formData,
+				`${cause.message} Choose the file again; everything else you typed is kept.`,
+				{ ...fieldErrors, certificates: [cause.message] }
+			);
 		}
 		if (!checked.ok) {
 			const count = Object.keys(checked.fieldErrors).length;
-			return formFailure(formData, `Please correct ${count === 1 ? 'the field' : `${count} fields`} marked below; nothing was received.${uploads.length ? ' Choose the certificate files again.' : ''}`, checked.fieldErrors);
+			return formFailure(
+				formData,
+				`Please correct ${count === 1 ? 'the field' : `${count} fields`} marked below; nothing was received.${uploads.length ? ' Choose the certificate files again.' : ''}`,
+				checked.fieldErrors
+			);
 		}
 		let id: string;
 		try {
-			id = receiveLot({ id: user.id, email: user.email, address: clientAddress() }, checked.value, uploads).id;
+			id = receiveLot(
+				{ id: user.id, email: user.email, address: clientAddress() },
+				checked.value,
+				uploads
+			).id;
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}

@@ -15,7 +15,10 @@ export const load: PageServerLoad = async ({ params }) => {
 	const row = db.select().from(organismProfile).where(eq(organismProfile.id, params.id)).get();
 	if (!row) error(404, { message: 'No such organism profile.' });
 	const components = listComponents();
-	const facts = { componentNames: Object.fromEntries(components.map((c) => [c.id, c.name])), componentFormulas: Object.fromEntries(components.map((c) => [c.id, c.formula])) };
+	const facts = {
+		componentNames: Object.fromEntries(components.map((c) => [c.id, c.name])),
+		componentFormulas: Object.fromEntries(components.map((c) => [c.id, c.formula]))
+	};
 	return {
 		...profileChoices(),
 		values: profileFormValues(row),

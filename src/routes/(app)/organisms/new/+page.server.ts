@@ -5,7 +5,10 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	requirePermission('study.use');
-	return { ...profileChoices(), values: { group: 'bacterium', kind: 'elementalFractions' } as Record<string, string> };
+	return {
+		...profileChoices(),
+		values: { group: 'bacterium', kind: 'elementalFractions' } as Record<string, string>
+	};
 };
 
 export const actions: Actions = {

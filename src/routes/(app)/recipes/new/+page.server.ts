@@ -7,7 +7,11 @@ import { createRecipe } from '$lib/server/recipes/drafts';
 import type { Actions, PageServerLoad } from './$types';
 
 const newRecipeForm = z.object({
-	name: z.string().trim().min(1, 'Give the recipe a name.').max(120, 'Keep the name to 120 characters.'),
+	name: z
+		.string()
+		.trim()
+		.min(1, 'Give the recipe a name.')
+		.max(120, 'Keep the name to 120 characters.'),
 	kind: z.enum(RECIPE_KINDS, { error: 'Choose what kind of recipe this is.' })
 });
 
@@ -24,7 +28,10 @@ export const actions: Actions = {
 		if (!parsed.ok) return parsed.failure;
 		let recipeId: string;
 		try {
-			recipeId = createRecipe({ id: user.id, email: user.email, address: clientAddress() }, parsed.data);
+			recipeId = createRecipe(
+				{ id: user.id, email: user.email, address: clientAddress() },
+				parsed.data
+			);
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}

@@ -7,7 +7,10 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	requirePermission('study.use');
-	return { choices: loadStudyChoices(), values: { ...STUDY_FORM_DEFAULTS } as Record<string, string> };
+	return {
+		choices: loadStudyChoices(),
+		values: { ...STUDY_FORM_DEFAULTS } as Record<string, string>
+	};
 };
 
 export const actions: Actions = {

@@ -5,7 +5,14 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	requirePermission('study.use');
-	return { values: { kLaMode: 'entered', temperatureC: '37', maxPressureKPa: '200', maxGasFlowVvm: '1' } as Record<string, string> };
+	return {
+		values: {
+			kLaMode: 'entered',
+			temperatureC: '37',
+			maxPressureKPa: '200',
+			maxGasFlowVvm: '1'
+		} as Record<string, string>
+	};
 };
 
 export const actions: Actions = {

@@ -17,7 +17,8 @@ const acceptForm = z
 export const load: PageServerLoad = async ({ params }) => {
 	requirePermission('session.start');
 	const { state, invitation } = inspectInvitation(params.token);
-	if (state !== 'valid' || !invitation) return { state, message: LINK_MESSAGES[state as keyof typeof LINK_MESSAGES] };
+	if (state !== 'valid' || !invitation)
+		return { state, message: LINK_MESSAGES[state as keyof typeof LINK_MESSAGES] };
 	return {
 		state,
 		email: invitation.email,

@@ -8,16 +8,30 @@ import { clientAddress } from '$lib/server/guard';
 
 export const GET = endpoint({ act: 'batch.view' }, ({ event }) => {
 	const query = parseQuery(batchListQuery, event.url);
-	const items = listBatches({ state: query.state, recipeId: query.recipe, from: query.from, to: query.to });
+	const items = listBatches({
+		state: query.state,
+		recipeId: query.recipe,
+		from: query.from,
+		to: query.to
+	});
 	return { items, total: items.length };
 });
 
 export const POST = endpoint({ act: 'batch.plan', body: batchCreateRequest }, ({ user, body }) => {
 	const checked = checkBatchInput(body);
 	if (!checked.ok) {
-		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) => messages.map((message) => ({ path, message })));
-		throw new ApiProblem(400, `The batch has ${errors.length} problem${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, errors);
+		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) =>
+			messages.map((message) => ({ path, message }))
+		);
+		throw new ApiProblem(
+			400,
+			`The batch has ${errors.length} problem${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`,
+			errors
+		);
 	}
-	const created = createBatch({ id: user!.id, email: user!.email, address: clientAddress() }, checked.value);
+	const created = createBatch(
+		{ id: user!.id, email: user!.email, address: clientAddress() },
+		checked.value
+	);
 	return json(created, { status: 201, headers: { location: `/api/v1/batches/${created.id}` } });
 });

@@ -9,7 +9,10 @@ export const GET = endpoint({ act: 'component.view' }, ({ event }) => {
 	const items = listComponents().filter(
 		(c) =>
 			(!query.category || c.category === query.category) &&
-			(!q || [c.name, c.formula ?? '', c.casNumber ?? '', ...c.synonyms].some((t) => t.toLowerCase().includes(q)))
+			(!q ||
+				[c.name, c.formula ?? '', c.casNumber ?? '', ...c.synonyms].some((t) =>
+					t.toLowerCase().includes(q)
+				))
 	);
 	return { items, total: items.length };
 });

@@ -8,16 +8,30 @@ import { listLots, receiveLot } from '$lib/server/inventory/lots';
 
 export const GET = endpoint({ act: 'lot.view' }, ({ event }) => {
 	const query = parseQuery(lotListQuery, event.url);
-	const items = listLots({ componentId: query.component, status: query.status, expiringBefore: query.expiringBefore, search: query.q });
+	const items = listLots({
+		componentId: query.component,
+		status: query.status,
+		expiringBefore: query.expiringBefore,
+		search: query.q
+	});
 	return { items, total: items.length };
 });
 
 export const POST = endpoint({ act: 'lot.receive', body: lotCreateRequest }, ({ user, body }) => {
 	const checked = checkLotInput(body);
 	if (!checked.ok) {
-		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) => messages.map((message) => ({ path, message })));
-		throw new ApiProblem(400, `The lot has ${errors.length} problem${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, errors);
+		const errors = Object.entries(checked.fieldErrors).flatMap(([path, messages]) =>
+			messages.map((message) => ({ path, message }))
+		);
+		throw new ApiProblem(
+			400,
+			`The lot has ${errors.length} problem${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`,
+			errors
+		);
 	}
-	const lot = receiveLot({ id: user!.id, email: user!.email, address: clientAddress() }, checked.value);
+	const lot = receiveLot(
+		{ id: user!.id, email: user!.email, address: clientAddress() },
+		checked.value
+	);
 	return json(lot, { status: 201, headers: { location: `/api/v1/lots/${lot.id}` } });
 });

@@ -6,6 +6,8 @@ import { listScenarios, saveScenario } from '$lib/server/scenarios';
 
 export const GET = endpoint({ act: 'simulation.use' }, ({ user }) => listScenarios(user!.id));
 
-export const POST = endpoint({ act: 'simulation.use', body: scenarioCreateRequest }, ({ user, body }) =>
-	json(saveScenario({ ...user!, address: clientAddress() }, body), { status: 201 })
+export const POST = endpoint(
+	{ act: 'simulation.use', body: scenarioCreateRequest },
+	({ user, body }) =>
+		json(saveScenario({ ...user!, address: clientAddress() }, body), { status: 201 })
 );

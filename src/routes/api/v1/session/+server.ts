@@ -5,22 +5,29 @@ import { setSessionCookie, signIn, signOut } from '$lib/server/auth/sign-in';
 import { clientAddress } from '$lib/server/guard';
 import { findUser, rolesOf } from '$lib/server/people';
 
-export const POST = endpoint({ act: 'session.start', body: sessionRequest }, async ({ body, event }) => {
-	const outcome = await signIn(body.email, body.password, clientAddress());
-	if (!outcome.ok) {
-		return problem(outcome.status, outcome.message, {
-			errors: outcome.field ? [{ path: outcome.field, message: outcome.message }] : undefined,
-			headers: outcome.retryAfterS ? { 'retry-after': String(outcome.retryAfterS) } : undefined
-		});
+export const POST = endpoint(
+	{ act: 'session.start', body: sessionRequest },
+	async ({ body, event }) => {
+		const outcome = await signIn(body.email, body.password, clientAddress());
+		if (!outcome.ok) {
+			return problem(outcome.status, outcome.message, {
+				errors: outcome.field ? [{ path: outcome.field, message: outcome.message }] : undefined,
+				headers: outcome.retryAfterS ? { 'retry-after': String(outcome.retryAfterS) } : undefined
+			});
+		}
+		setSessionCookie(event.cookies, outcome.cookie);
+		const account = findUser(outcome.userId)!;
+		return { id: account.id, email: account.email, name: account.name, roles: rolesOf(account.id) };
 	}
-	setSessionCookie(event.cookies, outcome.cookie);
-	const account = findUser(outcome.userId)!;
-	return { id: account.id, email: account.email, name: account.name, roles: rolesOf(account.id) };
-});
+);
 
 export const DELETE = endpoint({ act: 'session.end' }, async ({ event, user }) => {
 	if (event.locals.session) {
-		await signOut(event.cookies, event.locals.session.id, { id: user!.id, email: user!.email, address: clientAddress() });
+		await signOut(event.cookies, event.locals.session.id, {
+			id: user!.id,
+			email: user!.email,
+			address: clientAddress()
+		});
 	}
 	return new Response(null, { status: 204 });
 });

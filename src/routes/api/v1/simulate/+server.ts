@@ -2,4 +2,6 @@ import { endpoint } from '$lib/server/api/endpoint';
 import { simulateRequest } from '$lib/server/api/operations/simulation';
 import { runSimulation } from '$lib/server/simulation';
 
-export const POST = endpoint({ act: 'calculation.run', body: simulateRequest }, ({ body }) => runSimulation(body));
+export const POST = endpoint({ act: 'calculation.run', body: simulateRequest }, ({ body }) =>
+	runSimulation(body)
+);

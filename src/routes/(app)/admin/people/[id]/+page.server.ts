@@ -49,7 +49,12 @@ export const actions: Actions = {
 	deactivate: async ({ request, params }) => {
 		const by = actor();
 		const formData = await request.formData();
-		const confirmed = parseForm(confirmForm, formData, [], 'Tick the box to confirm: their sessions end at once.');
+		const confirmed = parseForm(
+			confirmForm,
+			formData,
+			[],
+			'Tick the box to confirm: their sessions end at once.'
+		);
 		if (!confirmed.ok) return confirmed.failure;
 		try {
 			await setActive(by, params.id, false);

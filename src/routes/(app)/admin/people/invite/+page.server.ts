@@ -27,7 +27,11 @@ export const actions: Actions = {
 				{ id: admin.id, email: admin.email, name: admin.name, address: clientAddress() },
 				parsed.data
 			);
-			return { invited: parsed.data.email, mailError: outcome.mailError, link: outcome.mailError ? outcome.link : undefined };
+			return {
+				invited: parsed.data.email,
+				mailError: outcome.mailError,
+				link: outcome.mailError ? outcome.link : undefined
+			};
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}

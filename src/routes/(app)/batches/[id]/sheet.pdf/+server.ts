@@ -9,6 +9,10 @@ export const GET: RequestHandler = async ({ params }) => {
 	const view = batchViewOr404(params.id);
 	const pdf = await buildBatchSheetPdf(view);
 	return new Response(new Uint8Array(pdf), {
-		headers: { 'content-type': 'application/pdf', 'content-disposition': contentDisposition(`batch-sheet-${view.batch.number}.pdf`), 'cache-control': 'private, no-store' }
+		headers: {
+			'content-type': 'application/pdf',
+			'content-disposition': contentDisposition(`batch-sheet-${view.batch.number}.pdf`),
+			'cache-control': 'private, no-store'
+		}
 	});
 };

@@ -9,6 +9,9 @@ export const load: PageServerLoad = async ({ params }) => {
 	requirePermission('lot.view');
 	const lot = findLot(params.id);
 	if (!lot) error(404, { message: 'No lot with this id.' });
-	const uses = batchesUsingLot(lot.id).map((u) => ({ ...u, attention: RECALL_ATTENTION.includes(u.state) }));
+	const uses = batchesUsingLot(lot.id).map((u) => ({
+		...u,
+		attention: RECALL_ATTENTION.includes(u.state)
+	}));
 	return { lot, componentName: findComponent(lot.componentId)?.name ?? lot.componentId, uses };
 };

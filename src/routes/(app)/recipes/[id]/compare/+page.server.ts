@@ -14,7 +14,10 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		const raw = url.searchParams.get(name);
 		const n = raw === null ? fallback : Number(raw);
 		const version = n === undefined ? undefined : findVersion(recipe.id, n);
-		if (!version) error(404, { message: `${recipe.name} has no version ${raw ?? ''}; choose two versions that exist.` });
+		if (!version)
+			error(404, {
+				message: `${recipe.name} has no version ${raw ?? ''}; choose two versions that exist.`
+			});
 		return version;
 	};
 	const b = pick('b', versions[0]?.n);
@@ -23,5 +26,11 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		{ fields: fieldsOf(a), lines: describedLinesOf(a.id) },
 		{ fields: fieldsOf(b), lines: describedLinesOf(b.id) }
 	);
-	return { recipe, a: { n: a.n, status: a.status }, b: { n: b.n, status: b.status }, numbers: versions.map((v) => v.n), comparison };
+	return {
+		recipe,
+		a: { n: a.n, status: a.status },
+		b: { n: b.n, status: b.status },
+		numbers: versions.map((v) => v.n),
+		comparison
+	};
 };

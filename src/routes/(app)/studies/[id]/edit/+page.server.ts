@@ -17,7 +17,12 @@ export const actions: Actions = {
 	save: async ({ request, params }) => {
 		const actor = requirePermission('study.use');
 		const formData = await request.formData();
-		const revisionRead = parseForm(z.object({ revision: revisionField }), formData, [], 'The form lost its revision; reload the page.');
+		const revisionRead = parseForm(
+			z.object({ revision: revisionField }),
+			formData,
+			[],
+			'The form lost its revision; reload the page.'
+		);
 		if (!revisionRead.ok) return revisionRead.failure;
 		const { revision } = revisionRead.data;
 		const parsed = parseForm(studySchema, formData);

@@ -9,6 +9,10 @@ export const GET: RequestHandler = async ({ params }) => {
 	const loaded = loadStudyReport(params.id);
 	const pdf = await buildStudyReportPdf(loaded);
 	return new Response(new Uint8Array(pdf), {
-		headers: { 'content-type': 'application/pdf', 'content-disposition': contentDisposition(`${toSafeFileName(loaded.study.name)}.pdf`), 'cache-control': 'private, no-store' }
+		headers: {
+			'content-type': 'application/pdf',
+			'content-disposition': contentDisposition(`${toSafeFileName(loaded.study.name)}.pdf`),
+			'cache-control': 'private, no-store'
+		}
 	});
 };

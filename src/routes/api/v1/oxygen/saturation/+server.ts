@@ -3,4 +3,7 @@ import { endpoint } from '$lib/server/api/endpoint';
 import { oxygenSaturationRequest } from '$lib/server/api/operations/chemistry';
 
 // An absent o2MoleFraction is dry air, AIR_O2_MOLE_FRACTION, by the library's own default.
-export const POST = endpoint({ act: 'calculation.run', body: oxygenSaturationRequest }, ({ body }) => computeOxygenSaturation(body));
+export const POST = endpoint(
+	{ act: 'calculation.run', body: oxygenSaturationRequest },
+	({ body }) => computeOxygenSaturation(body)
+);

@@ -7,7 +7,9 @@ export const POST = endpoint({ act: 'calculation.run', body: previewRequest }, (
 		return previewDraft(body);
 	} catch (cause) {
 		if (!(cause instanceof DraftProblems)) throw cause;
-		const errors = Object.entries(cause.fieldErrors).flatMap(([path, messages]) => messages.map((message) => ({ path, message })));
+		const errors = Object.entries(cause.fieldErrors).flatMap(([path, messages]) =>
+			messages.map((message) => ({ path, message }))
+		);
 		throw new ApiProblem(400, cause.message, errors);
 	}
 });

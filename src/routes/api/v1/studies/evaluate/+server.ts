@@ -4,7 +4,13 @@ import { RuleError } from '$lib/server/rule-error';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
 
-const WHAT_IF_FIELDS = new Set(['targetValue', 'feedVolumeL', 'kLaPerH', 'o2MoleFraction', 'temperatureC']);
+const WHAT_IF_FIELDS = new Set([
+	'targetValue',
+	'feedVolumeL',
+	'kLaPerH',
+	'o2MoleFraction',
+	'temperatureC'
+]);
 
 export const POST = endpoint({ act: 'study.use', body: evaluateRequest }, ({ body }) => {
 	const { inputs } = loadStudyInputs(body.studyId);

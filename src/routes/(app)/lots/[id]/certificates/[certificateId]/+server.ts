@@ -1,6 +1,10 @@
 import { error } from '@sveltejs/kit';
 import { requirePermission } from '$lib/server/guard';
-import { contentDisposition, findCertificate, readCertificateBytes } from '$lib/server/inventory/certificates';
+import {
+	contentDisposition,
+	findCertificate,
+	readCertificateBytes
+} from '$lib/server/inventory/certificates';
 import { RuleError } from '$lib/server/rule-error';
 import type { RequestHandler } from './$types';
 

@@ -8,17 +8,28 @@ import { actorOf, versionNumber } from '$lib/server/recipes/access';
 import { startDraftFrom } from '$lib/server/recipes/drafts';
 import { loadVersionView } from '$lib/server/recipes/page-load';
 import { findVersion } from '$lib/server/recipes/queries';
-import { returnToDraft, retireVersion, signingRefusal, signVersion, submitForReview, versionDigest } from '$lib/server/recipes/workflow';
+import {
+	returnToDraft,
+	retireVersion,
+	signingRefusal,
+	signVersion,
+	submitForReview,
+	versionDigest
+} from '$lib/server/recipes/workflow';
 import type { Actions, PageServerLoad } from './$types';
 import { may } from '$lib/permissions';
 
 const submitForm = z.object({ revision: revisionField });
 const signForm = z.object({
-	meaning: z.enum(SIGNATURE_MEANINGS, { error: 'Choose what your signature means: reviewed or approved.' }),
+	meaning: z.enum(SIGNATURE_MEANINGS, {
+		error: 'Choose what your signature means: reviewed or approved.'
+	}),
 	password: z.string().min(1, 'Enter your password to sign.').max(256),
 	comment: z.string().max(1000, 'Keep the comment to 1 000 characters.').default('')
 });
-const returnForm = z.object({ comment: z.string().trim().min(1, 'Say what needs to change, so the author knows.').max(1000) });
+const returnForm = z.object({
+	comment: z.string().trim().min(1, 'Say what needs to change, so the author knows.').max(1000)
+});
 const retireForm = z.object({
 	confirm: z.literal('yes', { error: 'Tick the box to confirm.' }),
 	reason: z.string().trim().min(1, 'Say why it is retired.').max(1000)
@@ -68,7 +79,12 @@ export const actions: Actions = {
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
-		return { done: parsed.data.meaning === 'approved' ? `Version ${version.n} is approved. Your signature is recorded.` : 'Your review signature is recorded.' };
+		return {
+			done:
+				parsed.data.meaning === 'approved'
+					? `Version ${version.n} is approved. Your signature is recorded.`
+					: 'Your review signature is recorded.'
+		};
 	},
 	sendBack: async ({ request, params }) => {
 		const user = requirePermission('recipe.sign');

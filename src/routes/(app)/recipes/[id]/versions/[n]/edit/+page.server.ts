@@ -29,7 +29,12 @@ export const load: PageServerLoad = async ({ params }) => {
 		version: { id: version.id, n: version.n, revision: version.revision },
 		fields: toDraftFields(fieldsOf(version)),
 		lines: toDraftLines(linesOf(version.id)),
-		components: listComponents().map((c) => ({ id: c.id, name: c.name, formula: c.formula, basisComponentId: c.basisComponentId })),
+		components: listComponents().map((c) => ({
+			id: c.id,
+			name: c.name,
+			formula: c.formula,
+			basisComponentId: c.basisComponentId
+		})),
 		stocks: listStockRecipes().filter((s) => s.id !== recipe.id)
 	};
 };
@@ -40,19 +45,34 @@ export const actions: Actions = {
 		const formData = await request.formData();
 		const draft = readDraftForm(formData);
 		const { recipe, version } = draftVersion(params);
-		const revisionRead = z.object({ revision: revisionField }).safeParse({ revision: formData.get('revision') ?? '' });
+		const revisionRead = z
+			.object({ revision: revisionField })
+			.safeParse({ revision: formData.get('revision') ?? '' });
 		if (!revisionRead.success) {
 			const message = revisionRead.error.issues[0].message;
-			return fail(400, { message: `Nothing was saved: ${message}`, fieldErrors: { revision: [message] }, draft });
+			return fail(400, {
+				message: `Nothing was saved: ${message}`,
+				fieldErrors: { revision: [message] },
+				draft
+			});
 		}
 		const revision = revisionRead.data.revision;
 		const checked = checkDraft(draft, recipe.id);
 		if (!checked.ok) {
 			const count = Object.keys(checked.fieldErrors).length;
-			return fail(400, { message: `Nothing was saved: ${count === 1 ? 'one input needs' : `${count} inputs need`} attention, marked below.`, fieldErrors: checked.fieldErrors, draft });
+			return fail(400, {
+				message: `Nothing was saved: ${count === 1 ? 'one input needs' : `${count} inputs need`} attention, marked below.`,
+				fieldErrors: checked.fieldErrors,
+				draft
+			});
 		}
 		try {
-			analyseLines(checked.value.lines, { temperatureC: checked.value.fields.preparationTemperatureC, osmolalityMinMOsmPerKg: null, osmolalityMaxMOsmPerKg: null, recipeId: recipe.id });
+			analyseLines(checked.value.lines, {
+				temperatureC: checked.value.fields.preparationTemperatureC,
+				osmolalityMinMOsmPerKg: null,
+				osmolalityMaxMOsmPerKg: null,
+				recipeId: recipe.id
+			});
 			const newRevision = saveDraft(actor, version.id, revision, checked.value);
 			return { saved: true, revision: newRevision, savedAt: new Date().toISOString() };
 		} catch (cause) {
@@ -62,11 +82,22 @@ export const actions: Actions = {
 					message: cause.message,
 					fieldErrors: {} as Record<string, string[]>,
 					draft,
-					conflict: { revision: theirs.revision, byName: theirs.byName, at: theirs.at.toISOString(), fields: toDraftFields(theirs.fields), lines: toDraftLines(theirs.lines), names: theirs.lines.map((l) => l.componentName ?? l.stockRecipeName ?? '') }
+					conflict: {
+						revision: theirs.revision,
+						byName: theirs.byName,
+						at: theirs.at.toISOString(),
+						fields: toDraftFields(theirs.fields),
+						lines: toDraftLines(theirs.lines),
+						names: theirs.lines.map((l) => l.componentName ?? l.stockRecipeName ?? '')
+					}
 				});
 			}
 			if (cause instanceof RuleError) {
-				return fail(cause.status, { message: `Nothing was saved: ${cause.message}`, fieldErrors: cause.field ? { [cause.field]: [cause.message] } : {}, draft });
+				return fail(cause.status, {
+					message: `Nothing was saved: ${cause.message}`,
+					fieldErrors: cause.field ? { [cause.field]: [cause.message] } : {},
+					draft
+				});
 			}
 			throw cause;
 		}
