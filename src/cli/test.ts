@@ -40,9 +40,10 @@ function ensureChromium(): void {
 	process.exit(1);
 }
 
+// ESLint reads the TypeScript project, which extends the config that `svelte-kit sync` writes.
+run('generate types', 'npx', ['svelte-kit', 'sync']);
 run('lint (Prettier, ESLint)', 'npm', ['run', 'lint']);
 ensureChromium();
-run('type check', 'npx', ['svelte-kit', 'sync']);
 run('type check', 'npx', ['svelte-check', '--tsconfig', './tsconfig.json', '--fail-on-warnings']);
 run('unit and server tests (vitest)', 'npx', ['vitest', 'run']);
 run('build', 'npx', ['vite', 'build']);
