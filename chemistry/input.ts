@@ -23,20 +23,26 @@ function describeBounds(b: Bounds): string {
 	return parts.length ? ` ${parts.join(' and ')}` : '';
 }
 
-/** A finite number within `bounds`: "field must be a finite number greater than 0." and the like. */
-export function readNumber(value: unknown, field: string, bounds: Bounds = {}): number {
-	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		throw new ChemistryInputError(`${field} must be a finite number${describeBounds(bounds)}.`, {
-			field
-		});
-	}
+export function isWithin(value: unknown, bounds: Bounds): value is number {
+	if (typeof value !== 'number' || !Number.isFinite(value)) return false;
 	const { min, max, minInclusive = false, maxInclusive = false } = bounds;
 	const tooLow = min !== undefined && (minInclusive ? value < min : value <= min);
 	const tooHigh = max !== undefined && (maxInclusive ? value > max : value >= max);
-	if (tooLow || tooHigh) {
-		throw new ChemistryInputError(`${field} must be${describeBounds(bounds)} (got ${value}).`, {
-			field
-		});
+	return !tooLow && !tooHigh;
+}
+
+/** The refusal of `value` at `field`: not a finite number, or outside `bounds`. */
+export function numberMessage(field: string, value: unknown, bounds: Bounds): string {
+	if (typeof value !== 'number' || !Number.isFinite(value)) {
+		return `${field} must be a finite number${describeBounds(bounds)}.`;
+	}
+	return `${field} must be${describeBounds(bounds)} (got ${value}).`;
+}
+
+/** A finite number within `bounds`: "field must be a finite number greater than 0." and the like. */
+export function readNumber(value: unknown, field: string, bounds: Bounds = {}): number {
+	if (!isWithin(value, bounds)) {
+		throw new ChemistryInputError(numberMessage(field, value, bounds), { field });
 	}
 	return value;
 }

@@ -1,6 +1,7 @@
 // Limits and ranges of the simulation request's numbers, with the one refusal wording (the field
 // and the range it needs) used by the schema's field checks and by its cross-field rules alike.
 import { z } from 'zod';
+import { numberMessage, POSITIVE, type Bounds } from '../input';
 
 /** Longest run accepted: 60 days. */
 export const MAX_END_H = 1440;
@@ -13,43 +14,11 @@ export const MAX_FEED_STREAMS = 8;
 /** Longest feed label accepted, in characters. */
 export const MAX_FEED_LABEL_LENGTH = 80;
 
-export interface Bounds {
-	/** value must be > min (exclusive) or ≥ min (inclusive) */
-	min?: number;
-	minInclusive?: boolean;
-	max?: number;
-	maxInclusive?: boolean;
-}
-
-export const POSITIVE: Bounds = { min: 0 };
-export const NON_NEGATIVE: Bounds = { min: 0, minInclusive: true };
+export { isWithin, NON_NEGATIVE, numberMessage, POSITIVE, type Bounds } from '../input';
 
 /** A request path as the dotted field name users and problem+json see (`feeds.1.rateLPerH`). */
 export const fieldOf = (path: readonly PropertyKey[] | undefined): string =>
 	(path ?? []).map(String).join('.');
-
-function describeBounds(b: Bounds): string {
-	const parts: string[] = [];
-	if (b.min !== undefined) parts.push(`${b.minInclusive ? 'at least' : 'greater than'} ${b.min}`);
-	if (b.max !== undefined) parts.push(`${b.maxInclusive ? 'at most' : 'less than'} ${b.max}`);
-	return parts.length ? ` ${parts.join(' and ')}` : '';
-}
-
-export function isWithin(value: unknown, bounds: Bounds): value is number {
-	if (typeof value !== 'number' || !Number.isFinite(value)) return false;
-	const { min, max, minInclusive = false, maxInclusive = false } = bounds;
-	const tooLow = min !== undefined && (minInclusive ? value < min : value <= min);
-	const tooHigh = max !== undefined && (maxInclusive ? value > max : value >= max);
-	return !tooLow && !tooHigh;
-}
-
-/** The refusal of `value` at `field`: not a finite number, or outside `bounds`. */
-export function numberMessage(field: string, value: unknown, bounds: Bounds): string {
-	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		return `${field} must be a finite number${describeBounds(bounds)}.`;
-	}
-	return `${field} must be${describeBounds(bounds)} (got ${value}).`;
-}
 
 /** JSON cannot carry NaN or Infinity: a value of another type gets the API's short word. */
 const typeError = (bounds: Bounds) => (issue: { input?: unknown; path?: PropertyKey[] }) =>
