@@ -1,31 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
-import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-
-/** A copy of the migrations folder holding only those up to `lastTag`. */
-function migrationsUpTo(lastTag: string): string {
-	const dir = mkdtempSync(join(tmpdir(), 'brothwright-migrations-'));
-	cpSync('drizzle', dir, { recursive: true });
-	const journalPath = join(dir, 'meta', '_journal.json');
-	const journal = JSON.parse(readFileSync(journalPath, 'utf8')) as { entries: { tag: string }[] };
-	const last = journal.entries.findIndex((e) => e.tag === lastTag);
-	expect(last).toBeGreaterThan(0);
-	journal.entries = journal.entries.slice(0, last + 1);
-	writeFileSync(journalPath, JSON.stringify(journal));
-	return dir;
-}
+import { databaseAsOf } from './migration-steps';
 
 describe('batch line quantities in columns named by their unit', () => {
 	it('moves each stored quantity to the column of its unit, also on a prepared batch, and drops the old columns', () => {
-		const path = join(mkdtempSync(join(tmpdir(), 'brothwright-db-')), 'old.db');
-		const sqlite = new Database(path);
-		migrate(drizzle(sqlite), {
-			migrationsFolder: migrationsUpTo('0013_profile_element_statements')
-		});
+		const sqlite = databaseAsOf('0013_profile_element_statements');
 		// Rows as the previous release wrote them; references are not what is tested here.
 		sqlite.pragma('foreign_keys = OFF');
 		sqlite
