@@ -1,5 +1,5 @@
-import type { DraftFieldsInput, DraftLineInput, LineKind } from '$lib/recipes';
-import type { CheckedFields } from './draft';
+import type { DraftFieldsInput, DraftLineInput } from '$lib/recipes';
+import type { CheckedFields, CheckedLine } from './draft';
 
 const text = (value: number | string | null | undefined) =>
 	value === null || value === undefined ? '' : String(value);
@@ -19,18 +19,7 @@ export function toDraftFields(fields: CheckedFields): DraftFieldsInput {
 }
 
 /** Stored lines as the editor's text lines. */
-export function toDraftLines(
-	lines: {
-		kind: LineKind;
-		componentId: string | null;
-		shelfFormId: string | null;
-		stockRecipeId: string | null;
-		amount: number;
-		unit: string;
-		tolerancePercent: number;
-		note: string;
-	}[]
-): DraftLineInput[] {
+export function toDraftLines(lines: Omit<CheckedLine, 'position'>[]): DraftLineInput[] {
 	return lines.map((l) => ({
 		kind: l.kind,
 		componentId: l.componentId ?? '',
