@@ -4,6 +4,7 @@
  * components stored by the app work as well as the reference ones.
  */
 import { resolveComponent } from './resolve-component';
+import { toKelvin } from './units';
 export { resolveComponent } from './resolve-component';
 export {
 	REFERENCE_COMPONENTS,
@@ -137,9 +138,9 @@ export function solubilityAt(
 		const a = sorted[i - 1];
 		const b = sorted[i];
 		if (temperatureC <= b.temperatureC) {
-			const invT = 1 / (temperatureC + 273.15);
-			const invA = 1 / (a.temperatureC + 273.15);
-			const invB = 1 / (b.temperatureC + 273.15);
+			const invT = 1 / toKelvin(temperatureC);
+			const invA = 1 / toKelvin(a.temperatureC);
+			const invB = 1 / toKelvin(b.temperatureC);
 			const fraction = (invT - invA) / (invB - invA);
 			const lnS = Math.log(a.gPerL) + fraction * (Math.log(b.gPerL) - Math.log(a.gPerL));
 			return { gPerL: Math.exp(lnS), exact: false, withinRange: true };

@@ -10,6 +10,7 @@
 import { ChemistryInputError } from './errors';
 import { joinField, readFinite, readNonNegative, readPositive } from './input';
 import { molarMassOf } from './formula';
+import { toKelvin } from './units';
 import {
 	AIR_O2_MOLE_FRACTION,
 	APHA_PRESSURE_CORRECTION,
@@ -78,13 +79,13 @@ export interface OxygenSaturationResult {
 
 /** Water vapour pressure in atm over fresh water (APHA/USGS form). */
 export function computeWaterVapourPressureAtm(temperatureC: number): number {
-	const T = temperatureC + 273.15;
+	const T = toKelvin(temperatureC);
 	const [v0, v1, v2] = APHA_PRESSURE_CORRECTION.vapour;
 	return Math.exp(v0 + v1 / T + v2 / (T * T));
 }
 
 export function computeBensonKrauseMgPerL(temperatureC: number, salinity: number): number {
-	const T = temperatureC + 273.15;
+	const T = toKelvin(temperatureC);
 	const { a, b } = BENSON_KRAUSE_APHA;
 	const lnC =
 		a[0] +
@@ -97,7 +98,7 @@ export function computeBensonKrauseMgPerL(temperatureC: number, salinity: number
 }
 
 export function computeGarciaGordonUmolPerKg(temperatureC: number, salinity: number): number {
-	const ts = Math.log((298.15 - temperatureC) / (273.15 + temperatureC));
+	const ts = Math.log((298.15 - temperatureC) / toKelvin(temperatureC));
 	const { a, b, c0 } = GARCIA_GORDON_COMBINED;
 	let lnC = 0;
 	for (let i = 0; i < a.length; i++) lnC += a[i] * ts ** i;

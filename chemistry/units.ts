@@ -173,3 +173,11 @@ export function convertConcentration(
 
 /** Exact by the definition of the hour. */
 export const SECONDS_PER_HOUR = 3600;
+
+/** 0 °C in kelvin, exact by the definition of the Celsius scale (SI Brochure, 9th ed., 2.3.1). */
+export const ZERO_CELSIUS_K = 273.15;
+
+/** Absolute temperature from degrees Celsius. */
+export function toKelvin(temperatureC: number): number {
+	return temperatureC + ZERO_CELSIUS_K;
+}
