@@ -108,79 +108,15 @@ export function computeMassToWeigh(input: MassToWeighInput): MassToWeighResult {
 	const basisMolarMass = molarMassOfForm(input.basis, 'basis');
 	const n = input.basisUnitsPerShelfUnit ?? 1;
 	checkAmount(n, 'basisUnitsPerShelfUnit');
+	const targetGPerL = readTargetGPerL(input, basisMolarMass ?? shelfMolarMass);
+	const hydrate = readHydrateFactor(input, shelfMolarMass, basisMolarMass, n);
+	const { assayPercent, waterPercent } = readPurity(input.shelfForm);
 
-	let targetGPerL: number;
-	if (input.targetGPerL !== undefined && input.target !== undefined) {
-		throw new ChemistryInputError('Give targetGPerL or target, not both', { field: 'target' });
-	}
-	if (input.target !== undefined) {
-		if (!input.target || typeof input.target !== 'object') {
-			throw new ChemistryInputError('Target needs an amount and a unit', { field: 'target' });
-		}
-		targetGPerL = toGramsPerLitre(
-			input.target.amount,
-			input.target.unit,
-			basisMolarMass ?? shelfMolarMass,
-			'target.amount',
-			'target.unit'
-		);
-	} else {
-		if (input.targetGPerL === undefined) {
-			throw new ChemistryInputError('A target concentration is required', { field: 'targetGPerL' });
-		}
-		targetGPerL = checkAmount(input.targetGPerL, 'targetGPerL');
-	}
-
-	let hydrate = 1;
-	if (input.basis) {
-		if (basisMolarMass === null) {
-			throw new ChemistryInputError('The basis form needs a formula or molar mass', {
-				field: 'basis.formula'
-			});
-		}
-		if (shelfMolarMass === null) {
-			throw new ChemistryInputError(
-				'The shelf form needs a formula or molar mass to convert from the basis form',
-				{
-					field: 'shelfForm.formula'
-				}
-			);
-		}
-		hydrate = hydrateFactor(shelfMolarMass, basisMolarMass, n);
-	} else if (n !== 1) {
-		throw new ChemistryInputError('basisUnitsPerShelfUnit needs a basis form', {
-			field: 'basisUnitsPerShelfUnit'
-		});
-	}
-
-	const assayPercent = input.shelfForm.assayPercent ?? 100;
-	if (
-		typeof assayPercent !== 'number' ||
-		!Number.isFinite(assayPercent) ||
-		assayPercent <= 0 ||
-		assayPercent > MAX_ASSAY_PERCENT
-	) {
-		throw new ChemistryInputError(`Assay must be above 0 and at most ${MAX_ASSAY_PERCENT} %`, {
-			field: 'shelfForm.assayPercent'
-		});
-	}
-	const waterPercent = input.shelfForm.waterContentPercent ?? 0;
-	if (
-		typeof waterPercent !== 'number' ||
-		!Number.isFinite(waterPercent) ||
-		waterPercent < 0 ||
-		waterPercent >= 100
-	) {
-		throw new ChemistryInputError('Water content must be at least 0 and below 100 %', {
-			field: 'shelfForm.waterContentPercent'
-		});
-	}
 	const assay = 100 / assayPercent;
 	const water = 100 / (100 - waterPercent);
 	const total = hydrate * assay * water;
 	const basisMassG = targetGPerL * input.volumeL;
 	const massG = basisMassG * total;
-
 	const steps = [
 		`${round(targetGPerL)} g/L × ${round(input.volumeL)} L = ${round(basisMassG)} g of the basis form`
 	];
@@ -206,6 +142,90 @@ export function computeMassToWeigh(input: MassToWeighInput): MassToWeighResult {
 		steps,
 		convention: WATER_CONVENTION
 	};
+}
+
+/** The target in g/L of the basis form, from `targetGPerL` or from `target` in any concentration unit. */
+function readTargetGPerL(input: MassToWeighInput, molarMassGPerMol: number | null): number {
+	if (input.targetGPerL !== undefined && input.target !== undefined) {
+		throw new ChemistryInputError('Give targetGPerL or target, not both', { field: 'target' });
+	}
+	if (input.target !== undefined) {
+		if (!input.target || typeof input.target !== 'object') {
+			throw new ChemistryInputError('Target needs an amount and a unit', { field: 'target' });
+		}
+		return toGramsPerLitre(
+			input.target.amount,
+			input.target.unit,
+			molarMassGPerMol,
+			'target.amount',
+			'target.unit'
+		);
+	}
+	if (input.targetGPerL === undefined) {
+		throw new ChemistryInputError('A target concentration is required', { field: 'targetGPerL' });
+	}
+	return checkAmount(input.targetGPerL, 'targetGPerL');
+}
+
+/** The hydrate factor when a basis form is given (both molar masses needed), else 1. */
+function readHydrateFactor(
+	input: MassToWeighInput,
+	shelfMolarMass: number | null,
+	basisMolarMass: number | null,
+	basisUnitsPerShelfUnit: number
+): number {
+	if (!input.basis) {
+		if (basisUnitsPerShelfUnit !== 1) {
+			throw new ChemistryInputError('basisUnitsPerShelfUnit needs a basis form', {
+				field: 'basisUnitsPerShelfUnit'
+			});
+		}
+		return 1;
+	}
+	if (basisMolarMass === null) {
+		throw new ChemistryInputError('The basis form needs a formula or molar mass', {
+			field: 'basis.formula'
+		});
+	}
+	if (shelfMolarMass === null) {
+		throw new ChemistryInputError(
+			'The shelf form needs a formula or molar mass to convert from the basis form',
+			{
+				field: 'shelfForm.formula'
+			}
+		);
+	}
+	return hydrateFactor(shelfMolarMass, basisMolarMass, basisUnitsPerShelfUnit);
+}
+
+/** The shelf form's assay (default 100 %) and water content (default 0 %). */
+function readPurity(shelfForm: MassToWeighInput['shelfForm']): {
+	assayPercent: number;
+	waterPercent: number;
+} {
+	const assayPercent = shelfForm.assayPercent ?? 100;
+	if (
+		typeof assayPercent !== 'number' ||
+		!Number.isFinite(assayPercent) ||
+		assayPercent <= 0 ||
+		assayPercent > MAX_ASSAY_PERCENT
+	) {
+		throw new ChemistryInputError(`Assay must be above 0 and at most ${MAX_ASSAY_PERCENT} %`, {
+			field: 'shelfForm.assayPercent'
+		});
+	}
+	const waterPercent = shelfForm.waterContentPercent ?? 0;
+	if (
+		typeof waterPercent !== 'number' ||
+		!Number.isFinite(waterPercent) ||
+		waterPercent < 0 ||
+		waterPercent >= 100
+	) {
+		throw new ChemistryInputError('Water content must be at least 0 and below 100 %', {
+			field: 'shelfForm.waterContentPercent'
+		});
+	}
+	return { assayPercent, waterPercent };
 }
 
 export interface StockVolumeInput {

@@ -23,126 +23,186 @@ export function findExponentialPhase(
 	minRSquared: number,
 	excluded: Set<number>
 ): ExponentialPhaseWindow {
-	const n = t.length;
 	const lnX = x.map(Math.log);
 	const noiseSdLn = Math.max(estimateNoiseSdLn(t, lnX, excluded), NOISE_FLOOR_LN);
 	const roundingSdLn = estimateRoundingSdLn(x);
 	const noiseVariance = roundingSdLn.map((r) => Math.max(noiseSdLn, r) ** 2);
-	const chiSquare95 = Array.from({ length: n }, (_, k) =>
-		k > 0 ? computeChiSquareQuantile(0.95, k) : 0
-	);
-	const studentT975 = createStudentT975Table(n);
-	const maxCurvatureDrop = computeChiSquareQuantile(0.95, 1);
+	const search = new WindowSearch(t.length, minRSquared);
+	scanWindows(t, lnX, noiseVariance, minPoints, excluded, search);
 
-	// For each length, the steepest straight window of that length (where it starts, its slope).
-	const steepestByLength = new Float64Array(n + 1).fill(-Infinity);
-	const steepestStartByLength = new Int32Array(n + 1).fill(-1);
-	// The fastest growth the data show with confidence: the highest lower 95 % bound of a straight
-	// window's slope. (The highest slope itself would be a short window's luck in dense noisy data.)
-	let fastestLowerBound = -Infinity;
-	// What the best window did at each test, to say why when none passes all of them.
-	let anyRising = false;
-	const closest: ClosestWindows = { rSquared: null, lackOfFit: null, curvature: null };
-
-	// Sums about each window's first point, grown one point at a time: O(n²) windows, each in O(1),
-	// and without the cancellation that sums about a fixed origin suffer in the cubic and quartic terms.
-	for (let i = 0; i + minPoints <= n; i++) {
-		if (excluded.has(i)) continue;
-		let u1 = 0,
-			u2 = 0,
-			u3 = 0,
-			u4 = 0,
-			v1 = 0,
-			v2 = 0,
-			uv = 0,
-			u2v = 0,
-			noiseSum = 0;
-		for (let j = i; j < n; j++) {
-			if (excluded.has(j)) break;
-			const u = t[j] - t[i];
-			const v = lnX[j] - lnX[i];
-			const uu = u * u;
-			u1 += u;
-			u2 += uu;
-			u3 += uu * u;
-			u4 += uu * uu;
-			v1 += v;
-			v2 += v * v;
-			uv += u * v;
-			u2v += uu * v;
-			noiseSum += noiseVariance[j];
-			const m = j - i + 1;
-			if (m < minPoints) continue;
-			const suu = u2 - (u1 * u1) / m;
-			const suv = uv - (u1 * v1) / m;
-			const slope = suv / suu;
-			if (!(slope > 0)) continue;
-			anyRising = true;
-			const svv = v2 - (v1 * v1) / m;
-			const residualSumSquares = Math.max(0, svv - slope * suv);
-			const rSquared = svv > 0 ? 1 - residualSumSquares / svv : 0;
-			if (rSquared < minRSquared) {
-				if (closest.rSquared === null || rSquared > closest.rSquared.value) {
-					closest.rSquared = { value: rSquared, i, j };
-				}
-				continue;
-			}
-			const meanNoiseVariance = noiseSum / m;
-			const lackOfFitRatio = residualSumSquares / (chiSquare95[m - 2] * meanNoiseVariance);
-			if (lackOfFitRatio > 1) {
-				if (closest.lackOfFit === null || lackOfFitRatio < closest.lackOfFit.value) {
-					const rms = Math.sqrt(residualSumSquares / (m - 2));
-					closest.lackOfFit = { value: lackOfFitRatio, i, j, rms };
-				}
-				continue;
-			}
-			// The quadratic term made orthogonal to the line: q = u² less its projection on 1 and u.
-			const sww = u4 - (u2 * u2) / m;
-			const swu = u3 - (u2 * u1) / m;
-			const swv = u2v - (u2 * v1) / m;
-			const sqq = sww - (swu * swu) / suu;
-			const sqv = swv - (swu * suv) / suu;
-			const curvatureDrop = sqq > 0 ? Math.min(residualSumSquares, (sqv * sqv) / sqq) : 0;
-			if (curvatureDrop > maxCurvatureDrop * meanNoiseVariance) {
-				const z = Math.sqrt(curvatureDrop / meanNoiseVariance);
-				if (closest.curvature === null || z < closest.curvature.value) {
-					closest.curvature = { value: z, i, j };
-				}
-				continue;
-			}
-			const slopeVariance = Math.max(residualSumSquares / (m - 2), meanNoiseVariance) / suu;
-			const lowerBound = slope - studentT975[m - 2] * Math.sqrt(slopeVariance);
-			if (lowerBound > fastestLowerBound) fastestLowerBound = lowerBound;
-			if (slope > steepestByLength[m]) {
-				steepestByLength[m] = slope;
-				steepestStartByLength[m] = i;
-			}
-		}
-	}
-
-	if (fastestLowerBound === -Infinity) {
+	if (search.fastestLowerBound === -Infinity) {
 		throw new ChemistryInputError(
 			explainNoExponentialPhase(
 				t,
 				minPoints,
 				minRSquared,
 				noiseSdLn,
-				anyRising,
-				closest,
+				search.anyRising,
+				search.closest,
 				excluded.size
 			),
 			{ field: 'biomassGPerL' }
 		);
 	}
-	if (!(fastestLowerBound > 0)) {
+	if (!(search.fastestLowerBound > 0)) {
 		// Straight runs exist, but none rises by more than the noise alone could draw.
 		throw new ChemistryInputError(
-			`No exponential phase found: no straight run of ${minPoints} or more points rises by more than the noise could by chance; the highest lower 95 % bound of a slope is ${formatValue(fastestLowerBound)} /h, not above 0.`,
+			`No exponential phase found: no straight run of ${minPoints} or more points rises by more than the noise could by chance; the highest lower 95 % bound of a slope is ${formatValue(search.fastestLowerBound)} /h, not above 0.`,
 			{ field: 'biomassGPerL' }
 		);
 	}
+	return { ...chooseWindow(search, minPoints, noiseVariance), noiseSdLn };
+}
+
+/**
+ * Tries every window of `minPoints` or more consecutive points not crossing an excluded one. Sums
+ * about each window's first point, grown one point at a time: O(n²) windows, each in O(1), and
+ * without the cancellation that sums about a fixed origin suffer in the cubic and quartic terms.
+ */
+function scanWindows(
+	t: number[],
+	lnX: number[],
+	noiseVariance: number[],
+	minPoints: number,
+	excluded: Set<number>,
+	search: WindowSearch
+): void {
+	const n = t.length;
+	const sums = new WindowSums();
+	for (let i = 0; i + minPoints <= n; i++) {
+		if (excluded.has(i)) continue;
+		sums.reset();
+		for (let j = i; j < n; j++) {
+			if (excluded.has(j)) break;
+			sums.add(t[j] - t[i], lnX[j] - lnX[i], noiseVariance[j]);
+			if (sums.m >= minPoints) search.consider(sums, i, j);
+		}
+	}
+}
+
+/** Sums over a window of u = t − t_first and v = ln X − ln X_first, and of the points' noise variances. */
+class WindowSums {
+	m = 0;
+	u1 = 0;
+	u2 = 0;
+	u3 = 0;
+	u4 = 0;
+	v1 = 0;
+	v2 = 0;
+	uv = 0;
+	u2v = 0;
+	noiseSum = 0;
+
+	reset(): void {
+		this.m = this.u1 = this.u2 = this.u3 = this.u4 = 0;
+		this.v1 = this.v2 = this.uv = this.u2v = this.noiseSum = 0;
+	}
+
+	add(u: number, v: number, noiseVariance: number): void {
+		const uu = u * u;
+		this.u1 += u;
+		this.u2 += uu;
+		this.u3 += uu * u;
+		this.u4 += uu * uu;
+		this.v1 += v;
+		this.v2 += v * v;
+		this.uv += u * v;
+		this.u2v += uu * v;
+		this.noiseSum += noiseVariance;
+		this.m++;
+	}
+}
+
+/** What the window search has found so far: the straight windows and, for the error, the closest misses. */
+class WindowSearch {
+	/** for each length, the steepest straight window of that length (its slope, where it starts) */
+	readonly steepestByLength: Float64Array;
+	readonly steepestStartByLength: Int32Array;
+	// The fastest growth the data show with confidence: the highest lower 95 % bound of a straight
+	// window's slope. (The highest slope itself would be a short window's luck in dense noisy data.)
+	fastestLowerBound = -Infinity;
+	// What the best window did at each test, to say why when none passes all of them.
+	anyRising = false;
+	readonly closest: ClosestWindows = { rSquared: null, lackOfFit: null, curvature: null };
+	private readonly chiSquare95: number[];
+	private readonly studentT975: Float64Array;
+	private readonly maxCurvatureDrop = computeChiSquareQuantile(0.95, 1);
+
+	constructor(
+		n: number,
+		private readonly minRSquared: number
+	) {
+		this.steepestByLength = new Float64Array(n + 1).fill(-Infinity);
+		this.steepestStartByLength = new Int32Array(n + 1).fill(-1);
+		this.chiSquare95 = Array.from({ length: n }, (_, k) =>
+			k > 0 ? computeChiSquareQuantile(0.95, k) : 0
+		);
+		this.studentT975 = createStudentT975Table(n);
+	}
+
+	/** Tests the window of points i..j (rising, R², lack of fit, curvature) and keeps it if straight. */
+	consider(sums: WindowSums, i: number, j: number): void {
+		const { m, u1, u2, u3, u4, v1, v2, uv, u2v } = sums;
+		const suu = u2 - (u1 * u1) / m;
+		const suv = uv - (u1 * v1) / m;
+		const slope = suv / suu;
+		if (!(slope > 0)) return;
+		this.anyRising = true;
+		const svv = v2 - (v1 * v1) / m;
+		const residualSumSquares = Math.max(0, svv - slope * suv);
+		const rSquared = svv > 0 ? 1 - residualSumSquares / svv : 0;
+		const closest = this.closest;
+		if (rSquared < this.minRSquared) {
+			if (closest.rSquared === null || rSquared > closest.rSquared.value) {
+				closest.rSquared = { value: rSquared, i, j };
+			}
+			return;
+		}
+		const meanNoiseVariance = sums.noiseSum / m;
+		const lackOfFitRatio = residualSumSquares / (this.chiSquare95[m - 2] * meanNoiseVariance);
+		if (lackOfFitRatio > 1) {
+			if (closest.lackOfFit === null || lackOfFitRatio < closest.lackOfFit.value) {
+				const rms = Math.sqrt(residualSumSquares / (m - 2));
+				closest.lackOfFit = { value: lackOfFitRatio, i, j, rms };
+			}
+			return;
+		}
+		// The quadratic term made orthogonal to the line: q = u² less its projection on 1 and u.
+		const sww = u4 - (u2 * u2) / m;
+		const swu = u3 - (u2 * u1) / m;
+		const swv = u2v - (u2 * v1) / m;
+		const sqq = sww - (swu * swu) / suu;
+		const sqv = swv - (swu * suv) / suu;
+		const curvatureDrop = sqq > 0 ? Math.min(residualSumSquares, (sqv * sqv) / sqq) : 0;
+		if (curvatureDrop > this.maxCurvatureDrop * meanNoiseVariance) {
+			const z = Math.sqrt(curvatureDrop / meanNoiseVariance);
+			if (closest.curvature === null || z < closest.curvature.value) {
+				closest.curvature = { value: z, i, j };
+			}
+			return;
+		}
+		const slopeVariance = Math.max(residualSumSquares / (m - 2), meanNoiseVariance) / suu;
+		const lowerBound = slope - this.studentT975[m - 2] * Math.sqrt(slopeVariance);
+		if (lowerBound > this.fastestLowerBound) this.fastestLowerBound = lowerBound;
+		if (slope > this.steepestByLength[m]) {
+			this.steepestByLength[m] = slope;
+			this.steepestStartByLength[m] = i;
+		}
+	}
+}
+
+/**
+ * The longest straight window at least half as steep as the fastest growth shown with confidence,
+ * then the steepest of the windows down to WINDOW_LENGTH_FRACTION of its length.
+ */
+function chooseWindow(
+	search: WindowSearch,
+	minPoints: number,
+	noiseVariance: number[]
+): Omit<ExponentialPhaseWindow, 'noiseSdLn'> {
+	const { steepestByLength, steepestStartByLength, fastestLowerBound } = search;
 	let longest = 0;
-	for (let length = n; length >= minPoints; length--) {
+	for (let length = steepestByLength.length - 1; length >= minPoints; length--) {
 		if (steepestByLength[length] >= 0.5 * fastestLowerBound) {
 			longest = length;
 			break;
@@ -161,7 +221,6 @@ export function findExponentialPhase(
 		startIndex,
 		endIndex,
 		longestStraightPointCount: longest,
-		noiseSdLn,
 		meanNoiseVariance: windowNoiseVariance / chosenLength
 	};
 }

@@ -86,106 +86,34 @@ export function fitMonodBatch(
 	curvePoints: number
 ): MonodFit | null {
 	const n = t.length;
-	const x0 = x[0];
-	const s0 = s[0];
 	const parameterCount = fitYield ? 5 : 4;
 	if (2 * n <= parameterCount) return null;
 	const y0 = yieldGuess ?? Math.max(1e-6, (x[n - 1] - x[0]) / Math.max(1e-12, s[0] - s[n - 1]));
-	// Biomass residuals are taken on ln X (biomass measurements, e.g. optical density, err roughly in
-	// proportion to the value); substrate residuals are absolute, over the largest substrate value (S
-	// is measured near zero after exhaustion, where a relative error means nothing).
-	const scaleS = Math.max(...s);
-	const observed = [...x.map(Math.log), ...s.map((v) => v / scaleS)];
-
-	// Parameters are fitted as logarithms: they stay positive, the damping treats parameters that
-	// differ by orders of magnitude alike, and the intervals of ln θ map back to positive ones.
-	const toParameters = (q: ArrayLike<number>): MonodBatchParameters => ({
-		muMaxPerH: Math.exp(q[0]),
-		ksGPerL: Math.exp(q[1]),
-		initialBiomassGPerL: Math.exp(q[2]),
-		initialSubstrateGPerL: Math.exp(q[3]),
-		yieldXS: fitYield ? Math.exp(q[4]) : y0
-	});
-	// Unweighted model values and gradients for all points; the library asks for one point at a time,
-	// so each parameter set is evaluated once.
-	let cached: { q: number[]; values: number[]; gradients: number[][] } | null = null;
-	const evaluateAll = (q: number[]) => {
-		if (cached !== null && cached.q.every((v, i) => v === q[i])) return cached;
-		const p = toParameters(q);
-		const values = new Array<number>(2 * n);
-		const gradients = new Array<number[]>(2 * n);
-		for (let i = 0; i < n; i++) {
-			const r = evaluateMonodBatchWithGradient(p, t[i] - t[0]);
-			values[i] = Math.log(r.x);
-			values[n + i] = r.s / scaleS;
-			gradients[i] = r.dX.slice(0, parameterCount).map((d) => d / r.x);
-			gradients[n + i] = r.dS.slice(0, parameterCount).map((d) => d / scaleS);
-		}
-		cached = { q: q.slice(), values, gradients };
-		return cached;
-	};
+	const problem = createMonodProblem(t, x, s, fitYield, y0);
 	const fitWeighted = (weights: [number, number], starts: number[][]) =>
-		fitWeightedFromStarts(observed, n, evaluateAll, weights, starts);
+		fitWeightedFromStarts(problem.observed, n, problem.evaluateAll, weights, starts);
 
 	// Ks is weakly determined by a batch curve; a few starting values avoid a poor local minimum.
 	const starts = [0.01, 0.1, 1].map((f) => {
-		const start = [Math.log(muGuess), Math.log(f * s0), Math.log(x0), Math.log(s0)];
+		const start = [Math.log(muGuess), Math.log(f * s[0]), Math.log(x[0]), Math.log(s[0])];
 		if (fitYield) start.push(Math.log(y0));
 		return start;
 	});
 	const first = fitWeighted([1, 1], starts);
 	if (first === null) return null;
-	const blockSd = (q: number[]): [number, number] => {
-		const { values } = evaluateAll(q);
-		let ssX = 0;
-		let ssS = 0;
-		for (let i = 0; i < n; i++) {
-			ssX += (observed[i] - values[i]) ** 2;
-			ssS += (observed[n + i] - values[n + i]) ** 2;
-		}
-		// The floor keeps noise-free data (model output) from an infinite weight.
-		return [Math.max(Math.sqrt(ssX / n), 1e-9), Math.max(Math.sqrt(ssS / n), 1e-9)];
-	};
-	const [sdX, sdS] = blockSd(first.q);
-	const weights: [number, number] = [1 / sdX, 1 / sdS];
+	const weights = weightsFromBlockSd(problem, first.q);
 	const best = fitWeighted(weights, [first.q]) ?? first;
 	const iterations = first.iterations + (best === first ? 0 : best.iterations);
 
-	const p = toParameters(best.q);
+	const p = problem.toParameters(best.q);
 	const degreesOfFreedom = 2 * n - parameterCount;
-	const { values: fitted, gradients } = evaluateAll(best.q);
-	let weightedResidualSumSquares = 0;
-	for (let i = 0; i < 2 * n; i++) {
-		weightedResidualSumSquares +=
-			((observed[i] - fitted[i]) * (i < n ? weights[0] : weights[1])) ** 2;
-	}
-	const logParameterSd = computeLogParameterStandardErrors(
-		gradients.map((g, i) => g.map((d) => d * (i < n ? weights[0] : weights[1]))),
-		weightedResidualSumSquares / degreesOfFreedom
-	);
-	const tQuantile = computeStudentTQuantile(0.975, degreesOfFreedom);
-	const estimateOf = (k: number, value: number): ParameterEstimate => {
-		const sdLn = logParameterSd?.[k] ?? NaN;
-		const lower = value * Math.exp(-tQuantile * sdLn);
-		const upper = value * Math.exp(tQuantile * sdLn);
-		// A parameter pushed to the edge of the search box is not located by the data at all.
-		const atSearchEdge = Math.abs(best.q[k] - first.q[k]) >= 20 - 1e-9;
-		const bounded = Number.isFinite(sdLn) && lower > 0 && Number.isFinite(upper) && !atSearchEdge;
-		return {
-			value,
-			standardError: bounded ? value * sdLn : null,
-			lower95: bounded ? lower : null,
-			upper95: bounded ? upper : null,
-			poorlyDetermined: !bounded || upper / lower > POORLY_DETERMINED_FACTOR
-		};
-	};
-
-	const { values } = evaluateAll(best.q);
+	const estimateOf = createEstimator(problem, weights, first.q, best.q, degreesOfFreedom);
+	const { values } = problem.evaluateAll(best.q);
 	const { biomassRmsGPerL, substrateRmsGPerL, curve } = describeFittedCurve(
 		p,
 		{ t, x, s },
 		values,
-		scaleS,
+		problem.scaleS,
 		curvePoints
 	);
 	return {
@@ -205,6 +133,118 @@ export function fitMonodBatch(
 		},
 		degreesOfFreedom,
 		curve
+	};
+}
+
+/** The model evaluated at every point (ln X then S / scaleS), with its gradients in ln θ. */
+type ModelEvaluation = { q: number[]; values: number[]; gradients: number[][] };
+
+/** The observations and the model for one batch curve, in the fit's scaled terms. */
+interface MonodProblem {
+	n: number;
+	scaleS: number;
+	/** ln X at each point, then S / scaleS */
+	observed: number[];
+	toParameters: (q: ArrayLike<number>) => MonodBatchParameters;
+	evaluateAll: (q: number[]) => ModelEvaluation;
+}
+
+function createMonodProblem(
+	t: number[],
+	x: number[],
+	s: number[],
+	fitYield: boolean,
+	y0: number
+): MonodProblem {
+	const n = t.length;
+	const parameterCount = fitYield ? 5 : 4;
+	// Biomass residuals are taken on ln X (biomass measurements, e.g. optical density, err roughly in
+	// proportion to the value); substrate residuals are absolute, over the largest substrate value (S
+	// is measured near zero after exhaustion, where a relative error means nothing).
+	const scaleS = Math.max(...s);
+	const observed = [...x.map(Math.log), ...s.map((v) => v / scaleS)];
+
+	// Parameters are fitted as logarithms: they stay positive, the damping treats parameters that
+	// differ by orders of magnitude alike, and the intervals of ln θ map back to positive ones.
+	const toParameters = (q: ArrayLike<number>): MonodBatchParameters => ({
+		muMaxPerH: Math.exp(q[0]),
+		ksGPerL: Math.exp(q[1]),
+		initialBiomassGPerL: Math.exp(q[2]),
+		initialSubstrateGPerL: Math.exp(q[3]),
+		yieldXS: fitYield ? Math.exp(q[4]) : y0
+	});
+	// Unweighted model values and gradients for all points; the library asks for one point at a time,
+	// so each parameter set is evaluated once.
+	let cached: ModelEvaluation | null = null;
+	const evaluateAll = (q: number[]) => {
+		if (cached !== null && cached.q.every((v, i) => v === q[i])) return cached;
+		const p = toParameters(q);
+		const values = new Array<number>(2 * n);
+		const gradients = new Array<number[]>(2 * n);
+		for (let i = 0; i < n; i++) {
+			const r = evaluateMonodBatchWithGradient(p, t[i] - t[0]);
+			values[i] = Math.log(r.x);
+			values[n + i] = r.s / scaleS;
+			gradients[i] = r.dX.slice(0, parameterCount).map((d) => d / r.x);
+			gradients[n + i] = r.dS.slice(0, parameterCount).map((d) => d / scaleS);
+		}
+		cached = { q: q.slice(), values, gradients };
+		return cached;
+	};
+	return { n, scaleS, observed, toParameters, evaluateAll };
+}
+
+/** Weights of the biomass and substrate blocks: one over each block's residual standard deviation at q. */
+function weightsFromBlockSd(
+	{ n, observed, evaluateAll }: MonodProblem,
+	q: number[]
+): [number, number] {
+	const { values } = evaluateAll(q);
+	let ssX = 0;
+	let ssS = 0;
+	for (let i = 0; i < n; i++) {
+		ssX += (observed[i] - values[i]) ** 2;
+		ssS += (observed[n + i] - values[n + i]) ** 2;
+	}
+	// The floor keeps noise-free data (model output) from an infinite weight.
+	const sdX = Math.max(Math.sqrt(ssX / n), 1e-9);
+	const sdS = Math.max(Math.sqrt(ssS / n), 1e-9);
+	return [1 / sdX, 1 / sdS];
+}
+
+/** Each parameter's estimate with its 95 % interval, from the weighted fit's log-parameter errors. */
+function createEstimator(
+	{ n, observed, evaluateAll }: MonodProblem,
+	weights: [number, number],
+	firstQ: number[],
+	bestQ: number[],
+	degreesOfFreedom: number
+): (k: number, value: number) => ParameterEstimate {
+	const { values: fitted, gradients } = evaluateAll(bestQ);
+	let weightedResidualSumSquares = 0;
+	for (let i = 0; i < 2 * n; i++) {
+		weightedResidualSumSquares +=
+			((observed[i] - fitted[i]) * (i < n ? weights[0] : weights[1])) ** 2;
+	}
+	const logParameterSd = computeLogParameterStandardErrors(
+		gradients.map((g, i) => g.map((d) => d * (i < n ? weights[0] : weights[1]))),
+		weightedResidualSumSquares / degreesOfFreedom
+	);
+	const tQuantile = computeStudentTQuantile(0.975, degreesOfFreedom);
+	return (k, value) => {
+		const sdLn = logParameterSd?.[k] ?? NaN;
+		const lower = value * Math.exp(-tQuantile * sdLn);
+		const upper = value * Math.exp(tQuantile * sdLn);
+		// A parameter pushed to the edge of the search box is not located by the data at all.
+		const atSearchEdge = Math.abs(bestQ[k] - firstQ[k]) >= 20 - 1e-9;
+		const bounded = Number.isFinite(sdLn) && lower > 0 && Number.isFinite(upper) && !atSearchEdge;
+		return {
+			value,
+			standardError: bounded ? value * sdLn : null,
+			lower95: bounded ? lower : null,
+			upper95: bounded ? upper : null,
+			poorlyDetermined: !bounded || upper / lower > POORLY_DETERMINED_FACTOR
+		};
 	};
 }
 

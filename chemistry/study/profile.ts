@@ -145,18 +145,32 @@ export function toSufficiencyProfile(profile: StudyProfile): {
 	carbon?: CarbonDemand;
 	substrates: SubstrateDemand[];
 } {
-	const cellDryMassPg = profile.cellDryMassPg ?? undefined;
 	const growth = requireGrowthData(profile);
 	const elements = resolveElementStatements(profile);
-	const substrates = profile.substrateYields.map((y) => ({
+	const substrates = profile.substrateYields.map(toSubstrateDemand);
+	const carbon = toCarbonDemand(profile, growth);
+	const organism = toOrganismProfile(profile, elements);
+	// A per-cell glucose uptake already includes what is respired; a yield-based line would count it twice.
+	return organism.kind === 'perCell'
+		? { profile: organism, substrates }
+		: { profile: organism, carbon, substrates };
+}
+
+function toSubstrateDemand(y: StudyProfile['substrateYields'][number]): SubstrateDemand {
+	return {
 		component: y.componentId,
 		yieldGPerG: y.yieldGPerG,
 		note: `X / Yx/s with Yx/s = ${y.yieldGPerG} g/g (${describeSubstrateYield(y).toLowerCase()})`,
 		confidence: y.method === 'entered' ? ('measured' as const) : ('derived' as const),
 		source: describeSubstrateYield(y)
-	}));
-	// A per-cell glucose uptake already includes what is respired; a yield-based line would count it twice.
-	const carbon: CarbonDemand = {
+	};
+}
+
+function toCarbonDemand(
+	profile: StudyProfile,
+	growth: ReturnType<typeof requireGrowthData>
+): CarbonDemand {
+	return {
 		basis: 'component',
 		component: growth.carbonSourceId,
 		yieldGPerG: growth.yieldXSGPerG,
@@ -167,24 +181,25 @@ export function toSufficiencyProfile(profile: StudyProfile): {
 				? 'Entered on the profile'
 				: `${YIELD_METHOD_LABELS[profile.yieldXSMethod]} (see the yields a study uses)`
 	};
+}
+
+/** The profile's demand by its kind; what that kind needs and the profile lacks is refused. */
+function toOrganismProfile(profile: StudyProfile, elements: ElementStatements): OrganismProfile {
+	const cellDryMassPg = profile.cellDryMassPg ?? undefined;
 	switch (profile.kind) {
 		case 'elementalFractions':
 			if (!profile.elementalFractions || Object.keys(profile.elementalFractions).length === 0) {
 				missing(profile, 'elemental mass fractions', 'elementalFractions');
 			}
 			return {
-				profile: {
-					kind: 'elementalFractions',
-					name: profile.name,
-					fractions: profile.elementalFractions,
-					cellDryMassPg,
-					elements,
-					...(profile.biomassFormula
-						? { formula: profile.biomassFormula, ashFraction: profile.ashFraction ?? undefined }
-						: {})
-				},
-				carbon,
-				substrates
+				kind: 'elementalFractions',
+				name: profile.name,
+				fractions: profile.elementalFractions,
+				cellDryMassPg,
+				elements,
+				...(profile.biomassFormula
+					? { formula: profile.biomassFormula, ashFraction: profile.ashFraction ?? undefined }
+					: {})
 			};
 		case 'componentRequirements':
 			if (
@@ -194,14 +209,10 @@ export function toSufficiencyProfile(profile: StudyProfile): {
 				missing(profile, 'component requirements', 'componentRequirements');
 			}
 			return {
-				profile: {
-					kind: 'componentRequirements',
-					name: profile.name,
-					requirementsGPerG: profile.componentRequirements,
-					cellDryMassPg
-				},
-				carbon,
-				substrates
+				kind: 'componentRequirements',
+				name: profile.name,
+				requirementsGPerG: profile.componentRequirements,
+				cellDryMassPg
 			};
 		case 'perCell':
 			if (!profile.perCellConsumption || profile.perCellConsumption.length === 0) {
@@ -210,14 +221,11 @@ export function toSufficiencyProfile(profile: StudyProfile): {
 			if (profile.cellDryMassPg === null)
 				missing(profile, 'cell dry mass (pg/cell)', 'cellDryMassPg');
 			return {
-				profile: {
-					kind: 'perCell',
-					name: profile.name,
-					consumption: profile.perCellConsumption,
-					cellDryMassPg,
-					elements
-				},
-				substrates
+				kind: 'perCell',
+				name: profile.name,
+				consumption: profile.perCellConsumption,
+				cellDryMassPg,
+				elements
 			};
 	}
 }

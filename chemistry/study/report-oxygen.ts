@@ -1,6 +1,11 @@
 import { AIR_O2_MOLE_FRACTION } from '../data/oxygen-solubility';
 import { DEFAULT_HEAT_PER_MOL_O2_KJ, DEFAULT_HEAT_PER_MOL_O2_SOURCE, assessCooling } from '../heat';
-import { assessOxygenTransfer, computeOxygenDemand, computeOxygenUptakeRate } from '../oxygen';
+import {
+	assessOxygenTransfer,
+	computeOxygenDemand,
+	computeOxygenUptakeRate,
+	type OxygenTransferResult
+} from '../oxygen';
 import { findPeakOxygenLoad, roundUpToSignificant } from '../oxygen-load';
 import { asStudyDataError } from './errors';
 import { hours, type OperatingPoint, type ReportLog, type StudyRun } from './report-context';
@@ -111,7 +116,6 @@ export function assessOxygen(
 	// Rounded up, so that the figure typed back in as a what-if meets the demand.
 	const kLaRecommendedPerH = roundUpToSignificant(transfer.kLaNeededPerH);
 	const o2MoleFractionRecommended = roundUpToSignificant(transfer.o2MoleFractionNeeded);
-	const enriched = o2MoleFraction > AIR_O2_MOLE_FRACTION + AIR_FRACTION_TOLERANCE;
 	const biomassFormedG =
 		target.biomassGPerL * finalVolumeL - run.initialBiomassGPerL * plan.initialVolumeL;
 	const oxygenDemand = computeOxygenDemand({
@@ -119,43 +123,17 @@ export function assessOxygen(
 		biomassProducedGPerL: Math.max(0, biomassFormedG / finalVolumeL),
 		workingVolumeL: finalVolumeL
 	});
-	let oxygenOk = transfer.verdict === 'sufficient' && !load.lowerBound;
-	if (transfer.verdict !== 'sufficient') {
-		const remedy = !transfer.enrichmentFeasible
-			? ' (even pure O2 would not close the gap at this kLa)'
-			: vessel.o2EnrichmentAllowed
-				? `, or an O2 fraction of ${o2MoleFractionRecommended}`
-				: ' (this vessel does not allow O2 enrichment)';
-		log.reasons.push(
-			`Peak OUR ${load.peakOurMmolPerLH.toFixed(0)} mmol/(L·h) exceeds the maximum OTR ${transfer.maxOtr.mmolPerLH.toFixed(0)} mmol/(L·h) at the DO setpoint: the plan needs kLa ${kLaRecommendedPerH} 1/h${remedy}.`
-		);
-	}
-	for (const f of point.feeds) {
-		if (f.plan.strategy === 'doStat' && f.plan.doSetpointPercent! < plan.doSetpointPercent) {
-			oxygenOk = false;
-			log.reasons.push(
-				`${f.label} feeds on DO-stat down to ${f.plan.doSetpointPercent} % of air saturation, below the study's DO setpoint of ${plan.doSetpointPercent} %: the controller would hold DO there whatever the kLa. Raise the feed's DO setpoint to at least ${plan.doSetpointPercent} %.`
-			);
-		}
-	}
-	if (enriched && !vessel.o2EnrichmentAllowed) {
-		oxygenOk = false;
-		log.reasons.push(
-			`The plan sparges ${(o2MoleFraction * 100).toFixed(0)} % O2, but the vessel “${vessel.name}” does not allow O2 enrichment.`
-		);
-	}
-	if (
-		o2MoleFraction === plan.o2MoleFraction &&
-		Math.abs(o2MoleFraction - AIR_O2_MOLE_FRACTION) < AIR_FRACTION_TOLERANCE
-	) {
-		log.defaults.push({
-			what: 'Inlet gas',
-			value: `air, O2 mole fraction ${AIR_O2_MOLE_FRACTION}`,
-			source: 'Dry air'
-		});
-	}
+	const transferOk = reportTransferShortfall(
+		inputs,
+		transfer,
+		load,
+		kLaRecommendedPerH,
+		o2MoleFractionRecommended,
+		log
+	);
+	const operationOk = reportOxygenOperation(inputs, point, log);
 	return {
-		check: oxygenOk ? 'ok' : 'short',
+		check: transferOk && operationOk ? 'ok' : 'short',
 		totalO2G: oxygenDemand.totalG,
 		totalO2Mol: oxygenDemand.totalMol,
 		yieldXO2GPerG: run.yieldXO2GPerG,
@@ -175,6 +153,69 @@ export function assessOxygen(
 		enrichmentAllowed: vessel.o2EnrichmentAllowed,
 		reserveS: transfer.reserveS
 	};
+}
+
+/**
+ * Says what the vessel needs when its transfer falls short of the peak demand; true when the
+ * transfer suffices for a demand followed to the end (not a lower bound).
+ */
+function reportTransferShortfall(
+	{ vessel }: StudyInputs,
+	transfer: OxygenTransferResult,
+	load: OxygenLoad,
+	kLaRecommendedPerH: number,
+	o2MoleFractionRecommended: number,
+	log: ReportLog
+): boolean {
+	if (transfer.verdict === 'sufficient') return !load.lowerBound;
+	const remedy = !transfer.enrichmentFeasible
+		? ' (even pure O2 would not close the gap at this kLa)'
+		: vessel.o2EnrichmentAllowed
+			? `, or an O2 fraction of ${o2MoleFractionRecommended}`
+			: ' (this vessel does not allow O2 enrichment)';
+	log.reasons.push(
+		`Peak OUR ${load.peakOurMmolPerLH.toFixed(0)} mmol/(L·h) exceeds the maximum OTR ${transfer.maxOtr.mmolPerLH.toFixed(0)} mmol/(L·h) at the DO setpoint: the plan needs kLa ${kLaRecommendedPerH} 1/h${remedy}.`
+	);
+	return false;
+}
+
+/**
+ * Checks what the plan asks of O2 besides transfer (DO-stat feeds below the setpoint, enrichment the
+ * vessel does not allow) and notes air as the default inlet gas; false when something is refused.
+ */
+function reportOxygenOperation(
+	{ plan, vessel }: StudyInputs,
+	point: OperatingPoint,
+	log: ReportLog
+): boolean {
+	const { o2MoleFraction } = point;
+	let ok = true;
+	for (const f of point.feeds) {
+		if (f.plan.strategy === 'doStat' && f.plan.doSetpointPercent! < plan.doSetpointPercent) {
+			ok = false;
+			log.reasons.push(
+				`${f.label} feeds on DO-stat down to ${f.plan.doSetpointPercent} % of air saturation, below the study's DO setpoint of ${plan.doSetpointPercent} %: the controller would hold DO there whatever the kLa. Raise the feed's DO setpoint to at least ${plan.doSetpointPercent} %.`
+			);
+		}
+	}
+	const enriched = o2MoleFraction > AIR_O2_MOLE_FRACTION + AIR_FRACTION_TOLERANCE;
+	if (enriched && !vessel.o2EnrichmentAllowed) {
+		ok = false;
+		log.reasons.push(
+			`The plan sparges ${(o2MoleFraction * 100).toFixed(0)} % O2, but the vessel “${vessel.name}” does not allow O2 enrichment.`
+		);
+	}
+	if (
+		o2MoleFraction === plan.o2MoleFraction &&
+		Math.abs(o2MoleFraction - AIR_O2_MOLE_FRACTION) < AIR_FRACTION_TOLERANCE
+	) {
+		log.defaults.push({
+			what: 'Inlet gas',
+			value: `air, O2 mole fraction ${AIR_O2_MOLE_FRACTION}`,
+			source: 'Dry air'
+		});
+	}
+	return ok;
 }
 
 /** Heat: metabolic heat at the peak of the whole culture's uptake, OUR·V, plus the agitator, against the cooling. */
