@@ -2,14 +2,11 @@ import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { checkBatchInput, createBatch } from '$lib/server/batches/create';
-import {
-	chooseLot,
-	completeBatch,
-	lotFromScan,
-	recordLine,
-	recordMeasurements,
-	requireBatch
-} from '$lib/server/batches/execution';
+import { completeBatch } from '$lib/server/batches/completion';
+import { requireBatch } from '$lib/server/batches/execution';
+import { recordLine } from '$lib/server/batches/line-record';
+import { chooseLot, lotFromScan } from '$lib/server/batches/lot-choice';
+import { recordMeasurements } from '$lib/server/batches/measurements';
 import {
 	formatBatchNumber,
 	patternProblem,

@@ -4,7 +4,7 @@ import { db } from '$lib/server/db';
 import { component } from '$lib/server/db/schema';
 import { addDays } from '$lib/server/inventory/alerts';
 import { lastDigestDate, sendDigestIfDue, sendInventoryDigest } from '$lib/server/inventory/digest';
-import { setStockSettings } from '$lib/server/inventory/lots';
+import { setStockSettings } from '$lib/server/inventory/stock-settings';
 import { eq } from 'drizzle-orm';
 import { makeUser } from './helpers';
 import { makeLead, makeLot, today } from './inventory-fixtures';

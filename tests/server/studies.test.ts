@@ -21,7 +21,8 @@ import {
 	listStudies,
 	loadStudyInputs
 } from '$lib/server/studies/queries';
-import { createStudy, type StudyForm } from '$lib/server/studies/study-store';
+import type { StudyForm } from '$lib/server/studies/study-form';
+import { createStudy } from '$lib/server/studies/study-store';
 
 const YEAST_STUDY = 'Yeast glycerol fed-batch, bench (demo)';
 const BACTERIUM_STUDY = 'Bacterium glucose fed-batch, pilot (demo)';

@@ -7,7 +7,8 @@ import { seedDemo } from '$lib/server/demo/seed';
 import { RuleError } from '$lib/server/rule-error';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
-import { createStudy, studyFormValues, type StudyForm } from '$lib/server/studies/study-store';
+import type { StudyForm } from '$lib/server/studies/study-form';
+import { createStudy, studyFormValues } from '$lib/server/studies/study-store';
 import type { StudyInputs } from '$lib/server/studies/types';
 
 const TWO_FEEDS = 'Yeast DO-stat with nitrogen top-up, bench (demo)';

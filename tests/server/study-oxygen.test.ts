@@ -6,7 +6,8 @@ import { seedDemo } from '$lib/server/demo/seed';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
 import { parseForm } from '$lib/server/forms';
-import { createStudy, studyFormValues, studySchema } from '$lib/server/studies/study-store';
+import { studySchema } from '$lib/server/studies/study-form';
+import { createStudy, studyFormValues } from '$lib/server/studies/study-store';
 import type { StudyInputs, StudyReport, WhatIf } from '$lib/server/studies/types';
 
 const BACTERIUM_STUDY = 'Bacterium glucose fed-batch, pilot (demo)';

@@ -63,57 +63,66 @@ export function allOperations(): ApiOperation[] {
 	];
 }
 
+/** The problems an operation can answer: by its kind, its path and what it names itself. */
+function errorStatusesOf(op: ApiOperation, access: ReturnType<typeof accessFor>): number[] {
+	return [
+		...new Set([
+			...(op.request ? [400] : []),
+			...(access === 'public' ? [] : [401]),
+			...(Array.isArray(access) ? [403] : []),
+			...(op.path.includes('{') ? [404] : []),
+			...(op.errors ?? [])
+		])
+	].sort();
+}
+
+/** One operation of the document: access, path parameters, request body and responses. */
+function describeOperation(op: ApiOperation): Record<string, unknown> {
+	const access = accessFor(op.act);
+	const problems = (statuses: number[]) =>
+		Object.fromEntries(
+			statuses.map((s) => [String(s), { $ref: `#/components/responses/Problem${s}` }])
+		);
+	return {
+		summary: op.summary,
+		'x-access': access,
+		'x-act': op.act,
+		security: access === 'public' ? [] : [{ sessionCookie: [] }],
+		...(op.path.includes('{')
+			? {
+					parameters: [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({
+						name: m[1],
+						in: 'path',
+						required: true,
+						schema: { type: 'string' }
+					}))
+				}
+			: {}),
+		...(op.request
+			? {
+					requestBody: {
+						required: true,
+						content: { 'application/json': { schema: toSchema(op.request, 'input') } }
+					}
+				}
+			: {}),
+		responses: {
+			[String(op.successStatus ?? 200)]: {
+				description: op.responseDescription ?? 'Success',
+				...(op.response
+					? { content: { 'application/json': { schema: toSchema(op.response, 'output') } } }
+					: {})
+			},
+			...problems(errorStatusesOf(op, access))
+		}
+	};
+}
+
 export function buildOpenApiDocument(origin: string) {
 	const paths: Record<string, Record<string, unknown>> = {};
 	for (const op of allOperations()) {
-		const access = accessFor(op.act);
-		const problems = (statuses: number[]) =>
-			Object.fromEntries(
-				statuses.map((s) => [String(s), { $ref: `#/components/responses/Problem${s}` }])
-			);
-		const errorStatuses = [
-			...new Set([
-				...(op.request ? [400] : []),
-				...(access === 'public' ? [] : [401]),
-				...(Array.isArray(access) ? [403] : []),
-				...(op.path.includes('{') ? [404] : []),
-				...(op.errors ?? [])
-			])
-		].sort();
 		paths[op.path] ??= {};
-		paths[op.path][op.method] = {
-			summary: op.summary,
-			'x-access': access,
-			'x-act': op.act,
-			security: access === 'public' ? [] : [{ sessionCookie: [] }],
-			...(op.path.includes('{')
-				? {
-						parameters: [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({
-							name: m[1],
-							in: 'path',
-							required: true,
-							schema: { type: 'string' }
-						}))
-					}
-				: {}),
-			...(op.request
-				? {
-						requestBody: {
-							required: true,
-							content: { 'application/json': { schema: toSchema(op.request, 'input') } }
-						}
-					}
-				: {}),
-			responses: {
-				[String(op.successStatus ?? 200)]: {
-					description: op.responseDescription ?? 'Success',
-					...(op.response
-						? { content: { 'application/json': { schema: toSchema(op.response, 'output') } } }
-						: {})
-				},
-				...problems(errorStatuses)
-			}
-		};
+		paths[op.path][op.method] = describeOperation(op);
 	}
 	const problemResponse = (description: string) => ({
 		description,

@@ -7,7 +7,8 @@ import { db } from '../db';
 import { batch, batchLine, type Batch } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { signRecord } from '../signatures';
-import { batchDigest, requireBatch } from './execution';
+import { batchDigest } from './completion';
+import { requireBatch } from './execution';
 
 /** Why this person may not review the batch, or null when they may. */
 export function reviewRefusal(

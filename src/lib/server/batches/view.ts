@@ -9,7 +9,8 @@ import { analyseVersion } from '../recipes/analysis';
 import { findRecipe, findVersionById, personName } from '../recipes/queries';
 import { RuleError } from '../rule-error';
 import { signaturesFor } from '../signatures';
-import { completionProblem, requireBatch } from './execution';
+import { completionProblem } from './completion';
+import { requireBatch } from './execution';
 import { buildSheetLines, phRange } from './sheet';
 
 export function batchRecordUrl(batchId: string): string {

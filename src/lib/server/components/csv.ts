@@ -3,13 +3,8 @@ import { db } from '../db';
 import { component } from '../db/schema';
 import { parseCsv, toCsv, type CsvRowResult } from '../csv';
 import { RuleError } from '../rule-error';
-import {
-	checkComponentText,
-	componentText,
-	listComponents,
-	type ComponentText,
-	type NewComponent
-} from './library';
+import { checkComponentText, componentText, type ComponentText } from './component-form';
+import { listComponents, type NewComponent } from './library';
 
 /** CSV column → the component field it fills. */
 const COLUMN_FIELDS: Record<string, keyof ComponentText> = {

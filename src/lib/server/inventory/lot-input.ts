@@ -4,7 +4,7 @@ import { DATE_KINDS, isoToday, type DateKind, type QuantityKind } from '$lib/inv
 import { MAX_ASSAY_PERCENT } from '$chemistry';
 import { findComponentByIdOrName } from '../components/library';
 import { db, type Db } from '../db';
-import { lot } from '../db/schema';
+import { lot, type Component } from '../db/schema';
 import type { FieldErrors } from '../forms';
 import { RuleError } from '../rule-error';
 import { toBaseQuantity } from './units';
@@ -119,26 +119,16 @@ export function findDuplicateLot(
 		.get();
 }
 
-/** Checks every field and reports each problem against its field; nothing is written here. */
-export function checkLotInput(
+/** The quantity received, in the lot's base unit (mg or µL) when the component is known. */
+function checkLotQuantity(
 	input: LotText,
-	reader: Reader = db,
-	today = isoToday()
-): { ok: true; value: CheckedLot } | { ok: false; fieldErrors: FieldErrors } {
-	const errors: FieldErrors = {};
-	const componentText = text(input.component);
-	const component = componentText ? findComponentByIdOrName(componentText, reader) : undefined;
-	if (!componentText) errors.component = ['Choose the component this lot is of.'];
-	else if (!component) errors.component = [`No component “${componentText}” in the library.`];
-
-	const supplier = text(input.supplier);
-	if (!supplier) errors.supplier = ['Enter the supplier.'];
-	else if (supplier.length > 120) errors.supplier = ['At most 120 characters.'];
-	const supplierLot = text(input.supplierLot);
-	if (!supplierLot)
-		errors.supplierLot = ['Enter the supplier’s lot number from the label or certificate.'];
-	else if (supplierLot.length > 80) errors.supplierLot = ['At most 80 characters.'];
-
+	component: Component | undefined,
+	errors: FieldErrors
+): {
+	quantityText: string;
+	unit: string;
+	quantity: { kind: QuantityKind; quantity: number } | null;
+} {
 	const quantityText = text(input.quantity);
 	const quantityRead = readDecimalText(quantityText, 'Quantity');
 	let quantity: { kind: QuantityKind; quantity: number } | null = null;
@@ -156,7 +146,15 @@ export function checkLotInput(
 			errors[cause.field ?? 'quantity'] = [cause.message];
 		}
 	}
+	return { quantityText, unit, quantity };
+}
 
+/** Received (not in the future), expiry or retest (after receipt), and which of the two it is. */
+function checkLotDates(
+	input: LotText,
+	today: string,
+	errors: FieldErrors
+): { receivedOn: string | null; expiresOn: string | null; dateKindText: string } {
 	const receivedOn = checkDate(text(input.receivedOn), 'receivedOn', 'date received', errors);
 	if (receivedOn && receivedOn > today)
 		errors.receivedOn = [`${receivedOn} is in the future; a lot is recorded when it arrives.`];
@@ -169,7 +167,11 @@ export function checkLotInput(
 	const dateKindText = text(input.dateKind) || 'expiry';
 	if (!(DATE_KINDS as readonly string[]).includes(dateKindText))
 		errors.dateKind = ['Choose expiry or retest.'];
+	return { receivedOn, expiresOn, dateKindText };
+}
 
+/** Assay and purity (required) and water content (optional) from the certificate. */
+function checkLotPercents(input: LotText, errors: FieldErrors) {
 	const assayPercent = checkPercent(
 		text(input.assayPercent),
 		'assayPercent',
@@ -200,6 +202,33 @@ export function checkLotInput(
 		true,
 		errors
 	);
+
+	return { assayPercent, purityPercent, waterContentPercent };
+}
+
+/** Checks every field and reports each problem against its field; nothing is written here. */
+export function checkLotInput(
+	input: LotText,
+	reader: Reader = db,
+	today = isoToday()
+): { ok: true; value: CheckedLot } | { ok: false; fieldErrors: FieldErrors } {
+	const errors: FieldErrors = {};
+	const componentText = text(input.component);
+	const component = componentText ? findComponentByIdOrName(componentText, reader) : undefined;
+	if (!componentText) errors.component = ['Choose the component this lot is of.'];
+	else if (!component) errors.component = [`No component “${componentText}” in the library.`];
+
+	const supplier = text(input.supplier);
+	if (!supplier) errors.supplier = ['Enter the supplier.'];
+	else if (supplier.length > 120) errors.supplier = ['At most 120 characters.'];
+	const supplierLot = text(input.supplierLot);
+	if (!supplierLot)
+		errors.supplierLot = ['Enter the supplier’s lot number from the label or certificate.'];
+	else if (supplierLot.length > 80) errors.supplierLot = ['At most 80 characters.'];
+
+	const { quantityText, unit, quantity } = checkLotQuantity(input, component, errors);
+	const { receivedOn, expiresOn, dateKindText } = checkLotDates(input, today, errors);
+	const { assayPercent, purityPercent, waterContentPercent } = checkLotPercents(input, errors);
 
 	const storage = text(input.storage) || component?.storage || '';
 	if (storage.length > 200) errors.storage = ['At most 200 characters.'];

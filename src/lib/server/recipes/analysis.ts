@@ -193,17 +193,8 @@ function verdictOf(estimate: number, min: number | null, max: number | null): Os
 	return 'within';
 }
 
-/**
- * The composition of a recipe: its component lines, plus the components of its stocks scaled by
- * dose/1000, merged per component, then put through the chemistry library.
- */
-export function analyseLines(
-	lines: AnalysisLine[],
-	options: AnalysisOptions,
-	reader: Reader = db
-): RecipeAnalysis {
-	const expander = new Expander(reader);
-	expander.preload(lines.flatMap((l) => [l.componentId, l.shelfFormId]));
+/** Each line's components (a stock's scaled by its dose in mL/L), merged per component. */
+function mergeLines(lines: AnalysisLine[], expander: Expander, trail: string[]): Contribution[] {
 	const merged = new Map<string, Contribution>();
 	const add = (part: { component: Component; gPerL: number }, index: number) => {
 		const entry = merged.get(part.component.id);
@@ -212,7 +203,6 @@ export function analyseLines(
 			entry.lines.add(index);
 		} else merged.set(part.component.id, { ...part, lines: new Set([index]) });
 	};
-	const trail = options.recipeId ? [options.recipeId] : [];
 	try {
 		lines.forEach((line, index) => {
 			const field = `lines.${index}`;
@@ -233,17 +223,19 @@ export function analyseLines(
 			throw new RuleError(cause.message, { field: cause.field });
 		throw cause;
 	}
+	return [...merged.values()];
+}
 
-	const entries = [...merged.values()];
-	let result: CompositionResult;
+/** The chemistry library's composition of the merged entries; its errors point at a recipe line. */
+function composeEntries(entries: Contribution[], temperatureC: number): CompositionResult {
 	try {
-		result = computeComposition({
+		return computeComposition({
 			lines: entries.map((e) => ({
 				component: componentSpecOf(e.component),
 				amount: e.gPerL,
 				unit: 'g/L'
 			})),
-			temperatureC: options.temperatureC
+			temperatureC
 		});
 	} catch (cause) {
 		if (!(cause instanceof ChemistryInputError)) throw cause;
@@ -254,9 +246,10 @@ export function analyseLines(
 			field: line === null ? cause.field : `lines.${line}.componentId`
 		});
 	}
-	const linesOfEntries = (indexes: number[]) =>
-		[...new Set(indexes.flatMap((i) => [...entries[i].lines]))].sort((a, b) => a - b);
+}
 
+/** Each GHS hazard of the recipe once, with the components that carry it. */
+function hazardsOf(entries: Contribution[]): Map<string, GhsHazard & { components: string[] }> {
 	const hazards = new Map<string, GhsHazard & { components: string[] }>();
 	for (const { component } of entries) {
 		for (const h of component.ghsHazards) {
@@ -265,6 +258,25 @@ export function analyseLines(
 			hazards.set(h.code, entry);
 		}
 	}
+	return hazards;
+}
+
+/**
+ * The composition of a recipe: its component lines, plus the components of its stocks scaled by
+ * dose/1000, merged per component, then put through the chemistry library.
+ */
+export function analyseLines(
+	lines: AnalysisLine[],
+	options: AnalysisOptions,
+	reader: Reader = db
+): RecipeAnalysis {
+	const expander = new Expander(reader);
+	expander.preload(lines.flatMap((l) => [l.componentId, l.shelfFormId]));
+	const entries = mergeLines(lines, expander, options.recipeId ? [options.recipeId] : []);
+	const result = composeEntries(entries, options.temperatureC);
+	const linesOfEntries = (indexes: number[]) =>
+		[...new Set(indexes.flatMap((i) => [...entries[i].lines]))].sort((a, b) => a - b);
+	const hazards = hazardsOf(entries);
 	const excluded = new Set(result.osmolality.excludedComponentIds);
 	return {
 		components: result.components.map((c) => ({

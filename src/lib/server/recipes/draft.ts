@@ -10,7 +10,7 @@ import {
 	type LineKind
 } from '$lib/recipes';
 import { db, type Db } from '../db';
-import { recipe } from '../db/schema';
+import { recipe, type Component } from '../db/schema';
 import type { FieldErrors } from '../forms';
 import { findComponentsByIds, molarMassOfComponent } from '../components/library';
 
@@ -181,6 +181,114 @@ export function checkFields(input: DraftFieldsInput, errors: FieldErrors): Check
 	};
 }
 
+/** Records a problem of one line's field; returns null so a check can end an expression. */
+type LineProblem = (field: string, message: string) => null;
+
+/** Kind, amount, tolerance and note: what every line has. */
+function checkLineBasics(
+	line: DraftLineInput,
+	i: number,
+	at: LineProblem
+): { amount: number | null; tolerance: number } {
+	if (!(LINE_KINDS as readonly string[]).includes(line.kind))
+		at('kind', `Line ${i + 1}: the kind is “component” or “stock”.`);
+	const amount = parseNumber(line.amount);
+	if (!line.amount.trim()) at('amount', `Line ${i + 1}: give an amount.`);
+	else if (amount === null) at('amount', `Line ${i + 1}: “${line.amount}” is not a number.`);
+	else if (amount <= 0)
+		at('amount', `Line ${i + 1}: the amount must be greater than zero, not ${amount}.`);
+	let tolerance = DEFAULT_TOLERANCE_PERCENT;
+	if (line.tolerancePercent.trim()) {
+		const t = parseNumber(line.tolerancePercent);
+		if (t === null || t <= 0 || t > 50)
+			at(
+				'tolerancePercent',
+				`Line ${i + 1}: the weighing tolerance is a percentage above 0 and up to 50.`
+			);
+		else tolerance = t;
+	}
+	if (line.note.length > 500) at('note', `Line ${i + 1}: keep the note to 500 characters.`);
+	return { amount, tolerance };
+}
+
+/** A stock line: an existing stock solution, not the recipe itself, once per recipe, dosed in mL/L. */
+function checkStockLine(
+	line: DraftLineInput,
+	i: number,
+	amount: number | null,
+	at: LineProblem,
+	context: { recipeId: string | null; firstStockLine: Map<string, number>; reader: Reader }
+): void {
+	const { recipeId, firstStockLine, reader } = context;
+	const unit = line.unit.trim();
+	if (!line.stockRecipeId) at('stockRecipeId', `Line ${i + 1}: choose the stock solution to add.`);
+	else {
+		const stock = reader.select().from(recipe).where(eq(recipe.id, line.stockRecipeId)).get();
+		if (!stock) at('stockRecipeId', `Line ${i + 1}: no recipe with id “${line.stockRecipeId}”.`);
+		else if (stock.kind !== 'stock_solution')
+			at('stockRecipeId', `Line ${i + 1}: ${stock.name} is not a stock solution.`);
+		else if (stock.id === recipeId)
+			at('stockRecipeId', `Line ${i + 1}: a recipe cannot contain itself.`);
+		else if (firstStockLine.has(stock.id)) {
+			at(
+				'stockRecipeId',
+				`Line ${i + 1}: ${stock.name} is already on line ${firstStockLine.get(stock.id)! + 1}; combine the two lines.`
+			);
+		} else firstStockLine.set(stock.id, i);
+	}
+	if (unit !== STOCK_DOSE_UNIT)
+		at(
+			'unit',
+			`Line ${i + 1}: a stock is dosed in ${STOCK_DOSE_UNIT} (millilitres of stock per litre of medium), not “${unit}”.`
+		);
+	else if (amount !== null && amount > 1000)
+		at('amount', `Line ${i + 1}: at most 1000 mL of stock fit in a litre of medium.`);
+}
+
+/**
+ * A component line: a library component, once per recipe, in a known concentration unit (molar only
+ * with a molar mass), weighed as itself or one of its forms. Returns the unit in its usual spelling.
+ */
+function checkComponentLine(
+	line: DraftLineInput,
+	i: number,
+	at: LineProblem,
+	context: { components: Map<string, Component>; firstComponentLine: Map<string, number> }
+): string {
+	const { components, firstComponentLine } = context;
+	let unit = line.unit.trim();
+	const component = line.componentId ? components.get(line.componentId) : undefined;
+	if (!line.componentId) at('componentId', `Line ${i + 1}: choose a component.`);
+	else if (!component)
+		at('componentId', `Line ${i + 1}: no component “${line.componentId}” in the library.`);
+	else if (firstComponentLine.has(component.id)) {
+		at(
+			'componentId',
+			`Line ${i + 1}: ${component.name} is already on line ${firstComponentLine.get(component.id)! + 1}; combine the two lines.`
+		);
+	} else firstComponentLine.set(component.id, i);
+	try {
+		unit = normalizeConcentrationUnit(unit, 'unit');
+		if (component && isMolarUnit(unit as never) && molarMassOfComponent(component) === null) {
+			at(
+				'unit',
+				`Line ${i + 1}: ${component.name} has no formula or molar mass, so give it in a mass unit such as g/L.`
+			);
+		}
+	} catch (cause) {
+		if (!(cause instanceof ChemistryInputError)) throw cause;
+		at('unit', `Line ${i + 1}: ${cause.message}.`);
+	}
+	if (line.shelfFormId && component) {
+		const shelf = components.get(line.shelfFormId);
+		if (!shelf) at('shelfFormId', `Line ${i + 1}: no component “${line.shelfFormId}” to weigh.`);
+		else if (shelf.id !== component.id && shelf.basisComponentId !== component.id) {
+			at('shelfFormId', `Line ${i + 1}: ${shelf.name} is not a form of ${component.name}.`);
+		}
+	}
+	return unit;
+}
+
 /**
  * Checks every line and reports each problem at `lines.<i>.<field>`, all at once, so the editor can
  * show them beside the lines. `recipeId` is the recipe being edited (it cannot dose itself).
@@ -204,88 +312,16 @@ export function checkLines(
 	const checked: CheckedLine[] = [];
 
 	lines.forEach((line, i) => {
-		const at = (field: string, message: string) => (
+		const at: LineProblem = (field, message) => (
 			(errors[`lines.${i}.${field}`] ??= []).push(message),
 			null
 		);
 		const before = Object.keys(errors).length;
-		if (!(LINE_KINDS as readonly string[]).includes(line.kind))
-			at('kind', `Line ${i + 1}: the kind is “component” or “stock”.`);
-		const amount = parseNumber(line.amount);
-		if (!line.amount.trim()) at('amount', `Line ${i + 1}: give an amount.`);
-		else if (amount === null) at('amount', `Line ${i + 1}: “${line.amount}” is not a number.`);
-		else if (amount <= 0)
-			at('amount', `Line ${i + 1}: the amount must be greater than zero, not ${amount}.`);
-		let tolerance = DEFAULT_TOLERANCE_PERCENT;
-		if (line.tolerancePercent.trim()) {
-			const t = parseNumber(line.tolerancePercent);
-			if (t === null || t <= 0 || t > 50)
-				at(
-					'tolerancePercent',
-					`Line ${i + 1}: the weighing tolerance is a percentage above 0 and up to 50.`
-				);
-			else tolerance = t;
-		}
-		if (line.note.length > 500) at('note', `Line ${i + 1}: keep the note to 500 characters.`);
-
+		const { amount, tolerance } = checkLineBasics(line, i, at);
 		let unit = line.unit.trim();
-		if (line.kind === 'stock') {
-			if (!line.stockRecipeId)
-				at('stockRecipeId', `Line ${i + 1}: choose the stock solution to add.`);
-			else {
-				const stock = reader.select().from(recipe).where(eq(recipe.id, line.stockRecipeId)).get();
-				if (!stock)
-					at('stockRecipeId', `Line ${i + 1}: no recipe with id “${line.stockRecipeId}”.`);
-				else if (stock.kind !== 'stock_solution')
-					at('stockRecipeId', `Line ${i + 1}: ${stock.name} is not a stock solution.`);
-				else if (stock.id === recipeId)
-					at('stockRecipeId', `Line ${i + 1}: a recipe cannot contain itself.`);
-				else if (firstStockLine.has(stock.id)) {
-					at(
-						'stockRecipeId',
-						`Line ${i + 1}: ${stock.name} is already on line ${firstStockLine.get(stock.id)! + 1}; combine the two lines.`
-					);
-				} else firstStockLine.set(stock.id, i);
-			}
-			if (unit !== STOCK_DOSE_UNIT)
-				at(
-					'unit',
-					`Line ${i + 1}: a stock is dosed in ${STOCK_DOSE_UNIT} (millilitres of stock per litre of medium), not “${unit}”.`
-				);
-			else if (amount !== null && amount > 1000)
-				at('amount', `Line ${i + 1}: at most 1000 mL of stock fit in a litre of medium.`);
-		} else {
-			const component = line.componentId ? components.get(line.componentId) : undefined;
-			if (!line.componentId) at('componentId', `Line ${i + 1}: choose a component.`);
-			else if (!component)
-				at('componentId', `Line ${i + 1}: no component “${line.componentId}” in the library.`);
-			else if (firstComponentLine.has(component.id)) {
-				at(
-					'componentId',
-					`Line ${i + 1}: ${component.name} is already on line ${firstComponentLine.get(component.id)! + 1}; combine the two lines.`
-				);
-			} else firstComponentLine.set(component.id, i);
-			try {
-				unit = normalizeConcentrationUnit(unit, 'unit');
-				if (component && isMolarUnit(unit as never) && molarMassOfComponent(component) === null) {
-					at(
-						'unit',
-						`Line ${i + 1}: ${component.name} has no formula or molar mass, so give it in a mass unit such as g/L.`
-					);
-				}
-			} catch (cause) {
-				if (!(cause instanceof ChemistryInputError)) throw cause;
-				at('unit', `Line ${i + 1}: ${cause.message}.`);
-			}
-			if (line.shelfFormId && component) {
-				const shelf = components.get(line.shelfFormId);
-				if (!shelf)
-					at('shelfFormId', `Line ${i + 1}: no component “${line.shelfFormId}” to weigh.`);
-				else if (shelf.id !== component.id && shelf.basisComponentId !== component.id) {
-					at('shelfFormId', `Line ${i + 1}: ${shelf.name} is not a form of ${component.name}.`);
-				}
-			}
-		}
+		if (line.kind === 'stock')
+			checkStockLine(line, i, amount, at, { recipeId, firstStockLine, reader });
+		else unit = checkComponentLine(line, i, at, { components, firstComponentLine });
 		if (Object.keys(errors).length > before || amount === null) return;
 		const isStock = line.kind === 'stock';
 		checked.push({

@@ -3,7 +3,7 @@ import { may } from '$lib/permissions';
 import type { Role } from '$lib/roles';
 import { SIGNATURE_MEANINGS, type SignatureMeaning } from '$lib/recipes';
 import { auditEventsFor, recordAudit, type Actor } from '../audit';
-import { db } from '../db';
+import { db, type Db } from '../db';
 import { recipeLine, recipeVersion, type RecipeVersion } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { digestOf, signRecord } from '../signatures';
@@ -157,6 +157,43 @@ export interface SignInput {
 	comment: string;
 }
 
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** Approval: the version is released and the one it replaces retired, both audited. */
+function releaseVersion(tx: Tx, actor: Actor, version: RecipeVersion, digest: string): void {
+	const previous = currentApprovedVersion(version.recipeId, tx);
+	if (previous) {
+		tx.update(recipeVersion)
+			.set({ status: 'retired', retiredAt: new Date() })
+			.where(eq(recipeVersion.id, previous.id))
+			.run();
+		recordAudit(
+			actor,
+			{
+				action: 'recipe.retired',
+				subjectType: 'recipe_version',
+				subjectId: previous.id,
+				detail: { n: previous.n, reason: `superseded by version ${version.n}` }
+			},
+			tx
+		);
+	}
+	tx.update(recipeVersion)
+		.set({ status: 'approved', approvedAt: new Date(), approvedById: actor.id })
+		.where(eq(recipeVersion.id, version.id))
+		.run();
+	recordAudit(
+		actor,
+		{
+			action: 'recipe.approved',
+			subjectType: 'recipe_version',
+			subjectId: version.id,
+			detail: { n: version.n, digest }
+		},
+		tx
+	);
+}
+
 /**
  * An electronic signature on a version in review. "reviewed" records the review and leaves it in
  * review; "approved" releases it, retiring the version it replaces, in the same transaction.
@@ -210,37 +247,7 @@ export async function signVersion(
 				);
 				return;
 			}
-			const previous = currentApprovedVersion(version.recipeId, tx);
-			if (previous) {
-				tx.update(recipeVersion)
-					.set({ status: 'retired', retiredAt: new Date() })
-					.where(eq(recipeVersion.id, previous.id))
-					.run();
-				recordAudit(
-					actor,
-					{
-						action: 'recipe.retired',
-						subjectType: 'recipe_version',
-						subjectId: previous.id,
-						detail: { n: previous.n, reason: `superseded by version ${version.n}` }
-					},
-					tx
-				);
-			}
-			tx.update(recipeVersion)
-				.set({ status: 'approved', approvedAt: new Date(), approvedById: signer.id })
-				.where(eq(recipeVersion.id, versionId))
-				.run();
-			recordAudit(
-				actor,
-				{
-					action: 'recipe.approved',
-					subjectType: 'recipe_version',
-					subjectId: versionId,
-					detail: { n: version.n, digest }
-				},
-				tx
-			);
+			releaseVersion(tx, actor, version, digest);
 		}
 	);
 }

@@ -15,7 +15,7 @@ import {
 	MailUnreachableError,
 	sendInventoryDigest
 } from '$lib/server/inventory/digest';
-import { setStockSettings } from '$lib/server/inventory/lots';
+import { setStockSettings } from '$lib/server/inventory/stock-settings';
 import type { Actions, PageServerLoad } from './$types';
 
 const optionalNumber = (message: string) =>

@@ -1,12 +1,10 @@
 import { error, fail } from '@sveltejs/kit';
 import { auditEventsFor } from '$lib/server/audit';
-import {
-	completeBatch,
-	chooseLot,
-	recordLine,
-	recordMeasurements,
-	requireBatch
-} from '$lib/server/batches/execution';
+import { completeBatch } from '$lib/server/batches/completion';
+import { requireBatch } from '$lib/server/batches/execution';
+import { recordLine } from '$lib/server/batches/line-record';
+import { chooseLot } from '$lib/server/batches/lot-choice';
+import { recordMeasurements } from '$lib/server/batches/measurements';
 import { reviewBatch, reviewRefusal } from '$lib/server/batches/review';
 import { clientAddress, requireActor, requirePermission } from '$lib/server/guard';
 import { batchView } from '$lib/server/batches/view';

@@ -3,7 +3,9 @@ import { requireActor, requirePermission } from '$lib/server/guard';
 import {
 	checkComponentText,
 	componentForm,
-	componentText,
+	componentText
+} from '$lib/server/components/component-form';
+import {
 	findComponent,
 	listComponents,
 	molarMassOfComponent,

@@ -3,10 +3,9 @@ import { requireActor, requirePermission } from '$lib/server/guard';
 import {
 	checkComponentText,
 	componentText,
-	createComponent,
-	listComponents,
 	componentForm
-} from '$lib/server/components/library';
+} from '$lib/server/components/component-form';
+import { createComponent, listComponents } from '$lib/server/components/library';
 import { formValues, parseForm } from '$lib/server/forms';
 import { db } from '$lib/server/db';
 import type { Actions, PageServerLoad } from './$types';

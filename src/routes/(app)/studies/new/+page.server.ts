@@ -2,7 +2,8 @@ import { redirect } from '@sveltejs/kit';
 import { parseForm, ruleFailure } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';
 import { loadStudyChoices } from '$lib/server/studies/form-data';
-import { createStudy, STUDY_FORM_DEFAULTS, studySchema } from '$lib/server/studies/study-store';
+import { STUDY_FORM_DEFAULTS, studySchema } from '$lib/server/studies/study-form';
+import { createStudy } from '$lib/server/studies/study-store';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {

@@ -2,7 +2,8 @@ import { error, redirect } from '@sveltejs/kit';
 import { parseForm, ruleFailure, revisionField } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';
 import { loadStudyChoices } from '$lib/server/studies/form-data';
-import { studyFormValues, studySchema, updateStudy } from '$lib/server/studies/study-store';
+import { studySchema } from '$lib/server/studies/study-form';
+import { studyFormValues, updateStudy } from '$lib/server/studies/study-store';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 

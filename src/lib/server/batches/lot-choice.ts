@@ -1,0 +1,204 @@
+import { eq } from 'drizzle-orm';
+import { formatLineQuantity } from '$lib/batches';
+import { formatQuantity, isoToday, lotUnusability } from '$lib/inventory';
+import { batchVolumeL } from '$lib/quantities';
+import { recordAudit } from '../audit';
+import { findComponent } from '../components/library';
+import { db, type Db } from '../db';
+import { batchLine, recipeLine, type Batch, type BatchLine, type Lot } from '../db/schema';
+import { onHandOf } from '../inventory/ledger';
+import { findLot, findLotByCode } from '../inventory/lots';
+import { RuleError } from '../rule-error';
+import {
+	markStarted,
+	requireBatch,
+	requireLine,
+	requireOpen,
+	type Reader,
+	type Technician
+} from './execution';
+import { buildSheetLines, requirementFor } from './sheet';
+
+/**
+ * What a scanned or typed code names: a lot id (L-2026-0001), the lot's record id, or a URL that
+ * contains either (labels from elsewhere may carry a link).
+ */
+export function lotFromScan(text: string, reader: Reader = db): Lot | undefined {
+	const trimmed = text.trim();
+	if (!trimmed) return undefined;
+	const candidates = [trimmed];
+	try {
+		const url = new URL(trimmed);
+		candidates.push(
+			...url.pathname.split('/').filter(Boolean).reverse(),
+			...url.searchParams.values()
+		);
+	} catch {
+		// not a URL: the text itself is the candidate
+	}
+	for (const candidate of candidates) {
+		const found =
+			findLotByCode(decodeURIComponent(candidate), reader) ?? findLot(candidate, reader);
+		if (found) return found;
+	}
+	return undefined;
+}
+
+/** Why a lot may not be used for a line, or null when it may. */
+export function lotRefusal(
+	lotRow: Lot,
+	line: { componentId: string | null; name: string },
+	neededInLotUnits: number,
+	onHand: number,
+	today = isoToday()
+): string | null {
+	if (lotRow.componentId !== line.componentId) {
+		const actual = findComponent(lotRow.componentId)?.name ?? lotRow.componentId;
+		return `Wrong lot: ${lotRow.code} is ${actual}; this line needs ${line.name}.`;
+	}
+	const unusable = lotUnusability(lotRow, today);
+	if (unusable === 'quarantine' || unusable === 'rejected')
+		return `Lot ${lotRow.code} is ${unusable === 'quarantine' ? 'in quarantine' : 'rejected'}, not released for use.`;
+	if (unusable === 'expired')
+		return `Lot ${lotRow.code} is expired: its ${lotRow.dateKind} date was ${lotRow.expiresOn}.`;
+	if (onHand < neededInLotUnits) {
+		return `Lot ${lotRow.code} has ${formatQuantity(onHand, lotRow.quantityKind)} on hand; this line needs ${formatQuantity(neededInLotUnits, lotRow.quantityKind)}.`;
+	}
+	return null;
+}
+
+/** A line that can take a lot: a component line not yet signed as done. */
+function requireLineForLot(line: BatchLine): void {
+	if (line.kind !== 'component')
+		throw new RuleError('A stock line has no lot to scan; record the stock you add.', {
+			field: 'scan'
+		});
+	if (line.doneAt)
+		throw new RuleError(`Line ${line.position} is already signed as done; its lot cannot change.`, {
+			field: 'scan',
+			status: 409
+		});
+}
+
+function requireScannedLot(scanned: string, reader: Reader): Lot {
+	const found = lotFromScan(scanned, reader);
+	if (!found) {
+		throw new RuleError(
+			scanned.trim()
+				? `“${scanned.trim()}” is not a lot known here. Scan the label of a lot, or type its lot id (like L-2026-0001).`
+				: 'Scan or type a lot id.',
+			{ field: 'scan' }
+		);
+	}
+	return found;
+}
+
+/** What the line needs from this lot, in the lot's units and in µg (zero for a lot of another component). */
+function lotRequirement(
+	b: Batch,
+	line: BatchLine,
+	found: Lot,
+	sheetComponentId: string | null,
+	reader: Reader
+): { need: number; requiredUg: number } {
+	if (found.componentId !== sheetComponentId) return { need: 0, requiredUg: 0 };
+	const source = reader
+		.select()
+		.from(recipeLine)
+		.where(eq(recipeLine.id, line.recipeLineId))
+		.get()!;
+	const basis = findComponent(source.componentId!, reader)!;
+	const shelf =
+		source.shelfFormId && source.shelfFormId !== source.componentId
+			? (findComponent(source.shelfFormId, reader) ?? null)
+			: null;
+	const requirement = requirementFor(
+		{ amount: source.amount, unit: source.unit, component: basis, shelf },
+		batchVolumeL(b.targetVolumeMl),
+		found,
+		shelf ?? basis
+	);
+	return { need: requirement.inLotUnits ?? 0, requiredUg: requirement.requiredUg };
+}
+
+/** A refused scan is audited, then answered with the reason. */
+function refuseLot(
+	actor: Technician,
+	tx: Pick<Db, 'insert'>,
+	b: Batch,
+	line: BatchLine,
+	scanned: string,
+	found: Lot,
+	refusal: string
+): never {
+	recordAudit(
+		actor,
+		{
+			action: 'batch.lot_refused',
+			subjectType: 'batch',
+			subjectId: b.id,
+			detail: {
+				line: line.position,
+				scanned: scanned.trim().slice(0, 200),
+				lot: found.code,
+				reason: refusal
+			}
+		},
+		tx
+	);
+	throw new RuleError(refusal, { field: 'scan', status: 422 });
+}
+
+/** The technician scans a lot label for a line. A repeat scan of the same lot changes nothing. */
+export function chooseLot(
+	actor: Technician,
+	batchId: string,
+	lineId: string,
+	scanned: string,
+	today = isoToday()
+): { lotCode: string; requiredText: string; repeated: boolean } {
+	return db.transaction((tx) => {
+		const b = requireBatch(batchId, tx);
+		requireOpen(b);
+		const line = requireLine(b, lineId, tx);
+		requireLineForLot(line);
+		const found = requireScannedLot(scanned, tx);
+		if (line.lotId === found.id) {
+			return {
+				lotCode: found.code,
+				requiredText: formatLineQuantity(line.requiredUg ?? 0, 'component'),
+				repeated: true
+			};
+		}
+		const sheetLine = buildSheetLines(b, tx, today).find((l) => l.id === line.id)!;
+		const { need, requiredUg } = lotRequirement(b, line, found, sheetLine.componentId, tx);
+		const refusal = lotRefusal(
+			found,
+			{ componentId: sheetLine.componentId, name: sheetLine.name },
+			need,
+			onHandOf(found.id, tx),
+			today
+		);
+		if (refusal) refuseLot(actor, tx, b, line, scanned, found, refusal);
+		markStarted(tx, actor, b);
+		tx.update(batchLine)
+			.set({ lotId: found.id, requiredUg })
+			.where(eq(batchLine.id, line.id))
+			.run();
+		recordAudit(
+			actor,
+			{
+				action: 'batch.lot_chosen',
+				subjectType: 'batch',
+				subjectId: b.id,
+				detail: { line: line.position, lot: found.code, requiredUg }
+			},
+			tx
+		);
+		return {
+			lotCode: found.code,
+			requiredText: formatLineQuantity(requiredUg, 'component'),
+			repeated: false
+		};
+	});
+}

@@ -1,0 +1,215 @@
+import { z } from 'zod';
+import {
+	AIR_O2_MOLE_FRACTION,
+	DEFAULT_SAFETY_FACTOR,
+	HEAT_PER_MOL_O2_RANGE_KJ,
+	STUDY_TEMPERATURE_RANGE_C
+} from '$chemistry';
+import {
+	FEED_PLAN_STRATEGIES,
+	isControlledPlan,
+	TARGET_BASES,
+	type FeedPlan,
+	type FeedPlanStrategy
+} from '$lib/studies';
+import { RuleError } from '../rule-error';
+import { optionalNumber, optionalText, requiredNumber, requiredText } from './fields';
+
+export const FEED_SLOTS = 3;
+
+/** The form fields of one feed slot, `feed<N><Field>`. */
+export const FEED_SLOT_FIELDS = [
+	'VersionId',
+	'VolumeL',
+	'Strategy',
+	'StartH',
+	'MuSetPerH',
+	'SetpointGPerL',
+	'DoSetpointPercent',
+	'MaxRateLPerH'
+] as const;
+type SlotField = (typeof FEED_SLOT_FIELDS)[number];
+
+function slotShape(slot: number) {
+	const label = `Feed ${slot}`;
+	const shape: Record<`feed${number}${SlotField}`, z.ZodType> = {
+		[`feed${slot}VersionId`]: z
+			.string()
+			.optional()
+			.transform((v) => v || null),
+		[`feed${slot}VolumeL`]: optionalNumber(`${label} volume`, { min: 0, max: 100000, unit: 'L' }),
+		[`feed${slot}Strategy`]: z
+			.union([z.literal(''), z.enum(FEED_PLAN_STRATEGIES)], {
+				error: `${label}: choose a feeding plan`
+			})
+			.optional()
+			.transform((v) => v || null),
+		[`feed${slot}StartH`]: optionalNumber(`${label} start`, { min: 0, unit: 'h' }),
+		[`feed${slot}MuSetPerH`]: optionalNumber(`${label} μset`, { gt: 0, max: 3, unit: '1/h' }),
+		[`feed${slot}SetpointGPerL`]: optionalNumber(`${label} substrate setpoint`, {
+			gt: 0,
+			max: 500,
+			unit: 'g/L'
+		}),
+		[`feed${slot}DoSetpointPercent`]: optionalNumber(`${label} DO setpoint`, {
+			gt: 0,
+			max: 99,
+			unit: '% of air saturation'
+		}),
+		[`feed${slot}MaxRateLPerH`]: optionalNumber(`${label} top pump rate`, {
+			gt: 0,
+			max: 10000,
+			unit: 'L/h'
+		})
+	};
+	return shape;
+}
+
+const feedSlots = Object.assign(
+	{},
+	...Array.from({ length: FEED_SLOTS }, (_, i) => slotShape(i + 1))
+) as ReturnType<typeof slotShape>;
+
+/** One feed of a study with its own plan, as stored in `study_feed`. */
+export interface StudyFeedPlan extends FeedPlan {
+	versionId: string;
+	volumeL: number;
+}
+
+export const studySchema = z.object({
+	name: requiredText('Name'),
+	basalVersionId: requiredText('Basal recipe version'),
+	profileId: requiredText('Organism profile'),
+	vesselId: requiredText('Vessel'),
+	targetBasis: z.enum(TARGET_BASES, { error: 'Choose g/L or cells/mL' }),
+	targetValue: requiredNumber('Target density', { gt: 0 }),
+	initialVolumeL: requiredNumber('Initial volume', { gt: 0, unit: 'L' }),
+	inoculumDensity: requiredNumber('Inoculum density', { gt: 0 }),
+	durationH: requiredNumber('Run duration', { gt: 0, max: 1440, unit: 'h' }),
+	temperatureC: requiredNumber('Temperature', {
+		min: STUDY_TEMPERATURE_RANGE_C[0],
+		max: STUDY_TEMPERATURE_RANGE_C[1],
+		unit: '°C'
+	}),
+	pressureKPa: requiredNumber('Headspace pressure (absolute)', { min: 50, max: 1000, unit: 'kPa' }),
+	o2MoleFraction: requiredNumber('O2 mole fraction of the inlet gas', { gt: 0, max: 1 }),
+	doSetpointPercent: requiredNumber('DO setpoint', {
+		min: 0,
+		max: 99,
+		unit: '% of air saturation'
+	}),
+	safetyFactor: requiredNumber('Safety factor', { min: 1, max: 5 }),
+	heatPerMolO2KJ: optionalNumber('Heat per mol O2 consumed', {
+		...HEAT_PER_MOL_O2_RANGE_KJ,
+		unit: 'kJ/mol'
+	}),
+	notes: optionalText(),
+	...feedSlots
+});
+
+export type StudyForm = z.infer<typeof studySchema> &
+	Partial<Record<`feed${number}${SlotField}`, string | number | null>>;
+
+export const STUDY_FORM_DEFAULTS = {
+	targetBasis: 'biomassGPerL',
+	feed1Strategy: 'exponential',
+	feed1StartH: '8',
+	temperatureC: '37',
+	pressureKPa: '101.325',
+	o2MoleFraction: String(AIR_O2_MOLE_FRACTION),
+	doSetpointPercent: '30',
+	safetyFactor: String(DEFAULT_SAFETY_FACTOR)
+};
+
+/** What each plan reads beyond volume and start; the rest of the slot is not stored. */
+const PLAN_NEEDS: Record<
+	FeedPlanStrategy,
+	{ field: SlotField; key: keyof StudyFeedPlan; message: string }[]
+> = {
+	constant: [],
+	linear: [],
+	exponential: [
+		{
+			field: 'MuSetPerH',
+			key: 'muSetPerH',
+			message: 'An exponential plan needs μset, the growth rate it is shaped for.'
+		}
+	],
+	substrateStat: [
+		{
+			field: 'SetpointGPerL',
+			key: 'setpointGPerL',
+			message: 'A substrate-stat plan needs the carbon source setpoint it holds, g/L.'
+		},
+		{
+			field: 'MaxRateLPerH',
+			key: 'maxRateLPerH',
+			message: "A substrate-stat plan needs the pump's top rate, L/h."
+		}
+	],
+	doStat: [
+		{
+			field: 'DoSetpointPercent',
+			key: 'doSetpointPercent',
+			message: 'A DO-stat plan needs the DO above which it feeds, % of air saturation.'
+		},
+		{
+			field: 'MaxRateLPerH',
+			key: 'maxRateLPerH',
+			message: "A DO-stat plan needs the pump's top rate, L/h."
+		}
+	]
+};
+
+/** The filled feed slots of the form, each with the fields its plan needs. */
+export function feedsOfForm(form: StudyForm): (StudyFeedPlan & { slot: number })[] {
+	const feeds: (StudyFeedPlan & { slot: number })[] = [];
+	for (let slot = 1; slot <= FEED_SLOTS; slot++) {
+		const value = (field: SlotField) => form[`feed${slot}${field}`] ?? null;
+		const versionId = value('VersionId') as string | null;
+		const volumeL = value('VolumeL') as number | null;
+		if (!versionId && volumeL === null) continue;
+		const field = (name: SlotField) => `feed${slot}${name}`;
+		if (!versionId)
+			throw new RuleError('Choose the feed recipe version for this volume, or clear the volume.', {
+				field: field('VersionId')
+			});
+		const strategy = (value('Strategy') as FeedPlanStrategy | null) ?? null;
+		if (!strategy)
+			throw new RuleError(`Choose how feed ${slot} is fed.`, { field: field('Strategy') });
+		if (volumeL === null) {
+			const what = isControlledPlan(strategy)
+				? 'the volume of feed available for the run'
+				: 'the planned volume of this feed over the run';
+			throw new RuleError(`Enter ${what}.`, { field: field('VolumeL') });
+		}
+		const startH = value('StartH') as number | null;
+		if (startH === null)
+			throw new RuleError(`Enter when feed ${slot} starts, h after inoculation.`, {
+				field: field('StartH')
+			});
+		if (startH >= form.durationH)
+			throw new RuleError(
+				`Feed ${slot} must start before the end of the run at ${form.durationH} h.`,
+				{ field: field('StartH') }
+			);
+		const plan: StudyFeedPlan & { slot: number } = {
+			slot,
+			versionId,
+			volumeL,
+			strategy,
+			startH,
+			muSetPerH: null,
+			setpointGPerL: null,
+			doSetpointPercent: null,
+			maxRateLPerH: null
+		};
+		for (const need of PLAN_NEEDS[strategy]) {
+			const v = value(need.field) as number | null;
+			if (v === null) throw new RuleError(need.message, { field: field(need.field) });
+			(plan as unknown as Record<string, number>)[need.key] = v;
+		}
+		feeds.push(plan);
+	}
+	return feeds;
+}
