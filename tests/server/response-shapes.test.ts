@@ -1,10 +1,10 @@
 import type { RequestHandler } from '@sveltejs/kit';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
-import { eq } from 'drizzle-orm';
+import { and, eq, isNotNull } from 'drizzle-orm';
 import type { z } from 'zod';
 import { allOperations } from '$lib/server/api/openapi';
 import { db } from '$lib/server/db';
-import { study } from '$lib/server/db/schema';
+import { batch, batchLine, recipe, recipeVersion, study } from '$lib/server/db/schema';
 import { seedDemo } from '$lib/server/demo/seed';
 import { saveScenario } from '$lib/server/scenarios';
 import { callJson } from './endpoint-call';
@@ -53,6 +53,25 @@ let scientist: Awaited<ReturnType<typeof makeUser>>;
 let user: { id: string; email: string; name: string; roles: string[] };
 let scenarioId: string;
 let studyId: string;
+let recipeId: string;
+let approvedN: string;
+let approvedVersionId: string;
+let lotId: string;
+let batchId: string;
+
+// A feed for the demo bacterium study that needs two feeds (calcium apart from phosphate).
+const feedRequest = {
+	componentIds: [
+		'd-glucose',
+		'ammonium-sulfate',
+		'calcium-chloride',
+		'iron-ii-sulfate',
+		'sodium-dihydrogen-phosphate',
+		'magnesium-sulfate'
+	],
+	feedVolumeL: 30,
+	temperatureC: 25
+};
 
 const batchRun = {
 	mode: 'batch',
@@ -92,6 +111,7 @@ const get =
 const calls: Record<string, () => Promise<Response>> = {
 	'get /api/v1/health': get('/api/v1/health'),
 	'get /api/v1/me': get('/api/v1/me'),
+	'get /api/v1/openapi.json': get('/api/v1/openapi.json'),
 	'post /api/v1/session': async () =>
 		callJson(
 			(await route('/api/v1/session')).POST,
@@ -173,8 +193,66 @@ const calls: Record<string, () => Promise<Response>> = {
 			{ notes: 'renamed by the shapes test' },
 			{ user, params: { id: scenarioId } }
 		),
-	'post /api/v1/studies/evaluate': async () => post('/api/v1/studies/evaluate', { studyId })()
+	'post /api/v1/studies/evaluate': async () => post('/api/v1/studies/evaluate', { studyId })(),
+	'post /api/v1/stoichiometry': post('/api/v1/stoichiometry', {
+		species: [
+			{ id: 'glucose', formula: 'C6H12O6' },
+			{ id: 'ammonia', formula: 'NH3' },
+			{ id: 'oxygen', formula: 'O2' },
+			{ id: 'biomass', formula: 'CH1.8O0.5N0.2', ashFraction: 0.05, role: 'biomass' },
+			{ id: 'co2', formula: 'CO2' },
+			{ id: 'water', formula: 'H2O' }
+		],
+		specifications: [
+			{ kind: 'rate', species: 'glucose', mol: -1 },
+			{ kind: 'massYield', product: 'biomass', substrate: 'glucose', gPerG: 0.5 },
+			{ kind: 'molarRatio', numerator: 'co2', denominator: 'oxygen', value: 1.05 }
+		]
+	}),
+	'get /api/v1/recipes': async () => get('/api/v1/recipes')(),
+	'get /api/v1/recipes/{id}': async () => get('/api/v1/recipes/[id]', { id: recipeId })(),
+	'get /api/v1/recipes/{id}/versions/{n}': async () =>
+		get('/api/v1/recipes/[id]/versions/[n]', { id: recipeId, n: approvedN })(),
+	'get /api/v1/components': get('/api/v1/components'),
+	'get /api/v1/lots': get('/api/v1/lots'),
+	'post /api/v1/lots': post('/api/v1/lots', {
+		component: 'd-glucose',
+		supplier: 'Shapes Supply',
+		supplierLot: `SH-${crypto.randomUUID().slice(0, 8)}`,
+		quantity: '500',
+		unit: 'g',
+		receivedOn: '2026-01-05',
+		expiresOn: '2028-01-05'
+	}),
+	'get /api/v1/lots/{id}': async () => get('/api/v1/lots/[id]', { id: lotId })(),
+	'get /api/v1/batches': get('/api/v1/batches'),
+	'post /api/v1/batches': async () =>
+		post('/api/v1/batches', {
+			versionId: approvedVersionId,
+			targetVolumeL: 2,
+			plannedOn: '2026-12-20',
+			intendedUse: 'Shapes check'
+		})(),
+	'get /api/v1/batches/{id}': async () => get('/api/v1/batches/[id]', { id: batchId })(),
+	'get /api/v1/studies': get('/api/v1/studies'),
+	'post /api/v1/studies/{id}/feed-design': async () =>
+		callJson(
+			(await route('/api/v1/studies/[id]/feed-design')).POST,
+			'post',
+			`/api/v1/studies/${studyId}/feed-design`,
+			feedRequest,
+			{ user, params: { id: studyId } }
+		),
+	'post /api/v1/studies/{id}/feed-design/drafts': async () =>
+		callJson(
+			(await route('/api/v1/studies/[id]/feed-design/drafts')).POST,
+			'post',
+			`/api/v1/studies/${studyId}/feed-design/drafts`,
+			{ ...feedRequest, names: [`Shapes feed A ${++draftRound}`, `Shapes feed B ${draftRound}`] },
+			{ user, params: { id: studyId } }
+		)
 };
+let draftRound = 0;
 
 const documented = allOperations().filter((op) => op.response !== undefined);
 
@@ -185,7 +263,7 @@ async function answerOf(key: string): Promise<Record<string, unknown>> {
 
 beforeAll(async () => {
 	await seedDemo();
-	scientist = await makeUser(['engineer', 'media_scientist'], password);
+	scientist = await makeUser(['engineer', 'media_scientist', 'inventory_lead'], password);
 	user = { id: scientist.id, email: scientist.email, name: 'Shapes', roles: scientist.roles };
 	scenarioId = saveScenario(
 		{ ...user, address: '127.0.0.1' },
@@ -196,6 +274,23 @@ beforeAll(async () => {
 		.from(study)
 		.where(eq(study.name, 'Bacterium glucose fed-batch, pilot (demo)'))
 		.get()!.id;
+	const approved = db
+		.select()
+		.from(recipeVersion)
+		.innerJoin(recipe, eq(recipeVersion.recipeId, recipe.id))
+		.where(eq(recipeVersion.status, 'approved'))
+		.all()
+		.find((row) => row.recipe.kind === 'basal')!;
+	recipeId = approved.recipe.id;
+	approvedN = String(approved.recipe_version.n);
+	approvedVersionId = approved.recipe_version.id;
+	// A released demo batch and a lot it used, so sheet lines, lots, ledger and where-used are filled.
+	batchId = db.select().from(batch).where(eq(batch.state, 'released')).get()!.id;
+	lotId = db
+		.select()
+		.from(batchLine)
+		.where(and(eq(batchLine.batchId, batchId), isNotNull(batchLine.lotId)))
+		.get()!.lotId!;
 });
 
 describe('every documented response schema describes a real answer', () => {

@@ -174,9 +174,12 @@ describe('feed streams in the simulation form', () => {
 				numbers: { substrateGPerL: '0', rateLPerH: '' } as never
 			})
 		);
+		// A blank field is left out, and the request schema names what is missing.
+		const missing = 'feeds.1.rateLPerH must be a finite number greater than 0.';
 		expect(buildSimulationRequest(values)).toEqual({
 			ok: false,
-			fieldErrors: { 'feeds.1.rateLPerH': 'Required.' }
+			fieldErrors: { 'feeds.1.rateLPerH': missing },
+			message: missing
 		});
 		values.feeds[1].numbers.rateLPerH = '0,02';
 		const built = buildSimulationRequest(values);
@@ -191,31 +194,50 @@ describe('feed streams in the simulation form', () => {
 		expect(FEED_LABEL_MAX_LENGTH).toBe(MAX_FEED_LABEL_LENGTH);
 		const values = createDemoValues();
 		values.feeds[0].label = 'x'.repeat(FEED_LABEL_MAX_LENGTH + 1);
+		const tooLong = 'feed.label must be at most 80 characters (got 81).';
 		expect(buildSimulationRequest(values)).toEqual({
 			ok: false,
-			fieldErrors: { 'feed.label': 'At most 80 characters (this one has 81).' }
+			fieldErrors: { 'feed.label': tooLong },
+			message: tooLong
 		});
 	});
 
-	it('maps the API’s feeds.1.rateLPerH problem to the field of the second stream', async () => {
+	it('refuses what the API refuses, at the same field of the second stream and in the same words', async () => {
 		answerFetchWithEndpoint();
+		const request = { ...base, feeds: [glucoseDoStat, { ...aminoAcids, rateLPerH: -0.01 }] };
 		const values = readInto({
 			...base,
 			feeds: [glucoseDoStat, { ...aminoAcids, rateLPerH: 0.01 }]
 		});
 		values.feeds[1].numbers.rateLPerH = '-0.01';
 		const built = buildSimulationRequest(values);
-		if (!built.ok) throw new Error(JSON.stringify(built.fieldErrors));
-		const answer = await callApi('POST', '/api/v1/simulate', built.request);
+		const answer = await callApi('POST', '/api/v1/simulate', request);
 		expect(answer.ok).toBe(false);
-		if (answer.ok) return;
+		expect(built.ok).toBe(false);
+		if (answer.ok || built.ok) return;
 		const secondRateField = `${feedStreamPath(values, 1)}.rateLPerH`;
-		expect(Object.keys(answer.fieldErrors)).toEqual([secondRateField]);
 		expect(secondRateField).toBe('feeds.1.rateLPerH');
+		expect(Object.keys(answer.fieldErrors)).toEqual([secondRateField]);
+		expect(built.fieldErrors).toEqual(answer.fieldErrors);
+		expect(built.message).toBe(answer.message);
 		expect(answer.fieldErrors[secondRateField]).toMatch(/^feeds\.1\.rateLPerH must be/);
 		expect(nameFeedStreamsIn(answer.fieldErrors[secondRateField])).toMatch(
 			/^rateLPerH of feed stream 2 must be/
 		);
+	});
+
+	it('keeps its own word for text that is not a number, and the schema’s for the rest', () => {
+		const values = createDemoValues();
+		values.numbers.endH = 'soon';
+		values.numbers['kinetics.muMaxPerH'] = '-1';
+		const built = buildSimulationRequest(values);
+		expect(built).toEqual({
+			ok: false,
+			fieldErrors: {
+				endH: 'Enter a number (got “soon”).',
+				'kinetics.muMaxPerH': expect.stringMatching(/^kinetics\.muMaxPerH must be greater than 0/)
+			}
+		});
 	});
 
 	it('moves field errors with their stream when streams are added or removed', () => {

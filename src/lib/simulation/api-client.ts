@@ -1,4 +1,6 @@
 // Client-side calls to the JSON endpoints; a problem+json answer becomes a message and field errors.
+import { problemsByPath, type FieldProblem } from '$lib/field-problems';
+
 export interface ApiFailure {
 	ok: false;
 	status: number;
@@ -10,7 +12,7 @@ export type ApiResult<T> = { ok: true; data: T } | ApiFailure;
 
 interface Problem {
 	detail?: string;
-	errors?: { path: string; message: string }[];
+	errors?: FieldProblem[];
 }
 
 export async function callApi<T>(
@@ -40,9 +42,7 @@ export async function callApi<T>(
 	const payload: unknown = await response.json().catch(() => null);
 	if (response.ok) return { ok: true, data: payload as T };
 	const problem = (payload ?? {}) as Problem;
-	const fieldErrors: Record<string, string> = {};
-	for (const e of problem.errors ?? [])
-		fieldErrors[e.path] = fieldErrors[e.path] ? `${fieldErrors[e.path]} ${e.message}` : e.message;
+	const fieldErrors = problemsByPath(problem.errors ?? []);
 	return {
 		ok: false,
 		status: response.status,

@@ -32,7 +32,6 @@ export interface FeedStreamValues {
 export interface FeedNumberField {
 	key: FeedNumberKey;
 	label: string;
-	required: boolean | ((stream: FeedStreamValues) => boolean);
 	hint?: string;
 	shows: (stream: FeedStreamValues, mode: OperatingMode) => boolean;
 }
@@ -55,52 +54,44 @@ export const FEED_NUMBER_FIELDS: FeedNumberField[] = [
 	{
 		key: 'substrateGPerL',
 		label: 'Substrate in feed or fresh medium Sf (g/L)',
-		required: true,
 		shows: (_, mode) => mode !== 'batch'
 	},
 	{
 		key: 'startH',
 		label: 'Start (h)',
-		required: false,
 		hint: 'Batch phase before it; default 0',
 		shows: (_, mode) => mode !== 'batch'
 	},
 	{
 		key: 'rateLPerH',
 		label: 'Feed rate F (L/h)',
-		required: true,
 		shows: fedWith('constant', 'linear')
 	},
-	{ key: 'slopeLPerH2', label: 'Ramp slope (L/h²)', required: true, shows: fedWith('linear') },
+	{ key: 'slopeLPerH2', label: 'Ramp slope (L/h²)', shows: fedWith('linear') },
 	{
 		key: 'muSetPerH',
 		label: 'Set growth rate μset (1/h)',
-		required: true,
 		shows: fedWith('exponential')
 	},
 	{
 		key: 'setpointGPerL',
 		label: 'Substrate setpoint (g/L)',
-		required: true,
 		shows: fedWith('substrateStat')
 	},
 	{
 		key: 'doSetpointMgPerL',
 		label: 'DO setpoint (mg/L)',
-		required: true,
 		shows: fedWith('doStat')
 	},
 	{
 		key: 'maxRateLPerH',
 		label: 'Pump maximum (L/h)',
-		required: (stream) => stream.strategy === 'doStat',
 		hint: 'Caps the feed rate',
 		shows: fedWith('linear', 'exponential', 'substrateStat', 'doStat', 'expression')
 	},
 	{
 		key: 'bolusL',
 		label: 'Bolus at start (L)',
-		required: false,
 		hint: 'Optional',
 		shows: (_, mode) => mode === 'fedBatch'
 	}
@@ -134,39 +125,37 @@ export function feedFieldsShown(stream: FeedStreamValues, mode: OperatingMode): 
 	return FEED_NUMBER_FIELDS.filter((field) => field.shows(stream, mode));
 }
 
-export type BuiltFeed =
-	{ ok: true; feed: FeedInput } | { ok: false; fieldErrors: Record<string, string> };
+/** A stream's FeedInput as typed, and the fields whose text is not a number. */
+export interface BuiltFeed {
+	feed: FeedInput;
+	textErrors: Record<string, string>;
+}
 
-/** One stream's FeedInput; `path` (`feed` or `feeds.N`) names its fields in the errors. */
+/**
+ * One stream's FeedInput; `path` (`feed` or `feeds.N`) names its fields in the errors. Blank fields
+ * are left out: which ones a stream needs, and the label's length, are the request schema's to judge.
+ */
 export function buildFeedInput(
 	stream: FeedStreamValues,
 	mode: OperatingMode,
 	path: string
 ): BuiltFeed {
 	const feed: Record<string, unknown> = {};
-	const fieldErrors: Record<string, string> = {};
+	const textErrors: Record<string, string> = {};
 	for (const field of feedFieldsShown(stream, mode)) {
 		const text = (stream.numbers[field.key] ?? '').trim();
-		const required = typeof field.required === 'function' ? field.required(stream) : field.required;
-		if (text === '') {
-			if (required) fieldErrors[`${path}.${field.key}`] = 'Required.';
-			continue;
-		}
+		if (text === '') continue;
 		const value = readNumberText(text);
-		if (value === null) fieldErrors[`${path}.${field.key}`] = `Enter a number (got “${text}”).`;
+		if (value === null) textErrors[`${path}.${field.key}`] = `Enter a number (got “${text}”).`;
 		else feed[field.key] = value;
 	}
 	feed.strategy = mode === 'fedBatch' ? stream.strategy : 'constant';
 	if (mode === 'fedBatch') {
 		if (stream.strategy === 'expression') feed.expression = stream.expression;
 		const label = stream.label.trim();
-		if (label.length > FEED_LABEL_MAX_LENGTH) {
-			fieldErrors[`${path}.label`] =
-				`At most ${FEED_LABEL_MAX_LENGTH} characters (this one has ${label.length}).`;
-		} else if (label !== '') feed.label = label;
+		if (label !== '') feed.label = label;
 	}
-	if (Object.keys(fieldErrors).length) return { ok: false, fieldErrors };
-	return { ok: true, feed: feed as unknown as FeedInput };
+	return { feed: feed as unknown as FeedInput, textErrors };
 }
 
 /**

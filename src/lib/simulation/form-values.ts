@@ -1,7 +1,13 @@
 // The simulation form's state and its translation to and from the request of POST /api/v1/simulate.
 // One table of fields drives rendering, request building and scenario loading, so they cannot drift;
 // the feed streams' own table is in feed-stream-values.ts.
-import type { FeedInput, OperatingMode, SimulationRequest } from '$chemistry';
+import {
+	simulationRequestSchema,
+	type FeedInput,
+	type OperatingMode,
+	type SimulationRequest
+} from '$chemistry';
+import { describeProblems, problemsByPath, zodProblems } from '$lib/field-problems';
 import {
 	buildFeedInput,
 	createFeedStream,
@@ -33,7 +39,6 @@ export interface NumberField {
 	path: string;
 	label: string;
 	group: FieldGroup;
-	required: boolean | ((v: SimulationFormValues) => boolean);
 	hint?: string;
 	shows?: (v: SimulationFormValues) => boolean;
 }
@@ -58,71 +63,62 @@ export const GROUP_LEGENDS: Record<FieldGroup, string> = {
 };
 
 export const NUMBER_FIELDS: NumberField[] = [
-	{ path: 'kinetics.muMaxPerH', label: 'μmax (1/h)', group: 'kinetics', required: true },
-	{ path: 'kinetics.ksGPerL', label: 'Ks (g/L)', group: 'kinetics', required: true },
+	{ path: 'kinetics.muMaxPerH', label: 'μmax (1/h)', group: 'kinetics' },
+	{ path: 'kinetics.ksGPerL', label: 'Ks (g/L)', group: 'kinetics' },
 	{
 		path: 'kinetics.yieldXS',
 		label: 'Yx/s (g biomass / g substrate)',
-		group: 'kinetics',
-		required: true
+		group: 'kinetics'
 	},
 	{
 		path: 'kinetics.maintenanceGPerGH',
 		label: 'Maintenance mₛ (g/g/h)',
 		group: 'kinetics',
-		required: false,
 		hint: 'Optional; Pirt 1965'
 	},
 	{
 		path: 'kinetics.alpha',
 		label: 'Product α (g/g)',
 		group: 'kinetics',
-		required: false,
 		hint: 'Optional; growth-associated'
 	},
 	{
 		path: 'kinetics.beta',
 		label: 'Product β (g/g/h)',
 		group: 'kinetics',
-		required: false,
 		hint: 'Optional; non-growth'
 	},
-	{ path: 'initial.biomassGPerL', label: 'Biomass X₀ (g/L)', group: 'initial', required: true },
-	{ path: 'initial.substrateGPerL', label: 'Substrate S₀ (g/L)', group: 'initial', required: true },
-	{ path: 'initial.volumeL', label: 'Volume V₀ (L)', group: 'initial', required: true },
+	{ path: 'initial.biomassGPerL', label: 'Biomass X₀ (g/L)', group: 'initial' },
+	{ path: 'initial.substrateGPerL', label: 'Substrate S₀ (g/L)', group: 'initial' },
+	{ path: 'initial.volumeL', label: 'Volume V₀ (L)', group: 'initial' },
 	{
 		path: 'initial.productGPerL',
 		label: 'Product P₀ (g/L)',
 		group: 'initial',
-		required: false,
 		hint: 'Optional; default 0'
 	},
 	{
 		path: 'oxygen.kLaPerH',
 		label: 'kLa (1/h)',
 		group: 'oxygen',
-		required: true,
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'oxygen.saturationMgPerL',
 		label: 'DO saturation C* (mg/L)',
 		group: 'oxygen',
-		required: true,
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'kinetics.yieldXO2',
 		label: 'Yx/O₂ (g biomass / g O₂)',
 		group: 'oxygen',
-		required: true,
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'kinetics.koMgPerL',
 		label: 'K_O (mg/L)',
 		group: 'oxygen',
-		required: false,
 		hint: 'Optional; 0 = growth ignores DO',
 		shows: (v) => v.oxygenBalance
 	},
@@ -130,7 +126,6 @@ export const NUMBER_FIELDS: NumberField[] = [
 		path: 'oxygen.maintenanceMgPerGH',
 		label: 'O₂ maintenance (mg/g/h)',
 		group: 'oxygen',
-		required: false,
 		hint: 'Optional',
 		shows: (v) => v.oxygenBalance
 	},
@@ -138,7 +133,6 @@ export const NUMBER_FIELDS: NumberField[] = [
 		path: 'initial.dissolvedOxygenMgPerL',
 		label: 'Initial DO (mg/L)',
 		group: 'oxygen',
-		required: false,
 		hint: 'Optional; default C*',
 		shows: (v) => v.oxygenBalance
 	},
@@ -146,47 +140,41 @@ export const NUMBER_FIELDS: NumberField[] = [
 		path: 'dilutionPerH',
 		label: 'Dilution rate D (1/h)',
 		group: 'operation',
-		required: true,
 		shows: continuous
 	},
 	{
 		path: 'perfusion.retentionEfficiency',
 		label: 'Cell retention (fraction 0–1)',
 		group: 'operation',
-		required: true,
 		shows: (v) => v.mode === 'perfusion'
 	},
 	{
 		path: 'perfusion.bleedPerH',
 		label: 'Bleed (vessel volumes/h)',
 		group: 'operation',
-		required: true,
 		shows: (v) => v.mode === 'perfusion'
 	},
 	{
 		path: 'drawFill.fraction',
 		label: 'Fraction drawn (0–1)',
 		group: 'operation',
-		required: true,
 		shows: (v) => v.mode === 'drawFill'
 	},
 	{
 		path: 'drawFill.everyH',
 		label: 'Draw every (h)',
 		group: 'operation',
-		required: true,
 		shows: (v) => v.mode === 'drawFill'
 	},
 	{
 		path: 'maxVolumeL',
 		label: 'Maximum working volume (L)',
 		group: 'operation',
-		required: false,
 		hint: 'The run stops there',
 		shows: fed
 	},
-	{ path: 'endH', label: 'End time (h)', group: 'operation', required: true },
-	{ path: 'outputEveryH', label: 'Output every (h)', group: 'operation', required: true }
+	{ path: 'endH', label: 'End time (h)', group: 'operation' },
+	{ path: 'outputEveryH', label: 'Output every (h)', group: 'operation' }
 ];
 
 /** A bacterium on glucose, exponentially fed after an 8 h batch, with an O2 balance. */
@@ -245,10 +233,6 @@ export function isFieldShown(field: NumberField, values: SimulationFormValues): 
 	return field.shows ? field.shows(values) : true;
 }
 
-function isRequired(field: NumberField, values: SimulationFormValues): boolean {
-	return typeof field.required === 'function' ? field.required(values) : field.required;
-}
-
 function setPath(target: Record<string, unknown>, path: string, value: unknown): void {
 	const keys = path.split('.');
 	let node = target;
@@ -266,8 +250,13 @@ function getPath(source: unknown, path: string): unknown {
 		);
 }
 
+/**
+ * A request, or why not: `fieldErrors` by request path; `message` is the API's own sentence when the
+ * request schema refused it (absent when only typed text was not a number).
+ */
 export type BuiltRequest =
-	{ ok: true; request: SimulationRequest } | { ok: false; fieldErrors: Record<string, string> };
+	| { ok: true; request: SimulationRequest }
+	| { ok: false; fieldErrors: Record<string, string>; message?: string };
 
 /** Whether the request carries the streams as `feeds` (so their fields are `feeds.N.…`) rather than `feed`. */
 export function usesFeedsList(values: SimulationFormValues): boolean {
@@ -285,31 +274,50 @@ export function feedStreamsUsed(values: SimulationFormValues): FeedStreamValues[
 	return values.mode === 'fedBatch' ? values.feeds : values.feeds.slice(0, 1);
 }
 
-/** The request for the fields now shown; a blank required field or a non-number is a field error. */
+/**
+ * The request for the fields now shown, checked with the request schema the API validates with
+ * (`simulationRequestSchema`), so the form refuses what the API refuses in the API's words. The form
+ * itself only reads typed text as numbers: text that is not one is its own error, and a blank field
+ * is left out for the schema to judge.
+ */
 export function buildSimulationRequest(values: SimulationFormValues): BuiltRequest {
 	const request: Record<string, unknown> = { mode: values.mode };
-	const fieldErrors: Record<string, string> = {};
+	const textErrors: Record<string, string> = {};
 	for (const field of NUMBER_FIELDS) {
 		if (!isFieldShown(field, values)) continue;
 		const text = (values.numbers[field.path] ?? '').trim();
-		if (text === '') {
-			if (isRequired(field, values)) fieldErrors[field.path] = 'Required.';
-			continue;
-		}
+		if (text === '') continue;
 		const value = readNumberText(text);
-		if (value === null) fieldErrors[field.path] = `Enter a number (got “${text}”).`;
+		if (value === null) textErrors[field.path] = `Enter a number (got “${text}”).`;
 		else setPath(request, field.path, value);
 	}
 	const feeds: FeedInput[] = [];
 	feedStreamsUsed(values).forEach((stream, i) => {
 		const built = buildFeedInput(stream, values.mode, feedStreamPath(values, i));
-		if (built.ok) feeds.push(built.feed);
-		else Object.assign(fieldErrors, built.fieldErrors);
+		feeds.push(built.feed);
+		Object.assign(textErrors, built.textErrors);
 	});
-	if (Object.keys(fieldErrors).length) return { ok: false, fieldErrors };
 	if (usesFeedsList(values)) request.feeds = feeds;
 	else if (feeds.length) request.feed = feeds[0];
-	return { ok: true, request: request as unknown as SimulationRequest };
+	const checked = simulationRequestSchema.safeParse(request);
+	if (Object.keys(textErrors).length) {
+		// A field whose text is not a number keeps that error; the schema's word on it (missing) would mislead.
+		const others = checked.success ? {} : problemsByPath(zodProblems(checked.error.issues));
+		return { ok: false, fieldErrors: { ...textErrors, ...withoutKeys(others, textErrors) } };
+	}
+	if (!checked.success) {
+		const problems = zodProblems(checked.error.issues);
+		return {
+			ok: false,
+			fieldErrors: problemsByPath(problems),
+			message: describeProblems(problems)
+		};
+	}
+	return { ok: true, request: checked.data };
+}
+
+function withoutKeys(errors: Record<string, string>, taken: Record<string, string>) {
+	return Object.fromEntries(Object.entries(errors).filter(([path]) => !(path in taken)));
 }
 
 export type ReadRequest =

@@ -4,7 +4,10 @@ import { ChemistryInputError } from '$chemistry';
 import type { Act } from '$lib/permissions';
 import { requirePermission, type SignedInUser } from '../guard';
 import { RuleError } from '../rule-error';
+import { describeProblems, zodProblems } from '$lib/field-problems';
 import { problem, type FieldProblem } from './problem';
+
+export { zodProblems };
 
 /** A user mistake an endpoint detects itself; answered as a 4xx problem. */
 export class ApiProblem extends Error {
@@ -15,44 +18,6 @@ export class ApiProblem extends Error {
 	) {
 		super(message);
 	}
-}
-
-const joinPath = (path: readonly PropertyKey[]) => path.map(String).join('.') || '(body)';
-
-/**
- * One problem per offending input at the dotted path a client can act on. An unknown key comes out
- * at its own path (`oxygen.o2MoleFractin`), not at the object holding it; a value that fits none of
- * a union's shapes is reported against the closest shape, the one with the fewest problems.
- */
-export function zodProblems(
-	issues: readonly z.core.$ZodIssue[],
-	prefix: readonly PropertyKey[] = []
-): FieldProblem[] {
-	return issues.flatMap((issue): FieldProblem[] => {
-		const path = [...prefix, ...issue.path];
-		if (issue.code === 'unrecognized_keys') {
-			return issue.keys.map((key) => ({
-				path: joinPath([...path, key]),
-				message: `Unknown field "${key}": this request has no such field; check its spelling.`
-			}));
-		}
-		if (issue.code === 'invalid_union' && issue.errors.length > 0) {
-			const candidates = issue.errors.map((memberIssues) => zodProblems(memberIssues, path));
-			return candidates.reduce((closest, problems) =>
-				problems.length < closest.length ? problems : closest
-			);
-		}
-		return [{ path: joinPath(path), message: issue.message }];
-	});
-}
-
-const namesItsField = ({ path, message }: FieldProblem) =>
-	new RegExp(`(?<![\\w.])${path.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}(?!\\w)`).test(message);
-
-/** A single refusal that names its own field (as the science's do) is the detail as it stands. */
-function describeProblems(errors: FieldProblem[]): string {
-	if (errors.length === 1 && namesItsField(errors[0])) return errors[0].message;
-	return `The request has ${errors.length} invalid field${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`;
 }
 
 /** Where in a text field (a feed expression) the one refusal points, when its rule knows. */

@@ -1,12 +1,9 @@
 import { STATUS_CODES } from 'node:http';
+import type { FieldProblem } from '$lib/field-problems';
+
+export type { FieldProblem };
 
 export const PROBLEM_CONTENT_TYPE = 'application/problem+json';
-
-export interface FieldProblem {
-	/** Dotted path of the offending input, e.g. `kinetics.muMaxPerH` or `lines.2.amount`. */
-	path: string;
-	message: string;
-}
 
 export interface ProblemDetails {
 	type: string;

@@ -1,4 +1,17 @@
-import type { z } from 'zod';
+import { z } from 'zod';
+
+/**
+ * What JSON.stringify makes of T, which is what a client reads: a Date becomes its ISO text; arrays,
+ * tuples and objects keep their shape, field by field.
+ */
+export type Wire<T> = T extends Date
+	? string
+	: T extends object
+		? { [K in keyof T]: Wire<T[K]> }
+		: T;
+
+/** A Date as its handler's JSON carries it (`Date.prototype.toJSON`). */
+export const isoTime = () => z.iso.datetime().describe('ISO 8601 date and time, UTC');
 
 /** `true` when A and B accept the same values (each is assignable to the other). */
 type SameShape<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
@@ -12,13 +25,14 @@ interface ShapeMismatch<Schema, Type> {
 }
 
 /**
- * A response schema bound, at compile time, to the type its handler returns: the type check fails
- * when a field is added, renamed or retyped on one side only. Usage:
+ * A response schema bound, at compile time, to the type its handler returns (as JSON: `Wire<T>`):
+ * the type check fails when a field is added, renamed or retyped on one side only. Usage:
  * `export const analysisResponse = describes<RecipeAnalysis>()(z.object({ ... }))`.
  */
 export function describes<T>() {
 	return <S extends z.ZodType>(
-		schema: S & (SameShape<z.output<S>, T> extends true ? unknown : ShapeMismatch<z.output<S>, T>)
+		schema: S &
+			(SameShape<z.output<S>, Wire<T>> extends true ? unknown : ShapeMismatch<z.output<S>, Wire<T>>)
 	): S => schema;
 }
 
@@ -28,6 +42,21 @@ export function describes<T>() {
  */
 export function documentsPartOf<T>() {
 	return <S extends z.ZodType>(
-		schema: S & ([T] extends [KnownKeys<z.output<S>>] ? unknown : ShapeMismatch<z.output<S>, T>)
+		schema: S &
+			([Wire<T>] extends [KnownKeys<z.output<S>>] ? unknown : ShapeMismatch<z.output<S>, Wire<T>>)
 	): S => schema;
 }
+
+/** An electronic signature as recipes, lots and batches answer it (`ESignature`). */
+export const signatureResponse = z.object({
+	id: z.string(),
+	signerId: z.string(),
+	signerEmail: z.string(),
+	signerName: z.string(),
+	meaning: z.string(),
+	subjectType: z.string(),
+	subjectId: z.string(),
+	subjectDigest: z.string().nullable().describe('SHA-256 of the signed content'),
+	comment: z.string(),
+	signedAt: isoTime()
+});

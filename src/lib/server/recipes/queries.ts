@@ -110,9 +110,10 @@ export function listRecipes(filter: RecipeFilter): { rows: RecipeSummary[]; tota
 		: [];
 	const rows = recipes.map((r) => {
 		const own = versions.filter((v) => v.recipeId === r.id);
+		const [{ n, status, updatedAt }] = own;
 		return {
 			...r,
-			latest: own[0],
+			latest: { n, status, updatedAt },
 			approvedN: own.find((v) => v.status === 'approved')?.n ?? null,
 			versionCount: own.length
 		};

@@ -1,6 +1,11 @@
 import { z } from 'zod';
-import { BATCH_STATES } from '$lib/batches';
+import { BATCH_LINE_KINDS, BATCH_STATES, DEVIATION_KINDS } from '$lib/batches';
+import { QUANTITY_KINDS } from '$lib/inventory';
+import { RECIPE_KINDS } from '$lib/recipes';
+import type { Batch } from '../../db/schema';
+import type { batchView, listBatches } from '../../batches/view';
 import type { ApiOperation } from '../openapi';
+import { describes, isoTime, signatureResponse } from '../shapes';
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Write the date as YYYY-MM-DD');
 
@@ -28,12 +33,165 @@ export const batchCreateRequest = z
 		path: ['recipeId']
 	});
 
+const batchRow = {
+	id: z.string(),
+	number: z.string().describe('the site numbering pattern'),
+	numberYear: z.int(),
+	numberSeq: z.int(),
+	recipeId: z.string(),
+	versionId: z.string(),
+	targetVolumeMl: z.int(),
+	plannedOn: z.string().describe('YYYY-MM-DD'),
+	intendedUse: z.string(),
+	state: z.enum(BATCH_STATES),
+	createdById: z.string(),
+	preparedById: z.string().nullable(),
+	startedAt: isoTime().nullable(),
+	preparedAt: isoTime().nullable(),
+	measuredPh: z.number().nullable(),
+	measuredOsmolality: z.number().nullable().describe('mOsm/kg'),
+	reviewedById: z.string().nullable(),
+	reviewedAt: isoTime().nullable(),
+	reviewNote: z.string(),
+	createdAt: isoTime()
+};
+
+export const batchResponse = describes<Batch>()(z.object(batchRow));
+
+export const batchListResponse = describes<{
+	items: ReturnType<typeof listBatches>;
+	total: number;
+}>()(
+	z.object({
+		items: z.array(
+			z.object({
+				id: z.string(),
+				number: z.string(),
+				state: z.enum(BATCH_STATES),
+				recipeId: z.string(),
+				recipeName: z.string(),
+				versionN: z.int(),
+				targetVolumeMl: z.int(),
+				plannedOn: z.string().describe('YYYY-MM-DD'),
+				intendedUse: z.string(),
+				preparedAt: isoTime().nullable()
+			})
+		),
+		total: z.int()
+	})
+);
+
+const lotChoice = z.object({
+	id: z.string(),
+	code: z.string(),
+	expiresOn: z.string(),
+	dateKind: z.string(),
+	status: z.string(),
+	expired: z.boolean(),
+	assayPercent: z.number().nullable(),
+	waterContentPercent: z.number().nullable(),
+	onHand: z.number().describe("in the lot's base unit: mg by mass, µL by volume"),
+	quantityKind: z.enum(QUANTITY_KINDS),
+	supplier: z.string(),
+	supplierLot: z.string()
+});
+
+export const batchViewResponse = describes<ReturnType<typeof batchView>>()(
+	z.object({
+		batch: z.object({
+			...batchRow,
+			createdByName: z.string().nullable(),
+			preparedByName: z.string().nullable(),
+			reviewedByName: z.string().nullable()
+		}),
+		recipe: z.object({ id: z.string(), name: z.string(), kind: z.enum(RECIPE_KINDS) }),
+		version: z.object({
+			id: z.string(),
+			n: z.int(),
+			targetPh: z.number().nullable(),
+			phRange: z.object({ min: z.number(), max: z.number() }).nullable(),
+			osmolalityMinMOsmPerKg: z.number().nullable(),
+			osmolalityMaxMOsmPerKg: z.number().nullable(),
+			preparationTemperatureC: z.number(),
+			instructions: z.string(),
+			storage: z.string(),
+			shelfLifeDays: z.int().nullable()
+		}),
+		lines: z.array(
+			z.object({
+				id: z.string(),
+				position: z.int(),
+				kind: z.enum(BATCH_LINE_KINDS),
+				name: z.string(),
+				basisName: z.string().nullable(),
+				componentId: z.string().nullable(),
+				formula: z.string().nullable(),
+				amount: z.number(),
+				unit: z.string(),
+				note: z.string(),
+				tolerancePercent: z.number(),
+				quantityUnit: z.enum(['µg', 'µL']),
+				requiredQuantity: z.number().describe('in quantityUnit'),
+				requiredFor: z.enum(['chosen', 'suggested', 'nominal']),
+				requiredText: z.string(),
+				steps: z.array(z.string()),
+				chosen: lotChoice.nullable(),
+				suggestion: lotChoice.nullable(),
+				suggestionNote: z.string().nullable(),
+				actualQuantity: z.number().nullable().describe('in quantityUnit'),
+				actualText: z.string().nullable(),
+				doneAt: isoTime().nullable(),
+				doneById: z.string().nullable(),
+				doneByName: z.string().nullable(),
+				stockSource: z.string(),
+				consumedText: z.string().nullable(),
+				verdict: z.enum(['within', 'below', 'above']).nullable()
+			})
+		),
+		lots: z.array(
+			z.object({
+				position: z.int(),
+				lotId: z.string(),
+				lotCode: z.string(),
+				componentName: z.string(),
+				supplier: z.string(),
+				supplierLot: z.string(),
+				expiresOn: z.string(),
+				lotStatus: z.string(),
+				consumedQuantity: z.number().nullable(),
+				quantityKind: z.enum(QUANTITY_KINDS)
+			})
+		),
+		deviations: z.array(
+			z.object({
+				id: z.string(),
+				lineId: z.string().nullable(),
+				kind: z.enum(DEVIATION_KINDS),
+				detail: z.string(),
+				reason: z.string(),
+				at: isoTime(),
+				by: z.string()
+			})
+		),
+		signatures: z.array(signatureResponse),
+		cautions: z.array(
+			z.object({ code: z.string(), text: z.string(), components: z.array(z.string()) })
+		),
+		completionProblem: z
+			.string()
+			.nullable()
+			.describe('why the batch cannot be completed yet; null once it can, or is'),
+		recordUrl: z.string()
+	})
+);
+
 export const batchesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/batches',
 		summary: 'Batches. Query: state, recipe, from, to (planned date)',
-		act: 'batch.view'
+		act: 'batch.view',
+		response: batchListResponse
 	},
 	{
 		method: 'post',
@@ -42,6 +200,7 @@ export const batchesOperations: ApiOperation[] = [
 			'Plans a batch from an approved recipe version and a volume; the number follows the site pattern',
 		act: 'batch.plan',
 		request: batchCreateRequest,
+		response: batchResponse,
 		successStatus: 201,
 		errors: [404, 409]
 	},
@@ -50,6 +209,7 @@ export const batchesOperations: ApiOperation[] = [
 		path: '/api/v1/batches/{id}',
 		summary:
 			'One batch record: lines with required and actual quantities (µg for masses, µL for stock volumes), lots, deviations, signatures',
-		act: 'batch.view'
+		act: 'batch.view',
+		response: batchViewResponse
 	}
 ];

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { OxygenSaturationResult, SufficiencyResult } from '$chemistry';
+import type { OxygenSaturationResult, StoichiometryResult, SufficiencyResult } from '$chemistry';
 import {
 	AIR_O2_MOLE_FRACTION,
 	AIR_O2_MOLE_FRACTION_SOURCE,
@@ -41,6 +41,16 @@ export const formulaResponse = describes<FormulaAnswer>()(
 	})
 );
 
+const speciesRole = z.enum([
+	'substrate',
+	'nitrogen',
+	'oxygen',
+	'biomass',
+	'carbonDioxide',
+	'water',
+	'product'
+]);
+
 const specification = z.discriminatedUnion('kind', [
 	z.strictObject({
 		kind: z.literal('rate'),
@@ -71,9 +81,7 @@ export const stoichiometryRequest = z.strictObject({
 				id: speciesId,
 				formula: z.string().max(200),
 				ashFraction: finite.min(0).max(0.5).optional(),
-				role: z
-					.enum(['substrate', 'nitrogen', 'oxygen', 'biomass', 'carbonDioxide', 'water', 'product'])
-					.optional()
+				role: speciesRole.optional()
 			})
 		)
 		.min(2)
@@ -85,6 +93,78 @@ export const stoichiometryRequest = z.strictObject({
 	specifications: z.array(specification).max(40),
 	consistencyConfidence: finite.gt(0).lt(1).optional()
 });
+
+const nullableNumber = z.number().nullable();
+const perSpecies = z.record(z.string(), z.number());
+const specificationKind = z.enum(['rate', 'massYield', 'molarRatio']);
+
+export const stoichiometryResponse = describes<StoichiometryResult>()(
+	z.object({
+		elements: z.array(z.string()).describe('the elements balanced'),
+		rates: z
+			.record(z.string(), z.object({ mol: z.number(), g: z.number(), cmol: z.number().nullable() }))
+			.describe('per species: consumed negative, produced positive'),
+		roles: z
+			.record(z.string(), speciesRole.nullable())
+			.describe(
+				'as given, inferred from the formula or from the solved direction; null at zero rate'
+			),
+		molarMasses: perSpecies.describe('g/mol; biomass g per C-mol of dry weight, ash included'),
+		yields: z.object({
+			firstSubstrate: z.string().nullable(),
+			biomassOnSubstrateGPerG: nullableNumber,
+			biomassOnSubstrateCmolPerCmol: nullableNumber,
+			perSubstrate: z.record(
+				z.string(),
+				z.object({
+					biomassGPerG: nullableNumber,
+					biomassCmolPerCmol: nullableNumber,
+					productsGPerG: perSpecies
+				})
+			),
+			biomassOnOxygenGPerG: nullableNumber,
+			oxygenPerBiomassGPerG: nullableNumber,
+			respiratoryQuotient: nullableNumber
+		}),
+		degreesOfReduction: perSpecies.describe(
+			'per C-mol for carbon species, per mole otherwise (C +4, H +1, O −2, N −3, P +5, S +6)'
+		),
+		electronBalance: z.object({
+			terms: perSpecies,
+			sum: z.number(),
+			relativeResidual: z.number(),
+			closes: z.boolean(),
+			availableFromSubstratesMol: z.number(),
+			fractions: perSpecies
+		}),
+		elementResiduals: perSpecies.describe('E·r per element, mol'),
+		degreesOfFreedom: z.int(),
+		redundancy: z.int(),
+		independentSpecifications: z.int(),
+		consistency: z
+			.object({
+				redundancy: z.int(),
+				chiSquare: z.number(),
+				threshold: z.number(),
+				confidence: z.number(),
+				pValue: z.number(),
+				consistent: z.boolean(),
+				deviations: z.array(
+					z.object({
+						index: z.int(),
+						kind: specificationKind,
+						given: z.number(),
+						fitted: z.number(),
+						relativeDeviation: z.number(),
+						relativeError: z.number()
+					})
+				)
+			})
+			.optional()
+			.describe('the χ² test of the specifications; only when they are redundant'),
+		notes: z.array(z.string())
+	})
+);
 
 const oxygenMethod = z.enum(['benson-krause-1984', 'garcia-gordon-1992']);
 
@@ -310,7 +390,8 @@ export const chemistryOperations: ApiOperation[] = [
 		summary:
 			'Solves a black-box growth balance by element balances (C, H, O, N; P, S optional). Consumed rates are negative, produced positive; a molarRatio is |numerator|/|denominator|; biomass grams include ash',
 		act: 'calculation.run',
-		request: stoichiometryRequest
+		request: stoichiometryRequest,
+		response: stoichiometryResponse
 	},
 	{
 		method: 'post',

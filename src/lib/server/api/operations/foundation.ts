@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { ROLES } from '$lib/roles';
 import type { SignedInUser } from '../../guard';
-import type { ApiOperation } from '../openapi';
-import { describes } from '../shapes';
+import type { ApiOperation, buildOpenApiDocument } from '../openapi';
+import { describes, documentsPartOf } from '../shapes';
 
 export const sessionRequest = z.object({
 	email: z.email().max(254),
@@ -23,6 +23,19 @@ export const healthResponse = z.object({
 	database: z.literal('ok'),
 	time: z.string()
 });
+
+/** The document's frame; each operation in it is described by its own entry in these lists. */
+export const openApiResponse = documentsPartOf<ReturnType<typeof buildOpenApiDocument>>()(
+	z
+		.object({
+			openapi: z.string(),
+			info: z.object({ title: z.string(), version: z.string(), description: z.string() }),
+			servers: z.array(z.object({ url: z.string() })),
+			paths: z.record(z.string(), z.record(z.string(), z.unknown())),
+			components: z.record(z.string(), z.unknown())
+		})
+		.loose()
+);
 
 export const foundationOperations: ApiOperation[] = [
 	{
@@ -59,6 +72,7 @@ export const foundationOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/openapi.json',
 		summary: 'This description (OpenAPI 3.1)',
-		act: 'service.describe'
+		act: 'service.describe',
+		response: openApiResponse
 	}
 ];

@@ -1,6 +1,17 @@
 import { z } from 'zod';
-import { DATE_KINDS, LOT_STATUSES, QUANTITY_UNITS } from '$lib/inventory';
+import { BATCH_STATES } from '$lib/batches';
+import {
+	DATE_KINDS,
+	LEDGER_KINDS,
+	LOT_STATUSES,
+	QUANTITY_KINDS,
+	QUANTITY_UNITS
+} from '$lib/inventory';
+import type { Lot } from '../../db/schema';
+import type { LotRow } from '../../inventory/lots';
+import type { lotView } from '../../inventory/view';
 import type { ApiOperation } from '../openapi';
+import { describes, isoTime } from '../shapes';
 
 export const lotListQuery = z.object({
 	component: z.string().max(80).optional().describe('Component id'),
@@ -34,13 +45,128 @@ export const lotCreateRequest = z.object({
 	note: z.string().max(1000).optional()
 });
 
+const isoDay = z.string().describe('YYYY-MM-DD');
+const baseQuantity = (what: string) =>
+	z.number().describe(`${what}, in the lot's base unit: mg by mass, µL by volume (quantityKind)`);
+
+export const lotListResponse = describes<{ items: LotRow[]; total: number }>()(
+	z.object({
+		items: z.array(
+			z.object({
+				id: z.string(),
+				code: z.string(),
+				componentId: z.string(),
+				componentName: z.string(),
+				supplier: z.string(),
+				supplierLot: z.string(),
+				quantityKind: z.enum(QUANTITY_KINDS),
+				receivedQuantity: baseQuantity('As received'),
+				onHand: baseQuantity('The sum of the ledger'),
+				receivedOn: isoDay,
+				expiresOn: isoDay,
+				dateKind: z.string(),
+				storage: z.string(),
+				status: z.enum(LOT_STATUSES),
+				expired: z.boolean(),
+				assayPercent: z.number().nullable(),
+				purityPercent: z.number().nullable(),
+				waterContentPercent: z.number().nullable()
+			})
+		),
+		total: z.int()
+	})
+);
+
+const lotRow = {
+	id: z.string(),
+	code: z.string().describe('the internal lot id on the label'),
+	componentId: z.string(),
+	supplier: z.string(),
+	supplierLot: z.string(),
+	quantityKind: z.enum(QUANTITY_KINDS),
+	receivedQuantity: baseQuantity('As received'),
+	receivedUnit: z.string().describe('the unit it was written in'),
+	receivedOn: isoDay,
+	expiresOn: isoDay.describe('expiry or retest date, as dateKind says'),
+	dateKind: z.enum(DATE_KINDS),
+	storage: z.string(),
+	assayPercent: z.number().nullable(),
+	purityPercent: z.number().nullable(),
+	waterContentPercent: z.number().nullable(),
+	status: z.enum(LOT_STATUSES),
+	statusReason: z.string(),
+	statusChangedAt: isoTime().nullable(),
+	statusChangedById: z.string().nullable(),
+	receivedById: z.string(),
+	note: z.string(),
+	createdAt: isoTime()
+};
+
+export const lotResponse = describes<Lot>()(z.object(lotRow));
+
+export const lotViewResponse = describes<ReturnType<typeof lotView>>()(
+	z.object({
+		lot: z.object({
+			...lotRow,
+			expired: z.boolean(),
+			receivedByName: z.string().nullable(),
+			statusChangedByName: z.string().nullable()
+		}),
+		component: z.object({
+			id: z.string(),
+			name: z.string(),
+			formula: z.string().nullable(),
+			densityGPerMl: z.number().nullable(),
+			ghsHazards: z.array(z.object({ code: z.string(), text: z.string() }))
+		}),
+		onHand: baseQuantity('The sum of the ledger'),
+		ledger: z.array(
+			z.object({
+				id: z.string(),
+				at: isoTime(),
+				kind: z.enum(LEDGER_KINDS),
+				quantity: baseQuantity('Signed: received positive, taken negative'),
+				reason: z.string(),
+				batchId: z.string().nullable(),
+				by: z.string().nullable().describe('e-mail of who recorded it')
+			})
+		),
+		certificates: z.array(
+			z.object({
+				id: z.string(),
+				displayName: z.string(),
+				mediaType: z.string(),
+				sizeBytes: z.int(),
+				uploadedAt: isoTime()
+			})
+		),
+		whereUsed: z.array(
+			z.object({
+				batchId: z.string(),
+				batchNumber: z.string(),
+				state: z.enum(BATCH_STATES),
+				recipeName: z.string(),
+				plannedOn: isoDay,
+				preparedAt: isoTime().nullable(),
+				intendedUse: z.string(),
+				position: z.int(),
+				consumedQuantity: baseQuantity('Taken from the lot')
+					.nullable()
+					.describe('null while the batch is not yet prepared'),
+				quantityKind: z.enum(QUANTITY_KINDS)
+			})
+		)
+	})
+);
+
 export const inventoryOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/lots',
 		summary:
 			'Lots with on-hand (sum of the ledger, base unit mg or µL). Query: component, status, expiringBefore (YYYY-MM-DD), q',
-		act: 'lot.view'
+		act: 'lot.view',
+		response: lotListResponse
 	},
 	{
 		method: 'post',
@@ -49,6 +175,7 @@ export const inventoryOperations: ApiOperation[] = [
 			'Receives a lot into quarantine with its receipt ledger entry. Field problems come back as errors at their field',
 		act: 'lot.receive',
 		request: lotCreateRequest,
+		response: lotResponse,
 		successStatus: 201,
 		errors: [404, 409]
 	},
@@ -56,6 +183,7 @@ export const inventoryOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/lots/{id}',
 		summary: 'One lot with its ledger, certificates and where-used (batches that used it)',
-		act: 'lot.view'
+		act: 'lot.view',
+		response: lotViewResponse
 	}
 ];

@@ -1,8 +1,11 @@
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES, LINE_KINDS, RECIPE_KINDS, VERSION_STATUSES } from '$lib/recipes';
+import type { Component } from '../../db/schema';
 import type { RecipeAnalysis } from '../../recipes/analysis';
+import type { RecipeSummary } from '../../recipes/queries';
+import type { recipeView, versionView } from '../../recipes/view';
 import type { ApiOperation } from '../openapi';
-import { describes } from '../shapes';
+import { describes, isoTime, signatureResponse } from '../shapes';
 
 const numberOrText = z.union([z.number(), z.string().max(40)]);
 
@@ -92,26 +95,188 @@ export const analysisResponse = describes<RecipeAnalysis>()(
 	})
 );
 
+export const recipeListResponse = describes<{
+	items: RecipeSummary[];
+	total: number;
+	page: number;
+	pageSize: number;
+}>()(
+	z.object({
+		items: z.array(
+			z.object({
+				id: z.string(),
+				name: z.string(),
+				kind: z.enum(RECIPE_KINDS),
+				ownerName: z.string(),
+				latest: z.object({ n: z.int(), status: z.enum(VERSION_STATUSES), updatedAt: isoTime() }),
+				approvedN: z.int().nullable().describe('the approved version, if any'),
+				versionCount: z.int()
+			})
+		),
+		total: z.int().describe('recipes matching the query, all pages'),
+		page: z.int(),
+		pageSize: z.int()
+	})
+);
+
+const recipeRow = {
+	id: z.string(),
+	name: z.string(),
+	kind: z.enum(RECIPE_KINDS),
+	ownerId: z.string(),
+	createdAt: isoTime()
+};
+
+export const recipeResponse = describes<ReturnType<typeof recipeView>>()(
+	z.object({
+		recipe: z.object({ ...recipeRow, ownerName: z.string().nullable() }),
+		versions: z.array(
+			z.object({
+				id: z.string(),
+				n: z.int(),
+				status: z.enum(VERSION_STATUSES),
+				authorId: z.string(),
+				authorName: z.string(),
+				approvedByName: z.string().nullable(),
+				createdAt: isoTime(),
+				updatedAt: isoTime(),
+				submittedAt: isoTime().nullable(),
+				approvedAt: isoTime().nullable(),
+				retiredAt: isoTime().nullable(),
+				basedOnVersionId: z.string().nullable(),
+				changeNote: z.string()
+			})
+		)
+	})
+);
+
+type VersionView = ReturnType<typeof versionView>;
+
+export const versionResponse = describes<
+	Omit<VersionView, 'analysis'> & { composition: VersionView['analysis'] }
+>()(
+	z.object({
+		recipe: z.object(recipeRow),
+		version: z.object({
+			id: z.string(),
+			recipeId: z.string(),
+			n: z.int(),
+			status: z.enum(VERSION_STATUSES),
+			authorId: z.string(),
+			authorName: z.string().nullable(),
+			basedOnVersionId: z.string().nullable(),
+			targetPh: z.number().nullable(),
+			osmolalityMinMOsmPerKg: z.number().nullable(),
+			osmolalityMaxMOsmPerKg: z.number().nullable(),
+			preparationTemperatureC: z.number(),
+			shelfLifeDays: z.int().nullable(),
+			storage: z.string(),
+			instructions: z.string(),
+			changeNote: z.string(),
+			revision: z.int(),
+			updatedById: z.string().nullable(),
+			createdAt: isoTime(),
+			updatedAt: isoTime(),
+			submittedAt: isoTime().nullable(),
+			approvedAt: isoTime().nullable(),
+			approvedById: z.string().nullable(),
+			approvedByName: z.string().nullable(),
+			retiredAt: isoTime().nullable()
+		}),
+		lines: z.array(
+			z.object({
+				id: z.string(),
+				position: z.int(),
+				kind: z.enum(LINE_KINDS),
+				componentId: z.string().nullable(),
+				componentName: z.string().nullable(),
+				formula: z.string().nullable(),
+				shelfFormId: z.string().nullable(),
+				shelfFormName: z.string().nullable(),
+				stockRecipeId: z.string().nullable(),
+				stockRecipeName: z.string().nullable(),
+				stockVersionN: z.int().nullable(),
+				amount: z.number(),
+				unit: z.string(),
+				tolerancePercent: z.number(),
+				note: z.string()
+			})
+		),
+		composition: analysisResponse
+			.nullable()
+			.describe('null when the version cannot be analysed; analysisError says why'),
+		analysisError: z.string().nullable(),
+		signatures: z.array(signatureResponse)
+	})
+);
+
+export const componentListResponse = describes<{ items: Component[]; total: number }>()(
+	z.object({
+		items: z.array(
+			z.object({
+				id: z.string(),
+				name: z.string(),
+				category: z.string(),
+				formula: z.string().nullable(),
+				molarMassGPerMol: z.number().nullable(),
+				casNumber: z.string().nullable(),
+				elementalMassFractions: z
+					.record(z.string(), z.number())
+					.nullable()
+					.describe('complex materials: g element per g'),
+				fractionsNote: z.string().nullable(),
+				ions: z
+					.array(z.object({ ion: z.string(), count: z.number(), charge: z.number() }))
+					.nullable(),
+				osmoticCoefficient: z.number().nullable(),
+				osmoticCoefficientSource: z.string().nullable(),
+				solubility: z
+					.object({
+						points: z.array(z.object({ temperatureC: z.number(), gPerL: z.number() })),
+						basisFormula: z.string().nullable().optional(),
+						source: z.string().nullable().optional()
+					})
+					.nullable(),
+				ghsHazards: z.array(z.object({ code: z.string(), text: z.string() })),
+				hazardSource: z.string().nullable(),
+				storage: z.string(),
+				basisComponentId: z.string().nullable(),
+				synonyms: z.array(z.string()),
+				fromReference: z.boolean(),
+				reorderLevelG: z.number().nullable(),
+				densityGPerMl: z.number().nullable(),
+				revision: z.int(),
+				createdAt: isoTime(),
+				updatedAt: isoTime()
+			})
+		),
+		total: z.int()
+	})
+);
+
 export const recipesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/recipes',
 		summary:
 			'Lists recipes. Query: kind, status (has a version in it), component (id; has a version containing it), q (name contains), page, pageSize',
-		act: 'recipe.view'
+		act: 'recipe.view',
+		response: recipeListResponse
 	},
 	{
 		method: 'get',
 		path: '/api/v1/recipes/{id}',
 		summary: 'One recipe with its versions',
-		act: 'recipe.view'
+		act: 'recipe.view',
+		response: recipeResponse
 	},
 	{
 		method: 'get',
 		path: '/api/v1/recipes/{id}/versions/{n}',
 		summary:
 			'One version with its lines, composition (elements, osmolality, warnings) and signatures',
-		act: 'recipe.view'
+		act: 'recipe.view',
+		response: versionResponse
 	},
 	{
 		method: 'post',
@@ -126,6 +291,7 @@ export const recipesOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/components',
 		summary: 'The component library. Query: category, q (name, formula or CAS contains)',
-		act: 'component.view'
+		act: 'component.view',
+		response: componentListResponse
 	}
 ];

@@ -1,7 +1,10 @@
 import { z } from 'zod';
-import type { StudyReport } from '$chemistry';
+import { PRECIPITATION_RULES, TARGET_BASES, type FeedDesign, type StudyReport } from '$chemistry';
+import { VERSION_STATUSES } from '$lib/recipes';
+import type { SavedFeedDraft } from '../../studies/feed-drafts';
+import type { listStudies } from '../../studies/queries';
 import type { ApiOperation } from '../openapi';
-import { documentsPartOf } from '../shapes';
+import { describes, documentsPartOf, isoTime } from '../shapes';
 import { sufficiencyLineResponse } from './chemistry';
 
 const finite = z.number({ error: 'Give a number.' });
@@ -100,12 +103,108 @@ export const feedDesignDraftsRequest = feedDesignRequest.extend({
 		.describe('One recipe name per proposed feed, in the order of the proposal')
 });
 
+const versionRef = z.object({
+	id: z.string(),
+	recipeId: z.string(),
+	recipeName: z.string(),
+	recipeKind: z.string(),
+	n: z.int(),
+	status: z.enum(VERSION_STATUSES),
+	superseded: z
+		.boolean()
+		.describe('a later version of the same recipe is approved, or this one is retired'),
+	supersededBy: z.int().nullable()
+});
+
+export const studyListResponse = describes<{ studies: ReturnType<typeof listStudies> }>()(
+	z.object({
+		studies: z.array(
+			z.object({
+				id: z.string(),
+				name: z.string(),
+				targetBasis: z.enum(TARGET_BASES),
+				targetValue: z.number().describe('g/L dry biomass or cells/mL, as targetBasis'),
+				basalVersionId: z.string(),
+				profileName: z.string(),
+				vesselName: z.string(),
+				createdByName: z.string(),
+				updatedAt: isoTime(),
+				basal: versionRef,
+				feeds: z.array(versionRef.extend({ volumeL: z.number() }))
+			})
+		)
+	})
+);
+
+export const feedDesignResponse = describes<FeedDesign>()(
+	z.object({
+		feasible: z.boolean(),
+		feedVolumeL: z.number(),
+		maxFeedVolumeL: z.number().describe('room left in the vessel for feed'),
+		temperatureC: z.number(),
+		osmolalityMaxMOsmPerKg: z.number(),
+		dissolvedSolidsMaxGPerL: z.number(),
+		feeds: z.array(
+			z.object({
+				key: z.enum(['single', 'cations', 'anions']),
+				label: z.string(),
+				description: z.string(),
+				volumeL: z.number(),
+				lines: z.array(
+					z.object({
+						componentId: z.string(),
+						name: z.string(),
+						gPerL: z.number(),
+						massG: z.number(),
+						solubilityGPerL: z.number().nullable(),
+						atSolubilityLimit: z.boolean()
+					})
+				),
+				osmolalityMOsmPerKg: z.number(),
+				dissolvedSolidsGPerL: z.number(),
+				warnings: z.array(
+					z.object({
+						kind: z.enum(['solubility', 'precipitation']),
+						basis: z.enum(['published value', 'common practice']),
+						message: z.string(),
+						precipitate: z.enum(PRECIPITATION_RULES.map((rule) => rule.product)).optional()
+					})
+				)
+			})
+		),
+		split: z
+			.object({ precipitates: z.array(z.string()), warnings: z.array(z.string()) })
+			.nullable()
+			.describe('why one feed would not do'),
+		coverage: z.array(
+			z.object({
+				key: z.string(),
+				name: z.string(),
+				neededG: z.number(),
+				providedG: z.number(),
+				coveredByBasal: z.boolean()
+			})
+		),
+		problems: z.array(z.string()).describe('why it cannot be done; empty when feasible'),
+		notes: z.array(z.string()),
+		minimumFeedVolumeL: z.number().nullable(),
+		limitsSource: z.string().nullable().describe('where the default limits come from')
+	})
+);
+
+export const feedDraftsResponse = describes<{ drafts: SavedFeedDraft[] }>()(
+	z.object({
+		drafts: z.array(z.object({ recipeId: z.string(), name: z.string(), editUrl: z.string() }))
+	})
+);
+
 export const studiesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/studies',
 		summary: 'Lists saved studies with the recipe versions they use and whether any is superseded',
-		act: 'study.use'
+		act: 'study.use',
+		response: studyListResponse
 	},
 	{
 		method: 'post',
@@ -124,6 +223,7 @@ export const studiesOperations: ApiOperation[] = [
 			"Proposes a feed concentrate (g/L per component) that covers every nutrient at the study's target and safety factor within solubility and vessel volume, or says why it cannot",
 		act: 'study.use',
 		request: feedDesignRequest,
+		response: feedDesignResponse,
 		errors: [422]
 	},
 	{
@@ -133,6 +233,7 @@ export const studiesOperations: ApiOperation[] = [
 			"Designs the feed(s) again from the same request and saves each proposed feed as a new feed recipe whose version 1 draft holds its lines, with the recipe editor's checks and audit; answers the drafts and their editor links",
 		act: 'study.save-feed-drafts',
 		request: feedDesignDraftsRequest,
+		response: feedDraftsResponse,
 		successStatus: 201,
 		errors: [422]
 	}
