@@ -76,7 +76,8 @@ export interface StudyFeedPlan extends FeedPlan {
 	volumeL: number;
 }
 
-export const studySchema = z.object({
+/** The study's own stored fields; the feed slots are stored as `study_feed` rows. */
+const studyFieldsShape = {
 	name: requiredText('Name'),
 	basalVersionId: requiredText('Basal recipe version'),
 	profileId: requiredText('Organism profile'),
@@ -103,9 +104,19 @@ export const studySchema = z.object({
 		...HEAT_PER_MOL_O2_RANGE_KJ,
 		unit: 'kJ/mol'
 	}),
-	notes: optionalText(),
-	...feedSlots
-});
+	notes: optionalText()
+};
+
+export const studySchema = z.object({ ...studyFieldsShape, ...feedSlots });
+
+const STUDY_FIELD_KEYS = Object.keys(studyFieldsShape) as (keyof typeof studyFieldsShape)[];
+
+/** The columns of `study` a form sets, without its feed slots. */
+export function studyFieldsOf(form: StudyForm) {
+	return Object.fromEntries(STUDY_FIELD_KEYS.map((key) => [key, form[key]])) as {
+		[K in keyof typeof studyFieldsShape]: StudyForm[K];
+	};
+}
 
 export type StudyForm = z.infer<typeof studySchema> &
 	Partial<Record<`feed${number}${SlotField}`, string | number | null>>;

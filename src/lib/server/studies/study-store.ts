@@ -5,7 +5,7 @@ import { organismProfile, recipe, recipeVersion, study, studyFeed, vessel } from
 import { RuleError } from '../rule-error';
 import { evaluateStudy } from './evaluate';
 import { loadStudyInputs } from './queries';
-import { feedsOfForm, type StudyForm } from './study-form';
+import { feedsOfForm, studyFieldsOf, type StudyForm } from './study-form';
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
@@ -70,45 +70,6 @@ function requireEvaluable(studyId: string, tx: Tx) {
 	}
 }
 
-function valuesOf(form: StudyForm) {
-	const {
-		name,
-		basalVersionId,
-		profileId,
-		vesselId,
-		targetBasis,
-		targetValue,
-		initialVolumeL,
-		inoculumDensity,
-		durationH,
-		temperatureC,
-		pressureKPa,
-		o2MoleFraction,
-		doSetpointPercent,
-		safetyFactor,
-		heatPerMolO2KJ,
-		notes
-	} = form;
-	return {
-		name,
-		basalVersionId,
-		profileId,
-		vesselId,
-		targetBasis,
-		targetValue,
-		initialVolumeL,
-		inoculumDensity,
-		durationH,
-		temperatureC,
-		pressureKPa,
-		o2MoleFraction,
-		doSetpointPercent,
-		safetyFactor,
-		heatPerMolO2KJ,
-		notes
-	};
-}
-
 function nameTaken(name: string, exceptId: string | null, tx: Tx) {
 	const other = tx.select({ id: study.id }).from(study).where(eq(study.name, name)).get();
 	return other && other.id !== exceptId;
@@ -134,7 +95,7 @@ export function createStudy(actor: Actor & { id: string }, form: StudyForm): str
 			});
 		const id = crypto.randomUUID();
 		tx.insert(study)
-			.values({ id, ...valuesOf(form), createdById: actor.id })
+			.values({ id, ...studyFieldsOf(form), createdById: actor.id })
 			.run();
 		insertFeeds(id, feeds, tx);
 		requireEvaluable(id, tx);
@@ -164,7 +125,7 @@ export function updateStudy(actor: Actor, id: string, revision: number, form: St
 				status: 409
 			});
 		tx.update(study)
-			.set({ ...valuesOf(form), revision: revision + 1, updatedAt: new Date() })
+			.set({ ...studyFieldsOf(form), revision: revision + 1, updatedAt: new Date() })
 			.where(eq(study.id, id))
 			.run();
 		tx.delete(studyFeed).where(eq(studyFeed.studyId, id)).run();
@@ -208,7 +169,7 @@ export function studyFormValues(id: string): Record<string, string> | undefined 
 		.all()
 		.sort((a, b) => a.position - b.position);
 	const values: Record<string, string> = {};
-	for (const [k, v] of Object.entries(valuesOf(row as unknown as StudyForm)))
+	for (const [k, v] of Object.entries(studyFieldsOf(row as unknown as StudyForm)))
 		values[k] = v === null || v === undefined ? '' : String(v);
 	const text = (v: string | number | null) => (v === null ? '' : String(v));
 	feeds.forEach((f, i) => {
