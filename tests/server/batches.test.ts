@@ -3,6 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { checkBatchInput, createBatch } from '$lib/server/batches/create';
 import { completeBatch } from '$lib/server/batches/completion';
+import { auditEventsFor } from '$lib/server/audit';
 import { requireBatch } from '$lib/server/batches/execution';
 import { recordLine } from '$lib/server/batches/line-record';
 import { chooseLot, lotFromScan } from '$lib/server/batches/lot-choice';
@@ -148,6 +149,24 @@ describe('the lot check at the bench', () => {
 		expect(refusal('NOT-A-LOT')).toBe(
 			'“NOT-A-LOT” is not a lot known here. Scan the label of a lot, or type its lot id (like L-2026-0001).'
 		);
+		// Each refusal is in the trail, though the refused choice itself was rolled back.
+		const refused = auditEventsFor('batch', b.id).filter((e) => e.action === 'batch.lot_refused');
+		expect(refused.map((e) => [e.detail?.lot, e.actorId]).sort()).toEqual(
+			[
+				[wrong.code, tech.id],
+				[held.code, tech.id],
+				[expired.code, tech.id],
+				[tiny.code, tech.id],
+				[null, tech.id]
+			].sort()
+		);
+		expect(refused.find((e) => e.detail?.lot === null)?.detail).toMatchObject({
+			line: line.position,
+			scanned: 'NOT-A-LOT'
+		});
+		expect(refused.find((e) => e.detail?.lot === held.code)?.detail?.reason).toBe(
+			`Lot ${held.code} is in quarantine, not released for use.`
+		);
 		expect(
 			chooseLot(tech, b.id, line.id, `https://elsewhere.test/lots/${later.code}`)
 		).toMatchObject({ lotCode: later.code, repeated: false });
@@ -240,6 +259,11 @@ describe('weighing, completion and review', () => {
 				reason: ''
 			})
 		).rejects.toThrow('You prepared this batch, so someone else must review it.');
+		expect(
+			auditEventsFor('batch', b2.id)
+				.filter((e) => e.action === 'signature.refused')
+				.map((e) => [e.actorId, e.detail?.meaning, e.detail?.reason])
+		).toEqual([[both.id, 'released', 'You prepared this batch, so someone else must review it.']]);
 		const scientist = await makeUser(['media_scientist']);
 		await expect(
 			reviewBatch({ ...scientist, roles: rolesOf(scientist.id) }, b2.id, {

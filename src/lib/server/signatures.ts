@@ -29,6 +29,27 @@ export function digestOf(content: unknown): string {
 }
 
 /**
+ * A signature refused before it was tried (wrong person, wrong role): the refusal is written to the
+ * trail in its own write, with what was tried and why, and the error to throw is returned.
+ */
+export function refusedSignature(
+	signer: { id: string; email: string; address?: string | null },
+	attempt: { subjectType: string; subjectId: string; meaning: string; detail?: object },
+	reason: string
+): RuleError {
+	recordAudit(
+		{ id: signer.id, email: signer.email, address: signer.address ?? null },
+		{
+			action: 'signature.refused',
+			subjectType: attempt.subjectType,
+			subjectId: attempt.subjectId,
+			detail: { ...attempt.detail, meaning: attempt.meaning, reason }
+		}
+	);
+	return new RuleError(reason, { status: 403 });
+}
+
+/**
  * Checks the re-entered password (argon2) and, if right, opens one transaction that records the
  * signature and runs `write` — the change the signature authorises — so neither exists without the
  * other. A wrong password records nothing but an audit entry, and answers with a field error.

@@ -80,17 +80,10 @@ function requireLineForLot(line: BatchLine): void {
 		});
 }
 
-function requireScannedLot(scanned: string, reader: Reader): Lot {
-	const found = lotFromScan(scanned, reader);
-	if (!found) {
-		throw new RuleError(
-			scanned.trim()
-				? `“${scanned.trim()}” is not a lot known here. Scan the label of a lot, or type its lot id (like L-2026-0001).`
-				: 'Scan or type a lot id.',
-			{ field: 'scan' }
-		);
-	}
-	return found;
+function unknownLotMessage(scanned: string): string {
+	return scanned.trim()
+		? `“${scanned.trim()}” is not a lot known here. Scan the label of a lot, or type its lot id (like L-2026-0001).`
+		: 'Scan or type a lot id.';
 }
 
 /** What the line needs from this lot, in the lot's units and in µg (zero for a lot of another component). */
@@ -121,32 +114,25 @@ function lotRequirement(
 	return { need: requirement.inLotUnits ?? 0, requiredUg: requirement.requiredUg };
 }
 
-/** A refused scan is audited, then answered with the reason. */
-function refuseLot(
-	actor: Technician,
-	tx: Pick<Db, 'insert'>,
-	b: Batch,
-	line: BatchLine,
-	scanned: string,
-	found: Lot,
-	refusal: string
-): never {
-	recordAudit(
-		actor,
-		{
-			action: 'batch.lot_refused',
-			subjectType: 'batch',
-			subjectId: b.id,
-			detail: {
-				line: line.position,
-				scanned: scanned.trim().slice(0, 200),
-				lot: found.code,
-				reason: refusal
-			}
-		},
-		tx
-	);
-	throw new RuleError(refusal, { field: 'scan', status: 422 });
+/** A refused scan: what was tried and why, written to the trail after the refused work rolls back. */
+class ScanRefused extends RuleError {
+	constructor(
+		message: string,
+		readonly batchId: string,
+		readonly detail: { line: number; scanned: string; lot: string | null; reason: string },
+		status: RuleError['status'] = 422
+	) {
+		super(message, { field: 'scan', status });
+	}
+}
+
+function refuseScan(b: Batch, line: BatchLine, scanned: string, found: Lot | null, reason: string) {
+	return new ScanRefused(reason, b.id, {
+		line: line.position,
+		scanned: scanned.trim().slice(0, 200),
+		lot: found?.code ?? null,
+		reason
+	});
 }
 
 /** The technician scans a lot label for a line. A repeat scan of the same lot changes nothing. */
@@ -157,12 +143,35 @@ export function chooseLot(
 	scanned: string,
 	today = isoToday()
 ): { lotCode: string; requiredText: string; repeated: boolean } {
+	try {
+		return recordLotChoice(actor, batchId, lineId, scanned, today);
+	} catch (error) {
+		if (error instanceof ScanRefused) {
+			recordAudit(actor, {
+				action: 'batch.lot_refused',
+				subjectType: 'batch',
+				subjectId: error.batchId,
+				detail: error.detail
+			});
+		}
+		throw error;
+	}
+}
+
+function recordLotChoice(
+	actor: Technician,
+	batchId: string,
+	lineId: string,
+	scanned: string,
+	today: string
+): { lotCode: string; requiredText: string; repeated: boolean } {
 	return db.transaction((tx) => {
 		const b = requireBatch(batchId, tx);
 		requireOpen(b);
 		const line = requireLine(b, lineId, tx);
 		requireLineForLot(line);
-		const found = requireScannedLot(scanned, tx);
+		const found = lotFromScan(scanned, tx);
+		if (!found) throw refuseScan(b, line, scanned, null, unknownLotMessage(scanned));
 		if (line.lotId === found.id) {
 			return {
 				lotCode: found.code,
@@ -179,7 +188,7 @@ export function chooseLot(
 			onHandOf(found.id, tx),
 			today
 		);
-		if (refusal) refuseLot(actor, tx, b, line, scanned, found, refusal);
+		if (refusal) throw refuseScan(b, line, scanned, found, refusal);
 		markStarted(tx, actor, b);
 		tx.update(batchLine)
 			.set({ lotId: found.id, requiredUg })

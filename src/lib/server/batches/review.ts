@@ -6,7 +6,7 @@ import { recordAudit } from '../audit';
 import { db } from '../db';
 import { batch, batchLine, type Batch } from '../db/schema';
 import { RuleError } from '../rule-error';
-import { signRecord } from '../signatures';
+import { refusedSignature, signRecord } from '../signatures';
 import { batchDigest } from './completion';
 import { requireBatch } from './execution';
 
@@ -41,7 +41,18 @@ export async function reviewBatch(
 			{ status: 409 }
 		);
 	const refusal = reviewRefusal(reviewer, b);
-	if (refusal) throw new RuleError(refusal, { status: 403 });
+	if (refusal) {
+		throw refusedSignature(
+			reviewer,
+			{
+				subjectType: 'batch',
+				subjectId: b.id,
+				meaning: input.decision,
+				detail: { number: b.number }
+			},
+			refusal
+		);
+	}
 	if (input.decision !== 'released' && input.decision !== 'rejected')
 		throw new RuleError('Choose: release for use, or reject.', { field: 'decision' });
 	const reason = input.reason.trim();

@@ -1,6 +1,8 @@
+import { sql } from 'drizzle-orm';
 import {
 	index,
 	integer,
+	primaryKey,
 	real,
 	sqliteTable,
 	text,
@@ -157,6 +159,27 @@ export const eSignature = sqliteTable(
 			.$defaultFn(() => new Date())
 	},
 	(t) => [index('e_signature_subject_idx').on(t.subjectType, t.subjectId)]
+);
+
+/**
+ * Everyone who changed a version, by any route: filled by triggers on `recipe_version` (its author
+ * at creation, whoever bumps its revision), so no code path can leave an editor out. A trigger on
+ * `e_signature` refuses a signature on a version from anyone listed here.
+ */
+export const recipeVersionEditor = sqliteTable(
+	'recipe_version_editor',
+	{
+		versionId: text('version_id')
+			.notNull()
+			.references(() => recipeVersion.id),
+		userId: text('user_id')
+			.notNull()
+			.references(() => user.id),
+		firstAt: integer('first_at', { mode: 'timestamp_ms' })
+			.notNull()
+			.default(sql`(unixepoch() * 1000)`)
+	},
+	(t) => [primaryKey({ columns: [t.versionId, t.userId] })]
 );
 
 export type Component = typeof component.$inferSelect;

@@ -7,6 +7,7 @@ import {
 	recipe,
 	recipeLine,
 	recipeVersion,
+	recipeVersionEditor,
 	user,
 	type Recipe,
 	type RecipeLine,
@@ -177,6 +178,16 @@ export function findVersion(
 
 export function findVersionById(id: string, reader: Reader = db): RecipeVersion | undefined {
 	return reader.select().from(recipeVersion).where(eq(recipeVersion.id, id)).get();
+}
+
+/** Everyone who changed the version by any route (kept by the database, see recipe_version_editor). */
+export function editorIdsOf(versionId: string, reader: Reader = db): string[] {
+	return reader
+		.select({ userId: recipeVersionEditor.userId })
+		.from(recipeVersionEditor)
+		.where(eq(recipeVersionEditor.versionId, versionId))
+		.all()
+		.map((row) => row.userId);
 }
 
 export function currentApprovedVersion(

@@ -2,14 +2,20 @@ import { and, eq } from 'drizzle-orm';
 import { may } from '$lib/permissions';
 import type { Role } from '$lib/roles';
 import { SIGNATURE_MEANINGS, type SignatureMeaning } from '$lib/recipes';
-import { auditEventsFor, recordAudit, type Actor } from '../audit';
+import { recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { recipeLine, recipeVersion, type RecipeVersion } from '../db/schema';
 import { RuleError } from '../rule-error';
-import { digestOf, signRecord } from '../signatures';
+import { digestOf, refusedSignature, signRecord } from '../signatures';
 import { analyseVersion } from './analysis';
 import { fieldsOf } from './drafts';
-import { currentApprovedVersion, findRecipe, findVersionById, linesOf } from './queries';
+import {
+	currentApprovedVersion,
+	editorIdsOf,
+	findRecipe,
+	findVersionById,
+	linesOf
+} from './queries';
 
 function requireVersion(id: string): RecipeVersion {
 	const version = findVersionById(id);
@@ -143,10 +149,7 @@ export function signingRefusal(
 		return 'Review and approval need the role Media scientist or Process engineer.';
 	if (version.authorId === signer.id)
 		return 'You wrote this version, so someone else must review and approve it.';
-	const edited = auditEventsFor('recipe_version', version.id).some(
-		(e) => e.action === 'recipe.draft_saved' && e.actorId === signer.id
-	);
-	if (edited)
+	if (editorIdsOf(version.id).includes(signer.id))
 		return 'You edited this version, so someone who did not write it must review and approve it.';
 	return null;
 }
@@ -206,7 +209,18 @@ export async function signVersion(
 	const version = requireVersion(versionId);
 	requireStatus(version, 'in_review', input.meaning === 'approved' ? 'approved' : 'signed');
 	const refusal = signingRefusal(signer, version);
-	if (refusal) throw new RuleError(refusal, { status: 403 });
+	if (refusal) {
+		throw refusedSignature(
+			signer,
+			{
+				subjectType: 'recipe_version',
+				subjectId: versionId,
+				meaning: input.meaning,
+				detail: { n: version.n }
+			},
+			refusal
+		);
+	}
 	if (!(SIGNATURE_MEANINGS as readonly string[]).includes(input.meaning)) {
 		throw new RuleError('Choose what your signature means: reviewed or approved.', {
 			field: 'meaning'
