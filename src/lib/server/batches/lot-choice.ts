@@ -4,7 +4,7 @@ import { formatQuantity, isoToday, lotUnusability } from '$lib/inventory';
 import { batchVolumeL } from '$lib/quantities';
 import { recordAudit } from '../audit';
 import { findComponent } from '../components/library';
-import { db, type Db } from '../db';
+import { db } from '../db';
 import { batchLine, recipeLine, type Batch, type BatchLine, type Lot } from '../db/schema';
 import { onHandOf } from '../inventory/ledger';
 import { findLot, findLotByCode } from '../inventory/lots';
