@@ -1,6 +1,7 @@
 import { and, count, desc, eq, gte, like, lte, type SQL } from 'drizzle-orm';
 import { db, type Db } from './db';
 import { auditEvent } from './db/schema';
+import { nextLink } from './trail/chain';
 
 export interface Actor {
 	id: string | null;
@@ -17,19 +18,33 @@ export interface AuditEntry {
 
 type Writer = Pick<Db, 'insert'>;
 
-/** Appends one event; pass the transaction when the event belongs to a larger write. */
+/** Appends one event, chained to the one before; pass the transaction when it belongs to a larger write. */
 export function recordAudit(actor: Actor, entry: AuditEntry, writer: Writer = db): void {
+	const values = {
+		id: crypto.randomUUID(),
+		at: new Date(),
+		actorId: actor.id,
+		actorEmail: actor.email,
+		address: actor.address ?? null,
+		action: entry.action,
+		subjectType: entry.subjectType ?? null,
+		subjectId: entry.subjectId ?? null,
+		detail: entry.detail ?? null
+	};
+	const stored = {
+		id: values.id,
+		at: values.at.getTime(),
+		actor_id: values.actorId,
+		actor_email: values.actorEmail,
+		action: values.action,
+		subject_type: values.subjectType,
+		subject_id: values.subjectId,
+		detail: values.detail === null ? null : JSON.stringify(values.detail),
+		address: values.address
+	};
 	writer
 		.insert(auditEvent)
-		.values({
-			actorId: actor.id,
-			actorEmail: actor.email,
-			address: actor.address ?? null,
-			action: entry.action,
-			subjectType: entry.subjectType ?? null,
-			subjectId: entry.subjectId ?? null,
-			detail: entry.detail ?? null
-		})
+		.values({ ...values, ...nextLink(db.$client, 'audit_event', stored) })
 		.run();
 }
 

@@ -5,6 +5,7 @@ import { verifyPassword } from './auth/passwords';
 import { db, type Db } from './db';
 import { eSignature, user, type ESignature } from './db/schema';
 import { RuleError } from './rule-error';
+import { nextLink } from './trail/chain';
 
 export interface SignatureRequest {
 	user: { id: string; email: string };
@@ -110,10 +111,33 @@ export async function signRecord<T>(
 
 /** The bare insert, for seeding history; normal signing goes through `signRecord`. */
 export function insertSignature(
-	values: typeof eSignature.$inferInsert,
+	given: Omit<typeof eSignature.$inferInsert, 'seq' | 'prevHash' | 'rowHash'>,
 	writer: Writer = db
 ): ESignature {
-	return writer.insert(eSignature).values(values).returning().get();
+	const values = {
+		...given,
+		id: given.id ?? crypto.randomUUID(),
+		comment: given.comment ?? '',
+		subjectDigest: given.subjectDigest ?? null,
+		signedAt: given.signedAt ?? new Date()
+	};
+	const stored = {
+		id: values.id,
+		signer_id: values.signerId,
+		signer_email: values.signerEmail,
+		signer_name: values.signerName,
+		meaning: values.meaning,
+		subject_type: values.subjectType,
+		subject_id: values.subjectId,
+		subject_digest: values.subjectDigest,
+		comment: values.comment,
+		signed_at: values.signedAt.getTime()
+	};
+	return writer
+		.insert(eSignature)
+		.values({ ...values, ...nextLink(db.$client, 'e_signature', stored) })
+		.returning()
+		.get();
 }
 
 export function signaturesFor(subjectType: string, subjectIds: string[]): ESignature[] {

@@ -58,5 +58,11 @@ export const signatureResponse = z.object({
 	subjectId: z.string(),
 	subjectDigest: z.string().nullable().describe('SHA-256 of the signed content'),
 	comment: z.string(),
-	signedAt: isoTime()
+	signedAt: isoTime(),
+	seq: z.number().nullable().describe('place in the chain of signatures'),
+	prevHash: z.string().nullable().describe('row hash of the signature before it in the chain'),
+	rowHash: z
+		.string()
+		.nullable()
+		.describe('SHA-256 of this signature with its place and the previous hash (tamper evidence)')
 });

@@ -5,8 +5,10 @@ import { existsSync, mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { config } from '../config';
 import * as schema from './schema';
+import { sealUnchainedRows } from '../trail/chain';
 
-export type Db = BetterSQLite3Database<typeof schema>;
+/** Drizzle over better-sqlite3; `$client` is the driver's handle, for the few raw reads. */
+export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
 /** Opens (creating if needed) the SQLite file and applies every committed migration. */
 export function openDatabase(path: string, migrationsFolder = config.migrationsFolder): Db {
@@ -24,6 +26,7 @@ export function openDatabase(path: string, migrationsFolder = config.migrationsF
 	sqlite.pragma('busy_timeout = 5000');
 	const db = drizzle(sqlite, { schema });
 	migrate(db, { migrationsFolder });
+	sealUnchainedRows(sqlite);
 	return db;
 }
 

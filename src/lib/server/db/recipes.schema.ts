@@ -12,7 +12,7 @@ import {
 import type { GhsHazard, IonSpec, SolubilitySpec } from '$chemistry';
 import type { LineKind, RecipeKind, VersionStatus } from '$lib/recipes';
 import { user } from './schema';
-import { createdAt, id } from './columns';
+import { chainColumns, createdAt, id } from './columns';
 
 /** The component library: the reference data loaded at start, plus what people add. */
 export const component = sqliteTable(
@@ -156,9 +156,14 @@ export const eSignature = sqliteTable(
 		comment: text('comment').notNull().default(''),
 		signedAt: integer('signed_at', { mode: 'timestamp_ms' })
 			.notNull()
-			.$defaultFn(() => new Date())
+			.$defaultFn(() => new Date()),
+		...chainColumns()
 	},
-	(t) => [index('e_signature_subject_idx').on(t.subjectType, t.subjectId)]
+	(t) => [
+		index('e_signature_subject_idx').on(t.subjectType, t.subjectId),
+		uniqueIndex('e_signature_seq_idx').on(t.seq),
+		uniqueIndex('e_signature_prev_hash_idx').on(t.prevHash)
+	]
 );
 
 /**

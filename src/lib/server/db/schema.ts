@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
-import { index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import type { Role } from '$lib/roles';
-import { createdAt, id } from './columns';
+import { chainColumns, createdAt, id } from './columns';
 
 export const user = sqliteTable('user', {
 	id: id(),
@@ -78,7 +78,10 @@ export const signInAttempt = sqliteTable(
 	]
 );
 
-/** Append-only: triggers in a migration refuse UPDATE and DELETE. */
+/**
+ * Append-only: triggers in a migration refuse UPDATE and DELETE. Each row is chained to the one
+ * before it (see src/lib/server/trail/chain.ts).
+ */
 export const auditEvent = sqliteTable(
 	'audit_event',
 	{
@@ -92,9 +95,15 @@ export const auditEvent = sqliteTable(
 		subjectType: text('subject_type'),
 		subjectId: text('subject_id'),
 		detail: text('detail', { mode: 'json' }).$type<Record<string, unknown>>(),
-		address: text('address')
+		address: text('address'),
+		...chainColumns()
 	},
-	(t) => [index('audit_at_idx').on(t.at), index('audit_action_idx').on(t.action)]
+	(t) => [
+		index('audit_at_idx').on(t.at),
+		index('audit_action_idx').on(t.action),
+		uniqueIndex('audit_seq_idx').on(t.seq),
+		uniqueIndex('audit_prev_hash_idx').on(t.prevHash)
+	]
 );
 
 /** What the stand-in SMTP server received. */
