@@ -11,6 +11,7 @@ import { saveDraft, startDraftFrom } from '$lib/server/recipes/drafts';
 import { editorIdsOf, findVersionById } from '$lib/server/recipes/queries';
 import { signVersion, submitForReview } from '$lib/server/recipes/workflow';
 import { RuleError } from '$lib/server/rule-error';
+import { nextLink } from '$lib/server/trail/chain';
 import { makeUser } from './helpers';
 import { draftRecipe, EMPTY_FIELDS, line } from './recipes-fixtures';
 
@@ -95,18 +96,34 @@ describe('separation of duties is held by the data', () => {
 
 	it('the database refuses a signature row from an editor, whatever wrote it', () => {
 		const draft = draftRecipe(author, [line('sodium-chloride', 5)]);
-		const insert = () =>
-			db.run(sql`insert into e_signature (id, signer_id, signer_email, signer_name, meaning,
-				subject_type, subject_id, comment, signed_at)
-				values (${crypto.randomUUID()}, ${author.id}, ${author.email}, 'x', 'approved',
-				'recipe_version', ${draft.versionId}, '', 0)`);
-		expect(insert).toThrow();
+		// A row that continues the signature chain correctly, so the editor rule is what refuses it.
+		const row = {
+			id: crypto.randomUUID(),
+			signer_id: author.id,
+			signer_email: author.email,
+			signer_name: 'x',
+			meaning: 'approved',
+			subject_type: 'recipe_version',
+			subject_id: draft.versionId,
+			subject_digest: null,
+			comment: '',
+			signed_at: 0
+		};
+		const link = nextLink(db.$client, 'e_signature', row);
+		let refusal = 'accepted';
 		try {
-			insert();
+			db.$client
+				.prepare(
+					`insert into e_signature (id, signer_id, signer_email, signer_name, meaning, subject_type,
+					subject_id, subject_digest, comment, signed_at, seq, prev_hash, row_hash)
+					values (@id, @signer_id, @signer_email, @signer_name, @meaning, @subject_type,
+					@subject_id, @subject_digest, @comment, @signed_at, @seq, @prevHash, @rowHash)`
+				)
+				.run({ ...row, ...link });
 		} catch (error) {
-			const text = `${(error as Error).message} ${(error as { cause?: Error }).cause?.message ?? ''}`;
-			expect(text).toMatch(/whoever changed a recipe version may not sign it/);
+			refusal = (error as Error).message;
 		}
+		expect(refusal).toMatch(/whoever changed a recipe version may not sign it/);
 	});
 
 	it('the list of editors cannot be rewritten', () => {
