@@ -48,6 +48,24 @@ export function recordAudit(actor: Actor, entry: AuditEntry, writer: Writer = db
 		.run();
 }
 
+/** A field's value before and after a change, as an audit entry records it. */
+export type FieldChange = { from: unknown; to: unknown };
+
+/**
+ * Each field of `after` whose value differs from `before`, with both values, so the trail keeps
+ * what was there as well as what replaced it. Times and revision counters are left out.
+ */
+export function changesBetween(before: object, after: object): Record<string, FieldChange> {
+	const changes: Record<string, FieldChange> = {};
+	for (const [field, to] of Object.entries(after)) {
+		if (field === 'revision' || field === 'updatedAt' || to instanceof Date) continue;
+		const from = (before as Record<string, unknown>)[field] ?? null;
+		if (JSON.stringify(from) !== JSON.stringify(to ?? null))
+			changes[field] = { from, to: to ?? null };
+	}
+	return changes;
+}
+
 export interface AuditFilter {
 	action?: string;
 	actor?: string;

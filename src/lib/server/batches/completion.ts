@@ -11,6 +11,7 @@ import { findLot } from '../inventory/lots';
 import { massToLotQuantity } from '../inventory/units';
 import { findVersionById } from '../recipes/queries';
 import { RuleError } from '../rule-error';
+import { componentsOfVersion } from '../recipes/snapshot';
 import { digestOf, signRecord } from '../signatures';
 import { requireBatch, type Reader, type Technician } from './execution';
 
@@ -71,7 +72,9 @@ function consumeLots(
 				{ status: 409 }
 			);
 		}
-		const material = findComponent(lotRow.componentId, tx)!;
+		const material =
+			componentsOfVersion(b.versionId, [lotRow.componentId], tx).get(lotRow.componentId) ??
+			findComponent(lotRow.componentId, tx)!;
 		const taken = Math.max(
 			1,
 			massToLotQuantity(convertMass(line.actualUg!, 'µg', 'g'), lotRow, material)

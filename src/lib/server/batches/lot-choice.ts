@@ -9,6 +9,7 @@ import { batchLine, recipeLine, type Batch, type BatchLine, type Lot } from '../
 import { onHandOf } from '../inventory/ledger';
 import { findLot, findLotByCode } from '../inventory/lots';
 import { RuleError } from '../rule-error';
+import { componentsOfVersion } from '../recipes/snapshot';
 import {
 	markStarted,
 	requireBatch,
@@ -100,10 +101,15 @@ function lotRequirement(
 		.from(recipeLine)
 		.where(eq(recipeLine.id, line.recipeLineId))
 		.get()!;
-	const basis = findComponent(source.componentId!, reader)!;
+	const kept = componentsOfVersion(
+		b.versionId,
+		[source.componentId!, source.shelfFormId ?? ''],
+		reader
+	);
+	const basis = kept.get(source.componentId!)!;
 	const shelf =
 		source.shelfFormId && source.shelfFormId !== source.componentId
-			? (findComponent(source.shelfFormId, reader) ?? null)
+			? (kept.get(source.shelfFormId) ?? null)
 			: null;
 	const requirement = requirementFor(
 		{ amount: source.amount, unit: source.unit, component: basis, shelf },

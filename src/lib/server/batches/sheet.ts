@@ -7,7 +7,7 @@ import {
 } from '$lib/batches';
 import { formatQuantity, isExpired, isoToday } from '$lib/inventory';
 import { batchVolumeL, storedMass, storedVolumeUl } from '$lib/quantities';
-import { findComponentsByIds } from '../components/library';
+import { componentsOfVersion } from '../recipes/snapshot';
 import { db, type Db } from '../db';
 import {
 	batchLine,
@@ -154,7 +154,9 @@ function loadSheet(b: Batch, reader: Reader) {
 					.map((r) => [r.id, r])
 			: []
 	);
-	const components = findComponentsByIds(
+	// The approved version's snapshot: a later edit of the library does not change the sheet.
+	const components = componentsOfVersion(
+		b.versionId,
 		[...recipeLines.values()].flatMap((r) => [r.componentId ?? '', r.shelfFormId ?? '']),
 		reader
 	);

@@ -1,6 +1,6 @@
 import { asc, eq, inArray, sql } from 'drizzle-orm';
 import { molarMassOf, parseFormula, type ComponentSpec } from '$chemistry';
-import { recordAudit, type Actor } from '../audit';
+import { changesBetween, recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { component, type Component } from '../db/schema';
 import { RuleError } from '../rule-error';
@@ -129,11 +129,7 @@ export function updateComponent(
 				{ status: 409 }
 			);
 		}
-		const changed = Object.keys(value).filter(
-			(k) =>
-				JSON.stringify(value[k as keyof NewComponent] ?? null) !==
-				JSON.stringify(current[k as keyof Component] ?? null)
-		);
+		const changes = changesBetween(current, { ...value, synonyms: current.synonyms });
 		tx.update(component)
 			.set({ ...value, synonyms: current.synonyms, revision: revision + 1, updatedAt: new Date() })
 			.where(eq(component.id, id))
@@ -144,7 +140,7 @@ export function updateComponent(
 				action: 'component.updated',
 				subjectType: 'component',
 				subjectId: id,
-				detail: { name: value.name, changed }
+				detail: { name: value.name, changes }
 			},
 			tx
 		);

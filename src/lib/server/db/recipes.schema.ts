@@ -166,6 +166,32 @@ export const eSignature = sqliteTable(
 	]
 );
 
+/** A component as a version's snapshot keeps it: the library row, times as ISO text. */
+export type ComponentSnapshot = Omit<Component, 'createdAt' | 'updatedAt'> & {
+	createdAt: string;
+	updatedAt: string;
+};
+
+/**
+ * What a version in review or approved weighs and computes with: each component its lines name, as
+ * it was when the version was submitted. A later edit of the library never changes it; triggers
+ * refuse UPDATE, and DELETE unless the version is back in draft.
+ */
+export const recipeVersionComponent = sqliteTable(
+	'recipe_version_component',
+	{
+		versionId: text('version_id')
+			.notNull()
+			.references(() => recipeVersion.id),
+		componentId: text('component_id')
+			.notNull()
+			.references(() => component.id),
+		componentRevision: integer('component_revision').notNull(),
+		data: text('data', { mode: 'json' }).$type<ComponentSnapshot>().notNull()
+	},
+	(t) => [primaryKey({ columns: [t.versionId, t.componentId] })]
+);
+
 /**
  * Everyone who changed a version, by any route: filled by triggers on `recipe_version` (its author
  * at creation, whoever bumps its revision), so no code path can leave an editor out. A trigger on

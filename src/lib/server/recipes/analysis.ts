@@ -19,6 +19,7 @@ import {
 	latestVersion,
 	linesOf
 } from './queries';
+import { componentSnapshotOf } from './snapshot';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -40,7 +41,12 @@ export interface AnalysisOptions {
 	osmolalityMaxMOsmPerKg: number | null;
 	/** The recipe being analysed, so a stock cannot contain it. */
 	recipeId?: string | null;
+	/** The stored version analysed: once submitted, its lines compute with its component snapshot. */
+	versionId?: string | null;
 }
+
+/** Components by id that a version computes with instead of the library's current rows. */
+type Snapshot = Map<string, Component>;
 
 export type OsmolalityVerdict = 'within' | 'below' | 'above' | 'no-target';
 
@@ -91,9 +97,14 @@ class Expander {
 	readonly notes: string[] = [];
 	private readonly components = new Map<string, Component>();
 
-	constructor(private readonly reader: Reader) {}
+	constructor(
+		private readonly reader: Reader,
+		private readonly ownSnapshot: Snapshot
+	) {}
 
-	private component(id: string): Component {
+	private component(id: string, snapshot: Snapshot): Component {
+		const kept = snapshot.get(id);
+		if (kept) return kept;
 		let found = this.components.get(id);
 		if (!found) {
 			found = findComponentsByIds([id], this.reader).get(id);
@@ -112,8 +123,12 @@ class Expander {
 	}
 
 	/** g/L of the form that goes into the liquid (the shelf form when one is named). */
-	componentLine(line: AnalysisLine, field: string): { component: Component; gPerL: number } {
-		const base = this.component(line.componentId!);
+	componentLine(
+		line: AnalysisLine,
+		field: string,
+		snapshot: Snapshot = this.ownSnapshot
+	): { component: Component; gPerL: number } {
+		const base = this.component(line.componentId!, snapshot);
 		const baseMolarMass = molarMassOfComponent(base);
 		const basisGPerL = toGramsPerLitre(
 			line.amount,
@@ -124,7 +139,7 @@ class Expander {
 		);
 		if (!line.shelfFormId || line.shelfFormId === base.id)
 			return { component: base, gPerL: basisGPerL };
-		const shelf = this.component(line.shelfFormId);
+		const shelf = this.component(line.shelfFormId, snapshot);
 		const shelfMolarMass = molarMassOfComponent(shelf);
 		if (baseMolarMass === null || shelfMolarMass === null) {
 			throw new RuleError(
@@ -168,6 +183,7 @@ class Expander {
 		}
 		const out = new Map<string, { component: Component; gPerL: number }>();
 		if (!version) return out;
+		const snapshot = componentSnapshotOf(version.id, this.reader);
 		for (const inner of linesOf(version.id, this.reader)) {
 			const parts =
 				inner.kind === 'stock'
@@ -175,7 +191,7 @@ class Expander {
 							...p,
 							gPerL: p.gPerL * convertVolume(inner.amount, 'mL', 'L')
 						}))
-					: [this.componentLine(inner, field)];
+					: [this.componentLine(inner, field, snapshot)];
 			for (const part of parts) {
 				const entry = out.get(part.component.id);
 				if (entry) entry.gPerL += part.gPerL;
@@ -270,7 +286,10 @@ export function analyseLines(
 	options: AnalysisOptions,
 	reader: Reader = db
 ): RecipeAnalysis {
-	const expander = new Expander(reader);
+	const expander = new Expander(
+		reader,
+		options.versionId ? componentSnapshotOf(options.versionId, reader) : new Map()
+	);
 	expander.preload(lines.flatMap((l) => [l.componentId, l.shelfFormId]));
 	const entries = mergeLines(lines, expander, options.recipeId ? [options.recipeId] : []);
 	const result = composeEntries(entries, options.temperatureC);
@@ -335,7 +354,8 @@ export function analyseVersion(
 			temperatureC: version.preparationTemperatureC,
 			osmolalityMinMOsmPerKg: version.osmolalityMinMOsmPerKg,
 			osmolalityMaxMOsmPerKg: version.osmolalityMaxMOsmPerKg,
-			recipeId: version.recipeId
+			recipeId: version.recipeId,
+			versionId: version.id
 		},
 		reader
 	);

@@ -1,6 +1,6 @@
 import { and, eq, inArray, max, sql } from 'drizzle-orm';
 import { RECIPE_KINDS, type RecipeKind } from '$lib/recipes';
-import { recordAudit, type Actor } from '../audit';
+import { changesBetween, recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { recipe, recipeLine, recipeVersion, user, type RecipeVersion } from '../db/schema';
 import { RuleError } from '../rule-error';
@@ -56,6 +56,34 @@ export function checkRecipeHead(
 	if (clash && clash.id !== selfId)
 		throw new RuleError(`A recipe named “${name}” already exists.`, { field: 'name' });
 	return { name, kind: input.kind as RecipeKind };
+}
+
+/** What a line says, for the trail: everything but its ids of storage. */
+function lineContent(line: Omit<CheckedLine, 'position'>) {
+	return {
+		kind: line.kind,
+		componentId: line.componentId,
+		shelfFormId: line.shelfFormId,
+		stockRecipeId: line.stockRecipeId,
+		amount: line.amount,
+		unit: line.unit,
+		tolerancePercent: line.tolerancePercent,
+		note: line.note
+	};
+}
+
+/** Lines added, removed or changed, by position, each with what it said before and after. */
+function lineChangesBetween(before: CheckedLine[], after: CheckedLine[]) {
+	const positions = [...new Set([...before, ...after].map((l) => l.position))].sort(
+		(a, b) => a - b
+	);
+	return positions.flatMap((position) => {
+		const was = before.find((l) => l.position === position);
+		const now = after.find((l) => l.position === position);
+		const from = was ? lineContent(was) : null;
+		const to = now ? lineContent(now) : null;
+		return JSON.stringify(from) === JSON.stringify(to) ? [] : [{ position, from, to }];
+	});
 }
 
 function insertLines(tx: Tx, versionId: string, lines: CheckedLine[]) {
@@ -199,10 +227,8 @@ export function saveDraft(
 				}
 			);
 		}
-		const before = fieldsOf(version);
-		const changed = (Object.keys(draft.fields) as (keyof CheckedFields)[]).filter(
-			(k) => before[k] !== draft.fields[k]
-		);
+		const changes = changesBetween(fieldsOf(version), draft.fields);
+		const lineChanges = lineChangesBetween(linesOf(versionId, tx), draft.lines);
 		tx.update(recipeVersion)
 			.set({
 				...draft.fields,
@@ -220,7 +246,13 @@ export function saveDraft(
 				action: 'recipe.draft_saved',
 				subjectType: 'recipe_version',
 				subjectId: versionId,
-				detail: { n: version.n, lines: draft.lines.length, changed, revision: revision + 1 }
+				detail: {
+					n: version.n,
+					lines: draft.lines.length,
+					changes,
+					lineChanges,
+					revision: revision + 1
+				}
 			},
 			tx
 		);
@@ -256,7 +288,15 @@ export function appendLines(
 				action: 'recipe.lines_imported',
 				subjectType: 'recipe_version',
 				subjectId: versionId,
-				detail: { n: version.n, lines: lines.length }
+				detail: {
+					n: version.n,
+					lines: lines.length,
+					lineChanges: lines.map((l, i) => ({
+						position: (last ?? 0) + i + 1,
+						from: null,
+						to: lineContent(l)
+					}))
+				}
 			},
 			tx
 		);

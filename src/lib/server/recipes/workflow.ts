@@ -9,6 +9,7 @@ import { RuleError } from '../rule-error';
 import { digestOf, refusedSignature, signRecord } from '../signatures';
 import { analyseVersion } from './analysis';
 import { fieldsOf } from './drafts';
+import { componentSnapshotOf, dropComponentSnapshot, takeComponentSnapshot } from './snapshot';
 import {
 	currentApprovedVersion,
 	editorIdsOf,
@@ -36,11 +37,15 @@ function requireStatus(version: RecipeVersion, status: RecipeVersion['status'], 
 export function versionDigest(version: RecipeVersion): string {
 	const recipe = findRecipe(version.recipeId)!;
 	const lines = linesOf(version.id).map(({ id: _id, versionId: _v, ...line }) => line);
+	const components = [...componentSnapshotOf(version.id).values()]
+		.sort((a, b) => a.id.localeCompare(b.id))
+		.map(({ createdAt: _c, updatedAt: _u, ...row }) => row);
 	return digestOf({
 		recipe: { id: recipe.id, name: recipe.name, kind: recipe.kind },
 		n: version.n,
 		fields: fieldsOf(version),
-		lines
+		lines,
+		components
 	});
 }
 
@@ -78,6 +83,7 @@ export function submitForReview(actor: Actor, versionId: string, revision: numbe
 				.where(eq(recipeLine.id, line.id))
 				.run();
 		}
+		takeComponentSnapshot(tx, versionId);
 		const done = tx
 			.update(recipeVersion)
 			.set({ status: 'in_review', submittedAt: new Date() })
@@ -127,6 +133,7 @@ export function returnToDraft(actor: Actor, versionId: string, comment: string):
 			})
 			.where(eq(recipeVersion.id, versionId))
 			.run();
+		dropComponentSnapshot(tx, versionId);
 		recordAudit(
 			actor,
 			{

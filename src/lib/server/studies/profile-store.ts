@@ -16,7 +16,7 @@ import {
 	YIELD_METHODS,
 	splitPairEntries
 } from '$lib/studies';
-import { recordAudit, type Actor } from '../audit';
+import { changesBetween, recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { organismProfile, type OrganismProfileRow } from '../db/schema';
 import { findComponent, molarMassOfComponent } from '../components/library';
@@ -348,7 +348,7 @@ export function saveProfile(
 				action: 'organism_profile.updated',
 				subjectType: 'organism_profile',
 				subjectId: id,
-				detail: { name: values.name }
+				detail: { name: values.name, changes: changesBetween(current, values) }
 			},
 			tx
 		);

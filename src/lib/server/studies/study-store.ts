@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { recordAudit, type Actor } from '../audit';
+import { changesBetween, recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { organismProfile, recipe, recipeVersion, study, studyFeed, vessel } from '../db/schema';
 import { RuleError } from '../rule-error';
@@ -133,7 +133,12 @@ export function updateStudy(actor: Actor, id: string, revision: number, form: St
 		requireEvaluable(id, tx);
 		recordAudit(
 			actor,
-			{ action: 'study.updated', subjectType: 'study', subjectId: id, detail: { name: form.name } },
+			{
+				action: 'study.updated',
+				subjectType: 'study',
+				subjectId: id,
+				detail: { name: form.name, changes: changesBetween(current, studyFieldsOf(form)) }
+			},
 			tx
 		);
 	});

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { MAX_KLA_PER_H, STUDY_TEMPERATURE_RANGE_C } from '$chemistry';
-import { recordAudit, type Actor } from '../audit';
+import { changesBetween, recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { vessel, type VesselRow } from '../db/schema';
 import { RuleError } from '../rule-error';
@@ -135,7 +135,7 @@ export function saveVessel(
 				action: 'vessel.updated',
 				subjectType: 'vessel',
 				subjectId: id,
-				detail: { name: values.name }
+				detail: { name: values.name, changes: changesBetween(current, values) }
 			},
 			tx
 		);

@@ -8,6 +8,7 @@ import { actorOf, versionNumber } from '$lib/server/recipes/access';
 import { startDraftFrom } from '$lib/server/recipes/drafts';
 import { loadVersionView } from '$lib/server/recipes/page-load';
 import { findVersion } from '$lib/server/recipes/queries';
+import { libraryChangesFor } from '$lib/server/recipes/snapshot';
 import {
 	returnToDraft,
 	retireVersion,
@@ -41,6 +42,7 @@ export const load: PageServerLoad = async ({ params }) => {
 	return {
 		...view,
 		digest: versionDigest(view.version),
+		libraryChanges: libraryChangesFor(view.version),
 		history: auditEventsFor('recipe_version', view.version.id),
 		canEdit: may(user, 'recipe.edit'),
 		canReview: may(user, 'recipe.sign'),

@@ -9,6 +9,7 @@ import { findRecipe, findVersion, linesOf, listStockRecipes } from '$lib/server/
 import { toDraftFields, toDraftLines } from '$lib/server/recipes/editor-data';
 import { z } from 'zod';
 import { revisionField } from '$lib/server/forms';
+import { libraryChangesFor } from '$lib/server/recipes/snapshot';
 import type { Actions, PageServerLoad } from './$types';
 import { requireActor, requirePermission } from '$lib/server/guard';
 
@@ -35,7 +36,8 @@ export const load: PageServerLoad = async ({ params }) => {
 			formula: c.formula,
 			basisComponentId: c.basisComponentId
 		})),
-		stocks: listStockRecipes().filter((s) => s.id !== recipe.id)
+		stocks: listStockRecipes().filter((s) => s.id !== recipe.id),
+		libraryChanges: libraryChangesFor(version)
 	};
 };
 
