@@ -17,8 +17,14 @@
  * is found by golden-section search on P over (0, D_crit). That search is sound because ln P is concave there:
  * 2·ln D − ln(D + m_s·Y_G) and ln(S0 − S(D)) are each concave, so P has a single maximum.
  */
-import { ChemistryInputError } from './errors';
-import { NON_NEGATIVE, POSITIVE, readNumber, readWholeNumber } from './input';
+import { isGiven, NON_NEGATIVE, POSITIVE, readNumber, readWholeNumber, type Bounds } from './input';
+
+/** Pirt's m_s, g substrate / g biomass / h: none is 0. */
+export const MAINTENANCE_BOUNDS: Bounds = NON_NEGATIVE;
+/** The fraction to stay below D_crit: 0 ≤ margin < 1. */
+export const SAFETY_MARGIN_BOUNDS: Bounds = { min: 0, minInclusive: true, max: 1 };
+export const MIN_SWEEP_POINTS = 2;
+export const MAX_SWEEP_POINTS = 10_000;
 
 export interface MonodChemostatParameters {
 	muMaxPerH: number;
@@ -67,13 +73,8 @@ export function validateMonodChemostatParameters(p: MonodChemostatParameters): v
 	readNumber(p.ksGPerL, 'ksGPerL', POSITIVE);
 	readNumber(p.yieldXS, 'yieldXS', POSITIVE);
 	readNumber(p.feedSubstrateGPerL, 'feedSubstrateGPerL', POSITIVE);
-	const m = p.maintenanceGPerGH;
-	if (m !== undefined && m !== null && (typeof m !== 'number' || !Number.isFinite(m) || m < 0)) {
-		throw new ChemistryInputError(
-			`maintenanceGPerGH must be a finite number ≥ 0, in g substrate per g biomass per hour (got ${String(m)}).`,
-			{ field: 'maintenanceGPerGH' }
-		);
-	}
+	if (isGiven(p.maintenanceGPerGH))
+		readNumber(p.maintenanceGPerGH, 'maintenanceGPerGH', MAINTENANCE_BOUNDS);
 }
 
 export function computeCriticalDilutionPerH(p: MonodChemostatParameters): number {
@@ -167,7 +168,12 @@ export function computeChemostatSteadyState(
 ): ChemostatSteadyState {
 	validateMonodChemostatParameters(input);
 	const d = readNumber(input.dilutionPerH, 'dilutionPerH', NON_NEGATIVE);
-	const sweepPoints = readWholeNumber(input.sweepPoints ?? 101, 'sweepPoints', 2, 10_000);
+	const sweepPoints = readWholeNumber(
+		input.sweepPoints ?? 101,
+		'sweepPoints',
+		MIN_SWEEP_POINTS,
+		MAX_SWEEP_POINTS
+	);
 	const dCrit = computeCriticalDilutionPerH(input);
 	const dOpt = computeOptimalDilutionPerH(input);
 	const point = computeChemostatOperatingPoint(input, d);
@@ -191,15 +197,7 @@ export function computeChemostatSteadyState(
 		sweep
 	};
 	if (input.safetyMargin !== undefined && input.safetyMargin !== null) {
-		const margin = input.safetyMargin;
-		if (typeof margin !== 'number' || !Number.isFinite(margin) || margin < 0 || margin >= 1) {
-			throw new ChemistryInputError(
-				`safetyMargin must be a fraction from 0 to below 1 (got ${String(margin)}).`,
-				{
-					field: 'safetyMargin'
-				}
-			);
-		}
+		const margin = readNumber(input.safetyMargin, 'safetyMargin', SAFETY_MARGIN_BOUNDS);
 		const dMargin = Math.min((1 - margin) * dCrit, dOpt);
 		const best = computeChemostatOperatingPoint(input, dOpt).productivityGPerLH;
 		result.marginDilutionPerH = dMargin;

@@ -1,6 +1,9 @@
 // The public surface of the science library. The app imports only from here.
 export * from './errors';
+export { numberMessage, type Bounds } from './input';
 export * from './formula';
+export * from './formula-schema';
+export * from './schema-binding';
 export { ATOMIC_WEIGHTS, ELEMENT_NAMES } from './data/atomic-weights';
 export * from './units';
 export * from './components';
@@ -8,6 +11,7 @@ export * from './composition';
 export * from './feed-design';
 export * from './weighing';
 export * from './oxygen';
+export * from './oxygen-saturation-schema';
 export * from './heat';
 export * from './oxygen-load';
 export * from './degree-of-reduction';
@@ -30,7 +34,9 @@ export type {
 } from './data/biomass';
 export * from './simulation';
 export * from './chemostat';
+export * from './chemostat-schema';
 export * from './productivity';
+export * from './productivity-schema';
 export * from './growth-fit';
 export * from './study';
 export * from './statistics';

@@ -17,7 +17,13 @@
 import { Outcome, Solver } from '#odex';
 import { computeChemostatOperatingPoint, validateMonodChemostatParameters } from './chemostat';
 import { ChemistryInputError } from './errors';
-import { NON_NEGATIVE, readOptional } from './input';
+import { NON_NEGATIVE, POSITIVE, readNumber, readOptional, type Bounds } from './input';
+
+/** Fraction of the substrate used at harvest: strictly between 0 and 1. */
+export const CONVERSION_BOUNDS: Bounds = { min: 0, max: 1 };
+export const DEFAULT_CONVERSION = 0.99;
+/** Each turnaround step, h. */
+export const TURNAROUND_HOURS_BOUNDS: Bounds = NON_NEGATIVE;
 
 export interface TurnaroundInput {
 	cleaningH?: number;
@@ -135,7 +141,7 @@ export function computeMonodBatchWithMaintenance(
 }
 
 function readHours(value: unknown, field: string): number {
-	return readOptional(value, field, 0, NON_NEGATIVE);
+	return readOptional(value, field, 0, TURNAROUND_HOURS_BOUNDS);
 }
 
 export function compareBatchWithContinuous(
@@ -158,33 +164,14 @@ export function compareBatchWithContinuous(
 		}
 		throw error;
 	}
-	const x0 = input.inoculumGPerL;
-	if (typeof x0 !== 'number' || !Number.isFinite(x0) || x0 <= 0) {
-		throw new ChemistryInputError(
-			`inoculumGPerL must be a finite number greater than 0 (got ${String(x0)}).`,
-			{
-				field: 'inoculumGPerL'
-			}
-		);
-	}
-	const d = input.dilutionPerH;
-	if (typeof d !== 'number' || !Number.isFinite(d) || d <= 0) {
-		throw new ChemistryInputError(
-			`dilutionPerH must be a finite number greater than 0 (got ${String(d)}).`,
-			{
-				field: 'dilutionPerH'
-			}
-		);
-	}
-	const conversion = input.conversion ?? 0.99;
-	if (typeof conversion !== 'number' || !(conversion > 0 && conversion < 1)) {
-		throw new ChemistryInputError(
-			`conversion must be a fraction between 0 and 1 (got ${String(conversion)}).`,
-			{
-				field: 'conversion'
-			}
-		);
-	}
+	const x0 = readNumber(input.inoculumGPerL, 'inoculumGPerL', POSITIVE);
+	const d = readNumber(input.dilutionPerH, 'dilutionPerH', POSITIVE);
+	const conversion = readOptional(
+		input.conversion,
+		'conversion',
+		DEFAULT_CONVERSION,
+		CONVERSION_BOUNDS
+	);
 	const t = input.turnaround ?? {};
 	const turnaroundH =
 		readHours(t.cleaningH, 'turnaround.cleaningH') +

@@ -82,7 +82,14 @@ import {
 	WINDOW_LENGTH_FRACTION,
 	POORLY_DETERMINED_FACTOR
 } from './types';
-import { readSeries, readTimes, readBiomass, readSubstrate, readCurvePoints } from './read';
+import {
+	minRSquaredMessage,
+	readBiomass,
+	readCurvePoints,
+	readSeries,
+	readSubstrate,
+	readTimes
+} from './read';
 import { fitLine, estimateFrom, formatValue, createEvenGrid } from './regression';
 import { findExponentialPhase } from './exponential-phase';
 import { describePoorEstimates, fitMonodBatch } from './monod-fit';
@@ -217,7 +224,7 @@ function readGrowthCurve(data: GrowthCurveData) {
 			: readSeries(data.dissolvedOxygenMgPerL, 'dissolvedOxygenMgPerL', t.length);
 	const minRSquared = data.minRSquared ?? 0.98;
 	if (!(minRSquared > 0 && minRSquared < 1)) {
-		throw new ChemistryInputError('minRSquared must be between 0 and 1.', {
+		throw new ChemistryInputError(minRSquaredMessage(), {
 			field: 'minRSquared'
 		});
 	}

@@ -1,2 +1,3 @@
 // Growth parameters from run data: the methods are described at the top of ./fit.ts.
 export * from './fit';
+export * from './schema';

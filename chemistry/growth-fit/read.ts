@@ -2,7 +2,11 @@
 import { ChemistryInputError } from '../errors';
 import { readWholeNumber } from '../input';
 
-const MAX_POINTS = 5000;
+/** Most points accepted in one series. */
+export const MAX_SERIES_POINTS = 5000;
+
+/** The refusal of a minimum R² outside (0, 1). */
+export const minRSquaredMessage = (field = 'minRSquared') => `${field} must be between 0 and 1.`;
 
 export function readSeries(values: unknown, field: string, length: number | null): number[] {
 	if (!Array.isArray(values))
@@ -32,9 +36,9 @@ export function readTimes(values: unknown, minPoints: number): number[] {
 			{ field: 'timeH' }
 		);
 	}
-	if (t.length > MAX_POINTS) {
+	if (t.length > MAX_SERIES_POINTS) {
 		throw new ChemistryInputError(
-			`At most ${MAX_POINTS} data points are accepted (got ${t.length}).`,
+			`At most ${MAX_SERIES_POINTS} data points are accepted (got ${t.length}).`,
 			{ field: 'timeH' }
 		);
 	}

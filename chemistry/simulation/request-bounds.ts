@@ -20,26 +20,42 @@ export { isWithin, NON_NEGATIVE, numberMessage, POSITIVE, type Bounds } from '..
 export const fieldOf = (path: readonly PropertyKey[] | undefined): string =>
 	(path ?? []).map(String).join('.');
 
+type Issue = { input?: unknown; path?: PropertyKey[] };
+
 /** JSON cannot carry NaN or Infinity: a value of another type gets the API's short word. */
-const typeError = (bounds: Bounds) => (issue: { input?: unknown; path?: PropertyKey[] }) =>
-	typeof issue.input === 'number'
-		? numberMessage(fieldOf(issue.path), issue.input, bounds)
-		: 'Give a number.';
+const typeError =
+	(bounds: Bounds, missing: (field: string) => string = () => 'Give a number.') =>
+	(issue: Issue) =>
+		typeof issue.input === 'number'
+			? numberMessage(fieldOf(issue.path), issue.input, bounds)
+			: issue.input === undefined
+				? missing(fieldOf(issue.path))
+				: 'Give a number.';
 
 /** A number whose range the cross-field rules check (it depends on the mode or strategy). */
 export const givenNumber = z.number({ error: typeError({}) });
 
 /** A number with its range; the range also reaches the OpenAPI document. */
-export function boundedNumber(bounds: Bounds): z.ZodNumber {
-	const error = (issue: { input?: unknown; path?: PropertyKey[] }) =>
-		numberMessage(fieldOf(issue.path), issue.input, bounds);
-	let schema = z.number({ error: typeError(bounds) });
+export function boundedNumber(bounds: Bounds, missing?: (field: string) => string): z.ZodNumber {
+	const error = (issue: Issue) => numberMessage(fieldOf(issue.path), issue.input, bounds);
+	let schema = z.number({ error: typeError(bounds, missing) });
 	const { min, max, minInclusive = false, maxInclusive = false } = bounds;
 	if (min !== undefined)
 		schema = minInclusive ? schema.gte(min, { error }) : schema.gt(min, { error });
 	if (max !== undefined)
 		schema = maxInclusive ? schema.lte(max, { error }) : schema.lt(max, { error });
 	return schema;
+}
+
+/** A number the request cannot do without: left out, the refusal names its field. */
+export const requiredNumber = (bounds: Bounds): z.ZodNumber =>
+	boundedNumber(bounds, (field) => `${field} is required.`);
+
+/** A whole number from `min` to `max`, in the wording of the science's `readWholeNumber`. */
+export function boundedWholeNumber(min: number, max: number): z.ZodNumber {
+	const error = (issue: Issue) =>
+		`${fieldOf(issue.path)} must be a whole number from ${min} to ${max}.`;
+	return z.int({ error }).gte(min, { error }).lte(max, { error });
 }
 
 /** Ranges that the cross-field rules read as well as the fields themselves. */

@@ -1,6 +1,6 @@
 import { describe, expect, it, vi } from 'vitest';
 import { postJson } from './endpoint-call';
-import { fitGrowthResponse } from '$lib/server/api/operations/simulation';
+import { fitGrowthResponse } from '$chemistry';
 import reference from '../chemistry/reference/growth-curves.json';
 
 // The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.

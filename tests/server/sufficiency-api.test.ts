@@ -4,7 +4,7 @@ import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { study } from '$lib/server/db/schema';
 import { seedDemo } from '$lib/server/demo/seed';
-import { sufficiencyLineResponse, sufficiencyResponse } from '$lib/server/api/operations/chemistry';
+import { sufficiencyLineResponse, sufficiencyResponse } from '$chemistry';
 import { evaluateResponse } from '$lib/server/api/operations/studies';
 
 // The endpoints' guard reads the request through getRequestEvent, which only the SvelteKit server

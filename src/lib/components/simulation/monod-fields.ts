@@ -12,7 +12,6 @@ export function maintenanceField(where: string): SimpleField {
 	return {
 		key: 'maintenanceGPerGH',
 		label: 'Maintenance m_s (g/g/h)',
-		required: false,
 		hint: `g substrate per g biomass per hour (Pirt)${where}; 0 or blank for none`
 	};
 }

@@ -1,12 +1,15 @@
 import { z } from 'zod';
 import {
+	batchVersusContinuousRequest,
+	batchVersusContinuousResponse,
+	chemostatRequest,
+	chemostatResponse,
 	FEED_STRATEGIES,
+	fitGrowthRequest,
+	fitGrowthResponse,
 	OPERATING_MODES,
 	simulationRequestSchema,
 	simulationResultSchema,
-	type BatchVersusContinuous,
-	type ChemostatSteadyState,
-	type GrowthFit,
 	type SimulationRequest,
 	type SimulationResult
 } from '$chemistry';
@@ -14,12 +17,11 @@ import type { ScenarioView } from '../../scenarios';
 import type { ApiOperation } from '../openapi';
 import { describes } from '../shapes';
 
-// The simulation request and result are described once, beside the science
-// (chemistry/simulation/request-schema.ts, result-schema.ts): the endpoint validates with the same
-// schema the library reads, so every refusal names its field, and all of them are reported at once.
-const finite = z.number({ error: 'Give a number.' });
-const optionalNumber = finite.optional();
-const series = z.array(z.number());
+// The science requests and results are described once, beside the science (chemistry/simulation/
+// request-schema.ts, result-schema.ts, chemostat-schema.ts, productivity-schema.ts, growth-fit/
+// schema.ts): the endpoint validates with the same schema the library reads and the browser panels
+// check with, so every refusal names its field, and all of them are reported at once. Here are the
+// operations' words for the OpenAPI document and the saved scenarios' own shapes.
 
 export const simulationModes = OPERATING_MODES;
 export const feedStrategies = FEED_STRATEGIES;
@@ -27,161 +29,6 @@ export const feedStrategies = FEED_STRATEGIES;
 export const simulateRequest = simulationRequestSchema;
 export type SimulateRequest = SimulationRequest;
 export const simulateResponse = describes<SimulationResult>()(simulationResultSchema);
-
-const maintenance = finite
-	.optional()
-	.describe('Pirt maintenance coefficient m_s, g substrate / g biomass / h; default 0');
-
-export const chemostatRequest = z.strictObject({
-	muMaxPerH: finite,
-	ksGPerL: finite,
-	yieldXS: finite.describe('true growth yield Y_G, g biomass / g substrate'),
-	feedSubstrateGPerL: finite,
-	maintenanceGPerGH: maintenance,
-	dilutionPerH: finite,
-	safetyMargin: finite.optional().describe('fraction below D_crit, 0 ≤ margin < 1'),
-	sweepPoints: z.int().optional()
-});
-
-const operatingPoint = z.object({
-	dilutionPerH: z.number(),
-	biomassGPerL: z.number(),
-	substrateGPerL: z.number(),
-	productivityGPerLH: z.number()
-});
-
-export const chemostatResponse = describes<ChemostatSteadyState>()(
-	z.object({
-		biomassGPerL: z.number(),
-		substrateGPerL: z.number(),
-		productivityGPerLH: z.number(),
-		criticalDilutionPerH: z.number(),
-		optimalDilutionPerH: z.number(),
-		washout: z.boolean(),
-		sweep: z.array(operatingPoint),
-		marginDilutionPerH: z.number().optional(),
-		productivityLostToMargin: z.number().optional()
-	})
-);
-
-export const batchVersusContinuousRequest = z.strictObject({
-	muMaxPerH: finite,
-	ksGPerL: finite,
-	yieldXS: finite.describe('true growth yield Y_G, g biomass / g substrate'),
-	maintenanceGPerGH: maintenance.describe(
-		'Pirt maintenance coefficient m_s, g substrate / g biomass / h, in the batch and the chemostat; default 0'
-	),
-	substrateGPerL: finite.describe('batch initial substrate and chemostat feed, g/L'),
-	inoculumGPerL: finite,
-	dilutionPerH: finite,
-	turnaround: z.strictObject({
-		cleaningH: optionalNumber,
-		sterilisingH: optionalNumber,
-		fillingH: optionalNumber,
-		lagH: optionalNumber
-	}),
-	conversion: finite.optional().describe('fraction of substrate used at harvest; default 0.99')
-});
-
-export const batchVersusContinuousResponse = describes<BatchVersusContinuous>()(
-	z.object({
-		batch: z.object({
-			growthTimeH: z.number(),
-			turnaroundH: z.number(),
-			cycleTimeH: z.number().describe('growth plus turnaround'),
-			finalBiomassGPerL: z.number(),
-			productivityGPerLH: z.number().describe('final biomass over the whole cycle')
-		}),
-		continuous: z.object({
-			dilutionPerH: z.number(),
-			biomassGPerL: z.number(),
-			substrateGPerL: z.number(),
-			productivityGPerLH: z.number(),
-			washout: z.boolean()
-		}),
-		continuousToBatchRatio: z.number().describe('continuous over batch productivity'),
-		textbookRatioEstimate: z
-			.number()
-			.describe(
-				'ln(Xm/X0) + μmax·t_turnaround with Xm = X0 + Y·S0: the Ks ≪ S0 estimate of the best attainable ratio without maintenance'
-			)
-	})
-);
-
-export const fitGrowthRequest = z.strictObject({
-	timeH: z.array(finite).max(5000),
-	biomassGPerL: z.array(finite).max(5000),
-	substrateGPerL: z.array(finite).max(5000).optional(),
-	dissolvedOxygenMgPerL: z.array(finite).max(5000).optional(),
-	minRSquared: finite.optional(),
-	fitYield: z.boolean().optional()
-});
-
-const estimate = z.object({
-	value: z.number(),
-	standardError: z.number(),
-	lower95: z.number().nullable().describe('95 % bound; null when unbounded'),
-	upper95: z.number().nullable().describe('95 % bound; null when unbounded')
-});
-
-const parameterEstimate = z.object({
-	value: z.number(),
-	standardError: z
-		.number()
-		.nullable()
-		.describe('θ·SE(ln θ); null when the data do not determine θ'),
-	lower95: z.number().nullable().describe('95 % bound from ln θ; null when unbounded'),
-	upper95: z.number().nullable().describe('95 % bound from ln θ; null when unbounded'),
-	poorlyDetermined: z
-		.boolean()
-		.describe('the interval spans more than a factor of 3, or is unbounded')
-});
-
-export const fitGrowthResponse = describes<GrowthFit>()(
-	z.object({
-		exponentialPhase: z.object({
-			startIndex: z.int(),
-			endIndex: z.int(),
-			startH: z.number(),
-			endH: z.number(),
-			pointCount: z.int(),
-			rSquared: z.number(),
-			longestStraightPointCount: z
-				.int()
-				.describe('the reported window holds at least 60 % of these points'),
-			noiseSdLn: z.number().describe('measurement noise of ln X used by the window tests'),
-			muMaxPerH: estimate.describe('slope of ln X over the window; Student-t interval'),
-			doublingTimeH: estimate,
-			curve: z.object({ t: series, biomassGPerL: series })
-		}),
-		oxygenLimitedIndices: z.array(z.int()),
-		yieldXS: estimate.nullable().describe('−dX/dS; null without falling substrate data'),
-		monodFit: z
-			.object({
-				muMaxPerH: z.number(),
-				ksGPerL: z.number(),
-				yieldXS: z.number(),
-				initialBiomassGPerL: z.number().describe('at startH'),
-				initialSubstrateGPerL: z.number().describe('at startH'),
-				startH: z.number().describe('the fit starts at the exponential phase’s first point'),
-				biomassRmsGPerL: z.number(),
-				substrateRmsGPerL: z.number(),
-				iterations: z.int(),
-				estimates: z.object({
-					muMaxPerH: parameterEstimate,
-					ksGPerL: parameterEstimate,
-					yieldXS: parameterEstimate.nullable().describe('null when Yx/s was held at −dX/dS')
-				}),
-				degreesOfFreedom: z.int(),
-				curve: z.object({ t: series, biomassGPerL: series, substrateGPerL: series })
-			})
-			.nullable()
-			.describe(
-				'whole-curve Monod batch fit; null without substrate data or when it failed (see warnings)'
-			),
-		warnings: z.array(z.string()).describe('plain-words cautions, e.g. a poorly determined Ks')
-	})
-);
 
 const scenarioName = z
 	.string({ error: 'Give the scenario a name.' })

@@ -1,11 +1,16 @@
 import { z } from 'zod';
-import { PRECIPITATION_RULES, TARGET_BASES, type FeedDesign, type StudyReport } from '$chemistry';
+import {
+	PRECIPITATION_RULES,
+	TARGET_BASES,
+	type FeedDesign,
+	type StudyReport,
+	sufficiencyLineResponse
+} from '$chemistry';
 import { VERSION_STATUSES } from '$lib/recipes';
 import type { SavedFeedDraft } from '../../studies/feed-drafts';
 import type { listStudies } from '../../studies/queries';
 import type { ApiOperation } from '../openapi';
 import { describes, documentsPartOf, isoTime } from '../shapes';
-import { sufficiencyLineResponse } from './chemistry';
 
 const finite = z.number({ error: 'Give a number.' });
 

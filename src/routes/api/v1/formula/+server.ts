@@ -1,6 +1,11 @@
-import { DOT_RULE, molarMassOf, parseFormula } from '$chemistry';
+import {
+	DOT_RULE,
+	molarMassOf,
+	parseFormula,
+	formulaRequest,
+	type FormulaAnswer
+} from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
-import { formulaRequest, type FormulaAnswer } from '$lib/server/api/operations/chemistry';
 
 export const POST = endpoint({ act: 'calculation.run', body: formulaRequest }, ({ body }) => {
 	const parsed = parseFormula(body.formula);

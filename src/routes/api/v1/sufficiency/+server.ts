@@ -1,6 +1,5 @@
-import { assessSufficiency } from '$chemistry';
+import { assessSufficiency, sufficiencyRequest } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
-import { sufficiencyRequest } from '$lib/server/api/operations/chemistry';
 
 export const POST = endpoint({ act: 'calculation.run', body: sufficiencyRequest }, ({ body }) =>
 	assessSufficiency(body)

@@ -1,6 +1,5 @@
-import { computeChemostatSteadyState } from '$chemistry';
+import { computeChemostatSteadyState, chemostatRequest } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
-import { chemostatRequest } from '$lib/server/api/operations/simulation';
 
 export const POST = endpoint({ act: 'calculation.run', body: chemostatRequest }, ({ body }) =>
 	computeChemostatSteadyState(body)

@@ -1,6 +1,5 @@
-import { computeOxygenSaturation } from '$chemistry';
+import { computeOxygenSaturation, oxygenSaturationRequest } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
-import { oxygenSaturationRequest } from '$lib/server/api/operations/chemistry';
 
 // An absent o2MoleFraction is dry air, AIR_O2_MOLE_FRACTION, by the library's own default.
 export const POST = endpoint(

@@ -1,6 +1,5 @@
-import { compareBatchWithContinuous } from '$chemistry';
+import { compareBatchWithContinuous, batchVersusContinuousRequest } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
-import { batchVersusContinuousRequest } from '$lib/server/api/operations/simulation';
 
 export const POST = endpoint(
 	{ act: 'calculation.run', body: batchVersusContinuousRequest },
