@@ -15,7 +15,8 @@ export interface PendingSend {
 export type SendOutcome =
 	| { kind: 'ok'; message: string }
 	| { kind: 'refused'; message: string; field?: string }
-	| { kind: 'offline' };
+	| { kind: 'offline' }
+	| { kind: 'offline-unsigned' };
 
 function key(batchId: string): string {
 	return `brothwright.batch.${batchId}.pending`;
@@ -96,6 +97,8 @@ export class PendingSends {
 				headers: { 'x-sveltekit-action': 'true' }
 			});
 		} catch {
+			// A witness signs in person: a password is never kept on the tablet to resend later.
+			if (fields.witnessPassword) return { kind: 'offline-unsigned' };
 			this.hold({ lineId, action, fields, savedAt: new Date().toISOString() }); // eslint-disable-line svelte/prefer-svelte-reactivity -- a timestamp string, never observed
 			return { kind: 'offline' };
 		}

@@ -5,7 +5,7 @@ import { convertMass } from '$lib/quantities';
 import { recordAudit } from '../audit';
 import { findComponent } from '../components/library';
 import { db } from '../db';
-import { batch, batchLine, type Batch, type BatchLine } from '../db/schema';
+import { batch, batchLine, type Batch, type BatchLine, type Lot } from '../db/schema';
 import { appendStockEntry, type Tx } from '../inventory/ledger';
 import { findLot } from '../inventory/lots';
 import { massToLotQuantity } from '../inventory/units';
@@ -56,6 +56,14 @@ export function completionProblem(b: Batch, reader: Reader = db): string | null 
 	return null;
 }
 
+/** What a weighed mass takes from its lot, in the lot's base unit (at least 1). */
+export function takenFromLot(tx: Reader, b: Batch, lotRow: Lot, actualUg: number): number {
+	const material =
+		componentsOfVersion(b.versionId, [lotRow.componentId], tx).get(lotRow.componentId) ??
+		findComponent(lotRow.componentId, tx)!;
+	return Math.max(1, massToLotQuantity(convertMass(actualUg, 'µg', 'g'), lotRow, material));
+}
+
 /** Takes from each lot used what its line's actual quantity is, with a ledger entry per lot. */
 function consumeLots(
 	tx: Tx,
@@ -72,13 +80,7 @@ function consumeLots(
 				{ status: 409 }
 			);
 		}
-		const material =
-			componentsOfVersion(b.versionId, [lotRow.componentId], tx).get(lotRow.componentId) ??
-			findComponent(lotRow.componentId, tx)!;
-		const taken = Math.max(
-			1,
-			massToLotQuantity(convertMass(line.actualUg!, 'µg', 'g'), lotRow, material)
-		);
+		const taken = takenFromLot(tx, b, lotRow, line.actualUg!);
 		appendStockEntry(tx, {
 			lotId: lotRow.id,
 			kind: 'consumption',

@@ -15,6 +15,10 @@ import {
 	type Technician
 } from './execution';
 import { buildSheetLines } from './sheet';
+import { hardBandPercent, isBeyondHardBand } from './weighing-band';
+import { checkWitness, recordWitnessSignature, type Witness, type WitnessInput } from './witness';
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export interface LineRecord {
 	actualText: string;
@@ -95,6 +99,52 @@ function recordToleranceDeviation(
 }
 
 /**
+ * Beyond the site's hard band a weighing needs a second person's signature, recorded with it.
+ * Returns the witness's e-mail when one signed.
+ */
+export function requireWitnessBeyondBand(
+	tx: Tx,
+	b: Batch,
+	line: BatchLine,
+	weighed: { required: number; actual: number; actualText: string; witness: Witness | null }
+): string | null {
+	const band = hardBandPercent(tx);
+	if (!isBeyondHardBand(weighed.required, weighed.actual, band)) return null;
+	if (!weighed.witness) {
+		const show = (quantity: number) => formatLineQuantity(quantity, line.kind);
+		throw new RuleError(
+			`${show(weighed.actual)} is more than ${band} % from ${show(weighed.required)}: check the balance and the unit. If it is right, a second person must witness it: enter their e-mail and password.`,
+			{ field: 'witnessEmail', status: 422 }
+		);
+	}
+	recordWitnessSignature(
+		tx,
+		weighed.witness,
+		{ subjectType: 'batch_line', subjectId: line.id },
+		{
+			batch: b.number,
+			line: line.position,
+			actual: weighed.actualText,
+			required: weighed.required,
+			bandPercent: band
+		}
+	);
+	return weighed.witness.email;
+}
+
+/** The bench's way in: checks a named witness's password first, then records the line. */
+export async function recordLineAtBench(
+	actor: Technician,
+	batchId: string,
+	lineId: string,
+	input: LineRecord & WitnessInput,
+	today = isoToday()
+): Promise<{ repeated: boolean; verdict: string }> {
+	const witness = await checkWitness(actor, input, { subjectType: 'batch', subjectId: batchId });
+	return recordLine(actor, batchId, lineId, input, today, witness);
+}
+
+/**
  * Records what went in and signs the line as done. Out of tolerance needs a reason, kept as a
  * deviation. Sending the same record again (a double tap, a resend after a lost connection) is a no-op.
  */
@@ -103,7 +153,8 @@ export function recordLine(
 	batchId: string,
 	lineId: string,
 	input: LineRecord,
-	today = isoToday()
+	today = isoToday(),
+	witness: Witness | null = null
 ): { repeated: boolean; verdict: string } {
 	return db.transaction((tx) => {
 		const b = requireBatch(batchId, tx);
@@ -138,6 +189,12 @@ export function recordLine(
 				reason
 			});
 		}
+		const witnessed = requireWitnessBeyondBand(tx, b, line, {
+			required,
+			actual: actualQuantity,
+			actualText: input.actualText.trim(),
+			witness
+		});
 		markStarted(tx, actor, b);
 		tx.update(batchLine)
 			.set({
@@ -161,7 +218,8 @@ export function recordLine(
 					line: line.position,
 					actual: input.actualText.trim(),
 					verdict,
-					reason: reason || undefined
+					reason: reason || undefined,
+					witnessedBy: witnessed ?? undefined
 				}
 			},
 			tx

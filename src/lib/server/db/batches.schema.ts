@@ -104,6 +104,37 @@ export const batchDeviation = sqliteTable(
 	(t) => [index('batch_deviation_batch_idx').on(t.batchId)]
 );
 
+/**
+ * A correction of a line already signed as done: a new signed entry with its reason. The line shows
+ * the corrected values; the original stays here (and in the trail). Append-only by trigger.
+ */
+export const batchLineCorrection = sqliteTable(
+	'batch_line_correction',
+	{
+		id: id(),
+		batchId: text('batch_id')
+			.notNull()
+			.references(() => batch.id),
+		lineId: text('line_id')
+			.notNull()
+			.references(() => batchLine.id),
+		fromText: text('from_text').notNull(),
+		fromUg: integer('from_ug'),
+		fromUl: integer('from_ul'),
+		toText: text('to_text').notNull(),
+		toUg: integer('to_ug'),
+		toUl: integer('to_ul'),
+		reason: text('reason').notNull(),
+		correctedById: text('corrected_by_id')
+			.notNull()
+			.references(() => user.id),
+		signatureId: text('signature_id').notNull(),
+		at: createdAt()
+	},
+	(t) => [index('batch_line_correction_line_idx').on(t.lineId, t.at)]
+);
+
 export type Batch = typeof batch.$inferSelect;
 export type BatchLine = typeof batchLine.$inferSelect;
 export type BatchDeviation = typeof batchDeviation.$inferSelect;
+export type BatchLineCorrection = typeof batchLineCorrection.$inferSelect;

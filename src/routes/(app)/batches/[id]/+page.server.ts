@@ -2,7 +2,8 @@ import { error, fail } from '@sveltejs/kit';
 import { auditEventsFor } from '$lib/server/audit';
 import { completeBatch } from '$lib/server/batches/completion';
 import { requireBatch } from '$lib/server/batches/execution';
-import { recordLine } from '$lib/server/batches/line-record';
+import { recordLineAtBench } from '$lib/server/batches/line-record';
+import { hardBandPercent } from '$lib/server/batches/weighing-band';
 import { chooseLot } from '$lib/server/batches/lot-choice';
 import { recordMeasurements } from '$lib/server/batches/measurements';
 import { reviewBatch, reviewRefusal } from '$lib/server/batches/review';
@@ -21,7 +22,13 @@ const lineForm = z.object({
 	lineId: z.string().min(1, 'Which line? Reload the sheet and try again.')
 });
 const chooseLotForm = lineForm.extend({ scan: text });
-const recordLineForm = lineForm.extend({ actual: text, reason: text, stockSource: text });
+const recordLineForm = lineForm.extend({
+	actual: text,
+	reason: text,
+	stockSource: text,
+	witnessEmail: text,
+	witnessPassword: text
+});
 const measureForm = z.object({
 	ph: text,
 	osmolality: text,
@@ -46,6 +53,7 @@ export const load: PageServerLoad = async ({ params }) => {
 	return {
 		...view,
 		canPrepare: open && may(user, 'batch.execute'),
+		hardBandPercent: hardBandPercent(),
 		review: view.batch.state === 'prepared' ? { allowed: refusal === null, refusal } : null,
 		history: auditEventsFor('batch', params.id).slice(0, 100)
 	};
@@ -95,12 +103,14 @@ export const actions: Actions = {
 		const formData = await request.formData();
 		const parsed = parseLineForm(recordLineForm, formData);
 		if (!parsed.ok) return parsed.failure;
-		const { lineId, actual, reason, stockSource } = parsed.data;
+		const { lineId, actual, reason, stockSource, witnessEmail, witnessPassword } = parsed.data;
 		try {
-			const done = recordLine(actor, params.id, lineId, {
+			const done = await recordLineAtBench(actor, params.id, lineId, {
 				actualText: actual,
 				reason,
-				stockSource
+				stockSource,
+				witnessEmail,
+				witnessPassword
 			});
 			return {
 				lineId,
