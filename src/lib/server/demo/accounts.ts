@@ -2,10 +2,18 @@ import type { Role } from '$lib/roles';
 
 export const DEMO_PASSWORD = 'brothwright-demo';
 
-/** One account per role at the invented site "Pilot Plant North". */
+/**
+ * One account per role at the invented site "Pilot Plant North", and a second media scientist: a
+ * recipe version one scientist changes is reviewed by someone else.
+ */
 export const DEMO_ACCOUNTS: { email: string; name: string; roles: Role[] }[] = [
 	{ email: 'admin@demo.test', name: 'Demo Administrator', roles: ['admin'] },
 	{ email: 'scientist@demo.test', name: 'Demo Media Scientist', roles: ['media_scientist'] },
+	{
+		email: 'scientist2@demo.test',
+		name: 'Demo Media Scientist (second)',
+		roles: ['media_scientist']
+	},
 	{ email: 'technician@demo.test', name: 'Demo Prep Technician', roles: ['prep_technician'] },
 	{ email: 'engineer@demo.test', name: 'Demo Process Engineer', roles: ['engineer'] },
 	{ email: 'inventory@demo.test', name: 'Demo Inventory Lead', roles: ['inventory_lead'] }

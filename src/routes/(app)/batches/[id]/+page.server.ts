@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { auditEventsFor } from '$lib/server/audit';
 import { completeBatch } from '$lib/server/batches/completion';
 import { requireBatch } from '$lib/server/batches/execution';
+import { correctLine, correctionsOf } from '$lib/server/batches/line-correction';
 import { recordLineAtBench } from '$lib/server/batches/line-record';
 import { hardBandPercent } from '$lib/server/batches/weighing-band';
 import { chooseLot } from '$lib/server/batches/lot-choice';
@@ -26,6 +27,13 @@ const recordLineForm = lineForm.extend({
 	actual: text,
 	reason: text,
 	stockSource: text,
+	witnessEmail: text,
+	witnessPassword: text
+});
+const correctForm = lineForm.extend({
+	actual: text,
+	reason: text,
+	password: text,
 	witnessEmail: text,
 	witnessPassword: text
 });
@@ -54,6 +62,10 @@ export const load: PageServerLoad = async ({ params }) => {
 		...view,
 		canPrepare: open && may(user, 'batch.execute'),
 		hardBandPercent: hardBandPercent(),
+		corrections: correctionsOf(params.id),
+		canCorrect:
+			(view.batch.state === 'in_preparation' || view.batch.state === 'prepared') &&
+			may(user, 'batch.execute'),
 		review: view.batch.state === 'prepared' ? { allowed: refusal === null, refusal } : null,
 		history: auditEventsFor('batch', params.id).slice(0, 100)
 	};
@@ -122,6 +134,26 @@ export const actions: Actions = {
 			return lineFailure(formData, cause);
 		}
 	},
+	correctLine: async ({ request, params }) =>
+		tagged('correct', async () => {
+			const actor = technician();
+			const formData = await request.formData();
+			const parsed = parseForm(correctForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			const { lineId, actual, reason, password, witnessEmail, witnessPassword } = parsed.data;
+			try {
+				await correctLine(actor, params.id, lineId, {
+					actualText: actual,
+					reason,
+					password,
+					witnessEmail,
+					witnessPassword
+				});
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return { saved: 'Correction signed; the original stays on the record.' };
+		}),
 	measure: async ({ request, params }) =>
 		tagged('measure', async () => {
 			const actor = technician();
