@@ -54,7 +54,9 @@ test.describe('weighing at the bench', () => {
 		await corrections.getByLabel('Reason for the correction').fill('Printed ticket shows more');
 		await corrections.getByLabel('Your password (to sign the correction)').fill('wrong-password');
 		await corrections.getByRole('button', { name: 'Sign the correction' }).click();
-		await expect(corrections.getByRole('alert')).toContainText('nothing was corrected');
+		await expect(
+			corrections.getByText('The password is not right for your account; nothing was corrected.')
+		).toBeVisible();
 		await expect(corrections.getByLabel('Reason for the correction')).toHaveValue(
 			'Printed ticket shows more'
 		);

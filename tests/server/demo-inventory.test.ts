@@ -18,7 +18,11 @@ describe('the demo inventory', () => {
 		);
 		expect(expiringLots(30).length).toBeGreaterThan(0);
 		const batches = listBatches();
-		expect(batches.map((b) => b.state).sort()).toEqual(['planned', 'released']);
+		expect(batches.map((b) => b.state).sort()).toEqual(['planned', 'released', 'released']);
+		// The trace stock made in the demo is a lot the medium batch took its dose from.
+		const traceStock = lots.find((l) => l.componentName === 'PPN Trace Elements T2')!;
+		expect(traceStock.componentId).toBeNull();
+		expect(batchesUsingLot(traceStock.id).map((u) => u.recipeName)).toEqual(['NB-Min Salts 3']);
 		const used = lots.filter((l) => batchesUsingLot(l.id).some((u) => u.state === 'released'));
 		expect(used.length).toBeGreaterThan(3);
 		for (const { lotId, total } of ledgerSums())

@@ -74,14 +74,15 @@ type Line = {
 export async function makeApprovedRecipe(
 	lines: Line[],
 	fields: Partial<DraftFieldsInput> = {},
-	stocks: { stockRecipeId: string; amount: number }[] = []
+	stocks: { stockRecipeId: string; amount: number }[] = [],
+	kind: 'basal' | 'stock_solution' = 'basal'
 ) {
 	counter++;
 	const author = await makeUser(['media_scientist']);
 	const approver = await makeUser(['engineer']);
 	const recipeId = createRecipe(author, {
 		name: `Test medium ${counter} ${crypto.randomUUID().slice(0, 4)}`,
-		kind: 'basal'
+		kind
 	});
 	const version = findVersion(recipeId, 1)!;
 	const draft = {

@@ -56,12 +56,21 @@ export function completionProblem(b: Batch, reader: Reader = db): string | null 
 	return null;
 }
 
-/** What a weighed mass takes from its lot, in the lot's base unit (at least 1). */
-export function takenFromLot(tx: Reader, b: Batch, lotRow: Lot, actualUg: number): number {
+/**
+ * What a line takes from its lot, in the lot's base unit (at least 1): a weighed mass converted
+ * for a raw-material lot, or the volume added for a stock made here (kept in µL).
+ */
+export function takenFromLot(
+	tx: Reader,
+	b: Batch,
+	lotRow: Lot,
+	line: Pick<BatchLine, 'kind' | 'actualUg' | 'actualUl'>
+): number {
+	if (line.kind === 'stock' || !lotRow.componentId) return Math.max(1, line.actualUl ?? 0);
 	const material =
 		componentsOfVersion(b.versionId, [lotRow.componentId], tx).get(lotRow.componentId) ??
 		findComponent(lotRow.componentId, tx)!;
-	return Math.max(1, massToLotQuantity(convertMass(actualUg, 'µg', 'g'), lotRow, material));
+	return Math.max(1, massToLotQuantity(convertMass(line.actualUg!, 'µg', 'g'), lotRow, material));
 }
 
 /** Takes from each lot used what its line's actual quantity is, with a ledger entry per lot. */
@@ -80,7 +89,7 @@ function consumeLots(
 				{ status: 409 }
 			);
 		}
-		const taken = takenFromLot(tx, b, lotRow, line.actualUg!);
+		const taken = takenFromLot(tx, b, lotRow, line);
 		appendStockEntry(tx, {
 			lotId: lotRow.id,
 			kind: 'consumption',

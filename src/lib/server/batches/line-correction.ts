@@ -38,11 +38,17 @@ function requireCorrectable(b: Batch, line: BatchLine): void {
 }
 
 /** On a prepared batch the lot already gave the original amount: the ledger takes the difference. */
-function settleLedger(tx: Tx, actor: Technician, b: Batch, line: BatchLine, actualUg: number) {
+function settleLedger(
+	tx: Tx,
+	actor: Technician,
+	b: Batch,
+	line: BatchLine,
+	corrected: Pick<BatchLine, 'kind' | 'actualUg' | 'actualUl'>
+) {
 	if (b.state !== 'prepared' || !line.lotId) return {};
 	const lotRow = findLot(line.lotId, tx)!;
 	const before = lotRow.quantityKind === 'mass' ? line.consumedMg : line.consumedUl;
-	const after = takenFromLot(tx, b, lotRow, actualUg);
+	const after = takenFromLot(tx, b, lotRow, corrected);
 	if (before !== null && before !== after)
 		appendStockEntry(tx, {
 			lotId: lotRow.id,
@@ -117,10 +123,11 @@ function writeCorrection(
 			signatureId: signature.id
 		})
 		.run();
-	const consumed =
-		parsed.quantity && line.kind === 'component'
-			? settleLedger(tx, actor, b, line, parsed.quantity)
-			: {};
+	const consumed = settleLedger(tx, actor, b, line, {
+		kind: line.kind,
+		actualUg: to.toUg,
+		actualUl: to.toUl
+	});
 	tx.update(batchLine)
 		.set({ actualText: toText, actualUg: to.toUg, actualUl: to.toUl, ...consumed })
 		.where(eq(batchLine.id, line.id))

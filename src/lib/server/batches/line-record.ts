@@ -23,7 +23,6 @@ type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export interface LineRecord {
 	actualText: string;
 	reason?: string;
-	stockSource?: string;
 }
 
 /** Lines are added in the order of the sheet: no earlier line may still be open. */
@@ -43,30 +42,25 @@ function requireNextInOrder(b: Batch, line: BatchLine, reader: Reader): void {
 }
 
 /**
- * Where what went in came from: a component line needs its scanned lot, still usable; a stock line
- * names its bottle. Returns the stock source ('' for a component line).
+ * Where what went in came from: the scanned lot of a component line, or the scanned stock batch
+ * of a stock line, still usable. Returns the stock's code for a stock line ('' otherwise).
  */
-function readSource(line: BatchLine, input: LineRecord, today: string, reader: Reader): string {
-	if (line.kind === 'component') {
-		if (!line.lotId)
-			throw new RuleError(`Scan the lot for line ${line.position} first.`, { field: 'scan' });
-		const lotRow = findLot(line.lotId, reader)!;
-		if (!isUsableLot(lotRow, today)) {
-			throw new RuleError(
-				`Lot ${lotRow.code} is no longer released and in date; scan another lot.`,
-				{ field: 'scan', status: 409 }
-			);
-		}
-		return '';
+function readSource(line: BatchLine, today: string, reader: Reader): string {
+	if (!line.lotId)
+		throw new RuleError(
+			line.kind === 'stock'
+				? `Scan the stock bottle for line ${line.position} first (its batch number).`
+				: `Scan the lot for line ${line.position} first.`,
+			{ field: 'scan' }
+		);
+	const lotRow = findLot(line.lotId, reader)!;
+	if (!isUsableLot(lotRow, today)) {
+		throw new RuleError(
+			`${line.kind === 'stock' ? 'Stock' : 'Lot'} ${lotRow.code} is no longer released and in date; scan another.`,
+			{ field: 'scan', status: 409 }
+		);
 	}
-	const stockSource = (input.stockSource ?? '').trim();
-	if (!stockSource)
-		throw new RuleError('Say which stock bottle you used (its batch number).', {
-			field: 'stockSource'
-		});
-	if (stockSource.length > 80)
-		throw new RuleError('At most 80 characters.', { field: 'stockSource' });
-	return stockSource;
+	return line.kind === 'stock' ? lotRow.code : '';
 }
 
 /** Out of tolerance needs a reason of at least 3 characters, kept as a deviation of the line. */
@@ -174,7 +168,7 @@ export function recordLine(
 		const parsed = readLineAmount(input.actualText, line.kind);
 		if (!parsed.ok) throw new RuleError(parsed.message, { field: 'actual' });
 		const actualQuantity = parsed.quantity;
-		const stockSource = readSource(line, input, today, tx);
+		const stockSource = readSource(line, today, tx);
 		const required =
 			line.kind === 'component'
 				? (line.requiredUg ?? sheetLine.requiredQuantity)

@@ -3,11 +3,11 @@ import { formatLineQuantity } from '$lib/batches';
 import { formatQuantity, isoToday, lotUnusability } from '$lib/inventory';
 import { batchVolumeL } from '$lib/quantities';
 import { recordAudit } from '../audit';
-import { findComponent } from '../components/library';
 import { db } from '../db';
 import { batchLine, recipeLine, type Batch, type BatchLine, type Lot } from '../db/schema';
 import { onHandOf } from '../inventory/ledger';
 import { findLot, findLotByCode } from '../inventory/lots';
+import { materialOfLot } from '../inventory/material';
 import { RuleError } from '../rule-error';
 import { componentsOfVersion } from '../recipes/snapshot';
 import {
@@ -19,6 +19,7 @@ import {
 	type Technician
 } from './execution';
 import { buildSheetLines, requirementFor } from './sheet';
+import { stockLotRefusal } from './stock-lots';
 
 /**
  * What a scanned or typed code names: a lot id (L-2026-0001), the lot's record id, or a URL that
@@ -54,7 +55,7 @@ export function lotRefusal(
 	today = isoToday()
 ): string | null {
 	if (lotRow.componentId !== line.componentId) {
-		const actual = findComponent(lotRow.componentId)?.name ?? lotRow.componentId;
+		const actual = materialOfLot(lotRow).name;
 		return `Wrong lot: ${lotRow.code} is ${actual}; this line needs ${line.name}.`;
 	}
 	const unusable = lotUnusability(lotRow, today);
@@ -68,12 +69,8 @@ export function lotRefusal(
 	return null;
 }
 
-/** A line that can take a lot: a component line not yet signed as done. */
+/** A line that can take a lot (a raw-material lot, or the stock batch it adds): not yet signed. */
 function requireLineForLot(line: BatchLine): void {
-	if (line.kind !== 'component')
-		throw new RuleError('A stock line has no lot to scan; record the stock you add.', {
-			field: 'scan'
-		});
 	if (line.doneAt)
 		throw new RuleError(`Line ${line.position} is already signed as done; its lot cannot change.`, {
 			field: 'scan',
@@ -181,23 +178,42 @@ function recordLotChoice(
 		if (line.lotId === found.id) {
 			return {
 				lotCode: found.code,
-				requiredText: formatLineQuantity(line.requiredUg ?? 0, 'component'),
+				requiredText: formatLineQuantity(
+					(line.kind === 'stock' ? line.requiredUl : line.requiredUg) ?? 0,
+					line.kind
+				),
 				repeated: true
 			};
 		}
 		const sheetLine = buildSheetLines(b, tx, today).find((l) => l.id === line.id)!;
-		const { need, requiredUg } = lotRequirement(b, line, found, sheetLine.componentId, tx);
-		const refusal = lotRefusal(
-			found,
-			{ componentId: sheetLine.componentId, name: sheetLine.name },
-			need,
-			onHandOf(found.id, tx),
-			today
-		);
+		const onHand = onHandOf(found.id, tx);
+		let required: { requiredUg: number } | { requiredUl: number };
+		let refusal: string | null;
+		if (line.kind === 'stock') {
+			required = { requiredUl: sheetLine.requiredQuantity };
+			refusal = stockLotRefusal(
+				found,
+				{ stockRecipeId: line.stockRecipeId!, name: sheetLine.name },
+				sheetLine.requiredQuantity,
+				onHand,
+				tx,
+				today
+			);
+		} else {
+			const { need, requiredUg } = lotRequirement(b, line, found, sheetLine.componentId, tx);
+			required = { requiredUg };
+			refusal = lotRefusal(
+				found,
+				{ componentId: sheetLine.componentId, name: sheetLine.name },
+				need,
+				onHand,
+				today
+			);
+		}
 		if (refusal) throw refuseScan(b, line, scanned, found, refusal);
 		markStarted(tx, actor, b);
 		tx.update(batchLine)
-			.set({ lotId: found.id, requiredUg })
+			.set({ lotId: found.id, ...required })
 			.where(eq(batchLine.id, line.id))
 			.run();
 		recordAudit(
@@ -206,13 +222,14 @@ function recordLotChoice(
 				action: 'batch.lot_chosen',
 				subjectType: 'batch',
 				subjectId: b.id,
-				detail: { line: line.position, lot: found.code, requiredUg }
+				detail: { line: line.position, lot: found.code, ...required }
 			},
 			tx
 		);
+		const quantity = 'requiredUg' in required ? required.requiredUg : required.requiredUl;
 		return {
 			lotCode: found.code,
-			requiredText: formatLineQuantity(requiredUg, 'component'),
+			requiredText: formatLineQuantity(quantity, line.kind),
 			repeated: false
 		};
 	});

@@ -9,6 +9,7 @@ import { RuleError } from '../rule-error';
 import { refusedSignature, signRecord } from '../signatures';
 import { batchDigest } from './completion';
 import { requireBatch } from './execution';
+import { createStockLot } from './stock-lots';
 
 /** Why this person may not review the batch, or null when they may. */
 export function reviewRefusal(
@@ -95,6 +96,9 @@ export async function reviewBatch(
 				},
 				tx
 			);
+			// A released stock solution becomes a lot that later batches scan.
+			if (decision === 'released')
+				createStockLot(tx, { id: reviewer.id, email: reviewer.email }, now);
 		}
 	);
 }

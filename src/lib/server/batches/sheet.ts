@@ -24,6 +24,7 @@ import { usableLotCondition } from '../inventory/usable';
 import { massToLotQuantity } from '../inventory/units';
 import { findRecipe } from '../recipes/queries';
 import { scaleComponentLine, scaleStockLine } from './scaling';
+import { usableStockLots } from './stock-lots';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -207,27 +208,56 @@ function consumedTextOf(line: BatchLine, chosenRow: Lot | null): string | null {
 	return consumed === null ? null : formatQuantity(consumed, chosenRow.quantityKind);
 }
 
+/** The first released, in-date batch of the stock with enough left for the line, or why none. */
+function suggestStock(
+	stockRecipeId: string,
+	name: string,
+	requiredUl: number,
+	reader: Reader,
+	today: string
+) {
+	const candidates = usableStockLots(stockRecipeId, reader, today);
+	const enough = candidates.find((c) => c.onHand >= requiredUl);
+	if (enough) return { suggestion: choiceOf(enough.row, enough.onHand, today), note: null };
+	return {
+		suggestion: null,
+		note: candidates.length
+			? `No released batch of ${name} has enough left for this line.`
+			: `No released, in-date batch of ${name} is in stock: make and release one first.`
+	};
+}
+
 function stockSheetLine(
 	line: BatchLine,
 	source: RecipeLine,
+	sheet: LoadedSheet,
 	volumeL: number,
-	reader: Reader
+	reader: Reader,
+	today: string
 ): SheetLine {
-	const { requiredUl, steps } = stockRequirement(source.amount, volumeL);
+	const { requiredUl: nominalUl, steps } = stockRequirement(source.amount, volumeL);
+	const requiredUl = line.requiredUl ?? nominalUl;
+	const name = findRecipe(source.stockRecipeId!, reader)?.name ?? 'Stock solution';
+	const chosenRow = line.lotId ? (sheet.chosenRows.get(line.lotId) ?? null) : null;
+	const suggested = line.doneAt
+		? null
+		: suggestStock(source.stockRecipeId!, name, requiredUl, reader, today);
 	return {
-		...baseOf(line, source, null),
+		...baseOf(line, source, chosenRow),
 		kind: 'stock',
-		name: findRecipe(source.stockRecipeId!, reader)?.name ?? 'Stock solution',
+		name,
 		basisName: null,
 		componentId: null,
 		formula: null,
 		requiredQuantity: requiredUl,
-		requiredFor: 'nominal',
+		requiredFor: chosenRow ? 'chosen' : 'nominal',
 		requiredText: formatLineQuantity(requiredUl, 'stock'),
 		steps,
-		chosen: null,
-		suggestion: null,
-		suggestionNote: null,
+		chosen: chosenRow
+			? choiceOf(chosenRow, sheet.chosenOnHand.get(chosenRow.id) ?? 0, today)
+			: null,
+		suggestion: suggested?.suggestion ?? null,
+		suggestionNote: suggested?.note ?? null,
 		verdict:
 			line.actualUl === null
 				? null
@@ -288,7 +318,7 @@ export function buildSheetLines(b: Batch, reader: Reader = db, today = isoToday(
 	return sheet.lines.map((line) => {
 		const source = sheet.recipeLines.get(line.recipeLineId)!;
 		return line.kind === 'stock'
-			? stockSheetLine(line, source, volumeL, reader)
+			? stockSheetLine(line, source, sheet, volumeL, reader, today)
 			: componentSheetLine(line, source, sheet, volumeL, reader, today);
 	});
 }

@@ -22,10 +22,18 @@ export function openDatabase(path: string, migrationsFolder = config.migrationsF
 	}
 	const sqlite = new Database(path);
 	sqlite.pragma('journal_mode = WAL');
-	sqlite.pragma('foreign_keys = ON');
 	sqlite.pragma('busy_timeout = 5000');
 	const db = drizzle(sqlite, { schema });
+	// A migration that rebuilds a table (SQLite's way to change a column) needs foreign keys off
+	// while it runs; every reference is checked once all have run.
+	sqlite.pragma('foreign_keys = OFF');
 	migrate(db, { migrationsFolder });
+	const broken = sqlite.pragma('foreign_key_check') as unknown[];
+	if (broken.length > 0)
+		throw new Error(
+			`Migrations left ${broken.length} broken references: ${JSON.stringify(broken.slice(0, 5))}`
+		);
+	sqlite.pragma('foreign_keys = ON');
 	sealUnchainedRows(sqlite);
 	return db;
 }

@@ -1,4 +1,13 @@
-import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import {
+	index,
+	integer,
+	real,
+	sqliteTable,
+	text,
+	uniqueIndex,
+	type AnySQLiteColumn
+} from 'drizzle-orm/sqlite-core';
+import { batch } from './batches.schema';
 import type { LedgerKind, LotStatus, QuantityKind, DateKind } from '$lib/inventory';
 import { component } from './recipes.schema';
 import { user } from './schema';
@@ -14,9 +23,10 @@ export const lot = sqliteTable(
 		id: id(),
 		/** The internal lot id printed on the label and scanned at the bench. */
 		code: text('code').notNull().unique(),
-		componentId: text('component_id')
-			.notNull()
-			.references(() => component.id),
+		/** The raw material; null for a stock solution made here (see `sourceBatchId`). */
+		componentId: text('component_id').references(() => component.id),
+		/** The stock-solution batch this lot is, once it was released; null for a received lot. */
+		sourceBatchId: text('source_batch_id').references((): AnySQLiteColumn => batch.id),
 		supplier: text('supplier').notNull(),
 		supplierLot: text('supplier_lot').notNull(),
 		quantityKind: text('quantity_kind').$type<QuantityKind>().notNull(),
@@ -44,6 +54,7 @@ export const lot = sqliteTable(
 	(t) => [
 		uniqueIndex('lot_supplier_lot_idx').on(t.componentId, t.supplier, t.supplierLot),
 		index('lot_component_idx').on(t.componentId),
+		uniqueIndex('lot_source_batch_idx').on(t.sourceBatchId),
 		index('lot_status_idx').on(t.status, t.expiresOn)
 	]
 );

@@ -192,6 +192,88 @@ export const DEMO_LOTS: DemoLot[] = [
 		expiresInDays: 800,
 		assayPercent: '99.5',
 		waterContentPercent: '0.2'
+	},
+	// The salts of the trace-element stock, made here as its own batch.
+	{
+		component: 'trisodium-citrate-dihydrate',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-TC-2611',
+		quantity: '250',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'iron-ii-sulfate-heptahydrate',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-FE-2611',
+		quantity: '100',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'zinc-sulfate-heptahydrate',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-ZN-2611',
+		quantity: '100',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'manganese-ii-sulfate-monohydrate',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-MN-2611',
+		quantity: '100',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'copper-ii-sulfate-pentahydrate',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-CU-2611',
+		quantity: '50',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'cobalt-ii-chloride-hexahydrate',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-CO-2611',
+		quantity: '25',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'sodium-molybdate-dihydrate',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-MO-2611',
+		quantity: '25',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'boric-acid',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-BO-2611',
+		quantity: '100',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
+	},
+	{
+		component: 'sodium-selenite',
+		supplier: 'Kestrel Trace Metals',
+		supplierLot: 'KT-SE-2611',
+		quantity: '10',
+		unit: 'g',
+		receivedDaysAgo: 40,
+		expiresInDays: 700
 	}
 ];
 
@@ -289,7 +371,21 @@ export async function seedDemoInventory(today = isoToday()): Promise<number> {
 	return added;
 }
 
-const DEMO_BATCHES = [
+const DEMO_BATCHES: {
+	recipe: string;
+	volumeL: number;
+	intendedUse: string;
+	finished: boolean;
+	ph?: string;
+	osmolality?: string;
+}[] = [
+	{
+		recipe: 'PPN Trace Elements T2',
+		volumeL: 0.5,
+		intendedUse: 'Trace stock for the pilot runs (demo)',
+		finished: true,
+		ph: '2.5'
+	},
 	{
 		recipe: 'NB-Min Salts 3',
 		volumeL: 2,
@@ -333,25 +429,18 @@ async function seedDemoBatches(today: string): Promise<number> {
 		added++;
 		if (!demo.finished) continue;
 		for (const line of buildSheetLines(planned, db, today)) {
-			if (line.kind === 'component') {
-				const lotCode = line.suggestion?.code;
-				if (!lotCode) throw new Error(`Demo batch: no lot for ${line.name}`);
-				chooseLot(tech, planned.id, line.id, lotCode, today);
-			}
+			// Raw lots and the trace stock made above alike: the first-expiring usable one.
+			const lotCode = line.suggestion?.code;
+			if (!lotCode) throw new Error(`Demo batch: no lot for ${line.name}`);
+			chooseLot(tech, planned.id, line.id, lotCode, today);
 		}
 		for (const line of buildSheetLines(planned, db, today)) {
-			recordLine(
-				tech,
-				planned.id,
-				line.id,
-				{
-					actualText: line.requiredText,
-					stockSource: line.kind === 'stock' ? 'Trace stock, demo bottle T2-001' : ''
-				},
-				today
-			);
+			recordLine(tech, planned.id, line.id, { actualText: line.requiredText }, today);
 		}
-		recordMeasurements(tech, planned.id, { ph: demo.ph!, osmolality: demo.osmolality! });
+		recordMeasurements(tech, planned.id, {
+			ph: demo.ph ?? '',
+			osmolality: demo.osmolality ?? ''
+		});
 		await completeBatch(
 			tech,
 			planned.id,

@@ -6,7 +6,7 @@ import { component, lot, stockEntry, user } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { checkLotInput, type CheckedLot, type LotText } from './lot-input';
 import { listLots, receiveLots, type SignedActor } from './lots';
-import type { BatchLotUse, LotUse } from './where-used';
+import type { BatchLotUse, TracedUse } from './where-used';
 
 /** CSV columns ↔ lot fields; the header row uses the snake_case names. */
 const IMPORT_COLUMNS: Record<string, keyof LotText> = {
@@ -199,11 +199,13 @@ export function exportLedgerCsv(lotId?: string): string {
 	);
 }
 
-export function whereUsedCsv(lotCode: string, uses: LotUse[]): string {
+export function whereUsedCsv(lotCode: string, uses: TracedUse[]): string {
 	return toCsv(
 		uses.map((u) => ({
 			lot_id: lotCode,
 			batch: u.batchNumber,
+			depth: u.depth,
+			via_stock: u.viaLotCode ?? '',
 			state: u.state,
 			recipe: u.recipeName,
 			planned_on: u.plannedOn,
@@ -217,6 +219,8 @@ export function whereUsedCsv(lotCode: string, uses: LotUse[]): string {
 		[
 			'lot_id',
 			'batch',
+			'depth',
+			'via_stock',
 			'state',
 			'recipe',
 			'planned_on',

@@ -17,6 +17,7 @@ import {
 	writeCertificateFiles,
 	type CheckedUpload
 } from './certificates';
+import { materialOfLot } from './material';
 import { appendStockEntry, onHandByLot, onHandOf, type Tx } from './ledger';
 import type { CheckedLot } from './lot-input';
 import { toBaseQuantity } from './units';
@@ -212,11 +213,7 @@ export function adjustLot(
 ): void {
 	db.transaction((tx) => {
 		const current = requireLot(lotId, tx);
-		const materials = tx
-			.select()
-			.from(component)
-			.where(eq(component.id, current.componentId))
-			.get()!;
+		const materials = materialOfLot(current, tx);
 		const { kind, quantity } = toBaseQuantity(input.amount, input.unit, materials, {
 			amount: 'amount',
 			unit: 'unit'
@@ -263,11 +260,7 @@ export function disposeLot(
 					field: 'amount'
 				});
 		} else {
-			const materials = tx
-				.select()
-				.from(component)
-				.where(eq(component.id, current.componentId))
-				.get()!;
+			const materials = materialOfLot(current, tx);
 			const parsed = toBaseQuantity(input.amount ?? NaN, input.unit ?? '', materials, {
 				amount: 'amount',
 				unit: 'unit'
@@ -309,7 +302,8 @@ export interface LotFilter {
 export interface LotRow {
 	id: string;
 	code: string;
-	componentId: string;
+	/** Null for a stock solution made here; `componentName` is then the stock recipe's name. */
+	componentId: string | null;
 	componentName: string;
 	supplier: string;
 	supplierLot: string;
@@ -347,7 +341,7 @@ export function listLots(
 			id: lot.id,
 			code: lot.code,
 			componentId: lot.componentId,
-			componentName: component.name,
+			componentName: sql<string>`coalesce(${component.name}, (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = ${lot.sourceBatchId}), ${lot.code})`,
 			supplier: lot.supplier,
 			supplierLot: lot.supplierLot,
 			quantityKind: lot.quantityKind,
@@ -362,7 +356,7 @@ export function listLots(
 			waterContentPercent: lot.waterContentPercent
 		})
 		.from(lot)
-		.innerJoin(component, eq(lot.componentId, component.id))
+		.leftJoin(component, eq(lot.componentId, component.id))
 		.where(conditions.length ? and(...conditions) : undefined)
 		.orderBy(asc(lot.expiresOn), asc(lot.code))
 		.all();

@@ -1,6 +1,5 @@
 import { asc, eq } from 'drizzle-orm';
 import { isExpired, isoToday } from '$lib/inventory';
-import { findComponent } from '../components/library';
 import { db } from '../db';
 import { stockEntry, user } from '../db/schema';
 import { personName } from '../recipes/queries';
@@ -8,13 +7,14 @@ import { RuleError } from '../rule-error';
 import { certificatesOf } from './certificates';
 import { onHandOf } from './ledger';
 import { findLot } from './lots';
-import { batchesUsingLot } from './where-used';
+import { materialOfLot } from './material';
+import { batchesMadeFromLot } from './where-used';
 
 /** Everything about one lot: what it is, its stock and ledger, certificates and where it was used. */
 export function lotView(lotId: string, today = isoToday()) {
 	const lot = findLot(lotId);
 	if (!lot) throw new RuleError('No lot with this id.', { status: 404 });
-	const material = findComponent(lot.componentId)!;
+	const material = materialOfLot(lot);
 	const ledger = db
 		.select({
 			id: stockEntry.id,
@@ -38,12 +38,13 @@ export function lotView(lotId: string, today = isoToday()) {
 			statusChangedByName: personName(lot.statusChangedById)
 		},
 		component: {
-			id: material.id,
+			id: material.component?.id ?? null,
 			name: material.name,
-			formula: material.formula,
+			formula: material.component?.formula ?? null,
 			densityGPerMl: material.densityGPerMl,
-			ghsHazards: material.ghsHazards
+			ghsHazards: material.component?.ghsHazards ?? []
 		},
+		stock: material.stock,
 		onHand: onHandOf(lotId),
 		ledger,
 		certificates: certificatesOf(lotId).map((c) => ({
@@ -53,6 +54,6 @@ export function lotView(lotId: string, today = isoToday()) {
 			sizeBytes: c.sizeBytes,
 			uploadedAt: c.uploadedAt
 		})),
-		whereUsed: batchesUsingLot(lotId)
+		whereUsed: batchesMadeFromLot(lotId)
 	};
 }

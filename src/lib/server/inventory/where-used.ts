@@ -49,6 +49,47 @@ export function batchesUsingLot(lotId: string, reader: Reader = db): LotUse[] {
 		.all();
 }
 
+export interface TracedUse extends LotUse {
+	/** 1 for a batch that used the lot itself; 2 for one that used a stock made with it; and so on. */
+	depth: number;
+	/** The stock lot (a batch number) this use came through; null at depth 1. */
+	viaLotCode: string | null;
+}
+
+/** Deepest chain of stocks followed: stocks of stocks are rare beyond two or three. */
+const MAX_TRACE_DEPTH = 10;
+
+/**
+ * Every batch made from the lot at any depth: the batches that used it, then those that used a
+ * stock solution made by one of them, and so on. Each batch appears once, at its shallowest depth.
+ */
+export function batchesMadeFromLot(lotId: string, reader: Reader = db): TracedUse[] {
+	const traced: TracedUse[] = [];
+	const seenBatches = new Set<string>();
+	let frontier: { lotId: string; viaLotCode: string | null }[] = [{ lotId, viaLotCode: null }];
+	for (let depth = 1; frontier.length > 0 && depth <= MAX_TRACE_DEPTH; depth++) {
+		const next: typeof frontier = [];
+		for (const source of frontier) {
+			for (const use of batchesUsingLot(source.lotId, reader)) {
+				if (seenBatches.has(use.batchId)) continue;
+				seenBatches.add(use.batchId);
+				traced.push({ ...use, depth, viaLotCode: source.viaLotCode });
+				const made = reader
+					.select({ id: lot.id, code: lot.code })
+					.from(lot)
+					.where(eq(lot.sourceBatchId, use.batchId))
+					.get();
+				if (made) next.push({ lotId: made.id, viaLotCode: made.code });
+			}
+		}
+		frontier = next;
+	}
+	return traced;
+}
+
+/** What a lot holds, for lists: the component's name, or the stock recipe's for a lot made here. */
+const lotMaterialName = sql<string>`coalesce(${component.name}, (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = ${lot.sourceBatchId}), ${lot.code})`;
+
 export interface BatchLotUse {
 	position: number;
 	lotId: string;
@@ -69,7 +110,7 @@ export function lotsUsedByBatch(batchId: string, reader: Reader = db): BatchLotU
 			position: batchLine.position,
 			lotId: lot.id,
 			lotCode: lot.code,
-			componentName: component.name,
+			componentName: lotMaterialName,
 			supplier: lot.supplier,
 			supplierLot: lot.supplierLot,
 			expiresOn: lot.expiresOn,
@@ -79,7 +120,7 @@ export function lotsUsedByBatch(batchId: string, reader: Reader = db): BatchLotU
 		})
 		.from(batchLine)
 		.innerJoin(lot, eq(batchLine.lotId, lot.id))
-		.innerJoin(component, eq(lot.componentId, component.id))
+		.leftJoin(component, eq(lot.componentId, component.id))
 		.where(and(eq(batchLine.batchId, batchId), isNotNull(batchLine.lotId)))
 		.orderBy(asc(batchLine.position))
 		.all();

@@ -55,7 +55,7 @@ export const lotListResponse = describes<{ items: LotRow[]; total: number }>()(
 			z.object({
 				id: z.string(),
 				code: z.string(),
-				componentId: z.string(),
+				componentId: z.string().nullable().describe('null for a stock solution made here'),
 				componentName: z.string(),
 				supplier: z.string(),
 				supplierLot: z.string(),
@@ -80,7 +80,11 @@ export const lotListResponse = describes<{ items: LotRow[]; total: number }>()(
 const lotRow = {
 	id: z.string(),
 	code: z.string().describe('the internal lot id on the label'),
-	componentId: z.string(),
+	componentId: z.string().nullable().describe('null for a stock solution made here'),
+	sourceBatchId: z
+		.string()
+		.nullable()
+		.describe('the stock-solution batch this lot is; null for a received lot'),
 	supplier: z.string(),
 	supplierLot: z.string(),
 	quantityKind: z.enum(QUANTITY_KINDS),
@@ -112,13 +116,24 @@ export const lotViewResponse = describes<ReturnType<typeof lotView>>()(
 			receivedByName: z.string().nullable(),
 			statusChangedByName: z.string().nullable()
 		}),
-		component: z.object({
-			id: z.string(),
-			name: z.string(),
-			formula: z.string().nullable(),
-			densityGPerMl: z.number().nullable(),
-			ghsHazards: z.array(z.object({ code: z.string(), text: z.string() }))
-		}),
+		component: z
+			.object({
+				id: z.string().nullable(),
+				name: z.string(),
+				formula: z.string().nullable(),
+				densityGPerMl: z.number().nullable(),
+				ghsHazards: z.array(z.object({ code: z.string(), text: z.string() }))
+			})
+			.describe('what the lot holds; for a stock solution made here, `id` is null'),
+		stock: z
+			.object({
+				recipeId: z.string(),
+				recipeName: z.string(),
+				batchId: z.string(),
+				batchNumber: z.string()
+			})
+			.nullable()
+			.describe('the stock-solution recipe and batch a made-here lot is; null for a received lot'),
 		onHand: baseQuantity('The sum of the ledger'),
 		ledger: z.array(
 			z.object({
@@ -153,7 +168,12 @@ export const lotViewResponse = describes<ReturnType<typeof lotView>>()(
 				consumedQuantity: baseQuantity('Taken from the lot')
 					.nullable()
 					.describe('null while the batch is not yet prepared'),
-				quantityKind: z.enum(QUANTITY_KINDS)
+				quantityKind: z.enum(QUANTITY_KINDS),
+				depth: z.int().describe('1: used the lot itself; 2: used a stock made with it; and so on'),
+				viaLotCode: z
+					.string()
+					.nullable()
+					.describe('the stock (its batch number) this use came through; null at depth 1')
 			})
 		)
 	})

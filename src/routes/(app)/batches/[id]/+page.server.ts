@@ -26,7 +26,6 @@ const chooseLotForm = lineForm.extend({ scan: text });
 const recordLineForm = lineForm.extend({
 	actual: text,
 	reason: text,
-	stockSource: text,
 	witnessEmail: text,
 	witnessPassword: text
 });
@@ -115,12 +114,11 @@ export const actions: Actions = {
 		const formData = await request.formData();
 		const parsed = parseLineForm(recordLineForm, formData);
 		if (!parsed.ok) return parsed.failure;
-		const { lineId, actual, reason, stockSource, witnessEmail, witnessPassword } = parsed.data;
+		const { lineId, actual, reason, witnessEmail, witnessPassword } = parsed.data;
 		try {
 			const done = await recordLineAtBench(actor, params.id, lineId, {
 				actualText: actual,
 				reason,
-				stockSource,
 				witnessEmail,
 				witnessPassword
 			});

@@ -1,5 +1,5 @@
 import { requirePermission } from '$lib/server/guard';
-import { findComponentsByIds } from '$lib/server/components/library';
+import { materialOfLot } from '$lib/server/inventory/material';
 import { lotQrText, qrSvg } from '$lib/server/inventory/labels';
 import { findLot } from '$lib/server/inventory/lots';
 import type { Lot } from '$lib/server/db/schema';
@@ -9,12 +9,11 @@ export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('lot.view');
 	const ids = [...new Set(url.searchParams.getAll('lot'))].slice(0, 200);
 	const lots = ids.map((id) => findLot(id)).filter((l): l is Lot => Boolean(l));
-	const names = findComponentsByIds(lots.map((l) => l.componentId));
 	const labels = await Promise.all(
 		lots.map(async (l) => ({
 			id: l.id,
 			code: l.code,
-			componentName: names.get(l.componentId)?.name ?? l.componentId,
+			componentName: materialOfLot(l).name,
 			supplierLot: `${l.supplier} ${l.supplierLot}`,
 			expiresOn: l.expiresOn,
 			dateKind: l.dateKind,

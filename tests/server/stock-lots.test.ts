@@ -1,0 +1,127 @@
+// A stock solution made here is a lot: released with its batch, scanned by the stock line of a
+// later batch, taken from at completion, and followed by where-used from raw lot to medium.
+import { beforeAll, describe, expect, it } from 'vitest';
+import { checkBatchInput, createBatch } from '$lib/server/batches/create';
+import { completeBatch } from '$lib/server/batches/completion';
+import { recordLine } from '$lib/server/batches/line-record';
+import { chooseLot } from '$lib/server/batches/lot-choice';
+import { reviewBatch } from '$lib/server/batches/review';
+import { buildSheetLines } from '$lib/server/batches/sheet';
+import { DEFAULT_STOCK_SHELF_LIFE_DAYS } from '$lib/server/batches/stock-lots';
+import { seedReferenceLibrary } from '$lib/server/components/reference-library';
+import { addDays } from '$lib/server/inventory/alerts';
+import { ledgerOf, onHandOf } from '$lib/server/inventory/ledger';
+import { findLotByCode } from '$lib/server/inventory/lots';
+import { batchesMadeFromLot } from '$lib/server/inventory/where-used';
+import { rolesOf } from '$lib/server/people';
+import { makeUser } from './helpers';
+import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
+
+type Person = Awaited<ReturnType<typeof makeUser>>;
+let lead: Awaited<ReturnType<typeof makeLead>>;
+let tech: Person;
+let reviewer: Person;
+let stockRecipe: Awaited<ReturnType<typeof makeApprovedRecipe>>;
+let medium: Awaited<ReturnType<typeof makeApprovedRecipe>>;
+
+beforeAll(async () => {
+	seedReferenceLibrary();
+	lead = await makeLead();
+	tech = await makeUser(['prep_technician']);
+	reviewer = await makeUser(['engineer']);
+	// A 100 g/L magnesium sulfate stock, dosed at 2 mL/L into a medium.
+	stockRecipe = await makeApprovedRecipe(
+		[{ componentId: 'magnesium-sulfate', amount: 100, unit: 'g/L' }],
+		{ shelfLifeDays: '' },
+		[],
+		'stock_solution'
+	);
+	medium = await makeApprovedRecipe(
+		[{ componentId: 'sodium-chloride', amount: 5, unit: 'g/L' }],
+		{},
+		[{ stockRecipeId: stockRecipe.recipeId, amount: 2 }]
+	);
+});
+
+function plan(recipeId: string, volumeL: number) {
+	const checked = checkBatchInput({
+		recipeId,
+		targetVolumeL: volumeL,
+		plannedOn: today,
+		intendedUse: 'Stock lot test'
+	});
+	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
+	return createBatch(tech, checked.value);
+}
+
+async function prepareAndRelease(recipeId: string, volumeL: number, lotsByLine: string[]) {
+	const b = plan(recipeId, volumeL);
+	const lines = buildSheetLines(b);
+	lines.forEach((line, i) => {
+		chooseLot(tech, b.id, line.id, lotsByLine[i]);
+		const now = buildSheetLines(b).find((l) => l.id === line.id)!;
+		recordLine(tech, b.id, line.id, { actualText: now.requiredText.replace(/ (g|mL)$/, '') });
+	});
+	await completeBatch(tech, b.id, { password: tech.password });
+	await reviewBatch({ ...reviewer, roles: rolesOf(reviewer.id) }, b.id, {
+		decision: 'released',
+		password: reviewer.password,
+		reason: 'Complete.'
+	});
+	return b;
+}
+
+describe('stock solutions made here', () => {
+	it('become a lot at release, are scanned by a stock line, and are followed raw lot → stock → medium', async () => {
+		const raw = makeLot(lead.actor, {
+			component: 'magnesium-sulfate',
+			expiresOn: addDays(today, 400),
+			quantity: '500',
+			unit: 'g'
+		});
+		const stockBatch = await prepareAndRelease(stockRecipe.recipeId, 0.5, [raw.code]);
+		const stockLot = findLotByCode(stockBatch.number)!;
+		expect(stockLot).toMatchObject({
+			componentId: null,
+			sourceBatchId: stockBatch.id,
+			status: 'released',
+			quantityKind: 'volume',
+			receivedQuantity: 500_000,
+			expiresOn: addDays(today, DEFAULT_STOCK_SHELF_LIFE_DAYS)
+		});
+		expect(onHandOf(stockLot.id)).toBe(500_000);
+
+		const salt = makeLot(lead.actor, { component: 'sodium-chloride', quantity: '100', unit: 'g' });
+		const b = plan(medium.recipeId, 1);
+		const [saltLine, stockLine] = buildSheetLines(b);
+		expect(stockLine.suggestion?.code).toBe(stockBatch.number);
+		expect(stockLine.requiredText).toBe('2 mL');
+		// A raw lot is not the stock; a planned stock batch that was never made is no lot at all.
+		expect(() => chooseLot(tech, b.id, stockLine.id, salt.code)).toThrow(
+			/Wrong stock: .* this line needs a released batch of/
+		);
+		const planned = plan(stockRecipe.recipeId, 0.5);
+		expect(() => chooseLot(tech, b.id, stockLine.id, planned.number)).toThrow(
+			/is not a lot known here/
+		);
+		chooseLot(tech, b.id, saltLine.id, salt.code);
+		recordLine(tech, b.id, saltLine.id, { actualText: '5' });
+		expect(() => recordLine(tech, b.id, stockLine.id, { actualText: '2' })).toThrow(
+			/Scan the stock bottle for line 2 first/
+		);
+		chooseLot(tech, b.id, stockLine.id, stockBatch.number);
+		recordLine(tech, b.id, stockLine.id, { actualText: '2' });
+		await completeBatch(tech, b.id, { password: tech.password });
+		expect(onHandOf(stockLot.id)).toBe(500_000 - 2_000);
+		expect(ledgerOf(stockLot.id).map((e) => [e.kind, e.quantity])).toEqual([
+			['receipt', 500_000],
+			['consumption', -2_000]
+		]);
+
+		const traced = batchesMadeFromLot(raw.id).map((u) => [u.batchNumber, u.depth, u.viaLotCode]);
+		expect(traced).toEqual([
+			[stockBatch.number, 1, null],
+			[b.number, 2, stockBatch.number]
+		]);
+	});
+});
