@@ -37,6 +37,8 @@ export const lot = sqliteTable(
 		/** ISO date; `dateKind` says whether it is an expiry or a retest date. */
 		expiresOn: text('expires_on').notNull(),
 		dateKind: text('date_kind').$type<DateKind>().notNull().default('expiry'),
+		/** ISO date from which the lot must be retested before use (set by a recall); null: none due. */
+		retestOn: text('retest_on'),
 		storage: text('storage').notNull().default(''),
 		assayPercent: real('assay_percent'),
 		purityPercent: real('purity_percent'),
@@ -112,3 +114,42 @@ export const stockEntry = sqliteTable(
 export type Lot = typeof lot.$inferSelect;
 export type LotCertificate = typeof lotCertificate.$inferSelect;
 export type StockEntry = typeof stockEntry.$inferSelect;
+
+/** A recall: a signed act that holds a lot (or sends it to retest) and flags what was made from it. */
+export const lotRecall = sqliteTable(
+	'lot_recall',
+	{
+		id: id(),
+		lotId: text('lot_id')
+			.notNull()
+			.references(() => lot.id),
+		/** hold: back to quarantine; retest: not usable until retested. */
+		lotAction: text('lot_action').$type<'hold' | 'retest'>().notNull(),
+		reason: text('reason').notNull(),
+		recalledById: text('recalled_by_id')
+			.notNull()
+			.references(() => user.id),
+		signatureId: text('signature_id').notNull(),
+		at: createdAt()
+	},
+	(t) => [index('lot_recall_lot_idx').on(t.lotId)]
+);
+
+/** A batch made from a recalled lot, at any depth through stocks. Append-only by trigger. */
+export const batchRecallFlag = sqliteTable(
+	'batch_recall_flag',
+	{
+		id: id(),
+		recallId: text('recall_id')
+			.notNull()
+			.references(() => lotRecall.id),
+		batchId: text('batch_id')
+			.notNull()
+			.references(() => batch.id),
+		depth: integer('depth').notNull(),
+		viaLotCode: text('via_lot_code')
+	},
+	(t) => [index('batch_recall_flag_batch_idx').on(t.batchId)]
+);
+
+export type LotRecall = typeof lotRecall.$inferSelect;
