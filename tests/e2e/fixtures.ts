@@ -15,6 +15,9 @@ export type DemoRole = keyof typeof DEMO;
 /** A second demo media scientist, for what one scientist changes and another reviews. */
 export const SECOND_SCIENTIST = 'scientist2@demo.test';
 
+/** A second inventory lead: signs for the lots the first one received. */
+export const DEMO_STORES_LEAD = 'stores@demo.test';
+
 /** Signs in through the form, as a person would. */
 export async function signInWithForm(page: Page, email: string, password = DEMO_PASSWORD) {
 	await page.goto('/login');
@@ -54,14 +57,14 @@ export const test = base.extend<{ role: DemoRole | null }>({
 });
 
 /** A second signed-in page in its own browser context, for a test that needs two people. */
-export async function pageAs(browser: Browser, role: DemoRole, baseURL: string): Promise<Page> {
-	return pageAsEmail(browser, DEMO[role], baseURL);
-}
-
-/** As `pageAs`, for a demo account named by its e-mail. */
-export async function pageAsEmail(browser: Browser, email: string, baseURL: string): Promise<Page> {
+export async function pageAs(
+	browser: Browser,
+	role: DemoRole | { email: string },
+	baseURL: string
+): Promise<Page> {
 	const context = await browser.newContext({ baseURL });
 	const page = await context.newPage();
+	const email = typeof role === 'string' ? DEMO[role] : role.email;
 	const response = await page.request.post('/api/v1/session', {
 		data: { email, password: DEMO_PASSWORD }
 	});

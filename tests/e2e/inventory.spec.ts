@@ -1,4 +1,4 @@
-import { expect, pageAs, test } from './fixtures';
+import { DEMO_PASSWORD, DEMO_STORES_LEAD, expect, pageAs, test } from './fixtures';
 
 const PDF = Buffer.from('%PDF-1.4\n%test certificate\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n');
 
@@ -46,8 +46,17 @@ test.describe('inventory lead', () => {
 				.toString()
 		).toBe('%PDF-');
 
-		await page.getByRole('button', { name: 'Release lot' }).click();
-		await expect(page.getByText('Released: the lot can now be used in batches.')).toBeVisible();
+		await expect(page.getByTestId('signing-refusal')).toHaveText(
+			'You received this lot, so someone else must release it.'
+		);
+		const checker = await pageAs(browser, { email: DEMO_STORES_LEAD }, baseURL!);
+		await checker.goto(page.url());
+		await checker.getByLabel('Your password (to sign)').fill(DEMO_PASSWORD);
+		await checker.getByRole('button', { name: 'Release lot' }).click();
+		await expect(
+			checker.getByText('Released and signed: the lot can now be used in batches.')
+		).toBeVisible();
+		await checker.context().close();
 
 		const quarantined = await (
 			await page.request.get(
@@ -142,8 +151,8 @@ test.describe('media scientist', () => {
 		await page.goto(`/lots/${lot.id}`);
 		await expect(page.getByRole('heading', { name: `Lot ${lot.code}` })).toBeVisible();
 		await expect(page.getByRole('button', { name: 'Release lot' })).toHaveCount(0);
-		const response = await page.request.post(`/lots/${lot.id}?/release`, {
-			form: { reason: '' },
+		const response = await page.request.post(`/lots/${lot.id}?/sign`, {
+			form: { decision: 'released', reason: '', password: 'brothwright-demo' },
 			headers: { origin: baseURL! }
 		});
 		expect(response.status()).toBe(403);

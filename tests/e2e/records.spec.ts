@@ -1,5 +1,5 @@
 import type { Page } from '@playwright/test';
-import { DEMO_PASSWORD, SECOND_SCIENTIST, expect, pageAs, pageAsEmail, test } from './fixtures';
+import { DEMO_PASSWORD, SECOND_SCIENTIST, expect, pageAs, test } from './fixtures';
 
 async function planBatch(page: Page, use: string): Promise<string> {
 	await page.goto('/batches/new');
@@ -89,7 +89,7 @@ test.describe('four eyes on recipes', () => {
 		await expect(page.getByRole('heading', { name: `Edit ${name} · version 1` })).toBeVisible();
 		const versionPath = new URL(page.url()).pathname.replace(/\/edit$/, '');
 
-		const second = await pageAsEmail(browser, SECOND_SCIENTIST, baseURL!);
+		const second = await pageAs(browser, { email: SECOND_SCIENTIST }, baseURL!);
 		await second.goto(`${versionPath}/import`);
 		await second
 			.getByLabel('…or paste the rows (header first)')

@@ -6,6 +6,8 @@ import { ledgerSums } from '$lib/server/inventory/ledger';
 import { listLots } from '$lib/server/inventory/lots';
 import { batchesUsingLot } from '$lib/server/inventory/where-used';
 import { listBatches } from '$lib/server/batches/view';
+import { findLot } from '$lib/server/inventory/lots';
+import { signaturesFor } from '$lib/server/signatures';
 
 describe('the demo inventory', () => {
 	it('has an expired lot, one in quarantine, one low on stock, and batches that used lots; seeding twice adds nothing', async () => {
@@ -28,5 +30,23 @@ describe('the demo inventory', () => {
 		for (const { lotId, total } of ledgerSums())
 			expect(lots.find((l) => l.id === lotId)?.onHand).toBe(total);
 		expect(await seedDemo()).toBe(0);
+	});
+
+	it('has released and rejected lots, each signed by someone other than its receiver', async () => {
+		await seedDemo();
+		const decided = listLots().filter((l) => l.status !== 'quarantine');
+		expect(new Set(decided.map((l) => l.status))).toEqual(new Set(['released', 'rejected']));
+		const signatures = signaturesFor(
+			'lot',
+			decided.map((l) => l.id)
+		);
+		for (const l of decided) {
+			const signed = signatures.filter((s) => s.subjectId === l.id);
+			expect(signed.map((s) => s.meaning)).toEqual([
+				l.status === 'released' ? 'released for use' : 'rejected'
+			]);
+			expect(signed[0].signerId).not.toBe(findLot(l.id)?.receivedById);
+			expect(signed[0].subjectDigest).toMatch(/^[0-9a-f]{64}$/);
+		}
 	});
 });

@@ -4,7 +4,10 @@ import type { Role } from '$lib/roles';
 import { addDays } from '$lib/server/inventory/alerts';
 import type { CheckedUpload } from '$lib/server/inventory/certificates';
 import { checkLotInput, type LotText } from '$lib/server/inventory/lot-input';
-import { receiveLot, setLotStatus } from '$lib/server/inventory/lots';
+import { db } from '$lib/server/db';
+import { lotDigest, LOT_SIGNATURE_MEANINGS } from '$lib/server/inventory/lot-signing';
+import { applyLotStatus, findLot, receiveLot, type LotDecision } from '$lib/server/inventory/lots';
+import { insertSignature } from '$lib/server/signatures';
 import { rolesOf } from '$lib/server/people';
 import { checkDraft } from '$lib/server/recipes/draft';
 import { createRecipe, saveDraft } from '$lib/server/recipes/drafts';
@@ -58,8 +61,37 @@ export function makeLot(
 	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
 	const lot = receiveLot(lead, checked.value, [pdfUpload()]);
 	if (status === 'released')
-		setLotStatus(lead, lot.id, 'released', '', String(fields.receivedOn ?? addDays(today, -5)));
+		decideLot(lead, lot.id, 'released', '', String(fields.receivedOn ?? addDays(today, -5)));
 	return lot;
+}
+
+/**
+ * A release or rejection with its signature row, written without the password check so fixtures
+ * stay synchronous (the signing itself is tested in lot-signing.test.ts).
+ */
+export function decideLot(
+	person: { id: string; email: string },
+	lotId: string,
+	to: LotDecision,
+	reason: string,
+	asOf = today
+) {
+	db.transaction((tx) => {
+		insertSignature(
+			{
+				signerId: person.id,
+				signerEmail: person.email,
+				signerName: person.email,
+				meaning: LOT_SIGNATURE_MEANINGS[to],
+				subjectType: 'lot',
+				subjectId: lotId,
+				subjectDigest: lotDigest(findLot(lotId, tx)!, tx),
+				comment: reason
+			},
+			tx
+		);
+		applyLotStatus(tx, person, lotId, to, reason, asOf);
+	});
 }
 
 type Line = {

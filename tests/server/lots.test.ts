@@ -15,7 +15,8 @@ import {
 } from '$lib/server/inventory/certificates';
 import { importLotCsv, previewLotCsv } from '$lib/server/inventory/csv';
 import { checkLotInput } from '$lib/server/inventory/lot-input';
-import { findLot, listLots, receiveLot, setLotStatus } from '$lib/server/inventory/lots';
+import { signLotDecision } from '$lib/server/inventory/lot-signing';
+import { findLot, listLots, receiveLot } from '$lib/server/inventory/lots';
 import { RuleError } from '$lib/server/rule-error';
 import { makeLead, makeLot, PDF_BYTES, pdfUpload, today } from './inventory-fixtures';
 
@@ -158,27 +159,26 @@ describe('certificate uploads', () => {
 });
 
 describe('release and rejection', () => {
-	it('releases only with a certificate on file and an in-date lot; rejection needs a reason', () => {
+	it('releases only with a certificate on file and an in-date lot; rejection needs a reason', async () => {
+		const checker = await makeLead();
+		const sign = (lotId: string, decision: string, reason = '') =>
+			signLotDecision(checker, lotId, { decision, reason, password: checker.password });
 		const checked = checkLotInput({ ...base, supplierLot: 'NOCERT-1' });
 		if (!checked.ok) throw new Error('fixture');
 		const bare = receiveLot(lead.actor, checked.value, []);
-		expect(() => setLotStatus(lead.actor, bare.id, 'released', '')).toThrow(
-			/no certificate of analysis on file/
-		);
+		await expect(sign(bare.id, 'released')).rejects.toThrow(/no certificate of analysis on file/);
 		const expired = makeLot(lead.actor, {
 			status: 'quarantine',
 			receivedOn: addDays(today, -40),
 			expiresOn: addDays(today, -1)
 		});
-		expect(() => setLotStatus(lead.actor, expired.id, 'released', '')).toThrow(
-			/passed its expiry date/
+		await expect(sign(expired.id, 'released')).rejects.toThrow(/passed its expiry date/);
+		await expect(sign(expired.id, 'rejected', '  ')).rejects.toThrow(
+			'Reason: give the reason for rejecting the lot'
 		);
-		expect(() => setLotStatus(lead.actor, expired.id, 'rejected', '  ')).toThrow(
-			'Give the reason for rejecting the lot.'
-		);
-		setLotStatus(lead.actor, expired.id, 'rejected', 'Expired on arrival');
+		await sign(expired.id, 'rejected', 'Expired on arrival');
 		expect(findLot(expired.id)?.status).toBe('rejected');
-		expect(() => setLotStatus(lead.actor, expired.id, 'released', '')).toThrow(
+		await expect(sign(expired.id, 'released')).rejects.toThrow(
 			/is rejected; it cannot be released now/
 		);
 		expect(listLots({ status: 'rejected' }).map((l) => l.id)).toContain(expired.id);

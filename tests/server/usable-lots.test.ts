@@ -5,9 +5,8 @@ import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { db } from '$lib/server/db';
 import { lot } from '$lib/server/db/schema';
 import { addDays } from '$lib/server/inventory/alerts';
-import { setLotStatus } from '$lib/server/inventory/lots';
 import { usableLotCondition } from '$lib/server/inventory/usable';
-import { makeLead, makeLot, today } from './inventory-fixtures';
+import { decideLot, makeLead, makeLot, today } from './inventory-fixtures';
 
 beforeAll(() => {
 	seedReferenceLibrary();
@@ -41,7 +40,7 @@ describe('a usable lot: released and not expired', () => {
 			makeLot(lead.actor, { receivedOn: addDays(today, -40), expiresOn: addDays(today, -1) })
 		];
 		const rejected = makeLot(lead.actor, { status: 'quarantine' });
-		setLotStatus(lead.actor, rejected.id, 'rejected', 'Certificate does not match the label.');
+		decideLot(lead.actor, rejected.id, 'rejected', 'Certificate does not match the label.');
 		lots.push(rejected);
 		const ids = lots.map((l) => l.id);
 		const rows = db

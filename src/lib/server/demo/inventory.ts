@@ -12,7 +12,8 @@ import { recordMeasurements } from '../batches/measurements';
 import { reviewBatch } from '../batches/review';
 import { buildSheetLines } from '../batches/sheet';
 import { checkLotInput, findDuplicateLot } from '../inventory/lot-input';
-import { receiveLot, setLotStatus } from '../inventory/lots';
+import { signLotDecision } from '../inventory/lot-signing';
+import { receiveLot } from '../inventory/lots';
 import { sniffMediaType, type CheckedUpload } from '../inventory/certificates';
 import { findUserByEmail, rolesOf } from '../people';
 import { currentApprovedVersion } from '../recipes/queries';
@@ -150,6 +151,18 @@ export const DEMO_LOTS: DemoLot[] = [
 		receivedDaysAgo: 2,
 		expiresInDays: 900,
 		assayPercent: '99.6',
+		status: 'quarantine'
+	},
+	// A second one waiting for a second person's release signature.
+	{
+		component: 'dipotassium-hydrogen-phosphate',
+		supplier: 'Calder Lab Supply',
+		supplierLot: 'CLS-KP-5127',
+		quantity: '1',
+		unit: 'kg',
+		receivedDaysAgo: 1,
+		expiresInDays: 1100,
+		assayPercent: '99.1',
 		status: 'quarantine'
 	},
 	{
@@ -312,8 +325,11 @@ async function demoCertificate(title: string): Promise<CheckedUpload> {
 /** Adds the demo lots that are missing (by supplier lot); returns how many records it added. */
 export async function seedDemoInventory(today = isoToday()): Promise<number> {
 	const lead = findUserByEmail('inventory@demo.test');
-	if (!lead) return 0;
+	const stores = findUserByEmail('stores@demo.test');
+	if (!lead || !stores) return 0;
 	const actor = { id: lead.id, email: lead.email };
+	// The second lead checks and signs what the first received, as the site setting asks.
+	const signer = { id: stores.id, email: stores.email, roles: rolesOf(stores.id) };
 	let added = 0;
 	for (const [componentId, settings] of Object.entries(STOCK_SETTINGS)) {
 		const row = db.select().from(component).where(eq(component.id, componentId)).get();
@@ -355,15 +371,22 @@ export async function seedDemoInventory(today = isoToday()): Promise<number> {
 		const status = demo.status ?? 'released';
 		if (status === 'released') {
 			// An expired lot was released while it was in date; release it as of then, then it lapses.
-			setLotStatus(
-				actor,
+			await signLotDecision(
+				signer,
 				received.id,
-				'released',
-				'Certificate checked against the specification.',
+				{
+					decision: 'released',
+					password: DEMO_PASSWORD,
+					reason: 'Certificate checked against the specification.'
+				},
 				receivedOn
 			);
 		} else if (typeof status === 'object') {
-			setLotStatus(actor, received.id, 'rejected', status.rejected);
+			await signLotDecision(signer, received.id, {
+				decision: 'rejected',
+				password: DEMO_PASSWORD,
+				reason: status.rejected
+			});
 		}
 		added++;
 	}

@@ -137,7 +137,7 @@ export function findLotByCode(code: string, reader: Reader = db): Lot | undefine
 		.get();
 }
 
-function requireLot(id: string, reader: Reader = db): Lot {
+export function requireLot(id: string, reader: Reader = db): Lot {
 	const found = findLot(id, reader);
 	if (!found) throw new RuleError('No lot with this id.', { status: 404 });
 	return found;
@@ -149,60 +149,81 @@ const TRANSITIONS: Record<LotStatus, LotStatus[]> = {
 	rejected: []
 };
 
-/** Release or reject. A release needs a certificate on file and an in-date lot; a rejection a reason. */
-export function setLotStatus(
-	actor: SignedActor,
-	lotId: string,
-	to: 'released' | 'rejected',
+export type LotDecision = 'released' | 'rejected';
+
+/**
+ * Why the lot cannot move to `to` now, thrown as a RuleError: a release needs a certificate on file
+ * and an in-date lot, a rejection a reason. Checked before a signature is asked for and again inside
+ * its transaction.
+ */
+export function checkLotStatusChange(
+	reader: Reader,
+	current: Lot,
+	to: LotDecision,
 	reason: string,
 	today = isoToday()
 ): void {
-	db.transaction((tx) => {
-		const current = requireLot(lotId, tx);
-		if (!TRANSITIONS[current.status].includes(to)) {
-			throw new RuleError(
-				`Lot ${current.code} is ${LOT_STATUS_LABELS[current.status].toLowerCase()}; it cannot be ${to} now.`,
-				{ status: 409 }
-			);
-		}
-		if (to === 'rejected' && !reason.trim())
-			throw new RuleError('Give the reason for rejecting the lot.', { field: 'reason' });
-		if (to === 'released') {
-			const certificates = tx
-				.select({ id: lotCertificate.id })
-				.from(lotCertificate)
-				.where(eq(lotCertificate.lotId, lotId))
-				.all();
-			if (certificates.length === 0)
-				throw new RuleError(
-					`Lot ${current.code} has no certificate of analysis on file; upload it before release.`,
-					{ field: 'certificates' }
-				);
-			if (isExpired(current.expiresOn, today))
-				throw new RuleError(
-					`Lot ${current.code} passed its ${current.dateKind} date (${current.expiresOn}); it cannot be released.`
-				);
-		}
-		tx.update(lot)
-			.set({
-				status: to,
-				statusReason: reason.trim(),
-				statusChangedAt: new Date(),
-				statusChangedById: actor.id
-			})
-			.where(eq(lot.id, lotId))
-			.run();
-		recordAudit(
-			actor,
-			{
-				action: `lot.${to}`,
-				subjectType: 'lot',
-				subjectId: lotId,
-				detail: { code: current.code, from: current.status, reason: reason.trim() }
-			},
-			tx
+	if (!TRANSITIONS[current.status].includes(to)) {
+		throw new RuleError(
+			`Lot ${current.code} is ${LOT_STATUS_LABELS[current.status].toLowerCase()}; it cannot be ${to} now.`,
+			{ status: 409 }
 		);
-	});
+	}
+	if (to === 'rejected' && reason.trim().length < 3)
+		throw new RuleError('Reason: give the reason for rejecting the lot (a few words at least).', {
+			field: 'reason'
+		});
+	if (to === 'released') {
+		const certificates = reader
+			.select({ id: lotCertificate.id })
+			.from(lotCertificate)
+			.where(eq(lotCertificate.lotId, current.id))
+			.all();
+		if (certificates.length === 0)
+			throw new RuleError(
+				`Lot ${current.code} has no certificate of analysis on file; upload it before release.`,
+				{ field: 'certificates' }
+			);
+		if (isExpired(current.expiresOn, today))
+			throw new RuleError(
+				`Lot ${current.code} passed its ${current.dateKind} date (${current.expiresOn}); it cannot be released.`
+			);
+	}
+}
+
+/**
+ * Release or reject inside the caller's transaction — the one that records the signature
+ * (`signLotDecision` in lot-signing.ts). The status, who and when, and the audit entry.
+ */
+export function applyLotStatus(
+	tx: Tx,
+	actor: SignedActor,
+	lotId: string,
+	to: LotDecision,
+	reason: string,
+	today = isoToday()
+): void {
+	const current = requireLot(lotId, tx);
+	checkLotStatusChange(tx, current, to, reason, today);
+	tx.update(lot)
+		.set({
+			status: to,
+			statusReason: reason.trim(),
+			statusChangedAt: new Date(),
+			statusChangedById: actor.id
+		})
+		.where(eq(lot.id, lotId))
+		.run();
+	recordAudit(
+		actor,
+		{
+			action: `lot.${to}`,
+			subjectType: 'lot',
+			subjectId: lotId,
+			detail: { code: current.code, from: current.status, reason: reason.trim() }
+		},
+		tx
+	);
 }
 
 /** A stock count correction, up or down, with its reason. */

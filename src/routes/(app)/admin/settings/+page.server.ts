@@ -4,16 +4,23 @@ import {
 	formatBatchNumber,
 	setBatchNumberPattern
 } from '$lib/server/batches/numbering';
-import { parseForm, ruleFailure } from '$lib/server/forms';
+import { tagged } from '$lib/server/form-tag';
+import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { receiverMayNotSign, setReceiverMayNotSign } from '$lib/server/inventory/lot-settings';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
 
 const patternForm = z.object({ pattern: z.string().max(60) });
+const lotSigningForm = z.object({ receiverMayNotSign: z.string().optional() });
 
 export const load: PageServerLoad = async () => {
 	requirePermission('admin.settings');
 	const pattern = batchNumberPattern();
-	return { pattern, example: formatBatchNumber(pattern, new Date(), 1) };
+	return {
+		pattern,
+		example: formatBatchNumber(pattern, new Date(), 1),
+		receiverMayNotSign: receiverMayNotSign()
+	};
 };
 
 export const actions: Actions = {
@@ -33,5 +40,27 @@ export const actions: Actions = {
 		return {
 			saved: `Saved. The next batch number will look like ${formatBatchNumber(parsed.data.pattern.trim(), new Date(), 1)}.`
 		};
-	}
+	},
+	lotSigning: async ({ request }) =>
+		tagged('lotSigning', async () => {
+			const admin = requirePermission('admin.settings');
+			const formData = await request.formData();
+			const parsed = parseForm(lotSigningForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			const value = parsed.data.receiverMayNotSign;
+			if (value !== undefined && value !== 'on')
+				return formFailure(
+					formData,
+					'A lot’s receiver may not release or reject it: tick or untick the box.',
+					{ receiverMayNotSign: ['Tick or untick the box.'] }
+				);
+			const on = value === 'on';
+			setReceiverMayNotSign({ id: admin.id, email: admin.email, address: clientAddress() }, on);
+			return {
+				form: 'lotSigning',
+				saved: on
+					? 'Saved. Someone other than the receiver must release or reject a lot.'
+					: 'Saved. The receiver of a lot may now release or reject it too.'
+			};
+		})
 };

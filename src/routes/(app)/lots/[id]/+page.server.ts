@@ -1,12 +1,15 @@
 import { decimalOrNaN } from '$lib/quantities';
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
+import type { Role } from '$lib/roles';
 import { auditEventsFor } from '$lib/server/audit';
 import { tagged } from '$lib/server/form-tag';
 import { formFailure, parseForm, ruleFailure, formText } from '$lib/server/forms';
 import { requireActor, requirePermission } from '$lib/server/guard';
 import { attachCertificates, checkCertificateFiles } from '$lib/server/inventory/certificates';
-import { adjustLot, disposeLot, setLotStatus } from '$lib/server/inventory/lots';
+import { lotSigningRefusal, signLotDecision } from '$lib/server/inventory/lot-signing';
+import { adjustLot, disposeLot, findLot } from '$lib/server/inventory/lots';
+import { signaturesFor } from '$lib/server/signatures';
 import { lotView } from '$lib/server/inventory/view';
 import { RuleError } from '$lib/server/rule-error';
 import type { Actions, PageServerLoad } from './$types';
@@ -17,7 +20,7 @@ const amountField = z
 	.min(1, 'Enter the amount.')
 	.transform(decimalOrNaN)
 	.refine((n) => Number.isFinite(n) && n > 0, 'The amount must be a number above zero.');
-const releaseForm = z.object({ reason: formText });
+const signForm = z.object({ decision: formText, reason: formText, password: formText });
 const reasonField = z.string().trim().min(3, 'Give the reason (a few words at least).').max(500);
 
 const adjustForm = z.object({
@@ -33,16 +36,24 @@ const disposeForm = z.object({
 	reason: reasonField,
 	confirm: z.literal('yes', 'Tick the box to confirm the disposal.')
 });
-const rejectForm = z.object({
-	reason: reasonField,
-	confirm: z.literal('yes', 'Tick the box to confirm the rejection.')
-});
+
+/** What the person may sign on this lot now: the decisions open, or why they may not sign. */
+function signingFor(user: { id: string; roles: readonly Role[] }, lotId: string) {
+	const current = findLot(lotId);
+	if (!current || current.status === 'rejected') return null;
+	const decisions =
+		current.status === 'quarantine' ? (['released', 'rejected'] as const) : (['rejected'] as const);
+	const refusal = lotSigningRefusal(user, current, decisions[0]);
+	return { decisions: [...decisions], allowed: refusal === null, refusal };
+}
 
 export const load: PageServerLoad = async ({ params, url }) => {
-	requirePermission('lot.view');
+	const user = requirePermission('lot.view');
 	try {
 		return {
 			...lotView(params.id),
+			signing: signingFor(user, params.id),
+			signatures: signaturesFor('lot', [params.id]),
 			history: auditEventsFor('lot', params.id).slice(0, 50),
 			received: url.searchParams.has('received')
 		};
@@ -57,31 +68,23 @@ function keeper() {
 }
 
 export const actions: Actions = {
-	release: async ({ request, params }) =>
-		tagged('release', async () => {
+	sign: async ({ request, params }) =>
+		tagged('sign', async () => {
 			const actor = keeper();
 			const formData = await request.formData();
-			const parsed = parseForm(releaseForm, formData);
+			const parsed = parseForm(signForm, formData);
 			if (!parsed.ok) return parsed.failure;
 			try {
-				setLotStatus(actor, params.id, 'released', parsed.data.reason);
+				await signLotDecision(actor, params.id, parsed.data);
 			} catch (cause) {
 				return ruleFailure(formData, cause);
 			}
-			return { saved: 'Released: the lot can now be used in batches.' };
-		}),
-	reject: async ({ request, params }) =>
-		tagged('reject', async () => {
-			const actor = keeper();
-			const formData = await request.formData();
-			const parsed = parseForm(rejectForm, formData);
-			if (!parsed.ok) return parsed.failure;
-			try {
-				setLotStatus(actor, params.id, 'rejected', parsed.data.reason);
-			} catch (cause) {
-				return ruleFailure(formData, cause);
-			}
-			return { saved: 'Rejected: the lot will not be offered for batches.' };
+			return {
+				saved:
+					parsed.data.decision === 'rejected'
+						? 'Rejected and signed: the lot will not be offered for batches.'
+						: 'Released and signed: the lot can now be used in batches.'
+			};
 		}),
 	upload: async ({ request, params }) =>
 		tagged('upload', async () => {
