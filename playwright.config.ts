@@ -27,6 +27,11 @@ export default defineConfig({
 			]
 		}
 	},
+	// A recall holds demo lots and stocks the other specs use, so it runs once they are done.
+	projects: [
+		{ name: 'main', testIgnore: /recall\.spec\.ts$/ },
+		{ name: 'recall', testMatch: /recall\.spec\.ts$/, dependencies: ['main'] }
+	],
 	webServer: {
 		command: 'node src/cli/start.js',
 		url: `${origin}/api/v1/health`,

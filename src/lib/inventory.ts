@@ -62,16 +62,18 @@ export function isExpired(expiresOn: string, today = isoToday()): boolean {
 
 /** Why a lot may not go into a batch on `onDate` (its status first, then its date), or null when it may. */
 export function lotUnusability(
-	lot: { status: LotStatus; expiresOn: string },
+	lot: { status: LotStatus; expiresOn: string; retestOn: string | null },
 	onDate: string
-): 'quarantine' | 'rejected' | 'expired' | null {
+): 'quarantine' | 'rejected' | 'expired' | 'retest' | null {
 	if (lot.status !== 'released') return lot.status;
-	return isExpired(lot.expiresOn, onDate) ? 'expired' : null;
+	if (isExpired(lot.expiresOn, onDate)) return 'expired';
+	// From its retest date on, a lot waits for its retest (a recall sets it to the day of recall).
+	return lot.retestOn !== null && lot.retestOn <= onDate ? 'retest' : null;
 }
 
-/** A usable lot is released and not expired on `onDate`. */
+/** A usable lot is released, not expired and not due for retest on `onDate`. */
 export function isUsableLot(
-	lot: { status: LotStatus; expiresOn: string },
+	lot: { status: LotStatus; expiresOn: string; retestOn: string | null },
 	onDate: string
 ): boolean {
 	return lotUnusability(lot, onDate) === null;

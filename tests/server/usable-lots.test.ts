@@ -14,21 +14,33 @@ beforeAll(() => {
 
 describe('a usable lot: released and not expired', () => {
 	it('is usable through its date and not the day after', () => {
-		const released = { status: 'released' as const, expiresOn: '2026-03-31' };
+		const released = { status: 'released' as const, expiresOn: '2026-03-31', retestOn: null };
 		expect(isUsableLot(released, '2026-03-30')).toBe(true);
 		expect(isUsableLot(released, '2026-03-31')).toBe(true);
 		expect(isUsableLot(released, '2026-04-01')).toBe(false);
 		expect(lotUnusability(released, '2026-04-01')).toBe('expired');
 	});
 
+	it('is not usable from its retest date until it is retested', () => {
+		const due = { status: 'released' as const, expiresOn: '2027-12-31', retestOn: '2026-05-10' };
+		expect(isUsableLot(due, '2026-05-09')).toBe(true);
+		expect(lotUnusability(due, '2026-05-10')).toBe('retest');
+		expect(isUsableLot(due, '2026-06-01')).toBe(false);
+	});
+
 	it('is never usable in quarantine or rejected, whatever its date; the status is told first', () => {
-		expect(lotUnusability({ status: 'quarantine', expiresOn: '2030-01-01' }, '2026-01-01')).toBe(
-			'quarantine'
-		);
-		expect(lotUnusability({ status: 'rejected', expiresOn: '2020-01-01' }, '2026-01-01')).toBe(
-			'rejected'
-		);
-		expect(isUsableLot({ status: 'rejected', expiresOn: '2030-01-01' }, '2026-01-01')).toBe(false);
+		expect(
+			lotUnusability(
+				{ status: 'quarantine', expiresOn: '2030-01-01', retestOn: null },
+				'2026-01-01'
+			)
+		).toBe('quarantine');
+		expect(
+			lotUnusability({ status: 'rejected', expiresOn: '2020-01-01', retestOn: null }, '2026-01-01')
+		).toBe('rejected');
+		expect(
+			isUsableLot({ status: 'rejected', expiresOn: '2030-01-01', retestOn: null }, '2026-01-01')
+		).toBe(false);
 	});
 
 	it('selects in SQL exactly the lots the predicate calls usable', async () => {

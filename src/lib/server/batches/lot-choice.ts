@@ -63,6 +63,8 @@ export function lotRefusal(
 		return `Lot ${lotRow.code} is ${unusable === 'quarantine' ? 'in quarantine' : 'rejected'}, not released for use.`;
 	if (unusable === 'expired')
 		return `Lot ${lotRow.code} is expired: its ${lotRow.dateKind} date was ${lotRow.expiresOn}.`;
+	if (unusable === 'retest')
+		return `Lot ${lotRow.code} is due for retest since ${lotRow.retestOn}; it may not be used until it is retested.`;
 	if (onHand < neededInLotUnits) {
 		return `Lot ${lotRow.code} has ${formatQuantity(onHand, lotRow.quantityKind)} on hand; this line needs ${formatQuantity(neededInLotUnits, lotRow.quantityKind)}.`;
 	}

@@ -133,6 +133,8 @@ export function stockLotRefusal(
 		return `Stock ${lotRow.code} is ${unusable === 'quarantine' ? 'on hold' : 'rejected'}, not released for use.`;
 	if (unusable === 'expired')
 		return `Stock ${lotRow.code} is expired: its expiry date was ${lotRow.expiresOn}.`;
+	if (unusable === 'retest')
+		return `Stock ${lotRow.code} is due for retest since ${lotRow.retestOn}; it may not be used until it is retested.`;
 	if (onHand < neededUl)
 		return `Stock ${lotRow.code} has ${formatQuantity(onHand, 'volume')} left; this line needs ${formatQuantity(neededUl, 'volume')}.`;
 	return null;

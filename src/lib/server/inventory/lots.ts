@@ -333,6 +333,7 @@ export interface LotRow {
 	onHand: number;
 	receivedOn: string;
 	expiresOn: string;
+	retestOn: string | null;
 	dateKind: string;
 	storage: string;
 	status: LotStatus;
@@ -369,6 +370,7 @@ export function listLots(
 			receivedQuantity: lot.receivedQuantity,
 			receivedOn: lot.receivedOn,
 			expiresOn: lot.expiresOn,
+			retestOn: lot.retestOn,
 			dateKind: lot.dateKind,
 			storage: lot.storage,
 			status: lot.status,

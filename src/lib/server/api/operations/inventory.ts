@@ -64,6 +64,7 @@ export const lotListResponse = describes<{ items: LotRow[]; total: number }>()(
 				onHand: baseQuantity('The sum of the ledger'),
 				receivedOn: isoDay,
 				expiresOn: isoDay,
+				retestOn: isoDay.nullable().describe('retest due from this date; null: none due'),
 				dateKind: z.string(),
 				storage: z.string(),
 				status: z.enum(LOT_STATUSES),

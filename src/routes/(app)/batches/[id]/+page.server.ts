@@ -3,6 +3,7 @@ import { auditEventsFor } from '$lib/server/audit';
 import { completeBatch } from '$lib/server/batches/completion';
 import { requireBatch } from '$lib/server/batches/execution';
 import { correctLine, correctionsOf } from '$lib/server/batches/line-correction';
+import { recallFlagsOf } from '$lib/server/inventory/recall';
 import { recordLineAtBench } from '$lib/server/batches/line-record';
 import { hardBandPercent } from '$lib/server/batches/weighing-band';
 import { chooseLot } from '$lib/server/batches/lot-choice';
@@ -62,6 +63,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		canPrepare: open && may(user, 'batch.execute'),
 		hardBandPercent: hardBandPercent(),
 		corrections: correctionsOf(params.id),
+		recallFlags: recallFlagsOf(params.id),
 		canCorrect:
 			(view.batch.state === 'in_preparation' || view.batch.state === 'prepared') &&
 			may(user, 'batch.execute'),
