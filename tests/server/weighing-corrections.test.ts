@@ -137,6 +137,15 @@ describe('corrections of a signed line', () => {
 			(await refusalOf(() => correctLine(tech, b.id, line.id, { ...input, password: 'nope' })))
 				.field
 		).toBe('password');
+		expect(
+			auditEventsFor('batch', b.id)
+				.filter((e) => /refused/.test(e.action))
+				.map((e) => [e.action, e.detail?.reason])
+				.sort()
+		).toEqual([
+			['batch.correction_refused', 'no reason given'],
+			['signature.refused', 'wrong password']
+		]);
 		await correctLine(tech, b.id, line.id, input);
 		expect(lineRow(line.id)).toMatchObject({ actualText: '15.19', actualUg: 15_190_000 });
 		expect(correctionsOf(b.id).map((c) => [c.fromText, c.toText, c.reason])).toEqual([

@@ -176,10 +176,17 @@ export async function correctLine(
 ): Promise<void> {
 	const person = db.select().from(user).where(eq(user.id, actor.id)).get();
 	if (!person || !person.active) throw new RuleError('This account cannot sign.', { status: 403 });
-	if (input.reason.trim().length < 3)
+	if (input.reason.trim().length < 3) {
+		recordAudit(actor, {
+			action: 'batch.correction_refused',
+			subjectType: 'batch',
+			subjectId: batchId,
+			detail: { lineId, to: input.actualText.trim(), reason: 'no reason given' }
+		});
 		throw new RuleError('Give the reason for the correction; it is kept with the original.', {
 			field: 'reason'
 		});
+	}
 	if (!input.password || !(await verifyPassword(person.passwordHash, input.password))) {
 		recordAudit(actor, {
 			action: 'signature.refused',
