@@ -133,6 +133,7 @@ describe('subjects resolved to their numbers and names, with links', () => {
 			href: `/lots/${lotRow.id}`
 		});
 		expect(released.sentence).toBe(`Released lot ${lotRow.code}`);
+		expect(released.changes).toEqual([{ field: 'Status', from: 'Quarantine', to: 'Released' }]);
 		const rejected = entriesAbout('lot', quarantined.id).find((e) => e.action === 'lot.rejected')!;
 		expect(rejected.sentence).toBe(`Rejected lot ${quarantined.code}: Seal broken on arrival`);
 	});

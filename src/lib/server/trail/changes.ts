@@ -1,3 +1,4 @@
+import { LOT_STATUS_LABELS, LOT_STATUSES, type LotStatus } from '$lib/inventory';
 import { isRole, ROLE_LABELS } from '$lib/roles';
 import type { Detail } from './describe';
 
@@ -101,6 +102,12 @@ export function changeLines(action: string, detail: Detail | null): ChangeLine[]
 		}
 	}
 	if ('from' in detail && 'to' in detail) push(topLevel, detail.from, detail.to);
+	// A lot's status change keeps only the old status; the new one is the action's own name.
+	const newStatus = action.slice('lot.'.length) as LotStatus;
+	if (action.startsWith('lot.') && LOT_STATUSES.includes(newStatus) && !('to' in detail)) {
+		const oldStatus = detail.from as LotStatus;
+		push('Status', LOT_STATUS_LABELS[oldStatus] ?? detail.from, LOT_STATUS_LABELS[newStatus]);
+	}
 	if ('before' in detail && 'after' in detail) push(topLevel, detail.before, detail.after);
 	for (const [field, value] of Object.entries(detail)) {
 		if (field !== 'changes' && isFromTo(value)) push(fieldWords(field), value.from, value.to);
