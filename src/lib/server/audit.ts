@@ -1,6 +1,6 @@
-import { and, count, desc, eq, gte, like, lte, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, like, lte, or, type SQL } from 'drizzle-orm';
 import { db, type Db } from './db';
-import { auditEvent } from './db/schema';
+import { auditEvent, user } from './db/schema';
 import { nextLink } from './trail/chain';
 
 export interface Actor {
@@ -67,31 +67,62 @@ export function changesBetween(before: object, after: object): Record<string, Fi
 }
 
 export interface AuditFilter {
+	/** an exact action code, or a prefix such as "lot." */
 	action?: string;
+	/** part of the person's e-mail or name */
 	actor?: string;
+	subjectType?: string;
+	subjectId?: string;
 	from?: Date;
 	to?: Date;
-	page: number;
-	pageSize: number;
+	/** newest first unless told otherwise */
+	order?: 'newest' | 'oldest';
 }
 
-export function listAuditEvents(filter: AuditFilter) {
+function auditWhere(filter: AuditFilter): SQL | undefined {
 	const conditions: SQL[] = [];
 	if (filter.action) conditions.push(like(auditEvent.action, `${filter.action}%`));
-	if (filter.actor) conditions.push(like(auditEvent.actorEmail, `%${filter.actor.toLowerCase()}%`));
+	if (filter.actor) {
+		const part = `%${filter.actor.toLowerCase()}%`;
+		const named = db.select({ id: user.id }).from(user).where(like(user.name, part));
+		conditions.push(or(like(auditEvent.actorEmail, part), inArray(auditEvent.actorId, named))!);
+	}
+	if (filter.subjectType) conditions.push(eq(auditEvent.subjectType, filter.subjectType));
+	if (filter.subjectId) conditions.push(eq(auditEvent.subjectId, filter.subjectId));
 	if (filter.from) conditions.push(gte(auditEvent.at, filter.from));
 	if (filter.to) conditions.push(lte(auditEvent.at, filter.to));
-	const where = conditions.length ? and(...conditions) : undefined;
+	return conditions.length ? and(...conditions) : undefined;
+}
+
+function auditOrder(filter: AuditFilter) {
+	return filter.order === 'oldest'
+		? [asc(auditEvent.at), asc(auditEvent.seq)]
+		: [desc(auditEvent.at), desc(auditEvent.seq)];
+}
+
+/** One page of the entries matching the filter, and how many match in all. */
+export function listAuditEvents(filter: AuditFilter & { page: number; pageSize: number }) {
+	const where = auditWhere(filter);
 	const [{ total }] = db.select({ total: count() }).from(auditEvent).where(where).all();
 	const rows = db
 		.select()
 		.from(auditEvent)
 		.where(where)
-		.orderBy(desc(auditEvent.at), desc(auditEvent.id))
+		.orderBy(...auditOrder(filter))
 		.limit(filter.pageSize)
 		.offset((filter.page - 1) * filter.pageSize)
 		.all();
 	return { rows, total };
+}
+
+/** Every entry matching the filter, in order: what an export writes. */
+export function allAuditEvents(filter: AuditFilter) {
+	return db
+		.select()
+		.from(auditEvent)
+		.where(auditWhere(filter))
+		.orderBy(...auditOrder(filter))
+		.all();
 }
 
 export function listAuditActions(): string[] {

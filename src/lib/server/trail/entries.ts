@@ -1,0 +1,48 @@
+import type { AuditEvent } from '../db/schema';
+import { changeLines, type ChangeLine } from './changes';
+import { describeAction } from './describe';
+import { peopleNamed, resolveSubjects, subjectKey, type TrailSubject } from './subjects';
+
+/** One audit entry as an inspector reads it. */
+export interface TrailEntry {
+	id: string;
+	/** "2026-03-04 09:15:02" in UTC */
+	atUtc: string;
+	who: string;
+	whoEmail: string | null;
+	action: string;
+	sentence: string;
+	subject: TrailSubject;
+	changes: ChangeLine[];
+	address: string | null;
+}
+
+export function utcText(at: Date): string {
+	return at.toISOString().replace('T', ' ').slice(0, 19);
+}
+
+/** Stored events → readable entries; subjects and people are looked up once per kind for the lot. */
+export function readableEntries(rows: AuditEvent[]): TrailEntry[] {
+	const subjects = resolveSubjects(rows);
+	const names = peopleNamed(rows.map((r) => r.actorId));
+	return rows.map((row) => {
+		const subject = subjects.get(subjectKey(row.subjectType, row.subjectId))!;
+		const detail = row.detail ?? null;
+		const name = row.actorId ? names.get(row.actorId) : undefined;
+		return {
+			id: row.id,
+			atUtc: utcText(row.at),
+			who: name ?? row.actorEmail ?? 'system',
+			whoEmail: row.actorEmail,
+			action: row.action,
+			sentence: describeAction(row.action, detail, subject.label),
+			subject,
+			changes: changeLines(row.action, detail),
+			address: row.address
+		};
+	});
+}
+
+export function changeText(change: ChangeLine): string {
+	return `${change.field}: ${change.from} → ${change.to}`;
+}
