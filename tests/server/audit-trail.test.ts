@@ -8,7 +8,6 @@ import { checkBatchInput, createBatch } from '$lib/server/batches/create';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { db } from '$lib/server/db';
 import { user } from '$lib/server/db/schema';
-import { setLotStatus } from '$lib/server/inventory/lots';
 import { changeLines } from '$lib/server/trail/changes';
 import { describeAction, readableCode } from '$lib/server/trail/describe';
 import { readableEntries, type TrailEntry } from '$lib/server/trail/entries';
@@ -20,7 +19,7 @@ import { GET as csvGet } from '../../src/routes/(app)/admin/audit/export.csv/+se
 import { GET as pdfGet } from '../../src/routes/(app)/admin/audit/export.pdf/+server';
 import { callJson } from './endpoint-call';
 import { makeUser } from './helpers';
-import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
+import { decideLot, makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 
 vi.mock('$app/server', async (importOriginal) => ({
 	...(await importOriginal<typeof import('$app/server')>()),
@@ -49,7 +48,7 @@ beforeAll(async () => {
 	]);
 	lotRow = makeLot(lead.actor);
 	quarantined = makeLot(lead.actor, { status: 'quarantine' });
-	setLotStatus(lead.actor, quarantined.id, 'rejected', 'Seal broken on arrival');
+	decideLot(lead.actor, quarantined.id, 'rejected', 'Seal broken on arrival');
 	const checked = checkBatchInput({
 		recipeId: recipe.recipeId,
 		targetVolumeL: 2,

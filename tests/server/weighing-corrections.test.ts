@@ -8,6 +8,7 @@ import { completeBatch } from '$lib/server/batches/completion';
 import { requireBatch } from '$lib/server/batches/execution';
 import { correctLine, correctionsOf } from '$lib/server/batches/line-correction';
 import { recordLine, recordLineAtBench } from '$lib/server/batches/line-record';
+import { hardBandPercent, setHardBandPercent } from '$lib/server/batches/weighing-band';
 import { chooseLot } from '$lib/server/batches/lot-choice';
 import { reviewBatch } from '$lib/server/batches/review';
 import { buildSheetLines } from '$lib/server/batches/sheet';
@@ -118,6 +119,23 @@ describe('the hard band', () => {
 	it('a weighing inside the band needs no witness', () => {
 		const { b, line } = startedBatch();
 		expect(recordLine(tech, b.id, line.id, { actualText: '15.2' }).verdict).toBe('within');
+	});
+
+	it('is a site setting: refused outside 1–100 %, and a wider band lets a 20 % weighing through', async () => {
+		const admin = await makeUser(['admin']);
+		expect(() => setHardBandPercent(admin, '0')).toThrow(
+			/Hard band \(%\) must be a number from 1 to 100/
+		);
+		expect(() => setHardBandPercent(admin, 'ten')).toThrow(/got “ten”/);
+		setHardBandPercent(admin, '25');
+		try {
+			expect(hardBandPercent()).toBe(25);
+			const { b, line } = startedBatch();
+			const done = recordLine(tech, b.id, line.id, { actualText: '18.2', reason: 'Over-poured' });
+			expect(done.verdict).toBe('above');
+		} finally {
+			setHardBandPercent(admin, '10');
+		}
 	});
 });
 

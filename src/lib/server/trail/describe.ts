@@ -44,6 +44,9 @@ const SENTENCES: Record<string, Sentence> = {
 			Number(d.deviations) > 0 ? `, with ${plural(d.deviations, 'deviation')}` : ''
 		}`,
 	'batch.prepared': (_, s) => `Signed batch ${s} as prepared`,
+	'batch.line_corrected': (d, s) =>
+		`Corrected line ${text(d.line)} of batch ${s}${because(d)}${d.witnessedBy ? `, witnessed by ${text(d.witnessedBy)}` : ''}`,
+	'batch.correction_refused': (d, s) => `Refused a correction on batch ${s}${because(d)}`,
 	'batch.released': (_, s) => `Released batch ${s} for use`,
 	'batch.rejected': (d, s) => `Rejected batch ${s}${because(d)}`,
 	'component.created': (d, s) => `Added component ${text(d.name) || s}`,
@@ -58,6 +61,16 @@ const SENTENCES: Record<string, Sentence> = {
 		`${Number(d.quantity) < 0 ? 'Took stock from' : 'Added stock to'} lot ${s}${because(d)}`,
 	'lot.disposed': (d, s) => `Disposed of stock from lot ${s}${because(d)}`,
 	'lot.certificate_added': (d, s) => `Added the certificate ${text(d.files)} to lot ${s}`,
+	'lot.made': (d, s) =>
+		`Made stock ${s || text(d.code)} as batch ${text(d.batch)}, expiring ${text(d.expiresOn)}`,
+	'lot.recalled': (d, s) =>
+		`Recalled lot ${s || text(d.code)} (${d.lotAction === 'retest' ? 'retest before use' : 'on hold'}), flagging ${plural(d.flagged, 'batch', 'batches')}${because(d)}`,
+	'lot.held': (d, s) => `Put lot ${s || text(d.code)} on hold${because(d)}`,
+	'lot.retested': (d, s) =>
+		`Signed a retest of lot ${s || text(d.code)}: ${text(d.result)}${d.retestOn ? `; next retest ${text(d.retestOn)}` : ''}`,
+	'lot.recall_refused': (d, s) => `Refused a recall of lot ${s || text(d.code)}${because(d)}`,
+	'lot.recall_mail_failed': (d, s) =>
+		`Could not mail the recall of lot ${s}${because(d, 'problem')}`,
 	'organism_profile.created': (d, s) => `Created organism profile ${text(d.name) || s}`,
 	'organism_profile.updated': (_, s) => `Changed organism profile ${s}`,
 	'password.reset_requested': () => 'Asked for a password reset link',
@@ -77,6 +90,8 @@ const SENTENCES: Record<string, Sentence> = {
 	'recipe.returned_to_draft': (d, s) => `Returned ${s} to draft${because(d, 'comment')}`,
 	'recipe.retired': (d, s) => `Retired ${s}${because(d)}`,
 	'settings.batch_number_pattern': () => 'Changed the batch number pattern',
+	'settings.hard_band_percent': (d) =>
+		`Changed the hard band for weighings from ±${text(d.from)} % to ±${text(d.to)} %`,
 	'sign_in.succeeded': () => 'Signed in',
 	'sign_in.failed': (d) => `Sign-in failed${because(d)}`,
 	'sign_in.refused': (d) => `Sign-in refused${because(d)}`,

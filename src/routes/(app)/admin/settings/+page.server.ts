@@ -7,11 +7,13 @@ import {
 import { tagged } from '$lib/server/form-tag';
 import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
 import { receiverMayNotSign, setReceiverMayNotSign } from '$lib/server/inventory/lot-settings';
+import { hardBandPercent, setHardBandPercent } from '$lib/server/batches/weighing-band';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
 
 const patternForm = z.object({ pattern: z.string().max(60) });
 const lotSigningForm = z.object({ receiverMayNotSign: z.string().optional() });
+const hardBandForm = z.object({ hardBandPercent: z.string().default('') });
 
 export const load: PageServerLoad = async () => {
 	requirePermission('admin.settings');
@@ -19,7 +21,8 @@ export const load: PageServerLoad = async () => {
 	return {
 		pattern,
 		example: formatBatchNumber(pattern, new Date(), 1),
-		receiverMayNotSign: receiverMayNotSign()
+		receiverMayNotSign: receiverMayNotSign(),
+		hardBandPercent: hardBandPercent()
 	};
 };
 
@@ -41,6 +44,25 @@ export const actions: Actions = {
 			saved: `Saved. The next batch number will look like ${formatBatchNumber(parsed.data.pattern.trim(), new Date(), 1)}.`
 		};
 	},
+	hardBand: async ({ request }) =>
+		tagged('hardBand', async () => {
+			const admin = requirePermission('admin.settings');
+			const formData = await request.formData();
+			const parsed = parseForm(hardBandForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				setHardBandPercent(
+					{ id: admin.id, email: admin.email, address: clientAddress() },
+					parsed.data.hardBandPercent
+				);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return {
+				form: 'hardBand',
+				saved: `Saved. Beyond ±${Number(parsed.data.hardBandPercent.trim())} % of what a line needs, a weighing needs a witness.`
+			};
+		}),
 	lotSigning: async ({ request }) =>
 		tagged('lotSigning', async () => {
 			const admin = requirePermission('admin.settings');
