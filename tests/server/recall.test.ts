@@ -4,12 +4,6 @@ import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { isUsableLot } from '$lib/inventory';
 import { auditEventsFor } from '$lib/server/audit';
-import { checkBatchInput, createBatch } from '$lib/server/batches/create';
-import { completeBatch } from '$lib/server/batches/completion';
-import { recordLine } from '$lib/server/batches/line-record';
-import { chooseLot } from '$lib/server/batches/lot-choice';
-import { reviewBatch } from '$lib/server/batches/review';
-import { buildSheetLines } from '$lib/server/batches/sheet';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { db } from '$lib/server/db';
 import { eSignature } from '$lib/server/db/schema';
@@ -18,8 +12,8 @@ import { findLot, findLotByCode } from '$lib/server/inventory/lots';
 import { recallFlagsOf, recallLot, recallsOf } from '$lib/server/inventory/recall';
 import { recordRetest } from '$lib/server/inventory/retest';
 import { rolesOf } from '$lib/server/people';
-import { RuleError } from '$lib/server/rule-error';
-import { makeUser } from './helpers';
+import { makeBatch } from './batch-fixtures';
+import { makeUser, refusalOf } from './helpers';
 import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 import { latestMailTo, useMailStandIn } from './mail';
 
@@ -52,40 +46,6 @@ beforeAll(async () => {
 
 const asLead = () => ({ ...lead, roles: rolesOf(lead.id) });
 
-async function refusalOf(run: () => Promise<unknown>): Promise<RuleError> {
-	try {
-		await run();
-	} catch (error) {
-		if (error instanceof RuleError) return error;
-		throw error;
-	}
-	throw new Error('expected a refusal');
-}
-
-async function makeBatch(recipeId: string, volumeL: number, codes: string[], release: boolean) {
-	const checked = checkBatchInput({
-		recipeId,
-		targetVolumeL: volumeL,
-		plannedOn: today,
-		intendedUse: 'Recall test'
-	});
-	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
-	const b = createBatch(tech, checked.value);
-	buildSheetLines(b).forEach((line, i) => {
-		chooseLot(tech, b.id, line.id, codes[i]);
-		const now = buildSheetLines(b).find((l) => l.id === line.id)!;
-		recordLine(tech, b.id, line.id, { actualText: now.requiredText.replace(/ (g|mL)$/, '') });
-	});
-	await completeBatch(tech, b.id, { password: tech.password });
-	if (release)
-		await reviewBatch({ ...reviewer, roles: rolesOf(reviewer.id) }, b.id, {
-			decision: 'released',
-			password: reviewer.password,
-			reason: 'Complete.'
-		});
-	return b;
-}
-
 describe('a recall', () => {
 	it('holds the lot, flags batches through a stock, holds the stock, and tells leads and reviewers', async () => {
 		const raw = makeLot(lead.actor, {
@@ -94,9 +54,9 @@ describe('a recall', () => {
 			quantity: '500',
 			unit: 'g'
 		});
-		const stockBatch = await makeBatch(stockRecipe.recipeId, 0.5, [raw.code], true);
+		const stockBatch = await makeBatch(tech, stockRecipe.recipeId, 0.5, [raw.code], reviewer);
 		const salt = makeLot(lead.actor, { component: 'sodium-chloride', quantity: '100', unit: 'g' });
-		const mediumBatch = await makeBatch(medium.recipeId, 1, [salt.code, stockBatch.number], false);
+		const mediumBatch = await makeBatch(tech, medium.recipeId, 1, [salt.code, stockBatch.number]);
 
 		const noReason = await refusalOf(() =>
 			recallLot(asLead(), raw.id, { lotAction: 'hold', reason: '', password: lead.password })

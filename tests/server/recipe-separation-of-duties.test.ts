@@ -10,9 +10,8 @@ import { checkDraft } from '$lib/server/recipes/draft';
 import { saveDraft, startDraftFrom } from '$lib/server/recipes/drafts';
 import { editorIdsOf, findVersionById } from '$lib/server/recipes/queries';
 import { signVersion, submitForReview } from '$lib/server/recipes/workflow';
-import { RuleError } from '$lib/server/rule-error';
 import { nextLink } from '$lib/server/trail/chain';
-import { makeUser } from './helpers';
+import { makeUser, refusalOf } from './helpers';
 import { draftRecipe, EMPTY_FIELDS, line } from './recipes-fixtures';
 
 type Person = Awaited<ReturnType<typeof makeUser>>;
@@ -27,16 +26,6 @@ beforeAll(async () => {
 });
 
 const signer = (p: Person) => ({ id: p.id, email: p.email, roles: p.roles });
-
-async function refusalOf(run: () => Promise<unknown>): Promise<RuleError> {
-	try {
-		await run();
-	} catch (error) {
-		if (error instanceof RuleError) return error;
-		throw error;
-	}
-	throw new Error('expected a refusal');
-}
 
 async function expectSigningRefused(versionId: string, person: Person) {
 	const before = listAuditEvents({ action: 'signature.refused', page: 1, pageSize: 500 }).rows

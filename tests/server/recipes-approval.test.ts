@@ -12,8 +12,7 @@ import {
 	signVersion,
 	submitForReview
 } from '$lib/server/recipes/workflow';
-import { RuleError } from '$lib/server/rule-error';
-import { makeUser } from './helpers';
+import { makeUser, refusalOf } from './helpers';
 import { draftRecipe, EMPTY_FIELDS, line } from './recipes-fixtures';
 
 /** Drizzle wraps the driver's error; the trigger's own words are in its cause. */
@@ -25,16 +24,6 @@ function failureOf(run: () => unknown): string {
 		return `${(error as Error).message} | ${cause?.message ?? ''}`;
 	}
 	return 'no error';
-}
-
-async function refusal(run: () => Promise<unknown>): Promise<RuleError> {
-	try {
-		await run();
-	} catch (error) {
-		if (error instanceof RuleError) return error;
-		throw error;
-	}
-	throw new Error('expected a refusal');
 }
 
 type Person = Awaited<ReturnType<typeof makeUser>>;
@@ -65,7 +54,7 @@ function signaturesOf(versionId: string) {
 describe('approval needs a second person with a signature', () => {
 	it('refuses the author, even with the right password, and records nothing', async () => {
 		const { versionId } = submittedRecipe();
-		const error = await refusal(() =>
+		const error = await refusalOf(() =>
 			signVersion(signer(author), versionId, {
 				password: author.password,
 				meaning: 'approved',
@@ -85,7 +74,7 @@ describe('approval needs a second person with a signature', () => {
 		expect(signingRefusal(signer(technician), findVersionById(versionId)!)).toMatch(
 			/Media scientist or Process engineer/
 		);
-		const error = await refusal(() =>
+		const error = await refusalOf(() =>
 			signVersion(signer(technician), versionId, {
 				password: technician.password,
 				meaning: 'approved',
@@ -98,7 +87,7 @@ describe('approval needs a second person with a signature', () => {
 
 	it('refuses a wrong password with a field error, signs nothing and audits the attempt', async () => {
 		const { versionId } = submittedRecipe();
-		const error = await refusal(() =>
+		const error = await refusalOf(() =>
 			signVersion(signer(engineer), versionId, {
 				password: 'not-my-password',
 				meaning: 'approved',
@@ -161,7 +150,7 @@ describe('approval needs a second person with a signature', () => {
 		if (!checked.ok) throw new Error('bad draft');
 		const revision = saveDraft(otherScientist, draft.versionId, draft.revision, checked.value);
 		submitForReview(author, draft.versionId, revision);
-		const error = await refusal(() =>
+		const error = await refusalOf(() =>
 			signVersion(signer(otherScientist), draft.versionId, {
 				password: otherScientist.password,
 				meaning: 'approved',

@@ -3,7 +3,6 @@
 import { sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
-import { checkBatchInput, createBatch } from '$lib/server/batches/create';
 import { completeBatch } from '$lib/server/batches/completion';
 import { requireBatch } from '$lib/server/batches/execution';
 import { recordLine } from '$lib/server/batches/line-record';
@@ -15,6 +14,7 @@ import { db } from '$lib/server/db';
 import { addDays } from '$lib/server/inventory/alerts';
 import { findLot } from '$lib/server/inventory/lots';
 import { rolesOf } from '$lib/server/people';
+import { planBatch } from './batch-fixtures';
 import { makeUser } from './helpers';
 import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 
@@ -43,16 +43,7 @@ beforeAll(async () => {
 	]);
 });
 
-function plannedBatch() {
-	const checked = checkBatchInput({
-		recipeId: recipe.recipeId,
-		targetVolumeL: 1,
-		plannedOn: today,
-		intendedUse: 'Lock test'
-	});
-	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
-	return createBatch(tech, checked.value);
-}
+const plannedBatch = () => planBatch(tech, recipe.recipeId, 1, 'Lock test');
 
 async function preparedBatch() {
 	const b = plannedBatch();

@@ -1,11 +1,9 @@
 // A stock solution made here is a lot: released with its batch, scanned by the stock line of a
 // later batch, taken from at completion, and followed by where-used from raw lot to medium.
 import { beforeAll, describe, expect, it } from 'vitest';
-import { checkBatchInput, createBatch } from '$lib/server/batches/create';
 import { completeBatch } from '$lib/server/batches/completion';
 import { recordLine } from '$lib/server/batches/line-record';
 import { chooseLot } from '$lib/server/batches/lot-choice';
-import { reviewBatch } from '$lib/server/batches/review';
 import { buildSheetLines } from '$lib/server/batches/sheet';
 import { DEFAULT_STOCK_SHELF_LIFE_DAYS } from '$lib/server/batches/stock-lots';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
@@ -13,7 +11,7 @@ import { addDays } from '$lib/server/inventory/alerts';
 import { ledgerOf, onHandOf } from '$lib/server/inventory/ledger';
 import { findLotByCode } from '$lib/server/inventory/lots';
 import { batchesMadeFromLot } from '$lib/server/inventory/where-used';
-import { rolesOf } from '$lib/server/people';
+import { makeBatch, planBatch } from './batch-fixtures';
 import { makeUser } from './helpers';
 import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 
@@ -43,34 +41,6 @@ beforeAll(async () => {
 	);
 });
 
-function plan(recipeId: string, volumeL: number) {
-	const checked = checkBatchInput({
-		recipeId,
-		targetVolumeL: volumeL,
-		plannedOn: today,
-		intendedUse: 'Stock lot test'
-	});
-	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
-	return createBatch(tech, checked.value);
-}
-
-async function prepareAndRelease(recipeId: string, volumeL: number, lotsByLine: string[]) {
-	const b = plan(recipeId, volumeL);
-	const lines = buildSheetLines(b);
-	lines.forEach((line, i) => {
-		chooseLot(tech, b.id, line.id, lotsByLine[i]);
-		const now = buildSheetLines(b).find((l) => l.id === line.id)!;
-		recordLine(tech, b.id, line.id, { actualText: now.requiredText.replace(/ (g|mL)$/, '') });
-	});
-	await completeBatch(tech, b.id, { password: tech.password });
-	await reviewBatch({ ...reviewer, roles: rolesOf(reviewer.id) }, b.id, {
-		decision: 'released',
-		password: reviewer.password,
-		reason: 'Complete.'
-	});
-	return b;
-}
-
 describe('stock solutions made here', () => {
 	it('become a lot at release, are scanned by a stock line, and are followed raw lot → stock → medium', async () => {
 		const raw = makeLot(lead.actor, {
@@ -79,7 +49,7 @@ describe('stock solutions made here', () => {
 			quantity: '500',
 			unit: 'g'
 		});
-		const stockBatch = await prepareAndRelease(stockRecipe.recipeId, 0.5, [raw.code]);
+		const stockBatch = await makeBatch(tech, stockRecipe.recipeId, 0.5, [raw.code], reviewer);
 		const stockLot = findLotByCode(stockBatch.number)!;
 		expect(stockLot).toMatchObject({
 			componentId: null,
@@ -92,7 +62,7 @@ describe('stock solutions made here', () => {
 		expect(onHandOf(stockLot.id)).toBe(500_000);
 
 		const salt = makeLot(lead.actor, { component: 'sodium-chloride', quantity: '100', unit: 'g' });
-		const b = plan(medium.recipeId, 1);
+		const b = planBatch(tech, medium.recipeId, 1);
 		const [saltLine, stockLine] = buildSheetLines(b);
 		expect(stockLine.suggestion?.code).toBe(stockBatch.number);
 		expect(stockLine.requiredText).toBe('2 mL');
@@ -100,7 +70,7 @@ describe('stock solutions made here', () => {
 		expect(() => chooseLot(tech, b.id, stockLine.id, salt.code)).toThrow(
 			/Wrong stock: .* this line needs a released batch of/
 		);
-		const planned = plan(stockRecipe.recipeId, 0.5);
+		const planned = planBatch(tech, stockRecipe.recipeId, 0.5);
 		expect(() => chooseLot(tech, b.id, stockLine.id, planned.number)).toThrow(
 			/is not a lot known here/
 		);

@@ -3,7 +3,6 @@
 import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { auditEventsFor } from '$lib/server/audit';
-import { checkBatchInput, createBatch } from '$lib/server/batches/create';
 import { completeBatch } from '$lib/server/batches/completion';
 import { requireBatch } from '$lib/server/batches/execution';
 import { correctLine, correctionsOf } from '$lib/server/batches/line-correction';
@@ -18,8 +17,8 @@ import { batchLine, eSignature } from '$lib/server/db/schema';
 import { addDays } from '$lib/server/inventory/alerts';
 import { ledgerOf, onHandOf } from '$lib/server/inventory/ledger';
 import { rolesOf } from '$lib/server/people';
-import { RuleError } from '$lib/server/rule-error';
-import { makeUser } from './helpers';
+import { planBatch } from './batch-fixtures';
+import { makeUser, refusalOf } from './helpers';
 import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 
 type Person = Awaited<ReturnType<typeof makeUser>>;
@@ -41,25 +40,8 @@ beforeAll(async () => {
 	]);
 });
 
-async function refusalOf(run: () => unknown): Promise<RuleError> {
-	try {
-		await run();
-	} catch (error) {
-		if (error instanceof RuleError) return error;
-		throw error;
-	}
-	throw new Error('expected a refusal');
-}
-
 function startedBatch() {
-	const checked = checkBatchInput({
-		recipeId: recipe.recipeId,
-		targetVolumeL: 1,
-		plannedOn: today,
-		intendedUse: 'Weighing test'
-	});
-	if (!checked.ok) throw new Error(JSON.stringify(checked.fieldErrors));
-	const b = createBatch(tech, checked.value);
+	const b = planBatch(tech, recipe.recipeId, 1, 'Weighing test');
 	const lotRow = makeLot(lead.actor, {
 		component: 'potassium-chloride',
 		expiresOn: addDays(today, 300),
