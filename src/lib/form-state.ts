@@ -16,3 +16,8 @@ export function fieldError(form: unknown, field: string): string | undefined {
 export function refill(form: unknown, field: string, fallback = ''): string {
 	return failureOf(form)?.values?.[field] ?? fallback;
 }
+
+/** Whether the failure names fields: their messages then stand beside them, not again above. */
+export function hasFieldErrors(form: unknown): boolean {
+	return Object.keys(failureOf(form)?.fieldErrors ?? {}).length > 0;
+}

@@ -24,7 +24,7 @@ test('the trail filtered by a lot reads as sentences and links to the lot', asyn
 
 	const firstLot = page
 		.getByRole('table', { name: 'Audit trail' })
-		.locator('a[href^="/lots/"]')
+		.locator('a[href^="/lots/"]', { hasText: /^L-\d{4}-\d{4}$/ })
 		.first();
 	const href = (await firstLot.getAttribute('href'))!;
 	const code = (await firstLot.textContent())!.trim();

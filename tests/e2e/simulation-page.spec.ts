@@ -132,7 +132,7 @@ test('the chemostat tab shows the steady state, the sweep and the productivity l
 	await page.getByLabel('Safety margin below D_crit (%)').fill('150');
 	await page.getByRole('button', { name: 'Calculate steady state' }).click();
 	await expect(page.getByLabel('Safety margin below D_crit (%)')).toHaveAccessibleDescription(
-		/0 % to below 100 %/
+		/must be at least 0 and less than 100 \(got 150\)/
 	);
 
 	await page.getByRole('button', { name: 'Compare productivities' }).click();
