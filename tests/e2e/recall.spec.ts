@@ -31,7 +31,7 @@ test.describe('recall', () => {
 		await form.getByLabel('Your password (to sign the recall)').fill(DEMO_PASSWORD);
 		await form.getByRole('button', { name: 'Sign the recall' }).click();
 		await expect(
-			page.getByText(/^Recall signed: \d+ batch(es)? flagged, stocks MB-\d{4}-\d{4} put on hold\./)
+			page.getByText(/Recall signed: \d+ batch(es)? flagged, stocks MB-\d{4}-\d{4} put on hold\./)
 		).toBeVisible();
 		await expect(page.getByRole('region', { name: 'Recalls of this lot' })).toContainText(
 			'put on hold'
