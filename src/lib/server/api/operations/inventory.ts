@@ -88,7 +88,9 @@ const lotRow = {
 		.describe('the stock-solution batch this lot is; null for a received lot'),
 	retestOn: isoDay
 		.nullable()
-		.describe('from this date the lot must be retested before use (set by a recall); null: none due'),
+		.describe(
+			'from this date the lot must be retested before use (set by a recall); null: none due'
+		),
 	supplier: z.string(),
 	supplierLot: z.string(),
 	quantityKind: z.enum(QUANTITY_KINDS),
