@@ -61,35 +61,22 @@ function settleLedger(
 	return lotRow.quantityKind === 'mass' ? { consumedMg: after } : { consumedUl: after };
 }
 
-function writeCorrection(
+interface CorrectedValue {
+	toText: string;
+	toUg: number | null;
+	toUl: number | null;
+	reason: string;
+}
+
+/** The corrector's signature and the correction row, which keeps what the line said before. */
+function insertCorrection(
 	tx: Tx,
 	actor: Technician & { name: string },
 	b: Batch,
 	line: BatchLine,
-	input: LineCorrection,
-	witness: Witness | null
-): void {
-	const parsed = readLineAmount(input.actualText, line.kind);
-	if (!parsed.ok) throw new RuleError(parsed.message, { field: 'actual' });
-	const toText = input.actualText.trim();
-	if (toText === line.actualText)
-		throw new RuleError(`Line ${line.position} already says ${toText}; nothing to correct.`, {
-			field: 'actual'
-		});
-	const reason = input.reason.trim();
-	const sheetLine = buildSheetLines(b, tx).find((l) => l.id === line.id)!;
-	const required =
-		(line.kind === 'component' ? line.requiredUg : line.requiredUl) ?? sheetLine.requiredQuantity;
-	const witnessedBy = requireWitnessBeyondBand(tx, b, line, {
-		required,
-		actual: parsed.quantity,
-		actualText: toText,
-		witness
-	});
-	const to =
-		line.kind === 'component'
-			? { toUg: parsed.quantity, toUl: null }
-			: { toUg: null, toUl: parsed.quantity };
+	value: CorrectedValue
+): string {
+	const { toText, toUg, toUl, reason } = value;
 	const signature = insertSignature(
 		{
 			signerId: actor.id,
@@ -117,35 +104,78 @@ function writeCorrection(
 			fromUg: line.actualUg,
 			fromUl: line.actualUl,
 			toText,
-			...to,
+			toUg,
+			toUl,
 			reason,
 			correctedById: actor.id,
 			signatureId: signature.id
 		})
 		.run();
+	return signature.id;
+}
+
+/** A corrected value outside the line's tolerance is a deviation, with the correction's reason. */
+function recordCorrectedDeviation(
+	tx: Tx,
+	actor: Technician,
+	b: Batch,
+	line: BatchLine,
+	quantities: { required: number; actual: number; reason: string }
+): void {
+	const { required, actual, reason } = quantities;
+	const verdict = checkTolerance(required, actual, line.tolerancePercent);
+	if (verdict === 'within') return;
+	const show = (quantity: number) => formatLineQuantity(quantity, line.kind);
+	tx.insert(batchDeviation)
+		.values({
+			batchId: b.id,
+			lineId: line.id,
+			kind: 'out_of_tolerance',
+			detail: `Line ${line.position} corrected to ${show(actual)} against ${show(required)} ± ${line.tolerancePercent} % (${verdict}).`,
+			reason,
+			recordedById: actor.id
+		})
+		.run();
+}
+
+function writeCorrection(
+	tx: Tx,
+	actor: Technician & { name: string },
+	b: Batch,
+	line: BatchLine,
+	input: LineCorrection,
+	witness: Witness | null
+): void {
+	const parsed = readLineAmount(input.actualText, line.kind);
+	if (!parsed.ok) throw new RuleError(parsed.message, { field: 'actual' });
+	const toText = input.actualText.trim();
+	if (toText === line.actualText)
+		throw new RuleError(`Line ${line.position} already says ${toText}; nothing to correct.`, {
+			field: 'actual'
+		});
+	const reason = input.reason.trim();
+	const sheetLine = buildSheetLines(b, tx).find((l) => l.id === line.id)!;
+	const required =
+		(line.kind === 'component' ? line.requiredUg : line.requiredUl) ?? sheetLine.requiredQuantity;
+	const witnessedBy = requireWitnessBeyondBand(tx, b, line, {
+		required,
+		actual: parsed.quantity,
+		actualText: toText,
+		witness
+	});
+	const toUg = line.kind === 'component' ? parsed.quantity : null;
+	const toUl = line.kind === 'stock' ? parsed.quantity : null;
+	const signatureId = insertCorrection(tx, actor, b, line, { toText, toUg, toUl, reason });
 	const consumed = settleLedger(tx, actor, b, line, {
 		kind: line.kind,
-		actualUg: to.toUg,
-		actualUl: to.toUl
+		actualUg: toUg,
+		actualUl: toUl
 	});
 	tx.update(batchLine)
-		.set({ actualText: toText, actualUg: to.toUg, actualUl: to.toUl, ...consumed })
+		.set({ actualText: toText, actualUg: toUg, actualUl: toUl, ...consumed })
 		.where(eq(batchLine.id, line.id))
 		.run();
-	const verdict = checkTolerance(required, parsed.quantity, line.tolerancePercent);
-	if (verdict !== 'within') {
-		const show = (quantity: number) => formatLineQuantity(quantity, line.kind);
-		tx.insert(batchDeviation)
-			.values({
-				batchId: b.id,
-				lineId: line.id,
-				kind: 'out_of_tolerance',
-				detail: `Line ${line.position} corrected to ${show(parsed.quantity)} against ${show(required)} ± ${line.tolerancePercent} % (${verdict}).`,
-				reason,
-				recordedById: actor.id
-			})
-			.run();
-	}
+	recordCorrectedDeviation(tx, actor, b, line, { required, actual: parsed.quantity, reason });
 	recordAudit(
 		actor,
 		{
@@ -156,7 +186,7 @@ function writeCorrection(
 				line: line.position,
 				changes: { actual: { from: line.actualText, to: toText } },
 				reason,
-				signatureId: signature.id,
+				signatureId,
 				witnessedBy: witnessedBy ?? undefined
 			}
 		},

@@ -163,17 +163,10 @@ function recallMail(
 	};
 }
 
-/**
- * The recall: refused without the role, a reason or the right password (each refusal recorded),
- * then one transaction for the signature, the lot, the flags and the held stocks; mail after.
- */
-export async function recallLot(
-	actor: { id: string; email: string; roles: readonly Role[]; address?: string | null },
-	lotId: string,
-	input: RecallInput,
-	today = isoToday()
-): Promise<RecallOutcome> {
-	const row = requireLot(lotId);
+type Recaller = { id: string; email: string; roles: readonly Role[]; address?: string | null };
+
+/** The recall's reason and what happens to the lot; each refusal before signing is recorded. */
+function checkRecall(actor: Recaller, row: Lot, input: RecallInput) {
 	const attempt = {
 		subjectType: 'lot',
 		subjectId: row.id,
@@ -198,7 +191,76 @@ export async function recallLot(
 		throw new RuleError('Choose what happens to the lot: on hold, or retest before use.', {
 			field: 'lotAction'
 		});
-	const action = input.lotAction as RecallLotAction;
+	return { reason, action: input.lotAction as RecallLotAction };
+}
+
+/** Inside the signature's transaction: the recall, its flags, the lot and the stocks made from it. */
+function writeRecall(
+	tx: Tx,
+	actor: Recaller,
+	row: Lot,
+	recall: { action: RecallLotAction; reason: string; signatureId: string; today: string },
+	flagged: TracedUse[]
+) {
+	const { action, reason, signatureId, today } = recall;
+	const { id: recallId } = tx
+		.insert(lotRecall)
+		.values({ lotId: row.id, lotAction: action, reason, recalledById: actor.id, signatureId })
+		.returning()
+		.get();
+	for (const f of flagged)
+		tx.insert(batchRecallFlag)
+			.values({ recallId, batchId: f.batchId, depth: f.depth, viaLotCode: f.viaLotCode })
+			.run();
+	actOnRecalledLot(tx, actor, requireLot(row.id, tx), action, reason, today, {
+		recallId,
+		flagged: flagged.length
+	});
+	const heldStocks = holdStocksMadeFrom(
+		tx,
+		actor,
+		flagged,
+		`Made from recalled lot ${row.code}: ${reason}`
+	);
+	return { recallId, flagged, heldStocks };
+}
+
+/** After the recall is recorded: the mail; a failure to send is recorded and said, not thrown. */
+async function tellOfRecall(
+	actor: Recaller,
+	row: Lot,
+	recall: { action: RecallLotAction; reason: string },
+	outcome: Omit<RecallOutcome, 'mailed' | 'mailProblem'>
+): Promise<RecallOutcome> {
+	const mailed = recipientsOfRecall();
+	try {
+		if (mailed.length)
+			await sendMail({ to: mailed, ...recallMail(row, recall.action, recall.reason, outcome) });
+		return { ...outcome, mailed, mailProblem: null };
+	} catch (cause) {
+		const problem = `The recall is recorded, but the mail could not be sent (${(cause as Error).message}); tell the people concerned another way.`;
+		recordAudit(actor, {
+			action: 'lot.recall_mail_failed',
+			subjectType: 'lot',
+			subjectId: row.id,
+			detail: { problem }
+		});
+		return { ...outcome, mailed: [], mailProblem: problem };
+	}
+}
+
+/**
+ * The recall: refused without the role, a reason or the right password (each refusal recorded),
+ * then one transaction for the signature, the lot, the flags and the held stocks; mail after.
+ */
+export async function recallLot(
+	actor: Recaller,
+	lotId: string,
+	input: RecallInput,
+	today = isoToday()
+): Promise<RecallOutcome> {
+	const row = requireLot(lotId);
+	const { reason, action } = checkRecall(actor, row, input);
 	const flagged = batchesMadeFromLot(row.id);
 	const outcome = await signRecord(
 		{
@@ -216,54 +278,10 @@ export async function recallLot(
 			comment: reason,
 			address: actor.address ?? undefined
 		},
-		(tx, signature) => {
-			const recall = tx
-				.insert(lotRecall)
-				.values({
-					lotId: row.id,
-					lotAction: action,
-					reason,
-					recalledById: actor.id,
-					signatureId: signature.id
-				})
-				.returning()
-				.get();
-			for (const f of flagged)
-				tx.insert(batchRecallFlag)
-					.values({
-						recallId: recall.id,
-						batchId: f.batchId,
-						depth: f.depth,
-						viaLotCode: f.viaLotCode
-					})
-					.run();
-			actOnRecalledLot(tx, actor, requireLot(row.id, tx), action, reason, today, {
-				recallId: recall.id,
-				flagged: flagged.length
-			});
-			const heldStocks = holdStocksMadeFrom(
-				tx,
-				actor,
-				flagged,
-				`Made from recalled lot ${row.code}: ${reason}`
-			);
-			return { recallId: recall.id, flagged, heldStocks };
-		}
+		(tx, signature) =>
+			writeRecall(tx, actor, row, { action, reason, signatureId: signature.id, today }, flagged)
 	);
-	const mailed = recipientsOfRecall();
-	try {
-		if (mailed.length) await sendMail({ to: mailed, ...recallMail(row, action, reason, outcome) });
-		return { ...outcome, mailed, mailProblem: null };
-	} catch (cause) {
-		const problem = `The recall is recorded, but the mail could not be sent (${(cause as Error).message}); tell the people concerned another way.`;
-		recordAudit(actor, {
-			action: 'lot.recall_mail_failed',
-			subjectType: 'lot',
-			subjectId: row.id,
-			detail: { problem }
-		});
-		return { ...outcome, mailed: [], mailProblem: problem };
-	}
+	return tellOfRecall(actor, row, { action, reason }, outcome);
 }
 
 /** The recalls of a lot, newest first, with who made them. */
