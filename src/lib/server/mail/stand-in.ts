@@ -2,6 +2,7 @@ import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { db } from '../db';
 import { mailMessage } from '../db/schema';
+import { createStandInSecret, isStandInSecret, STAND_IN_USER } from './stand-in-secret';
 
 const MAX_MESSAGE_BYTES = 25 * 1024 * 1024;
 
@@ -12,13 +13,24 @@ function addresses(field: AddressObject | AddressObject[] | undefined): string[]
 
 /**
  * A loopback SMTP server that keeps every message it receives in the database, so the outbox page
- * can show what the product sent without any real mail leaving the machine.
+ * can show what the product sent without any real mail leaving the machine. It takes mail only from
+ * a client that authenticates with the secret made when it starts (stand-in-secret.ts).
  */
 export function startMailStandIn(port: number, host = '127.0.0.1'): Promise<SMTPServer> {
+	const secret = createStandInSecret();
 	const server = new SMTPServer({
 		secure: false,
-		authOptional: true,
-		disabledCommands: ['STARTTLS', 'AUTH'],
+		// Only the app, with the secret made at start, may post; loopback only, so no TLS is needed
+		// for the password to stay on this machine.
+		authOptional: false,
+		allowInsecureAuth: true,
+		authMethods: ['PLAIN', 'LOGIN'],
+		disabledCommands: ['STARTTLS'],
+		onAuth(auth, _session, callback) {
+			if (auth.username === STAND_IN_USER && isStandInSecret(auth.password ?? '', secret))
+				return callback(null, { user: STAND_IN_USER });
+			return callback(new Error('Only Brothwright may post to its mail stand-in.'));
+		},
 		size: MAX_MESSAGE_BYTES,
 		banner: 'Brothwright mail stand-in',
 		logger: false,

@@ -73,6 +73,8 @@ const SENTENCES: Record<string, Sentence> = {
 		`Could not mail the recall of lot ${s}${because(d, 'problem')}`,
 	'organism_profile.created': (d, s) => `Created organism profile ${text(d.name) || s}`,
 	'organism_profile.updated': (_, s) => `Changed organism profile ${s}`,
+	'outbox.read': (d) => `Read the message “${text(d.subject)}” in the outbox`,
+	'outbox.listed': () => 'Opened the outbox',
 	'password.reset_requested': () => 'Asked for a password reset link',
 	'password.reset_completed': () => 'Set a new password through a reset link',
 	'person.invited': (d) => `Invited ${text(d.email)} as ${text(d.roles)}`,

@@ -1,5 +1,6 @@
 import { config } from '$lib/server/config';
-import { requirePermission } from '$lib/server/guard';
+import { recordAudit } from '$lib/server/audit';
+import { requireActor } from '$lib/server/guard';
 import { listMail } from '$lib/server/outbox';
 import { pageFrom } from '$lib/server/paging';
 import type { PageServerLoad } from './$types';
@@ -7,7 +8,8 @@ import type { PageServerLoad } from './$types';
 const PAGE_SIZE = 25;
 
 export const load: PageServerLoad = async ({ url }) => {
-	requirePermission('admin.outbox');
+	const reader = requireActor('admin.outbox');
 	const page = pageFrom(url);
+	recordAudit(reader, { action: 'outbox.listed', subjectType: 'mail', detail: { page } });
 	return { ...listMail(page, PAGE_SIZE), page, pageSize: PAGE_SIZE, standIn: config.smtp.standIn };
 };
