@@ -289,6 +289,11 @@ export async function requestPasswordReset(
 	const { token, tokenHash } = createLinkToken();
 	const expiresAt = new Date(now.getTime() + RESET_LIFETIME_MS);
 	db.transaction((tx) => {
+		// A newer link voids the older ones: only the last link sent can set a password.
+		tx.update(passwordReset)
+			.set({ usedAt: now })
+			.where(and(eq(passwordReset.userId, target.id), isNull(passwordReset.usedAt)))
+			.run();
 		tx.insert(passwordReset)
 			.values({ userId: target.id, tokenHash, createdAt: now, expiresAt })
 			.run();
@@ -340,6 +345,11 @@ export async function completePasswordReset(
 			.where(and(eq(passwordReset.id, reset.id), isNull(passwordReset.usedAt)))
 			.run();
 		if (claimed.changes !== 1) throw new RuleError(LINK_MESSAGES.used);
+		// A completed reset voids every other link still open for the account.
+		tx.update(passwordReset)
+			.set({ usedAt: now })
+			.where(and(eq(passwordReset.userId, reset.userId), isNull(passwordReset.usedAt)))
+			.run();
 		tx.update(user).set({ passwordHash }).where(eq(user.id, reset.userId)).run();
 		recordAudit(
 			{ id: target.id, email: target.email, address },
