@@ -1,23 +1,66 @@
 import { describe, expect, it } from 'vitest';
 import { signIn } from '$lib/server/auth/sign-in';
 import { checkThrottle, recordSignInAttempt, THROTTLE } from '$lib/server/auth/throttle';
+import { signRecord } from '$lib/server/signatures';
 import { makeUser } from './helpers';
 
 describe('sign-in throttling', () => {
-	it('refuses the sixth try after five failures for one account, even with the right password', async () => {
+	it('after five failures from one address, the next try waits, even with the right password; the wait doubles', async () => {
 		const person = await makeUser();
 		for (let i = 0; i < 5; i++) {
 			const outcome = await signIn(person.email, 'wrong-password-here', '192.0.2.10');
 			expect(outcome).toMatchObject({ ok: false, status: 401, field: 'password' });
 		}
-		const refused = await signIn(person.email, person.password, '192.0.2.11');
-		expect(refused.ok).toBe(false);
+		const refused = await signIn(person.email, person.password, '192.0.2.10');
+		expect(refused).toMatchObject({ ok: false, status: 429 });
 		if (refused.ok) return;
-		expect(refused.status).toBe(429);
 		expect(refused.message).toMatch(
-			/Too many failed sign-ins for this account\. Try again in 15 minutes/
+			/Too many failed tries of this account's password\. Try again in 1 minute/
 		);
-		expect(refused.retryAfterS).toBeGreaterThan(14 * 60);
+		expect(refused.retryAfterS).toBeGreaterThan(50);
+		expect(refused.retryAfterS).toBeLessThanOrEqual(60);
+		// One more failure (as if after the wait) doubles it.
+		recordSignInAttempt(person.email, '192.0.2.10', false);
+		const later = checkThrottle(person.email, '192.0.2.10');
+		expect(later.allowed).toBe(false);
+		if (!later.allowed) expect(later.retryAfterS).toBeGreaterThan(110);
+	});
+
+	it('an outsider’s failures do not lock the person out from their own address', async () => {
+		const person = await makeUser();
+		for (let i = 0; i < 10; i++) await signIn(person.email, 'guessing-here-1', '203.0.113.66');
+		expect((await signIn(person.email, person.password, '192.0.2.11')).ok).toBe(true);
+	});
+
+	it('counts a try before its password is checked: 30 concurrent wrong tries, at most 5 evaluated', async () => {
+		const person = await makeUser();
+		const outcomes = await Promise.all(
+			Array.from({ length: 30 }, () => signIn(person.email, 'wrong-password-here', '192.0.2.12'))
+		);
+		const evaluated = outcomes.filter((o) => !o.ok && o.status === 401);
+		const throttled = outcomes.filter((o) => !o.ok && o.status === 429);
+		expect(evaluated.length).toBeLessThanOrEqual(THROTTLE.maxFailuresPerPair);
+		expect(evaluated.length + throttled.length).toBe(30);
+	});
+
+	it('signature passwords share the count with sign-in', async () => {
+		const person = await makeUser();
+		const sign = (password: string) =>
+			signRecord(
+				{
+					user: person,
+					password,
+					meaning: 'verified',
+					subjectType: 'test',
+					subjectId: 't',
+					address: '192.0.2.13'
+				},
+				() => undefined
+			);
+		for (let i = 0; i < 5; i++) await expect(sign('not-the-password')).rejects.toThrow(/not right/);
+		await expect(sign(person.password)).rejects.toThrow(/Too many failed tries/);
+		const refused = await signIn(person.email, person.password, '192.0.2.13');
+		expect(refused).toMatchObject({ ok: false, status: 429 });
 	});
 
 	it('lifts the refusal once the failures are older than 15 minutes', async () => {

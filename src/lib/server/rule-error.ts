@@ -6,7 +6,7 @@ import { ChemistryInputError } from '$chemistry';
  */
 export class RuleError extends Error {
 	readonly field?: string;
-	readonly status: 400 | 403 | 404 | 409 | 422;
+	readonly status: 400 | 403 | 404 | 409 | 422 | 429;
 
 	constructor(message: string, options: { field?: string; status?: RuleError['status'] } = {}) {
 		super(message);

@@ -4,6 +4,7 @@ import { recordAudit, type Actor } from './audit';
 import { verifyPassword } from './auth/passwords';
 import { db, type Db } from './db';
 import { eSignature, user, type ESignature } from './db/schema';
+import { claimAttempt, settleAttempt } from './auth/throttle';
 import { RuleError } from './rule-error';
 import { nextLink } from './trail/chain';
 
@@ -66,6 +67,17 @@ export async function signRecord<T>(
 	if (!request.password) {
 		throw new RuleError('Enter your password to sign.', { field: 'password' });
 	}
+	// Signature passwords share the person's count of tries with sign-in.
+	const attempt = claimAttempt(signer.email, request.address ?? 'unknown');
+	if (!attempt.allowed) {
+		recordAudit(actor, {
+			action: 'signature.refused',
+			subjectType: request.subjectType,
+			subjectId: request.subjectId,
+			detail: { meaning: request.meaning, reason: 'too many password tries' }
+		});
+		throw new RuleError(`${attempt.reason} Nothing was signed.`, { field: 'password', status: 429 });
+	}
 	if (!(await verifyPassword(signer.passwordHash, request.password))) {
 		recordAudit(actor, {
 			action: 'signature.refused',
@@ -77,6 +89,7 @@ export async function signRecord<T>(
 			field: 'password'
 		});
 	}
+	settleAttempt(attempt.attemptId);
 	return db.transaction((tx) => {
 		const signature = insertSignature(
 			{

@@ -4,7 +4,7 @@ import { recordAudit } from '../audit';
 import { findUserByEmail, normaliseEmail } from '../people';
 import { getLucia } from './lucia';
 import { spendVerificationTime, verifyPassword } from './passwords';
-import { checkThrottle, recordSignInAttempt } from './throttle';
+import { claimAttempt, settleAttempt } from './throttle';
 
 export type SignInOutcome =
 	| { ok: true; userId: string; cookie: Cookie }
@@ -22,7 +22,7 @@ export async function signIn(
 	address: string
 ): Promise<SignInOutcome> {
 	const email = normaliseEmail(emailInput);
-	const throttle = checkThrottle(email, address);
+	const throttle = claimAttempt(email, address);
 	if (!throttle.allowed) {
 		recordAudit(
 			{ id: null, email, address },
@@ -35,7 +35,6 @@ export async function signIn(
 	}
 	const account = findUserByEmail(email);
 	const fail = (field: 'email' | 'password', message: string, reason: string): SignInOutcome => {
-		recordSignInAttempt(email, address, false);
 		recordAudit(
 			{ id: account?.id ?? null, email, address },
 			{
@@ -71,7 +70,7 @@ export async function signIn(
 			message: 'This account is deactivated. Ask an administrator.'
 		};
 	}
-	recordSignInAttempt(email, address, true);
+	settleAttempt(throttle.attemptId);
 	const lucia = getLucia();
 	const session = await lucia.createSession(account.id, {});
 	recordAudit(
