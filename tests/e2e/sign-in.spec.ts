@@ -52,14 +52,16 @@ for (const [role, email] of Object.entries(DEMO) as [DemoRole, string][]) {
 test('a wrong password says so and keeps the e-mail filled in', async ({ page }) => {
 	await signInWithForm(page, DEMO.engineer, 'not-the-password');
 	await expect(page.getByRole('alert')).toContainText(
-		'The password is not right for this account.'
+		'The e-mail address or the password is not right.'
 	);
 	await expect(page.getByLabel('E-mail')).toHaveValue(DEMO.engineer);
 });
 
-test('an unknown e-mail says so', async ({ page }) => {
+test('an unknown e-mail gets the same answer as a wrong password', async ({ page }) => {
 	await signInWithForm(page, 'stranger@demo.test', 'whatever-it-is');
-	await expect(page.getByRole('alert')).toContainText('No account uses this e-mail address.');
+	await expect(page.getByRole('alert')).toContainText(
+		'The e-mail address or the password is not right.'
+	);
 	await expect(page.getByLabel('E-mail')).toHaveValue('stranger@demo.test');
 });
 

@@ -11,7 +11,7 @@ import { latestMailTo, linkIn, useMailStandIn } from './mail';
 useMailStandIn();
 
 async function resetLinkFor(email: string) {
-	await requestPasswordReset(email, '127.0.0.1');
+	await requestPasswordReset(email, '127.0.0.1').mailSent;
 	return linkIn(latestMailTo(email)!.textBody, 'reset');
 }
 

@@ -95,14 +95,14 @@ describe('sign-in throttling', () => {
 		expect(refused).toMatchObject({ ok: false, status: 429 });
 	});
 
-	it('says which part was wrong: unknown e-mail against wrong password', async () => {
+	it('gives one answer for an unknown e-mail and a wrong password', async () => {
 		const person = await makeUser();
 		expect(
 			await signIn('no-such-person@lab.test', 'whatever-long-pass', '192.0.2.40')
 		).toMatchObject({
 			ok: false,
-			field: 'email',
-			message: 'No account uses this e-mail address.'
+			field: 'password',
+			message: 'The e-mail address or the password is not right. Check both, or reset the password.'
 		});
 		expect(
 			await signIn(person.email.toUpperCase(), 'whatever-long-pass', '192.0.2.40')

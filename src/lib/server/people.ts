@@ -277,15 +277,24 @@ export async function acceptInvitation(
 	});
 }
 
-export async function requestPasswordReset(
+/**
+ * Sends a reset link to an active account. The answer and its time are the same for any address
+ * (known or not, active or not): the mail goes out after the answer, so nothing tells which
+ * addresses have accounts. A mail that fails is recorded in the trail.
+ */
+export function requestPasswordReset(
 	email: string,
 	address: string,
 	now = new Date()
-): Promise<{ link: string; mailError?: string }> {
+): { mailSent: Promise<void> } {
 	const target = findUserByEmail(email);
-	if (!target) throw new RuleError('No account uses this e-mail address.', { field: 'email' });
-	if (!target.active)
-		throw new RuleError('This account is deactivated; ask an administrator.', { field: 'email' });
+	if (!target || !target.active) {
+		recordAudit(
+			{ id: null, email: normaliseEmail(email), address },
+			{ action: 'password.reset_unknown', detail: { reason: target ? 'deactivated' : 'unknown' } }
+		);
+		return { mailSent: Promise.resolve() };
+	}
 	const { token, tokenHash } = createLinkToken();
 	const expiresAt = new Date(now.getTime() + RESET_LIFETIME_MS);
 	db.transaction((tx) => {
@@ -304,12 +313,19 @@ export async function requestPasswordReset(
 		);
 	});
 	const link = `${config.origin}/reset/${token}`;
-	try {
-		await sendMail(passwordResetMail({ to: target.email, link, expiresAt }));
-		return { link };
-	} catch (cause) {
-		return { link, mailError: cause instanceof Error ? cause.message : String(cause) };
-	}
+	const mailSent = sendMail(passwordResetMail({ to: target.email, link, expiresAt })).catch(
+		(cause: unknown) =>
+			recordAudit(
+				{ id: target.id, email: target.email, address },
+				{
+					action: 'password.reset_mail_failed',
+					subjectType: 'user',
+					subjectId: target.id,
+					detail: { problem: cause instanceof Error ? cause.message : String(cause) }
+				}
+			)
+	);
+	return { mailSent };
 }
 
 export function inspectPasswordReset(token: string, now = new Date()) {

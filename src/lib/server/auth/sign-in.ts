@@ -6,6 +6,9 @@ import { getLucia } from './lucia';
 import { spendVerificationTime, verifyPassword } from './passwords';
 import { claimAttempt, settleAttempt } from './throttle';
 
+const NOT_RIGHT =
+	'The e-mail address or the password is not right. Check both, or reset the password.';
+
 export type SignInOutcome =
 	| { ok: true; userId: string; cookie: Cookie }
 	| {
@@ -46,12 +49,14 @@ export async function signIn(
 		);
 		return { ok: false, status: 401, field, message };
 	};
+	// One answer, in the same time, whether the address is unknown or the password wrong: the
+	// form must not tell which addresses have accounts.
 	if (!account) {
 		await spendVerificationTime(password);
-		return fail('email', 'No account uses this e-mail address.', 'unknown_email');
+		return fail('password', NOT_RIGHT, 'unknown_email');
 	}
 	if (!(await verifyPassword(account.passwordHash, password))) {
-		return fail('password', 'The password is not right for this account.', 'wrong_password');
+		return fail('password', NOT_RIGHT, 'wrong_password');
 	}
 	if (!account.active) {
 		recordAudit(

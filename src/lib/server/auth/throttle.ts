@@ -22,8 +22,7 @@ export const THROTTLE = {
 } as const;
 
 export type ThrottleVerdict =
-	| { allowed: true; attemptId: string }
-	| { allowed: false; retryAfterS: number; reason: string };
+	{ allowed: true; attemptId: string } | { allowed: false; retryAfterS: number; reason: string };
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { parseForm, ruleFailure } from '$lib/server/forms';
+import { parseForm } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import { requestPasswordReset } from '$lib/server/people';
 import type { Actions, PageServerLoad } from './$types';
@@ -20,17 +20,8 @@ export const actions: Actions = {
 		const formData = await request.formData();
 		const parsed = parseForm(requestForm, formData);
 		if (!parsed.ok) return parsed.failure;
-		try {
-			const outcome = await requestPasswordReset(parsed.data.email, clientAddress());
-			return {
-				sent: true,
-				email: parsed.data.email,
-				mailError: outcome.mailError
-					? 'The mail could not be sent; ask an administrator.'
-					: undefined
-			};
-		} catch (cause) {
-			return ruleFailure(formData, cause);
-		}
+		// The same answer for every address: it must not tell which ones have accounts.
+		requestPasswordReset(parsed.data.email, clientAddress());
+		return { sent: true, email: parsed.data.email };
 	}
 };
