@@ -10,7 +10,7 @@ declare global {
 		}
 		interface Locals {
 			user: { id: string; email: string; name: string; roles: Role[] } | null;
-			session: import('lucia').Session | null;
+			session: import('$lib/server/auth/sessions').Session | null;
 		}
 		interface PageData {
 			user?: App.Locals['user'];

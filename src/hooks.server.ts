@@ -2,8 +2,13 @@ import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { building, dev } from '$app/environment';
 import { sequence } from '@sveltejs/kit/hooks';
 import { PROBLEM_CONTENT_TYPE, problem } from '$lib/server/api/problem';
-import { getLucia } from '$lib/server/auth/lucia';
-import { setSessionCookie } from '$lib/server/auth/sign-in';
+import {
+	deleteSessionCookie,
+	invalidateSession,
+	SESSION_COOKIE_NAME,
+	setSessionCookie,
+	validateSessionToken
+} from '$lib/server/auth/sessions';
 import { rolesOf } from '$lib/server/people';
 
 /**
@@ -18,16 +23,16 @@ export const init: ServerInit = async () => {
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {
-	const lucia = getLucia();
-	const sessionId = event.cookies.get(lucia.sessionCookieName);
+	const token = event.cookies.get(SESSION_COOKIE_NAME);
 	event.locals.user = null;
 	event.locals.session = null;
-	if (!sessionId) return resolve(event);
+	if (!token) return resolve(event);
 
-	const { session, user } = await lucia.validateSession(sessionId);
-	if (session && user?.active) {
+	const validated = validateSessionToken(token);
+	if (validated?.user.active) {
+		const { session, user, fresh } = validated;
 		// A fresh session was just extended: send the renewed cookie so it outlives inactivity only.
-		if (session.fresh) setSessionCookie(event.cookies, lucia.createSessionCookie(session.id));
+		if (fresh) setSessionCookie(event.cookies, token, session.expiresAt);
 		event.locals.session = session;
 		event.locals.user = {
 			id: user.id,
@@ -36,8 +41,8 @@ const handleSession: Handle = async ({ event, resolve }) => {
 			roles: rolesOf(user.id)
 		};
 	} else {
-		if (session) await lucia.invalidateSession(session.id);
-		setSessionCookie(event.cookies, lucia.createBlankSessionCookie());
+		if (validated) invalidateSession(validated.session.id);
+		deleteSessionCookie(event.cookies);
 	}
 	return resolve(event);
 };

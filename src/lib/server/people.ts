@@ -1,7 +1,7 @@
 import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 import { describeRoles, type Role } from '$lib/roles';
 import { recordAudit, type Actor } from './audit';
-import { getLucia } from './auth/lucia';
+import { invalidateUserSessions } from './auth/sessions';
 import { checkPasswordPolicy, hashPassword } from './auth/passwords';
 import { createLinkToken, hashLinkToken } from './auth/tokens';
 import { config } from './config';
@@ -126,7 +126,7 @@ export async function setActive(actor: Actor, userId: string, active: boolean): 
 		);
 	});
 	// Their sessions end at once, not at the next expiry.
-	if (!active) await getLucia().invalidateUserSessions(userId);
+	if (!active) invalidateUserSessions(userId);
 }
 
 export interface InvitationOutcome {
@@ -374,6 +374,6 @@ export async function completePasswordReset(
 		);
 	});
 	// Anyone holding an old session loses it along with the old password.
-	await getLucia().invalidateUserSessions(reset.userId);
+	invalidateUserSessions(reset.userId);
 	return reset.userId;
 }

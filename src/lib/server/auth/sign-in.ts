@@ -1,16 +1,20 @@
 import type { Cookies } from '@sveltejs/kit';
-import type { Cookie } from 'lucia';
 import { recordAudit } from '../audit';
 import { findUserByEmail, normaliseEmail } from '../people';
-import { getLucia } from './lucia';
 import { spendVerificationTime, verifyPassword } from './passwords';
+import {
+	createSession,
+	deleteSessionCookie,
+	invalidateSession,
+	type IssuedSession
+} from './sessions';
 import { claimAttempt, settleAttempt } from './throttle';
 
 const NOT_RIGHT =
 	'The e-mail address or the password is not right. Check both, or reset the password.';
 
 export type SignInOutcome =
-	| { ok: true; userId: string; cookie: Cookie }
+	| { ok: true; userId: string; issued: IssuedSession }
 	| {
 			ok: false;
 			status: 401 | 403 | 429;
@@ -76,17 +80,12 @@ export async function signIn(
 		};
 	}
 	settleAttempt(throttle.attemptId);
-	const lucia = getLucia();
-	const session = await lucia.createSession(account.id, {});
+	const issued = createSession(account.id);
 	recordAudit(
 		{ id: account.id, email, address },
 		{ action: 'sign_in.succeeded', subjectType: 'user', subjectId: account.id }
 	);
-	return { ok: true, userId: account.id, cookie: lucia.createSessionCookie(session.id) };
-}
-
-export function setSessionCookie(cookies: Cookies, cookie: Cookie): void {
-	cookies.set(cookie.name, cookie.value, { path: '/', ...cookie.attributes });
+	return { ok: true, userId: account.id, issued };
 }
 
 export async function signOut(
@@ -94,8 +93,7 @@ export async function signOut(
 	sessionId: string,
 	actor: { id: string; email: string; address: string }
 ) {
-	const lucia = getLucia();
-	await lucia.invalidateSession(sessionId);
-	setSessionCookie(cookies, lucia.createBlankSessionCookie());
+	invalidateSession(sessionId);
+	deleteSessionCookie(cookies);
 	recordAudit(actor, { action: 'sign_out', subjectType: 'user', subjectId: actor.id });
 }

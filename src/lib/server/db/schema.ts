@@ -31,7 +31,10 @@ export const userRole = sqliteTable(
 	(t) => [primaryKey({ columns: [t.userId, t.role] })]
 );
 
-/** Lucia's session table: expires_at is in seconds, as its Drizzle adapter expects. */
+/**
+ * A signed-in session. `id` is the SHA-256 (hex) of the token in the cookie, never the token itself;
+ * `expires_at` is the idle limit (moved on use), `created_at` anchors the absolute limit.
+ */
 export const session = sqliteTable(
 	'session',
 	{
@@ -39,7 +42,8 @@ export const session = sqliteTable(
 		userId: text('user_id')
 			.notNull()
 			.references(() => user.id, { onDelete: 'cascade' }),
-		expiresAt: integer('expires_at').notNull()
+		createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+		expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull()
 	},
 	(t) => [index('session_user_idx').on(t.userId)]
 );

@@ -94,6 +94,8 @@ const SENTENCES: Record<string, Sentence> = {
 	'settings.batch_number_pattern': () => 'Changed the batch number pattern',
 	'settings.hard_band_percent': (d) =>
 		`Changed the hard band for weighings from ±${text(d.from)} % to ±${text(d.to)} %`,
+	'settings.session_absolute_days': (d) =>
+		`Changed the longest session from ${text(d.from)} to ${text(d.to)} days`,
 	'sign_in.succeeded': () => 'Signed in',
 	'sign_in.failed': (d) => `Sign-in failed${because(d)}`,
 	'sign_in.refused': (d) => `Sign-in refused${because(d)}`,

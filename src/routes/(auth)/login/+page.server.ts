@@ -1,6 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { setSessionCookie, signIn } from '$lib/server/auth/sign-in';
+import { setSessionCookie } from '$lib/server/auth/sessions';
+import { signIn } from '$lib/server/auth/sign-in';
 import { formFailure, parseForm } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import type { Actions, PageServerLoad } from './$types';
@@ -40,7 +41,7 @@ export const actions: Actions = {
 				outcome.status === 429 ? 429 : 400
 			);
 		}
-		setSessionCookie(cookies, outcome.cookie);
+		setSessionCookie(cookies, outcome.issued.token, outcome.issued.session.expiresAt);
 		redirect(303, safeNext(next));
 	}
 };

@@ -4,16 +4,19 @@ import {
 	formatBatchNumber,
 	setBatchNumberPattern
 } from '$lib/server/batches/numbering';
+import { config } from '$lib/server/config';
 import { tagged } from '$lib/server/form-tag';
 import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
 import { receiverMayNotSign, setReceiverMayNotSign } from '$lib/server/inventory/lot-settings';
 import { hardBandPercent, setHardBandPercent } from '$lib/server/batches/weighing-band';
 import { clientAddress, requirePermission } from '$lib/server/guard';
+import { sessionAbsoluteDays, setSessionAbsoluteDays } from '$lib/server/auth/session-settings';
 import type { Actions, PageServerLoad } from './$types';
 
 const patternForm = z.object({ pattern: z.string().max(60) });
 const lotSigningForm = z.object({ receiverMayNotSign: z.string().optional() });
 const hardBandForm = z.object({ hardBandPercent: z.string().default('') });
+const sessionLimitForm = z.object({ sessionAbsoluteDays: z.string().default('') });
 
 export const load: PageServerLoad = async () => {
 	requirePermission('admin.settings');
@@ -22,7 +25,9 @@ export const load: PageServerLoad = async () => {
 		pattern,
 		example: formatBatchNumber(pattern, new Date(), 1),
 		receiverMayNotSign: receiverMayNotSign(),
-		hardBandPercent: hardBandPercent()
+		hardBandPercent: hardBandPercent(),
+		sessionAbsoluteDays: sessionAbsoluteDays(),
+		sessionIdleHours: config.sessionIdleHours
 	};
 };
 
@@ -61,6 +66,25 @@ export const actions: Actions = {
 			return {
 				form: 'hardBand',
 				saved: `Saved. Beyond ±${Number(parsed.data.hardBandPercent.trim())} % of what a line needs, a weighing needs a witness.`
+			};
+		}),
+	sessionLimit: async ({ request }) =>
+		tagged('sessionLimit', async () => {
+			const admin = requirePermission('admin.settings');
+			const formData = await request.formData();
+			const parsed = parseForm(sessionLimitForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				setSessionAbsoluteDays(
+					{ id: admin.id, email: admin.email, address: clientAddress() },
+					parsed.data.sessionAbsoluteDays
+				);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return {
+				form: 'sessionLimit',
+				saved: `Saved. A session now ends ${sessionAbsoluteDays()} days after sign-in at the latest.`
 			};
 		}),
 	lotSigning: async ({ request }) =>

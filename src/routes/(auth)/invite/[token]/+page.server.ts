@@ -1,7 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { getLucia } from '$lib/server/auth/lucia';
-import { setSessionCookie } from '$lib/server/auth/sign-in';
+import { createSession, setSessionCookie } from '$lib/server/auth/sessions';
 import { parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import { mismatch, newPasswordFields, passwordsMatch } from '$lib/server/password-form';
@@ -40,9 +39,8 @@ export const actions: Actions = {
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
-		const lucia = getLucia();
-		const session = await lucia.createSession(userId, {});
-		setSessionCookie(cookies, lucia.createSessionCookie(session.id));
+		const { token, session } = createSession(userId);
+		setSessionCookie(cookies, token, session.expiresAt);
 		redirect(303, '/?welcome=1');
 	}
 };

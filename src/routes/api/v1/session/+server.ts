@@ -1,7 +1,8 @@
 import { endpoint } from '$lib/server/api/endpoint';
 import { sessionRequest } from '$lib/server/api/operations/foundation';
 import { problem } from '$lib/server/api/problem';
-import { setSessionCookie, signIn, signOut } from '$lib/server/auth/sign-in';
+import { setSessionCookie } from '$lib/server/auth/sessions';
+import { signIn, signOut } from '$lib/server/auth/sign-in';
 import { clientAddress } from '$lib/server/guard';
 import { findUser, rolesOf } from '$lib/server/people';
 
@@ -15,7 +16,8 @@ export const POST = endpoint(
 				headers: outcome.retryAfterS ? { 'retry-after': String(outcome.retryAfterS) } : undefined
 			});
 		}
-		setSessionCookie(event.cookies, outcome.cookie);
+		const { token, session } = outcome.issued;
+		setSessionCookie(event.cookies, token, session.expiresAt);
 		const account = findUser(outcome.userId)!;
 		return { id: account.id, email: account.email, name: account.name, roles: rolesOf(account.id) };
 	}
