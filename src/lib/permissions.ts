@@ -18,9 +18,9 @@ export const PERMISSIONS = {
 	'recipe.sign': ['media_scientist', 'engineer'], // review and approval signatures, and sending back to draft
 	'component.view': 'signed-in',
 	'component.edit': ['media_scientist', 'inventory_lead'], // create, edit and import components
-	'calculation.run': 'signed-in', // the stateless science endpoints (formula, stoichiometry, oxygen, simulate, preview ...)
+	'calculation.run': 'signed-in', // the stateless science endpoints (formula, stoichiometry, oxygen, sufficiency, preview ...)
 
-	'simulation.use': ['engineer', 'media_scientist'], // the simulation pages and saved scenarios
+	'simulation.use': ['engineer', 'media_scientist'], // the simulation pages, their endpoints (simulate, chemostat, productivity, growth fit) and saved scenarios
 	'study.use': ['engineer', 'media_scientist'], // studies, organism profiles and vessels
 	// Both uses studies and writes recipe drafts: the roles in both 'study.use' and 'recipe.edit'.
 	'study.save-feed-drafts': ['media_scientist'],

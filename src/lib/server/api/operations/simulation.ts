@@ -68,7 +68,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/simulate',
 		summary:
 			'Simulates a batch, fed-batch, chemostat, perfusion or draw-fill run (Monod growth, Pirt maintenance, Luedeking–Piret product, optional O2 balance) and returns the series at the output times with the events. A run that cannot be integrated answers 422. Results are model estimates',
-		act: 'calculation.run',
+		act: 'simulation.use',
 		request: simulateRequest,
 		response: simulateResponse,
 		errors: [422]
@@ -78,7 +78,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/chemostat/steady-state',
 		summary:
 			'Monod chemostat steady state at a dilution rate (Herbert, Elsworth & Telling 1956) with optional Pirt (1965) maintenance: X = D·Y_G(S0 − S)/(D + m_s·Y_G), S, D·X, D_crit, D_opt (closed form without maintenance, golden-section search with it), washout, a sweep from D = 0 to D_crit, and the productivity lost to a safety margin below D_crit',
-		act: 'calculation.run',
+		act: 'simulation.use',
 		request: chemostatRequest,
 		response: chemostatResponse
 	},
@@ -87,7 +87,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/productivity/batch-vs-continuous',
 		summary:
 			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio; Pirt maintenance, when given, applies to both',
-		act: 'calculation.run',
+		act: 'simulation.use',
 		request: batchVersusContinuousRequest,
 		response: batchVersusContinuousResponse
 	},
@@ -96,7 +96,7 @@ export const simulationOperations: ApiOperation[] = [
 		path: '/api/v1/fit/growth',
 		summary:
 			'Fits run data: exponential phase (straight windows of ln X: R², lack of fit against the run’s noise, no significant bend), μmax and doubling time with Student-t 95 % intervals, Yx/s from −dX/dS, and μmax, Ks, Yx/s over the whole curve (needs substrate data) with 95 % intervals from the linearised covariance and warnings for poorly determined parameters. Data it cannot fit answer 400 naming the field and the test that failed',
-		act: 'calculation.run',
+		act: 'simulation.use',
 		request: fitGrowthRequest,
 		response: fitGrowthResponse
 	},

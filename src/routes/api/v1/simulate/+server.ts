@@ -2,6 +2,6 @@ import { endpoint } from '$lib/server/api/endpoint';
 import { simulateRequest } from '$lib/server/api/operations/simulation';
 import { runSimulation } from '$lib/server/simulation';
 
-export const POST = endpoint({ act: 'calculation.run', body: simulateRequest }, ({ body }) =>
+export const POST = endpoint({ act: 'simulation.use', body: simulateRequest }, ({ body }) =>
 	runSimulation(body)
 );

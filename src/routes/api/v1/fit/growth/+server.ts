@@ -1,6 +1,6 @@
 import { fitGrowthCurve, fitGrowthRequest } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
 
-export const POST = endpoint({ act: 'calculation.run', body: fitGrowthRequest }, ({ body }) =>
+export const POST = endpoint({ act: 'simulation.use', body: fitGrowthRequest }, ({ body }) =>
 	fitGrowthCurve(body)
 );

@@ -2,6 +2,6 @@ import { compareBatchWithContinuous, batchVersusContinuousRequest } from '$chemi
 import { endpoint } from '$lib/server/api/endpoint';
 
 export const POST = endpoint(
-	{ act: 'calculation.run', body: batchVersusContinuousRequest },
+	{ act: 'simulation.use', body: batchVersusContinuousRequest },
 	({ body }) => compareBatchWithContinuous(body)
 );
