@@ -47,6 +47,13 @@ export const config = {
 			from: env('MAIL_FROM') ?? 'Brothwright <no-reply@brothwright.invalid>'
 		};
 	},
+	/** Other sites whose pages may write through the JSON API (comma-separated origins). */
+	get apiClientOrigins(): string[] {
+		return (env('API_CLIENT_ORIGINS') ?? '')
+			.split(',')
+			.map((o) => o.trim())
+			.filter(Boolean);
+	},
 	get seedDemo() {
 		return env('NODE_ENV') !== 'production' || env('DEMO') === '1';
 	}

@@ -2,6 +2,7 @@ import { isHttpError, json, type RequestEvent, type RequestHandler } from '@svel
 import { z } from 'zod';
 import { ChemistryInputError } from '$chemistry';
 import type { Act } from '$lib/permissions';
+import { config } from '../config';
 import { requirePermission, type SignedInUser } from '../guard';
 import { RuleError } from '../rule-error';
 import { describeProblems, zodProblems } from '$lib/field-problems';
@@ -58,6 +59,23 @@ async function readJson(event: RequestEvent, maxBytes: number): Promise<unknown>
 	}
 }
 
+const WRITES = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/**
+ * A browser that sends a write from another site says where from (`Origin`); only this origin and
+ * the API clients listed in API_CLIENT_ORIGINS may write. A request without `Origin` is not from a
+ * browser page (scripts, other systems), which the session cookie's SameSite already limits.
+ */
+function requireSameOrigin(event: RequestEvent): void {
+	if (!WRITES.has(event.request.method)) return;
+	const from = event.request.headers.get('origin');
+	if (from === null || from === event.url.origin || config.apiClientOrigins.includes(from)) return;
+	throw new ApiProblem(
+		403,
+		`Writes from ${from} are not accepted: only this site and the API clients its administrator lists may write.`
+	);
+}
+
 /**
  * Wraps a JSON endpoint: the role guard (again, at the endpoint), body parsing and zod validation,
  * and the mapping of every user mistake to problem+json. Anything else is a real fault (500).
@@ -68,6 +86,7 @@ export function endpoint<S extends z.ZodType | undefined = undefined>(
 ): RequestHandler {
 	return async (event) => {
 		try {
+			requireSameOrigin(event);
 			const user: SignedInUser | null = requirePermission(options.act);
 			let body: unknown;
 			if (options.body) {
