@@ -5,6 +5,7 @@ import { PROBLEM_CONTENT_TYPE, problem } from '$lib/server/api/problem';
 import { getLucia } from '$lib/server/auth/lucia';
 import { setSessionCookie } from '$lib/server/auth/sign-in';
 import { rolesOf } from '$lib/server/people';
+import { handleMalformedBodies } from '$lib/server/request-body-check';
 
 /**
  * Runs once before the server answers its first request (`node build`, `npm start`): migrations, the
@@ -66,7 +67,12 @@ const handleSecurityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(handleSecurityHeaders, handleSession, handleApiProblems);
+export const handle = sequence(
+	handleSecurityHeaders,
+	handleSession,
+	handleApiProblems,
+	handleMalformedBodies
+);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	const errorId = crypto.randomUUID().slice(0, 8);
