@@ -23,6 +23,7 @@ import { callJson } from '../server/endpoint-call';
 import { makeUser } from '../server/helpers';
 import { makeApprovedRecipe, makeLead, makeLot } from '../server/inventory-fixtures';
 import { draftRecipe, line } from '../server/recipes-fixtures';
+import { formatSeriesCsv } from '$lib/simulation/series-csv';
 
 vi.mock('$app/server', async (importOriginal) => ({
 	...(await importOriginal<typeof import('$app/server')>()),
@@ -163,5 +164,26 @@ describe('the shared CSV rule', () => {
 		);
 		const table = parseCsv(csv, { required: ['name', 'category'], allowed: ['name', 'category'] });
 		expect(table.rows.map((r) => r.values.name)).toEqual([HYPERLINK, "it's"]);
+	});
+});
+
+describe('the simulation series download (built in the browser)', () => {
+	it('escapes a scenario name that reads as a formula and keeps negative numbers bare', () => {
+		const result = {
+			t: [0],
+			biomassGPerL: [-1],
+			substrateGPerL: [2],
+			productGPerL: [0],
+			volumeL: [1],
+			dissolvedOxygenMgPerL: null,
+			feedLPerH: [0],
+			ourMmolPerLH: null,
+			maxOtrMmolPerLH: null
+		} as unknown as Parameters<typeof formatSeriesCsv>[0][number]['result'];
+		const rows = formatSeriesCsv([
+			{ label: HYPERLINK, result },
+			{ label: 'B', result }
+		]).split('\n');
+		expect(rows[1].startsWith(`"'${HYPERLINK.replaceAll('"', '""')}",0,-1,`)).toBe(true);
 	});
 });

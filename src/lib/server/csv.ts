@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { FORMULA_START } from '$lib/csv-formula';
 import { RuleError } from './rule-error';
 
 export const MAX_CSV_BYTES = 1_000_000;
@@ -76,12 +77,7 @@ export function parseCsv(
 	};
 }
 
-/**
- * A text cell a spreadsheet would run as a formula: it starts with = + - @, or a tab or carriage
- * return (which some spreadsheets skip before reading a formula). Papaparse's own default pattern,
- * `^[=+\-@\t\r].*$`, misses a formula followed by a line break (`.` stops at it), hence this one.
- */
-export const FORMULA_START = /^[=+\-@\t\r]/;
+export { FORMULA_START };
 
 /**
  * Every CSV this app writes goes through here. Papaparse puts an apostrophe before a formula-looking
