@@ -6,6 +6,7 @@ import { getLucia } from '$lib/server/auth/lucia';
 import { setSessionCookie } from '$lib/server/auth/sign-in';
 import { rolesOf } from '$lib/server/people';
 import { handleMalformedBodies } from '$lib/server/request-body-check';
+import { handleHardeningHeaders } from '$lib/server/security-headers';
 
 /**
  * Runs once before the server answers its first request (`node build`, `npm start`): migrations, the
@@ -68,6 +69,7 @@ const handleSecurityHeaders: Handle = async ({ event, resolve }) => {
 };
 
 export const handle = sequence(
+	handleHardeningHeaders,
 	handleSecurityHeaders,
 	handleSession,
 	handleApiProblems,
