@@ -3,7 +3,7 @@ import { config } from './config';
 
 /** The batch finder scans a code with the camera; nothing uses the microphone or location. */
 export const PERMISSIONS_POLICY =
-	'camera=(self), microphone=(), geolocation=(), payment=(), usb=(), interest-cohort=()';
+	'camera=(self), microphone=(), geolocation=(), payment=(), usb=()';
 
 const ONE_YEAR_S = 31_536_000;
 
