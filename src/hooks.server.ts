@@ -10,6 +10,8 @@ import {
 	validateSessionToken
 } from '$lib/server/auth/sessions';
 import { rolesOf } from '$lib/server/people';
+import { handleMalformedBodies } from '$lib/server/request-body-check';
+import { handleHardeningHeaders } from '$lib/server/security-headers';
 
 /**
  * Runs once before the server answers its first request (`node build`, `npm start`): migrations, the
@@ -71,7 +73,13 @@ const handleSecurityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(handleSecurityHeaders, handleSession, handleApiProblems);
+export const handle = sequence(
+	handleHardeningHeaders,
+	handleSecurityHeaders,
+	handleSession,
+	handleApiProblems,
+	handleMalformedBodies
+);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	const errorId = crypto.randomUUID().slice(0, 8);

@@ -11,7 +11,7 @@ import { user } from '$lib/server/db/schema';
 import { changeLines } from '$lib/server/trail/changes';
 import { describeAction, readableCode } from '$lib/server/trail/describe';
 import { readableEntries, type TrailEntry } from '$lib/server/trail/entries';
-import { guardCell } from '$lib/server/trail/export-csv';
+import { unparseCsv } from '$lib/server/csv';
 import { buildTrailPdf } from '$lib/server/trail/export-pdf';
 import { resolveSubjects, subjectKey } from '$lib/server/trail/subjects';
 import { A4, MARGIN } from '$lib/server/pdf/layout';
@@ -228,8 +228,8 @@ describe('exports of the filtered view', () => {
 			{ action: 'sign_in.failed', detail: { reason: 'unknown e-mail' } }
 		);
 		for (const start of ['=', '+', '-', '@', '\t', '\r'])
-			expect(guardCell(`${start}1`)).toBe(`'${start}1`);
-		expect(guardCell('L-2026-0004')).toBe('L-2026-0004');
+			expect(unparseCsv(['c'], [[`${start}1`]])).toBe(`c\r\n"'${start}1"`);
+		expect(unparseCsv(['c'], [['L-2026-0004']])).toBe('c\r\nL-2026-0004');
 
 		const response = await callJson(
 			csvExport,

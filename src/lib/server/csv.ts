@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { FORMULA_START } from '$lib/csv-formula';
 import { RuleError } from './rule-error';
 
 export const MAX_CSV_BYTES = 1_000_000;
@@ -71,9 +72,25 @@ export function parseCsv(
 		columns: names,
 		rows: data.map((cells, i) => ({
 			rowNumber: lineNumbers[i + 1] ?? i + 2,
-			values: Object.fromEntries(names.map((n, c) => [n, (cells[c] ?? '').trim()]))
+			values: Object.fromEntries(names.map((n, c) => [n, unescapeFormula((cells[c] ?? '').trim())]))
 		}))
 	};
+}
+
+export { FORMULA_START };
+
+/**
+ * Every CSV this app writes goes through here. Papaparse puts an apostrophe before a formula-looking
+ * text cell and leaves numbers alone: a ledger's -200 must stay a number a spreadsheet can sum, and a
+ * number cannot carry a formula, so only strings are escaped.
+ */
+export function unparseCsv(fields: readonly string[], data: unknown[][]): string {
+	return Papa.unparse({ fields: [...fields], data }, { escapeFormulae: FORMULA_START });
+}
+
+/** Undoes `unparseCsv`'s apostrophe, so an exported file imports back to what was stored. */
+function unescapeFormula(cell: string): string {
+	return cell.startsWith("'") && FORMULA_START.test(cell.slice(1)) ? cell.slice(1) : cell;
 }
 
 export function toCsv(
@@ -82,10 +99,10 @@ export function toCsv(
 	comments: string[] = []
 ): string {
 	const header = comments.map((c) => `# ${c.replace(/[\r\n]+/g, ' ')}`).join('\r\n');
-	const table = Papa.unparse({
-		fields: columns,
-		data: rows.map((r) => columns.map((c) => r[c] ?? ''))
-	});
+	const table = unparseCsv(
+		columns,
+		rows.map((r) => columns.map((c) => r[c] ?? ''))
+	);
 	return header ? `${header}\r\n${table}` : table;
 }
 

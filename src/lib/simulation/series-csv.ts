@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { FORMULA_START } from '$lib/csv-formula';
 import type { SimulationResult } from '$chemistry';
 import { separateFeedStreams, type FeedStreamsOfRun } from './feed-stream-results';
 
@@ -71,5 +72,6 @@ export function formatSeriesCsv(runs: { label: string; result: SimulationSeries 
 			data.push(withLabel ? [label, ...row] : row);
 		});
 	}
-	return Papa.unparse({ fields, data }, { newline: '\n' });
+	// Scenario and feed-stream names are typed by people: the same formula rule as every export.
+	return Papa.unparse({ fields, data }, { newline: '\n', escapeFormulae: FORMULA_START });
 }

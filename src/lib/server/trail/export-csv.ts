@@ -1,4 +1,4 @@
-import Papa from 'papaparse';
+import { unparseCsv } from '../csv';
 import { changeText, type TrailEntry } from './entries';
 
 export const TRAIL_CSV_COLUMNS = [
@@ -14,29 +14,19 @@ export const TRAIL_CSV_COLUMNS = [
 	'From address'
 ] as const;
 
-/**
- * A spreadsheet runs a cell that starts with = + - @ (or a tab or carriage return before one) as a
- * formula; a leading apostrophe makes it plain text.
- */
-export function guardCell(value: string): string {
-	return /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
-}
-
-/** The entries as CSV, one row each, every cell guarded against formula injection. */
+/** The entries as CSV, one row each, every text cell guarded against formula injection. */
 export function trailCsv(entries: TrailEntry[], origin = ''): string {
-	const data = entries.map((e) =>
-		[
-			e.atUtc,
-			e.who,
-			e.whoEmail ?? '',
-			e.sentence,
-			e.subject.typeLabel,
-			e.subject.label,
-			e.subject.href ? `${origin}${e.subject.href}` : '',
-			e.changes.map(changeText).join('; '),
-			e.action,
-			e.address ?? ''
-		].map(guardCell)
-	);
-	return Papa.unparse({ fields: [...TRAIL_CSV_COLUMNS], data });
+	const data = entries.map((e) => [
+		e.atUtc,
+		e.who,
+		e.whoEmail ?? '',
+		e.sentence,
+		e.subject.typeLabel,
+		e.subject.label,
+		e.subject.href ? `${origin}${e.subject.href}` : '',
+		e.changes.map(changeText).join('; '),
+		e.action,
+		e.address ?? ''
+	]);
+	return unparseCsv(TRAIL_CSV_COLUMNS, data);
 }

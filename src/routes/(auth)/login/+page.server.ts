@@ -4,6 +4,7 @@ import { setSessionCookie } from '$lib/server/auth/sessions';
 import { signIn } from '$lib/server/auth/sign-in';
 import { formFailure, parseForm } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
+import { safeRedirectPath } from '$lib/safe-redirect';
 import type { Actions, PageServerLoad } from './$types';
 
 const signInForm = z.object({
@@ -13,9 +14,7 @@ const signInForm = z.object({
 });
 
 /** Only same-site paths, so a crafted link cannot bounce a user elsewhere after sign-in. */
-function safeNext(next: string | null | undefined): string {
-	return next && next.startsWith('/') && !next.startsWith('//') ? next : '/';
-}
+const safeNext = safeRedirectPath;
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	requirePermission('session.start');

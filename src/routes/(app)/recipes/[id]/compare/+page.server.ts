@@ -13,7 +13,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	const pick = (name: string, fallback: number | undefined) => {
 		const raw = url.searchParams.get(name);
 		const n = raw === null ? fallback : Number(raw);
-		const version = n === undefined ? undefined : findVersion(recipe.id, n);
+		const version = Number.isSafeInteger(n) ? findVersion(recipe.id, n!) : undefined;
 		if (!version)
 			error(404, {
 				message: `${recipe.name} has no version ${raw ?? ''}; choose two versions that exist.`
