@@ -76,7 +76,10 @@ export async function signRecord<T>(
 			subjectId: request.subjectId,
 			detail: { meaning: request.meaning, reason: 'too many password tries' }
 		});
-		throw new RuleError(`${attempt.reason} Nothing was signed.`, { field: 'password', status: 429 });
+		throw new RuleError(`${attempt.reason} Nothing was signed.`, {
+			field: 'password',
+			status: 429
+		});
 	}
 	if (!(await verifyPassword(signer.passwordHash, request.password))) {
 		recordAudit(actor, {
