@@ -1,10 +1,9 @@
 // The absolute limit of a session: however busy, a session ends this many days after sign-in. A
 // site setting; a working week (7 days) is common practice for internal tools.
-import { eq } from 'drizzle-orm';
-import { recordAudit, type Actor } from '../audit';
+import type { Actor } from '../audit';
 import { db, type Db } from '../db';
-import { siteSetting } from '../db/schema';
 import { RuleError } from '../rule-error';
+import { settingText, storeSetting } from '../site-settings';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -13,14 +12,14 @@ export const DEFAULT_SESSION_ABSOLUTE_DAYS = 7;
 export const SESSION_ABSOLUTE_RANGE_DAYS = { min: 1, max: 90 } as const;
 export const SESSION_ABSOLUTE_DAYS_LABEL = 'Longest session (days)';
 
-export function sessionAbsoluteDays(reader: Reader = db): number {
-	const stored = reader
-		.select()
-		.from(siteSetting)
-		.where(eq(siteSetting.key, SESSION_ABSOLUTE_DAYS_KEY))
-		.get()?.value;
+/** The stored days, or the default when unset or unreadable. */
+function absoluteDaysOf(stored: string | undefined): number {
 	const value = stored === undefined ? NaN : Number(stored);
 	return Number.isInteger(value) && value > 0 ? value : DEFAULT_SESSION_ABSOLUTE_DAYS;
+}
+
+export function sessionAbsoluteDays(reader: Reader = db): number {
+	return absoluteDaysOf(settingText(SESSION_ABSOLUTE_DAYS_KEY, reader));
 }
 
 export function setSessionAbsoluteDays(actor: Actor, text: string): void {
@@ -32,23 +31,13 @@ export function setSessionAbsoluteDays(actor: Actor, text: string): void {
 			`${SESSION_ABSOLUTE_DAYS_LABEL} must be a whole number from ${min} to ${max} (got “${trimmed}”).`,
 			{ field: 'sessionAbsoluteDays' }
 		);
-	db.transaction((tx) => {
-		const before = sessionAbsoluteDays(tx);
-		tx.insert(siteSetting)
-			.values({ key: SESSION_ABSOLUTE_DAYS_KEY, value: String(value) })
-			.onConflictDoUpdate({
-				target: siteSetting.key,
-				set: { value: String(value), updatedAt: new Date() }
-			})
-			.run();
-		recordAudit(
-			actor,
-			{
-				action: 'settings.session_absolute_days',
-				subjectType: 'site',
-				detail: { from: before, to: value }
-			},
-			tx
-		);
-	});
+	storeSetting(
+		actor,
+		{
+			key: SESSION_ABSOLUTE_DAYS_KEY,
+			value: String(value),
+			action: 'settings.session_absolute_days'
+		},
+		absoluteDaysOf
+	);
 }

@@ -1,19 +1,17 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { DEFAULT_BATCH_NUMBER_PATTERN } from '$lib/batches';
-import { recordAudit, type Actor } from '../audit';
+import type { Actor } from '../audit';
 import { db, type Db } from '../db';
-import { batch, siteSetting } from '../db/schema';
+import { batch } from '../db/schema';
 import { RuleError } from '../rule-error';
+import { settingText, storeSetting } from '../site-settings';
 
 type Reader = Pick<Db, 'select'>;
 export const BATCH_PATTERN_KEY = 'batch.number_pattern';
 const TOKENS = ['{YYYY}', '{YY}', '{MM}', '{seq}'];
 
 export function batchNumberPattern(reader: Reader = db): string {
-	return (
-		reader.select().from(siteSetting).where(eq(siteSetting.key, BATCH_PATTERN_KEY)).get()?.value ??
-		DEFAULT_BATCH_NUMBER_PATTERN
-	);
+	return settingText(BATCH_PATTERN_KEY, reader) ?? DEFAULT_BATCH_NUMBER_PATTERN;
 }
 
 /** Why a pattern cannot be used, or null. The sequence restarts each year, so the year must be in it. */
@@ -58,21 +56,9 @@ export function nextBatchNumber(
 export function setBatchNumberPattern(actor: Actor, pattern: string): void {
 	const problem = patternProblem(pattern);
 	if (problem) throw new RuleError(problem, { field: 'pattern' });
-	const value = pattern.trim();
-	db.transaction((tx) => {
-		const before = batchNumberPattern(tx);
-		tx.insert(siteSetting)
-			.values({ key: BATCH_PATTERN_KEY, value })
-			.onConflictDoUpdate({ target: siteSetting.key, set: { value, updatedAt: new Date() } })
-			.run();
-		recordAudit(
-			actor,
-			{
-				action: 'settings.batch_number_pattern',
-				subjectType: 'site',
-				detail: { from: before, to: value }
-			},
-			tx
-		);
-	});
+	storeSetting(
+		actor,
+		{ key: BATCH_PATTERN_KEY, value: pattern.trim(), action: 'settings.batch_number_pattern' },
+		(stored) => stored ?? DEFAULT_BATCH_NUMBER_PATTERN
+	);
 }

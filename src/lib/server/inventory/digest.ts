@@ -10,6 +10,7 @@ import { config } from '../config';
 import { db } from '../db';
 import { siteSetting, user, userRole } from '../db/schema';
 import { sendMail, type OutgoingMail } from '../mail/send';
+import { settingText } from '../site-settings';
 import { componentsBelowReorder, expiringLots } from './alerts';
 
 export const DIGEST_SENT_KEY = 'inventory.digest_last_sent_on';
@@ -124,9 +125,7 @@ export async function sendInventoryDigest(
 }
 
 export function lastDigestDate(): string | null {
-	return (
-		db.select().from(siteSetting).where(eq(siteSetting.key, DIGEST_SENT_KEY)).get()?.value ?? null
-	);
+	return settingText(DIGEST_SENT_KEY) ?? null;
 }
 
 /** For the schedule: send once per day, at the first check on or after `hourUtc`. */
