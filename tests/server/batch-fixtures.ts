@@ -5,7 +5,7 @@ import { chooseLot } from '$lib/server/batches/lot-choice';
 import { reviewBatch } from '$lib/server/batches/review';
 import { buildSheetLines } from '$lib/server/batches/sheet';
 import { rolesOf } from '$lib/server/people';
-import { today } from './inventory-fixtures';
+import { makeApprovedRecipe, today } from './inventory-fixtures';
 
 type Person = { id: string; email: string; password: string };
 
@@ -46,4 +46,23 @@ export async function makeBatch(
 			reason: 'Complete.'
 		});
 	return b;
+}
+
+/**
+ * A 100 g/L magnesium sulfate stock solution (with this shelf life, '' for none) and a medium that
+ * doses it at 2 mL/L beside 5 g/L sodium chloride, both approved.
+ */
+export async function stockAndMedium(shelfLifeDays: string) {
+	const stockRecipe = await makeApprovedRecipe(
+		[{ componentId: 'magnesium-sulfate', amount: 100, unit: 'g/L' }],
+		{ shelfLifeDays },
+		[],
+		'stock_solution'
+	);
+	const medium = await makeApprovedRecipe(
+		[{ componentId: 'sodium-chloride', amount: 5, unit: 'g/L' }],
+		{},
+		[{ stockRecipeId: stockRecipe.recipeId, amount: 2 }]
+	);
+	return { stockRecipe, medium };
 }

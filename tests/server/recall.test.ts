@@ -12,7 +12,7 @@ import { findLot, findLotByCode } from '$lib/server/inventory/lots';
 import { recallFlagsOf, recallLot, recallsOf } from '$lib/server/inventory/recall';
 import { recordRetest } from '$lib/server/inventory/retest';
 import { rolesOf } from '$lib/server/people';
-import { makeBatch } from './batch-fixtures';
+import { makeBatch, stockAndMedium } from './batch-fixtures';
 import { makeUser, refusalOf } from './helpers';
 import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 import { latestMailTo, useMailStandIn } from './mail';
@@ -31,17 +31,7 @@ beforeAll(async () => {
 	lead = await makeLead();
 	tech = await makeUser(['prep_technician']);
 	reviewer = await makeUser(['engineer']);
-	stockRecipe = await makeApprovedRecipe(
-		[{ componentId: 'magnesium-sulfate', amount: 100, unit: 'g/L' }],
-		{ shelfLifeDays: '90' },
-		[],
-		'stock_solution'
-	);
-	medium = await makeApprovedRecipe(
-		[{ componentId: 'sodium-chloride', amount: 5, unit: 'g/L' }],
-		{},
-		[{ stockRecipeId: stockRecipe.recipeId, amount: 2 }]
-	);
+	({ stockRecipe, medium } = await stockAndMedium('90'));
 });
 
 const asLead = () => ({ ...lead, roles: rolesOf(lead.id) });

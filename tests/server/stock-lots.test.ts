@@ -11,7 +11,7 @@ import { addDays } from '$lib/server/inventory/alerts';
 import { ledgerOf, onHandOf } from '$lib/server/inventory/ledger';
 import { findLotByCode } from '$lib/server/inventory/lots';
 import { batchesMadeFromLot } from '$lib/server/inventory/where-used';
-import { makeBatch, planBatch } from './batch-fixtures';
+import { makeBatch, stockAndMedium, planBatch } from './batch-fixtures';
 import { makeUser } from './helpers';
 import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 
@@ -27,18 +27,7 @@ beforeAll(async () => {
 	lead = await makeLead();
 	tech = await makeUser(['prep_technician']);
 	reviewer = await makeUser(['engineer']);
-	// A 100 g/L magnesium sulfate stock, dosed at 2 mL/L into a medium.
-	stockRecipe = await makeApprovedRecipe(
-		[{ componentId: 'magnesium-sulfate', amount: 100, unit: 'g/L' }],
-		{ shelfLifeDays: '' },
-		[],
-		'stock_solution'
-	);
-	medium = await makeApprovedRecipe(
-		[{ componentId: 'sodium-chloride', amount: 5, unit: 'g/L' }],
-		{},
-		[{ stockRecipeId: stockRecipe.recipeId, amount: 2 }]
-	);
+	({ stockRecipe, medium } = await stockAndMedium(''));
 });
 
 describe('stock solutions made here', () => {
