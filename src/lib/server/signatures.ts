@@ -52,6 +52,42 @@ export function refusedSignature(
 }
 
 /**
+ * The password a person re-enters to sign (their own, or a witness's): the try is counted with the
+ * person's sign-in tries before it is checked, and a refusal is written to the trail. Throws a
+ * field error (`field`, with `wrong` as its words) unless the password is right.
+ */
+export async function checkSigningPassword(
+	person: { id: string; email: string; passwordHash: string },
+	password: string,
+	attempt: { subjectType: string; subjectId: string; meaning: string; address: string | null },
+	words: { field: string; wrong: string; nothing: string } = {
+		field: 'password',
+		wrong: 'The password is not right for your account; nothing was signed.',
+		nothing: 'Nothing was signed.'
+	}
+): Promise<void> {
+	const actor: Actor = { id: person.id, email: person.email, address: attempt.address };
+	const refuse = (reason: string) =>
+		recordAudit(actor, {
+			action: 'signature.refused',
+			subjectType: attempt.subjectType,
+			subjectId: attempt.subjectId,
+			detail: { meaning: attempt.meaning, reason }
+		});
+	// Signature passwords share the person's count of tries with sign-in.
+	const claim = claimAttempt(person.email, attempt.address ?? 'unknown');
+	if (!claim.allowed) {
+		refuse('too many password tries');
+		throw new RuleError(`${claim.reason} ${words.nothing}`, { field: words.field, status: 429 });
+	}
+	if (!password || !(await verifyPassword(person.passwordHash, password))) {
+		refuse('wrong password');
+		throw new RuleError(words.wrong, { field: words.field });
+	}
+	settleAttempt(claim.attemptId);
+}
+
+/**
  * Checks the re-entered password (argon2) and, if right, opens one transaction that records the
  * signature and runs `write` — the change the signature authorises — so neither exists without the
  * other. A wrong password records nothing but an audit entry, and answers with a field error.
@@ -67,32 +103,12 @@ export async function signRecord<T>(
 	if (!request.password) {
 		throw new RuleError('Enter your password to sign.', { field: 'password' });
 	}
-	// Signature passwords share the person's count of tries with sign-in.
-	const attempt = claimAttempt(signer.email, request.address ?? 'unknown');
-	if (!attempt.allowed) {
-		recordAudit(actor, {
-			action: 'signature.refused',
-			subjectType: request.subjectType,
-			subjectId: request.subjectId,
-			detail: { meaning: request.meaning, reason: 'too many password tries' }
-		});
-		throw new RuleError(`${attempt.reason} Nothing was signed.`, {
-			field: 'password',
-			status: 429
-		});
-	}
-	if (!(await verifyPassword(signer.passwordHash, request.password))) {
-		recordAudit(actor, {
-			action: 'signature.refused',
-			subjectType: request.subjectType,
-			subjectId: request.subjectId,
-			detail: { meaning: request.meaning, reason: 'wrong password' }
-		});
-		throw new RuleError('The password is not right for your account; nothing was signed.', {
-			field: 'password'
-		});
-	}
-	settleAttempt(attempt.attemptId);
+	await checkSigningPassword(signer, request.password, {
+		subjectType: request.subjectType,
+		subjectId: request.subjectId,
+		meaning: request.meaning,
+		address: request.address ?? null
+	});
 	return db.transaction((tx) => {
 		const signature = insertSignature(
 			{

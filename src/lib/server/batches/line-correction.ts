@@ -4,14 +4,13 @@
 import { eq } from 'drizzle-orm';
 import { checkTolerance, formatLineQuantity, readLineAmount } from '$lib/batches';
 import { recordAudit } from '../audit';
-import { verifyPassword } from '../auth/passwords';
 import { db } from '../db';
 import { batchDeviation, batchLine, batchLineCorrection, user, type Batch } from '../db/schema';
 import type { BatchLine } from '../db/schema';
 import { appendStockEntry, type Tx } from '../inventory/ledger';
 import { findLot } from '../inventory/lots';
 import { RuleError } from '../rule-error';
-import { digestOf, insertSignature } from '../signatures';
+import { checkSigningPassword, digestOf, insertSignature } from '../signatures';
 import { takenFromLot } from './completion';
 import { requireBatch, requireLine, type Technician } from './execution';
 import { requireWitnessBeyondBand } from './line-record';
@@ -217,17 +216,21 @@ export async function correctLine(
 			field: 'reason'
 		});
 	}
-	if (!input.password || !(await verifyPassword(person.passwordHash, input.password))) {
-		recordAudit(actor, {
-			action: 'signature.refused',
+	await checkSigningPassword(
+		person,
+		input.password,
+		{
 			subjectType: 'batch',
 			subjectId: batchId,
-			detail: { meaning: 'corrected', reason: 'wrong password' }
-		});
-		throw new RuleError('The password is not right for your account; nothing was corrected.', {
-			field: 'password'
-		});
-	}
+			meaning: 'corrected',
+			address: actor.address ?? null
+		},
+		{
+			field: 'password',
+			wrong: 'The password is not right for your account; nothing was corrected.',
+			nothing: 'Nothing was corrected.'
+		}
+	);
 	const witness = await checkWitness(actor, input, { subjectType: 'batch', subjectId: batchId });
 	db.transaction((tx) => {
 		const b = requireBatch(batchId, tx);

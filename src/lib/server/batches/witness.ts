@@ -2,11 +2,10 @@
 import { may } from '$lib/permissions';
 import type { Role } from '$lib/roles';
 import { recordAudit, type Actor } from '../audit';
-import { verifyPassword } from '../auth/passwords';
 import type { Db } from '../db';
 import { findUserByEmail, rolesOf } from '../people';
 import { RuleError } from '../rule-error';
-import { digestOf, insertSignature, refusedSignature } from '../signatures';
+import { checkSigningPassword, digestOf, insertSignature, refusedSignature } from '../signatures';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
@@ -48,22 +47,16 @@ export async function checkWitness(
 		const error = refusedSignature(person, attempt, refusal);
 		throw new RuleError(error.message, { field: 'witnessEmail', status: 403 });
 	}
-	if (
-		!input.witnessPassword ||
-		!(await verifyPassword(person.passwordHash, input.witnessPassword))
-	) {
-		recordAudit(
-			{ id: person.id, email: person.email },
-			{
-				action: 'signature.refused',
-				...subject,
-				detail: { meaning: 'witnessed', reason: 'wrong password' }
-			}
-		);
-		throw new RuleError("The witness's password is not right; nothing was signed.", {
-			field: 'witnessPassword'
-		});
-	}
+	await checkSigningPassword(
+		person,
+		input.witnessPassword ?? '',
+		{ ...subject, meaning: 'witnessed', address: actor.address ?? null },
+		{
+			field: 'witnessPassword',
+			wrong: "The witness's password is not right; nothing was signed.",
+			nothing: 'Nothing was signed.'
+		}
+	);
 	return { id: person.id, email: person.email, name: person.name, roles };
 }
 
