@@ -1,5 +1,5 @@
 // The one table of who may do what. Guards, navigation, endpoints and the OpenAPI `x-access` all read
-// it, and tests/server/permissions.test.ts checks every door of the route tree against it. Shared with
+// it, and tests/security/route-role-matrix.test.ts checks every door of the route tree against it. Shared with
 // the browser (menus, buttons), so this module holds no server code.
 import { hasRole, type Role, type RoleHolder } from './roles';
 
@@ -12,6 +12,7 @@ export const PERMISSIONS = {
 	'service.describe': 'public', // health check and the OpenAPI description
 	'session.end': 'signed-in',
 	'workspace.view': 'signed-in', // the signed-in shell, the overview and who am I
+	'account.password': 'signed-in', // change one's own password
 
 	'recipe.view': 'signed-in', // recipes, their versions, comparisons, prints and CSV
 	'recipe.edit': ['media_scientist'], // create recipes; write, submit, retire drafts; start a new draft

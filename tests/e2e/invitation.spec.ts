@@ -1,4 +1,4 @@
-import { expect, test } from './fixtures';
+import { expect, signInWithForm, test } from './fixtures';
 
 test.describe('an invitation, end to end through the outbox', () => {
 	test.use({ role: 'admin' });
@@ -31,11 +31,43 @@ test.describe('an invitation, end to end through the outbox', () => {
 		await expect(inviteePage.getByText('Use at least 12 characters.')).toBeVisible();
 		await expect(inviteePage.getByLabel('Your name')).toHaveValue('Invited Colleague');
 
+		// Long enough but a keyboard walk: refused with zxcvbn's reason, and never sent back.
+		await inviteePage.getByLabel('Password', { exact: true }).fill('qwertyuiopas');
+		await inviteePage.getByLabel('Password again').fill('qwertyuiopas');
+		await inviteePage.getByRole('button', { name: 'Create my account' }).click();
+		await expect(inviteePage.getByText(/too easy to guess/)).toBeVisible();
+		expect(await inviteePage.content()).not.toContain('qwertyuiopas');
+
 		await inviteePage.getByLabel('Password', { exact: true }).fill('glycerol-feed-ramp');
 		await inviteePage.getByLabel('Password again').fill('glycerol-feed-ramp');
 		await inviteePage.getByRole('button', { name: 'Create my account' }).click();
 		await expect(inviteePage.getByText('Your account is ready.')).toBeVisible();
 		await expect(inviteePage.getByTestId('signed-in-as')).toHaveText('Invited Colleague');
+
+		// Signed in elsewhere too; changing the password here signs that session out.
+		const elsewhere = await browser.newContext();
+		const elsewherePage = await elsewhere.newPage();
+		await signInWithForm(elsewherePage, email, 'glycerol-feed-ramp');
+		await expect(elsewherePage.getByTestId('signed-in-as')).toHaveText('Invited Colleague');
+
+		await inviteePage.getByRole('link', { name: 'Change password' }).click();
+		await inviteePage.getByLabel('Current password').fill('not-my-password');
+		await inviteePage.getByLabel('New password', { exact: true }).fill('harbour-lantern-mosaic');
+		await inviteePage.getByLabel('New password again').fill('harbour-lantern-mosaic');
+		await inviteePage.getByRole('button', { name: 'Change the password' }).click();
+		await expect(inviteePage.getByText('The current password is not right.')).toBeVisible();
+		expect(await inviteePage.content()).not.toContain('harbour-lantern-mosaic');
+
+		await inviteePage.getByLabel('Current password').fill('glycerol-feed-ramp');
+		await inviteePage.getByLabel('New password', { exact: true }).fill('harbour-lantern-mosaic');
+		await inviteePage.getByLabel('New password again').fill('harbour-lantern-mosaic');
+		await inviteePage.getByRole('button', { name: 'Change the password' }).click();
+		await expect(inviteePage.getByRole('status')).toContainText(
+			'Your password is changed. 1 other session was signed out.'
+		);
+		await elsewherePage.reload();
+		await expect(elsewherePage).toHaveURL(/\/login/);
+		await elsewhere.close();
 
 		// The link is spent.
 		await inviteePage.goto(link!);

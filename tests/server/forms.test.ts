@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { formText, parseForm, revisionField } from '$lib/server/forms';
+import { mismatch, newPasswordFields, passwordsMatch } from '$lib/server/password-form';
 
 const lineForm = z.object({
 	lineId: z.string().min(1, 'Which line?'),
@@ -58,6 +59,25 @@ describe('parseForm', () => {
 			message: 'Tick the box to confirm.',
 			fieldErrors: { confirm: ['Confirm first.'] },
 			values: {}
+		});
+	});
+
+	it('sends back neither typing of a new password when the two differ', () => {
+		const invitationForm = z
+			.object({ name: formText, ...newPasswordFields })
+			.refine(passwordsMatch, mismatch);
+		const parsed = parseForm(
+			invitationForm,
+			formOf([
+				['name', 'Ines Varga'],
+				['password', 'sapphire kettle ferment'],
+				['passwordAgain', 'sapphire kettle fermant']
+			])
+		);
+		expect(parsed.ok || parsed.failure.data).toEqual({
+			message: 'Please correct the field marked below.',
+			fieldErrors: { passwordAgain: ['The two passwords differ.'] },
+			values: { name: 'Ines Varga' }
 		});
 	});
 

@@ -1,17 +1,17 @@
 import { z } from 'zod';
-import { MIN_PASSWORD_LENGTH } from './auth/passwords';
+import { MIN_PASSWORD_LENGTH } from './auth/password-policy';
 
-/** A new password typed twice; the policy itself (length, common list) is checked by the domain. */
+/** A new password typed twice; the policy itself (length, strength) is checked by the domain. */
 export const newPasswordFields = {
 	password: z
 		.string()
 		.min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`)
 		.max(256),
-	confirm: z.string()
+	passwordAgain: z.string()
 };
 
-export function passwordsMatch(value: { password: string; confirm: string }): boolean {
-	return value.password === value.confirm;
+export function passwordsMatch(value: { password: string; passwordAgain: string }): boolean {
+	return value.password === value.passwordAgain;
 }
 
-export const mismatch = { message: 'The two passwords differ.', path: ['confirm'] };
+export const mismatch = { message: 'The two passwords differ.', path: ['passwordAgain'] };

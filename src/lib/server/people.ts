@@ -2,7 +2,9 @@ import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 import { describeRoles, type Role } from '$lib/roles';
 import { recordAudit, type Actor } from './audit';
 import { invalidateUserSessions } from './auth/sessions';
-import { checkPasswordPolicy, hashPassword } from './auth/passwords';
+import { checkPasswordPolicy } from './auth/password-policy';
+import { claimResetRequest } from './auth/reset-throttle';
+import { hashPassword } from './auth/passwords';
 import { createLinkToken, hashLinkToken } from './auth/tokens';
 import { config } from './config';
 import { db } from './db';
@@ -237,7 +239,7 @@ export async function acceptInvitation(
 	const { state, invitation: row } = inspectInvitation(token, now);
 	if (state !== 'valid' || !row)
 		throw new RuleError(LINK_MESSAGES[state as Exclude<LinkState, 'valid'>]);
-	const problem = checkPasswordPolicy(input.password);
+	const problem = checkPasswordPolicy(input.password, [input.name, row.email]);
 	if (problem) throw new RuleError(problem, { field: 'password' });
 	if (findUserByEmail(row.email)) {
 		throw new RuleError('An account with this e-mail address already exists; sign in instead.');
@@ -280,14 +282,29 @@ export async function acceptInvitation(
 /**
  * Sends a reset link to an active account. The answer and its time are the same for any address
  * (known or not, active or not): the mail goes out after the answer, so nothing tells which
- * addresses have accounts. A mail that fails is recorded in the trail.
+ * addresses have accounts. A mail that fails is recorded in the trail. Requests are throttled
+ * (`claimResetRequest`): too many from one network address are refused, and past a few per e-mail
+ * address no more mail goes out, with the same answer.
  */
 export function requestPasswordReset(
 	email: string,
 	address: string,
 	now = new Date()
 ): { mailSent: Promise<void> } {
+	const claim = claimResetRequest(normaliseEmail(email), address, now.getTime());
+	if (!claim.allowed) throw new RuleError(claim.reason, { field: 'email', status: 429 });
 	const target = findUserByEmail(email);
+	if (!claim.mayMail) {
+		recordAudit(
+			{ id: target?.id ?? null, email: normaliseEmail(email), address },
+			{
+				action: 'password.reset_throttled',
+				subjectType: target ? 'user' : undefined,
+				subjectId: target?.id
+			}
+		);
+		return { mailSent: Promise.resolve() };
+	}
 	if (!target || !target.active) {
 		recordAudit(
 			{ id: null, email: normaliseEmail(email), address },
@@ -350,10 +367,10 @@ export async function completePasswordReset(
 	const { state, reset } = inspectPasswordReset(token, now);
 	if (state !== 'valid' || !reset)
 		throw new RuleError(LINK_MESSAGES[state as Exclude<LinkState, 'valid'>]);
-	const problem = checkPasswordPolicy(password);
+	const target = findUser(reset.userId)!;
+	const problem = checkPasswordPolicy(password, [target.name, target.email]);
 	if (problem) throw new RuleError(problem, { field: 'password' });
 	const passwordHash = await hashPassword(password);
-	const target = findUser(reset.userId)!;
 	db.transaction((tx) => {
 		const claimed = tx
 			.update(passwordReset)

@@ -1,6 +1,7 @@
 // Reading a run's CSV for the growth fit: file checks, column mapping and a verdict per row.
 // Runs in the browser (preview before anything is sent) and in tests.
 import Papa from 'papaparse';
+import { visibleText } from '$lib/plain-text';
 import { readNumberText } from './number-text';
 
 export const MAX_UPLOAD_BYTES = 2 * 1024 * 1024;
@@ -15,12 +16,12 @@ const TEXT_TYPES = new Set([
 
 /** Refuses what cannot be a CSV before reading it: wrong extension or type, empty, too large. */
 export function checkUploadFile(file: { name: string; size: number; type: string }): string | null {
-	if (!/\.(csv|txt|tsv)$/i.test(file.name))
-		return `“${file.name}” is not a .csv, .tsv or .txt file.`;
-	if (!TEXT_TYPES.has(file.type)) return `“${file.name}” is of type ${file.type}, not text or CSV.`;
-	if (file.size === 0) return `“${file.name}” is empty.`;
+	const name = visibleText(file.name);
+	if (!/\.(csv|txt|tsv)$/i.test(file.name)) return `“${name}” is not a .csv, .tsv or .txt file.`;
+	if (!TEXT_TYPES.has(file.type)) return `“${name}” is of type ${file.type}, not text or CSV.`;
+	if (file.size === 0) return `“${name}” is empty.`;
 	if (file.size > MAX_UPLOAD_BYTES) {
-		return `“${file.name}” is ${(file.size / 1024 / 1024).toFixed(1)} MB; the limit is ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`;
+		return `“${name}” is ${(file.size / 1024 / 1024).toFixed(1)} MB; the limit is ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`;
 	}
 	return null;
 }

@@ -4,7 +4,7 @@ import type { Cookies } from '@sveltejs/kit';
 import { sha256 } from '@oslojs/crypto/sha2';
 import { constantTimeEqual } from '@oslojs/crypto/subtle';
 import { encodeBase32LowerCaseNoPadding, encodeHexLowerCase } from '@oslojs/encoding';
-import { eq } from 'drizzle-orm';
+import { and, eq, ne } from 'drizzle-orm';
 import { config } from '../config';
 import { db } from '../db';
 import { session, user } from '../db/schema';
@@ -111,6 +111,18 @@ export function invalidateSession(sessionId: string): void {
 
 export function invalidateUserSessions(userId: string): void {
 	db.delete(session).where(eq(session.userId, userId)).run();
+}
+
+/** Ends every session of the person except the one they are using; returns how many ended. */
+export function invalidateOtherSessions(
+	userId: string,
+	keepSessionId: string,
+	tx: Pick<typeof db, 'delete'> = db
+): number {
+	return tx
+		.delete(session)
+		.where(and(eq(session.userId, userId), ne(session.id, keepSessionId)))
+		.run().changes;
 }
 
 const cookieAttributes = () =>

@@ -74,6 +74,21 @@ export const passwordReset = sqliteTable('password_reset', {
 	usedAt: integer('used_at', { mode: 'timestamp_ms' })
 });
 
+/** Reset links asked for, by address and e-mail, whether or not an account uses the address. */
+export const resetRequest = sqliteTable(
+	'reset_request',
+	{
+		id: id(),
+		email: text('email').notNull(),
+		address: text('address').notNull(),
+		at: integer('at', { mode: 'timestamp_ms' }).notNull()
+	},
+	(t) => [
+		index('reset_request_email_idx').on(t.email, t.at),
+		index('reset_request_address_idx').on(t.address, t.at)
+	]
+);
+
 export const signInAttempt = sqliteTable(
 	'sign_in_attempt',
 	{

@@ -7,6 +7,7 @@ import { config } from '../config';
 import { db, type Db } from '../db';
 import { lot, lotCertificate, type LotCertificate } from '../db/schema';
 import { RuleError } from '../rule-error';
+import { visibleText } from '$lib/plain-text';
 
 export const MAX_CERTIFICATE_BYTES = 10 * 1024 * 1024;
 export const MAX_CERTIFICATES_PER_UPLOAD = 10;
@@ -39,10 +40,8 @@ export function sniffMediaType(bytes: Uint8Array): { mediaType: string; extensio
  */
 export function cleanDisplayName(name: string, extension: string): string {
 	const base = name.split(/[\\/]/).pop() ?? '';
-	let cleaned = base
+	let cleaned = visibleText(base)
 		.normalize('NFKC')
-		// eslint-disable-next-line no-control-regex -- control characters are exactly what a display name must lose
-		.replace(/[\u0000-\u001f\u007f]/g, ' ')
 		.replace(/["'`<>|:*?;]/g, '')
 		.replace(/\s+/g, ' ')
 		.replace(/^[.\s]+/, '')
@@ -71,7 +70,7 @@ export async function checkCertificateFile(
 	file: File,
 	field = 'certificates'
 ): Promise<CheckedUpload> {
-	const shownName = file.name.split(/[\\/]/).pop() || 'the file';
+	const shownName = visibleText(file.name.split(/[\\/]/).pop() ?? '') || 'the file';
 	if (file.size === 0) throw new RuleError(`“${shownName}” is empty.`, { field });
 	if (file.size > MAX_CERTIFICATE_BYTES) {
 		throw new RuleError(

@@ -77,6 +77,10 @@ const SENTENCES: Record<string, Sentence> = {
 	'outbox.listed': () => 'Opened the outbox',
 	'password.reset_requested': () => 'Asked for a password reset link',
 	'password.reset_completed': () => 'Set a new password through a reset link',
+	'password.changed': (d) =>
+		`Changed their own password, signing out ${plural(d.sessionsEnded, 'other session')}`,
+	'password.change_refused': (d) => `Was refused a password change${because(d)}`,
+	'password.reset_throttled': () => 'Asked for a password reset link too often; no mail was sent',
 	'person.invited': (d) => `Invited ${text(d.email)} as ${text(d.roles)}`,
 	'person.invitation_accepted': () => 'Accepted the invitation and made the account',
 	'person.roles_changed': (_, s) => `Changed the roles of ${s}`,

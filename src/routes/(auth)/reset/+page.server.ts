@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { parseForm } from '$lib/server/forms';
+import { parseForm, ruleFailure } from '$lib/server/forms';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import { requestPasswordReset } from '$lib/server/people';
 import type { Actions, PageServerLoad } from './$types';
@@ -20,8 +20,13 @@ export const actions: Actions = {
 		const formData = await request.formData();
 		const parsed = parseForm(requestForm, formData);
 		if (!parsed.ok) return parsed.failure;
-		// The same answer for every address: it must not tell which ones have accounts.
-		requestPasswordReset(parsed.data.email, clientAddress());
+		// The same answer for every address: it must not tell which ones have accounts. Only too
+		// many requests from this network address are refused, which tells nothing about accounts.
+		try {
+			requestPasswordReset(parsed.data.email, clientAddress());
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
 		return { sent: true, email: parsed.data.email };
 	}
 };

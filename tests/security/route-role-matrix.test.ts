@@ -6,8 +6,8 @@ import { ACTS, may, PERMISSIONS, type Act } from '$lib/permissions';
 import { NAVIGATION } from '$lib/navigation';
 import { ROLES, type Role } from '$lib/roles';
 import { allOperations } from '$lib/server/api/openapi';
-import { enterEvent } from './endpoint-call';
-import { makeUser } from './helpers';
+import { enterEvent } from '../server/endpoint-call';
+import { makeUser } from '../server/helpers';
 
 /*
  * Generated from the permission table and the route tree: every load, action and handler under
@@ -20,7 +20,7 @@ const guardCalls = vi.hoisted(() => [] as string[]);
 
 vi.mock('$app/server', async (importOriginal) => ({
 	...(await importOriginal<typeof import('$app/server')>()),
-	getRequestEvent: (await import('./endpoint-call')).currentEvent
+	getRequestEvent: (await import('../server/endpoint-call')).currentEvent
 }));
 
 vi.mock('$lib/server/guard', async (importOriginal) => {
