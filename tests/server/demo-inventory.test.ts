@@ -3,7 +3,7 @@ import { isExpired } from '$lib/inventory';
 import { seedDemo } from '$lib/server/demo/seed';
 import { componentsBelowReorder, expiringLots } from '$lib/server/inventory/alerts';
 import { ledgerSums } from '$lib/server/inventory/ledger';
-import { listLots } from '$lib/server/inventory/lots';
+import { listLots } from '$lib/server/inventory/lot-list';
 import { batchesUsingLot } from '$lib/server/inventory/where-used';
 import { listBatches } from '$lib/server/batches/view';
 import { findLot } from '$lib/server/inventory/lots';

@@ -16,7 +16,8 @@ import {
 import { importLotCsv, previewLotCsv } from '$lib/server/inventory/csv';
 import { checkLotInput } from '$lib/server/inventory/lot-input';
 import { signLotDecision } from '$lib/server/inventory/lot-signing';
-import { findLot, listLots, receiveLot } from '$lib/server/inventory/lots';
+import { listLots } from '$lib/server/inventory/lot-list';
+import { findLot, receiveLot } from '$lib/server/inventory/lots';
 import { RuleError } from '$lib/server/rule-error';
 import { makeLead, makeLot, PDF_BYTES, pdfUpload, today } from './inventory-fixtures';
 

@@ -19,7 +19,7 @@ import {
 	type Lot,
 	type RecipeLine
 } from '../db/schema';
-import { onHandByLot } from '../inventory/ledger';
+import { onHandColumn } from '../inventory/ledger';
 import { usableLotCondition } from '../inventory/usable';
 import { massToLotQuantity } from '../inventory/units';
 import { findRecipe } from '../recipes/queries';
@@ -91,17 +91,12 @@ export function usableLots(
 	reader: Reader = db,
 	today = isoToday()
 ): { row: Lot; onHand: number }[] {
-	const rows = reader
-		.select()
+	return reader
+		.select({ row: lot, onHand: onHandColumn })
 		.from(lot)
 		.where(and(eq(lot.componentId, componentId), usableLotCondition(today)))
 		.orderBy(asc(lot.expiresOn), asc(lot.receivedOn), asc(lot.code))
 		.all();
-	const onHand = onHandByLot(
-		rows.map((r) => r.id),
-		reader
-	);
-	return rows.map((row) => ({ row, onHand: onHand.get(row.id) ?? 0 }));
 }
 
 type Requirement = ReturnType<typeof requirementFor>;
@@ -162,22 +157,20 @@ function loadSheet(b: Batch, reader: Reader) {
 		reader
 	);
 	const chosenIds = lines.map((l) => l.lotId).filter((id): id is string => Boolean(id));
-	const chosenRows = new Map(
-		chosenIds.length
-			? reader
-					.select()
-					.from(lot)
-					.where(inArray(lot.id, chosenIds))
-					.all()
-					.map((l) => [l.id, l])
-			: []
-	);
+	// A batch has at most one chosen lot per recipe line, far fewer than SQLite's parameter limit.
+	const chosen = chosenIds.length
+		? reader
+				.select({ row: lot, onHand: onHandColumn })
+				.from(lot)
+				.where(inArray(lot.id, chosenIds))
+				.all()
+		: [];
 	return {
 		lines,
 		recipeLines,
 		components,
-		chosenRows,
-		chosenOnHand: onHandByLot(chosenIds, reader)
+		chosenRows: new Map(chosen.map((c) => [c.row.id, c.row])),
+		chosenOnHand: new Map(chosen.map((c) => [c.row.id, c.onHand]))
 	};
 }
 

@@ -7,7 +7,7 @@ import { formatQuantity, isoToday, lotUnusability } from '$lib/inventory';
 import { recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { batch, lot, recipe, recipeVersion, type Batch, type Lot } from '../db/schema';
-import { appendStockEntry, onHandByLot, type Tx } from '../inventory/ledger';
+import { appendStockEntry, onHandColumn, type Tx } from '../inventory/ledger';
 import { usableLotCondition } from '../inventory/usable';
 
 type Reader = Pick<Db, 'select'>;
@@ -102,19 +102,13 @@ export function stockRecipeIdOfLot(lotRow: Lot, reader: Reader = db): string | n
 
 /** Released, in-date lots of a stock recipe, first-expiring first, with what each has on hand. */
 export function usableStockLots(stockRecipeId: string, reader: Reader = db, today = isoToday()) {
-	const rows = reader
-		.select({ lot })
+	return reader
+		.select({ row: lot, onHand: onHandColumn })
 		.from(lot)
 		.innerJoin(batch, eq(batch.id, lot.sourceBatchId))
 		.where(and(eq(batch.recipeId, stockRecipeId), usableLotCondition(today)))
 		.orderBy(asc(lot.expiresOn), asc(lot.code))
-		.all()
-		.map((r) => r.lot);
-	const onHand = onHandByLot(
-		rows.map((r) => r.id),
-		reader
-	);
-	return rows.map((row) => ({ row, onHand: onHand.get(row.id) ?? 0 }));
+		.all();
 }
 
 /** Why this lot may not be the stock of a line, or null when it may. */

@@ -7,7 +7,7 @@ import {
 } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { component } from '../db/schema';
-import { listLots, type LotRow } from './lots';
+import { listLots, type LotRow } from './lot-list';
 import { lotQuantityToGrams } from './units';
 
 type Reader = Pick<Db, 'select'>;

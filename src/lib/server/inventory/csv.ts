@@ -5,7 +5,8 @@ import { db } from '../db';
 import { component, lot, stockEntry, user } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { checkLotInput, type CheckedLot, type LotText } from './lot-input';
-import { listLots, receiveLots, type SignedActor } from './lots';
+import { listLots } from './lot-list';
+import { receiveLots, type SignedActor } from './lots';
 import type { BatchLotUse, TracedUse } from './where-used';
 
 /** CSV columns ↔ lot fields; the header row uses the snake_case names. */

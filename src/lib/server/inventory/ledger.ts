@@ -18,19 +18,16 @@ export function onHandOf(lotId: string, reader: Reader = db): number {
 	return Number(row?.total ?? 0);
 }
 
-export function onHandByLot(lotIds: string[], reader: Reader = db): Map<string, number> {
-	if (lotIds.length === 0) return new Map();
-	const rows = reader
-		.select({
-			lotId: stockEntry.lotId,
-			total: sql<number>`coalesce(sum(${stockEntry.quantity}), 0)`
-		})
-		.from(stockEntry)
-		.where(inArray(stockEntry.lotId, lotIds))
-		.groupBy(stockEntry.lotId)
-		.all();
-	return new Map(rows.map((r) => [r.lotId, Number(r.total)]));
-}
+/**
+ * A lot's stock on hand as a column of any query over `lot`. Summed per row through the
+ * (lot_id, quantity) index, so a page of 50 lots reads only their entries, and no list of lot ids
+ * is ever bound as parameters (SQLite allows at most 32,766). Written with table names: drizzle
+ * leaves columns unqualified in a single-table select, where "id" would mean the entry's own id.
+ */
+export const onHandColumn =
+	sql<number>`(select coalesce(sum(se.quantity), 0) from stock_entry se where se.lot_id = "lot"."id")`.mapWith(
+		Number
+	);
 
 export function ledgerOf(lotId: string, reader: Reader = db): StockEntry[] {
 	return reader

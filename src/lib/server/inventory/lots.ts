@@ -18,7 +18,7 @@ import {
 	type CheckedUpload
 } from './certificates';
 import { materialOfLot } from './material';
-import { appendStockEntry, onHandByLot, onHandOf, type Tx } from './ledger';
+import { appendStockEntry, onHandOf, type Tx } from './ledger';
 import type { CheckedLot } from './lot-input';
 import { toBaseQuantity } from './units';
 
@@ -310,86 +310,4 @@ export function disposeLot(
 			tx
 		);
 	});
-}
-
-export interface LotFilter {
-	componentId?: string;
-	status?: LotStatus;
-	/** Lots whose expiry or retest date is on or before this date. */
-	expiringBefore?: string;
-	search?: string;
-}
-
-export interface LotRow {
-	id: string;
-	code: string;
-	/** Null for a stock solution made here; `componentName` is then the stock recipe's name. */
-	componentId: string | null;
-	componentName: string;
-	supplier: string;
-	supplierLot: string;
-	quantityKind: QuantityKind;
-	receivedQuantity: number;
-	onHand: number;
-	receivedOn: string;
-	expiresOn: string;
-	retestOn: string | null;
-	dateKind: string;
-	storage: string;
-	status: LotStatus;
-	expired: boolean;
-	assayPercent: number | null;
-	purityPercent: number | null;
-	waterContentPercent: number | null;
-}
-
-export function listLots(
-	filter: LotFilter = {},
-	today = isoToday(),
-	reader: Reader = db
-): LotRow[] {
-	const conditions: SQL[] = [];
-	if (filter.componentId) conditions.push(eq(lot.componentId, filter.componentId));
-	if (filter.status) conditions.push(eq(lot.status, filter.status));
-	if (filter.expiringBefore) conditions.push(lte(lot.expiresOn, filter.expiringBefore));
-	if (filter.search) {
-		const term = `%${filter.search.toLowerCase().replace(/[%_]/g, '')}%`;
-		conditions.push(
-			sql`(lower(${lot.code}) like ${term} or lower(${lot.supplier}) like ${term} or lower(${lot.supplierLot}) like ${term} or lower(${component.name}) like ${term})`
-		);
-	}
-	const rows = reader
-		.select({
-			id: lot.id,
-			code: lot.code,
-			componentId: lot.componentId,
-			componentName: sql<string>`coalesce(${component.name}, (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = ${lot.sourceBatchId}), ${lot.code})`,
-			supplier: lot.supplier,
-			supplierLot: lot.supplierLot,
-			quantityKind: lot.quantityKind,
-			receivedQuantity: lot.receivedQuantity,
-			receivedOn: lot.receivedOn,
-			expiresOn: lot.expiresOn,
-			retestOn: lot.retestOn,
-			dateKind: lot.dateKind,
-			storage: lot.storage,
-			status: lot.status,
-			assayPercent: lot.assayPercent,
-			purityPercent: lot.purityPercent,
-			waterContentPercent: lot.waterContentPercent
-		})
-		.from(lot)
-		.leftJoin(component, eq(lot.componentId, component.id))
-		.where(conditions.length ? and(...conditions) : undefined)
-		.orderBy(asc(lot.expiresOn), asc(lot.code))
-		.all();
-	const onHand = onHandByLot(
-		rows.map((r) => r.id),
-		reader
-	);
-	return rows.map((r) => ({
-		...r,
-		onHand: onHand.get(r.id) ?? 0,
-		expired: isExpired(r.expiresOn, today)
-	}));
 }

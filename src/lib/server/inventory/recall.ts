@@ -8,11 +8,12 @@ import type { Role } from '$lib/roles';
 import { recordAudit } from '../audit';
 import { config } from '../config';
 import { db } from '../db';
+import { idSlices } from '../db/id-slices';
 import { batchRecallFlag, lot, lotRecall, user, userRole, type Lot } from '../db/schema';
 import { sendMail } from '../mail/send';
 import { RuleError } from '../rule-error';
 import { digestOf, refusedSignature, signRecord } from '../signatures';
-import { onHandByLot, type Tx } from './ledger';
+import { onHandColumn, type Tx } from './ledger';
 import { requireLot } from './lots';
 import { batchesMadeFromLot, type TracedUse } from './where-used';
 
@@ -95,25 +96,16 @@ function holdStocksMadeFrom(
 	flagged: TracedUse[],
 	reason: string
 ): string[] {
-	const made = flagged.length
-		? tx
-				.select()
-				.from(lot)
-				.where(
-					inArray(
-						lot.sourceBatchId,
-						flagged.map((f) => f.batchId)
-					)
-				)
-				.all()
-		: [];
-	const onHand = onHandByLot(
-		made.map((m) => m.id),
-		tx
-	);
-	return made
-		.filter((m) => (onHand.get(m.id) ?? 0) > 0 && holdLot(tx, actor, m, reason))
-		.map((m) => m.code);
+	const made: (Lot & { onHand: number })[] = [];
+	for (const slice of idSlices(flagged.map((f) => f.batchId))) {
+		for (const { row, onHand } of tx
+			.select({ row: lot, onHand: onHandColumn })
+			.from(lot)
+			.where(inArray(lot.sourceBatchId, slice))
+			.all())
+			made.push({ ...row, onHand });
+	}
+	return made.filter((m) => m.onHand > 0 && holdLot(tx, actor, m, reason)).map((m) => m.code);
 }
 
 function recipientsOfRecall(): string[] {

@@ -1,5 +1,6 @@
 import { eq, inArray } from 'drizzle-orm';
 import { db } from '../db';
+import { idSlices } from '../db/id-slices';
 import {
 	batch,
 	component,
@@ -177,9 +178,6 @@ export function subjectKey(type: string | null, id: string | null): string {
 	return `${type ?? ''}:${id ?? ''}`;
 }
 
-// SQLite caps bound parameters per statement; an export can name more ids than that.
-const IDS_PER_QUERY = 900;
-
 /**
  * Each distinct subject of these entries, by `subjectKey`. One query per subject type (per 900
  * ids); a subject that no longer exists keeps its id as its label and has no link.
@@ -197,9 +195,8 @@ export function resolveSubjects(
 	for (const [type, idSet] of idsByType) {
 		const kind = KINDS[type];
 		if (!kind) continue;
-		const ids = [...idSet];
-		for (let i = 0; i < ids.length; i += IDS_PER_QUERY) {
-			for (const found of kind.find(ids.slice(i, i + IDS_PER_QUERY))) {
+		for (const slice of idSlices(idSet)) {
+			for (const found of kind.find(slice)) {
 				resolved.set(subjectKey(type, found.id), {
 					type,
 					typeLabel: kind.typeLabel,
@@ -225,13 +222,12 @@ function subjectOf(type: string | null, id: string | null): TrailSubject {
 
 /** The names of the people who acted, by id, in one query. */
 export function peopleNamed(ids: (string | null)[]): Map<string, string> {
-	const wanted = [...new Set(ids.filter((id): id is string => Boolean(id)))];
 	const names = new Map<string, string>();
-	for (let i = 0; i < wanted.length; i += IDS_PER_QUERY) {
+	for (const slice of idSlices(ids.filter((id): id is string => Boolean(id)))) {
 		const rows = db
 			.select({ id: user.id, name: user.name })
 			.from(user)
-			.where(inArray(user.id, wanted.slice(i, i + IDS_PER_QUERY)))
+			.where(inArray(user.id, slice))
 			.all();
 		for (const r of rows) names.set(r.id, r.name);
 	}

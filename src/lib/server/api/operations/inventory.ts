@@ -8,7 +8,8 @@ import {
 	QUANTITY_UNITS
 } from '$lib/inventory';
 import type { Lot } from '../../db/schema';
-import type { LotRow } from '../../inventory/lots';
+import { LOT_SORTS, type LotRow } from '../../inventory/lot-list';
+import { pagingFields } from '../../list-paging';
 import type { lotView } from '../../inventory/view';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime } from '../shapes';
@@ -21,7 +22,12 @@ export const lotListQuery = z.object({
 		.regex(/^\d{4}-\d{2}-\d{2}$/, 'Write the date as YYYY-MM-DD')
 		.optional()
 		.describe('Lots whose expiry or retest date is on or before this date'),
-	q: z.string().max(120).optional()
+	q: z
+		.string()
+		.max(120)
+		.optional()
+		.describe('Part of the lot code, supplier, supplier lot or component'),
+	...pagingFields(LOT_SORTS, { sort: 'expiresOn', dir: 'asc' })
 });
 
 const text = (max: number) => z.union([z.string().max(max), z.number()]);
@@ -49,7 +55,12 @@ const isoDay = z.string().describe('YYYY-MM-DD');
 const baseQuantity = (what: string) =>
 	z.number().describe(`${what}, in the lot's base unit: mg by mass, µL by volume (quantityKind)`);
 
-export const lotListResponse = describes<{ items: LotRow[]; total: number }>()(
+export const lotListResponse = describes<{
+	items: LotRow[];
+	total: number;
+	page: number;
+	limit: number;
+}>()(
 	z.object({
 		items: z.array(
 			z.object({
@@ -74,7 +85,9 @@ export const lotListResponse = describes<{ items: LotRow[]; total: number }>()(
 				waterContentPercent: z.number().nullable()
 			})
 		),
-		total: z.int()
+		total: z.int().describe('Every lot the filter matches, over all pages'),
+		page: z.int(),
+		limit: z.int()
 	})
 );
 

@@ -4,17 +4,21 @@ import { lotCreateRequest, lotListQuery } from '$lib/server/api/operations/inven
 import { parseQuery } from '$lib/server/api/query';
 import { clientAddress } from '$lib/server/guard';
 import { checkLotInput } from '$lib/server/inventory/lot-input';
-import { listLots, receiveLot } from '$lib/server/inventory/lots';
+import { listLotsPage } from '$lib/server/inventory/lot-list';
+import { receiveLot } from '$lib/server/inventory/lots';
 
 export const GET = endpoint({ act: 'lot.view' }, ({ event }) => {
 	const query = parseQuery(lotListQuery, event.url);
-	const items = listLots({
-		componentId: query.component,
-		status: query.status,
-		expiringBefore: query.expiringBefore,
-		search: query.q
-	});
-	return { items, total: items.length };
+	const { rows, total } = listLotsPage(
+		{
+			componentId: query.component,
+			status: query.status,
+			expiringBefore: query.expiringBefore,
+			search: query.q
+		},
+		query
+	);
+	return { items: rows, total, page: query.page, limit: query.limit };
 });
 
 export const POST = endpoint({ act: 'lot.receive', body: lotCreateRequest }, ({ user, body }) => {

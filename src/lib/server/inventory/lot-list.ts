@@ -1,0 +1,142 @@
+import { and, asc, count, eq, lte, sql, type SQL } from 'drizzle-orm';
+import { isExpired, isoToday, type LotStatus, type QuantityKind } from '$lib/inventory';
+import { db, type Db } from '../db';
+import { component, lot } from '../db/schema';
+import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
+import { onHandColumn } from './ledger';
+
+type Reader = Pick<Db, 'select'>;
+
+export interface LotFilter {
+	componentId?: string;
+	status?: LotStatus;
+	/** Lots whose expiry or retest date is on or before this date. */
+	expiringBefore?: string;
+	search?: string;
+}
+
+export interface LotRow {
+	id: string;
+	code: string;
+	/** Null for a stock solution made here; `componentName` is then the stock recipe's name. */
+	componentId: string | null;
+	componentName: string;
+	supplier: string;
+	supplierLot: string;
+	quantityKind: QuantityKind;
+	receivedQuantity: number;
+	onHand: number;
+	receivedOn: string;
+	expiresOn: string;
+	retestOn: string | null;
+	dateKind: string;
+	storage: string;
+	status: LotStatus;
+	expired: boolean;
+	assayPercent: number | null;
+	purityPercent: number | null;
+	waterContentPercent: number | null;
+}
+
+/** A stock made here has no component: it is named after its recipe. */
+const componentNameColumn = sql<string>`coalesce(${component.name}, (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = "lot"."source_batch_id"), "lot"."code")`;
+
+const LOT_SORT_COLUMNS = {
+	code: lot.code,
+	component: componentNameColumn,
+	supplier: lot.supplier,
+	status: lot.status,
+	onHand: onHandColumn,
+	expiresOn: lot.expiresOn,
+	receivedOn: lot.receivedOn
+} as const;
+
+export const LOT_SORTS = Object.keys(LOT_SORT_COLUMNS) as [
+	keyof typeof LOT_SORT_COLUMNS,
+	...(keyof typeof LOT_SORT_COLUMNS)[]
+];
+export type LotSort = keyof typeof LOT_SORT_COLUMNS;
+
+function lotConditions(filter: LotFilter): SQL | undefined {
+	const conditions: SQL[] = [];
+	if (filter.componentId) conditions.push(eq(lot.componentId, filter.componentId));
+	if (filter.status) conditions.push(eq(lot.status, filter.status));
+	if (filter.expiringBefore) conditions.push(lte(lot.expiresOn, filter.expiringBefore));
+	if (filter.search) {
+		const term = `%${filter.search.toLowerCase().replace(/[%_]/g, '')}%`;
+		conditions.push(
+			sql`(lower(${lot.code}) like ${term} or lower(${lot.supplier}) like ${term} or lower(${lot.supplierLot}) like ${term} or lower(${component.name}) like ${term})`
+		);
+	}
+	return conditions.length ? and(...conditions) : undefined;
+}
+
+function selectLots(reader: Reader) {
+	return reader
+		.select({
+			id: lot.id,
+			code: lot.code,
+			componentId: lot.componentId,
+			componentName: componentNameColumn,
+			supplier: lot.supplier,
+			supplierLot: lot.supplierLot,
+			quantityKind: lot.quantityKind,
+			receivedQuantity: lot.receivedQuantity,
+			onHand: onHandColumn,
+			receivedOn: lot.receivedOn,
+			expiresOn: lot.expiresOn,
+			retestOn: lot.retestOn,
+			dateKind: lot.dateKind,
+			storage: lot.storage,
+			status: lot.status,
+			assayPercent: lot.assayPercent,
+			purityPercent: lot.purityPercent,
+			waterContentPercent: lot.waterContentPercent
+		})
+		.from(lot)
+		.leftJoin(component, eq(lot.componentId, component.id));
+}
+
+type SelectedLot = Omit<LotRow, 'expired'>;
+const withExpiry = (today: string) => (r: SelectedLot) => ({
+	...r,
+	expired: isExpired(r.expiresOn, today)
+});
+
+/** Every lot the filter matches, first to expire first: for exports and the digest. */
+export function listLots(
+	filter: LotFilter = {},
+	today = isoToday(),
+	reader: Reader = db
+): LotRow[] {
+	return selectLots(reader)
+		.where(lotConditions(filter))
+		.orderBy(asc(lot.expiresOn), asc(lot.code))
+		.all()
+		.map(withExpiry(today));
+}
+
+/** One page of the lots the filter matches, sorted as asked, with the count of all of them. */
+export function listLotsPage(
+	filter: LotFilter,
+	paging: Paging<LotSort>,
+	today = isoToday(),
+	reader: Reader = db
+): ListPage<LotRow> {
+	const where = lotConditions(filter);
+	const rows = selectLots(reader)
+		.where(where)
+		.orderBy(...orderFor(LOT_SORT_COLUMNS[paging.sort], paging.dir, lot.id))
+		.limit(paging.limit)
+		.offset(offsetOf(paging))
+		.all()
+		.map(withExpiry(today));
+	// The join is needed only when the search names a component.
+	const counted = reader.select({ n: count() }).from(lot);
+	const total = (
+		filter.search ? counted.leftJoin(component, eq(lot.componentId, component.id)) : counted
+	)
+		.where(where)
+		.get()!.n;
+	return { rows, total };
+}
