@@ -1,9 +1,8 @@
-import { and, asc, desc, eq, gte, lte, type SQL } from 'drizzle-orm';
-import type { BatchState } from '$lib/batches';
+import { asc, eq } from 'drizzle-orm';
 import { isoToday } from '$lib/inventory';
 import { config } from '../config';
 import { db } from '../db';
-import { batch, batchDeviation, recipe, recipeVersion, user } from '../db/schema';
+import { batchDeviation, recipe, recipeVersion, user } from '../db/schema';
 import { lotsUsedByBatch } from '../inventory/where-used';
 import { analyseVersion } from '../recipes/analysis';
 import { findRecipe, findVersionById, personName } from '../recipes/queries';
@@ -116,40 +115,6 @@ export function batchView(batchId: string, today = isoToday()) {
 }
 
 export type BatchView = ReturnType<typeof batchView>;
-
-export interface BatchFilter {
-	state?: BatchState;
-	recipeId?: string;
-	from?: string;
-	to?: string;
-}
-
-export function listBatches(filter: BatchFilter = {}) {
-	const conditions: SQL[] = [];
-	if (filter.state) conditions.push(eq(batch.state, filter.state));
-	if (filter.recipeId) conditions.push(eq(batch.recipeId, filter.recipeId));
-	if (filter.from) conditions.push(gte(batch.plannedOn, filter.from));
-	if (filter.to) conditions.push(lte(batch.plannedOn, filter.to));
-	return db
-		.select({
-			id: batch.id,
-			number: batch.number,
-			state: batch.state,
-			recipeId: batch.recipeId,
-			recipeName: recipe.name,
-			versionN: recipeVersion.n,
-			targetVolumeMl: batch.targetVolumeMl,
-			plannedOn: batch.plannedOn,
-			intendedUse: batch.intendedUse,
-			preparedAt: batch.preparedAt
-		})
-		.from(batch)
-		.innerJoin(recipe, eq(batch.recipeId, recipe.id))
-		.innerJoin(recipeVersion, eq(batch.versionId, recipeVersion.id))
-		.where(conditions.length ? and(...conditions) : undefined)
-		.orderBy(desc(batch.plannedOn), desc(batch.number))
-		.all();
-}
 
 /** Approved versions a batch can be made from. */
 export function approvedRecipes() {

@@ -40,6 +40,7 @@ export const batch = sqliteTable(
 	(t) => [
 		index('batch_state_idx').on(t.state, t.plannedOn),
 		index('batch_recipe_idx').on(t.recipeId),
+		index('batch_planned_idx').on(t.plannedOn, t.number),
 		uniqueIndex('batch_number_seq_idx').on(t.numberYear, t.numberSeq)
 	]
 );

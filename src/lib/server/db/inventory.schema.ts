@@ -57,7 +57,8 @@ export const lot = sqliteTable(
 		uniqueIndex('lot_supplier_lot_idx').on(t.componentId, t.supplier, t.supplierLot),
 		index('lot_component_idx').on(t.componentId),
 		uniqueIndex('lot_source_batch_idx').on(t.sourceBatchId),
-		index('lot_status_idx').on(t.status, t.expiresOn)
+		index('lot_status_idx').on(t.status, t.expiresOn),
+		index('lot_expiry_idx').on(t.expiresOn, t.code)
 	]
 );
 
@@ -107,6 +108,8 @@ export const stockEntry = sqliteTable(
 	},
 	(t) => [
 		index('stock_entry_lot_idx').on(t.lotId, t.at),
+		// Covers the on-hand sum: the ledger of a lot is summed from the index alone.
+		index('stock_entry_lot_quantity_idx').on(t.lotId, t.quantity),
 		index('stock_entry_batch_idx').on(t.batchId)
 	]
 );

@@ -127,6 +127,7 @@ export const auditEvent = sqliteTable(
 	(t) => [
 		index('audit_at_idx').on(t.at),
 		index('audit_action_idx').on(t.action),
+		index('audit_subject_idx').on(t.subjectType, t.subjectId, t.at),
 		uniqueIndex('audit_seq_idx').on(t.seq),
 		uniqueIndex('audit_prev_hash_idx').on(t.prevHash)
 	]

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import { formatQuantity, type LedgerKind, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { sqliteRefusal } from '../db/errors';

@@ -44,7 +44,8 @@ const componentNameColumn = sql<string>`coalesce(${component.name}, (select r.na
 const LOT_SORT_COLUMNS = {
 	code: lot.code,
 	component: componentNameColumn,
-	supplier: lot.supplier,
+	// Supplier, then their lot number (unit separator between: no name contains it).
+	supplier: sql`${lot.supplier} || char(31) || ${lot.supplierLot}`,
 	status: lot.status,
 	onHand: onHandColumn,
 	expiresOn: lot.expiresOn,

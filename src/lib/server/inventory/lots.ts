@@ -1,15 +1,9 @@
-import { and, asc, desc, eq, like, lte, sql, type SQL } from 'drizzle-orm';
-import {
-	isExpired,
-	isoToday,
-	LOT_STATUS_LABELS,
-	type LotStatus,
-	type QuantityKind
-} from '$lib/inventory';
+import { desc, eq, like, sql } from 'drizzle-orm';
+import { isExpired, isoToday, LOT_STATUS_LABELS, type LotStatus } from '$lib/inventory';
 import { recordAudit, type Actor } from '../audit';
 import { db, type Db } from '../db';
 import { sqliteRefusal } from '../db/errors';
-import { component, lot, lotCertificate, type Lot } from '../db/schema';
+import { lot, lotCertificate, type Lot } from '../db/schema';
 import { RuleError } from '../rule-error';
 import {
 	insertCertificateRows,

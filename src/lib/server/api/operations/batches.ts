@@ -3,7 +3,9 @@ import { BATCH_LINE_KINDS, BATCH_STATES, DEVIATION_KINDS } from '$lib/batches';
 import { QUANTITY_KINDS } from '$lib/inventory';
 import { RECIPE_KINDS } from '$lib/recipes';
 import type { Batch } from '../../db/schema';
-import type { batchView, listBatches } from '../../batches/view';
+import type { batchView } from '../../batches/view';
+import { BATCH_SORTS, type BatchListRow } from '../../batches/batch-list';
+import { pagingFields } from '../../list-paging';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime, signatureResponse } from '../shapes';
 
@@ -13,7 +15,13 @@ export const batchListQuery = z.object({
 	state: z.enum(BATCH_STATES).optional(),
 	recipe: z.string().max(80).optional().describe('Recipe id'),
 	from: isoDate.optional().describe('Planned on or after'),
-	to: isoDate.optional().describe('Planned on or before')
+	to: isoDate.optional().describe('Planned on or before'),
+	q: z
+		.string()
+		.max(120)
+		.optional()
+		.describe('Part of the batch number, the recipe name or what the batch is for'),
+	...pagingFields(BATCH_SORTS, { sort: 'plannedOn', dir: 'desc' })
 });
 
 export const batchCreateRequest = z
@@ -59,8 +67,10 @@ const batchRow = {
 export const batchResponse = describes<Batch>()(z.object(batchRow));
 
 export const batchListResponse = describes<{
-	items: ReturnType<typeof listBatches>;
+	items: BatchListRow[];
 	total: number;
+	page: number;
+	limit: number;
 }>()(
 	z.object({
 		items: z.array(
@@ -77,7 +87,9 @@ export const batchListResponse = describes<{
 				preparedAt: isoTime().nullable()
 			})
 		),
-		total: z.int()
+		total: z.int().describe('Every batch the filter matches, over all pages'),
+		page: z.int(),
+		limit: z.int()
 	})
 );
 

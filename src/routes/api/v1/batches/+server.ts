@@ -3,18 +3,22 @@ import { batchCreateRequest, batchListQuery } from '$lib/server/api/operations/b
 import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
 import { parseQuery } from '$lib/server/api/query';
 import { checkBatchInput, createBatch } from '$lib/server/batches/create';
-import { listBatches } from '$lib/server/batches/view';
+import { listBatchesPage } from '$lib/server/batches/batch-list';
 import { clientAddress } from '$lib/server/guard';
 
 export const GET = endpoint({ act: 'batch.view' }, ({ event }) => {
 	const query = parseQuery(batchListQuery, event.url);
-	const items = listBatches({
-		state: query.state,
-		recipeId: query.recipe,
-		from: query.from,
-		to: query.to
-	});
-	return { items, total: items.length };
+	const { rows, total } = listBatchesPage(
+		{
+			state: query.state,
+			recipeId: query.recipe,
+			from: query.from,
+			to: query.to,
+			search: query.q
+		},
+		query
+	);
+	return { items: rows, total, page: query.page, limit: query.limit };
 });
 
 export const POST = endpoint({ act: 'batch.plan', body: batchCreateRequest }, ({ user, body }) => {
