@@ -27,10 +27,12 @@ export default defineConfig({
 			]
 		}
 	},
-	// A recall holds demo lots and stocks the other specs use, so it runs once they are done.
+	// A recall holds demo lots and stocks the other specs use, so it runs once they are done. The
+	// security sweep sends only requests that must be refused, and reads, so it runs alongside.
 	projects: [
 		{ name: 'main', testIgnore: /recall\.spec\.ts$/ },
-		{ name: 'recall', testMatch: /recall\.spec\.ts$/, dependencies: ['main'] }
+		{ name: 'recall', testMatch: /recall\.spec\.ts$/, dependencies: ['main'] },
+		{ name: 'security', testDir: 'tests/security', testMatch: /\.spec\.ts$/ }
 	],
 	webServer: {
 		command: 'node src/cli/start.js',

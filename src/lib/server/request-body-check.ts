@@ -3,6 +3,25 @@ import { problem } from './api/problem';
 
 const METHODS_WITH_BODY = new Set(['POST', 'PUT', 'PATCH']);
 
+const FORM_UNREADABLE =
+	'The form data could not be read (it is malformed or was cut short); send it again from the page.';
+
+/**
+ * A urlencoded body's text decoded, or null when no form sends it. Its parser never fails:
+ * `formData()` keeps a stray `%` as text and turns bytes that are not UTF-8 into U+FFFD, so
+ * `%zz=%%&a=%E0%A4%A` reached actions as mangled fields (a settings checkbox read as unticked and
+ * saved). Browsers escape every `%` and encode UTF-8, so `decodeURIComponent`, which throws on
+ * both, reads every body a form sends. The result is returned, not dropped: the build takes
+ * `decodeURIComponent` for pure and removed an unused call, and the throw with it.
+ */
+function decodedFormText(text: string): string | null {
+	try {
+		return decodeURIComponent(text);
+	} catch {
+		return null;
+	}
+}
+
 /** What is wrong with the body, by how its content type says to read it; null when it reads. */
 async function bodyProblem(request: Request): Promise<string | null> {
 	const type = (request.headers.get('content-type') ?? '').toLowerCase();
@@ -12,15 +31,13 @@ async function bodyProblem(request: Request): Promise<string | null> {
 				return 'The form was sent as multipart/form-data without a boundary; send it again from the page.';
 			await request.clone().formData();
 		} else if (type.startsWith('application/x-www-form-urlencoded')) {
-			await request.clone().formData();
+			if (decodedFormText(await request.clone().text()) === null) return FORM_UNREADABLE;
 		} else if (/^application\/([\w.+-]+\+)?json/.test(type)) {
 			await request.clone().json();
 		}
 		return null;
 	} catch {
-		return type.includes('json')
-			? 'The request body is not valid JSON.'
-			: 'The form data could not be read (it is malformed or was cut short); send it again from the page.';
+		return type.includes('json') ? 'The request body is not valid JSON.' : FORM_UNREADABLE;
 	}
 }
 
