@@ -13,6 +13,9 @@ export default defineConfig({
 		environment: 'node',
 		setupFiles: ['tests/setup.ts'],
 		expect: { requireAssertions: true },
-		testTimeout: 20_000
+		// Generous for a busy 2-core machine: a hook seeding a demo database hashes passwords
+		// (argon2id, 19 MiB each) and ran past vitest's 10 s default there.
+		testTimeout: 20_000,
+		hookTimeout: 60_000
 	}
 });

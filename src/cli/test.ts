@@ -1,18 +1,33 @@
-// `npm test`: lint (Prettier, ESLint), type check, unit and server tests, build, then the browser tests in Debian's Chromium.
+// `npm test`: lint (Prettier, ESLint), type check, unit and server tests, build, then the browser
+// tests in Debian's Chromium. Every phase runs even when one before it failed (only the browser
+// tests need the build), and the failures are listed together at the end.
 import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 
 const chromium = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+const failures: string[] = [];
 
-function run(label: string, command: string, args: string[], env: NodeJS.ProcessEnv = {}): void {
+/** Runs one phase; true when it passed. A setup step that must pass exits at once instead. */
+function run(
+	label: string,
+	command: string,
+	args: string[],
+	env: NodeJS.ProcessEnv = {},
+	required = false
+): boolean {
 	console.log(`\n== ${label}`);
 	const started = Date.now();
 	const result = spawnSync(command, args, { stdio: 'inherit', env: { ...process.env, ...env } });
-	if (result.status !== 0) {
-		console.error(`\n${label} failed (exit ${result.status ?? result.signal}).`);
-		process.exit(result.status ?? 1);
+	const seconds = ((Date.now() - started) / 1000).toFixed(1);
+	if (result.status === 0) {
+		console.log(`== ${label}: ok in ${seconds} s`);
+		return true;
 	}
-	console.log(`== ${label}: ok in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+	const failure = `${label} failed (exit ${result.status ?? result.signal}) after ${seconds} s`;
+	console.error(`\n${failure}.`);
+	if (required) process.exit(result.status ?? 1);
+	failures.push(failure);
+	return false;
 }
 
 function ensureChromium(): void {
@@ -21,14 +36,13 @@ function ensureChromium(): void {
 	const hasApt = spawnSync('sh', ['-c', 'command -v apt-get'], { stdio: 'ignore' }).status === 0;
 	if (isRoot && hasApt && !process.env.CHROMIUM_PATH) {
 		console.log("Chromium is missing: installing Debian's chromium package.");
-		run('apt-get update', 'apt-get', ['update']);
+		run('apt-get update', 'apt-get', ['update'], {}, true);
 		run(
 			'apt-get install chromium',
 			'apt-get',
 			['install', '-y', '--no-install-recommends', 'chromium'],
-			{
-				DEBIAN_FRONTEND: 'noninteractive'
-			}
+			{ DEBIAN_FRONTEND: 'noninteractive' },
+			true
 		);
 		if (existsSync(chromium)) return;
 	}
@@ -41,13 +55,22 @@ function ensureChromium(): void {
 }
 
 // ESLint reads the TypeScript project, which extends the config that `svelte-kit sync` writes.
-run('generate types', 'npx', ['svelte-kit', 'sync']);
+run('generate types', 'npx', ['svelte-kit', 'sync'], {}, true);
 run('lint (Prettier, ESLint)', 'npm', ['run', 'lint']);
 ensureChromium();
 run('type check', 'npx', ['svelte-check', '--tsconfig', './tsconfig.json', '--fail-on-warnings']);
 run('unit and server tests (vitest)', 'npx', ['vitest', 'run']);
-run('build', 'npx', ['vite', 'build']);
-run('browser tests (Playwright, Chromium)', 'npx', ['playwright', 'test'], {
-	CHROMIUM_PATH: chromium
-});
+if (run('build', 'npx', ['vite', 'build'])) {
+	run('browser tests (Playwright, Chromium)', 'npx', ['playwright', 'test'], {
+		CHROMIUM_PATH: chromium
+	});
+} else {
+	failures.push('browser tests not run: they need the build');
+}
+if (failures.length) {
+	console.error(
+		`\n${failures.length} phase(s) failed:\n${failures.map((f) => `  - ${f}`).join('\n')}`
+	);
+	process.exit(1);
+}
 console.log('\nAll tests passed.');

@@ -1,4 +1,4 @@
-import { error, type Handle } from '@sveltejs/kit';
+import { error, json, type Handle } from '@sveltejs/kit';
 import { problem } from './api/problem';
 
 const METHODS_WITH_BODY = new Set(['POST', 'PUT', 'PATCH']);
@@ -47,8 +47,27 @@ async function bodyProblem(request: Request): Promise<string | null> {
  */
 export const handleMalformedBodies: Handle = async ({ event, resolve }) => {
 	if (!METHODS_WITH_BODY.has(event.request.method)) return resolve(event);
-	const detail = await bodyProblem(event.request);
+	const api = event.url.pathname.startsWith('/api/');
+	const detail = (api ? null : notAForm(event.request)) ?? (await bodyProblem(event.request));
 	if (!detail) return resolve(event);
-	if (event.url.pathname.startsWith('/api/')) return problem(400, detail);
+	if (api) return problem(400, detail);
+	// A submit from `use:enhance` reads an action result; a plain post shows the error page.
+	if (event.request.headers.get('x-sveltekit-action') === 'true')
+		return json({ type: 'error', error: { message: detail } }, { status: 400 });
 	error(400, { message: detail });
 };
+
+/**
+ * Everything outside /api is a page, and a page takes only forms: any other body (text/plain,
+ * JSON, none) would reach the action's `formData()` and fail there as a server error, or get the
+ * framework's 415 that reads as our fault.
+ */
+function notAForm(request: Request): string | null {
+	const type = (request.headers.get('content-type') ?? '').toLowerCase();
+	if (
+		type.startsWith('multipart/form-data') ||
+		type.startsWith('application/x-www-form-urlencoded')
+	)
+		return null;
+	return `This page takes a form sent from the page itself, not ${type ? type.split(';')[0] : 'a body without a content type'}; open the page and send the form again.`;
+}

@@ -1,4 +1,4 @@
-import { expect, test } from './fixtures';
+import { expect, test } from '../e2e/fixtures';
 
 /** Headers every answer carries, signed in or not. */
 function expectHardening(headers: Record<string, string>) {
