@@ -134,11 +134,13 @@ export function listAuditActions(): string[] {
 		.map((r) => r.action);
 }
 
-export function auditEventsFor(subjectType: string, subjectId: string) {
+/** The latest entries about one record, newest first, read through the (subject, at) index. */
+export function auditEventsFor(subjectType: string, subjectId: string, limit = 50) {
 	return db
 		.select()
 		.from(auditEvent)
 		.where(and(eq(auditEvent.subjectType, subjectType), eq(auditEvent.subjectId, subjectId)))
 		.orderBy(desc(auditEvent.at))
+		.limit(limit)
 		.all();
 }

@@ -1,14 +1,11 @@
-import { isNotNull } from 'drizzle-orm';
-import {
-	DEFAULT_EXPIRY_WINDOW_DAYS,
-	isoToday,
-	isUsableLot,
-	type QuantityKind
-} from '$lib/inventory';
+import { and, eq, isNotNull, sql } from 'drizzle-orm';
+import { DEFAULT_EXPIRY_WINDOW_DAYS, isoToday } from '$lib/inventory';
 import { db, type Db } from '../db';
-import { component } from '../db/schema';
+import { component, lot } from '../db/schema';
+import { onHandColumn } from './ledger';
 import { listLots, type LotRow } from './lot-list';
 import { lotQuantityToGrams } from './units';
+import { usableLotCondition } from './usable';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -59,16 +56,24 @@ export function componentsBelowReorder(today = isoToday(), reader: Reader = db):
 		.where(isNotNull(component.reorderLevelG))
 		.all();
 	if (withLevel.length === 0) return [];
-	const lots = listLots({}, today, reader).filter(
-		(l) => withLevel.some((c) => c.id === l.componentId) && isUsableLot(l, today) && l.onHand > 0
-	);
+	// Summed in SQL per component and unit kind: a site's lots are never all loaded for this.
+	const stock = reader
+		.select({
+			componentId: lot.componentId,
+			quantityKind: lot.quantityKind,
+			onHand: sql<number>`sum(${onHandColumn})`.mapWith(Number),
+			lots: sql<number>`sum(${onHandColumn} > 0)`.mapWith(Number)
+		})
+		.from(lot)
+		.innerJoin(component, eq(component.id, lot.componentId))
+		.where(and(isNotNull(component.reorderLevelG), usableLotCondition(today)))
+		.groupBy(lot.componentId, lot.quantityKind)
+		.all();
 	return withLevel
 		.map((c) => {
-			const own = lots.filter((l) => l.componentId === c.id);
+			const own = stock.filter((s) => s.componentId === c.id);
 			const usableG = own.reduce(
-				(sum, l) =>
-					sum +
-					(lotQuantityToGrams(l.onHand, l.quantityKind as QuantityKind, c.densityGPerMl) ?? 0),
+				(sum, s) => sum + (lotQuantityToGrams(s.onHand, s.quantityKind, c.densityGPerMl) ?? 0),
 				0
 			);
 			return {
@@ -76,7 +81,7 @@ export function componentsBelowReorder(today = isoToday(), reader: Reader = db):
 				componentName: c.name,
 				reorderLevelG: c.reorderLevelG!,
 				usableG,
-				lots: own.length
+				lots: own.reduce((n, s) => n + s.lots, 0)
 			};
 		})
 		.filter((c) => c.usableG < c.reorderLevelG)

@@ -68,7 +68,7 @@ export const load: PageServerLoad = async ({ params }) => {
 			(view.batch.state === 'in_preparation' || view.batch.state === 'prepared') &&
 			may(user, 'batch.execute'),
 		review: view.batch.state === 'prepared' ? { allowed: refusal === null, refusal } : null,
-		history: auditEventsFor('batch', params.id).slice(0, 100)
+		history: auditEventsFor('batch', params.id, 100)
 	};
 };
 

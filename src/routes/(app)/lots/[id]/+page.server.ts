@@ -54,7 +54,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 			...lotView(params.id),
 			signing: signingFor(user, params.id),
 			signatures: signaturesFor('lot', [params.id]),
-			history: auditEventsFor('lot', params.id).slice(0, 50),
+			history: auditEventsFor('lot', params.id),
 			received: url.searchParams.has('received')
 		};
 	} catch (cause) {

@@ -24,7 +24,7 @@ export const load: PageServerLoad = async ({ params }) => {
 			deactivatedAt: person.deactivatedAt,
 			roles: rolesOf(person.id)
 		},
-		history: auditEventsFor('user', person.id).slice(0, 50)
+		history: auditEventsFor('user', person.id)
 	};
 };
 

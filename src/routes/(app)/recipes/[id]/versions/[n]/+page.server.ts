@@ -43,7 +43,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		...view,
 		digest: versionDigest(view.version),
 		libraryChanges: libraryChangesFor(view.version),
-		history: auditEventsFor('recipe_version', view.version.id),
+		history: auditEventsFor('recipe_version', view.version.id, 200),
 		canEdit: may(user, 'recipe.edit'),
 		canReview: may(user, 'recipe.sign'),
 		signingRefusal: signingRefusal(user, view.version)
