@@ -18,7 +18,7 @@ try {
 		console.log('No active inventory lead to send the digest to; nothing sent.');
 	} else {
 		console.log(
-			`Digest for ${digest.today} sent to ${recipients.join(', ')} through ${config.smtp.host}:${config.smtp.port}: ${digest.expiring.length} lots expiring within ${digest.days} days, ${digest.low.length} components below reorder level.`
+			`Digest for ${digest.today} sent to ${recipients.join(', ')} through ${config.smtp.host}:${config.smtp.port}: ${digest.expiring.total} lots expiring within ${digest.days} days, ${digest.low.length} components below reorder level.`
 		);
 	}
 	process.exit(0);

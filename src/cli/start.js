@@ -24,7 +24,11 @@ const BUILD_INPUTS = [
 	'package-lock.json'
 ];
 
-/** The newest modification time under a file or folder, in ms. */
+/**
+ * The newest modification time under a file or folder, in ms.
+ * @param {string} path
+ * @returns {number}
+ */
 function newestChange(path) {
 	if (!existsSync(path)) return 0;
 	const stats = statSync(path);

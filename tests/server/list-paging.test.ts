@@ -6,6 +6,9 @@ import { GET as getBatches } from '../../src/routes/api/v1/batches/+server';
 import { lotListQuery } from '$lib/server/api/operations/inventory';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { lenientQuery, MAX_PAGE_SIZE } from '$lib/server/list-paging';
+import { eq } from 'drizzle-orm';
+import { db } from '$lib/server/db';
+import { component } from '$lib/server/db/schema';
 import { callJson } from './endpoint-call';
 import { makeLead, makeLot } from './inventory-fixtures';
 
@@ -35,6 +38,26 @@ describe('lists paged on the server', () => {
 		const last = await lotsApi('sort=supplier&dir=asc&limit=2&page=3&q=P-0', lead);
 		expect(last.body.items.map((l: { supplierLot: string }) => l.supplierLot)).toEqual(['P-05']);
 		expect(last.body).toMatchObject({ total: 5, page: 3, limit: 2 });
+	});
+
+	it('searches through the trigram index, kept in step when a component is renamed', async () => {
+		const lead = await makeLead();
+		makeLot(lead.actor, { component: 'calcium-chloride-dihydrate', supplierLot: 'TRI-77' });
+		const search = async (q: string) =>
+			(await lotsApi(`q=${encodeURIComponent(q)}&limit=200`, lead)).body.items.map(
+				(l: { supplierLot: string }) => l.supplierLot
+			);
+		expect(await search('tri-77')).toEqual(['TRI-77']);
+		expect(await search('chloride dihyd')).toContain('TRI-77');
+		db.update(component)
+			.set({ name: 'Calcium chloride, dihydrate (renamed)' })
+			.where(eq(component.id, 'calcium-chloride-dihydrate'))
+			.run();
+		expect(await search('(renamed)')).toEqual(['TRI-77']);
+		// Shorter than a trigram: matched by a scan instead. FTS5 syntax in a term is plain text.
+		expect(await search('77')).toContain('TRI-77');
+		for (const odd of ['"', 'NEAR(a b)', 'a OR b', '*', '-x'])
+			expect((await lotsApi(`q=${encodeURIComponent(odd)}`, lead)).status).toBe(200);
 	});
 
 	it.each([

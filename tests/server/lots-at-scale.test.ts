@@ -1,6 +1,6 @@
 // A site's size: 40,000 lots, more than SQLite lets one statement bind as parameters (32,766).
 // Lists, on-hand sums, the inventory alerts and the export must all still answer.
-import { eq, getTableColumns, sql } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
@@ -13,41 +13,24 @@ import {
 } from '$lib/server/inventory/alerts';
 import { exportLotsCsv } from '$lib/server/inventory/csv';
 import { listLots, listLotsPage } from '$lib/server/inventory/lot-list';
+import { cloneRows } from '$lib/server/scale/clone-rows';
 import { makeLead, makeLot, today } from './inventory-fixtures';
 
 const COPIES = 40_000;
 
 /** Copies one real lot and its receipt COPIES times in SQL, triggers active. */
 function cloneLot(templateId: string) {
-	const columns = (table: typeof lot | typeof stockEntry, override: Record<string, string>) => {
-		const names = Object.values(getTableColumns(table)).map((c) => c.name);
-		return {
-			into: names.map((n) => `"${n}"`).join(', '),
-			from: names.map((n) => override[n] ?? `t."${n}"`).join(', ')
-		};
-	};
-	const lots = columns(lot, {
-		id: `'bulk-' || n.i`,
-		code: `'L-BULK-' || printf('%05d', n.i)`,
-		supplier_lot: `'S-' || n.i`
-	});
-	const entries = columns(stockEntry, {
-		id: `'bulk-entry-' || n.i`,
-		lot_id: `'bulk-' || n.i`,
-		quantity: `n.i * 1000`
-	});
-	const numbers = `with recursive n(i) as (select 1 union all select i + 1 from n where i < ${COPIES})`;
 	db.transaction((tx) => {
-		tx.run(
-			sql.raw(
-				`insert into lot (${lots.into}) ${numbers} select ${lots.from} from n, lot t where t.id = '${templateId}'`
-			)
-		);
-		tx.run(
-			sql.raw(
-				`insert into stock_entry (${entries.into}) ${numbers} select ${entries.from} from n, stock_entry t where t.lot_id = '${templateId}' and t.kind = 'receipt'`
-			)
-		);
+		cloneRows(tx, lot, `t.id = '${templateId}'`, COPIES, {
+			id: `'bulk-' || n.i`,
+			code: `'L-BULK-' || printf('%05d', n.i)`,
+			supplier_lot: `'S-' || n.i`
+		});
+		cloneRows(tx, stockEntry, `t.lot_id = '${templateId}' and t.kind = 'receipt'`, COPIES, {
+			id: `'bulk-entry-' || n.i`,
+			lot_id: `'bulk-' || n.i`,
+			quantity: `n.i * 1000`
+		});
 	});
 }
 
@@ -89,7 +72,11 @@ describe(`${COPIES.toLocaleString('en')} lots`, () => {
 		const low = componentsBelowReorder(today).find((c) => c.componentId === 'sodium-chloride');
 		expect(low).toMatchObject({ lots: COPIES + 1, usableG: 100 + (COPIES * (COPIES + 1)) / 2 });
 		expect(quarantinedLots(today)).toHaveLength(0);
-		expect(() => expiringLots(30, today)).not.toThrow();
+		// None of the copies expires within 30 days; the listing stops at its limit anyway.
+		expect(expiringLots(30, today).total).toBe(0);
+		const all = expiringLots(400, today, undefined, 10);
+		expect(all).toMatchObject({ total: COPIES + 1 });
+		expect(all.lots).toHaveLength(10);
 		const text = exportLotsCsv(today);
 		// After its one line of preamble, a header and a row per lot.
 		const csv = Papa.parse<Record<string, string>>(text.slice(text.indexOf('\n') + 1), {

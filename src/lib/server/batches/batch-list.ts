@@ -3,6 +3,7 @@ import type { BatchState } from '$lib/batches';
 import { db } from '../db';
 import { batch, recipe, recipeVersion } from '../db/schema';
 import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
+import { searchMatch } from '../search-match';
 
 export interface BatchFilter {
 	state?: BatchState;
@@ -35,9 +36,14 @@ function batchConditions(filter: BatchFilter): SQL | undefined {
 	if (filter.from) conditions.push(gte(batch.plannedOn, filter.from));
 	if (filter.to) conditions.push(lte(batch.plannedOn, filter.to));
 	if (filter.search) {
-		const term = `%${filter.search.toLowerCase().replace(/[%_]/g, '')}%`;
 		conditions.push(
-			sql`(lower(${batch.number}) like ${term} or lower(${recipe.name}) like ${term} or lower(${batch.intendedUse}) like ${term})`
+			searchMatch(
+				batch.id,
+				{ table: 'batch_search', idColumn: 'batch_id' },
+				filter.search,
+				(term) =>
+					sql`(lower(${batch.number}) like ${term} or lower(${recipe.name}) like ${term} or lower(${batch.intendedUse}) like ${term})`
+			)
 		);
 	}
 	return conditions.length ? and(...conditions) : undefined;

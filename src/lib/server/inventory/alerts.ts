@@ -3,7 +3,7 @@ import { DEFAULT_EXPIRY_WINDOW_DAYS, isoToday } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { component, lot } from '../db/schema';
 import { onHandColumn } from './ledger';
-import { listLots, type LotRow } from './lot-list';
+import { listLots, listLotsPage, type LotRow } from './lot-list';
 import { lotQuantityToGrams } from './units';
 import { usableLotCondition } from './usable';
 
@@ -19,19 +19,31 @@ export interface ExpiringLot extends LotRow {
 	daysLeft: number;
 }
 
-/** Lots with stock that are not rejected and whose date falls within `days` (already expired included). */
+/** How many expiring lots the inventory page and the digest list; the rest are counted. */
+export const EXPIRING_LISTED = 100;
+
+/**
+ * Lots with stock that are not rejected and whose date falls within `days` (already expired
+ * included), first to expire first: the first `listed` of them and how many there are in all.
+ */
 export function expiringLots(
 	days = DEFAULT_EXPIRY_WINDOW_DAYS,
 	today = isoToday(),
-	reader: Reader = db
-): ExpiringLot[] {
-	const limit = addDays(today, days);
-	return listLots({ expiringBefore: limit }, today, reader)
-		.filter((l) => l.status !== 'rejected' && l.onHand > 0)
-		.map((l) => ({
-			...l,
-			daysLeft: Math.round((Date.parse(l.expiresOn) - Date.parse(today)) / 86_400_000)
-		}));
+	reader: Reader = db,
+	listed = EXPIRING_LISTED
+): { lots: ExpiringLot[]; total: number; before: string } {
+	const before = addDays(today, days);
+	const { rows, total } = listLotsPage(
+		{ expiringBefore: before, notStatus: 'rejected', inStockOnly: true },
+		{ page: 1, limit: listed, sort: 'expiresOn', dir: 'asc' },
+		today,
+		reader
+	);
+	const lots = rows.map((l) => ({
+		...l,
+		daysLeft: Math.round((Date.parse(l.expiresOn) - Date.parse(today)) / 86_400_000)
+	}));
+	return { lots, total, before };
 }
 
 export interface LowComponent {

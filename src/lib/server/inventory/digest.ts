@@ -34,18 +34,20 @@ function escapeHtml(text: string): string {
 }
 
 export function digestMail(digest: InventoryDigest, to: string[]): OutgoingMail {
-	const expiring = digest.expiring.map(
+	const expiring = digest.expiring.lots.map(
 		(l) =>
 			`${l.code} · ${l.componentName} · ${l.supplier} ${l.supplierLot} · ${l.dateKind} ${l.expiresOn} (${l.daysLeft < 0 ? `${-l.daysLeft} days ago` : l.daysLeft === 0 ? 'today' : `in ${l.daysLeft} days`}) · ${formatQuantity(l.onHand, l.quantityKind as QuantityKind)} on hand · ${l.status}`
 	);
+	const more = digest.expiring.total - expiring.length;
 	const low = digest.low.map(
 		(c) =>
 			`${c.componentName}: ${c.usableG.toFixed(1)} g released and in date, reorder level ${c.reorderLevelG} g`
 	);
 	const sections = [
 		`Inventory digest for ${digest.today}, Pilot Plant North.`,
-		`Expiring or due for retest within ${digest.days} days (${expiring.length}):`,
+		`Expiring or due for retest within ${digest.days} days (${digest.expiring.total}):`,
 		...(expiring.length ? expiring.map((l) => `  - ${l}`) : ['  none']),
+		...(more ? [`  … and ${more} more: see the inventory page`] : []),
 		`Below reorder level (${low.length}):`,
 		...(low.length ? low.map((l) => `  - ${l}`) : ['  none'])
 	];
@@ -56,10 +58,10 @@ export function digestMail(digest: InventoryDigest, to: string[]): OutgoingMail 
 			: '<p>none</p>';
 	return {
 		to,
-		subject: `Inventory digest ${digest.today}: ${expiring.length} expiring, ${low.length} below reorder level`,
+		subject: `Inventory digest ${digest.today}: ${digest.expiring.total} expiring, ${low.length} below reorder level`,
 		text: `${sections.join('\n')}\n\nOpen the dashboard: ${link}\n`,
 		html: `<div style="font-family:sans-serif;max-width:40rem"><p>${escapeHtml(sections[0])}</p>
-<h3>Expiring or due for retest within ${digest.days} days</h3>${list(expiring)}
+<h3>Expiring or due for retest within ${digest.days} days (${digest.expiring.total})</h3>${list(more ? [...expiring, `… and ${more} more: see the inventory page`] : expiring)}
 <h3>Below reorder level</h3>${list(low)}
 <p><a href="${escapeHtml(link)}">Open the inventory dashboard</a></p></div>`
 	};
@@ -116,7 +118,7 @@ export async function sendInventoryDigest(
 			{
 				action: 'inventory.digest_sent',
 				subjectType: 'site',
-				detail: { recipients, expiring: digest.expiring.length, low: digest.low.length }
+				detail: { recipients, expiring: digest.expiring.total, low: digest.low.length }
 			},
 			tx
 		);

@@ -1,8 +1,9 @@
-import { and, asc, count, eq, lte, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, eq, lte, ne, sql, type SQL } from 'drizzle-orm';
 import { isExpired, isoToday, type LotStatus, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { component, lot } from '../db/schema';
 import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
+import { searchMatch } from '../search-match';
 import { onHandColumn } from './ledger';
 
 type Reader = Pick<Db, 'select'>;
@@ -13,6 +14,10 @@ export interface LotFilter {
 	/** Lots whose expiry or retest date is on or before this date. */
 	expiringBefore?: string;
 	search?: string;
+	/** Leave out lots in this status (rejected lots for the expiry alerts). */
+	notStatus?: LotStatus;
+	/** Only lots with stock on hand. */
+	inStockOnly?: boolean;
 }
 
 export interface LotRow {
@@ -63,10 +68,17 @@ function lotConditions(filter: LotFilter): SQL | undefined {
 	if (filter.componentId) conditions.push(eq(lot.componentId, filter.componentId));
 	if (filter.status) conditions.push(eq(lot.status, filter.status));
 	if (filter.expiringBefore) conditions.push(lte(lot.expiresOn, filter.expiringBefore));
+	if (filter.notStatus) conditions.push(ne(lot.status, filter.notStatus));
+	if (filter.inStockOnly) conditions.push(sql`${onHandColumn} > 0`);
 	if (filter.search) {
-		const term = `%${filter.search.toLowerCase().replace(/[%_]/g, '')}%`;
 		conditions.push(
-			sql`(lower(${lot.code}) like ${term} or lower(${lot.supplier}) like ${term} or lower(${lot.supplierLot}) like ${term} or lower(${component.name}) like ${term})`
+			searchMatch(
+				lot.id,
+				{ table: 'lot_search', idColumn: 'lot_id' },
+				filter.search,
+				(term) =>
+					sql`(lower(${lot.code}) like ${term} or lower(${lot.supplier}) like ${term} or lower(${lot.supplierLot}) like ${term} or lower(${component.name}) like ${term})`
+			)
 		);
 	}
 	return conditions.length ? and(...conditions) : undefined;
