@@ -43,14 +43,18 @@ const templateBatch = db
 	.from(batch)
 	.where(eq(batch.state, 'released'))
 	.get()!;
+const componentCount = (db.get(sql.raw('select count(*) as n from component')) as { n: number }).n;
 
 db.transaction((tx) => {
+	// As at a site that has received for ten years: lots spread over the whole library, each with
+	// two years of shelf life, so most are long expired and about a fifth are in date.
 	cloneRows(tx, lot, `t.id = '${templateLot.id}'`, LOTS, {
 		id: `'scale-lot-' || n.i`,
 		code: `'L-SCALE-' || printf('%06d', n.i)`,
+		component_id: `coalesce((select c.id from component c where c.rowid = 1 + n.i % ${componentCount}), t.component_id)`,
 		supplier_lot: `'SL-' || n.i`,
-		expires_on: `date('2026-01-01', '+' || (n.i % 1400) || ' days')`,
-		received_on: `date('2024-01-01', '+' || (n.i % 700) || ' days')`
+		received_on: `date('2017-01-01', '+' || (n.i * 3650 / ${LOTS}) || ' days')`,
+		expires_on: `date('2019-01-01', '+' || (n.i * 3650 / ${LOTS}) || ' days')`
 	});
 	cloneRows(tx, stockEntry, `t.lot_id = '${templateLot.id}' and t.kind = 'receipt'`, LOTS, {
 		id: `'scale-receipt-' || n.i`,

@@ -1,4 +1,4 @@
-import { and, count, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
+import { and, count, eq, gte, inArray, lte, sql, type SQL } from 'drizzle-orm';
 import type { BatchState } from '$lib/batches';
 import { db } from '../db';
 import { batch, recipe, recipeVersion } from '../db/schema';
@@ -54,6 +54,17 @@ export type BatchListRow = Awaited<ReturnType<typeof listBatchesPage>>['rows'][n
 /** One page of the batches the filter matches, sorted as asked, with the count of all of them. */
 export function listBatchesPage(filter: BatchFilter, paging: Paging<BatchSort>) {
 	const where = batchConditions(filter);
+	const order = orderFor(BATCH_SORT_COLUMNS[paging.sort], paging.dir, batch.number);
+	// A deferred join, as for lots: the page's ids first, from only what the filter and order need.
+	const ids =
+		paging.sort === 'recipe' || filter.search
+			? db.select({ id: batch.id }).from(batch).innerJoin(recipe, eq(batch.recipeId, recipe.id))
+			: db.select({ id: batch.id }).from(batch);
+	const pageIds = ids
+		.where(where)
+		.orderBy(...order)
+		.limit(paging.limit)
+		.offset(offsetOf(paging));
 	const rows = db
 		.select({
 			id: batch.id,
@@ -70,10 +81,8 @@ export function listBatchesPage(filter: BatchFilter, paging: Paging<BatchSort>) 
 		.from(batch)
 		.innerJoin(recipe, eq(batch.recipeId, recipe.id))
 		.innerJoin(recipeVersion, eq(batch.versionId, recipeVersion.id))
-		.where(where)
-		.orderBy(...orderFor(BATCH_SORT_COLUMNS[paging.sort], paging.dir, batch.number))
-		.limit(paging.limit)
-		.offset(offsetOf(paging))
+		.where(inArray(batch.id, pageIds))
+		.orderBy(...order)
 		.all();
 	// The recipe join is needed for the count only when the search may match a recipe's name.
 	const counted = db.select({ n: count() }).from(batch);

@@ -114,6 +114,22 @@ export const stockEntry = sqliteTable(
 	]
 );
 
+/**
+ * Each lot's stock on hand: the running sum of its ledger, kept by a trigger on every new ledger
+ * entry (the ledger is append-only, so the sum stays exact) and never written by the app. Lists
+ * read and sort by it instead of summing a site's ledger per request.
+ */
+export const lotOnHand = sqliteTable(
+	'lot_on_hand',
+	{
+		lotId: text('lot_id')
+			.primaryKey()
+			.references(() => lot.id),
+		quantity: integer('quantity').notNull()
+	},
+	(t) => [index('lot_on_hand_quantity_idx').on(t.quantity, t.lotId)]
+);
+
 export type Lot = typeof lot.$inferSelect;
 export type LotCertificate = typeof lotCertificate.$inferSelect;
 export type StockEntry = typeof stockEntry.$inferSelect;

@@ -1,8 +1,7 @@
 import { and, eq, isNotNull, sql } from 'drizzle-orm';
 import { DEFAULT_EXPIRY_WINDOW_DAYS, isoToday } from '$lib/inventory';
 import { db, type Db } from '../db';
-import { component, lot } from '../db/schema';
-import { onHandColumn } from './ledger';
+import { component, lot, lotOnHand } from '../db/schema';
 import { listLots, listLotsPage, type LotRow } from './lot-list';
 import { lotQuantityToGrams } from './units';
 import { usableLotCondition } from './usable';
@@ -73,11 +72,12 @@ export function componentsBelowReorder(today = isoToday(), reader: Reader = db):
 		.select({
 			componentId: lot.componentId,
 			quantityKind: lot.quantityKind,
-			onHand: sql<number>`sum(${onHandColumn})`.mapWith(Number),
-			lots: sql<number>`sum(${onHandColumn} > 0)`.mapWith(Number)
+			onHand: sql<number>`sum(${lotOnHand.quantity})`.mapWith(Number),
+			lots: sql<number>`sum(${lotOnHand.quantity} > 0)`.mapWith(Number)
 		})
 		.from(lot)
 		.innerJoin(component, eq(component.id, lot.componentId))
+		.innerJoin(lotOnHand, eq(lotOnHand.lotId, lot.id))
 		.where(and(isNotNull(component.reorderLevelG), usableLotCondition(today)))
 		.groupBy(lot.componentId, lot.quantityKind)
 		.all();

@@ -19,13 +19,13 @@ export function onHandOf(lotId: string, reader: Reader = db): number {
 }
 
 /**
- * A lot's stock on hand as a column of any query over `lot`. Summed per row through the
- * (lot_id, quantity) index, so a page of 50 lots reads only their entries, and no list of lot ids
- * is ever bound as parameters (SQLite allows at most 32,766). Written with table names: drizzle
- * leaves columns unqualified in a single-table select, where "id" would mean the entry's own id.
+ * A lot's stock on hand as a column of any query over `lot`: its running ledger sum, which a
+ * trigger keeps in `lot_on_hand` (one row per lot, read by its key), so no list sums the ledger
+ * and no list of lot ids is bound as parameters (SQLite allows at most 32,766). Written with
+ * table names: drizzle leaves columns unqualified in a single-table select.
  */
 export const onHandColumn =
-	sql<number>`(select coalesce(sum(se.quantity), 0) from stock_entry se where se.lot_id = "lot"."id")`.mapWith(
+	sql<number>`coalesce((select loh.quantity from lot_on_hand loh where loh.lot_id = "lot"."id"), 0)`.mapWith(
 		Number
 	);
 

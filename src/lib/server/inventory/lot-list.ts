@@ -1,7 +1,7 @@
-import { and, asc, count, eq, lte, ne, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, eq, inArray, lte, ne, sql, type SQL } from 'drizzle-orm';
 import { isExpired, isoToday, type LotStatus, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
-import { component, lot } from '../db/schema';
+import { component, lot, lotOnHand } from '../db/schema';
 import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
 import { searchMatch } from '../search-match';
 import { onHandColumn } from './ledger';
@@ -52,7 +52,7 @@ const LOT_SORT_COLUMNS = {
 	// Supplier, then their lot number (unit separator between: no name contains it).
 	supplier: sql`${lot.supplier} || char(31) || ${lot.supplierLot}`,
 	status: lot.status,
-	onHand: onHandColumn,
+	onHand: lotOnHand.quantity,
 	expiresOn: lot.expiresOn,
 	receivedOn: lot.receivedOn
 } as const;
@@ -95,7 +95,7 @@ function selectLots(reader: Reader) {
 			supplierLot: lot.supplierLot,
 			quantityKind: lot.quantityKind,
 			receivedQuantity: lot.receivedQuantity,
-			onHand: onHandColumn,
+			onHand: sql<number>`coalesce(${lotOnHand.quantity}, 0)`.mapWith(Number),
 			receivedOn: lot.receivedOn,
 			expiresOn: lot.expiresOn,
 			retestOn: lot.retestOn,
@@ -107,7 +107,8 @@ function selectLots(reader: Reader) {
 			waterContentPercent: lot.waterContentPercent
 		})
 		.from(lot)
-		.leftJoin(component, eq(lot.componentId, component.id));
+		.leftJoin(component, eq(lot.componentId, component.id))
+		.leftJoin(lotOnHand, eq(lotOnHand.lotId, lot.id));
 }
 
 type SelectedLot = Omit<LotRow, 'expired'>;
@@ -129,7 +130,11 @@ export function listLots(
 		.map(withExpiry(today));
 }
 
-/** One page of the lots the filter matches, sorted as asked, with the count of all of them. */
+/**
+ * One page of the lots the filter matches, sorted as asked, with the count of all of them.
+ * A deferred join: the page's ids are found first from only what the filter and the order need (a
+ * deep page skips rows without building them), then the full rows of those ids are read.
+ */
 export function listLotsPage(
 	filter: LotFilter,
 	paging: Paging<LotSort>,
@@ -137,14 +142,36 @@ export function listLotsPage(
 	reader: Reader = db
 ): ListPage<LotRow> {
 	const where = lotConditions(filter);
-	const rows = selectLots(reader)
+	// By stock: walk lot_on_hand's (quantity, lot_id) index; every lot has its row there.
+	const byStock = paging.sort === 'onHand';
+	const order = orderFor(
+		LOT_SORT_COLUMNS[paging.sort],
+		paging.dir,
+		byStock ? lotOnHand.lotId : lot.code
+	);
+	const needsComponent = paging.sort === 'component' || Boolean(filter.search);
+	const ids = byStock
+		? reader
+				.select({ id: lotOnHand.lotId })
+				.from(lotOnHand)
+				.innerJoin(lot, eq(lot.id, lotOnHand.lotId))
+				.leftJoin(component, eq(lot.componentId, component.id))
+		: needsComponent
+			? reader
+					.select({ id: lot.id })
+					.from(lot)
+					.leftJoin(component, eq(lot.componentId, component.id))
+			: reader.select({ id: lot.id }).from(lot);
+	const pageIds = ids
 		.where(where)
-		.orderBy(...orderFor(LOT_SORT_COLUMNS[paging.sort], paging.dir, lot.id))
+		.orderBy(...order)
 		.limit(paging.limit)
-		.offset(offsetOf(paging))
+		.offset(offsetOf(paging));
+	const rows = selectLots(reader)
+		.where(inArray(lot.id, pageIds))
+		.orderBy(...order)
 		.all()
 		.map(withExpiry(today));
-	// The join is needed only when the search names a component.
 	const counted = reader.select({ n: count() }).from(lot);
 	const total = (
 		filter.search ? counted.leftJoin(component, eq(lot.componentId, component.id)) : counted
