@@ -24,8 +24,8 @@ export type JacobianFunction = (
 export type DenseInterpolant = (component: number, t: number) => number;
 
 /**
- * Called after every accepted step (tOld, t] with the state at t. Returning `false` ends the
- * integration there (outcome 'stopped').
+ * Called after every accepted step (tOld, t] with the state at t (the integrator's own array: copy it
+ * to keep it). Returning `false` ends the integration there (outcome 'stopped').
  */
 export type StepObserver = (
 	tOld: number,
@@ -52,7 +52,7 @@ export interface SolveResult {
 	rejected: number;
 	/** right-hand side evaluations, those of the finite-difference Jacobians included */
 	evaluations: number;
-	/** Jacobians formed (one per accepted step start) */
+	/** Jacobians formed: one at each step's start, kept when that step is rejected and retried */
 	jacobians: number;
 }
 
