@@ -1,9 +1,4 @@
-export {
-	simulateRun,
-	MAX_STEPS_PER_SEGMENT,
-	EXTRAPOLATION_COLUMNS,
-	NEGATIVE_STATE_TOLERANCE
-} from './simulate';
+export { simulateRun, MAX_STEPS_PER_SEGMENT, NEGATIVE_STATE_TOLERANCE } from './simulate';
 export { SimulationFailedError, type SimulationFailureReason } from './errors';
 export {
 	SIMULATION_MODEL_HELP,

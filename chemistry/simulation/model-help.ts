@@ -100,14 +100,16 @@ and its delivered volume (bolus included), integrated with the run.
 - washout: in chemostat, perfusion or draw-fill runs, X falls below 1 % of its value when continuous
   operation began.
 
-**Numerics**: the ODEX extrapolation integrator (Hairer & Wanner) with adaptive steps, absolute and
-relative tolerance 1e-8 on every state, dense output at the requested times. Feed starts (each
+**Numerics**: the stiff integrator RODAS (a Rosenbrock method of order 4 with an embedded order-3 error
+estimate; Hairer & Wanner) with adaptive steps, absolute and relative tolerance 1e-8 on every state, and
+its continuous output at the requested times. Feed starts (each
 stream's), boluses and draws split the run into segments integrated one after another, and each
 segment into stretches at the located switches into and out of exhaustion, O2 limitation and the
 quasi-steady DO balance. Checked against an independent stiff integrator (SciPy's Radau at relative
 tolerance 1e-10, run on the same equations): X, S and V agree within 1 % over 14-day
 fed-batch, chemostat and perfusion runs. Values at an
 output time that coincides with a draw or bolus are those just after it. A run the integrator cannot
-follow (more than 200 000 steps in one stretch, more than 2000 regime switches in one segment, a
-non-finite value, or a concentration below −1e-6) fails with an error rather than returning numbers.
+follow (more than 200 000 steps in one stretch, a step that shrinks to nothing, more than 2000 regime
+switches in one segment, a non-finite value, or a concentration below −1e-6) fails with an error rather
+than returning numbers.
 `;

@@ -25,7 +25,7 @@
  * this file holds the right-hand side, written to allocate nothing per call (the integrator calls it
  * ~10⁵ times).
  */
-import type { Derivative } from '#odex';
+import type { Derivative } from '../ode';
 import { O2_MOLAR_MASS_G_PER_MOL } from '../oxygen';
 export { SIMULATION_MODEL_HELP } from './model-help';
 

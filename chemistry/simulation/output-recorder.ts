@@ -1,5 +1,5 @@
 // Writes the run's output points at the requested times, from the state or a step's dense output.
-import type { DenseInterpolant } from '#odex';
+import type { DenseInterpolant } from '../ode';
 import type { Cut } from './crossings';
 import { STATE_COUNT, type FlowPhase, type ModelParameters } from './model';
 import { appendOutputPoint, createOutput, type Output } from './output';

@@ -1,10 +1,9 @@
 import {
-	Outcome,
-	Solver,
+	RosenbrockSolver,
 	type DenseInterpolant,
-	type OutputFunction,
-	type SolveResult
-} from '#odex';
+	type SolveResult,
+	type StepObserver
+} from '../ode';
 import { buildSimulationResult } from './build-result';
 import { findRegimeSwitch, findStop, type Cut } from './crossings';
 import { SimulationFailedError } from './errors';
@@ -35,10 +34,8 @@ import { validateSimulationRequest, type SimulationPlan } from './validate';
 
 export { NEGATIVE_STATE_TOLERANCE } from './state-checks';
 
-/** Steps allowed per integration stretch; beyond this the run is too stiff for the integrator. */
+/** Steps allowed per integration stretch; beyond this the run changes too abruptly to follow. */
 export const MAX_STEPS_PER_SEGMENT = 200_000;
-/** ODEX extrapolation columns (its default is 9); see createSolver. */
-export const EXTRAPOLATION_COLUMNS = 4;
 /**
  * Regime changes allowed in one segment. A culture enters and leaves exhaustion or O2 limitation a
  * few times per feed or draw; thousands means the run chatters at a boundary it cannot settle on.
@@ -50,21 +47,8 @@ export const MAX_REGIME_CHANGES_PER_SEGMENT = 2000;
  * model cannot use and `SimulationFailedError` when the integration cannot be trusted.
  */
 export function simulateRun(request: SimulationRequest): SimulationResult {
-	assertIntegratorLoaded();
 	const plan = validateSimulationRequest(request);
 	return new RunIntegrator(plan).run();
-}
-
-function assertIntegratorLoaded(): void {
-	// Under tsx, the project's tsconfig path mapping sends `odex` to its type declaration; say so
-	// plainly rather than failing later with "solve is not a function".
-	if (typeof Solver !== 'function' || typeof Solver.prototype?.solve !== 'function') {
-		throw new SimulationFailedError(
-			'The odex integrator did not load (the module "odex" resolved to its type declaration, not node_modules/odex/src/odex.js).',
-			'integratorMissing',
-			0
-		);
-	}
 }
 
 class RunIntegrator {
@@ -73,7 +57,7 @@ class RunIntegrator {
 	private readonly events: SimulationEvent[] = [];
 	private readonly trackers: ThresholdEvent[];
 	private readonly washout: ThresholdEvent | null;
-	private readonly solver: Solver;
+	private readonly solver: RosenbrockSolver;
 	private readonly feedStreams: FeedStreams | null;
 	/** STATE_COUNT plus the feed streams' delivered-volume slots */
 	private readonly stateCount: number;
@@ -176,8 +160,7 @@ class RunIntegrator {
 		// (Assigned in the observer, which TypeScript's narrowing does not follow; hence the cast.)
 		let cut = null as Cut | null;
 
-		const observer: OutputFunction = (nr, xOld, x, yNew, dense) => {
-			if (nr === 1 || dense === undefined) return recorder.recordDueBy(x, eps, yNew, phase);
+		const observer: StepObserver = (xOld, x, yNew, dense) => {
 			reachedH = x;
 			checkFinite(yNew, x);
 			const state = regimes.effectiveState(yNew);
@@ -202,7 +185,8 @@ class RunIntegrator {
 			for (let i = 0; i < trackers.length; i++) previous[i] = current[i];
 		};
 
-		const result = this.solver.solve(derivative, fromH, y.slice(), endH, observer);
+		recorder.recordDueBy(fromH, eps, y, phase);
+		const result = this.solver.solve(derivative, fromH, y, endH, observer);
 		this.countSteps(result, reachedH);
 		if (cut === null) for (let i = 0; i < this.stateCount; i++) y[i] = result.y[i];
 		return cut;
@@ -217,16 +201,23 @@ class RunIntegrator {
 		this.stoppedAtH = cut.tH;
 	}
 
-	/** Adds a stretch's integrator counts; a stretch that ran out of steps fails the run. */
+	/** Adds a stretch's integrator counts; a stretch that ran out of steps, or of step size, fails the run. */
 	private countSteps(result: SolveResult, reachedH: number): void {
-		this.stats.accepted += result.nAccept;
-		this.stats.rejected += result.nReject;
-		this.stats.evaluations += result.nEval;
-		if (result.outcome === Outcome.MaxStepsExceeded) {
+		this.stats.accepted += result.accepted;
+		this.stats.rejected += result.rejected;
+		this.stats.evaluations += result.evaluations;
+		if (result.outcome === 'maxSteps') {
 			throw new SimulationFailedError(
-				`The integrator needed more than ${MAX_STEPS_PER_SEGMENT} steps and stopped at t = ${reachedH.toFixed(3)} h: the run is too stiff for it (typically very fast substrate dynamics at high biomass, or a feed expression that switches abruptly). Try a larger Ks, a smooth feed law, or a shorter run.`,
+				`The integrator needed more than ${MAX_STEPS_PER_SEGMENT} steps and stopped at t = ${reachedH.toFixed(3)} h: the run changes too abruptly for it to follow (typically a feed expression that switches on and off). Try a smooth feed law or a shorter run.`,
 				'stepLimit',
 				reachedH
+			);
+		}
+		if (result.outcome === 'stepTooSmall') {
+			throw new SimulationFailedError(
+				`The integrator's step shrank to nothing at t = ${result.t.toFixed(3)} h: the right-hand side jumps there (typically a feed expression that switches on and off, or one that cannot be evaluated). Try a smooth feed law.`,
+				'stepLimit',
+				result.t
 			);
 		}
 	}
@@ -282,15 +273,14 @@ class RunIntegrator {
 	}
 }
 
-function createSolver(stateCount: number): Solver {
-	const solver = new Solver(stateCount);
-	solver.denseOutput = true;
-	solver.absoluteTolerance = ABSOLUTE_TOLERANCE;
-	solver.relativeTolerance = RELATIVE_TOLERANCE;
-	solver.maxSteps = MAX_STEPS_PER_SEGMENT;
-	// These runs turn stiff (fast DO and substrate dynamics at high biomass), where stability rather
-	// than accuracy bounds the step; a low extrapolation order then needs about half the right-hand
-	// side evaluations of the default 9 columns, with results equal within the tolerances.
-	solver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
-	return solver;
+function createSolver(stateCount: number): RosenbrockSolver {
+	// A stiff integrator: fast DO and substrate dynamics at high biomass, and the DO-stat feed's steep
+	// response, bound an explicit method's step by stability rather than accuracy.
+	return new RosenbrockSolver(stateCount, {
+		absoluteTolerance: ABSOLUTE_TOLERANCE,
+		relativeTolerance: RELATIVE_TOLERANCE,
+		maxSteps: MAX_STEPS_PER_SEGMENT,
+		// The delivered-volume slots after the culture's states are integrals the model never reads.
+		statesRead: STATE_COUNT
+	});
 }
