@@ -11,6 +11,7 @@ import {
 } from '$lib/server/auth/sessions';
 import { rolesOf } from '$lib/server/people';
 import { handleMalformedBodies } from '$lib/server/request-body-check';
+import { handleCompression } from '$lib/server/compression';
 import { handleHardeningHeaders } from '$lib/server/security-headers';
 
 /**
@@ -74,6 +75,7 @@ const handleSecurityHeaders: Handle = async ({ event, resolve }) => {
 };
 
 export const handle = sequence(
+	handleCompression,
 	handleHardeningHeaders,
 	handleSecurityHeaders,
 	handleSession,

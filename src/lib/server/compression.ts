@@ -1,0 +1,68 @@
+import { promisify } from 'node:util';
+import { brotliCompress, constants, gzip } from 'node:zlib';
+import type { Handle } from '@sveltejs/kit';
+
+const brotli = promisify(brotliCompress);
+const gzipAsync = promisify(gzip);
+
+/** Below this, compressing saves less than it costs. */
+export const COMPRESS_FROM_BYTES = 8 * 1024;
+const TEXT_TYPES = /^(application\/(json|problem\+json)|text\/(html|csv|plain))\b/;
+
+/** The encoding to send in, from the client's Accept-Encoding: brotli first, then gzip. */
+export function chosenEncoding(acceptEncoding: string | null): 'br' | 'gzip' | null {
+	const offered = (acceptEncoding ?? '')
+		.toLowerCase()
+		.split(',')
+		.map((part) => part.trim().split(';'))
+		.filter(([, ...params]) => !params.some((p) => /^\s*q=0(\.0*)?\s*$/.test(p)))
+		.map(([name]) => name.trim());
+	if (offered.includes('br')) return 'br';
+	if (offered.includes('gzip') || offered.includes('*')) return 'gzip';
+	return null;
+}
+
+/**
+ * Compresses large text answers (a simulation's series, a long list, a CSV) with brotli or gzip.
+ * adapter-node compresses only its static files; this covers what the app answers. zlib's async
+ * functions run in libuv's thread pool, so the event loop keeps serving while a body compresses.
+ */
+export const handleCompression: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	const encoding = chosenEncoding(event.request.headers.get('accept-encoding'));
+	const type = response.headers.get('content-type') ?? '';
+	if (
+		!encoding ||
+		!response.body ||
+		response.headers.has('content-encoding') ||
+		!TEXT_TYPES.test(type) ||
+		event.request.method === 'HEAD'
+	)
+		return response;
+	const body = Buffer.from(await response.arrayBuffer());
+	const headers = new Headers(response.headers);
+	headers.append('vary', 'Accept-Encoding');
+	if (body.byteLength < COMPRESS_FROM_BYTES)
+		return new Response(body, {
+			status: response.status,
+			statusText: response.statusText,
+			headers
+		});
+	const compressed =
+		encoding === 'br'
+			? await brotli(body, {
+					params: {
+						// Quality 4: most of brotli's gain at a fraction of its default's (11) time.
+						[constants.BROTLI_PARAM_QUALITY]: 4,
+						[constants.BROTLI_PARAM_SIZE_HINT]: body.byteLength
+					}
+				})
+			: await gzipAsync(body, { level: 6 });
+	headers.set('content-encoding', encoding);
+	headers.delete('content-length');
+	return new Response(compressed, {
+		status: response.status,
+		statusText: response.statusText,
+		headers
+	});
+};
