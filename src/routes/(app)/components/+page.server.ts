@@ -1,12 +1,17 @@
+import { componentListQuery } from '$lib/server/api/operations/recipes';
+import { listComponentsPage } from '$lib/server/components/component-list';
+import { molarMassOfComponent } from '$lib/server/components/library';
 import { requirePermission } from '$lib/server/guard';
-import { listComponents, molarMassOfComponent } from '$lib/server/components/library';
-import type { PageServerLoad } from './$types';
+import { lenientQuery } from '$lib/server/list-paging';
 import { may } from '$lib/permissions';
+import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async () => {
+export const load: PageServerLoad = async ({ url }) => {
 	const user = requirePermission('component.view');
+	const query = lenientQuery(componentListQuery, url);
+	const { rows, total } = listComponentsPage({ category: query.category, search: query.q }, query);
 	return {
-		components: listComponents().map((c) => ({
+		components: rows.map((c) => ({
 			id: c.id,
 			name: c.name,
 			formula: c.formula ?? '',
@@ -16,6 +21,9 @@ export const load: PageServerLoad = async () => {
 			hazards: c.ghsHazards.map((h) => h.code).join(' '),
 			fromReference: c.fromReference
 		})),
+		total,
+		paging: { page: query.page, limit: query.limit, sort: query.sort, dir: query.dir },
+		filter: { category: query.category ?? '', q: query.q ?? '' },
 		canEdit: may(user, 'component.edit')
 	};
 };

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES, LINE_KINDS, RECIPE_KINDS, VERSION_STATUSES } from '$lib/recipes';
+import { COMPONENT_SORTS } from '../../components/component-list';
 import type { Component } from '../../db/schema';
+import { pagingFields } from '../../list-paging';
 import type { RecipeAnalysis } from '../../recipes/analysis';
 import type { RecipeSummary } from '../../recipes/queries';
 import type { recipeView, versionView } from '../../recipes/view';
@@ -44,7 +46,12 @@ export const recipeListQuery = z.object({
 
 export const componentListQuery = z.object({
 	category: z.enum(COMPONENT_CATEGORIES).optional(),
-	q: z.string().max(120).optional()
+	q: z
+		.string()
+		.max(120)
+		.optional()
+		.describe('Part of the name, a synonym, the formula, the CAS number or a GHS hazard code'),
+	...pagingFields(COMPONENT_SORTS, { sort: 'name', dir: 'asc' })
 });
 
 const element = z.object({ symbol: z.string(), gPerL: z.number(), mmolPerL: z.number() });
@@ -210,7 +217,12 @@ export const versionResponse = describes<
 	})
 );
 
-export const componentListResponse = describes<{ items: Component[]; total: number }>()(
+export const componentListResponse = describes<{
+	items: Component[];
+	total: number;
+	page: number;
+	limit: number;
+}>()(
 	z.object({
 		items: z.array(
 			z.object({
@@ -250,7 +262,9 @@ export const componentListResponse = describes<{ items: Component[]; total: numb
 				updatedAt: isoTime()
 			})
 		),
-		total: z.int()
+		total: z.int().describe('Every component the filter matches, over all pages'),
+		page: z.int(),
+		limit: z.int()
 	})
 );
 
