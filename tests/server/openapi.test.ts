@@ -183,3 +183,27 @@ describe('the simulate operation’s documented request', () => {
 		expect(request.properties.feeds).toMatchObject({ minItems: 1, maxItems: MAX_FEED_STREAMS });
 	});
 });
+
+describe('the paged lists’ documented query', () => {
+	it('names page, limit, sort and dir from the schema the endpoints read them with', () => {
+		const doc = buildOpenApiDocument('http://127.0.0.1');
+		type Parameter = { name: string; in: string; schema: Record<string, unknown> };
+		for (const [path, sorts] of [
+			[
+				'/api/v1/lots',
+				['code', 'component', 'supplier', 'status', 'onHand', 'expiresOn', 'receivedOn']
+			],
+			['/api/v1/batches', ['number', 'state', 'recipe', 'volume', 'plannedOn', 'intendedUse']],
+			['/api/v1/components', ['name', 'formula', 'category', 'casNumber']]
+		] as const) {
+			const operation = doc.paths[path].get as { parameters: Parameter[]; responses: object };
+			const byName = new Map(operation.parameters.map((p) => [p.name, p]));
+			expect(byName.get('page')).toMatchObject({ in: 'query', schema: { minimum: 1 } });
+			expect(byName.get('limit')).toMatchObject({ schema: { maximum: 200, default: 50 } });
+			expect(byName.get('sort')?.schema.enum).toEqual(sorts);
+			expect(byName.get('dir')?.schema.enum).toEqual(['asc', 'desc']);
+			expect(byName.has('q')).toBe(true);
+			expect(Object.keys(operation.responses)).toContain('400');
+		}
+	});
+});

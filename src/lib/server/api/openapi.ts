@@ -16,6 +16,8 @@ export interface ApiOperation {
 	/** The act its endpoint checks (`endpoint({ act })`); `x-access` shows the act's roles from `$lib/permissions`. */
 	act: Act;
 	request?: z.ZodType;
+	/** The query parameters, the same schema the endpoint reads them with (`parseQuery`). */
+	query?: z.ZodObject;
 	response?: z.ZodType;
 	responseDescription?: string;
 	successStatus?: number;
@@ -67,7 +69,7 @@ export function allOperations(): ApiOperation[] {
 function errorStatusesOf(op: ApiOperation, access: ReturnType<typeof accessFor>): number[] {
 	return [
 		...new Set([
-			...(op.request ? [400] : []),
+			...(op.request || op.query ? [400] : []),
 			...(access === 'public' ? [] : [401]),
 			...(Array.isArray(access) ? [403] : []),
 			...(op.path.includes('{') ? [404] : []),
@@ -76,7 +78,28 @@ function errorStatusesOf(op: ApiOperation, access: ReturnType<typeof accessFor>)
 	].sort();
 }
 
-/** One operation of the document: access, path parameters, request body and responses. */
+/** Path parameters from the template, query parameters from the query schema. */
+function parametersOf(op: ApiOperation): Record<string, unknown>[] {
+	const path = [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({
+		name: m[1],
+		in: 'path',
+		required: true,
+		schema: { type: 'string' }
+	}));
+	const query = Object.entries(op.query?.shape ?? {}).map(([name, field]) => {
+		const schema = toSchema(field as z.ZodType, 'input');
+		return {
+			name,
+			in: 'query',
+			required: false,
+			...(typeof schema.description === 'string' ? { description: schema.description } : {}),
+			schema
+		};
+	});
+	return [...path, ...query];
+}
+
+/** One operation of the document: access, parameters, request body and responses. */
 function describeOperation(op: ApiOperation): Record<string, unknown> {
 	const access = accessFor(op.act);
 	const problems = (statuses: number[]) =>
@@ -88,16 +111,7 @@ function describeOperation(op: ApiOperation): Record<string, unknown> {
 		'x-access': access,
 		'x-act': op.act,
 		security: access === 'public' ? [] : [{ sessionCookie: [] }],
-		...(op.path.includes('{')
-			? {
-					parameters: [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({
-						name: m[1],
-						in: 'path',
-						required: true,
-						schema: { type: 'string' }
-					}))
-				}
-			: {}),
+		...(op.path.includes('{') || op.query ? { parameters: parametersOf(op) } : {}),
 		...(op.request
 			? {
 					requestBody: {

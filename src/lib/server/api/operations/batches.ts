@@ -201,8 +201,9 @@ export const batchesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/batches',
-		summary: 'Batches. Query: state, recipe, from, to (planned date)',
+		summary: 'Batches, a page at a time, filtered, searched and sorted',
 		act: 'batch.view',
+		query: batchListQuery,
 		response: batchListResponse
 	},
 	{

@@ -203,8 +203,9 @@ export const inventoryOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/lots',
 		summary:
-			'Lots with on-hand (sum of the ledger, base unit mg or µL). Query: component, status, expiringBefore (YYYY-MM-DD), q',
+			'Lots with on-hand (sum of the ledger, base unit mg or µL), a page at a time, filtered, searched and sorted',
 		act: 'lot.view',
+		query: lotListQuery,
 		response: lotListResponse
 	},
 	{

@@ -304,8 +304,9 @@ export const recipesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/components',
-		summary: 'The component library. Query: category, q (name, formula or CAS contains)',
+		summary: 'The component library, a page at a time, filtered, searched and sorted',
 		act: 'component.view',
+		query: componentListQuery,
 		response: componentListResponse
 	}
 ];
