@@ -15,12 +15,8 @@ import {
 	type FeedDesign
 } from '$lib/server/studies/feed-designer';
 import { previewDraft } from '$lib/server/recipes/preview';
-import {
-	describeVersions,
-	listProfiles,
-	listStudies,
-	loadStudyInputs
-} from '$lib/server/studies/queries';
+import { describeVersions, listProfiles, loadStudyInputs } from '$lib/server/studies/queries';
+import { listStudiesPage } from '$lib/server/studies/study-list';
 import type { StudyForm } from '$lib/server/studies/study-form';
 import { createStudy } from '$lib/server/studies/study-store';
 
@@ -486,7 +482,16 @@ describe('the feed designer', () => {
 
 describe('saved studies and recipe versions', () => {
 	it('links each study to its versions and says when one is superseded', () => {
-		const rows = listStudies();
+		const { rows, total } = listStudiesPage(undefined, {
+			page: 1,
+			limit: 50,
+			sort: 'updatedAt',
+			dir: 'desc'
+		});
+		expect(total).toBe(rows.length);
+		const searched = listStudiesPage('yeast', { page: 1, limit: 50, sort: 'name', dir: 'asc' });
+		expect(searched.rows.map((r) => r.name)).toContain(YEAST_STUDY);
+		expect(searched.rows.map((r) => r.name)).not.toContain(BACTERIUM_STUDY);
 		expect(rows.map((r) => r.name)).toEqual(expect.arrayContaining([YEAST_STUDY, BACTERIUM_STUDY]));
 		const yeast = rows.find((r) => r.name === YEAST_STUDY)!;
 		expect(yeast.basal.recipeName).toBe('PPN Yeast-Glycerol A');

@@ -171,51 +171,6 @@ export function loadStudyInputs(
 	};
 }
 
-export function listStudies() {
-	const rows = db
-		.select({
-			id: study.id,
-			name: study.name,
-			targetBasis: study.targetBasis,
-			targetValue: study.targetValue,
-			basalVersionId: study.basalVersionId,
-			profileName: organismProfile.name,
-			vesselName: vessel.name,
-			createdByName: user.name,
-			updatedAt: study.updatedAt
-		})
-		.from(study)
-		.innerJoin(organismProfile, eq(study.profileId, organismProfile.id))
-		.innerJoin(vessel, eq(study.vesselId, vessel.id))
-		.innerJoin(user, eq(study.createdById, user.id))
-		.orderBy(desc(study.updatedAt))
-		.all();
-	const feeds = rows.length
-		? db
-				.select()
-				.from(studyFeed)
-				.where(
-					inArray(
-						studyFeed.studyId,
-						rows.map((r) => r.id)
-					)
-				)
-				.orderBy(asc(studyFeed.position))
-				.all()
-		: [];
-	const versions = describeVersions([
-		...rows.map((r) => r.basalVersionId),
-		...feeds.map((f) => f.versionId)
-	]);
-	return rows.map((r) => ({
-		...r,
-		basal: versions.get(r.basalVersionId)!,
-		feeds: feeds
-			.filter((f) => f.studyId === r.id)
-			.map((f) => ({ ...versions.get(f.versionId)!, volumeL: f.volumeL }))
-	}));
-}
-
 export function listProfiles(reader: Reader = db) {
 	return reader.select().from(organismProfile).orderBy(asc(organismProfile.name)).all();
 }

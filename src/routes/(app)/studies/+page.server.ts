@@ -1,8 +1,17 @@
+import { studyListQuery } from '$lib/server/api/operations/studies';
 import { requirePermission } from '$lib/server/guard';
-import { listStudies } from '$lib/server/studies/queries';
+import { lenientQuery } from '$lib/server/list-paging';
+import { listStudiesPage } from '$lib/server/studies/study-list';
 import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async () => {
+export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('study.use');
-	return { studies: listStudies() };
+	const query = lenientQuery(studyListQuery, url);
+	const { rows, total } = listStudiesPage(query.q, query);
+	return {
+		studies: rows,
+		total,
+		paging: { page: query.page, limit: query.limit, sort: query.sort, dir: query.dir },
+		q: query.q ?? ''
+	};
 };

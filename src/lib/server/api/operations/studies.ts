@@ -8,7 +8,8 @@ import {
 } from '$chemistry';
 import { VERSION_STATUSES } from '$lib/recipes';
 import type { SavedFeedDraft } from '../../studies/feed-drafts';
-import type { listStudies } from '../../studies/queries';
+import { STUDY_SORTS, type StudyListRow } from '../../studies/study-list';
+import { pagingFields } from '../../list-paging';
 import type { ApiOperation } from '../openapi';
 import { describes, documentsPartOf, isoTime } from '../shapes';
 
@@ -121,7 +122,17 @@ const versionRef = z.object({
 	supersededBy: z.int().nullable()
 });
 
-export const studyListResponse = describes<{ studies: ReturnType<typeof listStudies> }>()(
+export const studyListQuery = z.object({
+	q: z.string().max(120).optional().describe('Part of the study, organism or vessel name'),
+	...pagingFields(STUDY_SORTS, { sort: 'updatedAt', dir: 'desc' })
+});
+
+export const studyListResponse = describes<{
+	studies: StudyListRow[];
+	total: number;
+	page: number;
+	limit: number;
+}>()(
 	z.object({
 		studies: z.array(
 			z.object({
@@ -137,7 +148,10 @@ export const studyListResponse = describes<{ studies: ReturnType<typeof listStud
 				basal: versionRef,
 				feeds: z.array(versionRef.extend({ volumeL: z.number() }))
 			})
-		)
+		),
+		total: z.int().describe('Every study the search matches, over all pages'),
+		page: z.int(),
+		limit: z.int()
 	})
 );
 
@@ -207,8 +221,10 @@ export const studiesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/studies',
-		summary: 'Lists saved studies with the recipe versions they use and whether any is superseded',
+		summary:
+			'Lists saved studies with the recipe versions they use and whether any is superseded, a page at a time',
 		act: 'study.use',
+		query: studyListQuery,
 		response: studyListResponse
 	},
 	{
