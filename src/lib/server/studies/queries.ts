@@ -7,7 +7,6 @@ import {
 	recipeVersion,
 	study,
 	studyFeed,
-	user,
 	vessel,
 	type Component
 } from '../db/schema';
