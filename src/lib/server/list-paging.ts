@@ -67,6 +67,11 @@ export function orderFor(column: SQLWrapper, dir: SortDirection, tieBreaker: SQL
 	return [by(column), by(tieBreaker)];
 }
 
+/** A list's sort names from its map of sort columns, as the tuple `pagingFields` takes. */
+export function sortKeys<T extends Record<string, unknown>>(columns: T) {
+	return Object.keys(columns) as [keyof T & string, ...(keyof T & string)[]];
+}
+
 export function offsetOf(paging: { page: number; limit: number }): number {
 	return (paging.page - 1) * paging.limit;
 }

@@ -2,7 +2,7 @@ import { and, count, eq, gte, inArray, lte, sql, type SQL } from 'drizzle-orm';
 import type { BatchState } from '$lib/batches';
 import { db } from '../db';
 import { batch, recipe, recipeVersion } from '../db/schema';
-import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
+import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import { searchMatch } from '../search-match';
 
 export interface BatchFilter {
@@ -23,10 +23,7 @@ const BATCH_SORT_COLUMNS = {
 	intendedUse: batch.intendedUse
 } as const;
 
-export const BATCH_SORTS = Object.keys(BATCH_SORT_COLUMNS) as [
-	keyof typeof BATCH_SORT_COLUMNS,
-	...(keyof typeof BATCH_SORT_COLUMNS)[]
-];
+export const BATCH_SORTS = sortKeys(BATCH_SORT_COLUMNS);
 export type BatchSort = keyof typeof BATCH_SORT_COLUMNS;
 
 function batchConditions(filter: BatchFilter): SQL | undefined {

@@ -2,7 +2,7 @@ import { and, count, eq, sql, type SQL } from 'drizzle-orm';
 import type { ComponentCategoryName } from '$lib/recipes';
 import { db } from '../db';
 import { component } from '../db/schema';
-import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
+import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import type { Component } from '../db/schema';
 
 export interface ComponentFilter {
@@ -18,10 +18,7 @@ const COMPONENT_SORT_COLUMNS = {
 	casNumber: component.casNumber
 } as const;
 
-export const COMPONENT_SORTS = Object.keys(COMPONENT_SORT_COLUMNS) as [
-	keyof typeof COMPONENT_SORT_COLUMNS,
-	...(keyof typeof COMPONENT_SORT_COLUMNS)[]
-];
+export const COMPONENT_SORTS = sortKeys(COMPONENT_SORT_COLUMNS);
 export type ComponentSort = keyof typeof COMPONENT_SORT_COLUMNS;
 
 function componentConditions(filter: ComponentFilter): SQL | undefined {

@@ -2,7 +2,7 @@ import { and, asc, count, eq, inArray, lte, ne, sql, type SQL } from 'drizzle-or
 import { isExpired, isoToday, type LotStatus, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { component, lot, lotOnHand } from '../db/schema';
-import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
+import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import { searchMatch } from '../search-match';
 import { onHandColumn } from './ledger';
 
@@ -57,10 +57,7 @@ const LOT_SORT_COLUMNS = {
 	receivedOn: lot.receivedOn
 } as const;
 
-export const LOT_SORTS = Object.keys(LOT_SORT_COLUMNS) as [
-	keyof typeof LOT_SORT_COLUMNS,
-	...(keyof typeof LOT_SORT_COLUMNS)[]
-];
+export const LOT_SORTS = sortKeys(LOT_SORT_COLUMNS);
 export type LotSort = keyof typeof LOT_SORT_COLUMNS;
 
 function lotConditions(filter: LotFilter): SQL | undefined {

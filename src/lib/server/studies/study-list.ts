@@ -1,7 +1,7 @@
 import { and, asc, count, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import { db } from '../db';
 import { organismProfile, study, studyFeed, user, vessel } from '../db/schema';
-import { offsetOf, orderFor, type ListPage, type Paging } from '../list-paging';
+import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import { describeVersions, type VersionRef } from './queries';
 
 const STUDY_SORT_COLUMNS = {
@@ -11,10 +11,7 @@ const STUDY_SORT_COLUMNS = {
 	updatedAt: study.updatedAt
 } as const;
 
-export const STUDY_SORTS = Object.keys(STUDY_SORT_COLUMNS) as [
-	keyof typeof STUDY_SORT_COLUMNS,
-	...(keyof typeof STUDY_SORT_COLUMNS)[]
-];
+export const STUDY_SORTS = sortKeys(STUDY_SORT_COLUMNS);
 export type StudySort = keyof typeof STUDY_SORT_COLUMNS;
 
 function studyConditions(search: string | undefined): SQL | undefined {
