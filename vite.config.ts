@@ -1,9 +1,10 @@
 import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
 import { defineConfig } from 'vitest/config';
+import { simulationWorker } from './src/vite/simulation-worker-plugin.js';
 
 export default defineConfig({
-	plugins: [tailwindcss(), sveltekit()],
+	plugins: [tailwindcss(), sveltekit(), simulationWorker()],
 	test: {
 		include: [
 			'tests/chemistry/**/*.test.ts',

@@ -59,7 +59,7 @@ describe('each element of a profile: its role and how sure its value is', () => 
 		expect(values['element.N.source']).toBe(NEIDHARDT.source);
 	});
 
-	it('stores a role and a confidence the user sets, and a study then takes Fe as a requirement', () => {
+	it('stores a role and a confidence the user sets, and a study then takes Fe as a requirement', async () => {
 		const row = saved({
 			elementalFractions: 'C 0.5\nN 0.14\nP 0.03\nFe 0.002',
 			'element.Fe.role': 'required',
@@ -94,7 +94,7 @@ describe('each element of a profile: its role and how sure its value is', () => 
 			.get()!;
 		const inputs = structuredClone(loadStudyInputs(pilot.id).inputs);
 		inputs.profile = row;
-		const report = evaluateStudy(inputs);
+		const report = await evaluateStudy(inputs);
 		const fe = report.nutrients.lines.find((l) => l.key === 'Fe')!;
 		expect(fe).toMatchObject({
 			role: 'required',

@@ -13,9 +13,9 @@ const fedBatch = {
 	outputEveryH: 0.5
 } as const;
 
-function failureOf(run: () => unknown): unknown {
+async function failureOf(run: () => Promise<unknown>): Promise<unknown> {
 	try {
-		run();
+		await run();
 	} catch (error) {
 		return error;
 	}
@@ -23,8 +23,8 @@ function failureOf(run: () => unknown): unknown {
 }
 
 describe('the simulate endpoint’s mapping', () => {
-	it('returns the series at the output times, without O2 series when no oxygen block is given', () => {
-		const result = runSimulation(simulateRequest.parse(fedBatch));
+	it('returns the series at the output times, without O2 series when no oxygen block is given', async () => {
+		const result = await runSimulation(simulateRequest.parse(fedBatch));
 		expect(result.t).toHaveLength(49);
 		expect(result.t[48]).toBe(24);
 		expect(result.biomassGPerL).toHaveLength(49);
@@ -33,7 +33,7 @@ describe('the simulate endpoint’s mapping', () => {
 		expect(result.events.map((e) => e.kind)).toContain('feedStarted');
 	});
 
-	it('turns an integration that cannot go on into a 422 problem that says where it stopped', () => {
+	it('turns an integration that cannot go on into a 422 problem that says where it stopped', async () => {
 		// The feed switches on at S = 0.2 and uptake pulls S straight back: the state chatters on the switch.
 		const body = simulateRequest.parse({
 			mode: 'fedBatch',
@@ -43,19 +43,19 @@ describe('the simulate endpoint’s mapping', () => {
 			endH: 20,
 			outputEveryH: 1
 		});
-		const failure = failureOf(() => runSimulation(body));
+		const failure = await failureOf(() => runSimulation(body));
 		expect(failure).toBeInstanceOf(ApiProblem);
 		expect((failure as ApiProblem).status).toBe(422);
 		expect((failure as ApiProblem).message).toMatch(/did not converge at t = \d+\.\d\d h/);
 	});
 
-	it('passes the library’s field errors through (μset ≥ μmax names feed.muSetPerH)', () => {
+	it('passes the library’s field errors through (μset ≥ μmax names feed.muSetPerH)', async () => {
 		// Not parsed first: the endpoint's schema already refuses it; here the library reads it itself.
 		const body = {
 			...fedBatch,
 			feed: { strategy: 'exponential', substrateGPerL: 500, muSetPerH: 0.6 }
 		} as const;
-		const failure = failureOf(() => runSimulation(body));
+		const failure = await failureOf(() => runSimulation(body));
 		expect(failure).toBeInstanceOf(ChemistryInputError);
 		expect((failure as ChemistryInputError).field).toBe('feed.muSetPerH');
 	});

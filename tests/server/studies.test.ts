@@ -43,8 +43,8 @@ beforeAll(async () => {
 });
 
 describe('a study on the demo data, checked by hand', () => {
-	it('finds nitrogen limiting the yeast fed-batch, at the density worked out here', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(YEAST_STUDY)).inputs);
+	it('finds nitrogen limiting the yeast fed-batch, at the density worked out here', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(YEAST_STUDY)).inputs);
 		// Supply of N, per litre of the final 8 L (6 L basal + 2 L feed):
 		//   (NH4)2SO4 is 2 N per formula unit: 2 × 14.007 / 132.134 g N per g (IUPAC 2021 weights, D in our references)
 		const nPerSulfate = (2 * ATOMIC_WEIGHTS.N) / formulaMolarMass('(NH4)2SO4');
@@ -76,8 +76,8 @@ describe('a study on the demo data, checked by hand', () => {
 		expect(report.verdict).toBe('supported');
 	});
 
-	it('lists every default it used, with its source', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
+	it('lists every default it used, with its source', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
 		const what = report.defaults.map((d) => d.what);
 		expect(what).toEqual(
 			expect.arrayContaining([
@@ -98,8 +98,8 @@ describe('a study on the demo data, checked by hand', () => {
 		expect(report.cautions.join(' ')).toMatch(/pressure rating/);
 	});
 
-	it('says what limits the bacterial run: nutrients and oxygen; short trace elements are warnings', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
+	it('says what limits the bacterial run: nutrients and oxygen; short trace elements are warnings', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
 		expect(report.verdict).toBe('not supported');
 		const short = report.nutrients.lines.filter((l) => !l.sufficient);
 		expect(short.map((l) => l.key)).toEqual(expect.arrayContaining(['N', 'Ca', 'Fe']));
@@ -124,8 +124,8 @@ describe('a study on the demo data, checked by hand', () => {
 		expect(report.reasons.some((r) => r.includes('does not allow O2 enrichment'))).toBe(true);
 	});
 
-	it('marks each nutrient line with its role, how sure its value is and its source', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
+	it('marks each nutrient line with its role, how sure its value is and its source', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
 		const line = (key: string) => report.nutrients.lines.find((l) => l.key === key)!;
 		// The demo bacterium: C, H, O, N derived from CH1.8O0.5N0.2 with 8 % ash; P and S confirmed in Neidhardt et al.
 		// (1990); Fe from memory (chemistry/data/biomass.ts); Yx/s from its RQ by element balance.
@@ -152,7 +152,7 @@ describe('a study on the demo data, checked by hand', () => {
 		});
 	});
 
-	it('warns when the fractions of the profile contradict its formula, naming both values', () => {
+	it('warns when the fractions of the profile contradict its formula, naming both values', async () => {
 		// The demo bacterium as it stood before: Neidhardt et al. (1990) fractions (N 14 %) with CH1.8O0.5N0.2 and 8 % ash,
 		// whose N is 0.2 × 14.007 / 24.626 × 0.92 = 10.47 % (24.626 g/C-mol, chemistry/REFERENCES.md, derived).
 		const inputs = structuredClone(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs);
@@ -163,7 +163,7 @@ describe('a study on the demo data, checked by hand', () => {
 			N: 0.14,
 			H: 0.08
 		};
-		const report = evaluateStudy(inputs);
+		const report = await evaluateStudy(inputs);
 		expect(report.warnings).toEqual(
 			expect.arrayContaining([
 				expect.stringMatching(
@@ -173,35 +173,37 @@ describe('a study on the demo data, checked by hand', () => {
 		);
 		// The saved demo profile agrees with its formula: no such warning.
 		expect(
-			evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs).warnings.join(' ')
+			(await evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs)).warnings.join(' ')
 		).not.toMatch(/by the formula/);
 	});
 });
 
 describe('the what-if', () => {
-	it('turns the verdict when kLa is lowered, and back with enough O2', () => {
+	it('turns the verdict when kLa is lowered, and back with enough O2', async () => {
 		const inputs = loadStudyInputs(studyId(YEAST_STUDY)).inputs;
-		const low = evaluateStudy(inputs, { kLaPerH: 60 });
+		const low = await evaluateStudy(inputs, { kLaPerH: 60 });
 		expect(low.verdict).toBe('not supported');
 		expect(low.oxygen.check).toBe('short');
 		// max OTR = kLa (C* − C_set) is linear in kLa at a fixed gas
-		const saved = evaluateStudy(inputs);
+		const saved = await evaluateStudy(inputs);
 		expect(low.oxygen.maxOtrMmolPerLH / saved.oxygen.maxOtrMmolPerLH).toBeCloseTo(60 / 400, 6);
 	});
 
-	it('refuses a target of zero or beyond physical sense with a clear message', () => {
+	it('refuses a target of zero or beyond physical sense with a clear message', async () => {
 		const inputs = loadStudyInputs(studyId(YEAST_STUDY)).inputs;
-		expect(() => evaluateStudy(inputs, { targetValue: 0 })).toThrow(/greater than 0/);
-		expect(() => evaluateStudy(inputs, { targetValue: 500 })).toThrow(/beyond physical sense/);
+		await expect(evaluateStudy(inputs, { targetValue: 0 })).rejects.toThrow(/greater than 0/);
+		await expect(evaluateStudy(inputs, { targetValue: 500 })).rejects.toThrow(
+			/beyond physical sense/
+		);
 		try {
-			evaluateStudy(inputs, { targetValue: 500 });
+			await evaluateStudy(inputs, { targetValue: 500 });
 		} catch (cause) {
 			expect((cause as RuleError).field).toBe('targetValue');
 		}
 	});
 
-	it('flags a vessel that does not allow enrichment', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs, {
+	it('flags a vessel that does not allow enrichment', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs, {
 			o2MoleFraction: 0.4
 		});
 		expect(report.reasons.join(' ')).toMatch(/does not allow O2 enrichment/);
@@ -343,7 +345,7 @@ describe('the feed designer', () => {
 		}
 	});
 
-	it('explains why tyrosine cannot go in a neutral concentrate', () => {
+	it('explains why tyrosine cannot go in a neutral concentrate', async () => {
 		const engineer = db.select().from(study).get()!.createdById;
 		const basal = db
 			.select({ id: recipeVersion.id })
@@ -358,7 +360,7 @@ describe('the feed designer', () => {
 			.where(eq(recipe.name, 'PPN Feed GA-12'))
 			.get()!.id;
 		const inputs = loadStudyInputs(studyId(YEAST_STUDY)).inputs;
-		const id = createStudy({ id: engineer, email: 'engineer@demo.test' }, {
+		const id = await createStudy({ id: engineer, email: 'engineer@demo.test' }, {
 			name: 'Mammalian fed-batch for the designer test',
 			basalVersionId: basal,
 			profileId: listProfiles().find((p) => p.name === 'Demo mammalian line PPN-M3')!.id,

@@ -57,8 +57,8 @@ function formOf(name: string, overrides: Record<string, string | number | null>)
 }
 
 describe('feeds with their own plans', () => {
-	it('runs a DO-stat glycerol feed and a constant nitrogen top-up side by side', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
+	it('runs a DO-stat glycerol feed and a constant nitrogen top-up side by side', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
 		expect(report.feeds.map((f) => [f.strategy, f.controlled])).toEqual([
 			['doStat', true],
 			['constant', false]
@@ -80,8 +80,8 @@ describe('feeds with their own plans', () => {
 		expect(course.events.filter((e) => e.kind === 'feedStarted')).toHaveLength(2);
 	});
 
-	it('counts both feeds in the nitrogen supply, worked by hand', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
+	it('counts both feeds in the nitrogen supply, worked by hand', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
 		// (NH4)2SO4 is 2 N per formula unit (IUPAC 2021 weights): basal 5 g/L × 5 L, the glycerol feed 70 g/L × what
 		// the run drew, the top-up 200 g/L × 0.4 L; over the final volume.
 		const nPerSulfate = (2 * ATOMIC_WEIGHTS.N) / formulaMolarMass('(NH4)2SO4');
@@ -93,8 +93,8 @@ describe('feeds with their own plans', () => {
 		);
 	});
 
-	it('tells a shortfall the feeds make good from one that lasts', () => {
-		const report = evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
+	it('tells a shortfall the feeds make good from one that lasts', async () => {
+		const report = await evaluateStudy(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
 		// The basal nitrogen is used up in the batch phase, before both feeds start at 24 h; they then cover it.
 		const n = report.nutrients.lines.find((l) => l.key === 'N')!;
 		expect(n.runout!.shortFromH).toBeLessThan(24);
@@ -105,14 +105,14 @@ describe('feeds with their own plans', () => {
 		// Without the feeds it stays short.
 		const batch = structuredClone(loadStudyInputs(studyId(TWO_FEEDS)).inputs);
 		batch.feeds = [];
-		const unfed = evaluateStudy(batch).nutrients.lines.find((l) => l.key === 'N')!;
+		const unfed = (await evaluateStudy(batch)).nutrients.lines.find((l) => l.key === 'N')!;
 		expect(unfed.runout!.coveredAgainH).toBeNull();
 		expect(unfed.runout!.shortFromH).toBeCloseTo(n.runout!.shortFromH, 6);
 	});
 
-	it('says when a controlled feed would run dry, and counts only what is available', () => {
+	it('says when a controlled feed would run dry, and counts only what is available', async () => {
 		const inputs = withFeeds((feeds) => (feeds[0].volumeL = 0.8));
-		const report = evaluateStudy(inputs);
+		const report = await evaluateStudy(inputs);
 		const glycerol = report.feeds[0];
 		// At most 0.08 L/h from 24 h, 0.8 L lasts at least until 34 h.
 		expect(glycerol.emptyAtH!).toBeGreaterThanOrEqual(34 - 0.05);
@@ -124,13 +124,13 @@ describe('feeds with their own plans', () => {
 		);
 	});
 
-	it('finds when a nutrient runs out along a batch run, as the crossing of X with target × ratio', () => {
+	it('finds when a nutrient runs out along a batch run, as the crossing of X with target × ratio', async () => {
 		// Without feeds the supply is fixed: a line of ratio ρ runs out when X·V·(demand/X_target) = supply·V,
 		// i.e. when X reaches X_target·ρ (mass balance). Found here independently from the biomass curve.
 		const { inputs } = loadStudyInputs(studyId(PILOT));
 		const batch = structuredClone(inputs);
 		batch.feeds = [];
-		const report = evaluateStudy(batch);
+		const report = await evaluateStudy(batch);
 		const course = report.timeCourse;
 		if (course.check === 'unavailable') throw new Error(course.message);
 		const short = report.nutrients.lines.filter((l) => l.ratio < 1 && l.key !== 'd-glucose');
@@ -174,9 +174,9 @@ describe('feeds with their own plans', () => {
 });
 
 describe('bad feed plans', () => {
-	const refused = (overrides: Record<string, string | number | null>) => {
+	const refused = async (overrides: Record<string, string | number | null>) => {
 		try {
-			createStudy(engineer, formOf(`Refused ${crypto.randomUUID().slice(0, 6)}`, overrides));
+			await createStudy(engineer, formOf(`Refused ${crypto.randomUUID().slice(0, 6)}`, overrides));
 		} catch (cause) {
 			if (cause instanceof RuleError) return cause;
 			throw cause;
@@ -184,21 +184,21 @@ describe('bad feed plans', () => {
 		throw new Error('saved, but should have been refused');
 	};
 
-	it('asks for what each plan needs, naming the field', () => {
-		expect(refused({ feed1MaxRateLPerH: null }).field).toBe('feed1MaxRateLPerH');
-		expect(refused({ feed1DoSetpointPercent: null }).field).toBe('feed1DoSetpointPercent');
-		expect(refused({ feed2Strategy: 'exponential' }).field).toBe('feed2MuSetPerH');
-		expect(refused({ feed2Strategy: 'substrateStat', feed2MaxRateLPerH: 0.1 }).field).toBe(
+	it('asks for what each plan needs, naming the field', async () => {
+		expect((await refused({ feed1MaxRateLPerH: null })).field).toBe('feed1MaxRateLPerH');
+		expect((await refused({ feed1DoSetpointPercent: null })).field).toBe('feed1DoSetpointPercent');
+		expect((await refused({ feed2Strategy: 'exponential' })).field).toBe('feed2MuSetPerH');
+		expect((await refused({ feed2Strategy: 'substrateStat', feed2MaxRateLPerH: 0.1 })).field).toBe(
 			'feed2SetpointGPerL'
 		);
-		expect(refused({ feed2Strategy: null }).field).toBe('feed2Strategy');
-		expect(refused({ feed2StartH: 70 }).message).toMatch(
+		expect((await refused({ feed2Strategy: null })).field).toBe('feed2Strategy');
+		expect((await refused({ feed2StartH: 70 })).message).toMatch(
 			/must start before the end of the run at 60 h/
 		);
 	});
 
-	it('refuses a substrate-stat plan on a feed that carries no carbon source', () => {
-		const e = refused({
+	it('refuses a substrate-stat plan on a feed that carries no carbon source', async () => {
+		const e = await refused({
 			feed2Strategy: 'substrateStat',
 			feed2SetpointGPerL: 0.5,
 			feed2MaxRateLPerH: 0.1
@@ -207,7 +207,7 @@ describe('bad feed plans', () => {
 		expect(e.message).toMatch(
 			/PPN Nitrogen Top-up N2 v1 carries no Glycerol, so a substrate-stat plan cannot hold Glycerol at its setpoint/
 		);
-		const high = refused({
+		const high = await refused({
 			feed1Strategy: 'substrateStat',
 			feed1SetpointGPerL: 600,
 			feed1MaxRateLPerH: 0.1

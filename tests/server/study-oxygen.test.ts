@@ -24,16 +24,19 @@ beforeAll(async () => {
  * Follows the study's advice and evaluates again: the oxygen transfer then meets the demand (within
  * 2 %, the rounding the advice allows for) and the advice no longer moves.
  */
-function followAdvice(inputs: StudyInputs, start: WhatIf, report: StudyReport) {
+async function followAdvice(inputs: StudyInputs, start: WhatIf, report: StudyReport) {
 	const o = report.oxygen;
-	const kLa = evaluateStudy(inputs, { ...start, kLaPerH: o.kLaRecommendedPerH });
+	const kLa = await evaluateStudy(inputs, { ...start, kLaPerH: o.kLaRecommendedPerH });
 	expect(kLa.oxygen.utilisation).toBeLessThanOrEqual(1);
 	expect(kLa.oxygen.utilisation).toBeGreaterThan(0.98);
 	expect(kLa.oxygen.maxOtrMmolPerLH).toBeGreaterThanOrEqual(kLa.oxygen.peakOurMmolPerLH);
 	expect(Math.abs(kLa.oxygen.kLaRecommendedPerH / o.kLaRecommendedPerH - 1)).toBeLessThan(0.02);
 	expect(kLa.reasons.some((r) => r.startsWith('Peak OUR'))).toBe(false);
 	if (o.enrichmentFeasible) {
-		const gas = evaluateStudy(inputs, { ...start, o2MoleFraction: o.o2MoleFractionRecommended });
+		const gas = await evaluateStudy(inputs, {
+			...start,
+			o2MoleFraction: o.o2MoleFractionRecommended
+		});
 		expect(gas.oxygen.utilisation).toBeLessThanOrEqual(1);
 		expect(gas.oxygen.utilisation).toBeGreaterThan(0.98);
 		expect(gas.reasons.some((r) => r.startsWith('Peak OUR'))).toBe(false);
@@ -42,7 +45,7 @@ function followAdvice(inputs: StudyInputs, start: WhatIf, report: StudyReport) {
 }
 
 describe('oxygen and heat come from the demand of the plan as written', () => {
-	it('advice that holds when followed, for every demo study (at its own kLa, and at a kLa too small for it)', () => {
+	it('advice that holds when followed, for every demo study (at its own kLa, and at a kLa too small for it)', async () => {
 		const names = db
 			.select({ name: study.name })
 			.from(study)
@@ -52,49 +55,51 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		let followed = 0;
 		for (const name of names) {
 			const inputs = inputsOf(name);
-			const saved = evaluateStudy(inputs);
+			const saved = await evaluateStudy(inputs);
 			if (saved.oxygen.utilisation > 1) {
-				followAdvice(inputs, {}, saved);
+				await followAdvice(inputs, {}, saved);
 				followed++;
 			}
 			// A third of what the plan needs: short for every study, and the advice must bring it back.
 			const small = { kLaPerH: Math.max(1, Math.round(saved.oxygen.kLaNeededPerH / 3)) };
-			const starved = evaluateStudy(inputs, small);
+			const starved = await evaluateStudy(inputs, small);
 			expect(starved.oxygen.check).toBe('short');
 			expect(starved.verdict).toBe('not supported');
-			followAdvice(inputs, small, starved);
+			await followAdvice(inputs, small, starved);
 			followed++;
 		}
 		expect(followed).toBeGreaterThan(names.length);
 	});
 
-	it('a test study with O2 enrichment allowed: the O2 fraction advised makes the check pass', () => {
+	it('a test study with O2 enrichment allowed: the O2 fraction advised makes the check pass', async () => {
 		const inputs = inputsOf(YEAST_STUDY);
 		expect(inputs.vessel.o2EnrichmentAllowed).toBe(true);
 		const start = { kLaPerH: 120, o2MoleFraction: 0.21 };
-		const report = evaluateStudy(inputs, start);
+		const report = await evaluateStudy(inputs, start);
 		expect(report.oxygen.check).toBe('short');
 		expect(report.oxygen.enrichmentFeasible).toBe(true);
-		followAdvice(inputs, start, report);
-		const enriched = evaluateStudy(inputs, {
+		await followAdvice(inputs, start, report);
+		const enriched = await evaluateStudy(inputs, {
 			...start,
 			o2MoleFraction: report.oxygen.o2MoleFractionRecommended
 		});
 		expect(enriched.oxygen.check).toBe('ok');
 	});
 
-	it('the demand does not depend on the kLa tried: the recommended kLa stays put', () => {
+	it('the demand does not depend on the kLa tried: the recommended kLa stays put', async () => {
 		const inputs = inputsOf(BACTERIUM_STUDY);
-		const peaks = [50, 200, 800, 2000].map(
-			(kLaPerH) => evaluateStudy(inputs, { kLaPerH }).oxygen.peakOurMmolPerLH
+		const peaks = await Promise.all(
+			[50, 200, 800, 2000].map(
+				async (kLaPerH) => (await evaluateStudy(inputs, { kLaPerH })).oxygen.peakOurMmolPerLH
+			)
 		);
 		// Equal to the integrator's tolerance (the DO the demand run follows switches at other times).
 		for (const peak of peaks) expect(peak / peaks[0] - 1).toBeCloseTo(0, 5);
 	});
 
-	it('the bacterium plan: oxygen-limited in the vessel, the run goes on to its end, the peak OUR is the demand at the target', () => {
+	it('the bacterium plan: oxygen-limited in the vessel, the run goes on to its end, the peak OUR is the demand at the target', async () => {
 		const inputs = inputsOf(BACTERIUM_STUDY);
-		const report = evaluateStudy(inputs);
+		const report = await evaluateStudy(inputs);
 		expect(report.verdict).toBe('not supported');
 		expect(report.oxygen.check).toBe('short');
 		const course = report.timeCourse;
@@ -122,9 +127,9 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		expect(report.oxygen.lowerBound).toBe(false);
 	});
 
-	it('OUR of the demand follows 1000·μ·X/Yx/O2, and the heat load is OUR·V·q/3600 + agitation at the peak of OUR·V', () => {
+	it('OUR of the demand follows 1000·μ·X/Yx/O2, and the heat load is OUR·V·q/3600 + agitation at the peak of OUR·V', async () => {
 		const inputs = inputsOf(YEAST_STUDY);
-		const report = evaluateStudy(inputs);
+		const report = await evaluateStudy(inputs);
 		const course = report.timeCourse;
 		if (course.check === 'unavailable') throw new Error(course.message);
 		expect(report.oxygen.check).toBe('ok');
@@ -159,22 +164,22 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		expect(report.heat.lowerBound).toBe(false);
 	});
 
-	it('a DO-stat feed set below the DO setpoint of the study is named: no kLa would fix it', () => {
+	it('a DO-stat feed set below the DO setpoint of the study is named: no kLa would fix it', async () => {
 		const inputs = structuredClone(inputsOf('Yeast DO-stat with nitrogen top-up, bench (demo)'));
 		const doStat = inputs.feeds.find((f) => f.plan.strategy === 'doStat')!;
 		doStat.plan.doSetpointPercent = 20;
-		const report = evaluateStudy(inputs, { kLaPerH: 2000 });
+		const report = await evaluateStudy(inputs, { kLaPerH: 2000 });
 		expect(report.oxygen.check).toBe('short');
 		expect(report.reasons.join(' ')).toMatch(
 			/DO-stat down to 20 % .* Raise the feed's DO setpoint to at least 30 %/
 		);
 	});
 
-	it('a plan that cannot be simulated says why and is never supported', () => {
+	it('a plan that cannot be simulated says why and is never supported', async () => {
 		const inputs = structuredClone(inputsOf(YEAST_STUDY));
 		// 60 /h is beyond what the simulation accepts (at most 50 /h): the model refuses the run.
 		inputs.profile.muMaxPerH = 60;
-		const report = evaluateStudy(inputs);
+		const report = await evaluateStudy(inputs);
 		expect(report.verdict).toBe('not supported');
 		expect(report.reasons.join(' ')).toMatch(/cannot be simulated \(kinetics\.muMaxPerH/);
 		expect(report.timeCourse.check).toBe('unavailable');
@@ -182,9 +187,9 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		expect(report.oxygen.check).toBe('short');
 	});
 
-	it('a plan that fills the vessel early gives lower bounds and never a supported verdict', () => {
+	it('a plan that fills the vessel early gives lower bounds and never a supported verdict', async () => {
 		const inputs = inputsOf(YEAST_STUDY);
-		const report = evaluateStudy(inputs, { feedVolumeL: 8 });
+		const report = await evaluateStudy(inputs, { feedVolumeL: 8 });
 		expect(report.oxygen.lowerBound).toBe(true);
 		expect(report.heat.lowerBound).toBe(true);
 		expect(report.verdict).toBe('not supported');
@@ -203,15 +208,15 @@ describe('the oxycaloric factor belongs to each study', () => {
 		return parseForm(studySchema, formData);
 	}
 
-	it('is used in the heat load and listed with the study', () => {
+	it('is used in the heat load and listed with the study', async () => {
 		const row = studyRow(YEAST_STUDY);
-		const before = evaluateStudy(loadStudyInputs(row.id).inputs);
+		const before = await evaluateStudy(loadStudyInputs(row.id).inputs);
 		// 460 kJ/mol, a textbook value (from memory), in place of the default 440.
 		const parsed = formOf('Yeast bench with its own oxycaloric factor', '460');
 		if (!parsed.ok) throw new Error(JSON.stringify(parsed.failure.data));
-		const id = createStudy({ id: row.createdById, email: 'engineer@demo.test' }, parsed.data);
+		const id = await createStudy({ id: row.createdById, email: 'engineer@demo.test' }, parsed.data);
 		expect(studyFormValues(id)!.heatPerMolO2KJ).toBe('460');
-		const after = evaluateStudy(loadStudyInputs(id).inputs);
+		const after = await evaluateStudy(loadStudyInputs(id).inputs);
 		expect(after.heat.heatPerMolO2KJ).toBe(460);
 		expect(after.defaults.some((d) => d.what === 'Heat per mol O2 consumed')).toBe(false);
 		expect(after.heat.metabolicW / before.heat.metabolicW).toBeCloseTo(460 / 440, 9);

@@ -1,5 +1,6 @@
-import { simulateRun, SimulationFailedError, type SimulationRequest } from '$chemistry';
+import { SimulationFailedError, type SimulationRequest } from '$chemistry';
 import { ApiProblem } from './api/endpoint';
+import { runInPool } from './simulation-pool';
 
 const FAILURE_ADVICE: Record<SimulationFailedError['reason'], string> = {
 	stepLimit:
@@ -12,12 +13,16 @@ const FAILURE_ADVICE: Record<SimulationFailedError['reason'], string> = {
 };
 
 /**
- * Runs the simulation; a run the integrator cannot follow is a 422 that says where it stopped,
- * never a 500 and never numbers that cannot be trusted.
+ * Runs the simulation in the worker pool; a run the integrator cannot follow is a 422 that says
+ * where it stopped, never a 500 and never numbers that cannot be trusted. A run past the site's
+ * time limit is stopped there (a 422 that says what to change).
  */
-export function runSimulation(request: SimulationRequest) {
+export async function runSimulation(request: SimulationRequest) {
 	try {
-		const { tolerances, integratorSteps, quasiSteadyOxygenH, ...result } = simulateRun(request);
+		const { tolerances, integratorSteps, quasiSteadyOxygenH, ...result } = await runInPool(
+			'simulate',
+			request
+		);
 		return { ...result, quasiSteadyOxygenH, tolerances, integratorSteps };
 	} catch (cause) {
 		if (cause instanceof SimulationFailedError) {

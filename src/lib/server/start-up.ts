@@ -8,6 +8,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './demo/accounts';
 import { seedDemo } from './demo/seed';
 import { MailUnreachableError, sendDigestIfDue } from './inventory/digest';
 import { startMailStandIn } from './mail/stand-in';
+import { startSimulationPool } from './simulation-pool';
 
 const DIGEST_CHECK_INTERVAL_MS = 60 * 60 * 1000;
 
@@ -27,6 +28,10 @@ export async function startServer(): Promise<void> {
 			? `Component library: loaded ${referenceComponentsAdded} reference components.`
 			: 'Component library: already loaded.'
 	);
+
+	// Before the demo, which evaluates its studies in the pool: the threads load the science meanwhile.
+	const threads = startSimulationPool();
+	console.log(`Simulation pool: ${threads} worker thread${threads === 1 ? '' : 's'}.`);
 
 	if (config.seedDemo) {
 		const added = await seedDemo();

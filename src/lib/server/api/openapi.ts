@@ -22,7 +22,7 @@ export interface ApiOperation {
 	responseDescription?: string;
 	successStatus?: number;
 	/** Problems beyond the ones every operation of its kind has (400, 401, 403; 404 with a path id). */
-	errors?: (404 | 409 | 422)[];
+	errors?: (404 | 409 | 422 | 503)[];
 }
 
 const problemSchema = {
@@ -166,7 +166,10 @@ export function buildOpenApiDocument(origin: string) {
 					'Changed by someone else meanwhile, or in a state that forbids this; reload and retry'
 				),
 				Problem422: problemResponse(
-					'Well-formed input that the science cannot use, e.g. a run the integrator cannot follow or a profile missing data; `detail` says why'
+					'Well-formed input that the science cannot use, e.g. a run the integrator cannot follow, a run past the site’s time limit or a profile missing data; `detail` says why'
+				),
+				Problem503: problemResponse(
+					'Every calculation thread is busy and the queue is full; try again in a minute'
 				)
 			}
 		}

@@ -483,7 +483,7 @@ export async function seedDemoStudies(): Promise<number> {
 			...s.plan,
 			...feedFormFields(feeds as (DemoFeed & { versionId: string })[])
 		} as StudyForm;
-		createStudy(actor, form);
+		await createStudy(actor, form);
 		added++;
 	}
 	return added;

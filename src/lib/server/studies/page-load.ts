@@ -6,13 +6,13 @@ import { evaluateStudy } from './evaluate';
 import { findStudy, loadStudyInputs } from './queries';
 
 /** The study with its report; a report that cannot be made is shown with its reason, not as a crash. */
-export function loadStudyReport(id: string) {
+export async function loadStudyReport(id: string) {
 	if (!findStudy(id)) error(404, { message: 'No such study.' });
 	const { inputs, versions } = loadStudyInputs(id);
-	let report: ReturnType<typeof evaluateStudy> | null = null;
+	let report: Awaited<ReturnType<typeof evaluateStudy>> | null = null;
 	let reportError: string | null = null;
 	try {
-		report = evaluateStudy(inputs);
+		report = await evaluateStudy(inputs);
 	} catch (cause) {
 		if (!(cause instanceof RuleError)) throw cause;
 		reportError = cause.message;

@@ -12,7 +12,7 @@ import { MARGIN, Writer } from '../pdf/layout';
 import { STUDY_CAUTIONS } from '$chemistry';
 import type { loadStudyReport } from './page-load';
 
-export type LoadedStudyReport = ReturnType<typeof loadStudyReport>;
+export type LoadedStudyReport = Awaited<ReturnType<typeof loadStudyReport>>;
 
 const CAUTION_COLOR: [number, number, number] = [0.6, 0.1, 0.1];
 

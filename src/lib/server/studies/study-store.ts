@@ -6,6 +6,7 @@ import { RuleError } from '../rule-error';
 import { evaluateStudy } from './evaluate';
 import { loadStudyInputs } from './queries';
 import { feedsOfForm, studyFieldsOf, type StudyForm } from './study-form';
+import type { StudyInputs } from './types';
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
@@ -52,10 +53,15 @@ function checkReferences(form: StudyForm, feeds: ReturnType<typeof feedsOfForm>,
 const PROFILE_FIELD = /^profile\./;
 const VESSEL_FIELD = /^vessel\./;
 
-/** The saved study must evaluate: a target beyond sense or a profile missing data is refused here, with the reason. */
-function requireEvaluable(studyId: string, tx: Tx) {
+/**
+ * The saved study must evaluate: a target beyond sense or a profile missing data is refused here,
+ * with the reason. The evaluation runs in the worker pool, so it is made on the inputs the study will
+ * have (`inputsOnceWritten`) before the transaction that stores it: a better-sqlite3 transaction
+ * cannot wait for a thread. The store then makes its own checks (revision, name, references) again.
+ */
+async function requireEvaluable(inputs: StudyInputs) {
 	try {
-		evaluateStudy(loadStudyInputs(studyId, tx).inputs);
+		await evaluateStudy(inputs);
 	} catch (cause) {
 		if (!(cause instanceof RuleError)) throw cause;
 		const field =
@@ -68,6 +74,23 @@ function requireEvaluable(studyId: string, tx: Tx) {
 						: cause.field;
 		throw new RuleError(cause.message, { field, status: 400 });
 	}
+}
+
+const UNDO = Symbol('undo the trial write');
+
+/** The study's inputs once `write` is stored, read in a transaction that is then undone. */
+function inputsOnceWritten(studyId: string, write: (tx: Tx) => unknown): StudyInputs {
+	let inputs: StudyInputs | undefined;
+	try {
+		db.transaction((tx) => {
+			write(tx);
+			inputs = loadStudyInputs(studyId, tx).inputs;
+			throw UNDO;
+		});
+	} catch (cause) {
+		if (cause !== UNDO) throw cause;
+	}
+	return inputs!;
 }
 
 function nameTaken(name: string, exceptId: string | null, tx: Tx) {
@@ -84,33 +107,41 @@ function insertFeeds(studyId: string, feeds: ReturnType<typeof feedsOfForm>, tx:
 	);
 }
 
-export function createStudy(actor: Actor & { id: string }, form: StudyForm): string {
+export async function createStudy(actor: Actor & { id: string }, form: StudyForm): Promise<string> {
 	const feeds = feedsOfForm(form);
-	return db.transaction((tx) => {
+	const id = crypto.randomUUID();
+	const write = (tx: Tx) => {
 		checkReferences(form, feeds, tx);
 		if (nameTaken(form.name, null, tx))
 			throw new RuleError('A study with this name exists; choose another name.', {
 				field: 'name',
 				status: 409
 			});
-		const id = crypto.randomUUID();
 		tx.insert(study)
 			.values({ id, ...studyFieldsOf(form), createdById: actor.id })
 			.run();
 		insertFeeds(id, feeds, tx);
-		requireEvaluable(id, tx);
+	};
+	await requireEvaluable(inputsOnceWritten(id, write));
+	db.transaction((tx) => {
+		write(tx);
 		recordAudit(
 			actor,
 			{ action: 'study.created', subjectType: 'study', subjectId: id, detail: { name: form.name } },
 			tx
 		);
-		return id;
 	});
+	return id;
 }
 
-export function updateStudy(actor: Actor, id: string, revision: number, form: StudyForm): void {
+export async function updateStudy(
+	actor: Actor,
+	id: string,
+	revision: number,
+	form: StudyForm
+): Promise<void> {
 	const feeds = feedsOfForm(form);
-	db.transaction((tx) => {
+	const write = (tx: Tx) => {
 		const current = tx.select().from(study).where(eq(study.id, id)).get();
 		if (!current) throw new RuleError('No such study.', { status: 404 });
 		if (current.revision !== revision)
@@ -130,7 +161,11 @@ export function updateStudy(actor: Actor, id: string, revision: number, form: St
 			.run();
 		tx.delete(studyFeed).where(eq(studyFeed.studyId, id)).run();
 		insertFeeds(id, feeds, tx);
-		requireEvaluable(id, tx);
+		return current;
+	};
+	await requireEvaluable(inputsOnceWritten(id, write));
+	db.transaction((tx) => {
+		const current = write(tx);
 		recordAudit(
 			actor,
 			{

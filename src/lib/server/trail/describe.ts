@@ -100,6 +100,8 @@ const SENTENCES: Record<string, Sentence> = {
 		`Changed the hard band for weighings from ±${text(d.from)} % to ±${text(d.to)} %`,
 	'settings.session_absolute_days': (d) =>
 		`Changed the longest session from ${text(d.from)} to ${text(d.to)} days`,
+	'settings.simulation_time_limit_s': (d) =>
+		`Changed the time limit per simulation run from ${text(d.from)} s to ${text(d.to)} s`,
 	'sign_in.succeeded': () => 'Signed in',
 	'sign_in.failed': (d) => `Sign-in failed${because(d)}`,
 	'sign_in.refused': (d) => `Sign-in refused${because(d)}`,

@@ -67,11 +67,11 @@ export const simulationOperations: ApiOperation[] = [
 		method: 'post',
 		path: '/api/v1/simulate',
 		summary:
-			'Simulates a batch, fed-batch, chemostat, perfusion or draw-fill run (Monod growth, Pirt maintenance, Luedeking–Piret product, optional O2 balance) and returns the series at the output times with the events. A run that cannot be integrated answers 422. Results are model estimates',
+			'Simulates a batch, fed-batch, chemostat, perfusion or draw-fill run (Monod growth, Pirt maintenance, Luedeking–Piret product, optional O2 balance) and returns the series at the output times with the events. A run that cannot be integrated, or that runs past the site’s time limit, answers 422. Results are model estimates',
 		act: 'simulation.use',
 		request: simulateRequest,
 		response: simulateResponse,
-		errors: [422]
+		errors: [422, 503]
 	},
 	{
 		method: 'post',
@@ -80,7 +80,8 @@ export const simulationOperations: ApiOperation[] = [
 			'Monod chemostat steady state at a dilution rate (Herbert, Elsworth & Telling 1956) with optional Pirt (1965) maintenance: X = D·Y_G(S0 − S)/(D + m_s·Y_G), S, D·X, D_crit, D_opt (closed form without maintenance, golden-section search with it), washout, a sweep from D = 0 to D_crit, and the productivity lost to a safety margin below D_crit',
 		act: 'simulation.use',
 		request: chemostatRequest,
-		response: chemostatResponse
+		response: chemostatResponse,
+		errors: [422, 503]
 	},
 	{
 		method: 'post',
@@ -89,7 +90,8 @@ export const simulationOperations: ApiOperation[] = [
 			'Batch biomass productivity including turnaround (cleaning, sterilising, filling, lag) against chemostat productivity at the chosen D, as a ratio; Pirt maintenance, when given, applies to both',
 		act: 'simulation.use',
 		request: batchVersusContinuousRequest,
-		response: batchVersusContinuousResponse
+		response: batchVersusContinuousResponse,
+		errors: [422, 503]
 	},
 	{
 		method: 'post',
@@ -98,7 +100,8 @@ export const simulationOperations: ApiOperation[] = [
 			'Fits run data: exponential phase (straight windows of ln X: R², lack of fit against the run’s noise, no significant bend), μmax and doubling time with Student-t 95 % intervals, Yx/s from −dX/dS, and μmax, Ks, Yx/s over the whole curve (needs substrate data) with 95 % intervals from the linearised covariance and warnings for poorly determined parameters. Data it cannot fit answer 400 naming the field and the test that failed',
 		act: 'simulation.use',
 		request: fitGrowthRequest,
-		response: fitGrowthResponse
+		response: fitGrowthResponse,
+		errors: [422, 503]
 	},
 	{
 		method: 'get',

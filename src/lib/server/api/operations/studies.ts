@@ -235,7 +235,7 @@ export const studiesOperations: ApiOperation[] = [
 		act: 'study.use',
 		request: evaluateRequest,
 		response: evaluateResponse,
-		errors: [404, 422]
+		errors: [404, 422, 503]
 	},
 	{
 		method: 'post',

@@ -6,17 +6,24 @@ import {
 } from '$lib/server/batches/numbering';
 import { config } from '$lib/server/config';
 import { tagged } from '$lib/server/form-tag';
-import { formFailure, parseForm, ruleFailure } from '$lib/server/forms';
+import { formFailure, formText, parseForm, ruleFailure } from '$lib/server/forms';
 import { receiverMayNotSign, setReceiverMayNotSign } from '$lib/server/inventory/lot-settings';
 import { hardBandPercent, setHardBandPercent } from '$lib/server/batches/weighing-band';
 import { clientAddress, requirePermission } from '$lib/server/guard';
 import { sessionAbsoluteDays, setSessionAbsoluteDays } from '$lib/server/auth/session-settings';
+import {
+	setSimulationTimeLimitS,
+	simulationTimeLimitS,
+	SIMULATION_TIME_LIMIT_LABEL,
+	SIMULATION_TIME_LIMIT_RANGE_S
+} from '$lib/server/simulation-settings';
 import type { Actions, PageServerLoad } from './$types';
 
 const patternForm = z.object({ pattern: z.string().max(60) });
 const lotSigningForm = z.object({ receiverMayNotSign: z.string().optional() });
 const hardBandForm = z.object({ hardBandPercent: z.string().default('') });
 const sessionLimitForm = z.object({ sessionAbsoluteDays: z.string().default('') });
+const simulationLimitForm = z.object({ simulationTimeLimitS: formText });
 
 export const load: PageServerLoad = async () => {
 	requirePermission('admin.settings');
@@ -27,7 +34,12 @@ export const load: PageServerLoad = async () => {
 		receiverMayNotSign: receiverMayNotSign(),
 		hardBandPercent: hardBandPercent(),
 		sessionAbsoluteDays: sessionAbsoluteDays(),
-		sessionIdleHours: config.sessionIdleHours
+		sessionIdleHours: config.sessionIdleHours,
+		simulationTimeLimit: {
+			seconds: simulationTimeLimitS(),
+			label: SIMULATION_TIME_LIMIT_LABEL,
+			rangeS: SIMULATION_TIME_LIMIT_RANGE_S
+		}
 	};
 };
 
@@ -85,6 +97,25 @@ export const actions: Actions = {
 			return {
 				form: 'sessionLimit',
 				saved: `Saved. A session now ends ${sessionAbsoluteDays()} days after sign-in at the latest.`
+			};
+		}),
+	simulationLimit: async ({ request }) =>
+		tagged('simulationLimit', async () => {
+			const admin = requirePermission('admin.settings');
+			const formData = await request.formData();
+			const parsed = parseForm(simulationLimitForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				setSimulationTimeLimitS(
+					{ id: admin.id, email: admin.email, address: clientAddress() },
+					parsed.data.simulationTimeLimitS
+				);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return {
+				form: 'simulationLimit',
+				saved: `Saved. A simulation, fit or study evaluation running longer than ${simulationTimeLimitS()} s is now stopped.`
 			};
 		}),
 	lotSigning: async ({ request }) =>

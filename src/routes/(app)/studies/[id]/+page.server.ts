@@ -15,7 +15,7 @@ import { may } from '$lib/permissions';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const user = requirePermission('study.use');
-	const loaded = loadStudyReport(params.id);
+	const loaded = await loadStudyReport(params.id);
 	const library = listComponents();
 	const byId = new Map(library.map((c) => [c.id, c]));
 	// A feed's composition also counts each hydrate or salt as its basis form; the feed weighs the first.

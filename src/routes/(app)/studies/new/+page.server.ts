@@ -22,7 +22,7 @@ export const actions: Actions = {
 		if (!parsed.ok) return parsed.failure;
 		let id: string;
 		try {
-			id = createStudy(actor, parsed.data);
+			id = await createStudy(actor, parsed.data);
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}

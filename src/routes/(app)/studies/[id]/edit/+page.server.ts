@@ -29,7 +29,7 @@ export const actions: Actions = {
 		const parsed = parseForm(studySchema, formData);
 		if (!parsed.ok) return parsed.failure;
 		try {
-			updateStudy(actor, params.id, revision, parsed.data);
+			await updateStudy(actor, params.id, revision, parsed.data);
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}

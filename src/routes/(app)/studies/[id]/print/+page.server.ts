@@ -4,5 +4,5 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
 	requirePermission('study.use');
-	return loadStudyReport(params.id);
+	return await loadStudyReport(params.id);
 };

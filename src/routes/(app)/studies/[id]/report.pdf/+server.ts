@@ -6,7 +6,7 @@ import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async ({ params }) => {
 	requirePermission('study.use');
-	const loaded = loadStudyReport(params.id);
+	const loaded = await loadStudyReport(params.id);
 	const pdf = await buildStudyReportPdf(loaded);
 	return new Response(new Uint8Array(pdf), {
 		headers: {

@@ -1,6 +1,7 @@
-import { computeChemostatSteadyState, chemostatRequest } from '$chemistry';
+import { chemostatRequest } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
+import { runInPool } from '$lib/server/simulation-pool';
 
 export const POST = endpoint({ act: 'simulation.use', body: chemostatRequest }, ({ body }) =>
-	computeChemostatSteadyState(body)
+	runInPool('chemostat', body)
 );

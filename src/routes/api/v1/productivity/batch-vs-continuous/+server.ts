@@ -1,7 +1,8 @@
-import { compareBatchWithContinuous, batchVersusContinuousRequest } from '$chemistry';
+import { batchVersusContinuousRequest } from '$chemistry';
 import { endpoint } from '$lib/server/api/endpoint';
+import { runInPool } from '$lib/server/simulation-pool';
 
 export const POST = endpoint(
 	{ act: 'simulation.use', body: batchVersusContinuousRequest },
-	({ body }) => compareBatchWithContinuous(body)
+	({ body }) => runInPool('batchVersusContinuous', body)
 );

@@ -12,10 +12,10 @@ const WHAT_IF_FIELDS = new Set([
 	'temperatureC'
 ]);
 
-export const POST = endpoint({ act: 'study.use', body: evaluateRequest }, ({ body }) => {
+export const POST = endpoint({ act: 'study.use', body: evaluateRequest }, async ({ body }) => {
 	const { inputs } = loadStudyInputs(body.studyId);
 	try {
-		return evaluateStudy(inputs, body.whatIf);
+		return await evaluateStudy(inputs, body.whatIf);
 	} catch (cause) {
 		// Point the caller at the what-if field it sent.
 		if (cause instanceof RuleError && cause.field && WHAT_IF_FIELDS.has(cause.field)) {

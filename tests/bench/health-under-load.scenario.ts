@@ -1,0 +1,107 @@
+// How quickly the built server answers a health check while four heavy simulations run: they run
+// in the worker pool, so the request thread should stay free. Starts the build on a fresh database,
+// samples GET /api/v1/health idle and under load, and reports p50 and p99 against the target.
+import { mkdirSync, rmSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import type { ScenarioFigure } from './bench';
+import { startApp } from './http-server';
+
+const TARGET_P99_MS = 20;
+const CONCURRENT_SIMULATIONS = 4;
+const IDLE_SAMPLES = 100;
+const SAMPLE_GAP_MS = 5;
+
+// Eight feed streams whose rates oscillate at different frequencies for 400 h: the integrator must
+// follow every swing (thousands of steps), while the answer stays small (one point an hour).
+const heavyRun = {
+	mode: 'fedBatch',
+	kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 },
+	initial: { biomassGPerL: 0.5, substrateGPerL: 1, volumeL: 1 },
+	feeds: Array.from({ length: 8 }, (_, i) => ({
+		label: `Stream ${i + 1}`,
+		strategy: 'expression',
+		substrateGPerL: 200,
+		expression: `0.0001 * (1 + sin(${10 * (i + 1)} * t))`
+	})),
+	maxVolumeL: 1000,
+	endH: 400,
+	outputEveryH: 1
+};
+
+function percentile(sortedMs: number[], fraction: number): number {
+	return sortedMs[Math.min(sortedMs.length - 1, Math.floor(sortedMs.length * fraction))];
+}
+
+async function timeHealth(origin: string): Promise<number> {
+	const start = performance.now();
+	const response = await fetch(`${origin}/api/v1/health`);
+	await response.arrayBuffer();
+	if (!response.ok) throw new Error(`health answered ${response.status}`);
+	return performance.now() - start;
+}
+
+async function sampleHealth(origin: string, until: () => boolean): Promise<number[]> {
+	const samples: number[] = [];
+	while (!until()) {
+		samples.push(await timeHealth(origin));
+		await new Promise((done) => setTimeout(done, SAMPLE_GAP_MS));
+	}
+	return samples.sort((a, b) => a - b);
+}
+
+async function simulate(origin: string, cookie: string) {
+	const start = performance.now();
+	const response = await fetch(`${origin}/api/v1/simulate`, {
+		method: 'POST',
+		headers: { 'content-type': 'application/json', cookie },
+		body: JSON.stringify(heavyRun)
+	});
+	await response.arrayBuffer();
+	return { status: response.status, ms: performance.now() - start };
+}
+
+export async function scenario(): Promise<ScenarioFigure[]> {
+	const tmp = resolve('tests/.tmp');
+	mkdirSync(tmp, { recursive: true });
+	const databasePath = join(tmp, `bench-health-${process.pid}.db`);
+	const app = await startApp(databasePath);
+	try {
+		const origin = app.origin;
+		const cookie = await app.signIn('engineer@demo.test');
+		await simulate(origin, cookie); // warm-up: the pool's threads load the worker
+		const idle: number[] = [];
+		for (let i = 0; i < IDLE_SAMPLES; i++) idle.push(await timeHealth(origin));
+		idle.sort((a, b) => a - b);
+		let running = CONCURRENT_SIMULATIONS;
+		const runs = Array.from({ length: CONCURRENT_SIMULATIONS }, () =>
+			simulate(origin, cookie).finally(() => running--)
+		);
+		const loaded = await sampleHealth(origin, () => running === 0);
+		const results = await Promise.all(runs);
+		if (results.some((r) => r.status !== 200))
+			throw new Error(
+				`a simulation answered ${results.map((r) => r.status).join(', ')}: the load was not what this measures`
+			);
+		const figure = (name: string, value: number): ScenarioFigure => ({
+			name,
+			value,
+			target: TARGET_P99_MS,
+			unit: 'ms'
+		});
+		return [
+			figure('health p50, idle', percentile(idle, 0.5)),
+			figure('health p99, idle', percentile(idle, 0.99)),
+			figure(
+				`health p50, ${CONCURRENT_SIMULATIONS} heavy simulations running`,
+				percentile(loaded, 0.5)
+			),
+			figure(
+				`health p99, ${CONCURRENT_SIMULATIONS} heavy simulations running (${loaded.length} samples)`,
+				percentile(loaded, 0.99)
+			)
+		];
+	} finally {
+		app.stop();
+		for (const suffix of ['', '-wal', '-shm']) rmSync(`${databasePath}${suffix}`, { force: true });
+	}
+}
