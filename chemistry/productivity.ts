@@ -7,14 +7,14 @@
  *   μmax·t = (1 + Ks·Y/A)·ln(X/X0) − (Ks·Y/A)·ln(S/S0),   A = X0 + Y·S0.
  * With Pirt's maintenance m_s (Pirt 1965, Proc. R. Soc. Lond. B 163:224), the same organism draws
  * substrate at (μ/Y_G + m_s)·X in the batch too, so both sides of the comparison carry it: the batch
- * is integrated (odex) over the substrate used, σ = S0 − S, from 0 to the harvest conversion:
+ * is integrated (RODAS, chemistry/ode) over the substrate used, σ = S0 − S, from 0 to the harvest conversion:
  *   dX/dσ = μ/(μ/Y_G + m_s),   dt/dσ = 1/((μ/Y_G + m_s)·X),
  * which has no closed form for t. Without maintenance the closed form above is kept.
  * Batch productivity counts the biomass made in one cycle over the growth time plus turnaround;
  * continuous productivity is the chemostat's D·X at steady state (chemostat.ts), with the same m_s.
  * With Ks ≪ S0, D near μmax and no maintenance their ratio approaches ln(Xm/X0) + μmax·t_turnaround.
  */
-import { Outcome, Solver } from '#odex';
+import { RosenbrockSolver } from './ode';
 import { computeChemostatOperatingPoint, validateMonodChemostatParameters } from './chemostat';
 import { ChemistryInputError } from './errors';
 import { NON_NEGATIVE, POSITIVE, readNumber, readOptional, type Bounds } from './input';
@@ -104,12 +104,6 @@ export function computeMonodBatchWithMaintenance(
 	initialSubstrateGPerL: number,
 	substrateGPerL: number
 ): { growthTimeH: number; biomassGPerL: number } {
-	if (typeof Solver !== 'function' || typeof Solver.prototype?.solve !== 'function') {
-		// Under tsx the tsconfig path mapping sends `odex` to its type declaration; say so plainly.
-		throw new Error(
-			'The odex integrator did not load (the module "odex" resolved to its type declaration).'
-		);
-	}
 	const { muMaxPerH, ksGPerL, yieldXS, maintenanceGPerGH } = p;
 	const rates = [0, 0];
 	// state: [t, X]; independent variable σ = S0 − S
@@ -121,17 +115,18 @@ export function computeMonodBatchWithMaintenance(
 		rates[1] = mu / uptakePerBiomass;
 		return rates;
 	};
-	const solver = new Solver(2);
-	solver.absoluteTolerance = BATCH_TOLERANCE;
-	solver.relativeTolerance = BATCH_TOLERANCE;
-	solver.maxSteps = BATCH_MAX_STEPS;
+	const solver = new RosenbrockSolver(2, {
+		absoluteTolerance: BATCH_TOLERANCE,
+		relativeTolerance: BATCH_TOLERANCE,
+		maxSteps: BATCH_MAX_STEPS
+	});
 	const result = solver.solve(
 		derivative,
 		0,
 		[0, initialBiomassGPerL],
 		initialSubstrateGPerL - substrateGPerL
 	);
-	if (result.outcome !== Outcome.Converged) {
+	if (result.outcome !== 'done') {
 		throw new ChemistryInputError(
 			`The batch with maintenance could not be integrated to the harvest conversion in ${BATCH_MAX_STEPS} steps; check maintenanceGPerGH and the kinetics.`,
 			{ field: 'maintenanceGPerGH' }

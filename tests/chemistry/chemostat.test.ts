@@ -255,7 +255,7 @@ describe('computeChemostatSteadyState with Pirt maintenance', () => {
 	});
 
 	it('agrees with the dynamic simulation with maintenance at steady state', () => {
-		// The integrator (odex) reaches the steady state of the same balances, maintenance in full.
+		// The integrator (RODAS) reaches the steady state of the same balances, maintenance in full.
 		const m = 0.05;
 		const steady = computeChemostatSteadyState({
 			...culture,
