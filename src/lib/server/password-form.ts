@@ -1,12 +1,12 @@
 import { z } from 'zod';
-import { MIN_PASSWORD_LENGTH } from './auth/password-policy';
+import { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from './auth/password-policy';
 
 /** A new password typed twice; the policy itself (length, strength) is checked by the domain. */
 export const newPasswordFields = {
 	password: z
 		.string()
 		.min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`)
-		.max(256),
+		.max(MAX_PASSWORD_LENGTH),
 	passwordAgain: z.string()
 };
 

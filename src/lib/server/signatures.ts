@@ -1,10 +1,9 @@
 import { createHash } from 'node:crypto';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import { recordAudit, type Actor } from './audit';
-import { verifyPassword } from './auth/passwords';
+import { checkCountedPassword } from './auth/password-check';
 import { db, type Db } from './db';
 import { eSignature, user, type ESignature } from './db/schema';
-import { claimAttempt, settleAttempt } from './auth/throttle';
 import { RuleError } from './rule-error';
 import { nextLink } from './trail/chain';
 
@@ -74,17 +73,11 @@ export async function checkSigningPassword(
 			subjectId: attempt.subjectId,
 			detail: { meaning: attempt.meaning, reason }
 		});
-	// Signature passwords share the person's count of tries with sign-in.
-	const claim = claimAttempt(person.email, attempt.address ?? 'unknown');
-	if (!claim.allowed) {
-		refuse('too many password tries');
-		throw new RuleError(`${claim.reason} ${words.nothing}`, { field: words.field, status: 429 });
-	}
-	if (!password || !(await verifyPassword(person.passwordHash, password))) {
-		refuse('wrong password');
-		throw new RuleError(words.wrong, { field: words.field });
-	}
-	settleAttempt(claim.attemptId);
+	await checkCountedPassword(person, password, attempt.address, refuse, {
+		field: words.field,
+		wrong: words.wrong,
+		held: words.nothing
+	});
 }
 
 /**

@@ -4,9 +4,9 @@ import { db } from '../db';
 import { passwordReset, user } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { checkPasswordPolicy } from './password-policy';
-import { hashPassword, verifyPassword } from './passwords';
+import { checkCountedPassword } from './password-check';
+import { hashPassword } from './passwords';
 import { invalidateOtherSessions } from './sessions';
-import { claimAttempt, settleAttempt } from './throttle';
 
 export interface PasswordChanger {
 	id: string;
@@ -26,21 +26,11 @@ async function checkCurrentPassword(person: PasswordChanger, password: string, a
 			subjectId: person.id,
 			detail: { reason }
 		});
-	const claim = claimAttempt(person.email, actor.address ?? 'unknown');
-	if (!claim.allowed) {
-		refuse('too many password tries');
-		throw new RuleError(`${claim.reason} ${UNCHANGED}`, {
-			field: 'currentPassword',
-			status: 429
-		});
-	}
-	if (!password || !(await verifyPassword(person.passwordHash, password))) {
-		refuse('wrong current password');
-		throw new RuleError(`The current password is not right. ${UNCHANGED}`, {
-			field: 'currentPassword'
-		});
-	}
-	settleAttempt(claim.attemptId);
+	await checkCountedPassword(person, password, actor.address ?? null, refuse, {
+		field: 'currentPassword',
+		wrong: `The current password is not right. ${UNCHANGED}`,
+		held: UNCHANGED
+	});
 }
 
 /**

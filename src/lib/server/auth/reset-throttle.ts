@@ -1,6 +1,7 @@
 import { and, count, eq, gte, min } from 'drizzle-orm';
 import { db } from '../db';
 import { resetRequest } from '../db/schema';
+import { minutes } from './throttle';
 
 /**
  * Reset links asked for. From one network address the requests are limited and refused openly
@@ -38,11 +39,10 @@ export function claimResetRequest(email: string, address: string, now = Date.now
 			const fromAddress = requestsSince(tx, { address }, since);
 			if (fromAddress.n >= RESET_THROTTLE.maxRequestsPerAddress && fromAddress.oldest) {
 				const waitMs = fromAddress.oldest.getTime() + RESET_THROTTLE.windowMs - now;
-				const minutes = Math.max(1, Math.ceil(waitMs / 60_000));
 				return {
 					allowed: false as const,
 					retryAfterS: Math.ceil(waitMs / 1000),
-					reason: `Too many reset requests from this network address. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`
+					reason: `Too many reset requests from this network address. Try again in ${minutes(waitMs)}.`
 				};
 			}
 			tx.insert(resetRequest)

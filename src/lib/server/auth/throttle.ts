@@ -61,7 +61,8 @@ function pairDelayedUntil(times: number[]): number | null {
 	return times[0] + delay;
 }
 
-function minutes(ms: number): string {
+/** A wait in whole minutes, rounded up, for a refusal's "Try again in …". */
+export function minutes(ms: number): string {
 	const n = Math.max(1, Math.ceil(ms / 60_000));
 	return `${n} minute${n === 1 ? '' : 's'}`;
 }
