@@ -2,20 +2,20 @@ import { and, asc, eq, sql } from 'drizzle-orm';
 import { formatQuantity, type LedgerKind, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { sqliteRefusal } from '../db/errors';
-import { lot, stockEntry, type StockEntry } from '../db/schema';
+import { lot, lotOnHand, stockEntry, type StockEntry } from '../db/schema';
 import { RuleError } from '../rule-error';
 
 type Reader = Pick<Db, 'select'>;
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
-/** On-hand is always computed from the ledger, never stored. */
+/** A lot's stock on hand: its ledger's running sum, kept in `lot_on_hand` by a trigger. */
 export function onHandOf(lotId: string, reader: Reader = db): number {
 	const row = reader
-		.select({ total: sql<number>`coalesce(sum(${stockEntry.quantity}), 0)` })
-		.from(stockEntry)
-		.where(eq(stockEntry.lotId, lotId))
+		.select({ quantity: lotOnHand.quantity })
+		.from(lotOnHand)
+		.where(eq(lotOnHand.lotId, lotId))
 		.get();
-	return Number(row?.total ?? 0);
+	return row?.quantity ?? 0;
 }
 
 /**
