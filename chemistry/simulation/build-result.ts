@@ -21,7 +21,7 @@ export interface FinishedRun {
 export function buildSimulationResult(run: FinishedRun): SimulationResult {
 	const { plan, out: o, regimes } = run;
 	const p = plan.parameters;
-	const n = truncateOutput(o);
+	truncateOutput(o);
 	const o2 = p.oxygen;
 	const maxOtr = o2 === null ? 0 : (o2.kLaPerH * o2.saturationMgPerL) / O2_MOLAR_MASS_G_PER_MOL;
 	const result: SimulationResult = {
@@ -36,10 +36,10 @@ export function buildSimulationResult(run: FinishedRun): SimulationResult {
 			run.feedStreams?.results(
 				run.y,
 				plan.initialState[V],
-				o.streamFeeds.length > 0 ? o.streamFeeds : [o.feed.slice()]
+				o.streamFeeds.length > 0 ? o.streamFeeds : [null]
 			) ?? null,
 		ourMmolPerLH: o2 === null && p.demandYieldXO2 === null ? null : o.our,
-		maxOtrMmolPerLH: o2 === null ? null : new Array<number>(n).fill(maxOtr),
+		maxOtrMmolPerLH: o2 === null ? null : maxOtr,
 		events: run.events.slice().sort((a, b) => a.tH - b.tH),
 		tolerances: { absolute: ABSOLUTE_TOLERANCE, relative: RELATIVE_TOLERANCE },
 		quasiSteadyOxygenH: o2 === null ? null : regimes.quasiSteadyIntervals,

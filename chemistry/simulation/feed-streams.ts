@@ -81,7 +81,8 @@ export class FeedStreams {
 	results(
 		y: readonly number[],
 		initialVolumeL: number,
-		ratesLPerH: readonly number[][]
+		/** each stream's rates; null for a lone stream, whose rate is the run's total */
+		ratesLPerH: readonly (number[] | null)[]
 	): FeedStreamResult[] {
 		return this.feeds.map((feed, i) => ({
 			label: feed.label,

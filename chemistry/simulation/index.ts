@@ -18,6 +18,7 @@ export { SUBSTRATE_STAT_GAIN_PER_MU_MAX, DO_STAT_BAND_FRACTION } from './feeding
 export {
 	MAX_END_H,
 	MAX_OUTPUT_POINTS,
+	DEFAULT_OUTPUT_INTERVALS,
 	MAX_DRAW_CYCLES,
 	MAX_FEED_STREAMS,
 	MAX_FEED_LABEL_LENGTH,
@@ -27,4 +28,5 @@ export {
 } from './request-schema';
 export { simulationResultSchema, SIMULATION_EVENT_KINDS } from './result-schema';
 export { readSimulationRequest } from './validate';
+export { defaultOutputEveryH } from './request-rules';
 export type * from './types';

@@ -7,6 +7,8 @@ import { numberMessage, POSITIVE, type Bounds } from '../input';
 export const MAX_END_H = 1440;
 /** Most output points accepted in one result. */
 export const MAX_OUTPUT_POINTS = 50_000;
+/** At most this many output intervals when the request leaves the interval to the run. */
+export const DEFAULT_OUTPUT_INTERVALS = 2_000;
 /** Most draw-fill cycles accepted in one run. */
 export const MAX_DRAW_CYCLES = 10_000;
 /** Most feed streams accepted in one fed-batch run. */

@@ -4,6 +4,7 @@
 // range stays silent: that field's own refusal says what to fix.
 import type { z } from 'zod';
 import {
+	DEFAULT_OUTPUT_INTERVALS,
 	DILUTION_BOUNDS,
 	END_H_BOUNDS,
 	isWithin,
@@ -97,6 +98,18 @@ function countOutputPoints(
 	return { intervals, pointCount: intervals + 1 + (onGrid ? 0 : 1) };
 }
 
+/**
+ * The output interval when a request gives none: the smallest round step (1, 2 or 5 × 10ⁿ h) that
+ * keeps the run within DEFAULT_OUTPUT_INTERVALS intervals. Enough to draw and read a run; a finer
+ * series is there for the asking, up to MAX_OUTPUT_POINTS.
+ */
+export function defaultOutputEveryH(endH: number): number {
+	const finest = endH / DEFAULT_OUTPUT_INTERVALS;
+	const decade = 10 ** Math.floor(Math.log10(finest));
+	const step = [1, 2, 5, 10].map((m) => m * decade).find((s) => s >= finest * (1 - 1e-12))!;
+	return Number(step.toPrecision(12));
+}
+
 /** Output times of a checked request: every `outputEveryH` from 0, and `endH` where it falls between. */
 export function outputTimesH(endH: number, outputEveryH: number): number[] {
 	const { intervals, pointCount } = countOutputPoints(endH, outputEveryH);
@@ -107,7 +120,12 @@ export function outputTimesH(endH: number, outputEveryH: number): number[] {
 }
 
 function checkOutputCount({ request, report, endH }: RuleContext): void {
-	if (endH === null || !isWithin(request.outputEveryH, POSITIVE)) return;
+	if (
+		endH === null ||
+		request.outputEveryH === undefined ||
+		!isWithin(request.outputEveryH, POSITIVE)
+	)
+		return;
 	const { pointCount } = countOutputPoints(endH, request.outputEveryH);
 	if (pointCount > MAX_OUTPUT_POINTS) {
 		report(

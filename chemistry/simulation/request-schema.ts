@@ -5,12 +5,14 @@ import { z } from 'zod';
 import { checkSimulationRequest } from './request-rules';
 import {
 	boundedNumber,
+	DEFAULT_OUTPUT_INTERVALS,
 	DILUTION_BOUNDS,
 	END_H_BOUNDS,
 	fieldOf,
 	givenNumber,
 	MAX_FEED_LABEL_LENGTH,
 	MAX_FEED_STREAMS,
+	MAX_OUTPUT_POINTS,
 	MU_MAX_BOUNDS,
 	NON_NEGATIVE,
 	POSITIVE,
@@ -23,7 +25,8 @@ export {
 	MAX_END_H,
 	MAX_FEED_LABEL_LENGTH,
 	MAX_FEED_STREAMS,
-	MAX_OUTPUT_POINTS
+	MAX_OUTPUT_POINTS,
+	DEFAULT_OUTPUT_INTERVALS
 } from './request-bounds';
 
 export const OPERATING_MODES = ['batch', 'fedBatch', 'chemostat', 'perfusion', 'drawFill'] as const;
@@ -163,6 +166,10 @@ export const simulationRequestShape = z.strictObject({
 	maxVolumeL: boundedNumber(POSITIVE).optional(),
 	endH: boundedNumber(END_H_BOUNDS),
 	outputEveryH: boundedNumber(POSITIVE)
+		.optional()
+		.describe(
+			`h between output points; absent: the smallest round step (1, 2 or 5 × 10ⁿ h) giving at most ${DEFAULT_OUTPUT_INTERVALS} intervals. At most ${MAX_OUTPUT_POINTS} points.`
+		)
 });
 
 export const simulationRequestSchema = simulationRequestShape.superRefine(checkSimulationRequest);

@@ -25,7 +25,11 @@ export const simulationEventSchema = z.object({
 export const feedStreamResultSchema = z.object({
 	label: z.string().nullable(),
 	strategy: z.enum(FEED_STRATEGIES),
-	feedLPerH: series.describe('this stream’s rate at each output time (0 before its start), L/h'),
+	feedLPerH: series
+		.nullable()
+		.describe(
+			'this stream’s rate at each output time (0 before its start), L/h; null when the run has one stream, whose rate is the run’s feedLPerH'
+		),
 	deliveredL: z
 		.number()
 		.describe(
@@ -56,7 +60,12 @@ export const simulationResultSchema = z.object({
 		.describe(
 			'mmol/L/h: the uptake with an oxygen block (held to kLa·C* where DO is at 0); without one but with kinetics.yieldXO2, the O2 demand of the simulated growth; otherwise null'
 		),
-	maxOtrMmolPerLH: series.nullable().describe('kLa·C*, mmol/L/h'),
+	maxOtrMmolPerLH: z
+		.number()
+		.nullable()
+		.describe(
+			'kLa·C*, mmol/L/h: one figure for the whole run (kLa and C* do not change in it); null without an oxygen block'
+		),
 	events: z.array(simulationEventSchema),
 	tolerances: z.object({ absolute: z.number(), relative: z.number() }),
 	quasiSteadyOxygenH: stretches

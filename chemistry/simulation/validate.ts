@@ -4,7 +4,7 @@ import { ChemistryInputError } from '../errors';
 import { compileFeedExpression, type FeedExpression } from './expression';
 import type { ModelParameters } from './model';
 import { fieldOf } from './request-bounds';
-import { outputTimesH } from './request-rules';
+import { defaultOutputEveryH, outputTimesH } from './request-rules';
 import {
 	simulationRequestSchema,
 	type FeedInput,
@@ -128,7 +128,7 @@ function planSimulation(request: SimulationRequest): SimulationPlan {
 			dissolvedOxygenMgPerL
 		],
 		endH,
-		outputTimesH: outputTimesH(endH, request.outputEveryH),
+		outputTimesH: outputTimesH(endH, request.outputEveryH ?? defaultOutputEveryH(endH)),
 		feeds: null,
 		startH: 0,
 		feedSubstrateGPerL: 0,

@@ -175,7 +175,12 @@ function toCourse(
 		if (k < 0) return { deliveredL: 0, cumulativeL: new Array<number>(result.t.length).fill(0) };
 		return {
 			deliveredL: streams[k].deliveredL,
-			cumulativeL: cumulative(result.t, streams[k].feedLPerH, f.plan.startH, streams[k].deliveredL)
+			cumulativeL: cumulative(
+				result.t,
+				streams[k].feedLPerH ?? result.feedLPerH,
+				f.plan.startH,
+				streams[k].deliveredL
+			)
 		};
 	});
 	return {
@@ -185,7 +190,7 @@ function toCourse(
 		volumeL: result.volumeL,
 		dissolvedOxygenMgPerL: result.dissolvedOxygenMgPerL ?? [],
 		ourMmolPerLH: result.ourMmolPerLH ?? [],
-		maxOtrMmolPerLH: result.maxOtrMmolPerLH ?? [],
+		maxOtrMmolPerLH: result.maxOtrMmolPerLH,
 		oxygenLimitedH: result.oxygenLimitedH ?? [],
 		events: result.events,
 		finalBiomassGPerL: result.biomassGPerL[last],

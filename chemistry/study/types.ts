@@ -155,7 +155,8 @@ export interface TimeCourse {
 	volumeL: number[];
 	dissolvedOxygenMgPerL: number[];
 	ourMmolPerLH: number[];
-	maxOtrMmolPerLH: number[];
+	/** kLa·C* of the run, mmol/L/h: what transfer supplies with DO at 0 */
+	maxOtrMmolPerLH: number | null;
 	/** Stretches with DO at 0, where growth ran at what transfer supplies. */
 	oxygenLimitedH: { fromH: number; toH: number }[];
 	events: SimulationEvent[];

@@ -11,7 +11,8 @@ export interface BenchCase {
 export interface ScenarioFigure {
 	name: string;
 	value: number;
-	target: number;
+	/** absent for a figure shown for context (a size, a count), with no target of its own */
+	target?: number;
 	unit: string;
 }
 

@@ -88,3 +88,31 @@ export async function timeGet(
 	samples.sort((a, b) => a - b);
 	return { medianMs: samples[Math.floor(samples.length / 2)], bytes };
 }
+
+/** Median and size of `runs` JSON POSTs (after one to warm up); fails on any status but 200. */
+export async function timePost(
+	url: string,
+	cookie: string,
+	body: unknown,
+	runs = 15
+): Promise<{ medianMs: number; bytes: number }> {
+	const samples: number[] = [];
+	let bytes = 0;
+	const text = JSON.stringify(body);
+	for (let i = 0; i <= runs; i++) {
+		const start = performance.now();
+		const response = await fetch(url, {
+			method: 'POST',
+			headers: { cookie, 'content-type': 'application/json', 'accept-encoding': 'br, gzip' },
+			body: text
+		});
+		const answer = await response.arrayBuffer();
+		const ms = performance.now() - start;
+		if (response.status !== 200)
+			throw new Error(`${url}: ${response.status} ${new TextDecoder().decode(answer)}`);
+		bytes = Number(response.headers.get('content-length') ?? answer.byteLength);
+		if (i > 0) samples.push(ms);
+	}
+	samples.sort((a, b) => a - b);
+	return { medianMs: samples[Math.floor(samples.length / 2)], bytes };
+}

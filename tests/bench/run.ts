@@ -97,11 +97,16 @@ for (const [file, scenario] of await loadScenarios()) {
 		continue;
 	}
 	for (const figure of figures) {
+		const value = `${figure.value.toFixed(figure.value < 10 ? 2 : 0)} ${figure.unit}`.padStart(14);
+		if (figure.target === undefined) {
+			console.log(`  ${figure.name.padEnd(56)}`, value);
+			continue;
+		}
 		const ratio = figure.value / figure.target;
 		if (ratio > 1) failures++;
 		console.log(
 			`  ${figure.name.padEnd(56)}`,
-			`${figure.value.toFixed(figure.value < 10 ? 2 : 0)} ${figure.unit}`.padStart(14),
+			value,
 			`target ${figure.target} ${figure.unit}`.padStart(18),
 			`${ratio.toFixed(3)}${ratio <= 1 ? ' ' : '!'}`.padStart(8)
 		);

@@ -2,7 +2,7 @@ import type { BenchCase } from './bench';
 import { simulateRun, type SimulationRequest } from '../../chemistry/simulation';
 
 // A cell-culture-like 14-day fed-batch: DO-stat feeding on a vessel with modest oxygen transfer.
-const request: SimulationRequest = {
+export const cellCultureRun: SimulationRequest = {
 	mode: 'fedBatch',
 	kinetics: {
 		muMaxPerH: 0.04,
@@ -30,7 +30,7 @@ const request: SimulationRequest = {
 
 // The same culture fed by three streams: DO-stat glucose, a constant amino-acid feed carrying no
 // modelled substrate, and a capped exponential glucose top-up from day 4.
-const { feed: glucose, ...withoutFeed } = request;
+const { feed: glucose, ...withoutFeed } = cellCultureRun;
 const threeStreams: SimulationRequest = {
 	...withoutFeed,
 	feeds: [
@@ -54,7 +54,7 @@ const threeStreams: SimulationRequest = {
 };
 
 function run(): unknown {
-	return simulateRun(request);
+	return simulateRun(cellCultureRun);
 }
 
 export const benches: BenchCase[] = [

@@ -4,6 +4,7 @@ import { computeChemostatSteadyState } from '../../chemistry/chemostat';
 import { computeMonodBatchTimeH } from '../../chemistry/productivity';
 import {
 	computeExhaustionThresholdGPerL,
+	defaultOutputEveryH,
 	simulateRun,
 	type SimulationRequest,
 	type SimulationResult
@@ -126,6 +127,30 @@ describe('batch', () => {
 		expect(r.t.map((t) => Number(t.toFixed(9)))).toEqual([0, 0.3, 0.6, 0.9, 1]);
 	});
 
+	it('without outputEveryH, outputs on the smallest 1-2-5 step giving at most 2,000 intervals', () => {
+		// 336 h / 2000 = 0.168 h: the next round step is 0.2 h, 1,680 intervals.
+		expect(defaultOutputEveryH(336)).toBe(0.2);
+		expect(defaultOutputEveryH(24)).toBe(0.02);
+		expect(defaultOutputEveryH(1)).toBe(0.0005);
+		expect(defaultOutputEveryH(2000)).toBe(1);
+		expect(defaultOutputEveryH(2001)).toBe(2);
+		expect(defaultOutputEveryH(8760)).toBe(5);
+		fc.assert(
+			fc.property(fc.double({ min: 0.01, max: 20_000, noNaN: true }), (endH) => {
+				const step = defaultOutputEveryH(endH);
+				expect(endH / step).toBeLessThanOrEqual(2000 * (1 + 1e-9));
+				// One notch finer would pass 2,000: 2 → 1, 5 → 2, 1 → 0.5 of the step.
+				const finer = String(step).replace(/0*$/, '').endsWith('5') ? step * 0.4 : step * 0.5;
+				expect(endH / finer).toBeGreaterThan(2000 * (1 - 1e-9));
+			})
+		);
+		const { outputEveryH: _, ...unset } = batch({ endH: 30 });
+		const r = simulateRun(unset);
+		expect(r.t).toHaveLength(1501);
+		expect(r.t[1]).toBeCloseTo(0.02, 12);
+		expect(r.t.at(-1)).toBe(30);
+	});
+
 	it('follows Luedeking–Piret product formation', () => {
 		// Luedeking & Piret 1959: dP/dt = α·dX/dt + β·X; with β = 0 in a batch, P − P0 = α·(X − X0).
 		const r = simulateRun(batch({ kinetics: { ...kinetics, alpha: 0.3 } }));
@@ -149,7 +174,7 @@ describe('oxygen', () => {
 		const upTo = simulateRun({ ...oxygenBatch, endH: event!.tH, outputEveryH: event!.tH });
 		expect(upTo.dissolvedOxygenMgPerL!.at(-1)).toBeCloseTo(0.05 * 7, 6);
 		// O2 = 31.998 g/mol (IUPAC 2021): kLa·C* = 100 /h × 7 mg/L = 700 mg/L/h.
-		expect(r.maxOtrMmolPerLH![0]).toBeCloseTo(700 / 31.998, 10);
+		expect(r.maxOtrMmolPerLH).toBeCloseTo(700 / 31.998, 10);
 	});
 
 	it('integrates DO as a state while it is slow: dC/dt = kLa(C* − C) − OUR', () => {

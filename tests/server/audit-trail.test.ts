@@ -13,6 +13,7 @@ import { describeAction, readableCode } from '$lib/server/trail/describe';
 import { readableEntries, type TrailEntry } from '$lib/server/trail/entries';
 import { unparseCsv } from '$lib/server/csv';
 import { buildTrailPdf } from '$lib/server/trail/export-pdf';
+import { MAX_PDF_ENTRIES } from '$lib/server/trail/export-load';
 import { resolveSubjects, subjectKey } from '$lib/server/trail/subjects';
 import { A4, MARGIN } from '$lib/server/pdf/layout';
 import { GET as csvGet } from '../../src/routes/(app)/admin/audit/export.csv/+server';
@@ -264,6 +265,54 @@ describe('exports of the filtered view', () => {
 		);
 		const parsed = Papa.parse<string[]>((await response.text()).trim());
 		expect(parsed.data).toHaveLength(1 + 120);
+	});
+
+	it('streams a trail longer than a chunk in order, and refuses it as a PDF past the PDF limit', async () => {
+		db.transaction(() => {
+			for (let i = 0; i < MAX_PDF_ENTRIES + 1; i++)
+				recordAudit(
+					{ id: null, email: null },
+					{ action: 'test.beyond_pdf', detail: { from: i, to: i + 1 } }
+				);
+		});
+		const csv = await callJson(
+			csvExport,
+			'GET',
+			'/admin/audit/export.csv?action=test.beyond_pdf&order=oldest',
+			undefined,
+			{ user: admin }
+		);
+		const parsed = Papa.parse<Record<string, string>>((await csv.text()).trim(), { header: true });
+		// More rows than one chunk (2,000), each once, in the order written.
+		expect(parsed.data).toHaveLength(MAX_PDF_ENTRIES + 1);
+		const written = allAuditEvents({ action: 'test.beyond_pdf', order: 'oldest' });
+		expect(parsed.data.map((r) => r['When (UTC)'])).toEqual(
+			readableEntries(written).map((e) => e.atUtc)
+		);
+		const newestFirst = await callJson(
+			csvExport,
+			'GET',
+			'/admin/audit/export.csv?action=test.beyond_pdf',
+			undefined,
+			{ user: admin }
+		);
+		const details = Papa.parse<Record<string, string>>((await newestFirst.text()).trim(), {
+			header: true
+		}).data.map((r) => r['Changes']);
+		expect(new Set(details).size).toBe(MAX_PDF_ENTRIES + 1);
+		expect(details).toEqual(
+			readableEntries(written)
+				.reverse()
+				.map((e) => e.changes.map((c) => `${c.field}: ${c.from} → ${c.to}`).join('; '))
+		);
+		await expect(
+			callJson(pdfExport, 'GET', '/admin/audit/export.pdf?action=test.beyond_pdf', undefined, {
+				user: admin
+			})
+		).rejects.toMatchObject({
+			status: 400,
+			body: { message: expect.stringMatching(/matches 5,001 entries; a PDF holds at most 5,000/) }
+		});
 	});
 
 	it('refuses an export whose filter cannot be read, naming the field', async () => {

@@ -84,9 +84,18 @@ describe(`${COPIES.toLocaleString('en')} lots`, () => {
 		expect(quarantinedLots(today)).toHaveLength(0);
 		// None of the copies expires within 30 days; the listing stops at its limit anyway.
 		expect(expiringLots(30, today).total).toBe(0);
-		const all = expiringLots(400, today, undefined, 10);
-		expect(all).toMatchObject({ total: COPIES + 1 });
+		const all = expiringLots(400, today, undefined, { listed: 10 });
+		expect(all).toMatchObject({ total: COPIES + 1, moreThanTotal: false });
 		expect(all.lots).toHaveLength(10);
+		// The inventory page counts so far and says "more than"; just enough lots is still exact.
+		expect(expiringLots(400, today, undefined, { countUpTo: 1000 })).toMatchObject({
+			total: 1000,
+			moreThanTotal: true
+		});
+		expect(expiringLots(400, today, undefined, { countUpTo: COPIES + 1 })).toMatchObject({
+			total: COPIES + 1,
+			moreThanTotal: false
+		});
 		const text = exportLotsCsv(today);
 		// After its one line of preamble, a header and a row per lot.
 		const csv = Papa.parse<Record<string, string>>(text.slice(text.indexOf('\n') + 1), {

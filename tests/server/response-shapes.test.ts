@@ -225,6 +225,7 @@ const calls: Record<string, () => Promise<Response>> = {
 		expiresOn: '2028-01-05'
 	}),
 	'get /api/v1/lots/{id}': async () => get('/api/v1/lots/[id]', { id: lotId })(),
+	'get /api/v1/lots/{id}/ledger': async () => get('/api/v1/lots/[id]/ledger', { id: lotId })(),
 	'get /api/v1/batches': get('/api/v1/batches'),
 	'post /api/v1/batches': async () =>
 		post('/api/v1/batches', {

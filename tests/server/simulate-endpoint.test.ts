@@ -49,6 +49,23 @@ describe('POST /api/v1/simulate with several feed streams', () => {
 		);
 	});
 
+	it('sends no series twice: a lone stream’s rate is feedLPerH, the maximum OTR one figure', async () => {
+		const { feeds, ...rest } = twoStreams;
+		const response = await postSimulate({
+			...rest,
+			kinetics: { ...rest.kinetics, yieldXO2: 1 },
+			feed: feeds[0],
+			oxygen: { kLaPerH: 100, saturationMgPerL: 7 }
+		});
+		expect(response.status).toBe(200);
+		const body = await response.json();
+		expect(body.feedStreams).toHaveLength(1);
+		expect(body.feedStreams[0].feedLPerH).toBeNull();
+		expect(body.feedLPerH.every((rate: number) => rate === 0.02)).toBe(true);
+		// kLa·C* = 100 /h × 7 mg/L over O2's 31.998 g/mol (IUPAC 2021).
+		expect(body.maxOtrMmolPerLH).toBeCloseTo(700 / 31.998, 10);
+	});
+
 	it('refuses an unknown strategy in a stream as a problem naming feeds.0.strategy', async () => {
 		const feeds = [{ ...twoStreams.feeds[0], strategy: 'pulsed' }, twoStreams.feeds[1]];
 		const response = await postSimulate({ ...twoStreams, feeds });

@@ -114,7 +114,7 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 			(t) => t > course.oxygenLimitedH.at(-1)!.fromH + 0.5 && t < course.oxygenLimitedH.at(-1)!.toH
 		);
 		expect(course.dissolvedOxygenMgPerL[k]).toBe(0);
-		expect(course.ourMmolPerLH[k]).toBeCloseTo(course.maxOtrMmolPerLH[k], 6);
+		expect(course.ourMmolPerLH[k]).toBeCloseTo(course.maxOtrMmolPerLH!, 6);
 		// The plan's demand beside it is higher there: that is what the vessel cannot supply.
 		expect(course.demandOurMmolPerLH![k]).toBeGreaterThan(course.ourMmolPerLH[k]);
 		// The peak OUR is the demand run's up to the target: this plan feeds on past it, and the demand

@@ -1,9 +1,46 @@
+import { Readable } from 'node:stream';
+import type { ReadableStream as NodeReadableStream } from 'node:stream/web';
 import { promisify } from 'node:util';
-import { brotliCompress, constants, gzip } from 'node:zlib';
+import {
+	brotliCompress,
+	constants,
+	createBrotliCompress,
+	createGzip,
+	gzip,
+	type BrotliOptions
+} from 'node:zlib';
 import type { Handle } from '@sveltejs/kit';
 
 const brotli = promisify(brotliCompress);
 const gzipAsync = promisify(gzip);
+
+const streamedBodies = new WeakSet<ReadableStream>();
+
+/**
+ * Marks a body produced a chunk at a time (a site-sized export): it is compressed as it streams,
+ * never read whole into memory first.
+ */
+export function streamedBody<T extends ReadableStream>(body: T): T {
+	streamedBodies.add(body);
+	return body;
+}
+
+function brotliOptions(sizeHint?: number): BrotliOptions {
+	return {
+		params: {
+			// Quality 4: most of brotli's gain at a fraction of its default's (11) time.
+			[constants.BROTLI_PARAM_QUALITY]: 4,
+			...(sizeHint === undefined ? {} : { [constants.BROTLI_PARAM_SIZE_HINT]: sizeHint })
+		}
+	};
+}
+
+function compressedStream(body: ReadableStream, encoding: 'br' | 'gzip'): ReadableStream {
+	const compressor =
+		encoding === 'br' ? createBrotliCompress(brotliOptions()) : createGzip({ level: 6 });
+	const source = Readable.fromWeb(body as NodeReadableStream);
+	return Readable.toWeb(source.pipe(compressor)) as ReadableStream;
+}
 
 /** Below this, compressing saves less than it costs. */
 export const COMPRESS_FROM_BYTES = 8 * 1024;
@@ -39,9 +76,18 @@ export const handleCompression: Handle = async ({ event, resolve }) => {
 		event.request.method === 'HEAD'
 	)
 		return response;
-	const body = Buffer.from(await response.arrayBuffer());
 	const headers = new Headers(response.headers);
 	headers.append('vary', 'Accept-Encoding');
+	if (streamedBodies.has(response.body)) {
+		headers.set('content-encoding', encoding);
+		headers.delete('content-length');
+		return new Response(compressedStream(response.body, encoding), {
+			status: response.status,
+			statusText: response.statusText,
+			headers
+		});
+	}
+	const body = Buffer.from(await response.arrayBuffer());
 	if (body.byteLength < COMPRESS_FROM_BYTES)
 		return new Response(body, {
 			status: response.status,
@@ -50,13 +96,7 @@ export const handleCompression: Handle = async ({ event, resolve }) => {
 		});
 	const compressed =
 		encoding === 'br'
-			? await brotli(body, {
-					params: {
-						// Quality 4: most of brotli's gain at a fraction of its default's (11) time.
-						[constants.BROTLI_PARAM_QUALITY]: 4,
-						[constants.BROTLI_PARAM_SIZE_HINT]: body.byteLength
-					}
-				})
+			? await brotli(body, brotliOptions(body.byteLength))
 			: await gzipAsync(body, { level: 6 });
 	headers.set('content-encoding', encoding);
 	headers.delete('content-length');

@@ -88,6 +88,11 @@ export function unparseCsv(fields: readonly string[], data: unknown[][]): string
 	return Papa.unparse({ fields: [...fields], data }, { escapeFormulae: FORMULA_START });
 }
 
+/** Rows without a header, escaped as `unparseCsv` does: a later chunk of a streamed export. */
+export function unparseCsvRows(data: unknown[][]): string {
+	return Papa.unparse(data, { escapeFormulae: FORMULA_START });
+}
+
 /** Undoes `unparseCsv`'s apostrophe, so an exported file imports back to what was stored. */
 function unescapeFormula(cell: string): string {
 	return cell.startsWith("'") && FORMULA_START.test(cell.slice(1)) ? cell.slice(1) : cell;
@@ -106,14 +111,16 @@ export function toCsv(
 	return header ? `${header}\r\n${table}` : table;
 }
 
-export function csvDownload(csv: string, filename: string): Response {
+export function csvHeaders(filename: string): Record<string, string> {
 	const safe = filename.replace(/[^\w.-]+/g, '-');
-	return new Response(csv, {
-		headers: {
-			'content-type': 'text/csv; charset=utf-8',
-			'content-disposition': `attachment; filename="${safe}"`
-		}
-	});
+	return {
+		'content-type': 'text/csv; charset=utf-8',
+		'content-disposition': `attachment; filename="${safe}"`
+	};
+}
+
+export function csvDownload(csv: string, filename: string): Response {
+	return new Response(csv, { headers: csvHeaders(filename) });
 }
 
 /** The CSV text of an import form: the uploaded file if one was chosen, else the pasted text. */

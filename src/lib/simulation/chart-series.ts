@@ -23,7 +23,12 @@ export const EVENT_LABELS: Record<SimulationEventKind, string> = {
 	draw: 'Draw'
 };
 
-type Quantity = { key: keyof SimulationSeries; label: string; colour: string; axis?: 'y' | 'y2' };
+type Quantity = {
+	key: Exclude<keyof SimulationSeries, 'feedStreams'>;
+	label: string;
+	colour: string;
+	axis?: 'y' | 'y2';
+};
 
 export interface ChartSpec {
 	id: string;
@@ -34,8 +39,11 @@ export interface ChartSpec {
 	markers: ChartMarker[];
 }
 
-function toPoints(t: number[], values: number[] | null): { x: number; y: number }[] {
-	if (!values) return [];
+/** A series as points; a run-wide figure (the maximum OTR) is a level line from start to end. */
+function toPoints(t: number[], values: number[] | number | null): { x: number; y: number }[] {
+	if (values === null) return [];
+	if (typeof values === 'number')
+		return t.length === 0 ? [] : [t[0], t[t.length - 1]].map((x) => ({ x, y: values }));
 	return t.map((x, i) => ({ x, y: values[i] }));
 }
 
@@ -91,7 +99,7 @@ export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 				.filter((q) => run.result[q.key] !== null)
 				.map((q) => ({
 					label: many ? `${run.label}: ${q.label}` : q.label,
-					points: toPoints(run.result.t, run.result[q.key] as number[]),
+					points: toPoints(run.result.t, run.result[q.key]),
 					colour: q.colour,
 					dash: SCENARIO_DASHES[r % SCENARIO_DASHES.length],
 					axis: q.axis

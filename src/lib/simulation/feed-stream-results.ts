@@ -8,10 +8,16 @@ export function feedStreamName(stream: Pick<FeedStreamResult, 'label'>, index: n
 	return stream.label ?? `Feed ${index + 1}`;
 }
 
+export type SeparateFeedStream = FeedStreamResult & { feedLPerH: number[] };
+
 /** The streams to draw and export one by one; a lone stream's rate is the total, so it has none. */
-export function separateFeedStreams(result: FeedStreamsOfRun): FeedStreamResult[] {
+export function separateFeedStreams(result: FeedStreamsOfRun): SeparateFeedStream[] {
 	const streams = result.feedStreams ?? [];
-	return streams.length > 1 ? streams : [];
+	return streams.every((stream): stream is SeparateFeedStream => stream.feedLPerH !== null)
+		? streams.length > 1
+			? streams
+			: []
+		: [];
 }
 
 export interface FeedDelivery {

@@ -2,6 +2,7 @@
 // One table of fields drives rendering, request building and scenario loading, so they cannot drift;
 // the feed streams' own table is in feed-stream-values.ts.
 import {
+	DEFAULT_OUTPUT_INTERVALS,
 	simulationRequestSchema,
 	type FeedInput,
 	type OperatingMode,
@@ -174,7 +175,12 @@ export const NUMBER_FIELDS: NumberField[] = [
 		shows: fed
 	},
 	{ path: 'endH', label: 'End time (h)', group: 'operation' },
-	{ path: 'outputEveryH', label: 'Output every (h)', group: 'operation' }
+	{
+		path: 'outputEveryH',
+		label: 'Output every (h)',
+		group: 'operation',
+		hint: `Optional; blank gives at most ${DEFAULT_OUTPUT_INTERVALS.toLocaleString('en')} intervals`
+	}
 ];
 
 /** A bacterium on glucose, exponentially fed after an 8 h batch, with an O2 balance. */

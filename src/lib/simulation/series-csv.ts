@@ -49,6 +49,12 @@ function streamColumnNames(runs: { result: SimulationSeries }[]): string[] {
 	});
 }
 
+/** A series' value at point `i`; a run-wide figure (the maximum OTR) is repeated on every row. */
+function valueAt(values: number[] | number | null | undefined, i: number): number | '' {
+	if (typeof values === 'number') return values;
+	return values?.[i] ?? '';
+}
+
 /**
  * One row per output time; with several runs, a leading scenario column tells them apart. A run
  * with several feed streams adds one rate column per stream after the others.
@@ -66,7 +72,7 @@ export function formatSeriesCsv(runs: { label: string; result: SimulationSeries 
 		const streams = separateFeedStreams(result);
 		result.t.forEach((_, i) => {
 			const row = [
-				...SERIES_COLUMNS.map(([, key]) => result[key]?.[i] ?? ''),
+				...SERIES_COLUMNS.map(([, key]) => valueAt(result[key], i)),
 				...streamColumns.map((_, s) => streams[s]?.feedLPerH[i] ?? '')
 			];
 			data.push(withLabel ? [label, ...row] : row);

@@ -107,7 +107,10 @@ export const stockEntry = sqliteTable(
 			.$defaultFn(() => new Date())
 	},
 	(t) => [
-		index('stock_entry_lot_idx').on(t.lotId, t.at),
+		// (lot, at, id) and (at, id): a lot's ledger and the whole ledger in the order recorded, read
+		// by keyset a page or an export chunk at a time.
+		index('stock_entry_lot_idx').on(t.lotId, t.at, t.id),
+		index('stock_entry_at_idx').on(t.at, t.id),
 		// Covers the on-hand sum: the ledger of a lot is summed from the index alone.
 		index('stock_entry_lot_quantity_idx').on(t.lotId, t.quantity),
 		index('stock_entry_batch_idx').on(t.batchId)

@@ -125,7 +125,8 @@ export const auditEvent = sqliteTable(
 		...chainColumns()
 	},
 	(t) => [
-		index('audit_at_idx').on(t.at),
+		// (at, seq): the trail's order, so a deep page is counted off in the index alone.
+		index('audit_at_seq_idx').on(t.at, t.seq),
 		index('audit_action_idx').on(t.action),
 		index('audit_subject_idx').on(t.subjectType, t.subjectId, t.at),
 		uniqueIndex('audit_seq_idx').on(t.seq),

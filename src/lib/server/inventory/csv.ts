@@ -1,11 +1,12 @@
-import { asc, eq } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import { formatQuantity, isoToday, type QuantityKind } from '$lib/inventory';
 import { parseCsv, toCsv } from '../csv';
+import { csvText, type CsvExport } from '../csv-export';
 import { db } from '../db';
 import { component, lot, stockEntry, user } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { checkLotInput, type CheckedLot, type LotText } from './lot-input';
-import { listLots } from './lot-list';
+import { listLotsAfter, lotMaterialName, type LotExportKey, type LotRow } from './lot-list';
 import { receiveLots, type SignedActor } from './lots';
 import type { BatchLotUse, TracedUse } from './where-used';
 
@@ -104,8 +105,29 @@ export function importLotCsv(actor: SignedActor, text: string, today = isoToday(
 	).length;
 }
 
-export function exportLotsCsv(today = isoToday()): string {
-	const rows = listLots({}, today).map((l) => ({
+const LOT_EXPORT_COLUMNS = [
+	'lot_id',
+	'component',
+	'component_name',
+	'supplier',
+	'supplier_lot',
+	'status',
+	'expired',
+	'received_on',
+	'expires_on',
+	'date_kind',
+	'base_unit',
+	'received_quantity',
+	'on_hand',
+	'on_hand_text',
+	'storage',
+	'assay_percent',
+	'purity_percent',
+	'water_content_percent'
+] as const;
+
+function lotExportRow(l: LotRow): unknown[] {
+	const cells: Record<(typeof LOT_EXPORT_COLUMNS)[number], unknown> = {
 		lot_id: l.code,
 		component: l.componentId,
 		component_name: l.componentName,
@@ -124,80 +146,103 @@ export function exportLotsCsv(today = isoToday()): string {
 		assay_percent: l.assayPercent ?? '',
 		purity_percent: l.purityPercent ?? '',
 		water_content_percent: l.waterContentPercent ?? ''
-	}));
-	const columns = [
-		'lot_id',
-		'component',
-		'component_name',
-		'supplier',
-		'supplier_lot',
-		'status',
-		'expired',
-		'received_on',
-		'expires_on',
-		'date_kind',
-		'base_unit',
-		'received_quantity',
-		'on_hand',
-		'on_hand_text',
-		'storage',
-		'assay_percent',
-		'purity_percent',
-		'water_content_percent'
-	];
-	return toCsv(rows, columns, [
-		`Lots at Pilot Plant North, exported ${new Date().toISOString()}. Quantities are integers in the base unit (mg or uL).`
-	]);
+	};
+	return LOT_EXPORT_COLUMNS.map((c) => cells[c] ?? '');
+}
+
+/** Every lot, first to expire first, read a chunk at a time. */
+export function lotsExport(today = isoToday()): CsvExport<LotExportKey> {
+	return {
+		columns: LOT_EXPORT_COLUMNS,
+		comments: [
+			`Lots at Pilot Plant North, exported ${new Date().toISOString()}. Quantities are integers in the base unit (mg or uL).`
+		],
+		read: (after, limit) => {
+			const lots = listLotsAfter(after, limit, today);
+			const last = lots.at(-1);
+			return {
+				rows: lots.map(lotExportRow),
+				last: last ? { expiresOn: last.expiresOn, code: last.code } : null
+			};
+		}
+	};
+}
+
+export function exportLotsCsv(today = isoToday()): string {
+	return csvText(lotsExport(today));
+}
+
+const LEDGER_EXPORT_COLUMNS = [
+	'at',
+	'lot_id',
+	'component',
+	'kind',
+	'quantity',
+	'base_unit',
+	'quantity_text',
+	'reason',
+	'batch_id',
+	'by'
+];
+
+interface LedgerExportKey {
+	atMs: number;
+	id: string;
+}
+
+/** The ledger (of one lot, or all of it) in the order recorded, read a chunk at a time. */
+export function ledgerExport(lotId?: string): CsvExport<LedgerExportKey> {
+	return {
+		columns: LEDGER_EXPORT_COLUMNS,
+		comments: ['Stock ledger: append-only. On-hand of a lot is the sum of its quantities.'],
+		read: (after, limit) => {
+			const conditions = [
+				lotId ? eq(stockEntry.lotId, lotId) : undefined,
+				after ? sql`(${stockEntry.at}, ${stockEntry.id}) > (${after.atMs}, ${after.id})` : undefined
+			];
+			const entries = db
+				.select({
+					id: stockEntry.id,
+					at: stockEntry.at,
+					lotCode: lot.code,
+					material: lotMaterialName,
+					kind: stockEntry.kind,
+					quantity: stockEntry.quantity,
+					quantityKind: lot.quantityKind,
+					reason: stockEntry.reason,
+					batchId: stockEntry.batchId,
+					actor: user.email
+				})
+				.from(stockEntry)
+				.innerJoin(lot, eq(stockEntry.lotId, lot.id))
+				.leftJoin(component, eq(lot.componentId, component.id))
+				.leftJoin(user, eq(stockEntry.actorId, user.id))
+				.where(and(...conditions))
+				.orderBy(asc(stockEntry.at), asc(stockEntry.id))
+				.limit(limit)
+				.all();
+			const last = entries.at(-1);
+			return {
+				rows: entries.map((e) => [
+					e.at.toISOString(),
+					e.lotCode,
+					e.material,
+					e.kind,
+					e.quantity,
+					e.quantityKind === 'mass' ? 'mg' : 'uL',
+					formatQuantity(e.quantity, e.quantityKind as QuantityKind),
+					e.reason,
+					e.batchId ?? '',
+					e.actor ?? ''
+				]),
+				last: last ? { atMs: last.at.getTime(), id: last.id } : null
+			};
+		}
+	};
 }
 
 export function exportLedgerCsv(lotId?: string): string {
-	const query = db
-		.select({
-			at: stockEntry.at,
-			lotCode: lot.code,
-			component: component.name,
-			kind: stockEntry.kind,
-			quantity: stockEntry.quantity,
-			quantityKind: lot.quantityKind,
-			reason: stockEntry.reason,
-			batchId: stockEntry.batchId,
-			actor: user.email
-		})
-		.from(stockEntry)
-		.innerJoin(lot, eq(stockEntry.lotId, lot.id))
-		.innerJoin(component, eq(lot.componentId, component.id))
-		.leftJoin(user, eq(stockEntry.actorId, user.id));
-	const entries = (lotId ? query.where(eq(stockEntry.lotId, lotId)) : query)
-		.orderBy(asc(stockEntry.at), asc(stockEntry.id))
-		.all();
-	const columns = [
-		'at',
-		'lot_id',
-		'component',
-		'kind',
-		'quantity',
-		'base_unit',
-		'quantity_text',
-		'reason',
-		'batch_id',
-		'by'
-	];
-	return toCsv(
-		entries.map((e) => ({
-			at: e.at.toISOString(),
-			lot_id: e.lotCode,
-			component: e.component,
-			kind: e.kind,
-			quantity: e.quantity,
-			base_unit: e.quantityKind === 'mass' ? 'mg' : 'uL',
-			quantity_text: formatQuantity(e.quantity, e.quantityKind as QuantityKind),
-			reason: e.reason,
-			batch_id: e.batchId ?? '',
-			by: e.actor ?? ''
-		})),
-		columns,
-		['Stock ledger: append-only. On-hand of a lot is the sum of its quantities.']
-	);
+	return csvText(ledgerExport(lotId));
 }
 
 export function whereUsedCsv(lotCode: string, uses: TracedUse[]): string {

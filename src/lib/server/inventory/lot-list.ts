@@ -44,11 +44,11 @@ export interface LotRow {
 }
 
 /** A stock made here has no component: it is named after its recipe. */
-const componentNameColumn = sql<string>`coalesce(${component.name}, (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = "lot"."source_batch_id"), "lot"."code")`;
+export const lotMaterialName = sql<string>`coalesce(${component.name}, (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = "lot"."source_batch_id"), "lot"."code")`;
 
 const LOT_SORT_COLUMNS = {
 	code: lot.code,
-	component: componentNameColumn,
+	component: lotMaterialName,
 	// Supplier, then their lot number (unit separator between: no name contains it).
 	supplier: sql`${lot.supplier} || char(31) || ${lot.supplierLot}`,
 	status: lot.status,
@@ -87,7 +87,7 @@ function selectLots(reader: Reader) {
 			id: lot.id,
 			code: lot.code,
 			componentId: lot.componentId,
-			componentName: componentNameColumn,
+			componentName: lotMaterialName,
 			supplier: lot.supplier,
 			supplierLot: lot.supplierLot,
 			quantityKind: lot.quantityKind,
@@ -114,6 +114,31 @@ const withExpiry = (today: string) => (r: SelectedLot) => ({
 	expired: isExpired(r.expiresOn, today)
 });
 
+export interface LotExportKey {
+	expiresOn: string;
+	code: string;
+}
+
+/**
+ * The next `limit` lots after `after` in export order (first to expire first, then by code): a
+ * keyset read on the (expires_on, code) index, so each chunk costs the same however deep.
+ */
+export function listLotsAfter(
+	after: LotExportKey | null,
+	limit: number,
+	today = isoToday(),
+	reader: Reader = db
+): LotRow[] {
+	return selectLots(reader)
+		.where(
+			after ? sql`(${lot.expiresOn}, ${lot.code}) > (${after.expiresOn}, ${after.code})` : undefined
+		)
+		.orderBy(asc(lot.expiresOn), asc(lot.code))
+		.limit(limit)
+		.all()
+		.map(withExpiry(today));
+}
+
 /** Every lot the filter matches, first to expire first: for exports and the digest. */
 export function listLots(
 	filter: LotFilter = {},
@@ -136,7 +161,9 @@ export function listLotsPage(
 	filter: LotFilter,
 	paging: Paging<LotSort>,
 	today = isoToday(),
-	reader: Reader = db
+	reader: Reader = db,
+	/** count no further than this: the total is then "at least" (a panel that links to the full list) */
+	countUpTo?: number
 ): ListPage<LotRow> {
 	const where = lotConditions(filter);
 	// By stock: walk lot_on_hand's (quantity, lot_id) index; every lot has its row there.
@@ -169,11 +196,29 @@ export function listLotsPage(
 		.orderBy(...order)
 		.all()
 		.map(withExpiry(today));
-	const counted = reader.select({ n: count() }).from(lot);
-	const total = (
-		filter.search ? counted.leftJoin(component, eq(lot.componentId, component.id)) : counted
+	return { rows, total: countLots(filter, where, reader, countUpTo) };
+}
+
+function countLots(
+	filter: LotFilter,
+	where: SQL | undefined,
+	reader: Reader,
+	countUpTo: number | undefined
+): number {
+	if (countUpTo === undefined) {
+		const counted = reader.select({ n: count() }).from(lot);
+		return (
+			filter.search ? counted.leftJoin(component, eq(lot.componentId, component.id)) : counted
+		)
+			.where(where)
+			.get()!.n;
+	}
+	const matched = reader.select({ one: sql`1` }).from(lot);
+	const firstMatches = (
+		filter.search ? matched.leftJoin(component, eq(lot.componentId, component.id)) : matched
 	)
 		.where(where)
-		.get()!.n;
-	return { rows, total };
+		.limit(countUpTo)
+		.as('first_matches');
+	return reader.select({ n: count() }).from(firstMatches).get()!.n;
 }

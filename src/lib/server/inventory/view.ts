@@ -1,35 +1,25 @@
-import { asc, eq } from 'drizzle-orm';
 import { isExpired, isoToday } from '$lib/inventory';
-import { db } from '../db';
-import { stockEntry, user } from '../db/schema';
 import { personName } from '../recipes/queries';
 import { RuleError } from '../rule-error';
 import { certificatesOf } from './certificates';
 import { onHandOf } from './ledger';
+import { lotLedgerPage, type LedgerCursor } from './ledger-page';
 import { findLot } from './lots';
 import { materialOfLot } from './material';
 import { batchesMadeFromLot } from './where-used';
 
 /** Everything about one lot: what it is, its stock and ledger, certificates and where it was used. */
-export function lotView(lotId: string, today = isoToday()) {
+export function lotView(
+	lotId: string,
+	{
+		today = isoToday(),
+		ledgerBefore = null
+	}: { today?: string; ledgerBefore?: LedgerCursor | null } = {}
+) {
 	const lot = findLot(lotId);
 	if (!lot) throw new RuleError('No lot with this id.', { status: 404 });
 	const material = materialOfLot(lot);
-	const ledger = db
-		.select({
-			id: stockEntry.id,
-			at: stockEntry.at,
-			kind: stockEntry.kind,
-			quantity: stockEntry.quantity,
-			reason: stockEntry.reason,
-			batchId: stockEntry.batchId,
-			by: user.email
-		})
-		.from(stockEntry)
-		.leftJoin(user, eq(stockEntry.actorId, user.id))
-		.where(eq(stockEntry.lotId, lotId))
-		.orderBy(asc(stockEntry.at), asc(stockEntry.id))
-		.all();
+	const ledger = lotLedgerPage(lotId, { before: ledgerBefore });
 	return {
 		lot: {
 			...lot,
@@ -46,7 +36,9 @@ export function lotView(lotId: string, today = isoToday()) {
 		},
 		stock: material.stock,
 		onHand: onHandOf(lotId),
-		ledger,
+		ledger: ledger.entries,
+		ledgerTotal: ledger.total,
+		ledgerEarlier: ledger.earlier,
 		certificates: certificatesOf(lotId).map((c) => ({
 			id: c.id,
 			displayName: c.displayName,

@@ -1,5 +1,7 @@
+import { auditEventsAfter, type AuditFilter, type AuditKey } from '../audit';
 import { unparseCsv } from '../csv';
-import { changeText, type TrailEntry } from './entries';
+import type { CsvExport } from '../csv-export';
+import { changeText, readableEntries, type TrailEntry } from './entries';
 
 export const TRAIL_CSV_COLUMNS = [
 	'When (UTC)',
@@ -14,9 +16,9 @@ export const TRAIL_CSV_COLUMNS = [
 	'From address'
 ] as const;
 
-/** The entries as CSV, one row each, every text cell guarded against formula injection. */
-export function trailCsv(entries: TrailEntry[], origin = ''): string {
-	const data = entries.map((e) => [
+/** The entries as CSV rows, every text cell guarded against formula injection when unparsed. */
+export function trailCsvRows(entries: TrailEntry[], origin = ''): unknown[][] {
+	return entries.map((e) => [
 		e.atUtc,
 		e.who,
 		e.whoEmail ?? '',
@@ -28,5 +30,24 @@ export function trailCsv(entries: TrailEntry[], origin = ''): string {
 		e.action,
 		e.address ?? ''
 	]);
-	return unparseCsv(TRAIL_CSV_COLUMNS, data);
+}
+
+/** The entries as CSV, one row each. */
+export function trailCsv(entries: TrailEntry[], origin = ''): string {
+	return unparseCsv(TRAIL_CSV_COLUMNS, trailCsvRows(entries, origin));
+}
+
+/** Every entry the filter matches as a CSV export read a chunk at a time. */
+export function trailExport(filter: AuditFilter, origin = ''): CsvExport<AuditKey> {
+	return {
+		columns: TRAIL_CSV_COLUMNS,
+		read: (after, limit) => {
+			const rows = auditEventsAfter(filter, after, limit);
+			const last = rows.at(-1);
+			return {
+				rows: trailCsvRows(readableEntries(rows), origin),
+				last: last ? { atMs: last.at.getTime(), seq: last.seq ?? 0 } : null
+			};
+		}
+	};
 }

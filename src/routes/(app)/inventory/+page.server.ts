@@ -7,6 +7,7 @@ import { clientAddress, requirePermission } from '$lib/server/guard';
 import {
 	componentsBelowReorder,
 	componentsWithStockSettings,
+	EXPIRING_COUNTED_UP_TO,
 	expiringLots,
 	quarantinedLots
 } from '$lib/server/inventory/alerts';
@@ -41,7 +42,7 @@ export const load: PageServerLoad = async ({ url }) => {
 	return {
 		days,
 		daysRefused: url.searchParams.has('days') && days !== requested,
-		expiring: expiringLots(days),
+		expiring: expiringLots(days, undefined, undefined, { countUpTo: EXPIRING_COUNTED_UP_TO }),
 		low: componentsBelowReorder(),
 		quarantined: quarantinedLots(),
 		components: componentsWithStockSettings(),

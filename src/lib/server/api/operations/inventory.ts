@@ -9,7 +9,8 @@ import {
 } from '$lib/inventory';
 import type { Lot } from '../../db/schema';
 import { LOT_SORTS, type LotRow } from '../../inventory/lot-list';
-import { pagingFields } from '../../list-paging';
+import { ledgerPageQuery, type LedgerPage } from '../../inventory/ledger-page';
+import { DEFAULT_PAGE_SIZE, pagingFields } from '../../list-paging';
 import type { lotView } from '../../inventory/view';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime } from '../shapes';
@@ -127,6 +128,27 @@ const lotRow = {
 
 export const lotResponse = describes<Lot>()(z.object(lotRow));
 
+const ledgerEntry = z.object({
+	id: z.string(),
+	at: isoTime(),
+	kind: z.enum(LEDGER_KINDS),
+	quantity: baseQuantity('Signed: received positive, taken negative'),
+	reason: z.string(),
+	batchId: z.string().nullable(),
+	by: z.string().nullable().describe('e-mail of who recorded it')
+});
+
+export const ledgerPageResponse = describes<LedgerPage>()(
+	z.object({
+		entries: z.array(ledgerEntry).describe('newest first'),
+		total: z.int().describe("how many entries the lot's ledger has in all"),
+		earlier: z
+			.string()
+			.nullable()
+			.describe('pass as `before` for the page before this one; null on the earliest')
+	})
+);
+
 export const lotViewResponse = describes<ReturnType<typeof lotView>>()(
 	z.object({
 		lot: z.object({
@@ -154,17 +176,16 @@ export const lotViewResponse = describes<ReturnType<typeof lotView>>()(
 			.nullable()
 			.describe('the stock-solution recipe and batch a made-here lot is; null for a received lot'),
 		onHand: baseQuantity('The sum of the ledger'),
-		ledger: z.array(
-			z.object({
-				id: z.string(),
-				at: isoTime(),
-				kind: z.enum(LEDGER_KINDS),
-				quantity: baseQuantity('Signed: received positive, taken negative'),
-				reason: z.string(),
-				batchId: z.string().nullable(),
-				by: z.string().nullable().describe('e-mail of who recorded it')
-			})
-		),
+		ledger: z
+			.array(ledgerEntry)
+			.describe(
+				`the latest ${DEFAULT_PAGE_SIZE} entries, newest first; earlier ones from GET /api/v1/lots/{id}/ledger?before=ledgerEarlier`
+			),
+		ledgerTotal: z.int().describe('how many entries the ledger has in all'),
+		ledgerEarlier: z
+			.string()
+			.nullable()
+			.describe('cursor of the entries before `ledger`; null when it holds them all'),
 		certificates: z.array(
 			z.object({
 				id: z.string(),
@@ -222,8 +243,19 @@ export const inventoryOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/lots/{id}',
-		summary: 'One lot with its ledger, certificates and where-used (batches that used it)',
+		summary:
+			'One lot with its latest ledger entries, certificates and where-used (batches that used it)',
 		act: 'lot.view',
 		response: lotViewResponse
+	},
+	{
+		method: 'get',
+		path: '/api/v1/lots/{id}/ledger',
+		summary:
+			"A lot's stock ledger a page at a time, newest first (keyset: pass `earlier` back as `before`)",
+		act: 'lot.view',
+		query: ledgerPageQuery,
+		response: ledgerPageResponse,
+		errors: [404]
 	}
 ];

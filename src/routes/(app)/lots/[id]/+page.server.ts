@@ -10,6 +10,7 @@ import { attachCertificates, checkCertificateFiles } from '$lib/server/inventory
 import { lotSigningRefusal, signLotDecision } from '$lib/server/inventory/lot-signing';
 import { adjustLot, disposeLot, findLot } from '$lib/server/inventory/lots';
 import { signaturesFor } from '$lib/server/signatures';
+import { decodeLedgerCursor } from '$lib/server/inventory/ledger-page';
 import { lotView } from '$lib/server/inventory/view';
 import { RuleError } from '$lib/server/rule-error';
 import type { Actions, PageServerLoad } from './$types';
@@ -50,8 +51,11 @@ function signingFor(user: { id: string; roles: readonly Role[] }, lotId: string)
 export const load: PageServerLoad = async ({ params, url }) => {
 	const user = requirePermission('lot.view');
 	try {
+		const before = url.searchParams.get('ledgerBefore');
 		return {
-			...lotView(params.id),
+			// A cursor that does not read falls back to the latest entries, as a stale bookmark should.
+			...lotView(params.id, { ledgerBefore: before ? decodeLedgerCursor(before) : null }),
+			ledgerPaged: before !== null && before !== '',
 			signing: signingFor(user, params.id),
 			signatures: signaturesFor('lot', [params.id]),
 			history: auditEventsFor('lot', params.id),

@@ -1,7 +1,7 @@
 import { error } from '@sveltejs/kit';
-import { csvDownload } from '$lib/server/csv';
+import { csvStreamDownload } from '$lib/server/csv-export';
 import { requirePermission } from '$lib/server/guard';
-import { exportLedgerCsv } from '$lib/server/inventory/csv';
+import { ledgerExport } from '$lib/server/inventory/csv';
 import { findLot } from '$lib/server/inventory/lots';
 import type { RequestHandler } from './$types';
 
@@ -11,7 +11,7 @@ export const GET: RequestHandler = async ({ url }) => {
 	if (lotId) {
 		const lot = findLot(lotId);
 		if (!lot) error(404, { message: 'No lot with this id.' });
-		return csvDownload(exportLedgerCsv(lot.id), `ledger-${lot.code}.csv`);
+		return csvStreamDownload(ledgerExport(lot.id), `ledger-${lot.code}.csv`);
 	}
-	return csvDownload(exportLedgerCsv(), `ledger-${new Date().toISOString().slice(0, 10)}.csv`);
+	return csvStreamDownload(ledgerExport(), `ledger-${new Date().toISOString().slice(0, 10)}.csv`);
 };

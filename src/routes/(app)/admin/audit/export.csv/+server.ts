@@ -1,11 +1,11 @@
-import { csvDownload } from '$lib/server/csv';
+import { csvStreamDownload } from '$lib/server/csv-export';
 import { requirePermission } from '$lib/server/guard';
-import { trailCsv } from '$lib/server/trail/export-csv';
-import { entriesToExport, exportFileName } from '$lib/server/trail/export-load';
+import { trailExport } from '$lib/server/trail/export-csv';
+import { exportFileName, exportFilter } from '$lib/server/trail/export-load';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async ({ url }) => {
 	requirePermission('admin.audit');
-	const { entries } = entriesToExport(url);
-	return csvDownload(trailCsv(entries, url.origin), exportFileName('csv'));
+	const { filter } = exportFilter(url);
+	return csvStreamDownload(trailExport(filter, url.origin), exportFileName('csv'));
 };

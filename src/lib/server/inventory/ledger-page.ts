@@ -1,0 +1,103 @@
+// A lot's ledger a page at a time, newest first, by keyset on the (lot, at, id) index: a lot weighed
+// into thousands of batches shows its latest entries at once, and each earlier page costs the same.
+import { and, count, desc, eq, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import { db } from '../db';
+import { stockEntry, user } from '../db/schema';
+import { DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE } from '../list-paging';
+
+export interface LedgerCursor {
+	atMs: number;
+	id: string;
+}
+
+/** The cursor as the address carries it: opaque to clients, `base64url("atMs id")`. */
+export function encodeLedgerCursor(cursor: LedgerCursor): string {
+	return Buffer.from(`${cursor.atMs} ${cursor.id}`).toString('base64url');
+}
+
+export function decodeLedgerCursor(text: string): LedgerCursor | null {
+	const [at, id, ...rest] = Buffer.from(text, 'base64url').toString('utf8').split(' ');
+	const atMs = Number(at);
+	if (!Number.isSafeInteger(atMs) || !id || rest.length) return null;
+	return { atMs, id };
+}
+
+export const ledgerPageQuery = z.object({
+	before: z
+		.string()
+		.max(200)
+		.optional()
+		.refine((v) => v === undefined || decodeLedgerCursor(v) !== null, {
+			error: 'before must be a cursor this list gave (earlier of a previous page).'
+		})
+		.describe('The `earlier` cursor of the page before; absent: the latest entries'),
+	limit: z.coerce
+		.number({ error: 'limit must be a whole number.' })
+		.int('limit must be a whole number.')
+		.min(1, 'limit starts at 1.')
+		.max(MAX_PAGE_SIZE, `limit is at most ${MAX_PAGE_SIZE}.`)
+		.default(DEFAULT_PAGE_SIZE)
+		.describe(`Entries per page (at most ${MAX_PAGE_SIZE})`)
+});
+
+export interface LedgerPage {
+	entries: {
+		id: string;
+		at: Date;
+		kind: typeof stockEntry.$inferSelect.kind;
+		quantity: number;
+		reason: string;
+		batchId: string | null;
+		by: string | null;
+	}[];
+	/** every entry of the lot */
+	total: number;
+	/** the cursor of the next page back; null on the earliest */
+	earlier: string | null;
+}
+
+/** The `limit` entries of a lot before the cursor (absent: the latest), newest first. */
+export function lotLedgerPage(
+	lotId: string,
+	{ before, limit = DEFAULT_PAGE_SIZE }: { before?: LedgerCursor | null; limit?: number } = {}
+): LedgerPage {
+	const rows = db
+		.select({
+			id: stockEntry.id,
+			at: stockEntry.at,
+			kind: stockEntry.kind,
+			quantity: stockEntry.quantity,
+			reason: stockEntry.reason,
+			batchId: stockEntry.batchId,
+			by: user.email
+		})
+		.from(stockEntry)
+		.leftJoin(user, eq(stockEntry.actorId, user.id))
+		.where(
+			and(
+				eq(stockEntry.lotId, lotId),
+				before
+					? sql`(${stockEntry.at}, ${stockEntry.id}) < (${before.atMs}, ${before.id})`
+					: undefined
+			)
+		)
+		.orderBy(desc(stockEntry.at), desc(stockEntry.id))
+		.limit(limit + 1)
+		.all();
+	const entries = rows.slice(0, limit);
+	const last = entries.at(-1);
+	const [{ total }] = db
+		.select({ total: count() })
+		.from(stockEntry)
+		.where(eq(stockEntry.lotId, lotId))
+		.all();
+	return {
+		entries,
+		total,
+		earlier:
+			rows.length > limit && last
+				? encodeLedgerCursor({ atMs: last.at.getTime(), id: last.id })
+				: null
+	};
+}
