@@ -12,6 +12,7 @@ export default defineConfig({
 			'tests/security/**/*.test.ts'
 		],
 		environment: 'node',
+		globalSetup: ['tests/global-setup.ts'],
 		setupFiles: ['tests/setup.ts'],
 		expect: { requireAssertions: true },
 		// Generous for a busy 2-core machine: a hook seeding a demo database hashes passwords

@@ -7,6 +7,9 @@ test.describe('an invitation, end to end through the outbox', () => {
 		page,
 		browser
 	}) => {
+		// Two people, three sessions and a password set then changed: each password is hashed with
+		// argon2id on purpose slowly, so this journey needs more than one page's time.
+		test.slow();
 		const email = `new-${Date.now()}@demo.test`;
 		await page.goto('/admin/people/invite');
 		await page.getByLabel('E-mail').fill(email);

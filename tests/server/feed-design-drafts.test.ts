@@ -2,11 +2,13 @@ import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { db } from '$lib/server/db';
 import { auditEvent, recipe, recipeVersion, study } from '$lib/server/db/schema';
-import { seedDemo } from '$lib/server/demo/seed';
 import { findUserByEmail, rolesOf } from '$lib/server/people';
 import { analyseVersion } from '$lib/server/recipes/analysis';
 import { linesOf } from '$lib/server/recipes/queries';
 import { postJson } from './endpoint-call';
+import { useDemoDatabase } from './demo-database';
+
+useDemoDatabase();
 
 // The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.
 vi.mock('$app/server', async (importOriginal) => ({
@@ -52,7 +54,6 @@ let engineer: ReturnType<typeof demoUser>;
 const recipeCount = () => db.select().from(recipe).all().length;
 
 beforeAll(async () => {
-	await seedDemo();
 	studyId = db.select().from(study).where(eq(study.name, BACTERIUM_STUDY)).get()!.id;
 	scientist = demoUser('scientist@demo.test');
 	engineer = demoUser('engineer@demo.test');

@@ -1,20 +1,18 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { findBiomassComposition, resolveElementStatements } from '$chemistry';
 import { db } from '$lib/server/db';
 import { organismProfile, study } from '$lib/server/db/schema';
-import { seedDemo } from '$lib/server/demo/seed';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { checkProfileFormula, describeProfileElements } from '$lib/server/studies/profile-elements';
 import { profileFormValues } from '$lib/server/studies/profile-store';
 import { loadStudyInputs } from '$lib/server/studies/queries';
 import { createProfileForm } from './profile-form';
+import { useDemoDatabase } from './demo-database';
+
+useDemoDatabase();
 
 const NEIDHARDT = findBiomassComposition('bacterium-neidhardt-1990')!;
-
-beforeAll(async () => {
-	await seedDemo();
-});
 
 const { saved, failure } = createProfileForm('Elements', {
 	group: 'bacterium',

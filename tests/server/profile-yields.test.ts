@@ -1,11 +1,9 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { ATOMIC_WEIGHTS, formulaMolarMass, listYieldsUsed } from '$chemistry';
-import { seedDemo } from '$lib/server/demo/seed';
 import { createProfileForm } from './profile-form';
+import { useDemoDatabase } from './demo-database';
 
-beforeAll(async () => {
-	await seedDemo();
-});
+useDemoDatabase();
 
 const { saved, failure } = createProfileForm('Profile', {
 	group: 'bacterium',

@@ -5,10 +5,12 @@ import type { z } from 'zod';
 import { allOperations } from '$lib/server/api/openapi';
 import { db } from '$lib/server/db';
 import { batch, batchLine, recipe, recipeVersion, study } from '$lib/server/db/schema';
-import { seedDemo } from '$lib/server/demo/seed';
 import { saveScenario } from '$lib/server/scenarios';
 import { callJson } from './endpoint-call';
 import { makeUser } from './helpers';
+import { useDemoDatabase } from './demo-database';
+
+useDemoDatabase();
 
 // The endpoints' guard reads the event through getRequestEvent: see endpoint-call.ts.
 vi.mock('$app/server', async (importOriginal) => ({
@@ -263,7 +265,6 @@ async function answerOf(key: string): Promise<Record<string, unknown>> {
 }
 
 beforeAll(async () => {
-	await seedDemo();
 	scientist = await makeUser(['engineer', 'media_scientist', 'inventory_lead'], password);
 	user = { id: scientist.id, email: scientist.email, name: 'Shapes', roles: scientist.roles };
 	scenarioId = saveScenario(

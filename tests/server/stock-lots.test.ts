@@ -10,6 +10,10 @@ import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { addDays } from '$lib/server/inventory/alerts';
 import { ledgerOf, onHandOf } from '$lib/server/inventory/ledger';
 import { findLotByCode } from '$lib/server/inventory/lots';
+import { listLotsPage } from '$lib/server/inventory/lot-list';
+import { db } from '$lib/server/db';
+import { component, recipe } from '$lib/server/db/schema';
+import { eq, sql } from 'drizzle-orm';
 import { batchesMadeFromLot } from '$lib/server/inventory/where-used';
 import { makeBatch, stockAndMedium, planBatch } from './batch-fixtures';
 import { makeUser } from './helpers';
@@ -82,5 +86,44 @@ describe('stock solutions made here', () => {
 			[stockBatch.number, 1, null],
 			[b.number, 2, stockBatch.number]
 		]);
+	});
+
+	it('sort by material: a stock by its recipe’s name, a raw lot by its component’s through a rename', async () => {
+		const raw = makeLot(lead.actor, { component: 'magnesium-sulfate' });
+		const stockBatch = await makeBatch(tech, stockRecipe.recipeId, 0.5, [raw.code], reviewer);
+		const stockCode = findLotByCode(stockBatch.number)!.code;
+		const byMaterial = () =>
+			listLotsPage({}, { page: 1, limit: 200, sort: 'component', dir: 'asc' }, today).rows;
+		const nameOf = (code: string) => byMaterial().find((r) => r.code === code)!.componentName;
+		db.update(component)
+			.set({ name: 'Zzz magnesium sulfate' })
+			.where(eq(component.id, 'magnesium-sulfate'))
+			.run();
+		const stockName = db.select().from(recipe).where(eq(recipe.id, stockRecipe.recipeId)).get()!
+			.name;
+		expect(nameOf(stockCode)).toBe(stockName);
+		expect(nameOf(raw.code)).toBe('Zzz magnesium sulfate');
+		// The order is the material names' own, then the codes (compared independently here).
+		const rows = byMaterial();
+		const sorted = [...rows].sort((a, b) =>
+			a.componentName === b.componentName
+				? a.code < b.code
+					? -1
+					: 1
+				: a.componentName < b.componentName
+					? -1
+					: 1
+		);
+		expect(rows.map((r) => r.code)).toEqual(sorted.map((r) => r.code));
+		expect(rows.at(-1)!.componentName).toBe('Zzz magnesium sulfate');
+		// Every lot's kept name is the one worked out from its component or recipe now.
+		const stale = db.all(
+			sql.raw(
+				`select l.code from lot l join lot_material_name m on m.lot_id = l.id
+				 where m.name <> coalesce((select c.name from component c where c.id = l.component_id),
+				   (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = l.source_batch_id), l.code)`
+			)
+		);
+		expect(stale).toEqual([]);
 	});
 });

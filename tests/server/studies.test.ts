@@ -1,9 +1,8 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { AIR_O2_MOLE_FRACTION, ATOMIC_WEIGHTS, formulaMolarMass } from '$chemistry';
 import { db } from '$lib/server/db';
 import { recipe, recipeVersion, study } from '$lib/server/db/schema';
-import { seedDemo } from '$lib/server/demo/seed';
 import { RuleError } from '$lib/server/rule-error';
 import { listComponents } from '$lib/server/components/library';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
@@ -19,6 +18,9 @@ import { describeVersions, listProfiles, loadStudyInputs } from '$lib/server/stu
 import { listStudiesPage } from '$lib/server/studies/study-list';
 import type { StudyForm } from '$lib/server/studies/study-form';
 import { createStudy } from '$lib/server/studies/study-store';
+import { useDemoDatabase } from './demo-database';
+
+useDemoDatabase();
 
 const YEAST_STUDY = 'Yeast glycerol fed-batch, bench (demo)';
 const BACTERIUM_STUDY = 'Bacterium glucose fed-batch, pilot (demo)';
@@ -37,10 +39,6 @@ function ruleErrorOf(run: () => unknown): RuleError {
 	}
 	throw new Error('expected a RuleError');
 }
-
-beforeAll(async () => {
-	await seedDemo();
-});
 
 describe('a study on the demo data, checked by hand', () => {
 	it('finds nitrogen limiting the yeast fed-batch, at the density worked out here', async () => {

@@ -3,13 +3,15 @@ import { eq } from 'drizzle-orm';
 import { ATOMIC_WEIGHTS, formulaMolarMass } from '$chemistry';
 import { db } from '$lib/server/db';
 import { study } from '$lib/server/db/schema';
-import { seedDemo } from '$lib/server/demo/seed';
 import { RuleError } from '$lib/server/rule-error';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
 import type { StudyForm } from '$lib/server/studies/study-form';
 import { createStudy, studyFormValues } from '$lib/server/studies/study-store';
 import type { StudyInputs } from '$lib/server/studies/types';
+import { useDemoDatabase } from './demo-database';
+
+useDemoDatabase();
 
 const TWO_FEEDS = 'Yeast DO-stat with nitrogen top-up, bench (demo)';
 const PILOT = 'Bacterium glucose fed-batch, pilot (demo)';
@@ -17,7 +19,6 @@ const studyId = (name: string) => db.select().from(study).where(eq(study.name, n
 
 let engineer: { id: string; email: string };
 beforeAll(async () => {
-	await seedDemo();
 	engineer = { id: db.select().from(study).get()!.createdById, email: 'engineer@demo.test' };
 });
 

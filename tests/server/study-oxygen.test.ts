@@ -1,24 +1,22 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { study } from '$lib/server/db/schema';
-import { seedDemo } from '$lib/server/demo/seed';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
 import { parseForm } from '$lib/server/forms';
 import { studySchema } from '$lib/server/studies/study-form';
 import { createStudy, studyFormValues } from '$lib/server/studies/study-store';
 import type { StudyInputs, StudyReport, WhatIf } from '$lib/server/studies/types';
+import { useDemoDatabase } from './demo-database';
+
+useDemoDatabase();
 
 const BACTERIUM_STUDY = 'Bacterium glucose fed-batch, pilot (demo)';
 const YEAST_STUDY = 'Yeast glycerol fed-batch, bench (demo)';
 
 const studyRow = (name: string) => db.select().from(study).where(eq(study.name, name)).get()!;
 const inputsOf = (name: string) => loadStudyInputs(studyRow(name).id).inputs;
-
-beforeAll(async () => {
-	await seedDemo();
-});
 
 /**
  * Follows the study's advice and evaluates again: the oxygen transfer then meets the demand (within

@@ -1,11 +1,13 @@
 import type { RequestEvent, RequestHandler } from '@sveltejs/kit';
-import { beforeAll, describe, expect, it, vi } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { study } from '$lib/server/db/schema';
-import { seedDemo } from '$lib/server/demo/seed';
 import { sufficiencyLineResponse, sufficiencyResponse } from '$chemistry';
 import { evaluateResponse } from '$lib/server/api/operations/studies';
+import { useDemoDatabase } from './demo-database';
+
+useDemoDatabase();
 
 // The endpoints' guard reads the request through getRequestEvent, which only the SvelteKit server
 // sets; this test hands it the event it builds, as strict-requests.test.ts does.
@@ -79,10 +81,6 @@ const m9 = {
 		source: 'Common practice for E. coli on glucose'
 	}
 };
-
-beforeAll(async () => {
-	await seedDemo();
-});
 
 describe('POST /api/v1/sufficiency says for every value its role, its confidence and its source', () => {
 	it('answers the M9 case with N as the limit at 0.26187 / 0.14 = 1.87 g/L and Fe, Ca as warnings', async () => {

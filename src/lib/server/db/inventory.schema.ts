@@ -133,6 +133,23 @@ export const lotOnHand = sqliteTable(
 	(t) => [index('lot_on_hand_quantity_idx').on(t.quantity, t.lotId)]
 );
 
+/**
+ * Each lot's material name (its component's, or for a stock made here its recipe's) beside its
+ * code, kept by triggers (migration 0038) through renames: the lot list sorts by material on the
+ * (name, code) index instead of working the name out for every lot of a site.
+ */
+export const lotMaterialName = sqliteTable(
+	'lot_material_name',
+	{
+		lotId: text('lot_id')
+			.primaryKey()
+			.references(() => lot.id),
+		name: text('name').notNull(),
+		code: text('code').notNull()
+	},
+	(t) => [index('lot_material_name_order_idx').on(t.name, t.code, t.lotId)]
+);
+
 export type Lot = typeof lot.$inferSelect;
 export type LotCertificate = typeof lotCertificate.$inferSelect;
 export type StockEntry = typeof stockEntry.$inferSelect;

@@ -3,10 +3,10 @@ import { formatQuantity, isoToday, type QuantityKind } from '$lib/inventory';
 import { parseCsv, toCsv } from '../csv';
 import { csvText, type CsvExport } from '../csv-export';
 import { db } from '../db';
-import { component, lot, stockEntry, user } from '../db/schema';
+import { lot, lotMaterialName, stockEntry, user } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { checkLotInput, type CheckedLot, type LotText } from './lot-input';
-import { listLotsAfter, lotMaterialName, type LotExportKey, type LotRow } from './lot-list';
+import { listLotsAfter, type LotExportKey, type LotRow } from './lot-list';
 import { receiveLots, type SignedActor } from './lots';
 import type { BatchLotUse, TracedUse } from './where-used';
 
@@ -205,7 +205,7 @@ export function ledgerExport(lotId?: string): CsvExport<LedgerExportKey> {
 					id: stockEntry.id,
 					at: stockEntry.at,
 					lotCode: lot.code,
-					material: lotMaterialName,
+					material: lotMaterialName.name,
 					kind: stockEntry.kind,
 					quantity: stockEntry.quantity,
 					quantityKind: lot.quantityKind,
@@ -215,7 +215,7 @@ export function ledgerExport(lotId?: string): CsvExport<LedgerExportKey> {
 				})
 				.from(stockEntry)
 				.innerJoin(lot, eq(stockEntry.lotId, lot.id))
-				.leftJoin(component, eq(lot.componentId, component.id))
+				.innerJoin(lotMaterialName, eq(lotMaterialName.lotId, lot.id))
 				.leftJoin(user, eq(stockEntry.actorId, user.id))
 				.where(and(...conditions))
 				.orderBy(asc(stockEntry.at), asc(stockEntry.id))

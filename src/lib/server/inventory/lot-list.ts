@@ -1,7 +1,7 @@
 import { and, asc, count, eq, inArray, lte, ne, sql, type SQL } from 'drizzle-orm';
 import { isExpired, isoToday, type LotStatus, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
-import { component, lot, lotOnHand } from '../db/schema';
+import { component, lot, lotMaterialName, lotOnHand } from '../db/schema';
 import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import { searchMatch } from '../search-match';
 import { onHandColumn } from './ledger';
@@ -43,12 +43,10 @@ export interface LotRow {
 	waterContentPercent: number | null;
 }
 
-/** A stock made here has no component: it is named after its recipe. */
-export const lotMaterialName = sql<string>`coalesce(${component.name}, (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = "lot"."source_batch_id"), "lot"."code")`;
-
 const LOT_SORT_COLUMNS = {
 	code: lot.code,
-	component: lotMaterialName,
+	// The material's name as lot_material_name keeps it: a stock made here is named after its recipe.
+	component: lotMaterialName.name,
 	// Supplier, then their lot number (unit separator between: no name contains it).
 	supplier: sql`${lot.supplier} || char(31) || ${lot.supplierLot}`,
 	status: lot.status,
@@ -87,7 +85,7 @@ function selectLots(reader: Reader) {
 			id: lot.id,
 			code: lot.code,
 			componentId: lot.componentId,
-			componentName: lotMaterialName,
+			componentName: sql<string>`coalesce(${lotMaterialName.name}, ${lot.code})`,
 			supplier: lot.supplier,
 			supplierLot: lot.supplierLot,
 			quantityKind: lot.quantityKind,
@@ -105,7 +103,8 @@ function selectLots(reader: Reader) {
 		})
 		.from(lot)
 		.leftJoin(component, eq(lot.componentId, component.id))
-		.leftJoin(lotOnHand, eq(lotOnHand.lotId, lot.id));
+		.leftJoin(lotOnHand, eq(lotOnHand.lotId, lot.id))
+		.leftJoin(lotMaterialName, eq(lotMaterialName.lotId, lot.id));
 }
 
 type SelectedLot = Omit<LotRow, 'expired'>;
@@ -166,26 +165,35 @@ export function listLotsPage(
 	countUpTo?: number
 ): ListPage<LotRow> {
 	const where = lotConditions(filter);
-	// By stock: walk lot_on_hand's (quantity, lot_id) index; every lot has its row there.
+	// By stock or by material: walk the (quantity, lot_id) or (name, code) index of the table kept
+	// beside the lots; every lot has its row in both.
 	const byStock = paging.sort === 'onHand';
+	const byMaterial = paging.sort === 'component';
 	const order = orderFor(
 		LOT_SORT_COLUMNS[paging.sort],
 		paging.dir,
-		byStock ? lotOnHand.lotId : lot.code
+		byStock ? lotOnHand.lotId : byMaterial ? lotMaterialName.code : lot.code
 	);
-	const needsComponent = paging.sort === 'component' || Boolean(filter.search);
 	const ids = byStock
 		? reader
 				.select({ id: lotOnHand.lotId })
 				.from(lotOnHand)
 				.innerJoin(lot, eq(lot.id, lotOnHand.lotId))
 				.leftJoin(component, eq(lot.componentId, component.id))
-		: needsComponent
-			? reader
-					.select({ id: lot.id })
-					.from(lot)
-					.leftJoin(component, eq(lot.componentId, component.id))
-			: reader.select({ id: lot.id }).from(lot);
+		: byMaterial
+			? where === undefined
+				? reader.select({ id: lotMaterialName.lotId }).from(lotMaterialName)
+				: reader
+						.select({ id: lotMaterialName.lotId })
+						.from(lotMaterialName)
+						.innerJoin(lot, eq(lot.id, lotMaterialName.lotId))
+						.leftJoin(component, eq(lot.componentId, component.id))
+			: filter.search
+				? reader
+						.select({ id: lot.id })
+						.from(lot)
+						.leftJoin(component, eq(lot.componentId, component.id))
+				: reader.select({ id: lot.id }).from(lot);
 	const pageIds = ids
 		.where(where)
 		.orderBy(...order)
