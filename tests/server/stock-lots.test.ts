@@ -12,12 +12,12 @@ import { ledgerOf, onHandOf } from '$lib/server/inventory/ledger';
 import { findLotByCode } from '$lib/server/inventory/lots';
 import { listLotsPage } from '$lib/server/inventory/lot-list';
 import { db } from '$lib/server/db';
-import { component, recipe } from '$lib/server/db/schema';
+import { component, lot, recipe } from '$lib/server/db/schema';
 import { eq, sql } from 'drizzle-orm';
 import { batchesMadeFromLot } from '$lib/server/inventory/where-used';
 import { makeBatch, stockAndMedium, planBatch } from './batch-fixtures';
 import { makeUser } from './helpers';
-import { makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
+import { decideLot, makeApprovedRecipe, makeLead, makeLot, today } from './inventory-fixtures';
 
 type Person = Awaited<ReturnType<typeof makeUser>>;
 let lead: Awaited<ReturnType<typeof makeLead>>;
@@ -116,14 +116,43 @@ describe('stock solutions made here', () => {
 		);
 		expect(rows.map((r) => r.code)).toEqual(sorted.map((r) => r.code));
 		expect(rows.at(-1)!.componentName).toBe('Zzz magnesium sulfate');
-		// Every lot's kept name is the one worked out from its component or recipe now.
+		// Within one status, from the kept key alone: the same lots the lot table itself holds.
+		const quarantined = makeLot(lead.actor, {
+			component: 'magnesium-sulfate',
+			status: 'quarantine'
+		});
+		const inQuarantine = listLotsPage(
+			{ status: 'quarantine' },
+			{ page: 1, limit: 200, sort: 'component', dir: 'asc' },
+			today
+		);
+		const expected = db
+			.select({ code: lot.code })
+			.from(lot)
+			.where(eq(lot.status, 'quarantine'))
+			.all();
+		expect(inQuarantine.rows.map((r) => r.code).sort()).toEqual(expected.map((r) => r.code).sort());
+		expect(inQuarantine.rows.map((r) => r.code)).toContain(quarantined.code);
+		decideLot(lead.actor, quarantined.id, 'released', '');
+		expect(
+			listLotsPage(
+				{ status: 'quarantine' },
+				{ page: 1, limit: 200, sort: 'component', dir: 'asc' },
+				today
+			).rows.map((r) => r.code)
+		).not.toContain(quarantined.code);
+		// Every lot's kept key is the one worked out from its component or recipe, and its status, now.
 		const stale = db.all(
 			sql.raw(
-				`select l.code from lot l join lot_material_name m on m.lot_id = l.id
-				 where m.name <> coalesce((select c.name from component c where c.id = l.component_id),
+				`select l.code from lot l join lot_list_key k on k.lot_id = l.id
+				 where k.status <> l.status or k.code <> l.code or k.material_name <> coalesce(
+				   (select c.name from component c where c.id = l.component_id),
 				   (select r.name from recipe r join batch b on b.recipe_id = r.id where b.id = l.source_batch_id), l.code)`
 			)
 		);
 		expect(stale).toEqual([]);
+		expect(db.all(sql.raw('select count(*) n from lot_list_key'))).toEqual(
+			db.all(sql.raw('select count(*) n from lot'))
+		);
 	});
 });

@@ -19,7 +19,7 @@ export interface CsvExport<K> {
 	read: CsvChunkReader<K>;
 }
 
-export const CSV_CHUNK_ROWS = 2000;
+export const CSV_CHUNK_ROWS = 250;
 
 function preamble(comments: string[] = []): string {
 	return comments.map((c) => `# ${c.replace(/[\r\n]+/g, ' ')}\r\n`).join('');

@@ -11,7 +11,6 @@ import { resolve } from 'node:path';
 import { MessageChannel } from 'node:worker_threads';
 import { error } from '@sveltejs/kit';
 import { Piscina } from 'piscina';
-import { dev } from '$app/environment';
 import { RuleError } from './rule-error';
 import { simulationTimeLimitS } from './simulation-settings';
 import {
@@ -23,6 +22,10 @@ import {
 	type TaskAnswer
 } from './simulation-tasks';
 import { BUILT_SIMULATION_WORKER, DEV_SIMULATION_WORKER } from './simulation-worker-files.js';
+
+// Vite's flag rather than $app/environment's: the same under vite dev, the build and vitest, and
+// scripts run outside Vite (npm run seed:scale under tsx) can load this module too.
+const dev = Boolean(import.meta.env?.DEV);
 
 /** One thread per core but one, which stays free for the requests; at least one. */
 export const SIMULATION_THREADS = Math.max(1, availableParallelism() - 1);

@@ -134,20 +134,25 @@ export const lotOnHand = sqliteTable(
 );
 
 /**
- * Each lot's material name (its component's, or for a stock made here its recipe's) beside its
- * code, kept by triggers (migration 0038) through renames: the lot list sorts by material on the
- * (name, code) index instead of working the name out for every lot of a site.
+ * What the lot list sorts and filters on most, kept beside each lot by triggers (migration 0038):
+ * its material's name (its component's, or for a stock made here its recipe's) and its status.
+ * The list then sorts by material, whole or within one status, on an index instead of working the
+ * name out and sorting every lot of a site.
  */
-export const lotMaterialName = sqliteTable(
-	'lot_material_name',
+export const lotListKey = sqliteTable(
+	'lot_list_key',
 	{
 		lotId: text('lot_id')
 			.primaryKey()
 			.references(() => lot.id),
-		name: text('name').notNull(),
-		code: text('code').notNull()
+		materialName: text('material_name').notNull(),
+		code: text('code').notNull(),
+		status: text('status').$type<LotStatus>().notNull()
 	},
-	(t) => [index('lot_material_name_order_idx').on(t.name, t.code, t.lotId)]
+	(t) => [
+		index('lot_list_key_material_idx').on(t.materialName, t.code, t.lotId),
+		index('lot_list_key_status_material_idx').on(t.status, t.materialName, t.code, t.lotId)
+	]
 );
 
 export type Lot = typeof lot.$inferSelect;

@@ -3,7 +3,7 @@ import { formatQuantity, isoToday, type QuantityKind } from '$lib/inventory';
 import { parseCsv, toCsv } from '../csv';
 import { csvText, type CsvExport } from '../csv-export';
 import { db } from '../db';
-import { lot, lotMaterialName, stockEntry, user } from '../db/schema';
+import { lot, lotListKey, stockEntry, user } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { checkLotInput, type CheckedLot, type LotText } from './lot-input';
 import { listLotsAfter, type LotExportKey, type LotRow } from './lot-list';
@@ -200,26 +200,33 @@ export function ledgerExport(lotId?: string): CsvExport<LedgerExportKey> {
 				lotId ? eq(stockEntry.lotId, lotId) : undefined,
 				after ? sql`(${stockEntry.at}, ${stockEntry.id}) > (${after.atMs}, ${after.id})` : undefined
 			];
-			const entries = db
-				.select({
-					id: stockEntry.id,
-					at: stockEntry.at,
-					lotCode: lot.code,
-					material: lotMaterialName.name,
-					kind: stockEntry.kind,
-					quantity: stockEntry.quantity,
-					quantityKind: lot.quantityKind,
-					reason: stockEntry.reason,
-					batchId: stockEntry.batchId,
-					actor: user.email
-				})
+			// The chunk is cut from the ledger's own (at, id) order first, in a subquery the planner
+			// cannot flatten; joined in one query, SQLite chose to sort the whole ledger per chunk.
+			const chunk = db
+				.select()
 				.from(stockEntry)
-				.innerJoin(lot, eq(stockEntry.lotId, lot.id))
-				.innerJoin(lotMaterialName, eq(lotMaterialName.lotId, lot.id))
-				.leftJoin(user, eq(stockEntry.actorId, user.id))
 				.where(and(...conditions))
 				.orderBy(asc(stockEntry.at), asc(stockEntry.id))
 				.limit(limit)
+				.as('chunk');
+			const entries = db
+				.select({
+					id: chunk.id,
+					at: chunk.at,
+					lotCode: lot.code,
+					material: lotListKey.materialName,
+					kind: chunk.kind,
+					quantity: chunk.quantity,
+					quantityKind: lot.quantityKind,
+					reason: chunk.reason,
+					batchId: chunk.batchId,
+					actor: user.email
+				})
+				.from(chunk)
+				.innerJoin(lot, eq(chunk.lotId, lot.id))
+				.innerJoin(lotListKey, eq(lotListKey.lotId, lot.id))
+				.leftJoin(user, eq(chunk.actorId, user.id))
+				.orderBy(asc(chunk.at), asc(chunk.id))
 				.all();
 			const last = entries.at(-1);
 			return {

@@ -1,7 +1,7 @@
 import { and, asc, count, eq, inArray, lte, ne, sql, type SQL } from 'drizzle-orm';
 import { isExpired, isoToday, type LotStatus, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
-import { component, lot, lotMaterialName, lotOnHand } from '../db/schema';
+import { component, lot, lotListKey, lotOnHand } from '../db/schema';
 import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import { searchMatch } from '../search-match';
 import { onHandColumn } from './ledger';
@@ -46,7 +46,7 @@ export interface LotRow {
 const LOT_SORT_COLUMNS = {
 	code: lot.code,
 	// The material's name as lot_material_name keeps it: a stock made here is named after its recipe.
-	component: lotMaterialName.name,
+	component: lotListKey.materialName,
 	// Supplier, then their lot number (unit separator between: no name contains it).
 	supplier: sql`${lot.supplier} || char(31) || ${lot.supplierLot}`,
 	status: lot.status,
@@ -85,7 +85,7 @@ function selectLots(reader: Reader) {
 			id: lot.id,
 			code: lot.code,
 			componentId: lot.componentId,
-			componentName: sql<string>`coalesce(${lotMaterialName.name}, ${lot.code})`,
+			componentName: sql<string>`coalesce(${lotListKey.materialName}, ${lot.code})`,
 			supplier: lot.supplier,
 			supplierLot: lot.supplierLot,
 			quantityKind: lot.quantityKind,
@@ -104,7 +104,7 @@ function selectLots(reader: Reader) {
 		.from(lot)
 		.leftJoin(component, eq(lot.componentId, component.id))
 		.leftJoin(lotOnHand, eq(lotOnHand.lotId, lot.id))
-		.leftJoin(lotMaterialName, eq(lotMaterialName.lotId, lot.id));
+		.leftJoin(lotListKey, eq(lotListKey.lotId, lot.id));
 }
 
 type SelectedLot = Omit<LotRow, 'expired'>;
@@ -165,14 +165,15 @@ export function listLotsPage(
 	countUpTo?: number
 ): ListPage<LotRow> {
 	const where = lotConditions(filter);
-	// By stock or by material: walk the (quantity, lot_id) or (name, code) index of the table kept
-	// beside the lots; every lot has its row in both.
+	// By stock or by material: walk the (quantity, lot_id) or (status, material, code) index of the
+	// table kept beside the lots; every lot has its row in both. With no filter but the status, the
+	// material order is read from lot_list_key alone.
 	const byStock = paging.sort === 'onHand';
 	const byMaterial = paging.sort === 'component';
 	const order = orderFor(
 		LOT_SORT_COLUMNS[paging.sort],
 		paging.dir,
-		byStock ? lotOnHand.lotId : byMaterial ? lotMaterialName.code : lot.code
+		byStock ? lotOnHand.lotId : byMaterial ? lotListKey.code : lot.code
 	);
 	const ids = byStock
 		? reader
@@ -181,12 +182,12 @@ export function listLotsPage(
 				.innerJoin(lot, eq(lot.id, lotOnHand.lotId))
 				.leftJoin(component, eq(lot.componentId, component.id))
 		: byMaterial
-			? where === undefined
-				? reader.select({ id: lotMaterialName.lotId }).from(lotMaterialName)
+			? filtersOnlyStatus(filter)
+				? reader.select({ id: lotListKey.lotId }).from(lotListKey)
 				: reader
-						.select({ id: lotMaterialName.lotId })
-						.from(lotMaterialName)
-						.innerJoin(lot, eq(lot.id, lotMaterialName.lotId))
+						.select({ id: lotListKey.lotId })
+						.from(lotListKey)
+						.innerJoin(lot, eq(lot.id, lotListKey.lotId))
 						.leftJoin(component, eq(lot.componentId, component.id))
 			: filter.search
 				? reader
@@ -195,7 +196,13 @@ export function listLotsPage(
 						.leftJoin(component, eq(lot.componentId, component.id))
 				: reader.select({ id: lot.id }).from(lot);
 	const pageIds = ids
-		.where(where)
+		.where(
+			byMaterial && filtersOnlyStatus(filter)
+				? filter.status
+					? eq(lotListKey.status, filter.status)
+					: undefined
+				: where
+		)
 		.orderBy(...order)
 		.limit(paging.limit)
 		.offset(offsetOf(paging));
@@ -205,6 +212,13 @@ export function listLotsPage(
 		.all()
 		.map(withExpiry(today));
 	return { rows, total: countLots(filter, where, reader, countUpTo) };
+}
+
+/** Whether the filter asks for nothing but (at most) a status; any other field, even a new one, counts. */
+function filtersOnlyStatus(filter: LotFilter): boolean {
+	return Object.entries(filter).every(
+		([field, value]) => field === 'status' || value === undefined || value === false || value === ''
+	);
 }
 
 function countLots(
