@@ -227,6 +227,10 @@ const calls: Record<string, () => Promise<Response>> = {
 		expiresOn: '2028-01-05'
 	}),
 	'get /api/v1/lots/{id}': async () => get('/api/v1/lots/[id]', { id: lotId })(),
+	'get /api/v1/audit': async () =>
+		callJson((await route('/api/v1/audit')).GET, 'get', '/api/v1/audit?limit=5', undefined, {
+			user: { ...user, roles: ['admin'] }
+		}),
 	'get /api/v1/lots/{id}/ledger': async () => get('/api/v1/lots/[id]/ledger', { id: lotId })(),
 	'get /api/v1/batches': get('/api/v1/batches'),
 	'post /api/v1/batches': async () =>

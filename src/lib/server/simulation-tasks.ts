@@ -13,12 +13,18 @@ import {
 	fitGrowthCurve,
 	simulateRun,
 	type SimulationFailureReason,
+	type SimulationRequest,
 	type StudyInputs,
 	type WhatIf
 } from '$chemistry';
 
 export const SCIENCE_TASKS = {
-	simulate: simulateRun,
+	// The answer of POST /api/v1/simulate as JSON text, written here: a string crosses to the request
+	// thread as one copy, where the result's objects would be cloned and then stringified there.
+	simulate: (request: SimulationRequest) => {
+		const { tolerances, integratorSteps, quasiSteadyOxygenH, ...series } = simulateRun(request);
+		return JSON.stringify({ ...series, quasiSteadyOxygenH, tolerances, integratorSteps });
+	},
 	chemostat: computeChemostatSteadyState,
 	batchVersusContinuous: compareBatchWithContinuous,
 	growthFit: fitGrowthCurve,

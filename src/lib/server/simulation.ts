@@ -19,11 +19,13 @@ const FAILURE_ADVICE: Record<SimulationFailedError['reason'], string> = {
  */
 export async function runSimulation(request: SimulationRequest) {
 	try {
-		const { tolerances, integratorSteps, quasiSteadyOxygenH, ...result } = await runInPool(
-			'simulate',
-			request
-		);
-		return { ...result, quasiSteadyOxygenH, tolerances, integratorSteps };
+		const answer = await runInPool('simulate', request);
+		return new Response(answer, {
+			headers: {
+				'content-type': 'application/json',
+				'content-length': String(Buffer.byteLength(answer))
+			}
+		});
 	} catch (cause) {
 		if (cause instanceof SimulationFailedError) {
 			throw new ApiProblem(

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { accessFor, type Act } from '$lib/permissions';
+import { auditOperations } from './operations/audit';
 import { chemistryOperations } from './operations/chemistry';
 import { foundationOperations } from './operations/foundation';
 import { inventoryOperations } from './operations/inventory';
@@ -61,7 +62,8 @@ export function allOperations(): ApiOperation[] {
 		...simulationOperations,
 		...inventoryOperations,
 		...batchesOperations,
-		...studiesOperations
+		...studiesOperations,
+		...auditOperations
 	];
 }
 

@@ -1,0 +1,46 @@
+// The trail for scripts: the same filter as the trail page, a page at a time by keyset cursor on
+// the (at, seq) index, so a client walks a site's whole trail at the same cost per page.
+
+import { auditEventsAfter, listAuditEvents, type AuditFilter, type AuditKey } from '../audit';
+import { readableEntries } from './entries';
+
+export function encodeAuditCursor(key: AuditKey): string {
+	return Buffer.from(`${key.atMs} ${key.seq}`).toString('base64url');
+}
+
+export function decodeAuditCursor(text: string): AuditKey | null {
+	const parts = Buffer.from(text, 'base64url').toString('utf8').split(' ');
+	const [atMs, seq] = parts.map(Number);
+	if (parts.length !== 2 || !Number.isSafeInteger(atMs) || !Number.isSafeInteger(seq)) return null;
+	return { atMs, seq };
+}
+
+/** `limit` entries matching the filter after the cursor, in the filter's order, with their count. */
+export function auditApiPage(filter: AuditFilter, after: AuditKey | null, limit: number) {
+	const rows = auditEventsAfter(filter, after, limit + 1);
+	const shown = rows.slice(0, limit);
+	const sentences = readableEntries(shown);
+	const last = shown.at(-1);
+	return {
+		entries: shown.map((row, i) => ({
+			id: row.id,
+			seq: row.seq ?? 0,
+			at: row.at,
+			actorId: row.actorId,
+			actorEmail: row.actorEmail,
+			action: row.action,
+			sentence: sentences[i].sentence,
+			subjectType: row.subjectType,
+			subjectId: row.subjectId,
+			detail: row.detail ?? null,
+			address: row.address
+		})),
+		total: listAuditEvents({ ...filter, page: 1, pageSize: 1 }).total,
+		next:
+			rows.length > limit && last
+				? encodeAuditCursor({ atMs: last.at.getTime(), seq: last.seq ?? 0 })
+				: null
+	};
+}
+
+export type AuditApiPage = ReturnType<typeof auditApiPage>;
