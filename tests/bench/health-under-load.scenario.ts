@@ -1,10 +1,8 @@
 // How quickly the built server answers a health check while four heavy simulations run: they run
 // in the worker pool, so the request thread should stay free. Starts the build on a fresh database,
 // samples GET /api/v1/health idle and under load, and reports p50 and p99 against the target.
-import { mkdirSync, rmSync } from 'node:fs';
-import { join, resolve } from 'node:path';
 import type { ScenarioFigure } from './bench';
-import { startApp } from './http-server';
+import { withFreshApp } from './http-server';
 
 const TARGET_P99_MS = 20;
 const CONCURRENT_SIMULATIONS = 4;
@@ -61,12 +59,8 @@ async function simulate(origin: string, cookie: string) {
 	return { status: response.status, ms: performance.now() - start };
 }
 
-export async function scenario(): Promise<ScenarioFigure[]> {
-	const tmp = resolve('tests/.tmp');
-	mkdirSync(tmp, { recursive: true });
-	const databasePath = join(tmp, `bench-health-${process.pid}.db`);
-	const app = await startApp(databasePath);
-	try {
+export function scenario(): Promise<ScenarioFigure[]> {
+	return withFreshApp('health', async (app) => {
 		const origin = app.origin;
 		const cookie = await app.signIn('engineer@demo.test');
 		await simulate(origin, cookie); // warm-up: the pool's threads load the worker
@@ -101,8 +95,5 @@ export async function scenario(): Promise<ScenarioFigure[]> {
 				percentile(loaded, 0.99)
 			)
 		];
-	} finally {
-		app.stop();
-		for (const suffix of ['', '-wal', '-shm']) rmSync(`${databasePath}${suffix}`, { force: true });
-	}
+	});
 }

@@ -2,11 +2,11 @@
 // built server (validation, the worker pool, serialisation and compression included): the 14-day
 // microbial fed-batch with an O2 balance and the cell-culture run at their default output, a
 // study's evaluation and a recipe preview.
-import { mkdirSync, readFileSync, rmSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { SimulationRequest } from '../../chemistry/simulation';
 import type { ScenarioFigure } from './bench';
-import { startApp, timeGet, timePost } from './http-server';
+import { withFreshApp, timeGet, timePost } from './http-server';
 import { cellCultureRun } from './simulation.bench';
 
 const reference: { cases: { name: string; request: SimulationRequest }[] } = JSON.parse(
@@ -70,19 +70,15 @@ async function firstStudyId(origin: string, cookie: string): Promise<string> {
 	return studies[0].id;
 }
 
-export async function scenario(): Promise<ScenarioFigure[]> {
-	const tmp = resolve('tests/.tmp');
-	mkdirSync(tmp, { recursive: true });
-	const databasePath = join(tmp, `bench-requests-${process.pid}.db`);
-	const app = await startApp(databasePath);
-	try {
+export function scenario(): Promise<ScenarioFigure[]> {
+	return withFreshApp('requests', async (app) => {
 		const { origin } = app;
 		const engineer = await app.signIn('engineer@demo.test');
 		const scientist = await app.signIn('scientist@demo.test');
 		const figures: ScenarioFigure[] = [];
 		const add = (name: string, ms: number, bytes: number, target: number) => {
 			figures.push({ name, value: ms, target, unit: 'ms' });
-			figures.push({ name: `  bytes sent`, value: bytes / 1024, unit: 'KB' });
+			figures.push({ name: `  size of the answer`, value: bytes / 1024, unit: 'KB' });
 		};
 		const simulate = (request: SimulationRequest) =>
 			timePost(`${origin}/api/v1/simulate`, engineer, request);
@@ -127,8 +123,5 @@ export async function scenario(): Promise<ScenarioFigure[]> {
 			unit: 'ms'
 		});
 		return figures;
-	} finally {
-		app.stop();
-		for (const suffix of ['', '-wal', '-shm']) rmSync(`${databasePath}${suffix}`, { force: true });
-	}
+	});
 }

@@ -2,44 +2,27 @@
 // into thousands of batches shows its latest entries at once, and each earlier page costs the same.
 import { and, count, desc, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
+import { cursorFields, decodeCursorParts, encodeCursor } from '../cursor';
 import { db } from '../db';
 import { stockEntry, user } from '../db/schema';
-import { DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE } from '../list-paging';
+import { DEFAULT_PAGE_SIZE } from '../list-paging';
 
 export interface LedgerCursor {
 	atMs: number;
 	id: string;
 }
 
-/** The cursor as the address carries it: opaque to clients, `base64url("atMs id")`. */
 export function encodeLedgerCursor(cursor: LedgerCursor): string {
-	return Buffer.from(`${cursor.atMs} ${cursor.id}`).toString('base64url');
+	return encodeCursor([cursor.atMs, cursor.id]);
 }
 
 export function decodeLedgerCursor(text: string): LedgerCursor | null {
-	const [at, id, ...rest] = Buffer.from(text, 'base64url').toString('utf8').split(' ');
-	const atMs = Number(at);
-	if (!Number.isSafeInteger(atMs) || !id || rest.length) return null;
-	return { atMs, id };
+	const parts = decodeCursorParts(text, 2);
+	const atMs = Number(parts?.[0]);
+	return parts && Number.isSafeInteger(atMs) ? { atMs, id: parts[1] } : null;
 }
 
-export const ledgerPageQuery = z.object({
-	before: z
-		.string()
-		.max(200)
-		.optional()
-		.refine((v) => v === undefined || decodeLedgerCursor(v) !== null, {
-			error: 'before must be a cursor this list gave (earlier of a previous page).'
-		})
-		.describe('The `earlier` cursor of the page before; absent: the latest entries'),
-	limit: z.coerce
-		.number({ error: 'limit must be a whole number.' })
-		.int('limit must be a whole number.')
-		.min(1, 'limit starts at 1.')
-		.max(MAX_PAGE_SIZE, `limit is at most ${MAX_PAGE_SIZE}.`)
-		.default(DEFAULT_PAGE_SIZE)
-		.describe(`Entries per page (at most ${MAX_PAGE_SIZE})`)
-});
+export const ledgerPageQuery = z.object(cursorFields('before', decodeLedgerCursor, 'earlier'));
 
 export interface LedgerPage {
 	entries: {

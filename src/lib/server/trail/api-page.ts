@@ -2,17 +2,16 @@
 // the (at, seq) index, so a client walks a site's whole trail at the same cost per page.
 
 import { auditEventsAfter, listAuditEvents, type AuditFilter, type AuditKey } from '../audit';
+import { decodeCursorParts, encodeCursor } from '../cursor';
 import { readableEntries } from './entries';
 
 export function encodeAuditCursor(key: AuditKey): string {
-	return Buffer.from(`${key.atMs} ${key.seq}`).toString('base64url');
+	return encodeCursor([key.atMs, key.seq]);
 }
 
 export function decodeAuditCursor(text: string): AuditKey | null {
-	const parts = Buffer.from(text, 'base64url').toString('utf8').split(' ');
-	const [atMs, seq] = parts.map(Number);
-	if (parts.length !== 2 || !Number.isSafeInteger(atMs) || !Number.isSafeInteger(seq)) return null;
-	return { atMs, seq };
+	const [atMs, seq] = decodeCursorParts(text, 2)?.map(Number) ?? [];
+	return Number.isSafeInteger(atMs) && Number.isSafeInteger(seq) ? { atMs, seq } : null;
 }
 
 /** `limit` entries matching the filter after the cursor, in the filter's order, with their count. */

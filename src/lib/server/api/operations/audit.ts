@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE } from '../../list-paging';
+import { cursorFields } from '../../cursor';
 import { decodeAuditCursor, type AuditApiPage } from '../../trail/api-page';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime } from '../shapes';
@@ -17,21 +17,7 @@ export const auditListQuery = z.object({
 	order: z
 		.enum(['newest', 'oldest'], { error: 'order must be newest or oldest.' })
 		.default('newest'),
-	after: z
-		.string()
-		.max(200)
-		.optional()
-		.refine((v) => v === undefined || decodeAuditCursor(v) !== null, {
-			error: 'after must be a cursor this list gave (next of a previous page).'
-		})
-		.describe('The `next` cursor of the page before; absent: from the first entry'),
-	limit: z.coerce
-		.number({ error: 'limit must be a whole number.' })
-		.int('limit must be a whole number.')
-		.min(1, 'limit starts at 1.')
-		.max(MAX_PAGE_SIZE, `limit is at most ${MAX_PAGE_SIZE}.`)
-		.default(DEFAULT_PAGE_SIZE)
-		.describe(`Entries per page (at most ${MAX_PAGE_SIZE})`)
+	...cursorFields('after', decodeAuditCursor, 'next')
 });
 
 export const auditListResponse = describes<AuditApiPage>()(

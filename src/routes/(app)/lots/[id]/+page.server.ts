@@ -48,13 +48,19 @@ function signingFor(user: { id: string; roles: readonly Role[] }, lotId: string)
 	return { decisions: [...decisions], allowed: refusal === null, refusal };
 }
 
+const WHERE_USED_SHOWN = 100;
+
 export const load: PageServerLoad = async ({ params, url }) => {
 	const user = requirePermission('lot.view');
 	try {
 		const before = url.searchParams.get('ledgerBefore');
+		// A cursor that does not read falls back to the latest entries, as a stale bookmark should.
+		const view = lotView(params.id, { ledgerBefore: before ? decodeLedgerCursor(before) : null });
 		return {
-			// A cursor that does not read falls back to the latest entries, as a stale bookmark should.
-			...lotView(params.id, { ledgerBefore: before ? decodeLedgerCursor(before) : null }),
+			...view,
+			// A lot in a site's every batch would make the page heavy: the rest are in the CSV.
+			whereUsed: view.whereUsed.slice(0, WHERE_USED_SHOWN),
+			whereUsedTotal: view.whereUsed.length,
 			ledgerPaged: before !== null && before !== '',
 			signing: signingFor(user, params.id),
 			signatures: signaturesFor('lot', [params.id]),
