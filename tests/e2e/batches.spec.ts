@@ -1,19 +1,8 @@
 import jsQR from 'jsqr';
 import { PNG } from 'pngjs';
+import { planBatch } from './batch-helpers';
 import { DEMO_PASSWORD, expect, pageAs, test } from './fixtures';
 import type { Page } from '@playwright/test';
-
-async function planBatch(page: Page, use: string): Promise<string> {
-	await page.goto('/batches/new');
-	await page
-		.getByLabel('Recipe (approved version)')
-		.selectOption({ label: 'NB-Min Salts 3 · version 1' });
-	await page.getByLabel('Target volume (L)').fill('1');
-	await page.getByLabel('Intended use (vessel or run)').fill(use);
-	await page.getByRole('button', { name: 'Plan the batch' }).click();
-	await expect(page.getByRole('heading', { name: /^Batch MB-\d{4}-\d{4}$/ })).toBeVisible();
-	return page.url().split('/').pop()!;
-}
 
 function decodeQr(dataUrl: string): string | null {
 	const png = PNG.sync.read(Buffer.from(dataUrl.split(',')[1], 'base64'));
