@@ -1,17 +1,6 @@
 import type { Page } from '@playwright/test';
+import { planBatch } from './batch-helpers';
 import { DEMO_PASSWORD, SECOND_SCIENTIST, expect, pageAs, test } from './fixtures';
-
-async function planBatch(page: Page, use: string): Promise<string> {
-	await page.goto('/batches/new');
-	await page
-		.getByLabel('Recipe (approved version)')
-		.selectOption({ label: 'NB-Min Salts 3 · version 1' });
-	await page.getByLabel('Target volume (L)').fill('1');
-	await page.getByLabel('Intended use (vessel or run)').fill(use);
-	await page.getByRole('button', { name: 'Plan the batch' }).click();
-	await expect(page.getByRole('heading', { name: /^Batch MB-\d{4}-\d{4}$/ })).toBeVisible();
-	return page.url().split('/').pop()!;
-}
 
 async function chooseSuggestedLot(page: Page, n: number) {
 	const card = page.getByTestId(`line-${n}`);
