@@ -4,7 +4,7 @@
 import { brotliDecompressSync } from 'node:zlib';
 import type { RequestEvent } from '@sveltejs/kit';
 import Papa from 'papaparse';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { handleCompression } from '$lib/server/compression';
 import { unparseCsv } from '$lib/server/csv';
 import { csvStreamDownload, csvText, type CsvExport } from '$lib/server/csv-export';
@@ -65,5 +65,29 @@ describe('CSV exports read by keyset chunks', () => {
 		clearInterval(ticker);
 		expect(brotliDecompressSync(bytes).toString()).toBe(whole);
 		expect(turns).toBeGreaterThan(0);
+	});
+
+	it('ends a download short when a chunk fails, and the server goes on', async () => {
+		// A full first chunk, then a read that fails.
+		const failing: CsvExport<number> = {
+			columns,
+			read: (after, limit) => {
+				if (after !== null) throw new Error('the disk went away');
+				return { rows: Array.from({ length: limit }, (_, i) => row(i + 1)), last: limit };
+			}
+		};
+		const event = {
+			request: new Request('http://127.0.0.1/lots/export.csv', {
+				headers: { 'accept-encoding': 'gzip' }
+			})
+		} as unknown as RequestEvent;
+		const errors = vi.spyOn(console, 'error').mockImplementation(() => {});
+		const response = await handleCompression({
+			event,
+			resolve: async () => csvStreamDownload(failing, 'x.csv')
+		});
+		await expect(response.arrayBuffer()).rejects.toThrow();
+		expect(errors).toHaveBeenCalled();
+		errors.mockRestore();
 	});
 });

@@ -3,8 +3,12 @@
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { adjustLot } from '$lib/server/inventory/lots';
-import { ledgerOf } from '$lib/server/inventory/ledger';
+import { db } from '$lib/server/db';
+import { appendStockEntry, ledgerOf } from '$lib/server/inventory/ledger';
 import { lotView } from '$lib/server/inventory/view';
+import Papa from 'papaparse';
+import { csvText } from '$lib/server/csv-export';
+import { ledgerExport } from '$lib/server/inventory/csv';
 import { callJson } from './endpoint-call';
 import { makeLead, makeLot } from './inventory-fixtures';
 
@@ -32,6 +36,13 @@ beforeAll(async () => {
 		});
 });
 
+/** Independent order: every entry sorted here by time, then id (entries of one millisecond), newest first. */
+function newestFirstIds(lot: string): string[] {
+	return [...ledgerOf(lot)]
+		.sort((a, b) => b.at.getTime() - a.at.getTime() || (a.id < b.id ? 1 : -1))
+		.map((e) => e.id);
+}
+
 async function ledgerPage(lot: string, query = '') {
 	const response = await callJson(GET, 'GET', `/api/v1/lots/${lot}/ledger${query}`, undefined, {
 		user: lead,
@@ -42,10 +53,7 @@ async function ledgerPage(lot: string, query = '') {
 
 describe('a lot’s ledger, a page at a time', () => {
 	it('walks every entry once, newest first, with the honest total', async () => {
-		// Independent order: the whole ledger as stored, oldest first, reversed.
-		const expected = ledgerOf(lotId)
-			.map((e) => e.id)
-			.reverse();
+		const expected = newestFirstIds(lotId);
 		expect(expected).toHaveLength(ADJUSTMENTS + 1);
 		const seen: string[] = [];
 		let query = '?limit=50';
@@ -61,11 +69,57 @@ describe('a lot’s ledger, a page at a time', () => {
 		expect(seen).toEqual(expected);
 	});
 
+	it('pages through many entries of one millisecond, each once', async () => {
+		const lot = makeLot(lead.actor);
+		const sameMoment = new Date('2026-06-01T08:00:00.000Z');
+		const written = Array.from(
+			{ length: 7 },
+			(_, i) =>
+				appendStockEntry(db, {
+					lotId: lot.id,
+					kind: 'adjustment',
+					quantity: -1,
+					reason: `same ms ${i}`,
+					actorId: lead.id,
+					at: sameMoment
+				}).id
+		);
+		const seen: string[] = [];
+		let query = '?limit=3';
+		for (;;) {
+			const { body } = await ledgerPage(lot.id, query);
+			seen.push(...body.entries.map((e: { id: string }) => e.id));
+			if (!body.earlier) break;
+			query = `?limit=3&before=${body.earlier}`;
+		}
+		// The receipt is newest (made now); the seven of one millisecond follow by id, descending.
+		expect(seen.slice(1)).toEqual([...written].sort().reverse());
+	});
+
+	it('exports the lot’s ledger in time order, read by keyset chunks', () => {
+		// Chunks of 50: three reads for 120 entries, each after the last one's (time, id).
+		const text = csvText(ledgerExport(lotId), 50);
+		const rows = Papa.parse<Record<string, string>>(text.slice(text.indexOf('\n') + 1), {
+			header: true,
+			skipEmptyLines: true
+		}).data;
+		const expected = [...ledgerOf(lotId)]
+			.sort((a, b) => a.at.getTime() - b.at.getTime() || (a.id < b.id ? -1 : 1))
+			.map((e) => e.reason);
+		expect(rows.map((r) => r.reason)).toEqual(expected);
+		expect(rows[0].kind).toBe('receipt');
+		expect(rows.find((r) => r.reason === 'count 0')).toMatchObject({
+			quantity: '-1',
+			base_unit: 'mg',
+			component: 'Sodium chloride'
+		});
+	});
+
 	it('gives the lot view the latest 50 and the cursor to the rest', () => {
 		const view = lotView(lotId);
 		expect(view.ledger).toHaveLength(50);
 		expect(view.ledgerTotal).toBe(ADJUSTMENTS + 1);
-		expect(view.ledger[0].reason).toBe(`count ${ADJUSTMENTS - 1}`);
+		expect(view.ledger.map((e) => e.id)).toEqual(newestFirstIds(lotId).slice(0, 50));
 		expect(view.ledgerEarlier).not.toBeNull();
 		// The on-hand is still the whole ledger's sum: 100 g received, 119 mg taken.
 		expect(view.onHand).toBe(100_000 - ADJUSTMENTS);

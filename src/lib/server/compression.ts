@@ -42,10 +42,13 @@ function brotliOptions(sizeHint?: number): BrotliOptions {
 function compressedStream(body: ReadableStream, encoding: 'br' | 'gzip'): ReadableStream {
 	const compressor =
 		encoding === 'br' ? createBrotliCompress(brotliOptions()) : createGzip({ level: GZIP_LEVEL });
+	// A body that fails part-way fails the compressed answer too (the download ends short and the
+	// browser says so), instead of an unhandled stream error ending the server.
 	const source = Readable.fromWeb(body as NodeReadableStream);
-	return Readable.toWeb(source.pipe(compressor)) as ReadableStream;
+	source.on('error', (cause) => compressor.destroy(cause));
+	source.pipe(compressor);
+	return Readable.toWeb(compressor) as ReadableStream;
 }
-
 /** Below this, compressing saves less than it costs. */
 export const COMPRESS_FROM_BYTES = 8 * 1024;
 const TEXT_TYPES = /^(application\/(json|problem\+json)|text\/(html|csv|plain))\b/;

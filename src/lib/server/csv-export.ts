@@ -50,9 +50,15 @@ export function csvStreamDownload<K>(spec: CsvExport<K>, filename: string): Resp
 		new ReadableStream<Uint8Array>({
 			async pull(controller) {
 				await new Promise((resolve) => setImmediate(resolve));
-				const next = chunks.next();
-				if (next.done) controller.close();
-				else controller.enqueue(encoder.encode(next.value));
+				try {
+					const next = chunks.next();
+					if (next.done) controller.close();
+					else controller.enqueue(encoder.encode(next.value));
+				} catch (cause) {
+					// The status is sent already: all that is left is to end the download short.
+					console.error(`The export ${filename} failed part-way:`, cause);
+					controller.error(cause);
+				}
 			},
 			cancel() {
 				chunks.return(undefined);

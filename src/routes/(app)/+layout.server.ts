@@ -1,7 +1,8 @@
 import { requirePermission } from '$lib/server/guard';
+import { siteTimeZone } from '$lib/server/site-time-zone';
 import type { LayoutServerLoad } from './$types';
 
 export const load: LayoutServerLoad = async () => {
 	const user = requirePermission('workspace.view');
-	return { user };
+	return { user, siteTimeZone: siteTimeZone() };
 };

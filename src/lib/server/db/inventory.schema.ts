@@ -107,8 +107,10 @@ export const stockEntry = sqliteTable(
 			.$defaultFn(() => new Date())
 	},
 	(t) => [
-		// (lot, at, id) and (at, id): a lot's ledger and the whole ledger in the order recorded, read
-		// by keyset a page or an export chunk at a time.
+		// (lot, at, id) and (at, id): a lot's ledger and the whole ledger in time order (entries of
+		// one millisecond by id), read by keyset a page or an export chunk at a time. Not the rowid
+		// for the tie: SQLite's row-value ranges cannot use it, and a bulk import's thousands of
+		// entries of one millisecond made every chunk start its group again.
 		index('stock_entry_lot_idx').on(t.lotId, t.at, t.id),
 		index('stock_entry_at_idx').on(t.at, t.id),
 		// Covers the on-hand sum: the ledger of a lot is summed from the index alone.
@@ -134,7 +136,7 @@ export const lotOnHand = sqliteTable(
 );
 
 /**
- * What the lot list sorts and filters on most, kept beside each lot by triggers (migration 0038):
+ * What the lot list sorts and filters on most, kept beside each lot by triggers (migration 0037):
  * its material's name (its component's, or for a stock made here its recipe's) and its status.
  * The list then sorts by material, whole or within one status, on an index instead of working the
  * name out and sorting every lot of a site.

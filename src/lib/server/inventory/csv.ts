@@ -6,6 +6,7 @@ import { db } from '../db';
 import { lot, lotListKey, stockEntry, user } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { checkLotInput, type CheckedLot, type LotText } from './lot-input';
+import type { LedgerCursor } from './ledger-page';
 import { listLotsAfter, type LotExportKey, type LotRow } from './lot-list';
 import { receiveLots, type SignedActor } from './lots';
 import type { BatchLotUse, TracedUse } from './where-used';
@@ -185,10 +186,7 @@ const LEDGER_EXPORT_COLUMNS = [
 	'by'
 ];
 
-interface LedgerExportKey {
-	atMs: number;
-	id: string;
-}
+type LedgerExportKey = LedgerCursor;
 
 /** The ledger (of one lot, or all of it) in the order recorded, read a chunk at a time. */
 export function ledgerExport(lotId?: string): CsvExport<LedgerExportKey> {

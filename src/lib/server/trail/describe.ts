@@ -98,6 +98,8 @@ const SENTENCES: Record<string, Sentence> = {
 	'settings.batch_number_pattern': () => 'Changed the batch number pattern',
 	'settings.hard_band_percent': (d) =>
 		`Changed the hard band for weighings from ±${text(d.from)} % to ±${text(d.to)} %`,
+	'settings.site_time_zone': (d) =>
+		`Changed the site time zone from ${text(d.from)} to ${text(d.to)}`,
 	'settings.session_absolute_days': (d) =>
 		`Changed the longest session from ${text(d.from)} to ${text(d.to)} days`,
 	'settings.simulation_time_limit_s': (d) =>

@@ -17,6 +17,7 @@ import {
 	SIMULATION_TIME_LIMIT_LABEL,
 	SIMULATION_TIME_LIMIT_RANGE_S
 } from '$lib/server/simulation-settings';
+import { setSiteTimeZone, siteTimeZone, SITE_TIME_ZONE_LABEL } from '$lib/server/site-time-zone';
 import type { Actions, PageServerLoad } from './$types';
 
 const patternForm = z.object({ pattern: z.string().max(60) });
@@ -24,6 +25,7 @@ const lotSigningForm = z.object({ receiverMayNotSign: z.string().optional() });
 const hardBandForm = z.object({ hardBandPercent: z.string().default('') });
 const sessionLimitForm = z.object({ sessionAbsoluteDays: z.string().default('') });
 const simulationLimitForm = z.object({ simulationTimeLimitS: formText });
+const timeZoneForm = z.object({ siteTimeZone: formText });
 
 export const load: PageServerLoad = async () => {
 	requirePermission('admin.settings');
@@ -35,6 +37,11 @@ export const load: PageServerLoad = async () => {
 		hardBandPercent: hardBandPercent(),
 		sessionAbsoluteDays: sessionAbsoluteDays(),
 		sessionIdleHours: config.sessionIdleHours,
+		timeZone: {
+			name: siteTimeZone(),
+			label: SITE_TIME_ZONE_LABEL,
+			known: Intl.supportedValuesOf('timeZone')
+		},
 		simulationTimeLimit: {
 			seconds: simulationTimeLimitS(),
 			label: SIMULATION_TIME_LIMIT_LABEL,
@@ -116,6 +123,25 @@ export const actions: Actions = {
 			return {
 				form: 'simulationLimit',
 				saved: `Saved. A simulation, fit or study evaluation running longer than ${simulationTimeLimitS()} s is now stopped.`
+			};
+		}),
+	timeZone: async ({ request }) =>
+		tagged('timeZone', async () => {
+			const admin = requirePermission('admin.settings');
+			const formData = await request.formData();
+			const parsed = parseForm(timeZoneForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				setSiteTimeZone(
+					{ id: admin.id, email: admin.email, address: clientAddress() },
+					parsed.data.siteTimeZone
+				);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return {
+				form: 'timeZone',
+				saved: `Saved. Dates and times are now shown in ${siteTimeZone()}.`
 			};
 		}),
 	lotSigning: async ({ request }) =>

@@ -8,6 +8,10 @@ CREATE TABLE `lot_list_key` (
 --> statement-breakpoint
 CREATE INDEX `lot_list_key_material_idx` ON `lot_list_key` (`material_name`,`code`,`lot_id`);--> statement-breakpoint
 CREATE INDEX `lot_list_key_status_material_idx` ON `lot_list_key` (`status`,`material_name`,`code`,`lot_id`);--> statement-breakpoint
+DROP INDEX `stock_entry_lot_idx`;--> statement-breakpoint
+CREATE INDEX `stock_entry_at_idx` ON `stock_entry` (`at`,`id`);--> statement-breakpoint
+CREATE INDEX `stock_entry_lot_idx` ON `stock_entry` (`lot_id`,`at`,`id`);
+--> statement-breakpoint
 -- A lot's material: its component's name; for a stock made here, its recipe's; else its own code.
 INSERT INTO `lot_list_key` (`lot_id`, `material_name`, `code`, `status`)
 SELECT l.id,

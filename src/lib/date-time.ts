@@ -1,0 +1,65 @@
+// Dates and times as every page shows them: the ISO 8601 date, the 24-hour time and the zone, in the
+// site's time zone (an IANA name, a site setting). One way, so a record read at the bench, on the
+// review screen and in an export says the same. Intl does the zone arithmetic (the tz database).
+
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+function formatterFor(timeZone: string): Intl.DateTimeFormat {
+	let formatter = formatters.get(timeZone);
+	if (!formatter) {
+		formatter = new Intl.DateTimeFormat('en-GB', {
+			timeZone,
+			year: 'numeric',
+			month: '2-digit',
+			day: '2-digit',
+			hour: '2-digit',
+			minute: '2-digit',
+			second: '2-digit',
+			hourCycle: 'h23',
+			timeZoneName: 'short'
+		});
+		formatters.set(timeZone, formatter);
+	}
+	return formatter;
+}
+
+function partsOf(at: Date | string | number, timeZone: string) {
+	const parts = Object.fromEntries(
+		formatterFor(timeZone)
+			.formatToParts(new Date(at))
+			.map((p) => [p.type, p.value])
+	) as Record<Intl.DateTimeFormatPartTypes, string>;
+	return {
+		date: `${parts.year}-${parts.month}-${parts.day}`,
+		time: `${parts.hour}:${parts.minute}`,
+		seconds: parts.second,
+		zone: parts.timeZoneName
+	};
+}
+
+/** "2026-12-03 14:05 CET": the date, the 24-hour time and the zone's short name. */
+export function formatDateTime(at: Date | string | number, timeZone: string): string {
+	const { date, time, zone } = partsOf(at, timeZone);
+	return `${date} ${time} ${zone}`;
+}
+
+/** "14:05:09": the time of day with seconds, for "saved at" notes. */
+export function formatTimeOfDay(at: Date | string | number, timeZone: string): string {
+	const { time, seconds } = partsOf(at, timeZone);
+	return `${time}:${seconds}`;
+}
+
+/** "2026-12-03": the day in the site's zone. */
+export function formatDay(at: Date | string | number, timeZone: string): string {
+	return partsOf(at, timeZone).date;
+}
+
+/** Whether the runtime knows `name` as an IANA time zone. */
+export function isTimeZone(name: string): boolean {
+	try {
+		new Intl.DateTimeFormat('en-GB', { timeZone: name });
+		return name.length > 0;
+	} catch {
+		return false;
+	}
+}
