@@ -52,11 +52,15 @@ test.describe('scanner-first batch at the bench', () => {
 			const mass = card.getByLabel(new RegExp(`^(Mass|Volume) for line ${n}$`));
 			await expect(mass).toBeFocused();
 			const required = (await card.getByTestId('required').textContent())!.trim();
-			// Typed as the sheet gives it, unit and all: the field reads either.
-			await page.keyboard.type(required);
+			// Typed as the sheet gives it, unit and all, but the first line as a bare number in the
+			// field's unit: the record then shows the quantity with its unit and what was typed.
+			const typed = n === 1 ? required.replace(/\s*(g|mL)$/, '') : required;
+			await page.keyboard.type(typed);
 			await expect(card.getByTestId('tolerance')).toHaveText('In tolerance');
 			await page.keyboard.press('Enter');
-			await expect(card.getByTestId('line-done')).toBeVisible();
+			await expect(card.getByTestId('line-done')).toContainText(`Done: ${required}`);
+			if (typed !== required)
+				await expect(card.getByTestId('line-done')).toContainText(`(typed “${typed}”)`);
 			if (n < lines) {
 				// Focus has moved on: the next line's mass field when its lot is already chosen, else its scan.
 				const next = page.getByTestId(`line-${n + 1}`);
