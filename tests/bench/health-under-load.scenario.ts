@@ -2,6 +2,7 @@
 // in the worker pool, so the request thread should stay free. Starts the build on a fresh database,
 // samples GET /api/v1/health idle and under load, and reports p50 and p99 against the target.
 import type { ScenarioFigure } from './bench';
+import { swingingStreams } from '../simulation-requests';
 import { withFreshApp } from './http-server';
 
 const TARGET_P99_MS = 20;
@@ -9,23 +10,9 @@ const CONCURRENT_SIMULATIONS = 4;
 const IDLE_SAMPLES = 100;
 const SAMPLE_GAP_MS = 5;
 
-// Eight feed streams whose rates oscillate at different frequencies for 120 h (about 3 s each on
-// this machine, inside the default time limit of 10 s even four at once): the integrator must
-// follow every swing (thousands of steps), while the answer stays small (one point an hour).
-const heavyRun = {
-	mode: 'fedBatch',
-	kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 },
-	initial: { biomassGPerL: 0.5, substrateGPerL: 1, volumeL: 1 },
-	feeds: Array.from({ length: 8 }, (_, i) => ({
-		label: `Stream ${i + 1}`,
-		strategy: 'expression',
-		substrateGPerL: 200,
-		expression: `0.0001 * (1 + sin(${10 * (i + 1)} * t))`
-	})),
-	maxVolumeL: 1000,
-	endH: 120,
-	outputEveryH: 1
-};
+// The swinging streams for 120 h (about 3 s each on this machine, inside the default time limit of
+// 10 s even four at once).
+const heavyRun = swingingStreams(120);
 
 function percentile(sortedMs: number[], fraction: number): number {
 	return sortedMs[Math.min(sortedMs.length - 1, Math.floor(sortedMs.length * fraction))];

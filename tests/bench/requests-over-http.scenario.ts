@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import type { SimulationRequest } from '../../chemistry/simulation';
 import type { ScenarioFigure } from './bench';
 import { withFreshApp, timeGet, timePost } from './http-server';
-import { cellCultureRun } from './simulation.bench';
+import { cellCultureRun } from '../simulation-requests';
 
 const reference: { cases: { name: string; request: SimulationRequest }[] } = JSON.parse(
 	readFileSync(

@@ -15,6 +15,7 @@ import {
 	setSimulationTimeLimitS
 } from '$lib/server/simulation-settings';
 import { DEV_SIMULATION_WORKER } from '$lib/server/simulation-worker-files.js';
+import { cellCultureThreeStreams, swingingStreams } from '../simulation-requests';
 import { callJson, postJson } from './endpoint-call';
 import { makeUser } from './helpers';
 
@@ -31,60 +32,9 @@ const engineer = { id: 'u-engineer', email: 'engineer@lab.test', name: 'E', role
 const postSimulate = (body: unknown) =>
 	postJson(simulate.POST, '/api/v1/simulate', body, { user: engineer });
 
-// A 14-day cell-culture-like fed-batch with an O2 balance and three feed streams (DO-stat, constant,
-// capped exponential), as in tests/bench/simulation.bench.ts: events, regimes and every series.
-const threeStreams = {
-	mode: 'fedBatch',
-	kinetics: {
-		muMaxPerH: 0.04,
-		ksGPerL: 0.2,
-		yieldXS: 0.5,
-		maintenanceGPerGH: 0.002,
-		yieldXO2: 1.5,
-		koMgPerL: 0.1
-	},
-	initial: { biomassGPerL: 0.3, substrateGPerL: 4, volumeL: 1 },
-	feeds: [
-		{
-			label: 'Glucose (DO-stat)',
-			strategy: 'doStat',
-			substrateGPerL: 100,
-			doSetpointMgPerL: 2,
-			maxRateLPerH: 0.004,
-			startH: 48
-		},
-		{ label: 'Amino acids', strategy: 'constant', substrateGPerL: 0, rateLPerH: 5e-4, startH: 72 },
-		{
-			label: 'Glucose top-up',
-			strategy: 'exponential',
-			substrateGPerL: 100,
-			muSetPerH: 0.005,
-			maxRateLPerH: 0.002,
-			startH: 96
-		}
-	],
-	oxygen: { kLaPerH: 15, saturationMgPerL: 6.7, maintenanceMgPerGH: 2 },
-	maxVolumeL: 3,
-	endH: 336,
-	outputEveryH: 0.25
-};
-
-// Eight streams whose rates swing at different frequencies: the integrator follows every swing, so
-// the run takes seconds (about 1 s per 100 h here) however the answer is sampled.
-const swingingStreams = (endH: number) => ({
-	mode: 'fedBatch',
-	kinetics: { muMaxPerH: 0.5, ksGPerL: 0.1, yieldXS: 0.5 },
-	initial: { biomassGPerL: 0.5, substrateGPerL: 1, volumeL: 1 },
-	feeds: Array.from({ length: 8 }, (_, i) => ({
-		label: `Stream ${i + 1}`,
-		strategy: 'expression',
-		substrateGPerL: 200,
-		expression: `0.0001 * (1 + sin(${10 * (i + 1)} * t))`
-	})),
-	maxVolumeL: 1000,
-	endH,
-	outputEveryH: 1
-});
+// The 14-day cell-culture fed-batch with an O2 balance and three feed streams (DO-stat, constant,
+// capped exponential) of the benchmarks, every quarter hour: events, regimes and every series.
+const threeStreams = { ...cellCultureThreeStreams, outputEveryH: 0.25 };
 
 const shortBatch = {
 	mode: 'batch',
