@@ -1,7 +1,7 @@
 // The trail for scripts: the same filter as the trail page, a page at a time by keyset cursor on
 // the (at, seq) index, so a client walks a site's whole trail at the same cost per page.
 
-import { auditEventsAfter, listAuditEvents, type AuditFilter, type AuditKey } from '../audit';
+import { auditEventsAfter, countAuditEvents, type AuditFilter, type AuditKey } from '../audit';
 import { decodeCursorParts, encodeCursor } from '../cursor';
 import { readableEntries } from './entries';
 
@@ -34,7 +34,7 @@ export function auditApiPage(filter: AuditFilter, after: AuditKey | null, limit:
 			detail: row.detail ?? null,
 			address: row.address
 		})),
-		total: listAuditEvents({ ...filter, page: 1, pageSize: 1 }).total,
+		total: countAuditEvents(filter),
 		next:
 			rows.length > limit && last
 				? encodeAuditCursor({ atMs: last.at.getTime(), seq: last.seq ?? 0 })
