@@ -211,7 +211,7 @@ export function listLotsPage(
 		.orderBy(...order)
 		.all()
 		.map(withExpiry(today));
-	return { rows, total: countLots(filter, where, reader, countUpTo) };
+	return { rows, total: countLots(filter, reader, countUpTo, where) };
 }
 
 /** Whether the filter asks for nothing but (at most) a status; any other field, even a new one, counts. */
@@ -221,11 +221,12 @@ function filtersOnlyStatus(filter: LotFilter): boolean {
 	);
 }
 
-function countLots(
+/** How many lots the filter matches, counting no further than `countUpTo` when given. */
+export function countLots(
 	filter: LotFilter,
-	where: SQL | undefined,
-	reader: Reader,
-	countUpTo: number | undefined
+	reader: Reader = db,
+	countUpTo?: number,
+	where: SQL | undefined = lotConditions(filter)
 ): number {
 	if (countUpTo === undefined) {
 		const counted = reader.select({ n: count() }).from(lot);

@@ -2,7 +2,7 @@
 // components are below their reorder level and how many lots wait in quarantine.
 import { DEFAULT_EXPIRY_WINDOW_DAYS } from '$lib/inventory';
 import { componentsBelowReorder, EXPIRING_COUNTED_UP_TO, expiringLots } from './alerts';
-import { listLotsPage } from './lot-list';
+import { countLots } from './lot-list';
 
 export interface InventoryAlertCounts {
 	expiringDays: number;
@@ -18,10 +18,7 @@ export function inventoryAlertCounts(): InventoryAlertCounts {
 		listed: 1,
 		countUpTo: EXPIRING_COUNTED_UP_TO
 	});
-	const quarantined = listLotsPage(
-		{ status: 'quarantine' },
-		{ page: 1, limit: 1, sort: 'expiresOn', dir: 'asc' }
-	).total;
+	const quarantined = countLots({ status: 'quarantine' });
 	return {
 		expiringDays: DEFAULT_EXPIRY_WINDOW_DAYS,
 		expiring: expiring.total,
