@@ -13,6 +13,7 @@ import { rolesOf } from '$lib/server/people';
 import { handleMalformedBodies } from '$lib/server/request-body-check';
 import { handleCompression } from '$lib/server/compression';
 import { handleHardeningHeaders } from '$lib/server/security-headers';
+import { applySiteDecimalMark } from '$lib/server/site-decimal-mark';
 
 /**
  * Runs once before the server answers its first request (`node build`, `npm start`): migrations, the
@@ -23,6 +24,12 @@ export const init: ServerInit = async () => {
 	if (dev || building) return;
 	const { startServer } = await import('$lib/server/start-up');
 	await startServer();
+};
+
+/** Typed and imported numbers are read by the site's decimal mark as it is now (src/lib/number-reading.ts). */
+const handleDecimalMark: Handle = async ({ event, resolve }) => {
+	if (!building) applySiteDecimalMark();
+	return resolve(event);
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {
@@ -78,6 +85,7 @@ export const handle = sequence(
 	handleCompression,
 	handleHardeningHeaders,
 	handleSecurityHeaders,
+	handleDecimalMark,
 	handleSession,
 	handleApiProblems,
 	handleMalformedBodies

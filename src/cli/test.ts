@@ -30,25 +30,33 @@ function run(
 	return false;
 }
 
-function ensureChromium(): void {
-	if (existsSync(chromium)) return;
+const PDF_RENDERER = '/usr/bin/pdftoppm';
+
+/** Debian packages the browser tests need: Chromium, and poppler-utils to render printed PDFs. */
+function ensureBrowserTools(): void {
+	const missing = [
+		...(existsSync(chromium) ? [] : ['chromium']),
+		...(existsSync(PDF_RENDERER) ? [] : ['poppler-utils'])
+	];
+	if (!missing.length) return;
 	const isRoot = process.getuid?.() === 0;
 	const hasApt = spawnSync('sh', ['-c', 'command -v apt-get'], { stdio: 'ignore' }).status === 0;
-	if (isRoot && hasApt && !process.env.CHROMIUM_PATH) {
-		console.log("Chromium is missing: installing Debian's chromium package.");
+	const chromiumElsewhere = missing.includes('chromium') && process.env.CHROMIUM_PATH;
+	if (isRoot && hasApt && !chromiumElsewhere) {
+		console.log(`Missing for the browser tests: installing Debian's ${missing.join(' and ')}.`);
 		run('apt-get update', 'apt-get', ['update'], {}, true);
 		run(
-			'apt-get install chromium',
+			`apt-get install ${missing.join(' ')}`,
 			'apt-get',
-			['install', '-y', '--no-install-recommends', 'chromium'],
+			['install', '-y', '--no-install-recommends', ...missing],
 			{ DEBIAN_FRONTEND: 'noninteractive' },
 			true
 		);
-		if (existsSync(chromium)) return;
+		if (existsSync(chromium) && existsSync(PDF_RENDERER)) return;
 	}
 	console.error(
-		`The browser tests need Chromium at ${chromium}.\n` +
-			"Install Debian's package (as root: apt-get update && apt-get install -y chromium),\n" +
+		`The browser tests need Chromium at ${chromium} and pdftoppm at ${PDF_RENDERER}.\n` +
+			"Install Debian's packages (as root: apt-get update && apt-get install -y chromium poppler-utils),\n" +
 			'or set CHROMIUM_PATH to a Chromium or Chrome binary.'
 	);
 	process.exit(1);
@@ -57,7 +65,7 @@ function ensureChromium(): void {
 // ESLint reads the TypeScript project, which extends the config that `svelte-kit sync` writes.
 run('generate types', 'npx', ['svelte-kit', 'sync'], {}, true);
 run('lint (Prettier, ESLint)', 'npm', ['run', 'lint']);
-ensureChromium();
+ensureBrowserTools();
 run('type check', 'npx', ['svelte-check', '--tsconfig', './tsconfig.json', '--fail-on-warnings']);
 run('unit and server tests (vitest)', 'npx', ['vitest', 'run']);
 if (run('build', 'npx', ['vite', 'build'])) {

@@ -1,5 +1,6 @@
 // Words and constants of batches shared by server and browser, so this module holds no server code.
 import type { QuantityKind } from './inventory';
+import { formatReadNumber } from './number-reading';
 import { formatMass, formatVolume, readAmountText, storedMass, storedVolumeUl } from './quantities';
 export const BATCH_STATES = [
 	'planned',
@@ -56,7 +57,7 @@ export function checkTolerance(
 }
 
 export type LineAmountRead =
-	{ ok: true; quantity: number; note?: string } | { ok: false; message: string };
+	{ ok: true; quantity: number; readAs: string } | { ok: false; message: string };
 
 const LINE_AMOUNT = {
 	component: { label: 'Mass', units: ['g', 'mg', 'kg', 'µg'] as const, defaultUnit: 'g' as const },
@@ -64,7 +65,7 @@ const LINE_AMOUNT = {
 };
 
 /**
- * Reads what a technician typed for a line ("12,5", "350 mg", "2.5 mL") into the integer the line keeps
+ * Reads what a technician typed for a line ("12.5", "350 mg", "2.5 mL") into the integer the line keeps
  * in `lineQuantityUnit(kind)`: µg weighed for a component line, µL added for a stock line.
  */
 export function readLineAmount(text: string, kind: BatchLineKind): LineAmountRead {
@@ -77,7 +78,11 @@ export function readLineAmount(text: string, kind: BatchLineKind): LineAmountRea
 			LINE_AMOUNT.component.defaultUnit
 		);
 		return read.ok
-			? { ok: true, quantity: storedMass(read.value, read.unit, 'µg'), note: read.note }
+			? {
+					ok: true,
+					quantity: storedMass(read.value, read.unit, 'µg'),
+					readAs: `${formatReadNumber(read.value)} ${read.unit}`
+				}
 			: read;
 	}
 	const read = readAmountText(
@@ -87,7 +92,11 @@ export function readLineAmount(text: string, kind: BatchLineKind): LineAmountRea
 		LINE_AMOUNT.stock.defaultUnit
 	);
 	return read.ok
-		? { ok: true, quantity: storedVolumeUl(read.value, read.unit), note: read.note }
+		? {
+				ok: true,
+				quantity: storedVolumeUl(read.value, read.unit),
+				readAs: `${formatReadNumber(read.value)} ${read.unit}`
+			}
 		: read;
 }
 

@@ -1,4 +1,4 @@
-import { readDecimalText } from './quantities';
+import { readDecimalText } from './number-reading';
 /**
  * The short text notations a component's lists are typed in, on the form and in CSV files alike:
  *   fractions   C=0.39; N=0.105          (g element per g)

@@ -1,3 +1,4 @@
+import { formatReadNumber, readDecimalText } from './number-reading';
 /**
  * Quantities of mass and volume as the app stores, converts, shows and reads them; shared by server
  * and browser, so it holds no server code. Concentrations per litre are the science library's
@@ -78,58 +79,11 @@ export function batchVolumeL(targetVolumeMl: number): number {
 	return convertVolume(targetVolumeMl, 'mL', 'L');
 }
 
-export type DecimalRead =
-	{ ok: true; value: number; note?: string } | { ok: false; message: string };
-
-/**
- * Reads a number as a person types it; the one rule for every typed or imported decimal:
- * - a point is always the decimal point ("1.500" is 1.5), since every figure the app shows is written
- *   with one and must read back as shown;
- * - a comma is a decimal comma ("1,5" is 1.5) except when exactly three digits follow it: "1,500"
- *   could be 1.5 or 1500 and is refused rather than guessed;
- * - no thousands separators: two separators, or a comma and a point, are refused;
- * - an exponent is accepted after a plain or point-decimal number ("2e-3").
- * `label` names the field in the message. A note says when a decimal comma was read.
- */
-export function readDecimalText(text: string, label: string): DecimalRead {
-	const digits = text.trim();
-	if (digits === '') return { ok: false, message: `${label}: enter a number.` };
-	const commas = (digits.match(/,/g) ?? []).length;
-	const points = (digits.match(/\./g) ?? []).length;
-	if (commas && points)
-		return {
-			ok: false,
-			message: `${label}: “${digits}” mixes commas and points; type the number with one decimal point and no thousands separator, e.g. 1250.5.`
-		};
-	if (commas > 1 || points > 1)
-		return {
-			ok: false,
-			message: `${label}: “${digits}” has more than one separator; type the number with one decimal point and no thousands separator.`
-		};
-	let normal = digits;
-	let note: string | undefined;
-	if (commas === 1) {
-		if (/,\d{3}$/.test(digits))
-			return {
-				ok: false,
-				message: `${label}: “${digits}” is ambiguous: is it ${digits.replace(',', '.')} or ${digits.replace(',', '')}? Type it with a decimal point.`
-			};
-		if (!/^[+-]?\d*,\d+$/.test(digits))
-			return { ok: false, message: `${label}: “${digits}” is not a number.` };
-		normal = digits.replace(',', '.');
-		note = `Read the decimal comma: ${normal}`;
-	}
-	if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(normal))
-		return { ok: false, message: `${label}: “${digits}” is not a number.` };
-	const value = Number(normal);
-	if (!Number.isFinite(value))
-		return { ok: false, message: `${label}: “${digits}” is not a number.` };
-	return note ? { ok: true, value, note } : { ok: true, value };
-}
-
 export type AmountRead<U extends string> =
-	{ ok: true; value: number; unit: U; note?: string } | { ok: false; message: string };
+	{ ok: true; value: number; unit: U } | { ok: false; message: string };
 
+// The documented units and their usual spellings (the micro sign, the Greek mu or a plain u); any
+// other unit is refused rather than converted, so "lb" or "oz" never enters a record.
 const UNIT_SPELLINGS: Record<string, MassUnit | VolumeUnit> = {
 	kg: 'kg',
 	g: 'g',
@@ -147,8 +101,17 @@ const UNIT_SPELLINGS: Record<string, MassUnit | VolumeUnit> = {
 	μL: 'µL'
 };
 
+/** A documented mass or volume unit as typed ("ml", "uL"), or null for anything else. */
+export function readQuantityUnit(text: string): MassUnit | VolumeUnit | null {
+	return Object.hasOwn(UNIT_SPELLINGS, text.trim()) ? UNIT_SPELLINGS[text.trim()] : null;
+}
+
+export function isMassUnit(unit: MassUnit | VolumeUnit): unit is MassUnit {
+	return (MASS_UNITS as readonly string[]).includes(unit);
+}
+
 /**
- * Reads an amount typed with an optional unit ("12,5", "350 mg", "2.5 mL") through readDecimalText;
+ * Reads an amount typed with an optional unit ("12.5", "350 mg", "2.5 mL") through readDecimalText;
  * the unit must be one of `units`, and a bare number is in `defaultUnit`. Zero and below are refused.
  */
 export function readAmountText<U extends MassUnit | VolumeUnit>(
@@ -164,13 +127,13 @@ export function readAmountText<U extends MassUnit | VolumeUnit>(
 			ok: false,
 			message: `${label}: enter the ${noun}${noun === 'mass' ? ' read from the balance' : ''}.`
 		};
-	const match = /^([+-]?[\d.,]+)\s*([a-zA-Zµμ]*)$/.exec(compact);
+	const match = /^(.*?\d.*?)\s*([a-zA-Zµμ]+)?$/.exec(compact);
 	if (!match)
 		return {
 			ok: false,
 			message: `${label}: “${compact}” is not a ${noun}: type a number such as 12.5 or 12.5 ${defaultUnit}.`
 		};
-	const unit = match[2] ? UNIT_SPELLINGS[match[2]] : defaultUnit;
+	const unit = match[2] ? readQuantityUnit(match[2]) : defaultUnit;
 	if (!unit || !units.includes(unit as U))
 		return {
 			ok: false,
@@ -179,11 +142,52 @@ export function readAmountText<U extends MassUnit | VolumeUnit>(
 	const read = readDecimalText(match[1], label);
 	if (!read.ok) return read;
 	if (read.value <= 0) return { ok: false, message: `${label}: the ${noun} must be above zero.` };
-	return { ok: true, value: read.value, unit: unit as U, note: read.note };
+	return { ok: true, value: read.value, unit: unit as U };
 }
 
-/** readDecimalText for a schema that checks the number afterwards: NaN when the text is not one. */
-export function decimalOrNaN(text: string): number {
-	const read = readDecimalText(text, 'Number');
-	return read.ok ? read.value : NaN;
+export type GramsRead =
+	{ ok: true; grams: number; readAs: string } | { ok: false; message: string };
+
+/**
+ * A level of stock typed in any documented unit ("2 kg", "500", "750 mL"): a bare number is grams,
+ * and a volume needs the component's density to become grams. Zero is a level; below is refused.
+ */
+export function readGramsText(
+	text: string,
+	label: string,
+	densityGPerMl: number | null
+): GramsRead {
+	const compact = text.trim().replace(/\s+/g, ' ');
+	const match = /^(.*?\d.*?)\s*([a-zA-Zµμ]+)?$/.exec(compact);
+	if (!match)
+		return {
+			ok: false,
+			message: `${label}: “${compact}” is not an amount; type e.g. 500 g or 2 kg.`
+		};
+	const unit = match[2] ? readQuantityUnit(match[2]) : 'g';
+	if (!unit)
+		return {
+			ok: false,
+			message: `${label}: “${match[2]}” is not a unit here: use ${[...MASS_UNITS, ...VOLUME_UNITS].join(', ')}.`
+		};
+	const read = readDecimalText(match[1], label);
+	if (!read.ok) return read;
+	if (read.value < 0) return { ok: false, message: `${label}: the amount cannot be below zero.` };
+	if (isMassUnit(unit))
+		return {
+			ok: true,
+			grams: convertMass(read.value, unit, 'g'),
+			readAs: `${formatReadNumber(read.value)} ${unit}`
+		};
+	if (!densityGPerMl)
+		return {
+			ok: false,
+			message: `${label}: a volume needs the component’s density to become a mass; give the density, or the level in g or kg.`
+		};
+	const grams = convertVolume(read.value, unit, 'mL') * densityGPerMl;
+	return {
+		ok: true,
+		grams,
+		readAs: `${formatReadNumber(read.value)} ${unit} = ${formatMass(grams, 'g')} at ${formatReadNumber(densityGPerMl)} g/mL`
+	};
 }

@@ -75,7 +75,7 @@ test('a bad value in the second stream is shown at that stream’s field, and a 
 	await second.getByLabel('Feed rate F (L/h)').fill('lots');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
 	await expect(second.getByLabel('Feed rate F (L/h)')).toHaveAccessibleDescription(
-		'Enter a number (got “lots”).'
+		'Feed rate F (L/h): “lots” is not a number.'
 	);
 	await expect(second.getByLabel('Feed rate F (L/h)')).toBeFocused();
 

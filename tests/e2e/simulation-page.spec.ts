@@ -95,7 +95,7 @@ test('bad input shows the error at the field and keeps every value typed', async
 	await page.getByLabel('End time (h)').fill('soon');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
 	await expect(page.getByLabel('End time (h)')).toHaveAccessibleDescription(
-		'Enter a number (got “soon”).'
+		'End time (h): “soon” is not a number.'
 	);
 	await expect(page.getByLabel('End time (h)')).toBeFocused();
 });

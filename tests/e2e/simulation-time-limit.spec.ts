@@ -23,7 +23,7 @@ test.describe('an administrator sets the time limit per simulation run', () => {
 			form.getByText('Time limit per run (s) must be from 0.1 to 600 seconds (got 700).')
 		).toBeVisible();
 		try {
-			await field.fill('12,5');
+			await field.fill('12.5');
 			await form.getByRole('button', { name: 'Save' }).click();
 			await expect(
 				form.getByText(

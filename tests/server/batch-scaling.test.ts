@@ -1,3 +1,4 @@
+import { setSiteDecimalMark } from '$lib/number-reading';
 import { describe, expect, it } from 'vitest';
 import { checkTolerance, readLineAmount } from '$lib/batches';
 import { scaleComponentLine, scaleStockLine } from '$lib/server/batches/scaling';
@@ -81,8 +82,22 @@ describe('tolerance (±2 % is common practice)', () => {
 });
 
 describe('reading what a technician typed for a line', () => {
-	it('accepts a decimal comma and units, keeps µg (component) or µL (stock), and refuses what is ambiguous or of the wrong kind', () => {
-		expect(readLineAmount('12,5', 'component')).toMatchObject({ ok: true, quantity: 12_500_000 });
+	it('reads units, keeps µg (component) or µL (stock), and refuses what is ambiguous or of the wrong kind', () => {
+		expect(readLineAmount('12,5', 'component')).toMatchObject({
+			ok: false,
+			message:
+				'Mass: “12,5” has a decimal comma, but this site writes decimals with a point: type 12.5.'
+		});
+		setSiteDecimalMark('comma');
+		try {
+			expect(readLineAmount('12,5', 'component')).toMatchObject({
+				ok: true,
+				quantity: 12_500_000,
+				readAs: '12,5 g'
+			});
+		} finally {
+			setSiteDecimalMark('point');
+		}
 		expect(readLineAmount(' 12.5 g ', 'component')).toMatchObject({
 			ok: true,
 			quantity: 12_500_000
@@ -96,7 +111,8 @@ describe('reading what a technician typed for a line', () => {
 		expect(readLineAmount('7.502 g', 'component')).toMatchObject({ ok: true, quantity: 7_502_000 });
 		expect(readLineAmount('1,250', 'component')).toMatchObject({
 			ok: false,
-			message: 'Mass: “1,250” is ambiguous: is it 1.250 or 1250? Type it with a decimal point.'
+			message:
+				'Mass: “1,250” is ambiguous: it could be 1.25 or 1250. This site writes decimals with a point and no thousands separator: type 1250 or 1.25.'
 		});
 		expect(readLineAmount('12.5 mL', 'component')).toMatchObject({
 			ok: false,
@@ -108,7 +124,7 @@ describe('reading what a technician typed for a line', () => {
 			ok: false,
 			message: 'Mass: the mass must be above zero.'
 		});
-		expect(readLineAmount('2,5', 'stock')).toMatchObject({ ok: true, quantity: 2_500 });
+		expect(readLineAmount('2.5', 'stock')).toMatchObject({ ok: true, quantity: 2_500 });
 		expect(readLineAmount('250 µL', 'stock')).toMatchObject({ ok: true, quantity: 250 });
 		expect(readLineAmount('2 g', 'stock')).toMatchObject({
 			ok: false,

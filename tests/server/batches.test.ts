@@ -87,7 +87,7 @@ describe('planning a batch', () => {
 		expect(
 			checkBatchInput({
 				recipeId: recipe.recipeId,
-				targetVolumeL: '2,5',
+				targetVolumeL: '2.5',
 				plannedOn: today,
 				intendedUse: 'x'
 			}).ok
@@ -189,7 +189,7 @@ describe('weighing, completion and review', () => {
 		const b = plan(2);
 		const [line] = buildSheetLines(b);
 		chooseLot(tech, b.id, line.id, line.suggestion!.code);
-		expect(() => recordLine(tech, b.id, line.id, { actualText: '10,5 g' })).toThrow(
+		expect(() => recordLine(tech, b.id, line.id, { actualText: '10.5 g' })).toThrow(
 			'10.5 g is above the tolerance (10 g ± 2 %). Give the reason; it is recorded as a deviation.'
 		);
 		expect(() => recordLine(tech, b.id, line.id, { actualText: '10.5 grams' })).toThrow(
@@ -197,18 +197,18 @@ describe('weighing, completion and review', () => {
 		);
 		expect(
 			recordLine(tech, b.id, line.id, {
-				actualText: '10,5 g',
+				actualText: '10.5 g',
 				reason: 'Spatula overshoot; QA informed'
 			})
 		).toMatchObject({ repeated: false, verdict: 'above' });
 		expect(
 			recordLine(tech, b.id, line.id, {
-				actualText: '10,5 g',
+				actualText: '10.5 g',
 				reason: 'Spatula overshoot; QA informed'
 			})
 		).toMatchObject({ repeated: true });
 		expect(() => recordLine(tech, b.id, line.id, { actualText: '10 g' })).toThrow(
-			/already signed as done with 10,5 g/
+			/already signed as done with 10.5 g/
 		);
 		expect(
 			db.select().from(batchDeviation).where(eq(batchDeviation.batchId, b.id)).all()
@@ -337,7 +337,7 @@ describe('weighing, completion and review', () => {
 			'Measured pH: “seven” is not a number.'
 		);
 		recordMeasurements(tech, b.id, {
-			ph: '7,1',
+			ph: '7.1',
 			osmolality: '45',
 			osmolalityReason: 'Salt lot on the high side; engineer consulted'
 		});

@@ -43,7 +43,7 @@ function storedFiles(): string[] {
 }
 
 describe('receiving a lot', () => {
-	it('converts the quantity through mathjs to integer base units', () => {
+	it('converts the quantity to integer base units', () => {
 		const checked = checkLotInput({ ...base, quantity: '2.5', unit: 'kg' });
 		expect(checked.ok && checked.value.receivedQuantity).toBe(2_500_000);
 		expect(checked.ok && checked.value.quantityKind).toBe('mass');
@@ -189,6 +189,26 @@ describe('release and rejection', () => {
 describe('CSV import', () => {
 	const header = 'component,supplier,supplier_lot,quantity,unit,received_on,expires_on';
 
+	it('reads quantities by the one number rule and only the documented units, naming the file’s columns', () => {
+		const csv = [
+			header,
+			`sodium-chloride,Calder Lab Supply,CSV-7,"1,500",g,${today},${addDays(today, 100)}`,
+			`sodium-chloride,Calder Lab Supply,CSV-8,2,lb,${today},${addDays(today, 100)}`,
+			`sodium-chloride,Calder Lab Supply,CSV-9,"1,5",kg,${today},${addDays(today, 100)}`,
+			`sodium-chloride,Calder Lab Supply,CSV-10,1500,g,${today},${addDays(today, 100)}`
+		].join('\n');
+		const preview = previewLotCsv(csv);
+		expect(preview.rows[0].errors).toEqual([
+			'quantity: Quantity: “1,500” is ambiguous: it could be 1.5 or 1500. This site writes decimals with a point and no thousands separator: type 1500 or 1.5.'
+		]);
+		expect(preview.rows[1].errors).toEqual([
+			'unit: “lb” is not a unit of mass or volume kept here: use kg, g, mg, L, mL or µL.'
+		]);
+		expect(preview.rows[2].errors.join(' ')).toMatch(/^quantity: .*decimal comma/);
+		expect(preview.rows[3].errors).toEqual([]);
+		expect(preview.rows[3].value?.receivedQuantity).toBe(1_500_000);
+	});
+
 	it('previews every row with its problems and imports nothing while one row is wrong', () => {
 		const csv = [
 			header,
@@ -199,9 +219,9 @@ describe('CSV import', () => {
 		const preview = previewLotCsv(csv);
 		expect(preview.valid).toBe(1);
 		expect(preview.rows[1].errors.join(' ')).toMatch(/unit: .*no density/);
-		expect(preview.rows[1].errors.join(' ')).toMatch(/expiresOn: .*must be after/);
+		expect(preview.rows[1].errors.join(' ')).toMatch(/expires_on: .*must be after/);
 		expect(preview.rows[2].errors).toEqual([
-			'supplierLot: the same supplier lot is on row 2 of this file.'
+			'supplier_lot: the same supplier lot is on row 2 of this file.'
 		]);
 		const before = db.select().from(lot).all().length;
 		expect(() => importLotCsv(lead.actor, csv)).toThrow(

@@ -1,3 +1,4 @@
+import { setSiteDecimalMark } from '$lib/number-reading';
 import { describe, expect, it } from 'vitest';
 import { blankLine, DRAFT_FIELD_LABELS, type DraftFieldsInput } from '$lib/recipes';
 import {
@@ -46,12 +47,21 @@ describe('the draft schema reads what the editor holds', () => {
 		});
 	});
 
-	it('reads an amount typed with a decimal comma, and the unit in its usual spelling', () => {
-		const read = draftSchema.parse({
-			fields: BLANK_FIELDS,
-			lines: [componentLine('1,5', 'mg/l')]
-		});
-		expect(read.lines[0]).toMatchObject({ amount: 1.5, unit: 'mg/L', tolerancePercent: 2 });
+	it('reads a decimal comma only at a comma site, and the unit in its usual spelling', () => {
+		const read = () =>
+			draftSchema.safeParse({ fields: BLANK_FIELDS, lines: [componentLine('1,5', 'mg/l')] });
+		expect(read().success).toBe(false);
+		setSiteDecimalMark('comma');
+		try {
+			const parsed = read();
+			expect(parsed.success && parsed.data.lines[0]).toMatchObject({
+				amount: 1.5,
+				unit: 'mg/L',
+				tolerancePercent: 2
+			});
+		} finally {
+			setSiteDecimalMark('point');
+		}
 	});
 });
 
@@ -94,7 +104,7 @@ describe('the draft schema refuses, naming the field by its label', () => {
 		]);
 		expect(problems['lines.0.amount']).toBeUndefined();
 		expect(problems['lines.1.amount']).toEqual([
-			'Line 2: the amount: “1,500” is ambiguous: is it 1.500 or 1500? Type it with a decimal point.'
+			'Line 2: the amount: “1,500” is ambiguous: it could be 1.5 or 1500. This site writes decimals with a point and no thousands separator: type 1500 or 1.5.'
 		]);
 		expect(problems['lines.2.amount']).toEqual(['Line 3: the amount: “a lot” is not a number.']);
 	});

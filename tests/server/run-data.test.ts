@@ -112,12 +112,14 @@ describe('simulation form values', () => {
 		expect(built).toEqual({
 			ok: false,
 			fieldErrors: {
-				'initial.volumeL': 'Enter a number (got “five”).',
+				'initial.volumeL': 'Volume V₀ (L): “five” is not a number.',
+				'kinetics.ksGPerL':
+					'Ks (g/L): “0,05” has a decimal comma, but this site writes decimals with a point: type 0.05.',
 				'kinetics.muMaxPerH': 'Give a number.'
 			}
 		});
 		if (built.ok) return;
-		expect(Object.keys(built.fieldErrors)[0]).toBe('initial.volumeL');
+		expect(Object.keys(built.fieldErrors)[0]).toBe('kinetics.ksGPerL');
 	});
 
 	it('exports one CSV row per output time, with a scenario column when comparing', () => {

@@ -132,8 +132,9 @@ describe('the absolute limit setting', () => {
 		const admin = await makeUser(['admin']);
 		for (const bad of ['0', '91', '2.5', 'week', '', '-3']) {
 			const refusal = await refusalOf(() => setSessionAbsoluteDays(admin, bad));
+			// Text that is not a number at all gets the number reader's own reason.
 			expect(refusal.message).toMatch(
-				/^Longest session \(days\) must be a whole number from 1 to 90/
+				/^Longest session \(days\)(: (“week” is not a number|enter a number)| must be a whole number from 1 to 90)/
 			);
 			expect(refusal.field).toBe('sessionAbsoluteDays');
 		}

@@ -181,7 +181,7 @@ describe('feed streams in the simulation form', () => {
 			fieldErrors: { 'feeds.1.rateLPerH': missing },
 			message: missing
 		});
-		values.feeds[1].numbers.rateLPerH = '0,02';
+		values.feeds[1].numbers.rateLPerH = '0.02';
 		const built = buildSimulationRequest(values);
 		expect(built.ok && built.request.feeds).toEqual([
 			{ strategy: 'exponential', substrateGPerL: 500, startH: 8, muSetPerH: 0.2 },
@@ -234,7 +234,7 @@ describe('feed streams in the simulation form', () => {
 		expect(built).toEqual({
 			ok: false,
 			fieldErrors: {
-				endH: 'Enter a number (got “soon”).',
+				endH: 'End time (h): “soon” is not a number.',
 				'kinetics.muMaxPerH': expect.stringMatching(/^kinetics\.muMaxPerH must be greater than 0/)
 			}
 		});

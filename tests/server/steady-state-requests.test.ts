@@ -132,7 +132,7 @@ describe('the chemostat panel checks its request with the API’s schema', () =>
 			ok: false,
 			fieldErrors: {
 				muMaxPerH: 'μmax (1/h) is required.',
-				ksGPerL: 'Enter a number (got “lots”).',
+				ksGPerL: 'Ks (g/L): “lots” is not a number.',
 				safetyMarginPercent:
 					'Safety margin below D_crit (%) must be at least 0 and less than 100 (got 120).'
 			}

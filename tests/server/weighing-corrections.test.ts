@@ -108,7 +108,8 @@ describe('the hard band', () => {
 		expect(() => setHardBandPercent(admin, '0')).toThrow(
 			/Hard band \(%\) must be a number from 1 to 100/
 		);
-		expect(() => setHardBandPercent(admin, 'ten')).toThrow(/got “ten”/);
+		expect(() => setHardBandPercent(admin, 'ten')).toThrow('Hard band (%): “ten” is not a number.');
+		expect(() => setHardBandPercent(admin, '1,5')).toThrow(/decimal comma/);
 		setHardBandPercent(admin, '25');
 		try {
 			expect(hardBandPercent()).toBe(25);

@@ -2,7 +2,7 @@
 // The server adds the lookups (components, shelf forms, stock recipes) in server/recipes/draft.ts.
 import { z } from 'zod';
 import { ChemistryInputError, normalizeConcentrationUnit } from '$chemistry';
-import { readDecimalText } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import {
 	DEFAULT_TOLERANCE_PERCENT,
 	DRAFT_FIELD_LABELS,

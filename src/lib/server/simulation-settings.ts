@@ -2,7 +2,7 @@
 // study evaluation still running after it is stopped, so that no request can hold a thread for
 // long. A site setting; 10 s is well beyond any ordinary run here (the benchmarks' 14-day fed-batch
 // takes tens of milliseconds) and short enough that a person is still waiting for the answer.
-import { readDecimalText } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import type { Actor } from './audit';
 import { db, type Db } from './db';
 import { RuleError } from './rule-error';

@@ -1,7 +1,7 @@
 // One feed stream as the simulation form holds it, and its translation to and from a FeedInput.
 // The table of feed fields drives the stream's inputs, its part of the request and scenario loading.
 import type { FeedInput, FeedStrategy, OperatingMode } from '$chemistry';
-import { readNumberText } from './number-text';
+import { readDecimalText } from '$lib/number-reading';
 
 /** Streams the simulation page edits; the API takes more (the science library's MAX_FEED_STREAMS). */
 export const MAX_FORM_FEED_STREAMS = 3;
@@ -145,9 +145,9 @@ export function buildFeedInput(
 	for (const field of feedFieldsShown(stream, mode)) {
 		const text = (stream.numbers[field.key] ?? '').trim();
 		if (text === '') continue;
-		const value = readNumberText(text);
-		if (value === null) textErrors[`${path}.${field.key}`] = `Enter a number (got “${text}”).`;
-		else feed[field.key] = value;
+		const read = readDecimalText(text, field.label);
+		if (!read.ok) textErrors[`${path}.${field.key}`] = read.message;
+		else feed[field.key] = read.value;
 	}
 	feed.strategy = mode === 'fedBatch' ? stream.strategy : 'constant';
 	if (mode === 'fedBatch') {

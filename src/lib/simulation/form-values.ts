@@ -16,7 +16,7 @@ import {
 	readFeedInput,
 	type FeedStreamValues
 } from './feed-stream-values';
-import { readNumberText } from './number-text';
+import { readDecimalText } from '$lib/number-reading';
 
 export { STRATEGY_LABELS } from './feed-stream-values';
 
@@ -293,9 +293,9 @@ export function buildSimulationRequest(values: SimulationFormValues): BuiltReque
 		if (!isFieldShown(field, values)) continue;
 		const text = (values.numbers[field.path] ?? '').trim();
 		if (text === '') continue;
-		const value = readNumberText(text);
-		if (value === null) textErrors[field.path] = `Enter a number (got “${text}”).`;
-		else setPath(request, field.path, value);
+		const read = readDecimalText(text, field.label);
+		if (!read.ok) textErrors[field.path] = read.message;
+		else setPath(request, field.path, read.value);
 	}
 	const feeds: FeedInput[] = [];
 	feedStreamsUsed(values).forEach((stream, i) => {

@@ -1,6 +1,6 @@
 import { problemsByPath, zodProblems } from '$lib/field-problems';
 import type { z } from 'zod';
-import { readNumberText } from './number-text';
+import { readDecimalText } from '$lib/number-reading';
 
 export interface SimpleField {
 	key: string;
@@ -21,9 +21,9 @@ export function readSimpleFields(
 	for (const field of fields) {
 		const text = (values[field.key] ?? '').trim();
 		if (text === '') continue;
-		const value = readNumberText(text);
-		if (value === null) textErrors[field.key] = `Enter a number (got “${text}”).`;
-		else numbers[field.key] = value;
+		const read = readDecimalText(text, field.label);
+		if (!read.ok) textErrors[field.key] = read.message;
+		else numbers[field.key] = read.value;
 	}
 	return { numbers, textErrors };
 }

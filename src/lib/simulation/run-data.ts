@@ -2,7 +2,7 @@
 // Runs in the browser (preview before anything is sent) and in tests.
 import Papa from 'papaparse';
 import { visibleText } from '$lib/plain-text';
-import { readNumberText } from './number-text';
+import { numberOrNull as readNumberText } from '$lib/number-reading';
 
 export const MAX_UPLOAD_BYTES = 2 * 1024 * 1024;
 const TEXT_TYPES = new Set([

@@ -1,5 +1,6 @@
 // The absolute limit of a session: however busy, a session ends this many days after sign-in. A
 // site setting; a working week (7 days) is common practice for internal tools.
+import { readDecimalText } from '$lib/number-reading';
 import type { Actor } from '../audit';
 import { db, type Db } from '../db';
 import { RuleError } from '../rule-error';
@@ -24,9 +25,11 @@ export function sessionAbsoluteDays(reader: Reader = db): number {
 
 export function setSessionAbsoluteDays(actor: Actor, text: string): void {
 	const trimmed = text.trim();
-	const value = Number(trimmed);
+	const read = readDecimalText(trimmed, SESSION_ABSOLUTE_DAYS_LABEL);
+	if (!read.ok) throw new RuleError(read.message, { field: 'sessionAbsoluteDays' });
+	const value = read.value;
 	const { min, max } = SESSION_ABSOLUTE_RANGE_DAYS;
-	if (!trimmed || !Number.isInteger(value) || value < min || value > max)
+	if (!Number.isInteger(value) || value < min || value > max)
 		throw new RuleError(
 			`${SESSION_ABSOLUTE_DAYS_LABEL} must be a whole number from ${min} to ${max} (got “${trimmed}”).`,
 			{ field: 'sessionAbsoluteDays' }

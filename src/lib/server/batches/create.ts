@@ -1,4 +1,5 @@
-import { convertVolume, readDecimalText } from '$lib/quantities';
+import { convertVolume } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import { eq } from 'drizzle-orm';
 import { DEFAULT_TOLERANCE_PERCENT } from '$lib/recipes';
 import { recordAudit, type Actor } from '../audit';

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { readDecimalText } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import { recordAudit } from '../audit';
 import { db } from '../db';
 import { batch, batchDeviation, type RecipeVersion as Version } from '../db/schema';

@@ -1,6 +1,7 @@
 // The hard band around what a line needs: beyond it, a weighing is a gross error until a second
 // person witnesses it (a misplaced decimal point, grams typed as milligrams). The band is a site
 // setting; ±10 % is common practice for a check that is wider than any line's tolerance.
+import { readDecimalText } from '$lib/number-reading';
 import { checkTolerance } from '$lib/batches';
 import type { Actor } from '../audit';
 import { db, type Db } from '../db';
@@ -29,9 +30,11 @@ export function isBeyondHardBand(required: number, actual: number, bandPercent: 
 }
 
 export function setHardBandPercent(actor: Actor, text: string): void {
-	const value = Number(text.trim());
+	const read = readDecimalText(text, 'Hard band (%)');
+	if (!read.ok) throw new RuleError(read.message, { field: 'hardBandPercent' });
+	const value = read.value;
 	const { min, max } = HARD_BAND_RANGE_PERCENT;
-	if (!text.trim() || !Number.isFinite(value) || value < min || value > max)
+	if (value < min || value > max)
 		throw new RuleError(
 			`Hard band (%) must be a number from ${min} to ${max} (got “${text.trim()}”).`,
 			{ field: 'hardBandPercent' }

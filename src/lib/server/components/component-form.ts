@@ -1,4 +1,4 @@
-import { readDecimalText } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import { sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { ChemistryInputError, molarMassOf, parseFormula, resolveComponent } from '$chemistry';

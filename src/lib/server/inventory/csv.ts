@@ -27,6 +27,10 @@ const IMPORT_COLUMNS: Record<string, keyof LotText> = {
 	water_content_percent: 'waterContentPercent',
 	note: 'note'
 };
+/** A message names the file's own column, as the person sees it in their spreadsheet. */
+const COLUMN_OF_FIELD: Record<string, string> = Object.fromEntries(
+	Object.entries(IMPORT_COLUMNS).map(([column, field]) => [field, column])
+);
 const REQUIRED = [
 	'component',
 	'supplier',
@@ -67,7 +71,7 @@ export function previewLotCsv(text: string, today = isoToday()): LotImportPrevie
 		const errors = checked.ok
 			? []
 			: Object.entries(checked.fieldErrors).map(
-					([field, messages]) => `${field}: ${messages.join(' ')}`
+					([field, messages]) => `${COLUMN_OF_FIELD[field] ?? field}: ${messages.join(' ')}`
 				);
 		if (checked.ok) {
 			const key = [
@@ -77,7 +81,7 @@ export function previewLotCsv(text: string, today = isoToday()): LotImportPrevie
 			].join('|');
 			const earlier = seen.get(key);
 			if (earlier)
-				errors.push(`supplierLot: the same supplier lot is on row ${earlier} of this file.`);
+				errors.push(`supplier_lot: the same supplier lot is on row ${earlier} of this file.`);
 			else seen.set(key, rowNumber);
 		}
 		return {

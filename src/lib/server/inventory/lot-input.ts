@@ -1,4 +1,4 @@
-import { readDecimalText } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import { and, eq, sql } from 'drizzle-orm';
 import { DATE_KINDS, isoToday, type DateKind, type QuantityKind } from '$lib/inventory';
 import { MAX_ASSAY_PERCENT } from '$chemistry';
@@ -87,10 +87,15 @@ function checkPercent(
 	errors: FieldErrors
 ): number | null {
 	if (!value) return null;
-	const n = Number(value.replace(/\s*%$/, ''));
+	const read = readDecimalText(value.replace(/\s*%$/, ''), label);
+	if (!read.ok) {
+		errors[field] = [read.message];
+		return null;
+	}
+	const n = read.value;
 	const tooLow = minOpen ? n <= min : n < min;
 	const tooHigh = maxOpen ? n >= max : n > max;
-	if (!Number.isFinite(n) || tooLow || tooHigh) {
+	if (tooLow || tooHigh) {
 		errors[field] = [
 			`${label} must be a number ${minOpen ? 'above' : 'from'} ${min} ${maxOpen ? 'and below' : 'up to'} ${max} %.`
 		];

@@ -1,19 +1,21 @@
-import { unit as mathUnit } from 'mathjs';
 import { BASE_UNIT, type QuantityKind } from '$lib/inventory';
-import { convertMass, convertVolume, storedMass, storedVolumeUl } from '$lib/quantities';
+import {
+	convertMass,
+	convertVolume,
+	isMassUnit,
+	readQuantityUnit,
+	storedMass,
+	storedVolumeUl
+} from '$lib/quantities';
 import type { Component } from '../db/schema';
 import { RuleError } from '../rule-error';
 
-const MASS = mathUnit(1, 'g');
-
-/** "µL" as mathjs spells it. */
-function mathUnitName(text: string): string {
-	return text.trim().replace(/^[µμ]/, 'u');
-}
+const UNITS_ACCEPTED = 'kg, g, mg, L, mL or µL';
 
 /**
- * A quantity as received, converted through mathjs to the lot's integer base unit (mg or µL).
- * A volume is accepted only for a component with a density, since batches weigh by mass.
+ * A quantity as received, converted to the lot's integer base unit (mg or µL). Only the documented
+ * units are read (readQuantityUnit): "lb" or "gal" is refused, not converted. A volume is accepted
+ * only for a component with a density, since batches weigh by mass.
  */
 export function toBaseQuantity(
 	amount: number,
@@ -23,32 +25,22 @@ export function toBaseQuantity(
 ): { kind: QuantityKind; quantity: number } {
 	if (!Number.isFinite(amount) || amount <= 0)
 		throw new RuleError('The quantity must be a number above zero.', { field: fields.amount });
-	let parsed;
-	try {
-		parsed = mathUnit(amount, mathUnitName(unitText));
-	} catch {
+	const unit = readQuantityUnit(unitText);
+	if (!unit || unit === 'µg')
 		throw new RuleError(
-			`“${unitText}” is not a unit of mass or volume: use kg, g, mg, L, mL or µL.`,
+			`“${unitText.trim().slice(0, 20)}” is not a unit of mass or volume kept here: use ${UNITS_ACCEPTED}.`,
 			{ field: fields.unit }
 		);
-	}
-	const kind: QuantityKind | null = parsed.equalBase(MASS)
-		? 'mass'
-		: parsed.equalBase(mathUnit(1, 'L'))
-			? 'volume'
-			: null;
-	if (!kind)
-		throw new RuleError(
-			`“${unitText}” is not a unit of mass or volume: use kg, g, mg, L, mL or µL.`,
-			{ field: fields.unit }
-		);
+	const kind: QuantityKind = isMassUnit(unit) ? 'mass' : 'volume';
 	if (kind === 'volume' && !component.densityGPerMl) {
 		throw new RuleError(
 			`${component.name} has no density in the component library, so it is kept by mass: give the quantity in g or kg (or set its density first).`,
 			{ field: fields.unit }
 		);
 	}
-	const quantity = Math.round(parsed.toNumber(kind === 'mass' ? 'mg' : 'uL'));
+	const quantity = Math.round(
+		isMassUnit(unit) ? convertMass(amount, unit, 'mg') : convertVolume(amount, unit, 'µL')
+	);
 	if (quantity < 1)
 		throw new RuleError(`The quantity is below 1 ${BASE_UNIT[kind]}, the smallest amount kept.`, {
 			field: fields.amount

@@ -1,12 +1,26 @@
-import { decimalOrNaN } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import { z } from 'zod';
 
-const blankToUndefined = (v: unknown) =>
-	v === null || v === undefined || (typeof v === 'string' && v.trim() === '')
-		? undefined
-		: typeof v === 'string'
-			? decimalOrNaN(v)
-			: v;
+const isBlank = (v: unknown) =>
+	v === null || v === undefined || (typeof v === 'string' && v.trim() === '');
+
+/**
+ * A typed number read by the one rule, then checked against the bounds; the reader's own reason
+ * (ambiguous, a decimal comma at a point site, not a number) is the message. Blank is undefined.
+ */
+function typedNumber(label: string, b: Bounds) {
+	return z.preprocess((v, ctx) => {
+		if (isBlank(v)) return undefined;
+		if (typeof v === 'number') return v;
+		const read =
+			typeof v === 'string'
+				? readDecimalText(v, label)
+				: { ok: false as const, message: `${label}: enter a number` };
+		if (read.ok) return read.value;
+		ctx.addIssue({ code: 'custom', message: read.message });
+		return z.NEVER;
+	}, bounded(label, b).optional());
+}
 
 interface Bounds {
 	min?: number;
@@ -31,14 +45,15 @@ function bounded(label: string, b: Bounds) {
 
 /** A required number typed in a form; '' is "missing", not 0. */
 export function requiredNumber(label: string, b: Bounds = {}) {
-	return z
-		.preprocess(blankToUndefined, bounded(label, b).optional())
-		.refine((v) => v !== undefined, `${label} is required`) as unknown as z.ZodType<number>;
+	return typedNumber(label, b).refine(
+		(v) => v !== undefined,
+		`${label} is required`
+	) as unknown as z.ZodType<number>;
 }
 
 /** An optional number typed in a form; '' becomes null. */
 export function optionalNumber(label: string, b: Bounds = {}) {
-	return z.preprocess(blankToUndefined, bounded(label, b).optional()).transform((v) => v ?? null);
+	return typedNumber(label, b).transform((v) => v ?? null);
 }
 
 export const requiredText = (label: string, max = 120) =>

@@ -5,7 +5,7 @@ import {
 	type SubstrateYieldEntry,
 	type YieldFields
 } from '$chemistry';
-import { readDecimalText } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
 import { findComponent } from '../components/library';
 import { RuleError, withRuleErrors } from '../rule-error';
 

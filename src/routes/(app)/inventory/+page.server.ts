@@ -1,4 +1,6 @@
-import { decimalOrNaN } from '$lib/quantities';
+import { readDecimalText } from '$lib/number-reading';
+import { readGramsText } from '$lib/quantities';
+import { RuleError } from '$lib/server/rule-error';
 import { z } from 'zod';
 import { DEFAULT_EXPIRY_WINDOW_DAYS } from '$lib/inventory';
 import { tagged } from '$lib/server/form-tag';
@@ -19,18 +21,31 @@ import {
 import { setStockSettings } from '$lib/server/inventory/stock-settings';
 import type { Actions, PageServerLoad } from './$types';
 
-const optionalNumber = (message: string) =>
+const optionalNumber = (label: string) =>
 	z
 		.string()
 		.trim()
-		.transform((v) => (v === '' ? null : decimalOrNaN(v)))
-		.refine((n) => n === null || Number.isFinite(n), message);
+		.transform((v, ctx) => {
+			if (v === '') return null;
+			const read = readDecimalText(v, label);
+			if (read.ok) return read.value;
+			ctx.addIssue({ code: 'custom', message: read.message });
+			return z.NEVER;
+		});
 
 const settingsForm = z.object({
 	componentId: z.string().min(1, 'Choose a component.'),
-	reorderLevelG: optionalNumber('The reorder level must be a number of grams.'),
-	densityGPerMl: optionalNumber('The density must be a number of g/mL.')
+	reorderLevel: z.string().trim().default(''),
+	densityGPerMl: optionalNumber('Density (g/mL, liquids)')
 });
+
+/** The reorder level typed in any documented unit, as grams; a volume uses the density given. */
+function reorderLevelGrams(text: string, densityGPerMl: number | null): number | null {
+	if (text === '') return null;
+	const read = readGramsText(text, 'Reorder level', densityGPerMl);
+	if (!read.ok) throw new RuleError(read.message, { field: 'reorderLevel' });
+	return read.grams;
+}
 
 export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('inventory.manage');
@@ -58,10 +73,14 @@ export const actions: Actions = {
 			const parsed = parseForm(settingsForm, formData);
 			if (!parsed.ok) return parsed.failure;
 			try {
+				const { componentId, reorderLevel, densityGPerMl } = parsed.data;
 				setStockSettings(
 					{ id: user.id, email: user.email, address: clientAddress() },
-					parsed.data.componentId,
-					parsed.data
+					componentId,
+					{
+						reorderLevelG: reorderLevelGrams(reorderLevel, densityGPerMl),
+						densityGPerMl
+					}
 				);
 			} catch (cause) {
 				return ruleFailure(formData, cause);

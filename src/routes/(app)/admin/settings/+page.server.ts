@@ -18,6 +18,12 @@ import {
 	SIMULATION_TIME_LIMIT_RANGE_S
 } from '$lib/server/simulation-settings';
 import { setSiteTimeZone, siteTimeZone, SITE_TIME_ZONE_LABEL } from '$lib/server/site-time-zone';
+import {
+	setStoredDecimalMark,
+	storedDecimalMark,
+	SITE_DECIMAL_MARK_LABEL
+} from '$lib/server/site-decimal-mark';
+import { DECIMAL_MARK_LABELS } from '$lib/number-reading';
 import type { Actions, PageServerLoad } from './$types';
 
 const patternForm = z.object({ pattern: z.string().max(60) });
@@ -26,6 +32,7 @@ const hardBandForm = z.object({ hardBandPercent: z.string().default('') });
 const sessionLimitForm = z.object({ sessionAbsoluteDays: z.string().default('') });
 const simulationLimitForm = z.object({ simulationTimeLimitS: formText });
 const timeZoneForm = z.object({ siteTimeZone: formText });
+const decimalMarkForm = z.object({ decimalMark: formText });
 
 export const load: PageServerLoad = async () => {
 	requirePermission('admin.settings');
@@ -41,6 +48,11 @@ export const load: PageServerLoad = async () => {
 			name: siteTimeZone(),
 			label: SITE_TIME_ZONE_LABEL,
 			known: Intl.supportedValuesOf('timeZone')
+		},
+		decimalMarkSetting: {
+			mark: storedDecimalMark(),
+			label: SITE_DECIMAL_MARK_LABEL,
+			choices: DECIMAL_MARK_LABELS
 		},
 		simulationTimeLimit: {
 			seconds: simulationTimeLimitS(),
@@ -142,6 +154,25 @@ export const actions: Actions = {
 			return {
 				form: 'timeZone',
 				saved: `Saved. Dates and times are now shown in ${siteTimeZone()}.`
+			};
+		}),
+	decimalMark: async ({ request }) =>
+		tagged('decimalMark', async () => {
+			const admin = requirePermission('admin.settings');
+			const formData = await request.formData();
+			const parsed = parseForm(decimalMarkForm, formData);
+			if (!parsed.ok) return parsed.failure;
+			try {
+				setStoredDecimalMark(
+					{ id: admin.id, email: admin.email, address: clientAddress() },
+					parsed.data.decimalMark
+				);
+			} catch (cause) {
+				return ruleFailure(formData, cause);
+			}
+			return {
+				form: 'decimalMark',
+				saved: `Saved. Numbers are now read with a decimal ${storedDecimalMark()}.`
 			};
 		}),
 	lotSigning: async ({ request }) =>

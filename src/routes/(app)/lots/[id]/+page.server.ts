@@ -1,4 +1,4 @@
-import { decimalOrNaN } from '$lib/quantities';
+import { decimalOrNaN } from '$lib/number-reading';
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Role } from '$lib/roles';
