@@ -40,3 +40,4 @@ export * from './productivity-schema';
 export * from './growth-fit';
 export * from './study';
 export * from './statistics';
+export * from './hazards';
