@@ -1,11 +1,14 @@
-import { PDFDocument, StandardFonts } from 'pdf-lib';
+import { PDFDocument, StandardFonts, rgb, type PDFFont } from 'pdf-lib';
 import QRCode from 'qrcode';
 import { BATCH_STATE_LABELS } from '$lib/batches';
+import { formatDateTime } from '$lib/date-time';
 import { batchVolumeL } from '$lib/quantities';
-import { A4, MARGIN, Writer } from '../pdf/layout';
+import { drawGrid } from '../pdf/grid';
+import { A4, MARGIN, toWinAnsi, Writer } from '../pdf/layout';
+import { SHEET_COLUMNS, sheetRows, signatureRows } from './sheet-table';
 import type { BatchView } from './view';
 
-type SheetLine = BatchView['lines'][number];
+const QR_PT = 96;
 
 async function drawRecordQr(doc: PDFDocument, w: Writer, recordUrl: string): Promise<void> {
 	const qr = await doc.embedPng(
@@ -16,11 +19,17 @@ async function drawRecordQr(doc: PDFDocument, w: Writer, recordUrl: string): Pro
 			errorCorrectionLevel: 'M'
 		})
 	);
-	w.page.drawImage(qr, { x: A4[0] - MARGIN - 96, y: A4[1] - MARGIN - 96, width: 96, height: 96 });
+	w.page.drawImage(qr, {
+		x: A4[0] - MARGIN - QR_PT,
+		y: A4[1] - MARGIN - QR_PT,
+		width: QR_PT,
+		height: QR_PT
+	});
 }
 
 function writeHeading(w: Writer, view: BatchView): void {
 	const b = view.batch;
+	const top = w.y;
 	w.text(`Batch sheet ${b.number}`, { size: 18, bold: true });
 	w.text(`${view.recipe.name}, version ${view.version.n} · ${BATCH_STATE_LABELS[b.state]}`, {
 		size: 11
@@ -28,8 +37,8 @@ function writeHeading(w: Writer, view: BatchView): void {
 	w.text(
 		`Target volume ${batchVolumeL(b.targetVolumeMl)} L · planned ${b.plannedOn} · for ${b.intendedUse}`
 	);
-	w.text(`Record: ${view.recordUrl}`, { size: 8 });
-	w.gap(40);
+	w.text(`Scan the code to open the record: ${view.recordUrl}`, { size: 7.5 });
+	w.y = Math.min(w.y, top - QR_PT) - 8;
 }
 
 function writeCautions(w: Writer, view: BatchView): void {
@@ -40,78 +49,100 @@ function writeCautions(w: Writer, view: BatchView): void {
 	});
 	for (const c of view.cautions)
 		w.text(`${c.code}: ${c.text}${c.components.length ? ` (${c.components.join(', ')})` : ''}`, {
-			x: MARGIN + 8
+			x: MARGIN + 8,
+			size: 8.5
 		});
 	w.gap();
 }
 
-function writeLine(w: Writer, line: SheetLine): void {
-	w.ensure(40);
-	const lotText =
-		line.kind === 'stock'
-			? `stock: ${line.stockSource || '________'}`
-			: line.chosen
-				? `lot ${line.chosen.code}`
-				: line.suggestion
-					? `suggested lot ${line.suggestion.code} (FEFO)`
-					: 'no usable lot';
-	w.text(
-		`${line.position}. ${line.name} — ${line.requiredText} ± ${line.tolerancePercent} % — ${lotText}`,
-		{ bold: true }
-	);
-	if (line.basisName)
-		w.text(`Given as ${line.amount} ${line.unit} of ${line.basisName}`, {
-			x: MARGIN + 12,
-			size: 8.5
-		});
-	else w.text(`${line.amount} ${line.unit}`, { x: MARGIN + 12, size: 8.5 });
-	for (const step of line.steps) w.text(step, { x: MARGIN + 12, size: 8.5 });
-	if (line.note) w.text(line.note, { x: MARGIN + 12, size: 8.5 });
-	w.text(
-		`Actual: ${line.actualText ?? '__________'}   Done by: ${line.doneByName ?? '__________'}${line.consumedText !== null ? `   Taken: ${line.consumedText}` : ''}`,
-		{ x: MARGIN + 12, size: 8.5 }
-	);
-	w.gap(3);
-}
-
 function writeFinishing(w: Writer, view: BatchView): void {
 	const b = view.batch;
+	w.ensure(60);
 	w.text(`Make up to ${batchVolumeL(b.targetVolumeMl)} L with purified water.`, { bold: true });
 	const v = view.version;
 	if (v.phRange)
 		w.text(
-			`pH: target ${v.targetPh} (accept ${v.phRange.min}–${v.phRange.max}, common practice). Measured: ${b.measuredPh ?? '______'}`
+			`pH: target ${v.targetPh} (accept ${v.phRange.min}–${v.phRange.max}, common practice). Measured: ${b.measuredPh ?? '________'}`
 		);
-	if (v.osmolalityMinMOsmPerKg !== null || v.osmolalityMaxMOsmPerKg !== null) {
+	if (v.osmolalityMinMOsmPerKg !== null || v.osmolalityMaxMOsmPerKg !== null)
 		w.text(
-			`Osmolality: ${v.osmolalityMinMOsmPerKg ?? '…'}–${v.osmolalityMaxMOsmPerKg ?? '…'} mOsm/kg. Measured: ${b.measuredOsmolality ?? '______'}`
+			`Osmolality: ${v.osmolalityMinMOsmPerKg ?? '…'}–${v.osmolalityMaxMOsmPerKg ?? '…'} mOsm/kg. Measured: ${b.measuredOsmolality ?? '________'} mOsm/kg`
 		);
-	}
 	if (v.instructions) {
 		w.gap();
 		w.text('Instructions', { bold: true });
 		w.text(v.instructions);
 	}
+	w.gap(8);
 }
 
-function writeDeviationsAndSignatures(w: Writer, view: BatchView): void {
-	if (view.deviations.length) {
-		w.gap();
-		w.text('Deviations', { bold: true, color: [0.6, 0.1, 0.1] });
-		for (const d of view.deviations) w.text(`${d.detail} Reason: ${d.reason} (${d.by})`);
-	}
-	if (view.signatures.length) {
-		w.gap();
-		w.text('Signatures', { bold: true });
-		for (const s of view.signatures)
-			w.text(
-				`${s.signerName} (${s.signerEmail}): ${s.meaning}, ${s.signedAt.toISOString()}${s.comment ? ` — ${s.comment}` : ''}`
-			);
-	}
+function writeDeviations(w: Writer, view: BatchView): void {
+	if (!view.deviations.length) return;
+	w.text('Deviations', { bold: true, color: [0.6, 0.1, 0.1] });
+	for (const d of view.deviations) w.text(`${d.detail} Reason: ${d.reason} (${d.by})`);
+	w.gap(8);
 }
 
-/** The batch sheet as a PDF: the same content as the printed page, with the record's QR code. */
-export async function buildBatchSheetPdf(view: BatchView): Promise<Uint8Array> {
+function writeSignatures(w: Writer, view: BatchView, timeZone: string): void {
+	w.ensure(90);
+	w.text('Signatures', { bold: true, size: 11 });
+	w.gap(2);
+	drawGrid(
+		w,
+		[
+			{ header: 'Role', widthPt: 80 },
+			{ header: 'Name', widthPt: 150 },
+			{ header: 'Signature', widthPt: 150 },
+			{ header: 'Date and time', widthPt: 135 }
+		],
+		signatureRows(view, timeZone).map((s) => [
+			{ text: s.role },
+			s.name ? { text: s.name } : { text: '', blank: true },
+			s.meaning ? { text: `signed electronically: ${s.meaning}` } : { text: '', blank: true },
+			s.at ? { text: s.at } : { text: '', blank: true }
+		])
+	);
+}
+
+/** Batch number and page x of y on every page, with the moment the sheet was printed. */
+function stampPages(doc: PDFDocument, font: PDFFont, view: BatchView, printed: string): void {
+	const pages = doc.getPages();
+	pages.forEach((page, i) => {
+		const size = 8;
+		const y = MARGIN / 2;
+		const left = toWinAnsi(
+			`Batch sheet ${view.batch.number} · ${view.recipe.name} v${view.version.n}`
+		);
+		const right = toWinAnsi(`Page ${i + 1} of ${pages.length}`);
+		const middle = toWinAnsi(`Printed ${printed}`);
+		const grey = rgb(0.3, 0.3, 0.3);
+		page.drawText(left, { x: MARGIN, y, size, font, color: grey });
+		page.drawText(middle, {
+			x: (A4[0] - font.widthOfTextAtSize(middle, size)) / 2,
+			y,
+			size,
+			font,
+			color: grey
+		});
+		page.drawText(right, {
+			x: A4[0] - MARGIN - font.widthOfTextAtSize(right, size),
+			y,
+			size,
+			font,
+			color: grey
+		});
+	});
+}
+
+/**
+ * The batch sheet as a PDF: the printed page's table (sheet-table.ts) ruled for filling in by hand,
+ * with the record's QR code, a signature block and the batch number and page on every page.
+ */
+export async function buildBatchSheetPdf(
+	view: BatchView,
+	timeZone: string,
+	printedAt = new Date()
+): Promise<Uint8Array> {
 	const doc = await PDFDocument.create();
 	doc.setTitle(`Batch sheet ${view.batch.number}`);
 	doc.setCreator('Brothwright');
@@ -122,9 +153,15 @@ export async function buildBatchSheetPdf(view: BatchView): Promise<Uint8Array> {
 	writeHeading(w, view);
 	writeCautions(w, view);
 	w.text('Order of addition', { bold: true, size: 11 });
-	for (const line of view.lines) writeLine(w, line);
-	w.gap();
+	w.gap(2);
+	drawGrid(
+		w,
+		SHEET_COLUMNS.map((c) => ({ header: c.header, widthPt: c.widthPt })),
+		sheetRows(view, timeZone).map((row) => SHEET_COLUMNS.map((c) => row[c.key]))
+	);
 	writeFinishing(w, view);
-	writeDeviationsAndSignatures(w, view);
+	writeDeviations(w, view);
+	writeSignatures(w, view, timeZone);
+	stampPages(doc, font, view, formatDateTime(printedAt, timeZone));
 	return doc.save();
 }

@@ -42,9 +42,9 @@ export class Writer {
 	page: PDFPage;
 	y: number;
 	constructor(
-		private readonly doc: PDFDocument,
-		private readonly font: PDFFont,
-		private readonly bold: PDFFont
+		readonly doc: PDFDocument,
+		readonly font: PDFFont,
+		readonly bold: PDFFont
 	) {
 		this.page = doc.addPage(A4);
 		this.y = A4[1] - MARGIN;
@@ -132,7 +132,7 @@ export class Writer {
 			drawRow(lines, this.font);
 		}
 	}
-	private wrap(text: string, font: PDFFont, size: number, maxWidth: number): string[] {
+	wrap(text: string, font: PDFFont, size: number, maxWidth: number): string[] {
 		const words = text.split(/\s+/);
 		const lines: string[] = [];
 		let current = '';

@@ -1,0 +1,123 @@
+import { rgb } from 'pdf-lib';
+import { MARGIN, toWinAnsi, type Writer } from './layout';
+
+export interface GridColumn {
+	header: string;
+	widthPt: number;
+}
+
+/** A cell: bold main text, smaller detail lines, or a blank with a line to write on. */
+export interface GridCell {
+	text: string;
+	detail?: string[];
+	blank?: boolean;
+}
+
+const TEXT_PT = 8.5;
+const DETAIL_PT = 7;
+const PAD_PT = 3;
+/** A blank cell is tall enough to write in by hand (about 7 mm). */
+const BLANK_ROW_PT = 20;
+const RULE = rgb(0.35, 0.35, 0.35);
+
+interface LaidCell {
+	main: string[];
+	detail: string[];
+	blank: boolean;
+}
+
+function layCell(w: Writer, cell: GridCell, widthPt: number, bold: boolean): LaidCell {
+	const inner = widthPt - 2 * PAD_PT;
+	return {
+		main: cell.text ? w.wrap(toWinAnsi(cell.text), bold ? w.bold : w.font, TEXT_PT, inner) : [],
+		detail: (cell.detail ?? []).flatMap((d) => w.wrap(toWinAnsi(d), w.font, DETAIL_PT, inner)),
+		blank: Boolean(cell.blank)
+	};
+}
+
+function cellHeight(cell: LaidCell): number {
+	const text = cell.main.length * (TEXT_PT + 2) + cell.detail.length * (DETAIL_PT + 2);
+	return Math.max(cell.blank ? BLANK_ROW_PT : 0, text + 2 * PAD_PT);
+}
+
+function drawCell(
+	w: Writer,
+	cell: LaidCell,
+	x: number,
+	top: number,
+	widthPt: number,
+	height: number
+) {
+	let y = top - PAD_PT;
+	for (const line of cell.main) {
+		w.page.drawText(line, { x: x + PAD_PT, y: y - TEXT_PT, size: TEXT_PT, font: w.bold });
+		y -= TEXT_PT + 2;
+	}
+	for (const line of cell.detail) {
+		w.page.drawText(line, {
+			x: x + PAD_PT,
+			y: y - DETAIL_PT,
+			size: DETAIL_PT,
+			font: w.font,
+			color: rgb(0.25, 0.25, 0.25)
+		});
+		y -= DETAIL_PT + 2;
+	}
+	if (cell.blank)
+		w.page.drawLine({
+			start: { x: x + PAD_PT, y: top - height + 5 },
+			end: { x: x + widthPt - PAD_PT, y: top - height + 5 },
+			thickness: 0.4,
+			color: rgb(0.6, 0.6, 0.6)
+		});
+}
+
+function drawRow(w: Writer, columns: GridColumn[], cells: LaidCell[], height: number): void {
+	const top = w.y;
+	let x = MARGIN;
+	columns.forEach((column, i) => {
+		w.page.drawRectangle({
+			x,
+			y: top - height,
+			width: column.widthPt,
+			height,
+			borderColor: RULE,
+			borderWidth: 0.5
+		});
+		drawCell(w, cells[i], x, top, column.widthPt, height);
+		x += column.widthPt;
+	});
+	w.y -= height;
+}
+
+/**
+ * A ruled table: every cell boxed, the header row repeated on each new page, and a row never split
+ * across pages, so each line of a sheet can be filled in and initialled on paper.
+ */
+export function drawGrid(w: Writer, columns: GridColumn[], rows: GridCell[][]): void {
+	const header = columns.map((c) => layCell(w, { text: c.header }, c.widthPt, true));
+	const headerHeight = Math.max(...header.map(cellHeight));
+	const drawHeader = () => {
+		const top = w.y;
+		w.page.drawRectangle({
+			x: MARGIN,
+			y: top - headerHeight,
+			width: columns.reduce((sum, c) => sum + c.widthPt, 0),
+			height: headerHeight,
+			color: rgb(0.9, 0.9, 0.9)
+		});
+		drawRow(w, columns, header, headerHeight);
+	};
+	const laid = rows.map((row) => row.map((cell, i) => layCell(w, cell, columns[i].widthPt, true)));
+	w.ensure(headerHeight + (laid[0] ? Math.max(...laid[0].map(cellHeight)) : 0));
+	drawHeader();
+	for (const cells of laid) {
+		const height = Math.max(...cells.map(cellHeight));
+		if (w.y - height < MARGIN) {
+			w.newPage();
+			drawHeader();
+		}
+		drawRow(w, columns, cells, height);
+	}
+	w.gap(8);
+}
