@@ -1,25 +1,38 @@
 import { requirePermission } from '$lib/server/guard';
 import { materialOfLot } from '$lib/server/inventory/material';
-import { lotQrText, qrSvg } from '$lib/server/inventory/labels';
+import { lotQrText, qrSvg, withoutSourceNotes } from '$lib/server/inventory/labels';
 import { findLot } from '$lib/server/inventory/lots';
 import type { Lot } from '$lib/server/db/schema';
+import type { LotLabelView } from '$lib/lot-labels';
 import type { PageServerLoad } from './$types';
+
+/** The lot's own date, or the retest date a recall set when that comes first. */
+function governingDate(lot: Lot): LotLabelView['date'] {
+	if (lot.retestOn !== null && lot.retestOn < lot.expiresOn)
+		return { kind: 'retest', on: lot.retestOn };
+	return { kind: lot.dateKind, on: lot.expiresOn };
+}
+
+async function labelOf(lot: Lot): Promise<LotLabelView> {
+	return {
+		id: lot.id,
+		code: lot.code,
+		componentName: withoutSourceNotes(materialOfLot(lot).name),
+		status: lot.status,
+		supplier: withoutSourceNotes(lot.supplier),
+		supplierLot: lot.supplierLot,
+		date: governingDate(lot),
+		storage: withoutSourceNotes(lot.storage),
+		// No lot's hazards are worked out for its label yet.
+		pictograms: [],
+		qr: await qrSvg(lotQrText(lot))
+	};
+}
 
 export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('lot.view');
 	const ids = [...new Set(url.searchParams.getAll('lot'))].slice(0, 200);
 	const lots = ids.map((id) => findLot(id)).filter((l): l is Lot => Boolean(l));
-	const labels = await Promise.all(
-		lots.map(async (l) => ({
-			id: l.id,
-			code: l.code,
-			componentName: materialOfLot(l).name,
-			supplierLot: `${l.supplier} ${l.supplierLot}`,
-			expiresOn: l.expiresOn,
-			dateKind: l.dateKind,
-			storage: l.storage,
-			qr: await qrSvg(lotQrText(l))
-		}))
-	);
+	const labels = await Promise.all(lots.map(labelOf));
 	return { labels, missing: ids.length - lots.length };
 };
