@@ -11,3 +11,4 @@ export {
 	type SolutionNotice
 } from './mixture';
 export * from './ppe';
+export * from './ph-adjusters';

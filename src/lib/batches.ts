@@ -135,6 +135,8 @@ export interface SheetLine {
 	/** The form the recipe gives the amount as, when the weighed form differs. */
 	basisName: string | null;
 	componentId: string | null;
+	/** The stock solution a stock line adds. */
+	stockRecipeId: string | null;
 	formula: string | null;
 	amount: number;
 	unit: string;

@@ -1,6 +1,7 @@
 // What a lot label shows and the sizes it prints at, shared by the label page, its server load and
 // its tests. Each size tiles A4 portrait (210 mm) inside 10 mm page margins:
 // columns × widthMm + (columns − 1) × columnGapMm = 190.
+import type { PictogramId } from '$chemistry';
 import type { DateKind, LotStatus } from './inventory';
 
 /** One label as the server gives it to the page; texts are as printed (no source notes). */
@@ -15,7 +16,7 @@ export interface LotLabelView {
 	date: { kind: DateKind; on: string };
 	storage: string;
 	/** GHS pictogram ids, 'GHS01'..'GHS09'. */
-	pictograms: string[];
+	pictograms: PictogramId[];
 	/** The QR code as SVG markup, made on the server from `lotQrText`. */
 	qr: string;
 }

@@ -3,6 +3,7 @@ import QRCode from 'qrcode';
 import { BATCH_STATE_LABELS } from '$lib/batches';
 import { formatDateTime } from '$lib/date-time';
 import { batchVolumeL } from '$lib/quantities';
+import { drawPictogram } from '$lib/hazards/pictogram-pdf';
 import { drawGrid } from '../pdf/grid';
 import { A4, MARGIN, toWinAnsi, Writer } from '../pdf/layout';
 import { SHEET_COLUMNS, sheetRows, signatureRows } from './sheet-table';
@@ -41,18 +42,44 @@ function writeHeading(w: Writer, view: BatchView): void {
 	w.y = Math.min(w.y, top - QR_PT) - 8;
 }
 
-function writeCautions(w: Writer, view: BatchView): void {
-	if (!view.cautions.length) return;
-	w.text('Cautions (follow the site procedures and the supplier SDS)', {
-		bold: true,
-		color: [0.6, 0.1, 0.1]
+const PICTOGRAM_PT = 20;
+
+/** The preparation's protective equipment, pictograms, fume hood, pH step, and our own notices. */
+function writeHandling(w: Writer, view: BatchView): void {
+	const p = view.preparation;
+	w.text('Handling', { bold: true, size: 11 });
+	const pictograms = [...new Set(Object.values(p.lines).flatMap((set) => set.pictograms))];
+	if (pictograms.length) {
+		w.ensure(PICTOGRAM_PT + 4);
+		pictograms.forEach((id, i) =>
+			drawPictogram(w.page, id, {
+				x: MARGIN + i * (PICTOGRAM_PT + 3),
+				y: w.y - PICTOGRAM_PT - 1,
+				sizePt: PICTOGRAM_PT
+			})
+		);
+		w.gap(PICTOGRAM_PT + 4);
+	}
+	w.text(
+		p.ppe.length
+			? `Wear or use: ${p.ppe.map((item) => item.text).join('; ')}.`
+			: 'No GHS hazard in the steps of this preparation.',
+		{ size: 9 }
+	);
+	if (p.fumeHood.length) w.text(`Fume hood for: ${p.fumeHood.join(', ')}.`, { size: 9 });
+	for (const agent of p.ph?.agents ?? []) {
+		const statements = agent.hazards.statements.map((s) => `${s.code} ${s.text}`).join('; ');
+		w.text(
+			`pH step: ${agent.name}, ${agent.workingSolution}${agent.hazards.signalWord ? ` - ${agent.hazards.signalWord}` : ''}${statements ? `: ${statements}` : ''}.`,
+			{ size: 9 }
+		);
+	}
+	if (p.ph?.unnamed) w.text(`pH step: ${p.ph.unnamed}`, { size: 9 });
+	for (const notice of p.notices) w.text(`Take care: ${notice.text}`, { size: 9, bold: true });
+	w.text('A reminder only: follow your site’s procedures and the supplier’s safety data sheet.', {
+		size: 7.5
 	});
-	for (const c of view.cautions)
-		w.text(`${c.code}: ${c.text}${c.components.length ? ` (${c.components.join(', ')})` : ''}`, {
-			x: MARGIN + 8,
-			size: 8.5
-		});
-	w.gap();
+	w.gap(6);
 }
 
 function writeFinishing(w: Writer, view: BatchView): void {
@@ -68,6 +95,13 @@ function writeFinishing(w: Writer, view: BatchView): void {
 		w.text(
 			`Osmolality: ${v.osmolalityMinMOsmPerKg ?? '…'}–${v.osmolalityMaxMOsmPerKg ?? '…'} mOsm/kg. Measured: ${b.measuredOsmolality ?? '________'} mOsm/kg`
 		);
+	const finished = view.preparation.finished.statements;
+	w.text(
+		finished.length
+			? `The finished solution carries: ${finished.map((s) => `${s.code} ${s.text}`).join('; ')}.`
+			: 'The finished solution carries no GHS statement at its concentrations.',
+		{ size: 8.5 }
+	);
 	if (v.instructions) {
 		w.gap();
 		w.text('Instructions', { bold: true });
@@ -151,7 +185,7 @@ export async function buildBatchSheetPdf(
 	const w = new Writer(doc, font, bold);
 	await drawRecordQr(doc, w, view.recordUrl);
 	writeHeading(w, view);
-	writeCautions(w, view);
+	writeHandling(w, view);
 	w.text('Order of addition', { bold: true, size: 11 });
 	w.gap(2);
 	drawGrid(

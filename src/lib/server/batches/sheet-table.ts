@@ -2,6 +2,8 @@
 // (routes/(app)/batches/[id]/sheet) and by the PDF (pdf.ts) alike, so paper and screen agree.
 import { COMPLETION_MEANING, formatLineQuantity } from '$lib/batches';
 import { formatDateTime } from '$lib/date-time';
+import type { PictogramId } from '$chemistry';
+import type { HazardSet } from '$lib/hazards/preparation';
 import type { BatchView } from './view';
 
 export const SHEET_COLUMNS = [
@@ -16,10 +18,11 @@ export const SHEET_COLUMNS = [
 
 export type SheetColumnKey = (typeof SHEET_COLUMNS)[number]['key'];
 
-/** A cell: its main text, smaller lines below it, or a blank to write in by hand. */
+/** A cell: its main text, smaller lines below it, GHS pictograms, or a blank to write in by hand. */
 export interface SheetCell {
 	text: string;
 	detail?: string[];
+	pictograms?: PictogramId[];
 	blank?: boolean;
 }
 
@@ -38,16 +41,26 @@ export function initialsOf(name: string): string {
 		.join('');
 }
 
-function componentCell(line: ViewLine): SheetCell {
+/** "As weighed: Danger · H300 H331": the step's hazards in one line; the pictograms drawn beside. */
+function hazardLine(line: ViewLine, hazards: HazardSet | undefined): string[] {
+	if (!hazards?.statements.length) return [];
+	const handled = line.kind === 'stock' ? 'The stock as dosed' : 'As weighed';
+	const word = hazards.signalWord ? `${hazards.signalWord} · ` : '';
+	return [`${handled}: ${word}${hazards.statements.map((s) => s.code).join(' ')}`];
+}
+
+function componentCell(line: ViewLine, hazards: HazardSet | undefined): SheetCell {
 	const given =
 		line.kind === 'stock'
 			? `${line.amount} mL/L`
 			: line.basisName
 				? `${line.amount} ${line.unit} as ${line.basisName}`
 				: `${line.amount} ${line.unit}`;
-	// The working ends in the unrounded mass; the Weigh / add column gives it as the balance reads.
-	const working = line.steps.filter((step) => !step.startsWith('weigh '));
-	return { text: line.name, detail: [given, ...working, ...(line.note ? [line.note] : [])] };
+	return {
+		text: line.name,
+		detail: [given, ...line.steps, ...(line.note ? [line.note] : []), ...hazardLine(line, hazards)],
+		pictograms: hazards?.pictograms ?? []
+	};
 }
 
 function suggestedCell(line: ViewLine): SheetCell {
@@ -75,7 +88,7 @@ export function sheetRows(view: BatchView, timeZone: string): SheetRow[] {
 	return view.lines.map((line) => ({
 		id: line.id,
 		position: { text: String(line.position) },
-		component: componentCell(line),
+		component: componentCell(line, view.preparation.lines[line.id]),
 		quantity: { text: line.requiredText, detail: [`± ${line.tolerancePercent} %`] },
 		suggested: suggestedCell(line),
 		lotUsed: lotUsedCell(line),

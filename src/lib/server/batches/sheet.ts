@@ -241,6 +241,7 @@ function stockSheetLine(
 		name,
 		basisName: null,
 		componentId: null,
+		stockRecipeId: source.stockRecipeId,
 		formula: null,
 		requiredQuantity: requiredUl,
 		requiredFor: chosenRow ? 'chosen' : 'nominal',
@@ -287,11 +288,14 @@ function componentSheetLine(
 		name: weighed.name,
 		basisName: shelf ? basis.name : null,
 		componentId: weighed.id,
+		stockRecipeId: null,
 		formula: weighed.formula,
 		requiredQuantity: requiredUg,
 		requiredFor: forChosen ? 'chosen' : suggested?.requirement ? 'suggested' : 'nominal',
 		requiredText: formatLineQuantity(requiredUg, 'component'),
-		steps: nominal.steps,
+		// The working ends in the unrounded mass ("weigh 4.01605 g"); the line's required text gives it
+		// as the balance reads it, so the working stops before it.
+		steps: nominal.steps.filter((step) => !step.startsWith('weigh ')),
 		chosen: chosenRow
 			? choiceOf(chosenRow, sheet.chosenOnHand.get(chosenRow.id) ?? 0, today)
 			: null,

@@ -4,59 +4,15 @@ import { config } from '../config';
 import { db } from '../db';
 import { batchDeviation, recipe, recipeVersion, user } from '../db/schema';
 import { lotsUsedByBatch } from '../inventory/where-used';
-import { analyseVersion } from '../recipes/analysis';
 import { findRecipe, findVersionById, personName } from '../recipes/queries';
-import { RuleError } from '../rule-error';
 import { signaturesFor } from '../signatures';
 import { completionProblem } from './completion';
 import { requireBatch } from './execution';
+import { preparationHazards } from './preparation-hazards';
 import { buildSheetLines, phRange } from './sheet';
 
 export function batchRecordUrl(batchId: string): string {
 	return `${config.origin}/batches/${batchId}`;
-}
-
-/** Hot solutions scald: common practice flags preparation above 40 °C. */
-const HOT_PREPARATION_C = 40;
-
-export interface Caution {
-	code: string;
-	text: string;
-	components: string[];
-}
-
-/** The cautions on a sheet: the components' GHS statements, and a hot-solution warning when it applies. */
-export function sheetCautions(version: {
-	id: string;
-	recipeId: string;
-	preparationTemperatureC: number;
-	osmolalityMinMOsmPerKg: number | null;
-	osmolalityMaxMOsmPerKg: number | null;
-	instructions: string;
-}): Caution[] {
-	const cautions: Caution[] = [];
-	try {
-		cautions.push(
-			...analyseVersion(version).hazards.map((h) => ({
-				code: h.code,
-				text: h.text,
-				components: h.components
-			}))
-		);
-	} catch (cause) {
-		if (!(cause instanceof RuleError)) throw cause;
-	}
-	if (
-		version.preparationTemperatureC > HOT_PREPARATION_C ||
-		/autoclav|hot|warm/i.test(version.instructions)
-	) {
-		cautions.push({
-			code: 'HOT',
-			text: 'Hot solution or autoclaved medium: risk of scalds; let it cool and use heat-resistant gloves.',
-			components: []
-		});
-	}
-	return cautions;
 }
 
 /** The full batch record: sheet lines, lots, measurements, deviations and signatures. */
@@ -107,7 +63,7 @@ export function batchView(batchId: string, today = isoToday()) {
 		lots: lotsUsedByBatch(b.id),
 		deviations,
 		signatures: signaturesFor('batch', [b.id]),
-		cautions: sheetCautions(version),
+		preparation: preparationHazards(version, lines),
 		completionProblem:
 			b.state === 'in_preparation' || b.state === 'planned' ? completionProblem(b) : null,
 		recordUrl: batchRecordUrl(b.id)

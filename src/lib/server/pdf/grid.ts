@@ -1,4 +1,6 @@
 import { rgb } from 'pdf-lib';
+import type { PictogramId } from '$chemistry';
+import { drawPictogram } from '$lib/hazards/pictogram-pdf';
 import { MARGIN, toWinAnsi, type Writer } from './layout';
 
 export interface GridColumn {
@@ -10,6 +12,7 @@ export interface GridColumn {
 export interface GridCell {
 	text: string;
 	detail?: string[];
+	pictograms?: PictogramId[];
 	blank?: boolean;
 }
 
@@ -18,11 +21,14 @@ const DETAIL_PT = 7;
 const PAD_PT = 3;
 /** A blank cell is tall enough to write in by hand (about 7 mm). */
 const BLANK_ROW_PT = 20;
+/** GHS pictograms in a cell: about 6 mm, large enough to tell apart on paper. */
+const PICTOGRAM_PT = 17;
 const RULE = rgb(0.35, 0.35, 0.35);
 
 interface LaidCell {
 	main: string[];
 	detail: string[];
+	pictograms: PictogramId[];
 	blank: boolean;
 }
 
@@ -31,12 +37,16 @@ function layCell(w: Writer, cell: GridCell, widthPt: number, bold: boolean): Lai
 	return {
 		main: cell.text ? w.wrap(toWinAnsi(cell.text), bold ? w.bold : w.font, TEXT_PT, inner) : [],
 		detail: (cell.detail ?? []).flatMap((d) => w.wrap(toWinAnsi(d), w.font, DETAIL_PT, inner)),
+		pictograms: cell.pictograms ?? [],
 		blank: Boolean(cell.blank)
 	};
 }
 
 function cellHeight(cell: LaidCell): number {
-	const text = cell.main.length * (TEXT_PT + 2) + cell.detail.length * (DETAIL_PT + 2);
+	const text =
+		cell.main.length * (TEXT_PT + 2) +
+		cell.detail.length * (DETAIL_PT + 2) +
+		(cell.pictograms.length ? PICTOGRAM_PT + 2 : 0);
 	return Math.max(cell.blank ? BLANK_ROW_PT : 0, text + 2 * PAD_PT);
 }
 
@@ -63,6 +73,13 @@ function drawCell(
 		});
 		y -= DETAIL_PT + 2;
 	}
+	cell.pictograms.forEach((id, i) =>
+		drawPictogram(w.page, id, {
+			x: x + PAD_PT + i * (PICTOGRAM_PT + 2),
+			y: y - PICTOGRAM_PT - 1,
+			sizePt: PICTOGRAM_PT
+		})
+	);
 	if (cell.blank)
 		w.page.drawLine({
 			start: { x: x + PAD_PT, y: top - height + 5 },

@@ -5,7 +5,8 @@ import {
 	toGramsPerLitre,
 	type CompositionResult,
 	type ElementComposition,
-	type GhsHazard
+	type GhsHazard,
+	classifySolution
 } from '$chemistry';
 import { convertVolume } from '$lib/quantities';
 import { db, type Db } from '../db';
@@ -264,17 +265,30 @@ function composeEntries(entries: Contribution[], temperatureC: number): Composit
 	}
 }
 
-/** Each GHS hazard of the recipe once, with the components that carry it. */
-function hazardsOf(entries: Contribution[]): Map<string, GhsHazard & { components: string[] }> {
-	const hazards = new Map<string, GhsHazard & { components: string[] }>();
-	for (const { component } of entries) {
-		for (const h of component.ghsHazards) {
-			const entry = hazards.get(h.code) ?? { ...h, components: [] };
-			entry.components.push(component.name);
-			hazards.set(h.code, entry);
-		}
-	}
-	return hazards;
+/** A dilute aqueous solution weighs about 1 kg per litre (common practice), so g/L ÷ 1000 is g/g. */
+const SOLUTION_G_PER_L = 1000;
+
+/**
+ * The GHS statements of the solution itself at its concentrations (UN GHS mixture rules in
+ * chemistry/hazards), each with the components that carry it: a trace stock dosed at 1 mL/L adds
+ * nothing it does not carry at that strength. What the pure components carry while being weighed is
+ * the batch sheet's business (batches/preparation-hazards.ts).
+ */
+function hazardsOf(entries: Contribution[]): (GhsHazard & { components: string[] })[] {
+	const hazardous = entries.filter(({ component }) => component.ghsHazards.length > 0);
+	// A very concentrated feed can hold more than 1 kg of these solids per litre, where the 1 kg/L
+	// estimate fails: each is then taken as its share of those solids alone, an upper bound of its
+	// true share, since the solution also holds water.
+	const totalGPerL = hazardous.reduce((sum, e) => sum + e.gPerL, 0);
+	const perGram = Math.max(SOLUTION_G_PER_L, totalGPerL);
+	const classified = classifySolution(
+		hazardous.map(({ component, gPerL }) => ({
+			name: component.name,
+			massFraction: gPerL / perGram,
+			hazards: component.ghsHazards
+		}))
+	);
+	return classified.hazards.map((h) => ({ code: h.code, text: h.text, components: h.ingredients }));
 }
 
 /**
@@ -333,7 +347,7 @@ export function analyseLines(
 			lines: linesOfEntries(w.lineIndexes)
 		})),
 		notes: [...new Set(expander.notes)],
-		hazards: [...hazards.values()].sort((a, b) => a.code.localeCompare(b.code))
+		hazards: hazards.sort((a, b) => a.code.localeCompare(b.code))
 	};
 }
 

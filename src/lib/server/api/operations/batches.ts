@@ -1,3 +1,4 @@
+import { PICTOGRAM_IDS, type PictogramId } from '$chemistry';
 import { z } from 'zod';
 import { BATCH_LINE_KINDS, BATCH_STATES, DEVIATION_KINDS } from '$lib/batches';
 import { QUANTITY_KINDS } from '$lib/inventory';
@@ -108,6 +109,39 @@ const lotChoice = z.object({
 	supplierLot: z.string()
 });
 
+const hazardSet = z
+	.object({
+		statements: z.array(z.object({ code: z.string(), text: z.string() })),
+		pictograms: z.array(z.enum(PICTOGRAM_IDS as [PictogramId, ...PictogramId[]])),
+		signalWord: z.enum(['Danger', 'Warning']).nullable(),
+		ppe: z.array(z.object({ id: z.string(), text: z.string() }))
+	})
+	.describe(
+		'GHS statements (UN GHS), their pictograms and signal word, and the protective equipment they call for'
+	);
+
+const preparationResponse = z
+	.object({
+		lines: z
+			.record(z.string(), hazardSet)
+			.describe('per line id: the component as weighed, or the stock solution at its own strength'),
+		ph: z
+			.object({
+				agents: z.array(
+					z.object({ name: z.string(), workingSolution: z.string(), hazards: hazardSet })
+				),
+				unnamed: z.string().nullable()
+			})
+			.nullable(),
+		finished: hazardSet.describe('the finished solution at its concentrations'),
+		ppe: z.array(z.object({ id: z.string(), text: z.string() })),
+		fumeHood: z.array(z.string()).describe('lines whose handling calls for the fume hood'),
+		notices: z
+			.array(z.object({ id: z.string(), text: z.string() }))
+			.describe('our own notices in plain words, not GHS statements')
+	})
+	.describe('what is handled at each step of the preparation, and its hazards there');
+
 export const batchViewResponse = describes<ReturnType<typeof batchView>>()(
 	z.object({
 		batch: z.object({
@@ -137,6 +171,7 @@ export const batchViewResponse = describes<ReturnType<typeof batchView>>()(
 				name: z.string(),
 				basisName: z.string().nullable(),
 				componentId: z.string().nullable(),
+				stockRecipeId: z.string().nullable(),
 				formula: z.string().nullable(),
 				amount: z.number(),
 				unit: z.string(),
@@ -186,9 +221,7 @@ export const batchViewResponse = describes<ReturnType<typeof batchView>>()(
 			})
 		),
 		signatures: z.array(signatureResponse),
-		cautions: z.array(
-			z.object({ code: z.string(), text: z.string(), components: z.array(z.string()) })
-		),
+		preparation: preparationResponse,
 		completionProblem: z
 			.string()
 			.nullable()

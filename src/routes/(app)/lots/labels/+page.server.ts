@@ -1,3 +1,7 @@
+import { labelElementsOf, type PictogramId } from '$chemistry';
+import { analyseVersion } from '$lib/server/recipes/analysis';
+import { currentApprovedVersion } from '$lib/server/recipes/queries';
+import { RuleError } from '$lib/server/rule-error';
 import { requirePermission } from '$lib/server/guard';
 import { materialOfLot } from '$lib/server/inventory/material';
 import { lotQrText, qrSvg, withoutSourceNotes } from '$lib/server/inventory/labels';
@@ -13,6 +17,24 @@ function governingDate(lot: Lot): LotLabelView['date'] {
 	return { kind: lot.dateKind, on: lot.expiresOn };
 }
 
+/**
+ * The GHS pictograms of what the lot holds: a received component as supplied, or a stock made here
+ * as the solution it is (its statements at its own concentrations).
+ */
+function pictogramsOfLot(lot: Lot): PictogramId[] {
+	const material = materialOfLot(lot);
+	if (material.component)
+		return labelElementsOf(material.component.ghsHazards.map((h) => h.code)).pictograms;
+	const version = material.stock ? currentApprovedVersion(material.stock.recipeId) : undefined;
+	if (!version) return [];
+	try {
+		return labelElementsOf(analyseVersion(version).hazards.map((h) => h.code)).pictograms;
+	} catch (cause) {
+		if (cause instanceof RuleError) return [];
+		throw cause;
+	}
+}
+
 async function labelOf(lot: Lot): Promise<LotLabelView> {
 	return {
 		id: lot.id,
@@ -23,8 +45,7 @@ async function labelOf(lot: Lot): Promise<LotLabelView> {
 		supplierLot: lot.supplierLot,
 		date: governingDate(lot),
 		storage: withoutSourceNotes(lot.storage),
-		// No lot's hazards are worked out for its label yet.
-		pictograms: [],
+		pictograms: pictogramsOfLot(lot),
 		qr: await qrSvg(lotQrText(lot))
 	};
 }
