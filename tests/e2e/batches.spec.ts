@@ -30,7 +30,7 @@ test.describe('prep technician', () => {
 		const qr = await page.getByTestId('sheet-qr').getAttribute('src');
 		const scanned = decodeQr(qr!);
 		expect(scanned).toBe(`${baseURL}/batches/${id}`);
-		await expect(page.getByText(/Cautions/).first()).toBeVisible();
+		await expect(page.getByRole('heading', { name: 'Handling' })).toBeVisible();
 
 		// The keyboard-wedge scanner types the code into the focused field and presses Enter.
 		await page.goto('/batches/open');
@@ -78,7 +78,7 @@ test.describe('prep technician', () => {
 			const massField = card.getByLabel(new RegExp(`^(Mass|Volume) for line ${n}$`));
 			if (n === 1) {
 				const grams = Number(required.replace(' g', ''));
-				await massField.fill(String(Number((grams * 1.05).toFixed(2))).replace('.', ','));
+				await massField.fill(String(Number((grams * 1.05).toFixed(2))));
 				await expect(card.getByTestId('tolerance')).toHaveText('Out of tolerance (above)');
 				await expect(card.getByRole('button', { name: 'Sign line 1 as done' })).toBeDisabled();
 				await card
@@ -95,7 +95,7 @@ test.describe('prep technician', () => {
 		}
 		await expect(page.getByTestId('deviations')).toContainText('Balance drift noticed');
 
-		await page.getByLabel('Measured pH').fill('7,0');
+		await page.getByLabel('Measured pH').fill('7.0');
 		await page.getByLabel('Measured osmolality (mOsm/kg)').fill('262');
 		await page.getByRole('button', { name: 'Record measurements' }).click();
 		await expect(page.getByText('Measurements recorded.')).toBeVisible();
