@@ -1,3 +1,4 @@
+import { countOf } from '../lib/plural';
 // `npm run digest`: sends the inventory digest now, through SMTP_HOST or the stand-in of a running `npm start`.
 import { config } from '../lib/server/config';
 import { getDb } from '../lib/server/db';
@@ -18,7 +19,7 @@ try {
 		console.log('No active inventory lead to send the digest to; nothing sent.');
 	} else {
 		console.log(
-			`Digest for ${digest.today} sent to ${recipients.join(', ')} through ${config.smtp.host}:${config.smtp.port}: ${digest.expiring.total} lots expiring within ${digest.days} days, ${digest.low.length} components below reorder level.`
+			`Digest for ${digest.today} sent to ${recipients.join(', ')} through ${config.smtp.host}:${config.smtp.port}: ${countOf(digest.expiring.total, 'lot')} expiring within ${countOf(digest.days, 'day')}, ${countOf(digest.low.length, 'component')} below reorder level.`
 		);
 	}
 	process.exit(0);

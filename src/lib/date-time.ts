@@ -37,10 +37,35 @@ function partsOf(at: Date | string | number, timeZone: string) {
 	};
 }
 
-/** "2026-12-03 14:05 CET": the date, the 24-hour time and the zone's short name. */
-export function formatDateTime(at: Date | string | number, timeZone: string): string {
-	const { date, time, zone } = partsOf(at, timeZone);
-	return `${date} ${time} ${zone}`;
+/**
+ * "2026-12-03 14:05 CET": the date, the 24-hour time and the zone's short name; with `seconds`,
+ * "2026-12-03 14:05:09 CET" (the audit trail).
+ */
+export function formatDateTime(
+	at: Date | string | number,
+	timeZone: string,
+	options: { seconds?: boolean } = {}
+): string {
+	const { date, time, seconds, zone } = partsOf(at, timeZone);
+	return `${date} ${time}${options.seconds ? `:${seconds}` : ''} ${zone}`;
+}
+
+const offsetFormatters = new Map<string, Intl.DateTimeFormat>();
+
+/**
+ * "2026-12-03T15:05:09+01:00": ISO 8601 in the site's zone with its offset, for CSV columns a
+ * spreadsheet or script reads back to the same moment.
+ */
+export function formatIsoLocal(at: Date | string | number, timeZone: string): string {
+	const { date, time, seconds } = partsOf(at, timeZone);
+	let formatter = offsetFormatters.get(timeZone);
+	if (!formatter) {
+		formatter = new Intl.DateTimeFormat('en-GB', { timeZone, timeZoneName: 'longOffset' });
+		offsetFormatters.set(timeZone, formatter);
+	}
+	const name = formatter.formatToParts(new Date(at)).find((p) => p.type === 'timeZoneName')!.value;
+	const offset = name === 'GMT' ? '+00:00' : name.replace('GMT', '');
+	return `${date}T${time}:${seconds}${offset}`;
 }
 
 /** "14:05:09": the time of day with seconds, for "saved at" notes. */

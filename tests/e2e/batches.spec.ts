@@ -168,6 +168,8 @@ test.describe('prep technician', () => {
 		await fresh.goto(`/batches/${id}`);
 		await expect(fresh.getByText(/Back online: 1 saved entry was sent/)).toBeVisible();
 		await expect(fresh.getByTestId('line-1').getByTestId('line-done')).toContainText(required);
+		// Once sent, no notice says it is still held on the tablet.
+		await expect(fresh.getByTestId('line-1').getByText(/saved on this tablet/i)).toHaveCount(0);
 	});
 
 	test('the batch sheet downloads as a PDF', async ({ page }) => {

@@ -1,3 +1,6 @@
+import { page } from '$app/state';
+import { formatDateTime as formatInZone } from '$lib/date-time';
+
 /** Three significant figures, without trailing zeros or exponent for everyday sizes. */
 export function formatAmount(value: number | null | undefined): string {
 	if (value === null || value === undefined || !Number.isFinite(value)) return '—';
@@ -7,7 +10,11 @@ export function formatAmount(value: number | null | undefined): string {
 	return Number(value.toPrecision(3)).toString();
 }
 
+/**
+ * A moment in the site's time zone, for text built in a script (table cells, titles); markup uses
+ * <DateTime>. Reads the zone from the page's data, so it is called while a page renders.
+ */
 export function formatDateTime(value: Date | string | number | null | undefined): string {
 	if (!value) return '—';
-	return `${new Date(value).toISOString().replace('T', ' ').slice(0, 16)} UTC`;
+	return formatInZone(value, (page.data.siteTimeZone as string | undefined) ?? 'UTC');
 }

@@ -1,3 +1,5 @@
+import { formatDateTime } from '$lib/date-time';
+import { siteTimeZone } from '../site-time-zone';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { component } from '../db/schema';
@@ -100,6 +102,6 @@ export function exportComponentsCsv(): string {
 	return toCsv(
 		rows,
 		[...COMPONENT_CSV_COLUMNS.allowed],
-		[`Brothwright component library, exported ${new Date().toISOString()}`]
+		[`Brothwright component library, exported ${formatDateTime(new Date(), siteTimeZone())}`]
 	);
 }

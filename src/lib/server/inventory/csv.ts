@@ -1,3 +1,6 @@
+import { countOf } from '$lib/plural';
+import { formatDateTime, formatIsoLocal } from '$lib/date-time';
+import { siteTimeZone } from '../site-time-zone';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { formatQuantity, isoToday, type QuantityKind } from '$lib/inventory';
 import { parseCsv, toCsv } from '../csv';
@@ -100,7 +103,7 @@ export function importLotCsv(actor: SignedActor, text: string, today = isoToday(
 	const preview = previewLotCsv(text, today);
 	if (preview.invalid) {
 		throw new RuleError(
-			`${preview.invalid} of ${preview.rows.length} rows have problems; nothing was imported. Correct them and preview again.`,
+			`${preview.invalid} of ${countOf(preview.rows.length, 'row')} ${preview.invalid === 1 ? 'has a problem' : 'have problems'}; nothing was imported. Correct ${preview.invalid === 1 ? 'it' : 'them'} and preview again.`,
 			{ field: 'csv' }
 		);
 	}
@@ -160,7 +163,7 @@ export function lotsExport(today = isoToday()): CsvExport<LotExportKey> {
 	return {
 		columns: LOT_EXPORT_COLUMNS,
 		comments: [
-			`Lots at Pilot Plant North, exported ${new Date().toISOString()}. Quantities are integers in the base unit (mg or uL).`
+			`Lots at Pilot Plant North, exported ${formatDateTime(new Date(), siteTimeZone())}. Quantities are integers in the base unit (mg or uL).`
 		],
 		read: (after, limit) => {
 			const lots = listLotsAfter(after, limit, today);
@@ -194,6 +197,7 @@ type LedgerExportKey = LedgerCursor;
 
 /** The ledger (of one lot, or all of it) in the order recorded, read a chunk at a time. */
 export function ledgerExport(lotId?: string): CsvExport<LedgerExportKey> {
+	const timeZone = siteTimeZone();
 	return {
 		columns: LEDGER_EXPORT_COLUMNS,
 		comments: ['Stock ledger: append-only. On-hand of a lot is the sum of its quantities.'],
@@ -233,7 +237,7 @@ export function ledgerExport(lotId?: string): CsvExport<LedgerExportKey> {
 			const last = entries.at(-1);
 			return {
 				rows: entries.map((e) => [
-					e.at.toISOString(),
+					formatIsoLocal(e.at, timeZone),
 					e.lotCode,
 					e.material,
 					e.kind,
@@ -264,7 +268,7 @@ export function whereUsedCsv(lotCode: string, uses: TracedUse[]): string {
 			state: u.state,
 			recipe: u.recipeName,
 			planned_on: u.plannedOn,
-			prepared_at: u.preparedAt ? u.preparedAt.toISOString() : '',
+			prepared_at: u.preparedAt ? formatIsoLocal(u.preparedAt, siteTimeZone()) : '',
 			intended_use: u.intendedUse,
 			line: u.position,
 			consumed: u.consumedQuantity ?? '',

@@ -1,3 +1,5 @@
+import { formatDateTime } from '$lib/date-time';
+import { siteTimeZone } from '../site-time-zone';
 import { eq, sql } from 'drizzle-orm';
 import { VERSION_STATUS_LABELS, type DraftLineInput } from '$lib/recipes';
 import { db } from '../db';
@@ -163,7 +165,7 @@ export function exportVersionCsv(recipeRow: Recipe, version: RecipeVersion): str
 		[...LINE_CSV_COLUMNS.allowed],
 		[
 			`Brothwright recipe: ${recipeRow.name}, version ${version.n} (${VERSION_STATUS_LABELS[version.status]})`,
-			`Lines in order of addition; amounts are concentrations in the finished medium, stocks in mL per L. Exported ${new Date().toISOString()}`
+			`Lines in order of addition; amounts are concentrations in the finished medium, stocks in mL per L. Exported ${formatDateTime(new Date(), siteTimeZone())}`
 		]
 	);
 }

@@ -1,3 +1,5 @@
+import { formatDateTime } from '$lib/date-time';
+import { siteTimeZone } from '../site-time-zone';
 import { and, eq, inArray, max, sql } from 'drizzle-orm';
 import { RECIPE_KINDS, type RecipeKind } from '$lib/recipes';
 import { changesBetween, recordAudit, type Actor } from '../audit';
@@ -217,7 +219,7 @@ export function saveDraft(
 						?.name ?? null)
 				: null;
 			throw new StaleEditError(
-				`${byName ?? 'Someone'} saved this draft at ${version.updatedAt.toISOString().slice(11, 16)} UTC, after you opened it. Nothing of yours was saved: your lines are still here. Compare with theirs below, then save again to replace theirs, or take theirs.`,
+				`${byName ?? 'Someone'} saved this draft at ${formatDateTime(version.updatedAt, siteTimeZone())}, after you opened it. Nothing of yours was saved: your lines are still here. Compare with theirs below, then save again to replace theirs, or take theirs.`,
 				{
 					revision: version.revision,
 					byName,

@@ -1,9 +1,10 @@
+import { formatDateTime } from '$lib/date-time';
+import { siteTimeZone } from '../site-time-zone';
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { VALUE_CONFIDENCE_WORDS } from '$chemistry';
 import {
 	formatAmount,
 	formatCells,
-	formatDateTime,
 	formatRunout,
 	listValueSources
 } from '$lib/components/studies/format';
@@ -79,7 +80,7 @@ function writeHeading(w: Writer, { study, report }: LoadedStudyReport, printedAt
 	w.text('Brothwright sufficiency study · Pilot Plant North', { size: 8 });
 	w.text(study.name, { size: 18, bold: true });
 	w.text(
-		`Printed ${formatDateTime(printedAt)} · target ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]} · safety factor ${study.safetyFactor}`
+		`Printed ${formatDateTime(printedAt, siteTimeZone())} · target ${formatAmount(study.targetValue)} ${TARGET_BASIS_UNITS[study.targetBasis]} · safety factor ${study.safetyFactor}`
 	);
 	w.gap(10);
 

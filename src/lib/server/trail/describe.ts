@@ -1,3 +1,4 @@
+import { countOf } from '$lib/plural';
 /**
  * One plain sentence per audit action, for people who read the trail without knowing its codes.
  * Each builder gets the entry's detail and its subject as the trail shows it (batch number, lot
@@ -20,8 +21,9 @@ function because(detail: Detail, key = 'reason'): string {
 	return reason ? `: ${reason}` : '';
 }
 
+/** A stored count with its noun; the count as stored when it is not a number. */
 function plural(n: unknown, one: string, many = `${one}s`): string {
-	return `${text(n)} ${Number(n) === 1 ? one : many}`;
+	return typeof n === 'number' ? countOf(n, one, many) : `${text(n)} ${many}`;
 }
 
 const STATUS_WORDS: Record<string, string> = {

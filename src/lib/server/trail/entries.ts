@@ -1,3 +1,5 @@
+import { formatDateTime, formatIsoLocal } from '$lib/date-time';
+import { siteTimeZone } from '../site-time-zone';
 import type { AuditEvent } from '../db/schema';
 import { changeLines, type ChangeLine } from './changes';
 import { describeAction } from './describe';
@@ -7,7 +9,10 @@ import { peopleNamed, resolveSubjects, subjectKey, type TrailSubject } from './s
 export interface TrailEntry {
 	id: string;
 	/** "2026-03-04 09:15:02" in UTC */
-	atUtc: string;
+	/** In the site's zone, to the second, for pages and PDFs. */
+	atText: string;
+	/** ISO 8601 with the site's offset, for CSV. */
+	atIso: string;
 	who: string;
 	whoEmail: string | null;
 	action: string;
@@ -17,21 +22,24 @@ export interface TrailEntry {
 	address: string | null;
 }
 
-export function utcText(at: Date): string {
-	return at.toISOString().replace('T', ' ').slice(0, 19);
+/** "2026-12-03 14:05:09 CET": a trail moment in the site's zone, to the second. */
+export function trailTimeText(at: Date, timeZone = siteTimeZone()): string {
+	return formatDateTime(at, timeZone, { seconds: true });
 }
 
 /** Stored events → readable entries; subjects and people are looked up once per kind for the lot. */
 export function readableEntries(rows: AuditEvent[]): TrailEntry[] {
 	const subjects = resolveSubjects(rows);
 	const names = peopleNamed(rows.map((r) => r.actorId));
+	const timeZone = siteTimeZone();
 	return rows.map((row) => {
 		const subject = subjects.get(subjectKey(row.subjectType, row.subjectId))!;
 		const detail = row.detail ?? null;
 		const name = row.actorId ? names.get(row.actorId) : undefined;
 		return {
 			id: row.id,
-			atUtc: utcText(row.at),
+			atText: trailTimeText(row.at, timeZone),
+			atIso: formatIsoLocal(row.at, timeZone),
 			who: name ?? row.actorEmail ?? 'system',
 			whoEmail: row.actorEmail,
 			action: row.action,

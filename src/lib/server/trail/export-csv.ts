@@ -4,7 +4,7 @@ import type { CsvExport } from '../csv-export';
 import { changeText, readableEntries, type TrailEntry } from './entries';
 
 export const TRAIL_CSV_COLUMNS = [
-	'When (UTC)',
+	'When',
 	'Person',
 	'E-mail',
 	'What happened',
@@ -19,7 +19,7 @@ export const TRAIL_CSV_COLUMNS = [
 /** The entries as CSV rows, every text cell guarded against formula injection when unparsed. */
 export function trailCsvRows(entries: TrailEntry[], origin = ''): unknown[][] {
 	return entries.map((e) => [
-		e.atUtc,
+		e.atIso,
 		e.who,
 		e.whoEmail ?? '',
 		e.sentence,

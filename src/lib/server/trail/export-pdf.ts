@@ -1,10 +1,10 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { MARGIN, Writer, type TableColumn } from '../pdf/layout';
-import { changeText, utcText, type TrailEntry } from './entries';
+import { changeText, trailTimeText, type TrailEntry } from './entries';
 
 // Widths in points; together they fill A4 between the margins (595 − 2 × 40).
 const COLUMNS: TableColumn[] = [
-	{ header: 'When (UTC)', width: 62 },
+	{ header: 'When', width: 62 },
 	{ header: 'Person', width: 78 },
 	{ header: 'Subject', width: 95 },
 	{ header: 'What happened', width: 150 },
@@ -25,7 +25,7 @@ export async function buildTrailPdf(
 	const bold = await doc.embedFont(StandardFonts.HelveticaBold);
 	const w = new Writer(doc, font, bold);
 	w.text('Brothwright audit trail', { size: 16, bold: true });
-	w.text(`Printed ${utcText(printedAt)} UTC · ${options.filterSummary}`, { size: 8.5 });
+	w.text(`Printed ${trailTimeText(printedAt)} · ${options.filterSummary}`, { size: 8.5 });
 	w.text(`${entries.length} ${entries.length === 1 ? 'entry' : 'entries'}`, { size: 8.5 });
 	w.gap(8);
 	if (entries.length === 0) {
@@ -34,7 +34,7 @@ export async function buildTrailPdf(
 		w.table(
 			COLUMNS,
 			entries.map((e) => [
-				e.atUtc,
+				e.atText,
 				e.whoEmail && e.whoEmail !== e.who ? `${e.who} (${e.whoEmail})` : e.who,
 				e.subject.label ? `${e.subject.typeLabel} ${e.subject.label}` : e.subject.typeLabel,
 				e.sentence,

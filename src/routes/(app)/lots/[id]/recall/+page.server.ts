@@ -1,3 +1,4 @@
+import { countOf } from '$lib/plural';
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { may } from '$lib/permissions';
@@ -49,7 +50,7 @@ export const actions: Actions = {
 				const outcome = await recallLot(actor, requireLotOf(params.id).id, parsed.data);
 				const flagged = outcome.flagged.length;
 				return {
-					saved: `Recall signed: ${flagged} batch${flagged === 1 ? '' : 'es'} flagged${outcome.heldStocks.length ? `, stocks ${outcome.heldStocks.join(', ')} put on hold` : ''}. ${outcome.mailProblem ?? `Told by mail: ${outcome.mailed.length} people.`}`
+					saved: `Recall signed: ${flagged} batch${flagged === 1 ? '' : 'es'} flagged${outcome.heldStocks.length ? `, stocks ${outcome.heldStocks.join(', ')} put on hold` : ''}. ${outcome.mailProblem ?? `Told by mail: ${countOf(outcome.mailed.length, 'person', 'people')}.`}`
 				};
 			} catch (cause) {
 				return ruleFailure(formData, cause);
