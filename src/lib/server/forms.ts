@@ -85,6 +85,6 @@ export function parseForm<S extends z.ZodType>(
 /** Turns a broken domain rule into a form failure that keeps what the user typed. */
 export function ruleFailure(formData: FormData, cause: unknown): ActionFailure<FormFailure> {
 	if (!(cause instanceof RuleError)) throw cause;
-	const fieldErrors = cause.field ? { [cause.field]: [cause.message] } : {};
+	const fieldErrors = cause.fieldErrors ?? (cause.field ? { [cause.field]: [cause.message] } : {});
 	return formFailure(formData, cause.message, fieldErrors, cause.status);
 }

@@ -6,12 +6,22 @@ import { ChemistryInputError } from '$chemistry';
  */
 export class RuleError extends Error {
 	readonly field?: string;
+	/** Several fields at once, each with its own message; `field` is then the first of them. */
+	readonly fieldErrors?: Record<string, string[]>;
 	readonly status: 400 | 403 | 404 | 409 | 422 | 429;
 
-	constructor(message: string, options: { field?: string; status?: RuleError['status'] } = {}) {
+	constructor(
+		message: string,
+		options: {
+			field?: string;
+			fieldErrors?: Record<string, string[]>;
+			status?: RuleError['status'];
+		} = {}
+	) {
 		super(message);
 		this.name = 'RuleError';
 		this.field = options.field;
+		this.fieldErrors = options.fieldErrors;
 		this.status = options.status ?? 400;
 	}
 }

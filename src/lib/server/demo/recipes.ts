@@ -12,6 +12,7 @@ import { checkDraft } from '../recipes/draft';
 import { createRecipe, saveDraft, startDraftFrom } from '../recipes/drafts';
 import { findVersion } from '../recipes/queries';
 import { signVersion, submitForReview } from '../recipes/workflow';
+import { demoAcknowledgements } from './acknowledgements';
 import { DEMO_PASSWORD } from './accounts';
 
 /*
@@ -310,7 +311,8 @@ export async function seedDemoRecipes(): Promise<number> {
 			await signVersion(approver, version.id, {
 				password: DEMO_PASSWORD,
 				meaning: 'approved',
-				comment: 'Checked against the target range; fine for use.'
+				comment: 'Checked against the target range; fine for use.',
+				acknowledgements: demoAcknowledgements(version.id)
 			});
 		}
 		if (demo.nextDraft) {

@@ -17,6 +17,7 @@ import { checkDraft } from '../recipes/draft';
 import { createRecipe, saveDraft } from '../recipes/drafts';
 import { currentApprovedVersion, findVersion, latestVersion } from '../recipes/queries';
 import { signVersion, submitForReview } from '../recipes/workflow';
+import { demoAcknowledgements } from './acknowledgements';
 import { saveProfile } from '../studies/profile-store';
 import type { StudyForm } from '../studies/study-form';
 import { createStudy } from '../studies/study-store';
@@ -313,7 +314,8 @@ async function seedDemoFeeds(): Promise<number> {
 			{
 				password: DEMO_PASSWORD,
 				meaning: 'approved',
-				comment: 'Fine for the demo fed-batch.'
+				comment: 'Fine for the demo fed-batch.',
+				acknowledgements: demoAcknowledgements(version.id)
 			}
 		);
 		added++;

@@ -8,6 +8,7 @@ import { recipeLine, recipeVersion, type RecipeVersion } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { digestOf, refusedSignature, signRecord } from '../signatures';
 import { analyseVersion } from './analysis';
+import { checkAcknowledgements, openWarnings, signedComment } from './open-warnings';
 import { fieldsOf } from './drafts';
 import { componentSnapshotOf, dropComponentSnapshot, takeComponentSnapshot } from './snapshot';
 import {
@@ -165,6 +166,8 @@ export interface SignInput {
 	password: string;
 	meaning: string;
 	comment: string;
+	/** Per open warning's key, why it is acceptable (open-warnings.ts); each one is required. */
+	acknowledgements?: Record<string, string>;
 }
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -234,6 +237,7 @@ export async function signVersion(
 		});
 	}
 	const meaning = input.meaning as SignatureMeaning;
+	const acknowledged = checkAcknowledgements(openWarnings(version), input.acknowledgements ?? {});
 	const digest = versionDigest(version);
 	const actor: Actor = { id: signer.id, email: signer.email, address: signer.address ?? null };
 	await signRecord(
@@ -244,7 +248,7 @@ export async function signVersion(
 			subjectType: 'recipe_version',
 			subjectId: versionId,
 			subjectDigest: digest,
-			comment: input.comment.trim(),
+			comment: signedComment(input.comment, acknowledged),
 			address: signer.address
 		},
 		(tx) => {
@@ -262,7 +266,7 @@ export async function signVersion(
 						action: 'recipe.reviewed',
 						subjectType: 'recipe_version',
 						subjectId: versionId,
-						detail: { n: version.n }
+						detail: { n: version.n, warningsAcknowledged: acknowledged.length }
 					},
 					tx
 				);

@@ -1,3 +1,6 @@
+import { countOf } from '$lib/plural';
+import { eligibleReviewers, mailReviewers } from '$lib/server/recipes/review-queue';
+import { ACKNOWLEDGEMENT_FIELD, openWarnings } from '$lib/server/recipes/open-warnings';
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { SIGNATURE_MEANINGS } from '$lib/recipes';
@@ -46,9 +49,22 @@ export const load: PageServerLoad = async ({ params }) => {
 		history: auditEventsFor('recipe_version', view.version.id, 200),
 		canEdit: may(user, 'recipe.edit'),
 		canReview: may(user, 'recipe.sign'),
-		signingRefusal: signingRefusal(user, view.version)
+		signingRefusal: signingRefusal(user, view.version),
+		openWarnings: view.version.status === 'in_review' ? openWarnings(view.version) : [],
+		reviewers:
+			view.version.status === 'in_review' ? eligibleReviewers(view.version).map((r) => r.name) : []
 	};
 };
+
+/** The signer's answer to each open warning: form fields `ack.<warning key>`. */
+function acknowledgementsOf(formData: FormData): Record<string, string> {
+	const prefix = `${ACKNOWLEDGEMENT_FIELD}.`;
+	return Object.fromEntries(
+		[...formData.entries()]
+			.filter(([name, value]) => name.startsWith(prefix) && typeof value === 'string')
+			.map(([name, value]) => [name.slice(prefix.length), String(value).slice(0, 1000)])
+	);
+}
 
 function currentVersion(params: { id: string; n: string }) {
 	const version = findVersion(params.id, versionNumber(params.n));
@@ -68,7 +84,14 @@ export const actions: Actions = {
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
-		return { done: `Version ${version.n} is submitted for review.` };
+		const told = await mailReviewers(version).then(
+			(to) =>
+				to.length
+					? ` ${countOf(to.length, 'reviewer')} told by mail.`
+					: ' Nobody else may review it yet: ask an administrator to give someone the role.',
+			() => ' The mail to the reviewers could not be sent; tell them yourself.'
+		);
+		return { done: `Version ${version.n} is submitted for review.${told}` };
 	},
 	sign: async ({ request, params }) => {
 		const user = requirePermission('recipe.sign');
@@ -77,7 +100,10 @@ export const actions: Actions = {
 		if (!parsed.ok) return parsed.failure;
 		const version = currentVersion(params);
 		try {
-			await signVersion(actorOf(user), version.id, parsed.data);
+			await signVersion(actorOf(user), version.id, {
+				...parsed.data,
+				acknowledgements: acknowledgementsOf(formData)
+			});
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
