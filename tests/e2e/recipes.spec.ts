@@ -61,12 +61,18 @@ test.describe('a media scientist', () => {
 
 		// Bad input: the error sits next to the line, and every typed line stays.
 		await addComponent(page, 3, 'Sodium chloride', '1', 'g/L');
-		await expect(line(page, 3).getByTestId('line-errors')).toHaveText(
+		await expect(line(page, 3).getByTestId('line-errors')).toContainText(
 			'Sodium chloride is already on line 1; combine the two lines.'
 		);
+		// The other lines are still analysed; the wrong one is marked as left out.
+		await expect(line(page, 3).getByTestId('line-errors')).toContainText(
+			'Left out of the live analysis until it is corrected.'
+		);
+		await expect(analysis.getByTestId('left-out')).toContainText('Line 3 is left out');
+		await expect(analysis.getByTestId('osmolality')).toHaveText('211 mOsm/kg');
 		await page.getByLabel('Line 3: component').fill('L-Tyrosine');
 		await page.getByLabel('Line 3: amount').fill('0');
-		await expect(line(page, 3).getByTestId('line-errors')).toHaveText(
+		await expect(line(page, 3).getByTestId('line-errors')).toContainText(
 			'the amount must be greater than zero, not 0.'
 		);
 		await page.getByLabel('Line 3: unit').fill('ppm');

@@ -7,14 +7,18 @@ import { draftRecipe, line, loadLibrary } from './recipes-fixtures';
 
 type Body = Parameters<typeof previewDraft>[0];
 
+/** The problems named: refused outright, or the lines the analysis left out. */
 function problemsOf(body: Body): Record<string, string[]> {
 	try {
-		previewDraft(body);
+		const { leftOut } = previewDraft(body);
+		if (!leftOut.length) throw new Error('expected problems');
+		const out: Record<string, string[]> = {};
+		for (const { path, message } of leftOut) (out[path] ??= []).push(message);
+		return out;
 	} catch (error) {
 		if (error instanceof DraftProblems) return error.fieldErrors;
 		throw error;
 	}
-	throw new Error('expected problems');
 }
 
 const reference = (id: string) => findReferenceComponent(id)!;
@@ -145,6 +149,28 @@ describe('the preview computes what the chemistry library computes', () => {
 		expect(result.warnings).toEqual([
 			expect.objectContaining({ kind: 'precipitation', basis: 'common practice', lines: [0, 1] })
 		]);
+	});
+});
+
+describe('the valid lines are analysed while others are wrong', () => {
+	it('analyses the good line and names the bad one as left out, in the indexes sent', () => {
+		const preview = previewDraft({
+			recipeId: null,
+			preparationTemperatureC: 25,
+			lines: [lineBody('unobtainium', 1, 'g/L'), lineBody('sodium-chloride', 5, 'g/L')]
+		} as Body);
+		expect(preview.leftOut).toEqual([
+			{ path: 'lines.0.componentId', message: 'Line 1: no component “unobtainium” in the library.' }
+		]);
+		expect(preview.components.map((c) => [c.id, c.gPerL, c.lines])).toEqual([
+			['sodium-chloride', 5, [1]]
+		]);
+	});
+
+	it('refuses when no line is left to analyse', () => {
+		expect(() =>
+			previewDraft({ recipeId: null, lines: [lineBody('unobtainium', 1, 'g/L')] } as Body)
+		).toThrow(DraftProblems);
 	});
 });
 

@@ -19,8 +19,30 @@ function text(value: number | string | undefined): string {
 	return value === undefined ? '' : String(value);
 }
 
-/** The composition of lines as typed in the editor; nothing is stored. */
-export function previewDraft(body: z.infer<typeof previewRequest>): RecipeAnalysis {
+/** A line problem of a line left out of the analysis, at its path among the lines sent. */
+export interface LeftOutProblem {
+	path: string;
+	message: string;
+}
+
+export type PreviewAnalysis = RecipeAnalysis & { leftOut: LeftOutProblem[] };
+
+/** Line indexes in the analysis are of the lines analysed; the editor's are of the lines sent. */
+function toSentIndexes(analysis: RecipeAnalysis, sentIndexOf: number[]): RecipeAnalysis {
+	const remap = (lines: number[]) => lines.map((i) => sentIndexOf[i] ?? i);
+	return {
+		...analysis,
+		components: analysis.components.map((c) => ({ ...c, lines: remap(c.lines) })),
+		warnings: analysis.warnings.map((w) => ({ ...w, lines: remap(w.lines) }))
+	};
+}
+
+/**
+ * The composition of lines as typed in the editor; nothing is stored. Lines that cannot be read are
+ * left out and named in `leftOut`, so the analysis of the others goes on while one is being typed;
+ * a problem with the recipe's own fields, or no line left to analyse, is refused as before.
+ */
+export function previewDraft(body: z.infer<typeof previewRequest>): PreviewAnalysis {
 	const errors: FieldErrors = {};
 	const fields = checkFields(
 		{
@@ -36,17 +58,31 @@ export function previewDraft(body: z.infer<typeof previewRequest>): RecipeAnalys
 		errors
 	);
 	const lines = checkLines(body.lines.map(normaliseLineInput), body.recipeId ?? null, errors);
-	if (Object.keys(errors).length) throw new DraftProblems(errors);
+	const lineProblem = (path: string) => /^lines\.\d+\./.test(path);
+	const fieldProblems = Object.keys(errors).filter((path) => !lineProblem(path));
+	if (fieldProblems.length || lines.length === 0) throw new DraftProblems(errors);
+	const sentIndexOf = lines.map((l) => l.position - 1);
 	try {
-		return analyseLines(lines, {
+		const analysis = analyseLines(lines, {
 			temperatureC: fields.preparationTemperatureC,
 			osmolalityMinMOsmPerKg: fields.osmolalityMinMOsmPerKg,
 			osmolalityMaxMOsmPerKg: fields.osmolalityMaxMOsmPerKg,
 			recipeId: body.recipeId ?? null
 		});
+		return {
+			...toSentIndexes(analysis, sentIndexOf),
+			leftOut: Object.entries(errors).flatMap(([path, messages]) =>
+				messages.map((message) => ({ path, message }))
+			)
+		};
 	} catch (cause) {
-		if (cause instanceof RuleError && cause.field)
-			throw new DraftProblems({ [cause.field]: [cause.message] });
+		if (cause instanceof RuleError && cause.field) {
+			const field = cause.field.replace(
+				/^lines\.(\d+)/,
+				(_m, i: string) => `lines.${sentIndexOf[Number(i)] ?? i}`
+			);
+			throw new DraftProblems({ ...errors, [field]: [cause.message] });
+		}
 		throw cause;
 	}
 }

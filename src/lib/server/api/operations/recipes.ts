@@ -1,3 +1,4 @@
+import type { PreviewAnalysis } from '../../recipes/preview';
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES, LINE_KINDS, RECIPE_KINDS, VERSION_STATUSES } from '$lib/recipes';
 import { COMPONENT_SORTS } from '../../components/component-list';
@@ -99,6 +100,16 @@ export const analysisResponse = describes<RecipeAnalysis>()(
 		hazards: z.array(
 			z.object({ code: z.string(), text: z.string(), components: z.array(z.string()) })
 		)
+	})
+);
+
+export const previewResponse = describes<PreviewAnalysis>()(
+	analysisResponse.extend({
+		leftOut: z
+			.array(z.object({ path: z.string(), message: z.string() }))
+			.describe(
+				'problems of the lines left out of this analysis, at lines.<i>.<field> of the request; the other lines are analysed'
+			)
 	})
 );
 
@@ -299,7 +310,7 @@ export const recipesOperations: ApiOperation[] = [
 			'Composition of lines as typed: per element, total C and N, osmolality against the range, solubility at the preparation temperature, precipitation pairs. Line problems come back as errors at lines.<i>.<field>',
 		act: 'calculation.run',
 		request: previewRequest,
-		response: analysisResponse
+		response: previewResponse
 	},
 	{
 		method: 'get',
