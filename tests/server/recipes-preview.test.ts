@@ -155,7 +155,6 @@ describe('the preview computes what the chemistry library computes', () => {
 describe('the valid lines are analysed while others are wrong', () => {
 	it('analyses the good line and names the bad one as left out, in the indexes sent', () => {
 		const preview = previewDraft({
-			recipeId: null,
 			preparationTemperatureC: 25,
 			lines: [lineBody('unobtainium', 1, 'g/L'), lineBody('sodium-chloride', 5, 'g/L')]
 		} as Body);
@@ -168,9 +167,9 @@ describe('the valid lines are analysed while others are wrong', () => {
 	});
 
 	it('refuses when no line is left to analyse', () => {
-		expect(() =>
-			previewDraft({ recipeId: null, lines: [lineBody('unobtainium', 1, 'g/L')] } as Body)
-		).toThrow(DraftProblems);
+		expect(() => previewDraft({ lines: [lineBody('unobtainium', 1, 'g/L')] } as Body)).toThrow(
+			DraftProblems
+		);
 	});
 });
 

@@ -8,7 +8,7 @@ import { peopleNamed, resolveSubjects, subjectKey, type TrailSubject } from './s
 /** One audit entry as an inspector reads it. */
 export interface TrailEntry {
 	id: string;
-	/** "2026-03-04 09:15:02" in UTC */
+	at: Date;
 	/** In the site's zone, to the second, for pages and PDFs. */
 	atText: string;
 	/** ISO 8601 with the site's offset, for CSV. */
@@ -38,6 +38,7 @@ export function readableEntries(rows: AuditEvent[]): TrailEntry[] {
 		const name = row.actorId ? names.get(row.actorId) : undefined;
 		return {
 			id: row.id,
+			at: row.at,
 			atText: trailTimeText(row.at, timeZone),
 			atIso: formatIsoLocal(row.at, timeZone),
 			who: name ?? row.actorEmail ?? 'system',

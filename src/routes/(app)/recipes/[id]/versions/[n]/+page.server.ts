@@ -1,3 +1,4 @@
+import { readableEntries } from '$lib/server/trail/entries';
 import { countOf } from '$lib/plural';
 import { eligibleReviewers, mailReviewers } from '$lib/server/recipes/review-queue';
 import { ACKNOWLEDGEMENT_FIELD, openWarnings } from '$lib/server/recipes/open-warnings';
@@ -46,7 +47,12 @@ export const load: PageServerLoad = async ({ params }) => {
 		...view,
 		digest: versionDigest(view.version),
 		libraryChanges: libraryChangesFor(view.version),
-		history: auditEventsFor('recipe_version', view.version.id, 200),
+		history: readableEntries(auditEventsFor('recipe_version', view.version.id, 200)).map((e) => ({
+			id: e.id,
+			at: e.at,
+			sentence: e.sentence,
+			who: e.who
+		})),
 		canEdit: may(user, 'recipe.edit'),
 		canReview: may(user, 'recipe.sign'),
 		signingRefusal: signingRefusal(user, view.version),
