@@ -1,12 +1,5 @@
-import type { Page } from '@playwright/test';
 import { DEMO, DEMO_PASSWORD, expect, test } from './fixtures';
-
-async function addComponent(page: Page, n: number, name: string, amount: string, unit: string) {
-	await page.getByRole('button', { name: 'Add component' }).click();
-	await page.getByLabel(`Line ${n}: component`).fill(name);
-	await page.getByLabel(`Line ${n}: amount`).fill(amount);
-	await page.getByLabel(`Line ${n}: unit`).fill(unit);
-}
+import { addComponent, createRecipe } from './recipe-helpers';
 
 // The sign form shows what the analysis warns about and asks for an answer to each; the answers
 // are part of the signature shown with the version.
@@ -19,12 +12,7 @@ test.describe('approving a version that carries a warning', () => {
 	}) => {
 		test.setTimeout(60_000);
 		const name = `E2E warned ${Date.now()}`;
-		await page.goto('/recipes/new');
-		await page.getByLabel('Name').fill(name);
-		await page.getByLabel('Kind').selectOption('basal');
-		await expect(page.getByLabel('Name')).toHaveValue(name);
-		await page.getByRole('button', { name: 'Create and edit' }).click();
-		await expect(page.getByRole('heading', { name: `Edit ${name} · version 1` })).toBeVisible();
+		await createRecipe(page, name);
 		await addComponent(page, 1, 'Sodium chloride', '6', 'g/L');
 		await addComponent(page, 2, 'L-Tyrosine', '2', 'g/L');
 		const analysis = page.getByRole('complementary', { name: 'Live analysis' });

@@ -1,5 +1,6 @@
 import type { Browser, Page } from '@playwright/test';
 import { DEMO, DEMO_PASSWORD, expect, test, type DemoRole } from './fixtures';
+import { addComponent, createRecipe } from './recipe-helpers';
 
 async function signedInPage(browser: Browser, role: DemoRole): Promise<Page> {
 	const context = await browser.newContext();
@@ -13,13 +14,6 @@ async function signedInPage(browser: Browser, role: DemoRole): Promise<Page> {
 
 const line = (page: Page, n: number) =>
 	page.getByRole('listitem', { name: `Line ${n}`, exact: true });
-
-async function addComponent(page: Page, n: number, name: string, amount: string, unit: string) {
-	await page.getByRole('button', { name: 'Add component' }).click();
-	await page.getByLabel(`Line ${n}: component`).fill(name);
-	await page.getByLabel(`Line ${n}: amount`).fill(amount);
-	await page.getByLabel(`Line ${n}: unit`).fill(unit);
-}
 
 async function recipeUrlByName(page: Page, name: string): Promise<string> {
 	const response = await page.request.get(`/api/v1/recipes?q=${encodeURIComponent(name)}`);
@@ -38,16 +32,7 @@ test.describe('a media scientist', () => {
 		// Two people and a dozen steps: more than the default budget of one page's test.
 		test.setTimeout(90_000);
 		const name = `E2E salts ${Date.now()}`;
-		await page.goto('/recipes');
-		await expect(page.locator('html[data-hydrated]')).toBeAttached();
-		await page.getByRole('link', { name: 'New recipe' }).click();
-		// The link navigates in the page: type only once the new page is there, or the typing is lost.
-		await expect(page.getByRole('heading', { name: 'New recipe', level: 1 })).toBeVisible();
-		await page.getByLabel('Name').fill(name);
-		await page.getByLabel('Kind').selectOption('basal');
-		await expect(page.getByLabel('Name')).toHaveValue(name);
-		await page.getByRole('button', { name: 'Create and edit' }).click();
-		await expect(page.getByRole('heading', { name: `Edit ${name} · version 1` })).toBeVisible();
+		await createRecipe(page, name);
 
 		await addComponent(page, 1, 'Sodium chloride', '6', 'g/L');
 		const analysis = page.getByRole('complementary', { name: 'Live analysis' });
