@@ -101,6 +101,12 @@ const UNIT_SPELLINGS: Record<string, MassUnit | VolumeUnit> = {
 	μL: 'µL'
 };
 
+/** "12.5 mg" → number text "12.5" and unit text "mg" (none when bare); null without a digit. */
+function splitAmount(compact: string): { number: string; unit: string | undefined } | null {
+	const match = /^(.*?\d.*?)\s*([a-zA-Zµμ]+)?$/.exec(compact);
+	return match ? { number: match[1], unit: match[2] } : null;
+}
+
 /** A documented mass or volume unit as typed ("ml", "uL"), or null for anything else. */
 export function readQuantityUnit(text: string): MassUnit | VolumeUnit | null {
 	return Object.hasOwn(UNIT_SPELLINGS, text.trim()) ? UNIT_SPELLINGS[text.trim()] : null;
@@ -127,19 +133,19 @@ export function readAmountText<U extends MassUnit | VolumeUnit>(
 			ok: false,
 			message: `${label}: enter the ${noun}${noun === 'mass' ? ' read from the balance' : ''}.`
 		};
-	const match = /^(.*?\d.*?)\s*([a-zA-Zµμ]+)?$/.exec(compact);
+	const match = splitAmount(compact);
 	if (!match)
 		return {
 			ok: false,
 			message: `${label}: “${compact}” is not a ${noun}: type a number such as 12.5 or 12.5 ${defaultUnit}.`
 		};
-	const unit = match[2] ? readQuantityUnit(match[2]) : defaultUnit;
+	const unit = match.unit ? readQuantityUnit(match.unit) : defaultUnit;
 	if (!unit || !units.includes(unit as U))
 		return {
 			ok: false,
-			message: `${label}: “${match[2]}” is not a ${noun} unit here: use ${units.join(', ')}.`
+			message: `${label}: “${match.unit}” is not a ${noun} unit here: use ${units.join(', ')}.`
 		};
-	const read = readDecimalText(match[1], label);
+	const read = readDecimalText(match.number, label);
 	if (!read.ok) return read;
 	if (read.value <= 0) return { ok: false, message: `${label}: the ${noun} must be above zero.` };
 	return { ok: true, value: read.value, unit: unit as U };
@@ -158,19 +164,19 @@ export function readGramsText(
 	densityGPerMl: number | null
 ): GramsRead {
 	const compact = text.trim().replace(/\s+/g, ' ');
-	const match = /^(.*?\d.*?)\s*([a-zA-Zµμ]+)?$/.exec(compact);
+	const match = splitAmount(compact);
 	if (!match)
 		return {
 			ok: false,
 			message: `${label}: “${compact}” is not an amount; type e.g. 500 g or 2 kg.`
 		};
-	const unit = match[2] ? readQuantityUnit(match[2]) : 'g';
+	const unit = match.unit ? readQuantityUnit(match.unit) : 'g';
 	if (!unit)
 		return {
 			ok: false,
-			message: `${label}: “${match[2]}” is not a unit here: use ${[...MASS_UNITS, ...VOLUME_UNITS].join(', ')}.`
+			message: `${label}: “${match.unit}” is not a unit here: use ${[...MASS_UNITS, ...VOLUME_UNITS].join(', ')}.`
 		};
-	const read = readDecimalText(match[1], label);
+	const read = readDecimalText(match.number, label);
 	if (!read.ok) return read;
 	if (read.value < 0) return { ok: false, message: `${label}: the amount cannot be below zero.` };
 	if (isMassUnit(unit))

@@ -1,7 +1,11 @@
 // The site's decimal mark: how every typed or imported number is read (src/lib/number-reading.ts).
 // A site setting; the point until an administrator chooses the comma.
-import { DECIMAL_MARKS, DECIMAL_MARK_LABELS, type DecimalMark } from '$lib/number-reading';
-import { setSiteDecimalMark } from '$lib/number-reading';
+import {
+	DECIMAL_MARKS,
+	DECIMAL_MARK_LABELS,
+	setSiteDecimalMark,
+	type DecimalMark
+} from '$lib/number-reading';
 import type { Actor } from './audit';
 import { db, type Db } from './db';
 import { RuleError } from './rule-error';

@@ -44,15 +44,26 @@ interface PreparedLine {
 	name: string;
 }
 
+/**
+ * A version's solution at its own concentrations: its GHS statements (recipes/analysis.ts), or none
+ * when it cannot be analysed (its own page says why).
+ */
+export function solutionStatements(
+	version: Parameters<typeof analyseVersion>[0]
+): { code: string; text: string }[] {
+	try {
+		return analyseVersion(version).hazards;
+	} catch (cause) {
+		if (cause instanceof RuleError) return [];
+		throw cause;
+	}
+}
+
+/** The approved stock as dosed; its aquatic statements are for disposal, not for the bench. */
 function stockSolutionHazards(stockRecipeId: string): HazardSet {
 	const version = currentApprovedVersion(stockRecipeId);
 	if (!version) return EMPTY;
-	try {
-		return hazardSetOf(analyseVersion(version).hazards.filter((h) => !isAquatic(h.code)));
-	} catch (cause) {
-		if (cause instanceof RuleError) return EMPTY;
-		throw cause;
-	}
+	return hazardSetOf(solutionStatements(version).filter((h) => !isAquatic(h.code)));
 }
 
 const isAquatic = (code: string) => /^H4[01]\d/.test(code);
@@ -70,15 +81,6 @@ function phStep(version: Version): PhStep | null {
 			? null
 			: 'The instructions name no acid or base: use the ones your site’s procedure names. Strong acids and bases burn skin and eyes: wear goggles and gloves.'
 	};
-}
-
-function finishedHazards(version: Version): HazardSet {
-	try {
-		return hazardSetOf(analyseVersion(version).hazards);
-	} catch (cause) {
-		if (cause instanceof RuleError) return EMPTY;
-		throw cause;
-	}
 }
 
 function unionPpe(sets: HazardSet[]): { id: string; text: string }[] {
@@ -102,11 +104,11 @@ export function preparationHazards(version: Version, lines: PreparedLine[]): Pre
 		}
 	}
 	const ph = phStep(version);
-	const finished = finishedHazards(version);
+	const finished = hazardSetOf(solutionStatements(version));
 	const handled = [
 		...Object.values(perLine),
 		...(ph?.agents.map((a) => a.hazards) ?? []),
-		{ ...finished, ppe: finished.ppe }
+		finished
 	];
 	const hot =
 		version.preparationTemperatureC > HOT_PREPARATION_C ||

@@ -3,7 +3,7 @@
 // are written into the signature itself (its comment, in the signatures' hash chain).
 import { createHash } from 'node:crypto';
 import { RuleError } from '../rule-error';
-import { analyseVersion } from './analysis';
+import { analyseVersion, type RecipeAnalysis } from './analysis';
 
 export type OpenWarningKind = 'solubility' | 'precipitation' | 'osmolality';
 
@@ -21,13 +21,16 @@ type Version = Parameters<typeof analyseVersion>[0];
 
 /** Solubility and precipitation warnings, and an osmolality estimate outside the version's range. */
 export function openWarnings(version: Version): OpenWarning[] {
-	let analysis;
 	try {
-		analysis = analyseVersion(version);
+		return warningsOf(analyseVersion(version));
 	} catch (cause) {
 		if (cause instanceof RuleError) return [];
 		throw cause;
 	}
+}
+
+/** The same, from an analysis already made (a version page has one). */
+export function warningsOf(analysis: RecipeAnalysis): OpenWarning[] {
 	const warnings: OpenWarning[] = analysis.warnings.map((w) => ({
 		key: keyOf(w.kind, w.message),
 		kind: w.kind,

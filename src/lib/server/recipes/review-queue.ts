@@ -28,10 +28,16 @@ function activeSigners(): Reviewer[] {
 		.all();
 }
 
-/** The people who may sign this version: signers by role, less its author and its editors. */
-export function eligibleReviewers(version: { id: string; authorId: string }): Reviewer[] {
+/**
+ * The people who may sign this version: signers by role, less its author and its editors. A caller
+ * judging many versions reads the signers once and passes them.
+ */
+export function eligibleReviewers(
+	version: { id: string; authorId: string },
+	signers: Reviewer[] = activeSigners()
+): Reviewer[] {
 	const excluded = new Set([version.authorId, ...editorIdsOf(version.id)]);
-	return activeSigners().filter((p) => !excluded.has(p.id));
+	return signers.filter((p) => !excluded.has(p.id));
 }
 
 export interface QueuedVersion {
@@ -44,6 +50,7 @@ export interface QueuedVersion {
 }
 
 function versionsInReview(): (QueuedVersion & { versionId: string; authorId: string })[] {
+	const signers = activeSigners();
 	return db
 		.select({
 			versionId: recipeVersion.id,
@@ -62,7 +69,7 @@ function versionsInReview(): (QueuedVersion & { versionId: string; authorId: str
 		.all()
 		.map((row) => ({
 			...row,
-			reviewers: eligibleReviewers({ id: row.versionId, authorId: row.authorId })
+			reviewers: eligibleReviewers({ id: row.versionId, authorId: row.authorId }, signers)
 		}));
 }
 

@@ -1,6 +1,6 @@
-import { readDecimalText } from '$lib/number-reading';
 import { readGramsText } from '$lib/quantities';
 import { RuleError } from '$lib/server/rule-error';
+import { optionalNumber } from '$lib/server/studies/fields';
 import { z } from 'zod';
 import { DEFAULT_EXPIRY_WINDOW_DAYS } from '$lib/inventory';
 import { tagged } from '$lib/server/form-tag';
@@ -20,18 +20,6 @@ import {
 } from '$lib/server/inventory/digest';
 import { setStockSettings } from '$lib/server/inventory/stock-settings';
 import type { Actions, PageServerLoad } from './$types';
-
-const optionalNumber = (label: string) =>
-	z
-		.string()
-		.trim()
-		.transform((v, ctx) => {
-			if (v === '') return null;
-			const read = readDecimalText(v, label);
-			if (read.ok) return read.value;
-			ctx.addIssue({ code: 'custom', message: read.message });
-			return z.NEVER;
-		});
 
 const settingsForm = z.object({
 	componentId: z.string().min(1, 'Choose a component.'),

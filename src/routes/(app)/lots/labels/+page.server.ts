@@ -1,9 +1,8 @@
 import { labelElementsOf, type PictogramId } from '$chemistry';
-import { analyseVersion } from '$lib/server/recipes/analysis';
+import { solutionStatements } from '$lib/server/batches/preparation-hazards';
 import { currentApprovedVersion } from '$lib/server/recipes/queries';
-import { RuleError } from '$lib/server/rule-error';
 import { requirePermission } from '$lib/server/guard';
-import { materialOfLot } from '$lib/server/inventory/material';
+import { materialOfLot, type LotMaterial } from '$lib/server/inventory/material';
 import { lotQrText, qrSvg, withoutSourceNotes } from '$lib/server/inventory/labels';
 import { findLot } from '$lib/server/inventory/lots';
 import type { Lot } from '$lib/server/db/schema';
@@ -21,31 +20,26 @@ function governingDate(lot: Lot): LotLabelView['date'] {
  * The GHS pictograms of what the lot holds: a received component as supplied, or a stock made here
  * as the solution it is (its statements at its own concentrations).
  */
-function pictogramsOfLot(lot: Lot): PictogramId[] {
-	const material = materialOfLot(lot);
+function pictogramsOf(material: LotMaterial): PictogramId[] {
 	if (material.component)
 		return labelElementsOf(material.component.ghsHazards.map((h) => h.code)).pictograms;
 	const version = material.stock ? currentApprovedVersion(material.stock.recipeId) : undefined;
 	if (!version) return [];
-	try {
-		return labelElementsOf(analyseVersion(version).hazards.map((h) => h.code)).pictograms;
-	} catch (cause) {
-		if (cause instanceof RuleError) return [];
-		throw cause;
-	}
+	return labelElementsOf(solutionStatements(version).map((h) => h.code)).pictograms;
 }
 
 async function labelOf(lot: Lot): Promise<LotLabelView> {
+	const material = materialOfLot(lot);
 	return {
 		id: lot.id,
 		code: lot.code,
-		componentName: withoutSourceNotes(materialOfLot(lot).name),
+		componentName: withoutSourceNotes(material.name),
 		status: lot.status,
 		supplier: withoutSourceNotes(lot.supplier),
 		supplierLot: lot.supplierLot,
 		date: governingDate(lot),
 		storage: withoutSourceNotes(lot.storage),
-		pictograms: pictogramsOfLot(lot),
+		pictograms: pictogramsOf(material),
 		qr: await qrSvg(lotQrText(lot))
 	};
 }

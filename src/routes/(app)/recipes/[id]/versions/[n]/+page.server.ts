@@ -1,7 +1,7 @@
 import { readableEntries } from '$lib/server/trail/entries';
 import { countOf } from '$lib/plural';
 import { eligibleReviewers, mailReviewers } from '$lib/server/recipes/review-queue';
-import { ACKNOWLEDGEMENT_FIELD, openWarnings } from '$lib/server/recipes/open-warnings';
+import { ACKNOWLEDGEMENT_FIELD, warningsOf } from '$lib/server/recipes/open-warnings';
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { SIGNATURE_MEANINGS } from '$lib/recipes';
@@ -56,7 +56,8 @@ export const load: PageServerLoad = async ({ params }) => {
 		canEdit: may(user, 'recipe.edit'),
 		canReview: may(user, 'recipe.sign'),
 		signingRefusal: signingRefusal(user, view.version),
-		openWarnings: view.version.status === 'in_review' ? openWarnings(view.version) : [],
+		openWarnings:
+			view.version.status === 'in_review' && view.analysis ? warningsOf(view.analysis) : [],
 		reviewers:
 			view.version.status === 'in_review' ? eligibleReviewers(view.version).map((r) => r.name) : []
 	};
