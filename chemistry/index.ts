@@ -1,5 +1,6 @@
 // The public surface of the science library. The app imports only from here.
 export * from './errors';
+export * from './field-labels';
 export { numberMessage, type Bounds } from './input';
 export * from './formula';
 export * from './formula-schema';

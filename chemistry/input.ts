@@ -4,6 +4,7 @@
  * in every module. `label` is how the message names the value (a field path by default).
  */
 import { ChemistryInputError } from './errors';
+import { fieldLabel } from './field-labels';
 
 export interface Bounds {
 	/** value must be > min (exclusive) or ≥ min (inclusive) */
@@ -33,10 +34,11 @@ export function isWithin(value: unknown, bounds: Bounds): value is number {
 
 /** The refusal of `value` at `field`: not a finite number, or outside `bounds`. */
 export function numberMessage(field: string, value: unknown, bounds: Bounds): string {
+	const label = fieldLabel(field);
 	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		return `${field} must be a finite number${describeBounds(bounds)}.`;
+		return `${label} must be a finite number${describeBounds(bounds)}.`;
 	}
-	return `${field} must be${describeBounds(bounds)} (got ${value}).`;
+	return `${label} must be${describeBounds(bounds)} (got ${value}).`;
 }
 
 /** A finite number within `bounds`: "field must be a finite number greater than 0." and the like. */
@@ -62,7 +64,11 @@ export function isGiven(value: unknown): boolean {
 }
 
 /** A finite number: "label must be a finite number". */
-export function readFinite(value: unknown, field: string, label: string = field): number {
+export function readFinite(
+	value: unknown,
+	field: string,
+	label: string = fieldLabel(field)
+): number {
 	if (typeof value !== 'number' || !Number.isFinite(value)) {
 		throw new ChemistryInputError(`${label} must be a finite number`, { field });
 	}
@@ -70,14 +76,22 @@ export function readFinite(value: unknown, field: string, label: string = field)
 }
 
 /** A finite number ≥ 0: "label must not be negative, not −1". */
-export function readNonNegative(value: unknown, field: string, label: string = field): number {
+export function readNonNegative(
+	value: unknown,
+	field: string,
+	label: string = fieldLabel(field)
+): number {
 	const v = readFinite(value, field, label);
 	if (v < 0) throw new ChemistryInputError(`${label} must not be negative, not ${v}`, { field });
 	return v;
 }
 
 /** A finite number > 0: "label must be greater than 0, not 0". */
-export function readPositive(value: unknown, field: string, label: string = field): number {
+export function readPositive(
+	value: unknown,
+	field: string,
+	label: string = fieldLabel(field)
+): number {
 	const v = readFinite(value, field, label);
 	if (v <= 0) throw new ChemistryInputError(`${label} must be greater than 0, not ${v}`, { field });
 	return v;
@@ -89,7 +103,7 @@ export function readBetween(
 	field: string,
 	min: number,
 	max: number,
-	label: string = field
+	label: string = fieldLabel(field)
 ): number {
 	if (typeof value !== 'number' || !Number.isFinite(value) || value < min || value > max) {
 		throw new ChemistryInputError(`${label} must be a number from ${min} to ${max}`, { field });
@@ -103,7 +117,7 @@ export function readWholeNumber(
 	field: string,
 	min: number,
 	max: number,
-	label: string = field
+	label: string = fieldLabel(field)
 ): number {
 	if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
 		throw new ChemistryInputError(`${label} must be a whole number from ${min} to ${max}.`, {

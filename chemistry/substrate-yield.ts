@@ -17,6 +17,7 @@ import { ChemistryInputError } from './errors';
 import { readPositive } from './input';
 import { molarMassOf, parseFormula } from './formula';
 import { solveStoichiometry } from './stoichiometry';
+import { computeDegreeOfReduction } from './degree-of-reduction';
 
 export type GrowthMeasurement =
 	| { kind: 'respiratoryQuotient'; molCo2PerMolO2: number }
@@ -259,4 +260,53 @@ export function computeSoleSourceYield(input: SoleSourceInput): number {
 		);
 	}
 	return inSubstrate / inBiomass;
+}
+
+export interface BiomassYieldBound {
+	/** The most g dry biomass per g substrate the element balances allow. */
+	maxGPerG: number;
+	/** Which balance sets it: every substrate carbon into biomass, or every available electron. */
+	limitedBy: 'carbon' | 'electrons';
+	/** The bound in C-mol biomass per C-mol substrate. */
+	maxCmolPerCmol: number;
+	substrateGamma: number;
+	biomassGamma: number;
+	/** Why, in words, for the refusal of a higher yield. */
+	reason: string;
+}
+
+/**
+ * The largest biomass yield on a carbon and energy source that the element balances allow for
+ * growth with NH3 as nitrogen source: no CO2 made (all substrate carbon in biomass, 1 C-mol/C-mol)
+ * and no O2 taken up (all available electrons in biomass, γs/γx C-mol/C-mol), whichever is lower
+ * (Roels 1983; the degree-of-reduction balance as in Doran, Bioprocess Engineering Principles,
+ * ch. 4; citations from memory). Null when the substrate has no carbon or no electrons to give.
+ */
+export function computeMaximumBiomassYield(input: {
+	substrateFormula: string;
+	/** per C-mol, ash-free, e.g. CH1.8O0.5N0.2 */
+	biomassFormula: string;
+	ashFraction?: number;
+}): BiomassYieldBound | null {
+	const substrate = parseFormula(input.substrateFormula).elements;
+	const biomass = parseFormula(input.biomassFormula).elements;
+	const substrateCarbon = substrate.C ?? 0;
+	const biomassCarbon = biomass.C ?? 0;
+	if (substrateCarbon <= 0 || biomassCarbon <= 0) return null;
+	const substrateGamma = computeDegreeOfReduction(substrate).value;
+	const biomassGamma = computeDegreeOfReduction(biomass).value;
+	if (!(substrateGamma > 0) || !(biomassGamma > 0)) return null;
+	const ash = input.ashFraction ?? 0;
+	const substrateGPerCmol = molarMassOf(substrate) / substrateCarbon;
+	const biomassGPerCmol = molarMassOf(biomass) / biomassCarbon / (1 - ash);
+	const electronBound = substrateGamma / biomassGamma;
+	const limitedBy = electronBound < 1 ? 'electrons' : 'carbon';
+	const maxCmolPerCmol = Math.min(1, electronBound);
+	const maxGPerG = (maxCmolPerCmol * biomassGPerCmol) / substrateGPerCmol;
+	const round = (v: number) => Number(v.toPrecision(3));
+	const reason =
+		limitedBy === 'electrons'
+			? `even with no O2 taken up, at most γs/γx = ${round(substrateGamma)}/${round(biomassGamma)} = ${round(maxCmolPerCmol)} C-mol of biomass can form per C-mol of ${input.substrateFormula} (degree-of-reduction balance, NH3 as nitrogen source)`
+			: `even with no CO2 given off, at most 1 C-mol of biomass can form per C-mol of ${input.substrateFormula} (carbon balance)`;
+	return { maxGPerG, limitedBy, maxCmolPerCmol, substrateGamma, biomassGamma, reason };
 }

@@ -1,28 +1,36 @@
 // Reading the run data of a growth fit: every refusal names its field.
 import { ChemistryInputError } from '../errors';
+import { fieldLabel } from '../field-labels';
 import { readWholeNumber } from '../input';
 
 /** Most points accepted in one series. */
 export const MAX_SERIES_POINTS = 5000;
 
 /** The refusal of a minimum R² outside (0, 1). */
-export const minRSquaredMessage = (field = 'minRSquared') => `${field} must be between 0 and 1.`;
+export const minRSquaredMessage = (field = 'minRSquared') =>
+	`${fieldLabel(field)} must be between 0 and 1.`;
 
 export function readSeries(values: unknown, field: string, length: number | null): number[] {
 	if (!Array.isArray(values))
-		throw new ChemistryInputError(`${field} must be an array of numbers.`, {
+		throw new ChemistryInputError(`${fieldLabel(field)} must be a list of numbers.`, {
 			field
 		});
 	if (length !== null && values.length !== length) {
-		throw new ChemistryInputError(`${field} has ${values.length} values but timeH has ${length}.`, {
-			field
-		});
+		throw new ChemistryInputError(
+			`${fieldLabel(field)} has ${values.length} values but Time has ${length}.`,
+			{
+				field
+			}
+		);
 	}
 	values.forEach((v, i) => {
 		if (typeof v !== 'number' || !Number.isFinite(v)) {
-			throw new ChemistryInputError(`${field}[${i}] must be a finite number.`, {
-				field: `${field}.${i}`
-			});
+			throw new ChemistryInputError(
+				`${fieldLabel(field)}, value ${i + 1}, must be a finite number.`,
+				{
+					field: `${field}.${i}`
+				}
+			);
 		}
 	});
 	return values as number[];

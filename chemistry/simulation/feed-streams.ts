@@ -1,4 +1,5 @@
 // The fed-batch feed streams during one run: their starts, laws and delivered volumes.
+import { FEED_STRATEGY_WORDS } from '../field-labels';
 import { formatNumber } from './events';
 import { applyAddition, createFeedLaw } from './feeding';
 import {
@@ -107,6 +108,6 @@ export class FeedStreams {
 		} else if (bolusL > 0) {
 			bolus = ` after a bolus of ${formatNumber(bolusL)} L`;
 		}
-		return `${name} (${feed.strategy}) started${bolus}.`;
+		return `${name} (${FEED_STRATEGY_WORDS[feed.strategy]}) started${bolus}.`;
 	}
 }

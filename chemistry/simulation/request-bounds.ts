@@ -1,6 +1,7 @@
 // Limits and ranges of the simulation request's numbers, with the one refusal wording (the field
 // and the range it needs) used by the schema's field checks and by its cross-field rules alike.
 import { z } from 'zod';
+import { fieldLabel } from '../field-labels';
 import { numberMessage, POSITIVE, type Bounds } from '../input';
 
 /** Longest run accepted: 60 days. */
@@ -51,12 +52,12 @@ export function boundedNumber(bounds: Bounds, missing?: (field: string) => strin
 
 /** A number the request cannot do without: left out, the refusal names its field. */
 export const requiredNumber = (bounds: Bounds): z.ZodNumber =>
-	boundedNumber(bounds, (field) => `${field} is required.`);
+	boundedNumber(bounds, (field) => `${fieldLabel(field)} is required.`);
 
 /** A whole number from `min` to `max`, in the wording of the science's `readWholeNumber`. */
 export function boundedWholeNumber(min: number, max: number): z.ZodNumber {
 	const error = (issue: Issue) =>
-		`${fieldOf(issue.path)} must be a whole number from ${min} to ${max}.`;
+		`${fieldLabel(fieldOf(issue.path))} must be a whole number from ${min} to ${max}.`;
 	return z.int({ error }).gte(min, { error }).lte(max, { error });
 }
 

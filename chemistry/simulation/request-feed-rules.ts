@@ -5,6 +5,7 @@ import { ChemistryInputError } from '../errors';
 import { compileFeedExpression } from './expression';
 import { MAX_INFLOW_VOLUMES_PER_H } from './model';
 import { isWithin, NON_NEGATIVE, numberMessage, POSITIVE, type Bounds } from './request-bounds';
+import { FEED_STRATEGY_WORDS, fieldLabel as L, inSentence } from '../field-labels';
 import type { FeedInput, simulationRequestShape } from './request-schema';
 
 export type RequestShape = z.infer<typeof simulationRequestShape>;
@@ -71,7 +72,7 @@ export function checkFedBatchFeed(
 		if (name !== 'bolusL' && !allowed.includes(name) && given(feed[name])) {
 			rules.report(
 				`${field}.${name}`,
-				`${field}.${name} is not used by the ${strategy} strategy (it reads ${allowed.map((f) => `${field}.${f}`).join(', ')}).`
+				`${L(`${field}.${name}`)} is not used by the ${FEED_STRATEGY_WORDS[strategy]} strategy (it reads ${allowed.map((f) => L(`${field}.${f}`)).join(', ') || 'no rate field'}).`
 			);
 		}
 	}
@@ -81,11 +82,13 @@ export function checkFedBatchFeed(
 		initialVolumeL !== null &&
 		maxVolumeL !== null &&
 		isWithin(bolusL, NON_NEGATIVE) &&
+		// with no bolus, the initial volume's own rule says there is no room
+		bolusL > 0 &&
 		initialVolumeL + bolusL > maxVolumeL
 	) {
 		rules.report(
 			`${field}.bolusL`,
-			`${field}.bolusL (${bolusL} L) would take the volume to ${initialVolumeL + bolusL} L, above maxVolumeL (${maxVolumeL} L).`
+			`${L(`${field}.bolusL`)} (${bolusL} L) would take the volume to ${initialVolumeL + bolusL} L, above the ${inSentence(L('maxVolumeL'))} (${maxVolumeL} L).`
 		);
 	}
 	STRATEGY_RULES[strategy](rules, feed, field, form);
@@ -111,7 +114,7 @@ function requireFeedAboveInitial(
 	if (feed.substrateGPerL <= s0) {
 		rules.report(
 			`${field}.substrateGPerL`,
-			`${field}.substrateGPerL (${feed.substrateGPerL} g/L) must exceed initial.substrateGPerL (${s0} g/L) for ${why}.`
+			`${L(`${field}.substrateGPerL`)} (${feed.substrateGPerL} g/L) must exceed ${L('initial.substrateGPerL')} (${s0} g/L) for ${why}.`
 		);
 	}
 }
@@ -123,7 +126,7 @@ const STRATEGY_RULES: Record<FeedInput['strategy'], StrategyRule> = {
 		if (rateLPerH !== null && v0 !== null && rateLPerH > MAX_INFLOW_VOLUMES_PER_H * v0) {
 			rules.report(
 				`${field}.rateLPerH`,
-				`${field}.rateLPerH (${rateLPerH} L/h) would bring in more than ${MAX_INFLOW_VOLUMES_PER_H} times the initial volume (${v0} L) per hour: check its units (L/h).`
+				`${L(`${field}.rateLPerH`)} (${rateLPerH} L/h) would bring in more than ${MAX_INFLOW_VOLUMES_PER_H} times the initial volume (${v0} L) per hour: check its units (L/h).`
 			);
 		}
 	},
@@ -133,7 +136,7 @@ const STRATEGY_RULES: Record<FeedInput['strategy'], StrategyRule> = {
 		if (rateLPerH === 0 && slopeLPerH2 !== null && slopeLPerH2 <= 0) {
 			rules.report(
 				`${field}.slopeLPerH2`,
-				`A linear feed starting at 0 L/h needs a positive ${field}.slopeLPerH2.`
+				`A linear feed starting at 0 L/h needs a positive ${inSentence(L(`${field}.slopeLPerH2`))}.`
 			);
 		}
 	},
@@ -143,7 +146,7 @@ const STRATEGY_RULES: Record<FeedInput['strategy'], StrategyRule> = {
 		if (muSetPerH !== null && muMaxPerH !== null && muSetPerH >= muMaxPerH) {
 			rules.report(
 				`${field}.muSetPerH`,
-				`${field}.muSetPerH (${muSetPerH} /h) must be below kinetics.muMaxPerH (${muMaxPerH} /h); the culture cannot grow faster than μmax.`
+				`${L(`${field}.muSetPerH`)} (${muSetPerH} /h) must be below μmax (${muMaxPerH} /h); the culture cannot grow faster than μmax.`
 			);
 		}
 		requireFeedAboveInitial(rules, feed, field, 'an exponential feed');
@@ -155,18 +158,18 @@ const STRATEGY_RULES: Record<FeedInput['strategy'], StrategyRule> = {
 		if (setpointGPerL !== null && setpointGPerL >= feed.substrateGPerL) {
 			rules.report(
 				`${field}.setpointGPerL`,
-				`${field}.setpointGPerL (${setpointGPerL} g/L) must be below ${field}.substrateGPerL (${feed.substrateGPerL} g/L).`
+				`${L(`${field}.setpointGPerL`)} (${setpointGPerL} g/L) must be below the ${inSentence(L(`${field}.substrateGPerL`))} (${feed.substrateGPerL} g/L).`
 			);
 		}
 	},
 	doStat(rules, feed, field) {
 		if (!rules.request.oxygen) {
-			rules.report('oxygen', 'A DO-stat feed needs the oxygen block (kLaPerH, saturationMgPerL).');
+			rules.report('oxygen', 'A DO-stat feed needs the oxygen balance (kLa and DO saturation C*).');
 		}
 		if (!given(feed.maxRateLPerH)) {
 			rules.report(
 				`${field}.maxRateLPerH`,
-				`A DO-stat feed needs ${field}.maxRateLPerH, the pump rate with DO above the setpoint.`
+				`A DO-stat feed needs the ${inSentence(L(`${field}.maxRateLPerH`))}, the pump rate with DO above the setpoint.`
 			);
 		}
 		const saturation = rules.saturationMgPerL;
@@ -179,7 +182,10 @@ const STRATEGY_RULES: Record<FeedInput['strategy'], StrategyRule> = {
 	},
 	expression(rules, feed, field) {
 		if (typeof feed.expression !== 'string') {
-			rules.report(`${field}.expression`, `The expression strategy needs ${field}.expression.`);
+			rules.report(
+				`${field}.expression`,
+				`The expression strategy needs the ${inSentence(L(`${field}.expression`))}.`
+			);
 			return;
 		}
 		try {

@@ -25,6 +25,15 @@ import {
 	type RuleContext
 } from './request-feed-rules';
 import type { FeedInput } from './request-schema';
+import {
+	FEED_STRATEGY_LABELS,
+	fieldLabel as L,
+	inSentence,
+	OPERATING_MODE_WORDS
+} from '../field-labels';
+
+const MODE = (mode: string) => OPERATING_MODE_WORDS[mode] ?? mode;
+const capitalised = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
 function ruleContext(request: RequestShape, ctx: z.RefinementCtx): RuleContext {
 	const valid = (value: unknown, bounds: Bounds) => (isWithin(value, bounds) ? value : null);
@@ -64,13 +73,13 @@ function checkOxygen({ request, report }: RuleContext): void {
 		if (!given(kinetics.yieldXO2)) {
 			report(
 				'kinetics.yieldXO2',
-				'kinetics.yieldXO2 (g biomass per g O2) is required when an oxygen balance is given.'
+				`${L('kinetics.yieldXO2')} (g biomass per g O₂) is required when an oxygen balance is given.`
 			);
 		}
 		if (oxygen.limitsGrowth === false && (kinetics.koMgPerL ?? 0) > 0) {
 			report(
 				'kinetics.koMgPerL',
-				'kinetics.koMgPerL slows growth as DO falls, which oxygen.limitsGrowth: false rules out; give one or the other.'
+				`${L('kinetics.koMgPerL')} slows growth as DO falls, which “${L('oxygen.limitsGrowth')}: no” rules out; give one or the other.`
 			);
 		}
 		return;
@@ -78,13 +87,13 @@ function checkOxygen({ request, report }: RuleContext): void {
 	if (given(kinetics.koMgPerL)) {
 		report(
 			'kinetics.koMgPerL',
-			'kinetics.koMgPerL needs an oxygen block (kLaPerH, saturationMgPerL) to have any effect.'
+			`${L('kinetics.koMgPerL')} needs the oxygen balance (kLa and DO saturation C*) to have any effect.`
 		);
 	}
 	if (given(initial.dissolvedOxygenMgPerL)) {
 		report(
 			'initial.dissolvedOxygenMgPerL',
-			'initial.dissolvedOxygenMgPerL needs an oxygen block (kLaPerH, saturationMgPerL) to have any effect.'
+			`${L('initial.dissolvedOxygenMgPerL')} needs the oxygen balance (kLa and DO saturation C*) to have any effect.`
 		);
 	}
 }
@@ -130,7 +139,7 @@ function checkOutputCount({ request, report, endH }: RuleContext): void {
 	if (pointCount > MAX_OUTPUT_POINTS) {
 		report(
 			'outputEveryH',
-			`outputEveryH gives ${pointCount} output points; at most ${MAX_OUTPUT_POINTS} are allowed (use outputEveryH ≥ ${(endH / (MAX_OUTPUT_POINTS - 1)).toPrecision(3)}).`
+			`${L('outputEveryH')} gives ${pointCount} output points; at most ${MAX_OUTPUT_POINTS} are allowed (use ${L('outputEveryH')} ≥ ${(endH / (MAX_OUTPUT_POINTS - 1)).toPrecision(3)} h).`
 		);
 	}
 }
@@ -140,7 +149,7 @@ function checkVolumeRoom({ request, report, initialVolumeL, maxVolumeL }: RuleCo
 	if (request.mode === 'fedBatch' ? initialVolumeL >= maxVolumeL : initialVolumeL > maxVolumeL) {
 		report(
 			'initial.volumeL',
-			`initial.volumeL (${initialVolumeL} L) leaves no room below maxVolumeL (${maxVolumeL} L).`
+			`${L('initial.volumeL')} (${initialVolumeL} L) leaves no room below the ${inSentence(L('maxVolumeL'))} (${maxVolumeL} L).`
 		);
 	}
 }
@@ -149,13 +158,13 @@ function checkVolumeRoom({ request, report, initialVolumeL, maxVolumeL }: RuleCo
 function checkModeSettings({ request, report }: RuleContext): void {
 	const { mode } = request;
 	if (mode !== 'chemostat' && mode !== 'perfusion' && given(request.dilutionPerH)) {
-		report('dilutionPerH', 'dilutionPerH is used only in chemostat and perfusion mode.');
+		report('dilutionPerH', `${L('dilutionPerH')} is used only in chemostat and perfusion mode.`);
 	}
 	if (mode !== 'perfusion' && given(request.perfusion)) {
-		report('perfusion', 'perfusion settings are used only in perfusion mode.');
+		report('perfusion', 'Perfusion settings are used only in perfusion mode.');
 	}
 	if (mode !== 'drawFill' && given(request.drawFill)) {
-		report('drawFill', 'drawFill settings are used only in drawFill mode.');
+		report('drawFill', 'Draw-fill settings are used only in draw-fill mode.');
 	}
 }
 
@@ -166,7 +175,7 @@ function checkFeedStart(rules: RuleContext, feed: FeedInput, field: string): num
 	if (rules.endH !== null && startH >= rules.endH) {
 		rules.report(
 			`${field}.startH`,
-			`${field}.startH (${startH} h) must be before endH (${rules.endH} h).`
+			`${L(`${field}.startH`)} (${startH} h) must be before the end time (${rules.endH} h).`
 		);
 		return null;
 	}
@@ -183,13 +192,13 @@ function checkFeedStreams(rules: RuleContext): void {
 	if (request.mode !== 'fedBatch') {
 		const instead =
 			request.mode === 'batch'
-				? 'a batch run takes no feed; use fedBatch mode to feed'
-				: `in ${request.mode} mode give the fresh medium as feed`;
-		report('feeds', `feeds (several feed streams) is used only in fedBatch mode; ${instead}.`);
+				? 'a batch run takes no feed; use fed-batch mode to feed'
+				: `in ${MODE(request.mode)} mode give the fresh medium as the one feed`;
+		report('feeds', `Several feed streams are used only in fed-batch mode; ${instead}.`);
 		return;
 	}
 	if (given(request.feed)) {
-		report('feeds', 'Give either feed (one stream) or feeds (several streams), not both.');
+		report('feeds', 'Give either one feed or several feed streams, not both.');
 		return;
 	}
 	const streams = request.feeds ?? [];
@@ -220,7 +229,7 @@ function checkBolusesFit(rules: RuleContext, streams: readonly FeedInput[]): voi
 		if (volumeL > maxVolumeL) {
 			rules.report(
 				`feeds.${i}.bolusL`,
-				`feeds.${i}.bolusL (${bolusL} L) would take the volume, with the boluses before it, to ${volumeL} L, above maxVolumeL (${maxVolumeL} L).`
+				`${L(`feeds.${i}.bolusL`)} (${bolusL} L) would take the volume, with the boluses before it, to ${volumeL} L, above the ${inSentence(L('maxVolumeL'))} (${maxVolumeL} L).`
 			);
 			return;
 		}
@@ -231,13 +240,13 @@ function checkSingleFeed(rules: RuleContext): void {
 	const { request, report } = rules;
 	const { mode, feed } = request;
 	if (mode === 'batch') {
-		if (given(feed)) report('feed', 'A batch run takes no feed; use fedBatch mode to feed.');
+		if (given(feed)) report('feed', 'A batch run takes no feed; use fed-batch mode to feed.');
 		return;
 	}
 	let startH: number | null = 0;
 	if (feed === undefined) {
-		const what = mode === 'fedBatch' ? 'the feed' : 'the fresh medium (feed.substrateGPerL)';
-		report('feed', `${mode} mode needs ${what}.`);
+		const what = mode === 'fedBatch' ? 'a feed' : `the fresh medium (${L('feed.substrateGPerL')})`;
+		report('feed', `${capitalised(MODE(mode))} mode needs ${what}.`);
 	} else {
 		need(rules, feed.substrateGPerL, 'feed.substrateGPerL', POSITIVE);
 		startH = checkFeedStart(rules, feed, 'feed');
@@ -257,22 +266,24 @@ function checkFreshMedium({ request, report }: RuleContext, feed: FeedInput): vo
 	if (feed.strategy !== 'constant') {
 		report(
 			'feed.strategy',
-			`In ${mode} mode the feed is fresh medium at the mode's own flow; feed.strategy must be "constant".`
+			`In ${MODE(mode)} mode the feed is fresh medium at the mode’s own flow; the feed strategy must be “${FEED_STRATEGY_LABELS.constant}”.`
 		);
 	}
 	if (given(feed.label)) {
 		report(
 			'feed.label',
-			`feed.label names a fed-batch feed stream; in ${mode} mode the feed is the fresh medium.`
+			`A feed name belongs to a fed-batch feed stream; in ${MODE(mode)} mode the feed is the fresh medium.`
 		);
 	}
 	const flow =
-		mode === 'drawFill' ? 'drawFill.fraction and drawFill.everyH' : 'dilutionPerH × volume';
+		mode === 'drawFill'
+			? `${L('drawFill.fraction')} and ${L('drawFill.everyH')}`
+			: `${L('dilutionPerH')} × volume`;
 	for (const name of FLOW_FIELDS) {
 		if (given(feed[name])) {
 			report(
 				`feed.${name}`,
-				`feed.${name} is not used in ${mode} mode (the flow is set by ${flow}).`
+				`${L(`feed.${name}`)} is not used in ${MODE(mode)} mode (the flow is set by ${flow}).`
 			);
 		}
 	}
@@ -280,12 +291,13 @@ function checkFreshMedium({ request, report }: RuleContext, feed: FeedInput): vo
 
 function checkContinuousFlow({ request, report }: RuleContext): void {
 	const { mode, dilutionPerH, perfusion } = request;
-	if (!given(dilutionPerH)) report('dilutionPerH', `${mode} mode needs dilutionPerH.`);
+	if (!given(dilutionPerH))
+		report('dilutionPerH', `${capitalised(MODE(mode))} mode needs the ${L('dilutionPerH')}.`);
 	if (mode !== 'perfusion') return;
 	if (!perfusion) {
 		report(
 			'perfusion',
-			'perfusion mode needs perfusion.retentionEfficiency and perfusion.bleedPerH.'
+			`Perfusion mode needs the ${inSentence(L('perfusion.retentionEfficiency'))} and the ${inSentence(L('perfusion.bleedPerH'))}.`
 		);
 		return;
 	}
@@ -297,7 +309,7 @@ function checkContinuousFlow({ request, report }: RuleContext): void {
 	) {
 		report(
 			'perfusion.bleedPerH',
-			`perfusion.bleedPerH (${bleedPerH}) cannot exceed dilutionPerH (${dilutionPerH}): the bleed is part of the outflow.`
+			`${L('perfusion.bleedPerH')} (${bleedPerH} /h) cannot exceed the ${L('dilutionPerH')} (${dilutionPerH} /h): the bleed is part of the outflow.`
 		);
 	}
 }
@@ -305,14 +317,17 @@ function checkContinuousFlow({ request, report }: RuleContext): void {
 function checkDrawFill({ request, report, endH }: RuleContext, startH: number | null): void {
 	const { drawFill } = request;
 	if (!drawFill) {
-		report('drawFill', 'drawFill mode needs drawFill.fraction and drawFill.everyH.');
+		report(
+			'drawFill',
+			`Draw-fill mode needs the ${inSentence(L('drawFill.fraction'))} and ${inSentence(L('drawFill.everyH'))}.`
+		);
 		return;
 	}
 	if (endH === null || startH === null || !isWithin(drawFill.everyH, POSITIVE)) return;
 	if ((endH - startH) / drawFill.everyH > MAX_DRAW_CYCLES) {
 		report(
 			'drawFill.everyH',
-			`drawFill.everyH gives more than ${MAX_DRAW_CYCLES} draws before endH.`
+			`${L('drawFill.everyH')} gives more than ${MAX_DRAW_CYCLES} draws before the end time.`
 		);
 	}
 }

@@ -3,6 +3,7 @@
 // fields sit on the fields; rules that read several fields are in request-rules.ts.
 import { z } from 'zod';
 import { checkSimulationRequest } from './request-rules';
+import { fieldLabel } from '../field-labels';
 import {
 	boundedNumber,
 	DEFAULT_OUTPUT_INTERVALS,
@@ -47,9 +48,10 @@ const feedLabel = z
 
 function labelMessage(field: string, input: string): string {
 	const length = input.trim().length;
+	const label = fieldLabel(field);
 	return length === 0
-		? `${field} must be a non-empty text.`
-		: `${field} must be at most ${MAX_FEED_LABEL_LENGTH} characters (got ${length}).`;
+		? `${label} must be a non-empty text.`
+		: `${label} must be at most ${MAX_FEED_LABEL_LENGTH} characters (got ${length}).`;
 }
 
 /**

@@ -1,4 +1,4 @@
-import { readDecimalText } from './number-reading';
+import { readDecimalText, storedNumberText } from './number-reading';
 /**
  * The short text notations a component's lists are typed in, on the form and in CSV files alike:
  *   fractions   C=0.39; N=0.105          (g element per g)
@@ -46,7 +46,7 @@ export function parseFractions(text: string): Parsed<Record<string, number> | nu
 export function formatFractions(value: Record<string, number> | null | undefined): string {
 	return value
 		? Object.entries(value)
-				.map(([s, f]) => `${s}=${f}`)
+				.map(([s, f]) => `${s}=${storedNumberText(f)}`)
 				.join('; ')
 		: '';
 }
@@ -117,7 +117,7 @@ export function parseSolubility(text: string): Parsed<SolubilityEntry[] | null> 
 }
 
 export function formatSolubility(value: SolubilityEntry[] | null | undefined): string {
-	return value ? value.map((p) => `${p.temperatureC}:${p.gPerL}`).join('; ') : '';
+	return value ? value.map((p) => `${p.temperatureC}:${storedNumberText(p.gPerL)}`).join('; ') : '';
 }
 
 export interface HazardEntry {

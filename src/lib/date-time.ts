@@ -68,10 +68,10 @@ export function formatIsoLocal(at: Date | string | number, timeZone: string): st
 	return `${date}T${time}:${seconds}${offset}`;
 }
 
-/** "14:05:09": the time of day with seconds, for "saved at" notes. */
+/** "14:05:09 CET": the time of day with seconds and zone, for "saved at" notes. */
 export function formatTimeOfDay(at: Date | string | number, timeZone: string): string {
-	const { time, seconds } = partsOf(at, timeZone);
-	return `${time}:${seconds}`;
+	const { time, seconds, zone } = partsOf(at, timeZone);
+	return `${time}:${seconds} ${zone}`;
 }
 
 /** "2026-12-03": the day in the site's zone. */

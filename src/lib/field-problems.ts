@@ -1,6 +1,7 @@
 // How a zod refusal becomes field problems and one sentence: shared by the API (problem+json) and
 // the browser forms that check their request with the same schema, so both say the same words.
 import type { z } from 'zod';
+import { fieldLabel } from '$chemistry';
 
 export interface FieldProblem {
 	/** Dotted path of the offending input, e.g. `kinetics.muMaxPerH` or `lines.2.amount`. */
@@ -37,13 +38,16 @@ export function zodProblems(
 	});
 }
 
-const namesItsField = ({ path, message }: FieldProblem) =>
-	new RegExp(`(?<![\\w.])${path.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}(?!\\w)`).test(message);
+/** The refusal as a person reads it: led by the field's label unless the message already names it. */
+function namedProblem({ path, message }: FieldProblem): string {
+	const label = fieldLabel(path);
+	return message.includes(label) || path === '(body)' ? message : `${label}: ${message}`;
+}
 
 /** A single refusal that names its own field (as the science's do) is the detail as it stands. */
 export function describeProblems(errors: FieldProblem[]): string {
-	if (errors.length === 1 && namesItsField(errors[0])) return errors[0].message;
-	return `The request has ${errors.length} invalid field${errors.length === 1 ? '' : 's'}: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`;
+	if (errors.length === 1) return namedProblem(errors[0]);
+	return `The request has ${errors.length} invalid fields. ${errors.map(namedProblem).join(' ')}`;
 }
 
 /** Problems by path, as a form shows them: two at one path read as one text. */

@@ -117,6 +117,15 @@ export function formatReadNumber(value: number, mark: DecimalMark = siteMark): s
 	return mark === 'comma' ? plain.replace('.', ',') : plain;
 }
 
+/**
+ * A stored or computed number as plain text for files and form fields: point mark, no thousands
+ * groups, and no binary noise (53.489000000000004 is 53.489). Twelve significant digits keep every
+ * digit a person typed or a table gives.
+ */
+export function storedNumberText(value: number): string {
+	return Number.isFinite(value) ? String(Number(value.toPrecision(12))) : '';
+}
+
 /** For a schema that checks the number afterwards: NaN when the text is not one. */
 export function decimalOrNaN(text: string): number {
 	const read = readDecimalText(text, 'Number');

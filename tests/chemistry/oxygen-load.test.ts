@@ -86,6 +86,6 @@ describe('the O2 demand of a run whose growth oxygen never holds back', () => {
 				kinetics: { ...base.kinetics, koMgPerL: 0.1 },
 				oxygen: { kLaPerH: 100, saturationMgPerL: 7, limitsGrowth: false }
 			})
-		).toThrow(/koMgPerL/);
+		).toThrow(/^K_O slows growth as DO falls/);
 	});
 });

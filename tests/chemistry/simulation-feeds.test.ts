@@ -217,7 +217,7 @@ describe('several feed streams: delivered volumes, rates and starts', () => {
 		expect(r.volumeL.at(-1)).toBeCloseTo(1.9, 12);
 		const started = r.events.find((e) => e.kind === 'feedStarted');
 		expect(started?.message).toBe(
-			'Feed 2 of 2 (constant) started after 0.4 L of its 0.5 L bolus (the vessel was full).'
+			'Feed 2 of 2 (constant rate) started after 0.4 L of its 0.5 L bolus (the vessel was full).'
 		);
 		expect(r.events.at(-1)?.kind).toBe('maxVolumeReached');
 	});
@@ -251,8 +251,8 @@ describe('several feed streams: delivered volumes, rates and starts', () => {
 		});
 		const started = r.events.filter((e) => e.kind === 'feedStarted');
 		expect(started.map((e) => [e.tH, e.message])).toEqual([
-			[5, 'Feed “Glucose concentrate” (doStat) started.'],
-			[10, 'Feed “Amino acids” (constant) started after a bolus of 0.05 L.']
+			[5, 'Feed “Glucose concentrate” (DO-stat) started.'],
+			[10, 'Feed “Amino acids” (constant rate) started after a bolus of 0.05 L.']
 		]);
 		const [glucose, aminoAcids] = streams(r).map((stream) => ({
 			...stream,
@@ -339,7 +339,7 @@ describe('the single feed as one stream', () => {
 		});
 		expect(r.stoppedAtH).toBe(0);
 		expect(r.events.find((e) => e.kind === 'feedStarted')?.message).toBe(
-			'Feed (constant) started after a bolus of 0.2 L.'
+			'Feed (constant rate) started after a bolus of 0.2 L.'
 		);
 		expect(streams(r)[0].deliveredL).toBeCloseTo(0.2, 15);
 	});
@@ -368,7 +368,7 @@ describe('feeds validation names the field', () => {
 	it('refuses feed and feeds together', () => {
 		const e = errorOf(() => simulateRun({ ...fedBatch([good]), feed: good }));
 		expect(e.field).toBe('feeds');
-		expect(e.message).toMatch(/either feed .* or feeds .*not both/);
+		expect(e.message).toMatch(/either one feed or several feed streams, not both/);
 	});
 
 	it.each(['batch', 'chemostat', 'perfusion', 'drawFill'] as const)(
@@ -376,7 +376,7 @@ describe('feeds validation names the field', () => {
 		(mode) => {
 			const e = errorOf(() => simulateRun({ ...fedBatch([good]), mode }));
 			expect(e.field).toBe('feeds');
-			expect(e.message).toMatch(/feeds .*only in fedBatch mode/);
+			expect(e.message).toMatch(/Several feed streams are used only in fed-batch mode/);
 		}
 	);
 
@@ -486,7 +486,7 @@ describe('feeds validation names the field', () => {
 		).toBe('feed.label');
 		const labelled = simulateRun({ ...rest, feed: { ...good, label: 'Glucose', startH: 1 } });
 		expect(labelled.events.find((e) => e.kind === 'feedStarted')?.message).toBe(
-			'Feed “Glucose” (constant) started.'
+			'Feed “Glucose” (constant rate) started.'
 		);
 	});
 });

@@ -55,7 +55,7 @@ describe('request validation names the field', () => {
 			})
 		);
 		expect(e.field).toBe('feed.muSetPerH');
-		expect(e.message).toMatch(/below kinetics\.muMaxPerH/);
+		expect(e.message).toMatch(/^Feed μset \(0\.5 \/h\) must be below μmax \(0\.5 \/h\)/);
 	});
 
 	it('refuses an exponential feed no richer than the broth', () => {

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import {
 	ATOMIC_WEIGHTS,
 	balanceAerobicGrowth,
+	computeMaximumBiomassYield,
 	computeSoleSourceYield,
 	formulaMolarMass,
 	solveAerobicGrowth
@@ -165,5 +166,59 @@ describe('the yield of a sole source of one element', () => {
 				})
 			).field
 		).toBe('element');
+	});
+});
+
+describe('the most biomass the element balances allow (Yx/s bound, degree-of-reduction balance)', () => {
+	// Hand calculation with IUPAC 2021 abridged standard atomic weights, C 12.011, H 1.008,
+	// O 15.999, N 14.007, and the usual biomass CH1.8O0.5N0.2 (γx = 4 + 1.8 − 1 − 0.6 = 4.2):
+	// M(biomass) per C-mol = 12.011 + 1.8 × 1.008 + 0.5 × 15.999 + 0.2 × 14.007 = 24.6263 g.
+	const BIOMASS = 'CH1.8O0.5N0.2';
+	const biomassGPerCmol = 12.011 + 1.8 * 1.008 + 0.5 * 15.999 + 0.2 * 14.007;
+
+	it('glucose: the electrons bind first, γs/γx = 4/4.2 C-mol/C-mol, 0.781 g/g', () => {
+		const glucoseGPerCmol = (6 * 12.011 + 12 * 1.008 + 6 * 15.999) / 6;
+		const bound = computeMaximumBiomassYield({
+			substrateFormula: GLUCOSE,
+			biomassFormula: BIOMASS
+		})!;
+		expect(bound.limitedBy).toBe('electrons');
+		expect(bound.maxCmolPerCmol).toBeCloseTo(4 / 4.2, 9);
+		expect(bound.maxGPerG).toBeCloseTo(((4 / 4.2) * biomassGPerCmol) / glucoseGPerCmol, 9);
+		expect(bound.maxGPerG).toBeCloseTo(0.781, 3);
+		expect(bound.reason).toMatch(/γs\/γx = 4\/4\.2/);
+	});
+
+	it('ethanol (γs 6): the carbon binds first, 1 C-mol/C-mol, 1.07 g/g', () => {
+		const ethanolGPerCmol = (2 * 12.011 + 6 * 1.008 + 15.999) / 2;
+		const bound = computeMaximumBiomassYield({
+			substrateFormula: 'C2H6O',
+			biomassFormula: BIOMASS
+		})!;
+		expect(bound.limitedBy).toBe('carbon');
+		expect(bound.maxGPerG).toBeCloseTo(biomassGPerCmol / ethanolGPerCmol, 9);
+		expect(bound.maxGPerG).toBeCloseTo(1.069, 3);
+	});
+
+	it('ash adds mass to each C-mol of dry biomass: 8 % ash raises the bound by 1/0.92', () => {
+		const plain = computeMaximumBiomassYield({
+			substrateFormula: GLUCOSE,
+			biomassFormula: BIOMASS
+		})!;
+		const withAsh = computeMaximumBiomassYield({
+			substrateFormula: GLUCOSE,
+			biomassFormula: BIOMASS,
+			ashFraction: 0.08
+		})!;
+		expect(withAsh.maxGPerG).toBeCloseTo(plain.maxGPerG / 0.92, 9);
+	});
+
+	it('gives no bound for a substrate without carbon or without electrons to give', () => {
+		expect(computeMaximumBiomassYield({ substrateFormula: 'NH4Cl', biomassFormula: BIOMASS })).toBe(
+			null
+		);
+		expect(computeMaximumBiomassYield({ substrateFormula: 'CO2', biomassFormula: BIOMASS })).toBe(
+			null
+		);
 	});
 });

@@ -83,6 +83,7 @@ test.describe('four eyes on recipes', () => {
 		await second
 			.getByLabel('…or paste the rows (header first)')
 			.fill('component,amount,unit\nD-Glucose,50,g/L\nSodium chloride,6,g/L\n');
+		await second.getByRole('radio', { name: /^Add after/ }).check();
 		await second.getByRole('button', { name: 'Preview' }).click();
 		await second.getByRole('button', { name: 'Import 2 rows' }).click();
 		await expect(second.getByText('2 lines added to version 1.')).toBeVisible();

@@ -51,7 +51,7 @@ test.describe('simulation endpoints, signed in', () => {
 			'μset ≥ μmax',
 			{ feed: { ...fedBatch.feed, muSetPerH: 0.6 } },
 			'feed.muSetPerH',
-			/below kinetics.muMaxPerH/
+			/^Feed μset \(0\.6 \/h\) must be below μmax/
 		],
 		[
 			'an expression with an unknown name',
@@ -69,7 +69,7 @@ test.describe('simulation endpoints, signed in', () => {
 			'a feed no richer than the medium',
 			{ feed: { ...fedBatch.feed, substrateGPerL: 10 } },
 			'feed.substrateGPerL',
-			/must exceed initial.substrateGPerL/
+			/^Feed substrate Sf \(10 g\/L\) must exceed Substrate S₀/
 		],
 		[
 			'a negative Ks',

@@ -82,10 +82,10 @@ test('a bad value in the second stream is shown at that stream’s field, and a 
 	await second.getByLabel('Feed rate F (L/h)').fill('-0.01');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
 	await expect(second.getByLabel('Feed rate F (L/h)')).toHaveAccessibleDescription(
-		/^rateLPerH of feed stream 2 must be greater than 0/
+		/^Feed stream 2 rate F must be greater than 0/
 	);
 	await expect(second.getByLabel('Feed rate F (L/h)')).toHaveValue('-0.01');
-	await expect(page.getByTestId('run-message')).toContainText('feed stream 2');
+	await expect(page.getByTestId('run-message')).toContainText('Feed stream 2');
 	await expect(first.getByLabel('Set growth rate μset (1/h)')).not.toHaveAttribute('aria-invalid');
 
 	await page.getByRole('button', { name: 'Remove feed stream 2' }).focus();

@@ -45,6 +45,22 @@ describe('Yx/s worked out on the profile form', () => {
 		expect(saved({ yieldXSMethod: 'entered', yieldXSGPerG: '0.45' }).yieldXSGPerG).toBe(0.45);
 	});
 
+	it('refuses a typed Yx/s above the element-balance bound on glucose, with the bound and why', () => {
+		// Biomass CH1.666667O0.5N0.166667: γx = 4 + 1.666667 − 1 − 0.5 = 4.166667; glucose γs = 4.
+		// Bound 4/4.166667 C-mol/C-mol × M(biomass per C-mol) / (M(glucose)/6), hand-computed here.
+		const biomassGPerCmol = formulaMolarMass('CH1.666667O0.5N0.166667');
+		const boundGPerG = ((4 / 4.166667) * biomassGPerCmol) / (formulaMolarMass('C6H12O6') / 6);
+		const refused = failure({ yieldXSMethod: 'entered', yieldXSGPerG: '1.5', notes: 'kept' });
+		const message = refused.fieldErrors.yieldXSGPerG[0];
+		expect(message).toMatch(
+			/^Yx\/s 1\.5 g\/g is more than the element balances allow on D-Glucose/
+		);
+		expect(message).toContain(`at most ${boundGPerG.toPrecision(3)} g/g`);
+		expect(message).toMatch(/degree-of-reduction balance/);
+		expect(refused.values.notes).toBe('kept');
+		expect(saved({ yieldXSMethod: 'entered', yieldXSGPerG: '0.7' }).yieldXSGPerG).toBe(0.7);
+	});
+
 	it('says what is missing for the balance, keeping what was typed', () => {
 		const noRq = failure({ yieldXSMethod: 'respiratoryQuotient', notes: 'kept' });
 		expect(noRq.fieldErrors.respiratoryQuotient[0]).toMatch(/Enter the measured RQ/);

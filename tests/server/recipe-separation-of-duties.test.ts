@@ -48,7 +48,7 @@ describe('separation of duties is held by the data', () => {
 	it('a CSV import into another author’s draft makes the importer an editor who cannot sign', async () => {
 		const draft = draftRecipe(author, [line('sodium-chloride', 5)]);
 		const version = findVersionById(draft.versionId)!;
-		importLineCsv(second, version, 'component,amount,unit\nD-Glucose,50,g/L\n');
+		importLineCsv(second, version, 'component,amount,unit\nD-Glucose,50,g/L\n', 'append');
 		expect(editorIdsOf(draft.versionId).sort()).toEqual([author.id, second.id].sort());
 		submitForReview(second, draft.versionId, findVersionById(draft.versionId)!.revision);
 		await expectSigningRefused(draft.versionId, second);

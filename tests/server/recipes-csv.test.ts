@@ -105,6 +105,18 @@ describe('component CSV import', () => {
 			formula: 'MgSO4·7H2O',
 			basis_component: 'magnesium-sulfate'
 		});
+		// N 14.007 + 4 × H 1.008 + Cl 35.45 = 53.489 g/mol (IUPAC 2021 abridged standard atomic
+		// weights); the sum in binary floating point is 53.489000000000004, which no file should show.
+		const ammoniumChloride = parsed.data.find((r) => r.formula === 'NH4Cl');
+		expect(ammoniumChloride?.molar_mass_g_per_mol).toBe('53.489');
+		const longest = Math.max(
+			...parsed.data.flatMap((r) =>
+				[r.molar_mass_g_per_mol, r.osmotic_coefficient]
+					.filter(Boolean)
+					.map((v) => v.replace(/^-|\.|e.*$/g, '').replace(/^0+/, '').length)
+			)
+		);
+		expect(longest).toBeLessThanOrEqual(12);
 	});
 });
 
@@ -113,7 +125,7 @@ describe('recipe line CSV import', () => {
 		const draft = draftRecipe(actor, [line('sodium-chloride', 5)]);
 		const csv =
 			'component,amount,unit,note\nD-Glucose anhydrous,20,mM,\nPotassium chloride,0,g/L,\nGlycine,1,ppm,\nSodium chloride,1,g/L,\nNo such thing,1,g/L,';
-		const preview = previewLineCsv(findVersionById(draft.versionId)!, csv);
+		const preview = previewLineCsv(findVersionById(draft.versionId)!, csv, 'append');
 		expect(preview.rows.map((r) => [r.rowNumber, r.errors])).toEqual([
 			[2, []],
 			[3, ['amount: the amount must be greater than zero, not 0.']],
@@ -122,9 +134,9 @@ describe('recipe line CSV import', () => {
 			[6, ['component: no component “No such thing” in the library.']]
 		]);
 		const before = findVersionById(draft.versionId)!.revision;
-		expect(ruleMessage(() => importLineCsv(actor, findVersionById(draft.versionId)!, csv))).toMatch(
-			/4 rows have problems; nothing was imported/
-		);
+		expect(
+			ruleMessage(() => importLineCsv(actor, findVersionById(draft.versionId)!, csv, 'append'))
+		).toMatch(/4 rows have problems; nothing was imported/);
 		expect(linesOf(draft.versionId)).toHaveLength(1);
 		expect(findVersionById(draft.versionId)!.revision).toBe(before);
 	});
@@ -134,7 +146,8 @@ describe('recipe line CSV import', () => {
 		const added = importLineCsv(
 			actor,
 			findVersionById(draft.versionId)!,
-			'component,amount,unit,shelf_form,note\nMagnesium sulfate,2,mM,Magnesium sulfate heptahydrate,add last\nd-glucose,4.5,g/L,,'
+			'component,amount,unit,shelf_form,note\nMagnesium sulfate,2,mM,Magnesium sulfate heptahydrate,add last\nd-glucose,4.5,g/L,,',
+			'append'
 		);
 		expect(added).toBe(2);
 		expect(
@@ -163,10 +176,101 @@ describe('recipe line CSV import', () => {
 		]);
 	});
 
+	it('re-importing a version’s own export with Replace gives the same lines and fields', () => {
+		const instructions =
+			'Dissolve in 800 mL water.\nAdjust to "pH 7.2" with 1 M NaOH; make up to 1 L.';
+		const draft = draftRecipe(
+			actor,
+			[line('sodium-chloride', 5), line('d-glucose', 4.5), line('potassium-chloride', 0.4)],
+			'basal',
+			{
+				targetPh: '7.2',
+				osmolalityMinMOsmPerKg: '280',
+				osmolalityMaxMOsmPerKg: '330',
+				preparationTemperatureC: '30',
+				shelfLifeDays: '28',
+				storage: '2–8 °C, dark',
+				instructions
+			}
+		);
+		const version = () => findVersionById(draft.versionId)!;
+		const csv = exportVersionCsv(findRecipe(draft.recipeId)!, version());
+		expect(csv).toContain('# target_ph: 7.2');
+		expect(csv).toContain(`# instructions: ${JSON.stringify(instructions)}`);
+
+		const appended = previewLineCsv(version(), csv, 'append');
+		expect(appended.errorCount).toBe(3);
+		expect(appended.fieldsLeftAlone).toContain('Target pH');
+
+		const replaced = previewLineCsv(version(), csv, 'replace');
+		expect(replaced.rows.flatMap((r) => r.errors)).toEqual([]);
+		expect(replaced.errorCount).toBe(0);
+		expect(replaced.draftLineCount).toBe(3);
+		expect(replaced.fieldChanges).toEqual([]);
+		const linesBefore = linesOf(draft.versionId).map(({ id: _id, ...l }) => l);
+		expect(importLineCsv(actor, version(), csv, 'replace')).toBe(3);
+		expect(linesOf(draft.versionId).map(({ id: _id, ...l }) => l)).toEqual(linesBefore);
+		expect(version()).toMatchObject({
+			targetPh: 7.2,
+			osmolalityMinMOsmPerKg: 280,
+			osmolalityMaxMOsmPerKg: 330,
+			preparationTemperatureC: 30,
+			shelfLifeDays: 28,
+			storage: '2–8 °C, dark',
+			instructions
+		});
+	});
+
+	it('Replace takes the file’s fields, refuses a bad one by its label, and Append leaves them', () => {
+		const draft = draftRecipe(actor, [line('sodium-chloride', 5)], 'basal', { targetPh: '7.0' });
+		const version = () => findVersionById(draft.versionId)!;
+		const file = (ph: string) =>
+			`# a note that is not a field\n# target_ph: ${ph}\n# storage: "Room temperature"\ncomponent,amount,unit\nPotassium chloride,0.4,g/L`;
+		const refused = previewLineCsv(version(), file('15'), 'replace');
+		expect(refused.errorCount).toBe(1);
+		expect(refused.fieldProblems).toEqual([
+			'Version fields: Target pH is between 0 and 14, not 15.'
+		]);
+		expect(ruleMessage(() => importLineCsv(actor, version(), file('15'), 'replace'))).toMatch(
+			/nothing was imported/
+		);
+		expect(version().targetPh).toBe(7);
+
+		const preview = previewLineCsv(version(), file('7.4'), 'replace');
+		expect(preview.fieldChanges).toEqual([
+			{ label: 'Target pH', from: '7', to: '7.4' },
+			{ label: 'Storage', from: '(empty)', to: 'Room temperature' }
+		]);
+		importLineCsv(actor, version(), file('7.4'), 'replace');
+		expect(linesOf(draft.versionId).map((l) => l.componentId)).toEqual(['potassium-chloride']);
+		expect(version()).toMatchObject({ targetPh: 7.4, storage: 'Room temperature' });
+
+		importLineCsv(actor, version(), file('6.8').replace('Potassium chloride', 'Glycine'), 'append');
+		expect(linesOf(draft.versionId).map((l) => l.componentId)).toEqual([
+			'potassium-chloride',
+			'glycine'
+		]);
+		expect(version().targetPh).toBe(7.4);
+	});
+
+	it('an unclosed text field is refused with how to write it', () => {
+		const draft = draftRecipe(actor, [line('sodium-chloride', 5)]);
+		const preview = previewLineCsv(
+			findVersionById(draft.versionId)!,
+			'# instructions: "Dissolve\ncomponent,amount,unit\nGlycine,1,g/L',
+			'replace'
+		);
+		expect(preview.fieldProblems).toEqual([
+			expect.stringMatching(/^Instructions \(instructions\): the text is not closed properly/)
+		]);
+	});
+
 	it('wrong columns are one clear message', () => {
 		const draft = draftRecipe(actor, [line('sodium-chloride', 5)]);
 		expect(
-			ruleMessage(() => previewLineCsv(findVersionById(draft.versionId)!, 'ingredient;qty\nx;1'))
+			ruleMessage(() =>
+				previewLineCsv(findVersionById(draft.versionId)!, 'ingredient;qty\nx;1', 'append')
+			)
 		).toMatch(
 			/The columns are not right: unknown columns “ingredient”, “qty”; missing component, amount, unit\. Expected columns: component, amount, unit \(required\)/
 		);

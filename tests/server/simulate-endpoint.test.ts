@@ -45,7 +45,7 @@ describe('POST /api/v1/simulate with several feed streams', () => {
 		expect(body.feedStreams[0].deliveredL).toBeCloseTo(0.2, 10);
 		expect(body.feedStreams[1].deliveredL).toBeCloseTo(0.06, 10);
 		expect(body.events.map((e: { message: string }) => e.message)).toContain(
-			'Feed “Amino acids” (constant) started.'
+			'Feed “Amino acids” (constant rate) started.'
 		);
 	});
 
@@ -100,10 +100,19 @@ describe('POST /api/v1/simulate with several feed streams', () => {
 		expect(response.status).toBe(400);
 		const body = await response.json();
 		expect(body.errors).toEqual([
-			{ path: 'kinetics.ksGPerL', message: 'kinetics.ksGPerL must be greater than 0 (got 0).' },
-			{ path: 'feeds.0.rateLPerH', message: 'feeds.0.rateLPerH must be greater than 0 (got -1).' },
-			{ path: 'feeds.1.startH', message: 'feeds.1.startH (12 h) must be before endH (10 h).' }
+			{ path: 'kinetics.ksGPerL', message: 'Ks must be greater than 0 (got 0).' },
+			{
+				path: 'feeds.0.rateLPerH',
+				message: 'Feed stream 1 rate F must be greater than 0 (got -1).'
+			},
+			{
+				path: 'feeds.1.startH',
+				message: 'Feed stream 2 start (12 h) must be before the end time (10 h).'
+			}
 		]);
-		expect(body.detail).toMatch(/^The request has 3 invalid fields: kinetics\.ksGPerL: /);
+		// The detail a person reads lists all three by their labels, not the request's paths.
+		expect(body.detail).toBe(
+			'The request has 3 invalid fields. Ks must be greater than 0 (got 0). Feed stream 1 rate F must be greater than 0 (got -1). Feed stream 2 start (12 h) must be before the end time (10 h).'
+		);
 	});
 });

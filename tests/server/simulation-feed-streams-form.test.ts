@@ -13,8 +13,7 @@ import {
 	createFeedStream,
 	FEED_LABEL_MAX_LENGTH,
 	MAX_FORM_FEED_STREAMS,
-	moveFeedStreamErrors,
-	nameFeedStreamsIn
+	moveFeedStreamErrors
 } from '$lib/simulation/feed-stream-values';
 import {
 	buildSimulationRequest,
@@ -175,7 +174,7 @@ describe('feed streams in the simulation form', () => {
 			})
 		);
 		// A blank field is left out, and the request schema names what is missing.
-		const missing = 'feeds.1.rateLPerH must be a finite number greater than 0.';
+		const missing = 'Feed stream 2 rate F must be a finite number greater than 0.';
 		expect(buildSimulationRequest(values)).toEqual({
 			ok: false,
 			fieldErrors: { 'feeds.1.rateLPerH': missing },
@@ -194,7 +193,7 @@ describe('feed streams in the simulation form', () => {
 		expect(FEED_LABEL_MAX_LENGTH).toBe(MAX_FEED_LABEL_LENGTH);
 		const values = createDemoValues();
 		values.feeds[0].label = 'x'.repeat(FEED_LABEL_MAX_LENGTH + 1);
-		const tooLong = 'feed.label must be at most 80 characters (got 81).';
+		const tooLong = 'Feed name must be at most 80 characters (got 81).';
 		expect(buildSimulationRequest(values)).toEqual({
 			ok: false,
 			fieldErrors: { 'feed.label': tooLong },
@@ -220,10 +219,7 @@ describe('feed streams in the simulation form', () => {
 		expect(Object.keys(answer.fieldErrors)).toEqual([secondRateField]);
 		expect(built.fieldErrors).toEqual(answer.fieldErrors);
 		expect(built.message).toBe(answer.message);
-		expect(answer.fieldErrors[secondRateField]).toMatch(/^feeds\.1\.rateLPerH must be/);
-		expect(nameFeedStreamsIn(answer.fieldErrors[secondRateField])).toMatch(
-			/^rateLPerH of feed stream 2 must be/
-		);
+		expect(answer.fieldErrors[secondRateField]).toMatch(/^Feed stream 2 rate F must be/);
 	});
 
 	it('keeps its own word for text that is not a number, and the schema’s for the rest', () => {
@@ -235,7 +231,7 @@ describe('feed streams in the simulation form', () => {
 			ok: false,
 			fieldErrors: {
 				endH: 'End time (h): “soon” is not a number.',
-				'kinetics.muMaxPerH': expect.stringMatching(/^kinetics\.muMaxPerH must be greater than 0/)
+				'kinetics.muMaxPerH': 'μmax must be greater than 0 and less than 50 (got -1).'
 			}
 		});
 	});

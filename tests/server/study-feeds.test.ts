@@ -6,7 +6,8 @@ import { study } from '$lib/server/db/schema';
 import { RuleError } from '$lib/server/rule-error';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
-import type { StudyForm } from '$lib/server/studies/study-form';
+import { parseForm } from '$lib/server/forms';
+import { studySchema, type StudyForm } from '$lib/server/studies/study-form';
 import { createStudy, studyFormValues } from '$lib/server/studies/study-store';
 import type { StudyInputs } from '$lib/server/studies/types';
 import { useDemoDatabase } from './demo-database';
@@ -196,6 +197,27 @@ describe('bad feed plans', () => {
 		expect((await refused({ feed2StartH: 70 })).message).toMatch(
 			/must start before the end of the run at 60 h/
 		);
+	});
+
+	it('lists every problem of one save at once: a field, and each feed slot’s missing values', () => {
+		const formData = new FormData();
+		for (const [key, value] of Object.entries(studyFormValues(studyId(TWO_FEEDS))!))
+			formData.set(key, value);
+		formData.set('durationH', 'two days');
+		formData.set('feed1MaxRateLPerH', '');
+		formData.set('feed2Strategy', 'exponential');
+		formData.set('feed2StartH', '');
+		const parsed = parseForm(studySchema, formData);
+		expect(parsed.ok).toBe(false);
+		if (parsed.ok) return;
+		const { fieldErrors, values } = parsed.failure.data;
+		expect(fieldErrors).toEqual({
+			durationH: ['Run duration: “two days” is not a number.'],
+			feed1MaxRateLPerH: ["A DO-stat plan needs the pump's top rate, L/h."],
+			feed2StartH: ['Enter when feed 2 starts, h after inoculation.'],
+			feed2MuSetPerH: ['An exponential plan needs μset, the growth rate it is shaped for.']
+		});
+		expect(values.durationH).toBe('two days');
 	});
 
 	it('refuses a substrate-stat plan on a feed that carries no carbon source', async () => {

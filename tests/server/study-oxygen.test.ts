@@ -179,7 +179,9 @@ describe('oxygen and heat come from the demand of the plan as written', () => {
 		inputs.profile.muMaxPerH = 60;
 		const report = await evaluateStudy(inputs);
 		expect(report.verdict).toBe('not supported');
-		expect(report.reasons.join(' ')).toMatch(/cannot be simulated \(kinetics\.muMaxPerH/);
+		expect(report.reasons.join(' ')).toMatch(
+			/cannot be simulated \(μmax must be greater than 0 and less than 50/
+		);
 		expect(report.timeCourse.check).toBe('unavailable');
 		expect(report.oxygen.lowerBound).toBe(true);
 		expect(report.oxygen.check).toBe('short');

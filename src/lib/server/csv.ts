@@ -1,5 +1,6 @@
 import Papa from 'papaparse';
 import { FORMULA_START } from '$lib/csv-formula';
+import { storedNumberText } from '$lib/number-reading';
 import { RuleError } from './rule-error';
 
 export const MAX_CSV_BYTES = 1_000_000;
@@ -98,6 +99,14 @@ function unescapeFormula(cell: string): string {
 	return cell.startsWith("'") && FORMULA_START.test(cell.slice(1)) ? cell.slice(1) : cell;
 }
 
+/** Numbers without binary noise (kept as numbers, so no formula escape); the rest as it is. */
+const cellText = (value: unknown) =>
+	typeof value === 'number'
+		? Number.isFinite(value)
+			? Number(storedNumberText(value))
+			: ''
+		: (value ?? '');
+
 export function toCsv(
 	rows: Record<string, unknown>[],
 	columns: string[],
@@ -106,7 +115,7 @@ export function toCsv(
 	const header = comments.map((c) => `# ${c.replace(/[\r\n]+/g, ' ')}`).join('\r\n');
 	const table = unparseCsv(
 		columns,
-		rows.map((r) => columns.map((c) => r[c] ?? ''))
+		rows.map((r) => columns.map((c) => cellText(r[c])))
 	);
 	return header ? `${header}\r\n${table}` : table;
 }

@@ -1,6 +1,11 @@
 // One feed stream as the simulation form holds it, and its translation to and from a FeedInput.
 // The table of feed fields drives the stream's inputs, its part of the request and scenario loading.
-import type { FeedInput, FeedStrategy, OperatingMode } from '$chemistry';
+import {
+	FEED_STRATEGY_LABELS,
+	type FeedInput,
+	type FeedStrategy,
+	type OperatingMode
+} from '$chemistry';
 import { readDecimalText } from '$lib/number-reading';
 
 /** Streams the simulation page edits; the API takes more (the science library's MAX_FEED_STREAMS). */
@@ -36,14 +41,7 @@ export interface FeedNumberField {
 	shows: (stream: FeedStreamValues, mode: OperatingMode) => boolean;
 }
 
-export const STRATEGY_LABELS: Record<FeedStrategy, string> = {
-	constant: 'Constant rate',
-	linear: 'Linear ramp',
-	exponential: 'Exponential (μset)',
-	substrateStat: 'Substrate-stat',
-	doStat: 'DO-stat',
-	expression: 'Expression F(t, X, S, …)'
-};
+export const STRATEGY_LABELS: Record<FeedStrategy, string> = FEED_STRATEGY_LABELS;
 
 const fedWith =
 	(...strategies: FeedStrategy[]) =>
@@ -200,13 +198,4 @@ export function moveFeedStreamErrors(
 		else if (move.to !== null) moved[move.to + path.slice(move.from.length)] = text;
 	}
 	return moved;
-}
-
-/** The request's `feeds.N.field` paths in words a person reads, with streams counted from 1 as on the page. */
-export function nameFeedStreamsIn(text: string): string {
-	return text.replace(
-		/\bfeeds\.(\d+)(?:\.([A-Za-z]+))?/g,
-		(_, index: string, field?: string) =>
-			`${field ? `${field} of ` : ''}feed stream ${Number(index) + 1}`
-	);
 }

@@ -1,3 +1,4 @@
+import { fieldLabel } from '$chemistry';
 import { problemsByPath, zodProblems } from '$lib/field-problems';
 import type { z } from 'zod';
 import { readDecimalText } from '$lib/number-reading';
@@ -66,13 +67,22 @@ export function checkFieldsRequest<S extends z.ZodType>(
 
 const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
-/** The API's messages name a field by its key; on a form they read by its label. */
+/**
+ * The API's messages name a field by its label in the request's words ("Lag time"); on a form they
+ * read by the form's own label ("Lag (h)"), and a key left in a message reads by it too.
+ */
 export function relabelMessage(fields: SimpleField[], message: string): string {
-	return fields.reduce(
-		(text, field) =>
-			text.replace(new RegExp(`(?<![\\w.])${escapeRegExp(field.key)}(?!\\w)`, 'g'), field.label),
-		message
-	);
+	return fields.reduce((text, field) => {
+		const requestLabel = fieldLabel(field.key);
+		const led =
+			requestLabel !== field.key && text.startsWith(`${requestLabel} `)
+				? `${field.label}${text.slice(requestLabel.length)}`
+				: text;
+		return led.replace(
+			new RegExp(`(?<![\\w.])${escapeRegExp(field.key)}(?!\\w)`, 'g'),
+			field.label
+		);
+	}, message);
 }
 
 /** Field errors keyed by field, each message relabelled. */

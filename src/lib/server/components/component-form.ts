@@ -1,4 +1,4 @@
-import { readDecimalText } from '$lib/number-reading';
+import { readDecimalText, storedNumberText } from '$lib/number-reading';
 import { sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { ChemistryInputError, molarMassOf, parseFormula, resolveComponent } from '$chemistry';
@@ -58,11 +58,12 @@ export function componentText(row: Component | undefined): ComponentText {
 		name: row.name,
 		category: row.category,
 		formula: row.formula ?? '',
-		molarMassGPerMol: row.molarMassGPerMol == null ? '' : String(row.molarMassGPerMol),
+		molarMassGPerMol: row.molarMassGPerMol == null ? '' : storedNumberText(row.molarMassGPerMol),
 		casNumber: row.casNumber ?? '',
 		elementalMassFractions: formatFractions(row.elementalMassFractions),
 		ions: formatIons(row.ions),
-		osmoticCoefficient: row.osmoticCoefficient == null ? '' : String(row.osmoticCoefficient),
+		osmoticCoefficient:
+			row.osmoticCoefficient == null ? '' : storedNumberText(row.osmoticCoefficient),
 		solubility: formatSolubility(row.solubility?.points),
 		solubilityBasisFormula: row.solubility?.basisFormula ?? '',
 		ghsHazards: formatHazards(row.ghsHazards),

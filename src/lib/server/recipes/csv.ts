@@ -1,16 +1,17 @@
 import { formatDateTime } from '$lib/date-time';
 import { siteTimeZone } from '../site-time-zone';
 import { eq, sql } from 'drizzle-orm';
-import { VERSION_STATUS_LABELS, type DraftLineInput } from '$lib/recipes';
+import { DRAFT_FIELD_LABELS, VERSION_STATUS_LABELS, type DraftLineInput } from '$lib/recipes';
 import { db } from '../db';
 import { recipe, type Recipe, type RecipeVersion } from '../db/schema';
 import { parseCsv, toCsv, type CsvRowResult } from '../csv';
 import type { Actor } from '../audit';
 import { RuleError } from '../rule-error';
 import { findComponentByIdOrName } from '../components/library';
-import { checkLines, type CheckedLine } from './draft';
-import { appendLines } from './drafts';
-import { toDraftLines } from './editor-data';
+import { checkFields, checkLines, type CheckedFields, type CheckedLine } from './draft';
+import { readVersionFieldComments, versionFieldComments } from './csv-fields';
+import { appendLines, fieldsOf, saveDraft } from './drafts';
+import { toDraftFields, toDraftLines } from './editor-data';
 import { describedLinesOf, linesOf } from './queries';
 
 export const LINE_CSV_COLUMNS = {
@@ -50,22 +51,44 @@ function findRecipeByIdOrName(text: string): Recipe | undefined {
 	);
 }
 
-export interface LineImportPreview {
-	rows: CsvRowResult<Omit<CheckedLine, 'position'>>[];
-	errorCount: number;
+/** Replace: the file's lines and fields become the draft's. Append: its lines go after the draft's. */
+export const LINE_IMPORT_MODES = ['replace', 'append'] as const;
+export type LineImportMode = (typeof LINE_IMPORT_MODES)[number];
+
+export function readImportMode(value: FormDataEntryValue | null): LineImportMode {
+	if (value === 'replace' || value === 'append') return value;
+	throw new RuleError('Choose whether the file replaces the draft’s lines or adds to them.', {
+		field: 'mode'
+	});
 }
 
-/**
- * Checks CSV rows as lines appended to the draft: names resolve to components and stocks, and a
- * component already in the draft (or on an earlier row) is a duplicate. Writes nothing.
- */
-export function previewLineCsv(version: RecipeVersion, text: string): LineImportPreview {
-	const table = parseCsv(text, LINE_CSV_COLUMNS);
-	if (table.rows.length === 0)
-		throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
-	const existing = toDraftLines(linesOf(version.id));
-	const nameErrors = new Map<number, string[]>();
-	const incoming: DraftLineInput[] = table.rows.map(({ values }, i) => {
+export interface FieldChange {
+	label: string;
+	from: string;
+	to: string;
+}
+
+export interface LineImportPreview {
+	mode: LineImportMode;
+	rows: CsvRowResult<Omit<CheckedLine, 'position'>>[];
+	/** rows with problems, plus one when the file's version fields have problems */
+	errorCount: number;
+	/** lines of the draft the import removes (replace) or keeps before the new ones (append) */
+	draftLineCount: number;
+	/** replace: the version fields the file changes; append never changes them */
+	fieldChanges: FieldChange[];
+	/** version fields the file gives, in append mode left as the draft has them */
+	fieldsLeftAlone: string[];
+	fieldProblems: string[];
+}
+
+interface CheckedImport {
+	preview: LineImportPreview;
+	fields: CheckedFields;
+}
+
+function incomingLines(table: ReturnType<typeof parseCsv>, nameErrors: Map<number, string[]>) {
+	return table.rows.map(({ values }, i): DraftLineInput => {
 		const kind = (
 			values.kind || (values.stock && !values.component ? 'stock' : 'component')
 		).toLowerCase();
@@ -102,6 +125,44 @@ export function previewLineCsv(version: RecipeVersion, text: string): LineImport
 			note: values.note ?? ''
 		};
 	});
+}
+
+/** The draft's fields with the file's over them, checked by the editor's own rules. */
+function checkFileFields(version: RecipeVersion, text: string, mode: LineImportMode) {
+	const file = readVersionFieldComments(text);
+	const current = toDraftFields(fieldsOf(version));
+	const given = Object.keys(file.fields) as (keyof typeof file.fields)[];
+	if (mode === 'append')
+		return {
+			fields: fieldsOf(version),
+			changes: [],
+			leftAlone: given.map((f) => DRAFT_FIELD_LABELS[f]),
+			problems: file.problems
+		};
+	const errors: Record<string, string[]> = {};
+	const fields = checkFields({ ...current, ...file.fields }, errors);
+	const problems = [
+		...file.problems,
+		...Object.values(errors).flatMap((messages) => messages.map((m) => `Version fields: ${m}`))
+	];
+	const changes = given
+		.filter((f) => file.fields[f] !== current[f])
+		.map((f) => ({
+			label: DRAFT_FIELD_LABELS[f],
+			from: current[f] || '(empty)',
+			to: file.fields[f] || '(empty)'
+		}));
+	return { fields, changes, leftAlone: [], problems };
+}
+
+function checkImport(version: RecipeVersion, text: string, mode: LineImportMode): CheckedImport {
+	const table = parseCsv(text, LINE_CSV_COLUMNS);
+	if (table.rows.length === 0)
+		throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
+	const draftLines = toDraftLines(linesOf(version.id));
+	const existing = mode === 'append' ? draftLines : [];
+	const nameErrors = new Map<number, string[]>();
+	const incoming = incomingLines(table, nameErrors);
 	const errors: Record<string, string[]> = {};
 	const checked = checkLines([...existing, ...incoming], version.recipeId, errors);
 	const byPosition = new Map(checked.map((c) => [c.position, c]));
@@ -124,28 +185,63 @@ export function previewLineCsv(version: RecipeVersion, text: string): LineImport
 			value: line && !rowErrors.length ? (({ position: _p, ...rest }) => rest)(line) : undefined
 		};
 	});
-	return { rows, errorCount: rows.filter((r) => r.errors.length).length };
+	const fileFields = checkFileFields(version, text, mode);
+	const rowErrorCount = rows.filter((r) => r.errors.length).length;
+	return {
+		fields: fileFields.fields,
+		preview: {
+			mode,
+			rows,
+			errorCount: rowErrorCount + (fileFields.problems.length ? 1 : 0),
+			draftLineCount: draftLines.length,
+			fieldChanges: fileFields.changes,
+			fieldsLeftAlone: fileFields.leftAlone,
+			fieldProblems: fileFields.problems
+		}
+	};
 }
 
-/** All rows or none. Returns how many lines were added. */
-export function importLineCsv(actor: Actor, version: RecipeVersion, text: string): number {
+/**
+ * Checks CSV rows as the draft's new lines (replace) or as lines after the draft's (append): names
+ * resolve to components and stocks, and a component twice is a duplicate. Writes nothing.
+ */
+export function previewLineCsv(
+	version: RecipeVersion,
+	text: string,
+	mode: LineImportMode
+): LineImportPreview {
+	return checkImport(version, text, mode).preview;
+}
+
+/** All rows or none. Returns how many lines were imported. */
+export function importLineCsv(
+	actor: Actor,
+	version: RecipeVersion,
+	text: string,
+	mode: LineImportMode
+): number {
 	if (version.status !== 'draft')
 		throw new RuleError(
 			`Version ${version.n} is not a draft; lines can only be imported into a draft.`,
 			{ status: 409 }
 		);
-	const preview = previewLineCsv(version, text);
+	const { preview, fields } = checkImport(version, text, mode);
 	if (preview.errorCount) {
 		throw new RuleError(
 			`${preview.errorCount} row${preview.errorCount === 1 ? ' has' : 's have'} problems; nothing was imported. Fix them and preview again.`,
 			{ field: 'csv' }
 		);
 	}
-	appendLines(
-		actor,
-		version.id,
-		preview.rows.map((r) => r.value!)
-	);
+	const lines = preview.rows.map((r) => r.value!);
+	if (mode === 'append') appendLines(actor, version.id, lines);
+	else
+		saveDraft(
+			actor,
+			version.id,
+			version.revision,
+			{ fields, lines: lines.map((l, i) => ({ ...l, position: i + 1 })) },
+			'csv'
+		);
 	return preview.rows.length;
 }
 
@@ -165,7 +261,8 @@ export function exportVersionCsv(recipeRow: Recipe, version: RecipeVersion): str
 		[...LINE_CSV_COLUMNS.allowed],
 		[
 			`Brothwright recipe: ${recipeRow.name}, version ${version.n} (${VERSION_STATUS_LABELS[version.status]})`,
-			`Lines in order of addition; amounts are concentrations in the finished medium, stocks in mL per L. Exported ${formatDateTime(new Date(), siteTimeZone())}`
+			`Lines in order of addition; amounts are concentrations in the finished medium, stocks in mL per L. Exported ${formatDateTime(new Date(), siteTimeZone())}`,
+			...versionFieldComments(fieldsOf(version))
 		]
 	);
 }

@@ -209,7 +209,9 @@ export function saveDraft(
 	actor: Actor,
 	versionId: string,
 	revision: number,
-	draft: { fields: CheckedFields; lines: CheckedLine[] }
+	draft: { fields: CheckedFields; lines: CheckedLine[] },
+	/** set when the lines and fields came from a CSV file rather than the editor */
+	from: 'editor' | 'csv' = 'editor'
 ): number {
 	return db.transaction((tx) => {
 		const version = requireDraft(findVersionById(versionId, tx));
@@ -253,7 +255,8 @@ export function saveDraft(
 					lines: draft.lines.length,
 					changes,
 					lineChanges,
-					revision: revision + 1
+					revision: revision + 1,
+					...(from === 'csv' ? { from } : {})
 				}
 			},
 			tx

@@ -1,6 +1,7 @@
 import {
 	ATOMIC_WEIGHTS,
 	balanceCarbonYield,
+	computeMaximumBiomassYield,
 	computeSoleSourceYield,
 	type SubstrateYieldEntry,
 	type YieldFields
@@ -29,7 +30,10 @@ function formulaOf(componentId: string, field: string): string {
 
 /** Yx/s as stored: typed in, or worked out on save with the carbon source's formula from the library. */
 export function resolveCarbonYield(f: YieldFields): number | null {
-	if (f.yieldXSMethod === 'entered') return f.yieldXSGPerG;
+	if (f.yieldXSMethod === 'entered') {
+		checkYieldWithinBalance(f);
+		return f.yieldXSGPerG;
+	}
 	if (!f.carbonSourceId)
 		throw new RuleError(
 			'Choose the carbon source: its formula is needed for the element balance.',
@@ -37,6 +41,30 @@ export function resolveCarbonYield(f: YieldFields): number | null {
 		);
 	const formula = formulaOf(f.carbonSourceId, 'carbonSourceId');
 	return withRuleErrors(() => balanceCarbonYield(f, formula)).yieldGPerG;
+}
+
+/**
+ * A typed Yx/s above what the element balances allow on the carbon source is refused with the
+ * bound and its reason (usually a unit slip: g/g against mol/mol or C-mol/C-mol).
+ */
+function checkYieldWithinBalance(f: YieldFields): void {
+	if (f.yieldXSGPerG === null || !f.carbonSourceId || !f.biomassFormula) return;
+	const component = findComponent(f.carbonSourceId);
+	if (!component?.formula) return;
+	const bound = withRuleErrors(
+		() =>
+			computeMaximumBiomassYield({
+				substrateFormula: component.formula!,
+				biomassFormula: f.biomassFormula!,
+				ashFraction: f.ashFraction ?? 0
+			}),
+		{ field: 'yieldXSGPerG' }
+	);
+	if (bound && f.yieldXSGPerG > bound.maxGPerG * (1 + 1e-9))
+		throw new RuleError(
+			`Yx/s ${f.yieldXSGPerG} g/g is more than the element balances allow on ${component.name}: at most ${bound.maxGPerG.toPrecision(3)} g/g, because ${bound.reason}. Check the units: g dry biomass per g ${component.name}.`,
+			{ field: 'yieldXSGPerG' }
+		);
 }
 
 /** "l-glutamine 0.9" (entered, g/g) or "ammonium-sulfate from N" (sole source of N), one per line. */

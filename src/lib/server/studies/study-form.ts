@@ -107,7 +107,9 @@ const studyFieldsShape = {
 	notes: optionalText()
 };
 
-export const studySchema = z.object({ ...studyFieldsShape, ...feedSlots });
+export const studySchema = z
+	.object({ ...studyFieldsShape, ...feedSlots })
+	.superRefine((form, ctx) => checkFeedSlots(form, ctx), { when: () => true });
 
 const STUDY_FIELD_KEYS = Object.keys(studyFieldsShape) as (keyof typeof studyFieldsShape)[];
 
@@ -172,55 +174,92 @@ const PLAN_NEEDS: Record<
 	]
 };
 
+type SlotProblem = { field: string; message: string };
+type SlotRead = { plan: (StudyFeedPlan & { slot: number }) | null; problems: SlotProblem[] };
+/** A slot value that failed its own field check: that field's message already says so. */
+const REFUSED = Symbol('refused');
+
+function slotValue(form: Record<string, unknown>, name: string): unknown {
+	const v = form[name];
+	if (v === undefined || v === null || v === '') return null;
+	return v;
+}
+
+/** One feed slot: its plan, or every problem of it at once (none for an empty slot). */
+function readFeedSlot(form: Record<string, unknown>, slot: number): SlotRead {
+	const field = (name: SlotField) => `feed${slot}${name}`;
+	const text = (name: SlotField) => {
+		const v = slotValue(form, field(name));
+		return typeof v === 'string' ? v : null;
+	};
+	const number = (name: SlotField): number | null | typeof REFUSED => {
+		const v = slotValue(form, field(name));
+		return v === null ? null : typeof v === 'number' ? v : REFUSED;
+	};
+	const versionId = text('VersionId');
+	const volumeL = number('VolumeL');
+	if (!versionId && volumeL === null) return { plan: null, problems: [] };
+	const problems: SlotProblem[] = [];
+	const problem = (name: SlotField, message: string) =>
+		problems.push({ field: field(name), message });
+	if (!versionId)
+		problem('VersionId', 'Choose the feed recipe version for this volume, or clear the volume.');
+	const strategyText = text('Strategy');
+	const strategy = FEED_PLAN_STRATEGIES.find((s) => s === strategyText) ?? null;
+	if (!strategy && !strategyText) problem('Strategy', `Choose how feed ${slot} is fed.`);
+	if (volumeL === null) {
+		const what =
+			strategy && isControlledPlan(strategy)
+				? 'the volume of feed available for the run'
+				: 'the planned volume of this feed over the run';
+		problem('VolumeL', `Enter ${what}.`);
+	}
+	const startH = number('StartH');
+	const durationH = typeof form.durationH === 'number' ? form.durationH : null;
+	if (startH === null) problem('StartH', `Enter when feed ${slot} starts, h after inoculation.`);
+	else if (startH !== REFUSED && durationH !== null && startH >= durationH)
+		problem('StartH', `Feed ${slot} must start before the end of the run at ${durationH} h.`);
+	const plan: StudyFeedPlan & { slot: number } = {
+		slot,
+		versionId: versionId ?? '',
+		volumeL: typeof volumeL === 'number' ? volumeL : 0,
+		strategy: strategy ?? 'constant',
+		startH: typeof startH === 'number' ? startH : 0,
+		muSetPerH: null,
+		setpointGPerL: null,
+		doSetpointPercent: null,
+		maxRateLPerH: null
+	};
+	for (const need of strategy ? PLAN_NEEDS[strategy] : []) {
+		const v = number(need.field);
+		if (v === null) problem(need.field, need.message);
+		else if (v !== REFUSED) (plan as unknown as Record<string, number>)[need.key] = v;
+	}
+	const refused = [volumeL, startH].includes(REFUSED) || !strategy;
+	return { plan: problems.length || refused ? null : plan, problems };
+}
+
+/**
+ * The feed slots' rules, run beside the fields' own checks so one save lists every problem: a
+ * slot's missing plan values are reported even while another field is refused.
+ */
+export function checkFeedSlots(form: Record<string, unknown>, ctx: z.RefinementCtx): void {
+	for (let slot = 1; slot <= FEED_SLOTS; slot++)
+		for (const { field, message } of readFeedSlot(form, slot).problems)
+			ctx.addIssue({ code: 'custom', path: [field], message });
+}
+
 /** The filled feed slots of the form, each with the fields its plan needs. */
 export function feedsOfForm(form: StudyForm): (StudyFeedPlan & { slot: number })[] {
 	const feeds: (StudyFeedPlan & { slot: number })[] = [];
+	const fieldErrors: Record<string, string[]> = {};
 	for (let slot = 1; slot <= FEED_SLOTS; slot++) {
-		const value = (field: SlotField) => form[`feed${slot}${field}`] ?? null;
-		const versionId = value('VersionId') as string | null;
-		const volumeL = value('VolumeL') as number | null;
-		if (!versionId && volumeL === null) continue;
-		const field = (name: SlotField) => `feed${slot}${name}`;
-		if (!versionId)
-			throw new RuleError('Choose the feed recipe version for this volume, or clear the volume.', {
-				field: field('VersionId')
-			});
-		const strategy = (value('Strategy') as FeedPlanStrategy | null) ?? null;
-		if (!strategy)
-			throw new RuleError(`Choose how feed ${slot} is fed.`, { field: field('Strategy') });
-		if (volumeL === null) {
-			const what = isControlledPlan(strategy)
-				? 'the volume of feed available for the run'
-				: 'the planned volume of this feed over the run';
-			throw new RuleError(`Enter ${what}.`, { field: field('VolumeL') });
-		}
-		const startH = value('StartH') as number | null;
-		if (startH === null)
-			throw new RuleError(`Enter when feed ${slot} starts, h after inoculation.`, {
-				field: field('StartH')
-			});
-		if (startH >= form.durationH)
-			throw new RuleError(
-				`Feed ${slot} must start before the end of the run at ${form.durationH} h.`,
-				{ field: field('StartH') }
-			);
-		const plan: StudyFeedPlan & { slot: number } = {
-			slot,
-			versionId,
-			volumeL,
-			strategy,
-			startH,
-			muSetPerH: null,
-			setpointGPerL: null,
-			doSetpointPercent: null,
-			maxRateLPerH: null
-		};
-		for (const need of PLAN_NEEDS[strategy]) {
-			const v = value(need.field) as number | null;
-			if (v === null) throw new RuleError(need.message, { field: field(need.field) });
-			(plan as unknown as Record<string, number>)[need.key] = v;
-		}
-		feeds.push(plan);
+		const { plan, problems } = readFeedSlot(form, slot);
+		for (const { field, message } of problems) (fieldErrors[field] ??= []).push(message);
+		if (plan) feeds.push(plan);
 	}
+	const fields = Object.keys(fieldErrors);
+	if (fields.length)
+		throw new RuleError(fieldErrors[fields[0]][0], { field: fields[0], fieldErrors });
 	return feeds;
 }

@@ -90,7 +90,8 @@ const SENTENCES: Record<string, Sentence> = {
 	'person.reactivated': (_, s) => `Reactivated the account of ${s}`,
 	'recipe.created': (d, s) => `Created recipe ${text(d.name) || s}`,
 	'recipe.draft_started': (d, s) => `Started draft ${s} from version ${text(d.basedOn)}`,
-	'recipe.draft_saved': (_, s) => `Saved draft ${s}`,
+	'recipe.draft_saved': (d, s) =>
+		d.from === 'csv' ? `Replaced the lines of ${s} from a CSV file` : `Saved draft ${s}`,
 	'recipe.lines_imported': (d, s) => `Imported ${plural(d.lines, 'line')} into ${s}`,
 	'recipe.submitted': (_, s) => `Submitted ${s} for review`,
 	'recipe.reviewed': (_, s) => `Signed ${s} as reviewed`,

@@ -1,7 +1,8 @@
 import { error } from '@sveltejs/kit';
+import { countOf } from '$lib/plural';
 import { versionNumber } from '$lib/server/recipes/access';
 import { confirmStep, previewStep } from '$lib/server/csv-actions';
-import { importLineCsv, previewLineCsv } from '$lib/server/recipes/csv';
+import { importLineCsv, previewLineCsv, readImportMode } from '$lib/server/recipes/csv';
 import { findRecipe, findVersion } from '$lib/server/recipes/queries';
 import type { Actions, PageServerLoad } from './$types';
 import { requireActor, requirePermission } from '$lib/server/guard';
@@ -23,15 +24,23 @@ export const actions: Actions = {
 	preview: async ({ request, params }) => {
 		requirePermission('recipe.edit');
 		const { version } = draftOf(params);
-		return previewStep(await request.formData(), (text) => previewLineCsv(version, text));
+		const formData = await request.formData();
+		return previewStep(formData, (text) =>
+			previewLineCsv(version, text, readImportMode(formData.get('mode')))
+		);
 	},
 	confirm: async ({ request, params }) => {
 		const actor = requireActor('recipe.edit');
 		const { version } = draftOf(params);
+		const formData = await request.formData();
+		const mode = formData.get('mode');
 		return confirmStep(
-			await request.formData(),
-			(text) => importLineCsv(actor, version, text),
-			(count) => `${count} line${count === 1 ? '' : 's'} added to version ${version.n}.`
+			formData,
+			(text) => importLineCsv(actor, version, text, readImportMode(mode)),
+			(count) =>
+				mode === 'replace'
+					? `Version ${version.n} now has the file’s ${countOf(count, 'line')} and its fields.`
+					: `${countOf(count, 'line')} added to version ${version.n}.`
 		);
 	}
 };
