@@ -1,4 +1,5 @@
 import { DRAFT_FIELD_LABELS } from '$lib/recipes';
+import type { RecipeAnalysis } from './analysis';
 import type { CheckedFields } from './draft';
 
 export interface ComparableLine {
@@ -42,6 +43,14 @@ function shown(value: unknown): string {
 	return value === null || value === undefined || value === '' ? '—' : String(value);
 }
 
+/** Each line's place among the lines the other version also has. */
+function rankOfShared(lines: ComparableLine[], other: Map<string, ComparableLine>) {
+	const shared = [...lines]
+		.sort((x, y) => x.position - y.position)
+		.filter((l) => other.has(keyOf(l)));
+	return new Map(shared.map((l, rank) => [keyOf(l), rank]));
+}
+
 /** Line by line, matched on what the line adds (component or stock), then the fields that differ. */
 export function compareVersions(
 	a: { fields: CheckedFields; lines: ComparableLine[] },
@@ -58,6 +67,10 @@ export function compareVersions(
 
 	const before = new Map(a.lines.map((l) => [keyOf(l), l]));
 	const after = new Map(b.lines.map((l) => [keyOf(l), l]));
+	// Order is compared among the lines both versions have: removing line 2 moves every later line
+	// up a number, but adds them in the same order as before.
+	const rankBefore = rankOfShared(a.lines, after);
+	const rankAfter = rankOfShared(b.lines, before);
 	const lines: LineChange[] = [];
 	for (const line of b.lines) {
 		const key = keyOf(line);
@@ -78,7 +91,7 @@ export function compareVersions(
 			changes.push(`amount ${old.amount} ${old.unit} → ${line.amount} ${line.unit}`);
 		if (old.shelfFormId !== line.shelfFormId)
 			changes.push(`form weighed ${shown(old.shelfFormName)} → ${shown(line.shelfFormName)}`);
-		if (old.position !== line.position)
+		if (rankBefore.get(key) !== rankAfter.get(key))
 			changes.push(`order of addition ${old.position} → ${line.position}`);
 		if (old.tolerancePercent !== line.tolerancePercent)
 			changes.push(`tolerance ${old.tolerancePercent} % → ${line.tolerancePercent} %`);
@@ -105,4 +118,69 @@ export function compareVersions(
 			});
 	}
 	return { fields, lines };
+}
+
+export interface CompositionChange {
+	label: string;
+	unit: string;
+	before: number | null;
+	after: number | null;
+}
+
+/** Differences smaller than this share of the larger value are rounding, not a change. */
+const SAME_WITHIN = 1e-6;
+
+type ComparedAnalysis = Pick<
+	RecipeAnalysis,
+	| 'osmolality'
+	| 'totalCarbonGPerL'
+	| 'totalNitrogenGPerL'
+	| 'ionicStrengthMolPerL'
+	| 'dissolvedSolidsGPerL'
+	| 'elements'
+>;
+
+/** What the line changes do to the finished medium: osmolality, C and N, solids, each element. */
+export function compareCompositions(a: ComparedAnalysis, b: ComparedAnalysis): CompositionChange[] {
+	const rows: CompositionChange[] = [
+		{
+			label: 'Osmolality, estimated',
+			unit: 'mOsm/kg',
+			before: a.osmolality.estimateMOsmPerKg,
+			after: b.osmolality.estimateMOsmPerKg
+		},
+		{ label: 'Total carbon', unit: 'g/L', before: a.totalCarbonGPerL, after: b.totalCarbonGPerL },
+		{
+			label: 'Total nitrogen',
+			unit: 'g/L',
+			before: a.totalNitrogenGPerL,
+			after: b.totalNitrogenGPerL
+		},
+		{
+			label: 'Dissolved solids',
+			unit: 'g/L',
+			before: a.dissolvedSolidsGPerL,
+			after: b.dissolvedSolidsGPerL
+		},
+		{
+			label: 'Ionic strength',
+			unit: 'mol/L',
+			before: a.ionicStrengthMolPerL,
+			after: b.ionicStrengthMolPerL
+		}
+	];
+	const symbols = [...new Set([...a.elements, ...b.elements].map((e) => e.symbol))];
+	const gPerL = (list: ComparedAnalysis['elements'], symbol: string) =>
+		list.find((e) => e.symbol === symbol)?.gPerL ?? 0;
+	for (const symbol of symbols)
+		rows.push({
+			label: symbol,
+			unit: 'g/L',
+			before: gPerL(a.elements, symbol),
+			after: gPerL(b.elements, symbol)
+		});
+	return rows.filter(({ before, after }) => {
+		if (before === null || after === null) return before !== after;
+		return Math.abs(after - before) > SAME_WITHIN * Math.max(Math.abs(before), Math.abs(after));
+	});
 }

@@ -1,6 +1,7 @@
 import { error } from '@sveltejs/kit';
 import { requirePermission } from '$lib/server/guard';
-import { compareVersions } from '$lib/server/recipes/compare';
+import { analyseVersion } from '$lib/server/recipes/analysis';
+import { compareCompositions, compareVersions } from '$lib/server/recipes/compare';
 import { fieldsOf } from '$lib/server/recipes/drafts';
 import { describedLinesOf, findRecipe, findVersion, versionsOf } from '$lib/server/recipes/queries';
 import type { PageServerLoad } from './$types';
@@ -26,8 +27,10 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		{ fields: fieldsOf(a), lines: describedLinesOf(a.id) },
 		{ fields: fieldsOf(b), lines: describedLinesOf(b.id) }
 	);
+	const composition = compareCompositions(analyseVersion(a), analyseVersion(b));
 	return {
 		recipe,
+		composition,
 		a: { n: a.n, status: a.status },
 		b: { n: b.n, status: b.status },
 		numbers: versions.map((v) => v.n),
