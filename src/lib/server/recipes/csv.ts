@@ -8,6 +8,7 @@ import { parseCsv, toCsv, type CsvRowResult } from '../csv';
 import type { Actor } from '../audit';
 import { RuleError } from '../rule-error';
 import { findComponentByIdOrName } from '../components/library';
+import { noComponentRefusals } from '../components/component-suggestions';
 import { checkLines, type CheckedLine } from './draft';
 import { appendLines } from './drafts';
 import { toDraftLines } from './editor-data';
@@ -65,6 +66,7 @@ export function previewLineCsv(version: RecipeVersion, text: string): LineImport
 		throw new RuleError('The CSV has a header but no rows.', { field: 'csv' });
 	const existing = toDraftLines(linesOf(version.id));
 	const nameErrors = new Map<number, string[]>();
+	const refuseUnknown = noComponentRefusals();
 	const incoming: DraftLineInput[] = table.rows.map(({ values }, i) => {
 		const kind = (
 			values.kind || (values.stock && !values.component ? 'stock' : 'component')
@@ -80,13 +82,11 @@ export function previewLineCsv(version: RecipeVersion, text: string): LineImport
 		} else {
 			const found = findComponentByIdOrName(values.component);
 			if (!values.component) problems.push('component: give the component’s name or id.');
-			else if (!found)
-				problems.push(`component: no component “${values.component}” in the library.`);
+			else if (!found) problems.push(`component: ${refuseUnknown(values.component)}`);
 			else componentId = found.id;
 			if (values.shelf_form) {
 				const shelf = findComponentByIdOrName(values.shelf_form);
-				if (!shelf)
-					problems.push(`shelf_form: no component “${values.shelf_form}” in the library.`);
+				if (!shelf) problems.push(`shelf_form: ${refuseUnknown(values.shelf_form)}`);
 				else shelfFormId = shelf.id;
 			}
 		}
