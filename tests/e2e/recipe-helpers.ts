@@ -1,7 +1,7 @@
 import type { Page } from '@playwright/test';
 import { expect } from './fixtures';
 
-/** Adds a component line to the open editor and types its name, amount and unit. */
+/** Adds a component line to the open editor, picks the component by its name, types amount and unit. */
 export async function addComponent(
 	page: Page,
 	n: number,
@@ -10,7 +10,15 @@ export async function addComponent(
 	unit: string
 ) {
 	await page.getByRole('button', { name: 'Add component' }).click();
-	await page.getByLabel(`Line ${n}: component`).fill(name);
+	const box = page.getByLabel(`Line ${n}: component`);
+	await box.fill(name);
+	await page
+		.getByRole('listbox', { name: `Components matching “${name}”` })
+		.getByRole('option')
+		.filter({ has: page.getByText(name, { exact: true }) })
+		.click();
+	await expect(box).toHaveValue(name);
+	await expect(box).toHaveAttribute('aria-expanded', 'false');
 	await page.getByLabel(`Line ${n}: amount`).fill(amount);
 	await page.getByLabel(`Line ${n}: unit`).fill(unit);
 }

@@ -1,3 +1,4 @@
+import type { SearchableComponent } from '$lib/component-search';
 import type { DraftLineInput } from '$lib/recipes';
 
 export interface EditorLine extends DraftLineInput {
@@ -6,10 +7,12 @@ export interface EditorLine extends DraftLineInput {
 	componentText: string;
 }
 
-export interface PickerComponent {
-	id: string;
-	name: string;
-	formula: string | null;
+/** A library component as the editor's picker lists it. */
+export interface PickerComponent extends SearchableComponent {
+	/** Category label: Salt, Sugar, Complex material … */
+	category: string;
+	/** Hydrate, anhydrous, solution …, or null when nothing sets it apart (form-label.ts). */
+	form: string | null;
 	basisComponentId: string | null;
 }
 

@@ -8,6 +8,7 @@ import { parseCsv, toCsv, type CsvRowResult } from '../csv';
 import type { Actor } from '../audit';
 import { RuleError } from '../rule-error';
 import { findComponentByIdOrName } from '../components/library';
+import { noComponentRefusals } from '../components/component-suggestions';
 import { checkFields, checkLines, type CheckedFields, type CheckedLine } from './draft';
 import { readVersionFieldComments, versionFieldComments } from './csv-fields';
 import { appendLines, fieldsOf, saveDraft } from './drafts';
@@ -88,6 +89,7 @@ interface CheckedImport {
 }
 
 function incomingLines(table: ReturnType<typeof parseCsv>, nameErrors: Map<number, string[]>) {
+	const refuseUnknown = noComponentRefusals();
 	return table.rows.map(({ values }, i): DraftLineInput => {
 		const kind = (
 			values.kind || (values.stock && !values.component ? 'stock' : 'component')
@@ -103,13 +105,11 @@ function incomingLines(table: ReturnType<typeof parseCsv>, nameErrors: Map<numbe
 		} else {
 			const found = findComponentByIdOrName(values.component);
 			if (!values.component) problems.push('component: give the component’s name or id.');
-			else if (!found)
-				problems.push(`component: no component “${values.component}” in the library.`);
+			else if (!found) problems.push(`component: ${refuseUnknown(values.component)}`);
 			else componentId = found.id;
 			if (values.shelf_form) {
 				const shelf = findComponentByIdOrName(values.shelf_form);
-				if (!shelf)
-					problems.push(`shelf_form: no component “${values.shelf_form}” in the library.`);
+				if (!shelf) problems.push(`shelf_form: ${refuseUnknown(values.shelf_form)}`);
 				else shelfFormId = shelf.id;
 			}
 		}

@@ -17,6 +17,7 @@ import { db, type Db } from '../db';
 import { recipe, type Component } from '../db/schema';
 import type { FieldErrors } from '../forms';
 import { findComponentsByIds, molarMassOfComponent } from '../components/library';
+import { noComponentRefusals } from '../components/component-suggestions';
 
 export { MAX_LINES };
 
@@ -127,13 +128,17 @@ function lookUpComponent(
 	line: DraftLineInput,
 	i: number,
 	at: LineProblem,
-	context: { components: Map<string, Component>; firstComponentLine: Map<string, number> }
+	context: {
+		components: Map<string, Component>;
+		firstComponentLine: Map<string, number>;
+		refuseUnknown: (text: string) => string;
+	}
 ): void {
-	const { components, firstComponentLine } = context;
+	const { components, firstComponentLine, refuseUnknown } = context;
 	if (!line.componentId) return;
 	const component = components.get(line.componentId);
 	if (!component) {
-		at('componentId', `no component “${line.componentId}” in the library.`);
+		at('componentId', refuseUnknown(line.componentId));
 		return;
 	}
 	if (firstComponentLine.has(component.id)) {
@@ -192,6 +197,7 @@ export function checkLines(
 	);
 	const firstComponentLine = new Map<string, number>();
 	const firstStockLine = new Map<string, number>();
+	const refuseUnknown = noComponentRefusals(reader);
 	const checked: CheckedLine[] = [];
 	lines.forEach((line, i) => {
 		let lookedUp = true;
@@ -201,7 +207,7 @@ export function checkLines(
 		};
 		if (line.kind === 'stock') lookUpStock(line, i, at, { recipeId, firstStockLine, reader });
 		else if ((line.kind as LineKind) === 'component')
-			lookUpComponent(line, i, at, { components, firstComponentLine });
+			lookUpComponent(line, i, at, { components, firstComponentLine, refuseUnknown });
 		const value = read[i];
 		if (value && lookedUp) checked.push({ position: i + 1, ...value });
 	});

@@ -1,4 +1,12 @@
-import type { DraftFieldsInput, DraftLineInput } from '$lib/recipes';
+import type { PickerComponent } from '$lib/components/recipes/editor-line';
+import {
+	COMPONENT_CATEGORY_LABELS,
+	type ComponentCategoryName,
+	type DraftFieldsInput,
+	type DraftLineInput
+} from '$lib/recipes';
+import { formLabelsOf } from '../components/form-label';
+import type { Component } from '../db/schema';
 import type { CheckedFields, CheckedLine } from './draft';
 
 const text = (value: number | string | null | undefined) =>
@@ -29,5 +37,20 @@ export function toDraftLines(lines: Omit<CheckedLine, 'position'>[]): DraftLineI
 		unit: l.unit,
 		tolerancePercent: text(l.tolerancePercent),
 		note: l.note
+	}));
+}
+
+/** The library as the component picker searches and shows it. */
+export function toPickerComponents(components: Component[]): PickerComponent[] {
+	const forms = formLabelsOf(components);
+	return components.map((c) => ({
+		id: c.id,
+		name: c.name,
+		formula: c.formula,
+		casNumber: c.casNumber,
+		synonyms: c.synonyms,
+		category: COMPONENT_CATEGORY_LABELS[c.category as ComponentCategoryName] ?? c.category,
+		form: forms.get(c.id) ?? null,
+		basisComponentId: c.basisComponentId
 	}));
 }

@@ -6,7 +6,7 @@ import { analyseLines } from '$lib/server/recipes/analysis';
 import { checkDraft, readDraftForm } from '$lib/server/recipes/draft';
 import { fieldsOf, saveDraft, StaleEditError } from '$lib/server/recipes/drafts';
 import { findRecipe, findVersion, linesOf, listStockRecipes } from '$lib/server/recipes/queries';
-import { toDraftFields, toDraftLines } from '$lib/server/recipes/editor-data';
+import { toDraftFields, toDraftLines, toPickerComponents } from '$lib/server/recipes/editor-data';
 import { z } from 'zod';
 import { revisionField } from '$lib/server/forms';
 import { libraryChangesFor } from '$lib/server/recipes/snapshot';
@@ -30,12 +30,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		version: { id: version.id, n: version.n, revision: version.revision },
 		fields: toDraftFields(fieldsOf(version)),
 		lines: toDraftLines(linesOf(version.id)),
-		components: listComponents().map((c) => ({
-			id: c.id,
-			name: c.name,
-			formula: c.formula,
-			basisComponentId: c.basisComponentId
-		})),
+		components: toPickerComponents(listComponents()),
 		stocks: listStockRecipes().filter((s) => s.id !== recipe.id),
 		libraryChanges: libraryChangesFor(version)
 	};
