@@ -43,7 +43,8 @@ describe('a component the library does not have', () => {
 		const recipeId = createRecipe(author, { name: `Suggestions ${Date.now()}`, kind: 'basal' });
 		const preview = previewLineCsv(
 			findVersion(recipeId, 1)!,
-			'component,amount,unit\nGlucose monohydrat,1,g/L\n'
+			'component,amount,unit\nGlucose monohydrat,1,g/L\n',
+			'replace'
 		);
 		expect(preview.rows[0].errors).toEqual([
 			expect.stringMatching(
