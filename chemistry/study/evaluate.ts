@@ -2,6 +2,7 @@ import { AIR_O2_MOLE_FRACTION } from '../data/oxygen-solubility';
 import { ChemistryInputError } from '../errors';
 import { computeOxygenSaturation } from '../oxygen';
 import { G_PER_L_PER_CELL_PER_ML_PER_PG } from '../sufficiency/read';
+import { studyCautions } from './cautions';
 import { StudyDataError, asStudyDataError } from './errors';
 import { requireGrowthData, resolveOxygenYield } from './profile';
 import { hours, type OperatingPoint, type ReportLog, type StudyRun } from './report-context';
@@ -26,13 +27,6 @@ export const MAX_BIOMASS_G_PER_L = 200;
 export const STUDY_TEMPERATURE_RANGE_C = [0, 40] as const;
 /** A run reaching this fraction of the target counts as reaching it (the course is sampled, not continuous). */
 const REACHES_TARGET_FRACTION = 0.98;
-
-export const STUDY_CAUTIONS = [
-	'Oxygen-enriched gas raises the risk of fire: keep ignition sources and oils away, and use only equipment rated for the O2 fraction.',
-	"Stay within the vessel's pressure rating; do not raise headspace pressure beyond it to gain oxygen transfer.",
-	'These results are estimates from models and typical values, not measurements.',
-	"The site's procedures and qualified engineers decide whether and how a run goes ahead."
-];
 
 /** A what-if value out of range: the request's fault (the app answers 400 at the field). */
 function whatIfError(message: string, field: string): never {
@@ -332,6 +326,6 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 		timeCourse,
 		defaults: log.defaults,
 		notes: log.notes,
-		cautions: STUDY_CAUTIONS
+		cautions: studyCautions(point.o2MoleFraction)
 	};
 }

@@ -1,10 +1,15 @@
 // Sufficiency studies: a study's loaded data and what-if in, its report out. No database here.
 export * from './vocabulary';
 export * from './types';
+export {
+	OXYGEN_ENRICHMENT_CAUTION,
+	STUDY_CAUTIONS,
+	isOxygenEnriched,
+	studyCautions
+} from './cautions';
 export { StudyDataError, asStudyDataError } from './errors';
 export {
 	MAX_BIOMASS_G_PER_L,
-	STUDY_CAUTIONS,
 	STUDY_TEMPERATURE_RANGE_C,
 	convertCellsPerMlToGPerL,
 	convertTargetToBiomass,

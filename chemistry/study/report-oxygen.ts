@@ -1,4 +1,5 @@
 import { AIR_O2_MOLE_FRACTION } from '../data/oxygen-solubility';
+import { AIR_FRACTION_TOLERANCE, isOxygenEnriched } from './cautions';
 import { DEFAULT_HEAT_PER_MOL_O2_KJ, DEFAULT_HEAT_PER_MOL_O2_SOURCE, assessCooling } from '../heat';
 import {
 	assessOxygenTransfer,
@@ -10,9 +11,6 @@ import { findPeakOxygenLoad, roundUpToSignificant } from '../oxygen-load';
 import { asStudyDataError } from './errors';
 import { hours, type OperatingPoint, type ReportLog, type StudyRun } from './report-context';
 import type { StudyInputs, StudyReport } from './types';
-
-/** Mole fractions closer than this to air's are air. */
-const AIR_FRACTION_TOLERANCE = 1e-4;
 
 /** The O2 load the vessel must carry: the peak OUR and, for the heat, the peak of the whole culture's uptake OUR·V. */
 export interface OxygenLoad {
@@ -198,8 +196,7 @@ function reportOxygenOperation(
 			);
 		}
 	}
-	const enriched = o2MoleFraction > AIR_O2_MOLE_FRACTION + AIR_FRACTION_TOLERANCE;
-	if (enriched && !vessel.o2EnrichmentAllowed) {
+	if (isOxygenEnriched(o2MoleFraction) && !vessel.o2EnrichmentAllowed) {
 		ok = false;
 		log.reasons.push(
 			`The plan sparges ${(o2MoleFraction * 100).toFixed(0)} % O2, but the vessel “${vessel.name}” does not allow O2 enrichment.`

@@ -1,26 +1,7 @@
 import { readFile } from 'node:fs/promises';
-import { inflateSync } from 'node:zlib';
 import { PDFDocument } from 'pdf-lib';
 import { pageAs, test, expect } from './fixtures';
-
-/** The text pdf-lib drew: its content streams are deflated and its strings hex-encoded. */
-function extractPdfText(bytes: Buffer): string {
-	const raw = bytes.toString('latin1');
-	const texts: string[] = [];
-	for (const match of raw.matchAll(/stream\r?\n/g)) {
-		const start = match.index + match[0].length;
-		const end = raw.indexOf('endstream', start);
-		let content: string;
-		try {
-			content = inflateSync(bytes.subarray(start, end)).toString('latin1');
-		} catch {
-			content = raw.slice(start, end);
-		}
-		for (const hex of content.matchAll(/<([0-9A-Fa-f]*)>\s*Tj/g))
-			texts.push(Buffer.from(hex[1], 'hex').toString('latin1'));
-	}
-	return texts.join(' ');
-}
+import { pdfPageTexts } from './pdf-pages';
 
 test.describe('an engineer runs a study', () => {
 	test.use({ role: 'engineer' });
@@ -83,7 +64,9 @@ test.describe('an engineer runs a study', () => {
 		await expect(page.getByText('Oxygen-enriched gas raises the risk of fire.')).toBeVisible();
 	});
 
-	test('downloads the report as a PDF with the verdict and the cautions', async ({ page }) => {
+	test('downloads the report as a PDF with the verdict and the cautions', async ({
+		page
+	}, testInfo) => {
 		await page.goto('/studies');
 		await page.getByRole('link', { name: 'Yeast glycerol fed-batch, bench (demo)' }).click();
 		await expect(page.getByTestId('verdict-text')).toHaveText('Supported');
@@ -92,17 +75,23 @@ test.describe('an engineer runs a study', () => {
 			page.getByRole('link', { name: 'Download PDF' }).click()
 		]);
 		expect(download.suggestedFilename()).toBe('Yeast glycerol fed-batch, bench (demo).pdf');
-		const bytes = await readFile(await download.path());
+		const path = testInfo.outputPath('report.pdf');
+		await download.saveAs(path);
+		const bytes = await readFile(path);
 		expect(bytes.subarray(0, 5).toString()).toBe('%PDF-');
 		expect(bytes.byteLength).toBeGreaterThan(2_000);
 
 		const doc = await PDFDocument.load(bytes);
-		expect(doc.getPageCount()).toBeGreaterThanOrEqual(1);
 		expect(doc.getTitle()).toBe('Sufficiency study: Yeast glycerol fed-batch, bench (demo)');
-		const text = extractPdfText(bytes);
+		const pages = pdfPageTexts(path);
+		expect(pages.length).toBe(doc.getPageCount());
+		const text = pages.join('\n');
 		expect(text).toContain('Verdict: Supported');
+		// This study sparges 50 % O2: the enriched-gas caution applies.
 		expect(text).toContain('Oxygen-enriched gas raises the risk of fire');
 		expect(text).toContain('Glycerol');
+		expect(text).toContain('Biomass and substrate, g/L');
+		pages.forEach((pageText, i) => expect(pageText).toContain(`Page ${i + 1} of ${pages.length}`));
 
 		await page.getByRole('link', { name: 'Print view' }).click();
 		await expect(page.getByRole('link', { name: 'Download PDF' })).toBeVisible();

@@ -92,8 +92,22 @@ describe('a study on the demo data, checked by hand', () => {
 		expect(report.defaults.find((d) => d.what === 'Elemental mass fractions')!.source).toMatch(
 			/Neidhardt/
 		);
-		expect(report.cautions.join(' ')).toMatch(/fire/);
+		// The bacterial study sparges air: no fire caution for enriched gas.
+		expect(report.cautions.join(' ')).not.toMatch(/fire/);
 		expect(report.cautions.join(' ')).toMatch(/pressure rating/);
+	});
+
+	it('carries the enriched-gas caution when the plan or the what-if sparges more O2 than air', async () => {
+		const yeast = await evaluateStudy(loadStudyInputs(studyId(YEAST_STUDY)).inputs);
+		expect(yeast.inputs.o2MoleFraction).toBe(0.5);
+		expect(yeast.cautions.join(' ')).toMatch(/Oxygen-enriched gas raises the risk of fire/);
+		const bacterium = loadStudyInputs(studyId(BACTERIUM_STUDY)).inputs;
+		const enriched = await evaluateStudy(bacterium, { o2MoleFraction: 0.3 });
+		expect(enriched.cautions.join(' ')).toMatch(/Oxygen-enriched gas raises the risk of fire/);
+		const yeastOnAir = await evaluateStudy(loadStudyInputs(studyId(YEAST_STUDY)).inputs, {
+			o2MoleFraction: AIR_O2_MOLE_FRACTION
+		});
+		expect(yeastOnAir.cautions.join(' ')).not.toMatch(/fire/);
 	});
 
 	it('says what limits the bacterial run: nutrients and oxygen; short trace elements are warnings', async () => {

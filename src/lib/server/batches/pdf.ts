@@ -1,11 +1,13 @@
-import { PDFDocument, StandardFonts, rgb, type PDFFont } from 'pdf-lib';
+import { PDFDocument } from 'pdf-lib';
 import QRCode from 'qrcode';
 import { BATCH_STATE_LABELS } from '$lib/batches';
 import { formatDateTime } from '$lib/date-time';
 import { batchVolumeL } from '$lib/quantities';
 import { drawPictogram } from '$lib/hazards/pictogram-pdf';
-import { drawGrid } from '../pdf/grid';
-import { A4, MARGIN, toWinAnsi, Writer } from '../pdf/layout';
+import { drawGrid, gridLeadHeightPt } from '../pdf/grid';
+import { embedLexend } from '../pdf/fonts';
+import { A4, MARGIN, Writer } from '../pdf/layout';
+import { stampPageFooters } from '../pdf/page-footer';
 import { SHEET_COLUMNS, sheetRows, signatureRows } from './sheet-table';
 import type { BatchView } from './view';
 
@@ -47,7 +49,7 @@ const PICTOGRAM_PT = 20;
 /** The preparation's protective equipment, pictograms, fume hood, pH step, and our own notices. */
 function writeHandling(w: Writer, view: BatchView): void {
 	const p = view.preparation;
-	w.text('Handling', { bold: true, size: 11 });
+	w.heading('Handling');
 	const pictograms = [...new Set(Object.values(p.lines).flatMap((set) => set.pictograms))];
 	if (pictograms.length) {
 		w.ensure(PICTOGRAM_PT + 4);
@@ -104,7 +106,7 @@ function writeFinishing(w: Writer, view: BatchView): void {
 	);
 	if (v.instructions) {
 		w.gap();
-		w.text('Instructions', { bold: true });
+		w.heading('Instructions', { size: 9.5 });
 		w.text(v.instructions);
 	}
 	w.gap(8);
@@ -112,7 +114,7 @@ function writeFinishing(w: Writer, view: BatchView): void {
 
 function writeDeviations(w: Writer, view: BatchView): void {
 	if (!view.deviations.length) return;
-	w.text('Deviations', { bold: true, color: [0.6, 0.1, 0.1] });
+	w.heading('Deviations', { size: 9.5, color: [0.6, 0.1, 0.1] });
 	for (const d of view.deviations) w.text(`${d.detail} Reason: ${d.reason} (${d.by})`);
 	w.gap(8);
 }
@@ -138,36 +140,6 @@ function writeSignatures(w: Writer, view: BatchView, timeZone: string): void {
 	);
 }
 
-/** Batch number and page x of y on every page, with the moment the sheet was printed. */
-function stampPages(doc: PDFDocument, font: PDFFont, view: BatchView, printed: string): void {
-	const pages = doc.getPages();
-	pages.forEach((page, i) => {
-		const size = 8;
-		const y = MARGIN / 2;
-		const left = toWinAnsi(
-			`Batch sheet ${view.batch.number} · ${view.recipe.name} v${view.version.n}`
-		);
-		const right = toWinAnsi(`Page ${i + 1} of ${pages.length}`);
-		const middle = toWinAnsi(`Printed ${printed}`);
-		const grey = rgb(0.3, 0.3, 0.3);
-		page.drawText(left, { x: MARGIN, y, size, font, color: grey });
-		page.drawText(middle, {
-			x: (A4[0] - font.widthOfTextAtSize(middle, size)) / 2,
-			y,
-			size,
-			font,
-			color: grey
-		});
-		page.drawText(right, {
-			x: A4[0] - MARGIN - font.widthOfTextAtSize(right, size),
-			y,
-			size,
-			font,
-			color: grey
-		});
-	});
-}
-
 /**
  * The batch sheet as a PDF: the printed page's table (sheet-table.ts) ruled for filling in by hand,
  * with the record's QR code, a signature block and the batch number and page on every page.
@@ -180,22 +152,22 @@ export async function buildBatchSheetPdf(
 	const doc = await PDFDocument.create();
 	doc.setTitle(`Batch sheet ${view.batch.number}`);
 	doc.setCreator('Brothwright');
-	const font = await doc.embedFont(StandardFonts.Helvetica);
-	const bold = await doc.embedFont(StandardFonts.HelveticaBold);
+	const { font, bold } = await embedLexend(doc);
 	const w = new Writer(doc, font, bold);
 	await drawRecordQr(doc, w, view.recordUrl);
 	writeHeading(w, view);
 	writeHandling(w, view);
-	w.text('Order of addition', { bold: true, size: 11 });
+	const columns = SHEET_COLUMNS.map((c) => ({ header: c.header, widthPt: c.widthPt }));
+	const rows = sheetRows(view, timeZone).map((row) => SHEET_COLUMNS.map((c) => row[c.key]));
+	w.heading('Order of addition', { keepWithNextPt: 2 + gridLeadHeightPt(w, columns, rows) });
 	w.gap(2);
-	drawGrid(
-		w,
-		SHEET_COLUMNS.map((c) => ({ header: c.header, widthPt: c.widthPt })),
-		sheetRows(view, timeZone).map((row) => SHEET_COLUMNS.map((c) => row[c.key]))
-	);
+	drawGrid(w, columns, rows);
 	writeFinishing(w, view);
 	writeDeviations(w, view);
 	writeSignatures(w, view, timeZone);
-	stampPages(doc, font, view, formatDateTime(printedAt, timeZone));
+	stampPageFooters(doc, font, {
+		left: `Batch sheet ${view.batch.number} · ${view.recipe.name} v${view.version.n}`,
+		middle: `Printed ${formatDateTime(printedAt, timeZone)}`
+	});
 	return doc.save();
 }

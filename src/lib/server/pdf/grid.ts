@@ -1,7 +1,7 @@
 import { rgb } from 'pdf-lib';
 import type { PictogramId } from '$chemistry';
 import { drawPictogram } from '$lib/hazards/pictogram-pdf';
-import { MARGIN, toWinAnsi, type Writer } from './layout';
+import { MARGIN, type Writer } from './layout';
 
 export interface GridColumn {
 	header: string;
@@ -34,9 +34,10 @@ interface LaidCell {
 
 function layCell(w: Writer, cell: GridCell, widthPt: number, bold: boolean): LaidCell {
 	const inner = widthPt - 2 * PAD_PT;
+	const mainFont = bold ? w.bold : w.font;
 	return {
-		main: cell.text ? w.wrap(toWinAnsi(cell.text), bold ? w.bold : w.font, TEXT_PT, inner) : [],
-		detail: (cell.detail ?? []).flatMap((d) => w.wrap(toWinAnsi(d), w.font, DETAIL_PT, inner)),
+		main: cell.text ? w.wrap(w.fit(cell.text, mainFont), mainFont, TEXT_PT, inner) : [],
+		detail: (cell.detail ?? []).flatMap((d) => w.wrap(w.fit(d), w.font, DETAIL_PT, inner)),
 		pictograms: cell.pictograms ?? [],
 		blank: Boolean(cell.blank)
 	};
@@ -107,12 +108,26 @@ function drawRow(w: Writer, columns: GridColumn[], cells: LaidCell[], height: nu
 	w.y -= height;
 }
 
+function layHeader(w: Writer, columns: GridColumn[]): LaidCell[] {
+	return columns.map((c) => layCell(w, { text: c.header }, c.widthPt, true));
+}
+
+function layRow(w: Writer, columns: GridColumn[], row: GridCell[]): LaidCell[] {
+	return row.map((cell, i) => layCell(w, cell, columns[i].widthPt, true));
+}
+
+/** The height of the grid's header and first row: what a heading above it must be kept with. */
+export function gridLeadHeightPt(w: Writer, columns: GridColumn[], rows: GridCell[][]): number {
+	const header = Math.max(...layHeader(w, columns).map(cellHeight));
+	return header + (rows[0] ? Math.max(...layRow(w, columns, rows[0]).map(cellHeight)) : 0);
+}
+
 /**
  * A ruled table: every cell boxed, the header row repeated on each new page, and a row never split
  * across pages, so each line of a sheet can be filled in and initialled on paper.
  */
 export function drawGrid(w: Writer, columns: GridColumn[], rows: GridCell[][]): void {
-	const header = columns.map((c) => layCell(w, { text: c.header }, c.widthPt, true));
+	const header = layHeader(w, columns);
 	const headerHeight = Math.max(...header.map(cellHeight));
 	const drawHeader = () => {
 		const top = w.y;
@@ -125,8 +140,8 @@ export function drawGrid(w: Writer, columns: GridColumn[], rows: GridCell[][]): 
 		});
 		drawRow(w, columns, header, headerHeight);
 	};
-	const laid = rows.map((row) => row.map((cell, i) => layCell(w, cell, columns[i].widthPt, true)));
-	w.ensure(headerHeight + (laid[0] ? Math.max(...laid[0].map(cellHeight)) : 0));
+	const laid = rows.map((row) => layRow(w, columns, row));
+	w.ensure(gridLeadHeightPt(w, columns, rows));
 	drawHeader();
 	for (const cells of laid) {
 		const height = Math.max(...cells.map(cellHeight));

@@ -1,7 +1,7 @@
 import { formatDateTime } from '$lib/date-time';
 import { siteTimeZone } from '../site-time-zone';
-import { PDFDocument, StandardFonts } from 'pdf-lib';
-import { VALUE_CONFIDENCE_WORDS } from '$chemistry';
+import { PDFDocument } from 'pdf-lib';
+import { VALUE_CONFIDENCE_WORDS, studyCautions } from '$chemistry';
 import {
 	formatAmount,
 	formatCells,
@@ -9,13 +9,17 @@ import {
 	listValueSources
 } from '$lib/components/studies/format';
 import { FEED_PLAN_LABELS, TARGET_BASIS_UNITS } from '$lib/studies';
-import { MARGIN, Writer } from '../pdf/layout';
-import { STUDY_CAUTIONS } from '$chemistry';
+import { embedLexend } from '../pdf/fonts';
+import { MARGIN, Writer, type TableColumn } from '../pdf/layout';
+import { stampPageFooters } from '../pdf/page-footer';
 import type { loadStudyReport } from './page-load';
+import { writeTimeCourse } from './report-charts';
 
 export type LoadedStudyReport = Awaited<ReturnType<typeof loadStudyReport>>;
 
 const CAUTION_COLOR: [number, number, number] = [0.6, 0.1, 0.1];
+/** Explanations and notes: smaller than the body text. */
+const SMALL_PT = 8.5;
 
 function describeVersion(v: {
 	recipeName: string;
@@ -40,7 +44,10 @@ export function toSafeFileName(name: string): string {
 
 type Report = NonNullable<LoadedStudyReport['report']>;
 
-/** The sufficiency-study report as a PDF: the same content as the print view, without the chart. */
+/**
+ * The sufficiency-study report as a PDF: the same content as the print view, its time-course charts
+ * drawn in vector, in the app's typeface, with the study and page x of y on every page.
+ */
 export async function buildStudyReportPdf(
 	loaded: LoadedStudyReport,
 	printedAt = new Date()
@@ -54,8 +61,7 @@ export async function buildStudyReportPdf(
 			: 'Not evaluated'
 	);
 	doc.setCreator('Brothwright');
-	const font = await doc.embedFont(StandardFonts.Helvetica);
-	const bold = await doc.embedFont(StandardFonts.HelveticaBold);
+	const { font, bold } = await embedLexend(doc);
 	const w = new Writer(doc, font, bold);
 
 	writeHeading(w, loaded, printedAt);
@@ -65,14 +71,19 @@ export async function buildStudyReportPdf(
 			bold: true,
 			color: CAUTION_COLOR
 		});
-		return doc.save();
+	} else {
+		writeVerdict(w, report);
+		writeTimeCourse(w, report, study.durationH);
+		writeNutrients(w, report);
+		writeOxygen(w, report);
+		writeHeat(w, report);
+		writeVolume(w, report);
+		writeDefaults(w, report);
 	}
-	writeVerdict(w, report);
-	writeNutrients(w, report);
-	writeOxygen(w, report);
-	writeHeat(w, report);
-	writeVolume(w, report);
-	writeDefaults(w, report);
+	stampPageFooters(doc, font, {
+		left: `Sufficiency study: ${study.name}`,
+		middle: `Printed ${formatDateTime(printedAt, siteTimeZone())}`
+	});
 	return doc.save();
 }
 
@@ -84,15 +95,15 @@ function writeHeading(w: Writer, { study, report }: LoadedStudyReport, printedAt
 	);
 	w.gap(10);
 
-	w.text('Safety cautions', { bold: true, size: 11, color: CAUTION_COLOR });
-	for (const caution of report?.cautions ?? STUDY_CAUTIONS)
+	w.heading('Safety cautions', { color: CAUTION_COLOR });
+	for (const caution of report?.cautions ?? studyCautions(study.o2MoleFraction))
 		w.text(`- ${caution}`, { x: MARGIN + 8, color: CAUTION_COLOR });
 	w.gap(10);
 }
 
 function writeWhatItUses(w: Writer, loaded: LoadedStudyReport): void {
 	const { study } = loaded;
-	w.text('What it uses', { bold: true, size: 11 });
+	w.heading('What it uses');
 	w.text(`Basal: ${describeVersion(loaded.basal)}`);
 	w.text(
 		`Feeds: ${loaded.feeds.length ? loaded.feeds.map((f) => `${describeVersion(f)}: ${f.planText}`).join('; ') : 'none (batch)'}`
@@ -110,8 +121,7 @@ function writeWhatItUses(w: Writer, loaded: LoadedStudyReport): void {
 
 function writeVerdict(w: Writer, report: Report): void {
 	const supported = report.verdict === 'supported';
-	w.text(`Verdict: ${supported ? 'Supported' : 'Not supported'}`, {
-		bold: true,
+	w.heading(`Verdict: ${supported ? 'Supported' : 'Not supported'}`, {
 		size: 14,
 		color: supported ? [0.1, 0.4, 0.15] : CAUTION_COLOR
 	});
@@ -125,55 +135,74 @@ function writeVerdict(w: Writer, report: Report): void {
 	for (const reason of report.reasons) w.text(`- ${reason}`, { x: MARGIN + 8 });
 	if (report.warnings.length > 0) {
 		w.gap(4);
-		w.text('Watch during the run', { bold: true, color: CAUTION_COLOR });
+		w.heading('Watch during the run', { size: 9.5, color: CAUTION_COLOR });
 		for (const warning of report.warnings)
 			w.text(`- ${warning}`, { x: MARGIN + 8, color: CAUTION_COLOR });
 	}
 	w.gap(10);
 }
 
-function writeNutrients(w: Writer, report: Report): void {
-	w.text(`Nutrients: ${report.nutrients.check}`, { bold: true, size: 11 });
-	w.text(
-		`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand. Only required nutrients set the limit; a short trace element is a warning.`,
-		{ size: 8.5 }
-	);
-	w.gap(3);
+const NUTRIENT_COLUMNS: TableColumn[] = [
+	{ header: 'Nutrient', width: 105 },
+	{ header: 'Role', width: 47 },
+	{ header: 'Value is', width: 70 },
+	{ header: 'Demand g/L', width: 45, align: 'right' },
+	{ header: 'Supply g/L', width: 45, align: 'right' },
+	{ header: 'Ratio', width: 35, align: 'right' },
+	{ header: 'Margin g/L', width: 45, align: 'right' },
+	{ header: 'Short from', width: 75, align: 'right' },
+	{ header: 'Check', width: 48 }
+];
+
+function nutrientRows(report: Report): string[][] {
 	const lines = [...report.nutrients.lines].sort((a, b) => a.ratio - b.ratio);
-	w.table(
-		[
-			{ header: 'Nutrient', width: 110 },
-			{ header: 'Role', width: 45 },
-			{ header: 'Value is', width: 70 },
-			{ header: 'Demand g/L', width: 50, align: 'right' },
-			{ header: 'Supply g/L', width: 50, align: 'right' },
-			{ header: 'Ratio', width: 40, align: 'right' },
-			{ header: 'Margin g/L', width: 50, align: 'right' },
-			{ header: 'Short from', width: 50, align: 'right' },
-			{ header: 'Check', width: 50 }
-		],
-		lines.map((l) => [
-			l.note ? `${l.name} (${l.note})` : l.name,
-			l.roleFrom === 'profile' ? `${l.role} (profile)` : l.role,
-			VALUE_CONFIDENCE_WORDS[l.confidence],
-			formatAmount(l.demandGPerL),
-			formatAmount(l.supplyGPerL),
-			formatAmount(l.ratio),
-			formatAmount(l.marginGPerL),
-			formatRunout(l.runout),
-			l.sufficient ? 'OK' : l.role === 'required' ? 'SHORT' : 'SHORT (trace)'
-		])
+	return lines.map((l) => [
+		l.note ? `${l.name} (${l.note})` : l.name,
+		l.roleFrom === 'profile' ? `${l.role} (profile)` : l.role,
+		VALUE_CONFIDENCE_WORDS[l.confidence],
+		formatAmount(l.demandGPerL),
+		formatAmount(l.supplyGPerL),
+		formatAmount(l.ratio),
+		formatAmount(l.marginGPerL),
+		formatRunout(l.runout),
+		l.sufficient ? 'OK' : l.role === 'required' ? 'SHORT' : 'SHORT (trace)'
+	]);
+}
+
+/** A section heading, its small-print explanation and a table, the heading kept with the table's start. */
+function writeTableSection(
+	w: Writer,
+	heading: string,
+	explanation: string,
+	columns: TableColumn[],
+	rows: string[][]
+): void {
+	const explanationPt = w.lines(explanation, { size: SMALL_PT }).length * (SMALL_PT + 3) + 3;
+	w.heading(heading, { keepWithNextPt: explanationPt + w.tableLeadPt(columns, rows) });
+	w.text(explanation, { size: SMALL_PT });
+	w.gap(3);
+	w.table(columns, rows);
+}
+
+function writeNutrients(w: Writer, report: Report): void {
+	writeTableSection(
+		w,
+		`Nutrients: ${report.nutrients.check}`,
+		`Demand at the target against supply, g per litre of final volume. A line is OK at supply >= ${report.inputs.safetyFactor} × demand. Only required nutrients set the limit; a short trace element is a warning.`,
+		NUTRIENT_COLUMNS,
+		nutrientRows(report)
 	);
 	const sources = listValueSources(report.nutrients.lines);
-	if (sources.length > 0) w.text(`Sources of the values: ${sources.join('; ')}`, { size: 8.5 });
-	for (const note of report.nutrients.notes) w.text(note, { size: 8.5 });
+	if (sources.length > 0)
+		w.text(`Sources of the values: ${sources.join('; ')}`, { size: SMALL_PT });
+	for (const note of report.nutrients.notes) w.text(note, { size: SMALL_PT });
 	w.gap(10);
 }
 
 function writeOxygen(w: Writer, report: Report): void {
 	const o = report.oxygen;
 	w.ensure(120);
-	w.text(`Oxygen: ${o.check}`, { bold: true, size: 11 });
+	w.heading(`Oxygen: ${o.check}`);
 	w.text(`Total O2 needed: ${formatAmount(o.totalO2G)} g (${formatAmount(o.totalO2Mol)} mol)`);
 	const atLeast = o.lowerBound ? 'at least ' : '';
 	w.text(
@@ -188,14 +217,14 @@ function writeOxygen(w: Writer, report: Report): void {
 	w.text(`Reserve at setpoint: ${o.reserveS === null ? '—' : `${formatAmount(o.reserveS)} s`}`);
 	w.text(
 		`Peak OUR from ${o.peakOurOrigin}; kLa ${report.inputs.kLaOrigin}. Needed values are rounded up.${o.lowerBound ? ' The run could not cover the whole plan, so these are lower bounds.' : ''}`,
-		{ size: 8.5 }
+		{ size: SMALL_PT }
 	);
 	w.gap(10);
 }
 
 function writeHeat(w: Writer, report: Report): void {
 	w.ensure(60);
-	w.text(`Heat: ${report.heat.check}`, { bold: true, size: 11 });
+	w.heading(`Heat: ${report.heat.check}`);
 	w.text(
 		`Heat load ${report.heat.lowerBound ? 'at least ' : ''}${formatAmount(report.heat.heatLoadW)} W (metabolic ${formatAmount(report.heat.metabolicW)} W at ${formatAmount(report.heat.heatPerMolO2KJ)} kJ/mol O2, agitation ${formatAmount(report.heat.agitationPowerW)} W) against cooling capacity ${formatAmount(report.heat.coolingCapacityW)} W: ${formatAmount(report.heat.utilisation * 100)} % used`
 	);
@@ -204,7 +233,7 @@ function writeHeat(w: Writer, report: Report): void {
 
 function writeVolume(w: Writer, report: Report): void {
 	w.ensure(60);
-	w.text(`Volume: ${report.volume.check}`, { bold: true, size: 11 });
+	w.heading(`Volume: ${report.volume.check}`);
 	w.text(
 		`Final ${formatAmount(report.volume.finalL)} L (initial ${formatAmount(report.volume.initialL)} L + feeds ${formatAmount(report.volume.feedL)} L) against the vessel's maximum ${formatAmount(report.volume.maxL)} L (working range ${formatAmount(report.volume.minL)}–${formatAmount(report.volume.maxL)} L)`
 	);
@@ -214,26 +243,17 @@ function writeVolume(w: Writer, report: Report): void {
 		const dry = f.emptyAtH === null ? '' : `; runs dry at ${formatAmount(f.emptyAtH)} h`;
 		w.text(
 			`${f.label}: ${FEED_PLAN_LABELS[f.strategy]} from ${formatAmount(f.startH)} h, ${formatAmount(f.volumeL)} L ${f.controlled ? 'available' : 'planned'}${drawn}${dry}`,
-			{ size: 8.5, x: MARGIN + 8 }
+			{ size: SMALL_PT, x: MARGIN + 8 }
 		);
 	}
-	const course = report.timeCourse;
-	if (course.check !== 'unavailable') {
-		w.text(
-			`Time course: ${course.check}, reaches ${formatAmount(course.finalBiomassGPerL)} g/L${course.stoppedAtH !== null ? `, stops at ${formatAmount(course.stoppedAtH)} h` : ''}; the chart is in the app.`
-		);
-	} else w.text(`Time course not available: ${course.message}`);
 	w.gap(10);
 }
 
 function writeDefaults(w: Writer, report: Report): void {
-	w.text('Values and defaults used', { bold: true, size: 11 });
-	w.text(
+	writeTableSection(
+		w,
+		'Values and defaults used',
 		'Every value this study assumed, or worked out from your entries, with where it comes from.',
-		{ size: 8.5 }
-	);
-	w.gap(3);
-	w.table(
 		[
 			{ header: 'What', width: 170 },
 			{ header: 'Value', width: 110 },
@@ -241,5 +261,5 @@ function writeDefaults(w: Writer, report: Report): void {
 		],
 		report.defaults.map((d) => [d.what, d.value, d.source])
 	);
-	for (const note of report.notes) w.text(note, { size: 8.5 });
+	for (const note of report.notes) w.text(note, { size: SMALL_PT });
 }
