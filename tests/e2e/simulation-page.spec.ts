@@ -81,7 +81,7 @@ test('bad input shows the error at the field and keeps every value typed', async
 	await page.getByLabel('Set growth rate μset (1/h)').fill('0.9');
 	await page.getByRole('button', { name: 'Run simulation' }).click();
 	await expect(page.getByLabel('Set growth rate μset (1/h)')).toHaveAccessibleDescription(
-		/must be below kinetics\.muMaxPerH/
+		/^Feed μset \(0\.9 \/h\) must be below μmax \(0\.6 \/h\)/
 	);
 
 	await page.getByLabel('Feeding strategy').selectOption('expression');
