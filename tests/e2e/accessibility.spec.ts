@@ -31,7 +31,8 @@ async function firstLink(page: Page, listPath: string, pattern: RegExp): Promise
 	const hrefs = await page
 		.locator('main a[href]')
 		.evaluateAll((links) => links.map((a) => a.getAttribute('href') ?? ''));
-	return hrefs.find((href) => pattern.test(href)) ?? null;
+	// a file download (export.csv …) is not a page
+	return hrefs.find((href) => pattern.test(href) && !/\.\w+$/.test(href)) ?? null;
 }
 
 const PAGES_BY_ROLE: Record<DemoRole, { fixed: string[]; details: [string, RegExp][] }> = {
