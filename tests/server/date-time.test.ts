@@ -11,7 +11,8 @@ describe('dates and times as pages show them', () => {
 		expect(formatDateTime('2026-03-29T00:59:00Z', 'Europe/Berlin')).toBe('2026-03-29 01:59 CET');
 		expect(formatDateTime('2026-03-29T01:00:00Z', 'Europe/Berlin')).toBe('2026-03-29 03:00 CEST');
 		expect(formatDateTime('2026-12-03T14:05:09Z', 'UTC')).toBe('2026-12-03 14:05 UTC');
-		expect(formatTimeOfDay('2026-12-03T14:05:09Z', 'UTC')).toBe('14:05:09');
+		expect(formatTimeOfDay('2026-12-03T14:05:09Z', 'UTC')).toBe('14:05:09 UTC');
+		expect(formatTimeOfDay('2026-03-29T01:00:00Z', 'Europe/Berlin')).toBe('03:00:00 CEST');
 	});
 
 	it('gives the day in the site’s zone, which may differ from the UTC day', () => {
