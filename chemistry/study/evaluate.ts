@@ -5,7 +5,7 @@ import { G_PER_L_PER_CELL_PER_ML_PER_PG } from '../sufficiency/read';
 import { studyCautions } from './cautions';
 import { StudyDataError, asStudyDataError } from './errors';
 import { requireGrowthData, resolveOxygenYield } from './profile';
-import { hours, type OperatingPoint, type ReportLog, type StudyRun } from './report-context';
+import type { OperatingPoint, ReportLog, StudyRun } from './report-context';
 import {
 	assessNutrients,
 	describeRunouts,
@@ -14,6 +14,7 @@ import {
 	type NutrientSection
 } from './report-nutrients';
 import { assessHeat, assessOxygen, findOxygenLoad } from './report-oxygen';
+import { REACHES_TARGET_FRACTION, assessTimeCourse } from './report-time-course';
 import { simulatePlan } from './time-course';
 import type { StudyInputs, StudyReport, WhatIf } from './types';
 import { MAX_KLA_PER_H, computeVesselKLa } from './vessel';
@@ -25,8 +26,6 @@ export const MAX_BIOMASS_G_PER_L = 200;
  * (Benson & Krause 1984, 0–50 °C as APHA 4500-O tabulates it; chemistry/REFERENCES.md).
  */
 export const STUDY_TEMPERATURE_RANGE_C = [0, 40] as const;
-/** A run reaching this fraction of the target counts as reaching it (the course is sampled, not continuous). */
-const REACHES_TARGET_FRACTION = 0.98;
 
 /** A what-if value out of range: the request's fault (the app answers 400 at the field). */
 function whatIfError(message: string, field: string): never {
@@ -209,46 +208,6 @@ export function assessVolume(
 	};
 }
 
-/** The time course: whether the plan, as written and in this vessel, reaches the target within its duration. */
-export function assessTimeCourse(
-	inputs: StudyInputs,
-	point: OperatingPoint,
-	run: StudyRun,
-	log: ReportLog
-): StudyReport['timeCourse'] {
-	const { plan } = inputs;
-	const { demandCourse, simulated, courses } = run;
-	const target = point.target.biomassGPerL.toPrecision(3);
-	if (demandCourse && !demandCourse.reachesTarget) {
-		log.reasons.push(
-			`The plan as written reaches ${demandCourse.finalBiomassGPerL.toPrecision(3)} g/L${demandCourse.stoppedAtH !== null ? ` and stops at ${hours(demandCourse.stoppedAtH)}` : ''}, short of the target ${target} g/L within ${plan.durationH} h.`
-		);
-	} else if (simulated && !simulated.reachesTarget) {
-		const limited = simulated.oxygenLimitedH[0];
-		log.reasons.push(
-			`In this vessel the run reaches ${simulated.finalBiomassGPerL.toPrecision(3)} g/L, short of the target ${target} g/L within ${plan.durationH} h${limited ? `: DO reaches 0 at ${hours(limited.fromH)} and oxygen transfer then sets the pace of growth` : ''}.`
-		);
-	}
-	if (simulated && simulated.oxygenLimitedH.length > 0 && simulated.reachesTarget) {
-		log.notes.push(
-			`In this vessel DO reaches 0 at ${hours(simulated.oxygenLimitedH[0].fromH)}; growth then runs at what oxygen transfer supplies.`
-		);
-	}
-	if ('message' in courses.vessel)
-		log.notes.push(`Time course not available: ${courses.vessel.message}`);
-	if (!simulated)
-		return {
-			check: 'unavailable',
-			message: 'message' in courses.vessel ? courses.vessel.message : ''
-		};
-	const { deliveries: _deliveries, ...course } = simulated;
-	return {
-		...course,
-		demandOurMmolPerLH: demandCourse?.ourMmolPerLH ?? null,
-		check: simulated.reachesTarget ? 'ok' : 'short'
-	};
-}
-
 function describeLimit(
 	inputs: StudyInputs,
 	point: OperatingPoint,
@@ -292,7 +251,7 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	const oxygen = assessOxygen(inputs, point, run, load, nutrients.finalVolumeL, log);
 	const heat = assessHeat(inputs, run, load, log);
 	const volume = assessVolume(inputs, nutrients.finalVolumeL, nutrients.feedUsedL, log);
-	const timeCourse = assessTimeCourse(inputs, point, run, log);
+	const timeCourse = assessTimeCourse(inputs, point, run, nutrients, log);
 	log.notes.push(...nutrients.sufficiency.notes);
 
 	return {

@@ -23,7 +23,15 @@ export {
 	type PlanCourses,
 	type FeedDelivery
 } from './time-course';
-export { findRunoutTimes, findEmptyTime, type Runout, type RunoutInput } from './nutrient-runout';
+export {
+	findBiomassAllowedG,
+	findRunoutTimes,
+	findEmptyTime,
+	findStretch,
+	type Runout,
+	type RunoutInput
+} from './nutrient-runout';
+export { holdToNutrients, type NutrientHold } from './nutrient-hold';
 export * from './profile-yields';
 export * from './profile';
 export { MAX_KLA_PER_H, computeVesselKLa } from './vessel';

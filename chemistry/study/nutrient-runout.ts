@@ -21,48 +21,83 @@ export interface Runout {
 }
 
 /**
- * When each nutrient runs out along the simulated run. Every requirement line is linear in biomass
- * (g per g dry biomass, or per cell at a fixed cell mass), so by time t the culture has taken
- * r·X(t)·V(t) with r = demand / target biomass, as the sufficiency table counts it; the supply by
- * then is the basal amount plus each feed's concentration times the volume it has delivered. The
- * first time the first exceeds the second (linearly interpolated between output points) is when it
- * runs short; a feed may cover it again later. Null when it never runs short.
+ * The dry biomass each line's supply allows by each output time, g: every requirement line is linear
+ * in biomass (g per g dry biomass, or per cell at a fixed cell mass), r = demand / target biomass, as
+ * the sufficiency table counts it (without the safety factor); the supply by then is the basal amount
+ * plus each feed's concentration times the volume it has delivered, so the culture can hold at most
+ * supply / r grams of biomass. Infinity for a line without demand.
  */
-export function findRunoutTimes(input: RunoutInput): (Runout | null)[] {
+export function findBiomassAllowedG(input: RunoutInput): number[][] {
 	const { course } = input;
-	const { t, biomassGPerL, volumeL } = course;
 	return input.lines.map((line) => {
 		const perGBiomass = line.demandGPerL / input.targetBiomassGPerL;
+		if (!(perGBiomass > 0)) return course.t.map(() => Infinity);
 		const conc = (source: StudySource) =>
 			(line.basis === 'element'
 				? source.composition.elementsGPerL
 				: source.composition.componentsGPerL)[line.key] ?? 0;
 		const basalG = conc(input.basal) * input.initialVolumeL;
 		const feedConc = input.feeds.map(conc);
-		const deficit = (i: number) => {
-			let supply = basalG;
+		return course.t.map((_, i) => {
+			let supplyG = basalG;
 			input.feeds.forEach(
 				(_, k) =>
-					(supply +=
+					(supplyG +=
 						feedConc[k] * Math.min(course.deliveries[k].cumulativeL[i], input.availableL[k]))
 			);
-			return perGBiomass * biomassGPerL[i] * volumeL[i] - supply;
-		};
-		let shortFromH: number | null = null;
-		let coveredAgainH: number | null = null;
-		let previous = deficit(0);
-		if (previous > 0) shortFromH = t[0];
-		for (let i = 1; i < t.length; i++) {
-			const current = deficit(i);
-			if (current > 0 && previous <= 0) {
-				shortFromH ??= zeroCrossingH(t, i, previous, current);
-				coveredAgainH = null;
-			} else if (current <= 0 && previous > 0)
-				coveredAgainH = zeroCrossingH(t, i, previous, current);
-			previous = current;
-		}
-		return shortFromH === null ? null : { shortFromH, coveredAgainH };
+			return supplyG / perGBiomass;
+		});
 	});
+}
+
+/**
+ * When each nutrient runs out along the simulated run: the first time the culture's biomass X·V
+ * reaches what the nutrient supplied by then allows (`findBiomassAllowedG`), linearly interpolated
+ * between output points; a feed may cover it again later. Null when it never runs short.
+ *
+ * `heldToG`, when given, is the most biomass the required nutrients allow at each time (see
+ * `holdToNutrients`): the culture never grows past it, so a line runs short only where that
+ * limit, too, has reached what the line allows.
+ */
+export function findRunoutTimes(
+	input: RunoutInput,
+	heldToG: number[] | null = null
+): (Runout | null)[] {
+	const { t, biomassGPerL, volumeL } = input.course;
+	const massG = t.map((_, i) => biomassGPerL[i] * volumeL[i]);
+	return findBiomassAllowedG(input).map((allowedG) => {
+		if (allowedG.some((g) => !Number.isFinite(g))) return null;
+		const conditions = [massG.map((m, i) => m - allowedG[i])];
+		if (heldToG) conditions.push(heldToG.map((h, i) => h - allowedG[i]));
+		return findStretch(t, conditions);
+	});
+}
+
+/**
+ * Where every condition series is ≥ 0: the first time they all are, and (when they stop being so
+ * before the end) the time after the last such stretch. Each series is taken as linear between output
+ * points, so all of them turn ≥ 0 at the latest of their own crossings, and one turning negative ends it.
+ */
+export function findStretch(t: number[], conditions: number[][]): Runout | null {
+	const holds = (i: number) => conditions.every((c) => c[i] >= 0);
+	let shortFromH: number | null = holds(0) ? t[0] : null;
+	let coveredAgainH: number | null = null;
+	let previous = holds(0);
+	for (let i = 1; i < t.length; i++) {
+		const current = holds(i);
+		if (current && !previous) {
+			shortFromH ??= Math.max(
+				...conditions.map((c) => (c[i - 1] < 0 ? zeroCrossingH(t, i, c[i - 1], c[i]) : t[i - 1]))
+			);
+			coveredAgainH = null;
+		} else if (!current && previous) {
+			coveredAgainH = Math.min(
+				...conditions.map((c) => (c[i] < 0 ? zeroCrossingH(t, i, c[i - 1], c[i]) : t[i]))
+			);
+		}
+		previous = current;
+	}
+	return shortFromH === null ? null : { shortFromH, coveredAgainH };
 }
 
 /** When a feed with a limited volume has delivered all of it; null when it never empties. */

@@ -6,7 +6,8 @@ import {
 	type SufficiencyResult
 } from '../sufficiency';
 import { asStudyDataError } from './errors';
-import { findEmptyTime, findRunoutTimes } from './nutrient-runout';
+import { holdToNutrients, type NutrientHold } from './nutrient-hold';
+import { findEmptyTime, findRunoutTimes, type RunoutInput } from './nutrient-runout';
 import { listYieldsUsed, toSufficiencyProfile } from './profile';
 import type { OperatingPoint, ReportLog, StudyRun } from './report-context';
 import { isControlled } from './time-course';
@@ -20,6 +21,8 @@ export interface NutrientSection {
 	usedL: number[];
 	feedUsedL: number;
 	finalVolumeL: number;
+	/** The time course's biomass held to what the required nutrients supply; null without a course. */
+	hold: NutrientHold | null;
 }
 
 /** A component's or element's name as the report shows it. */
@@ -105,23 +108,40 @@ export function assessNutrients(
 		})
 	);
 	listNutrientDefaults(inputs, sufficiency, log);
-	const runouts = simulated
-		? findRunoutTimes({
-				lines: sufficiency.lines,
-				targetBiomassGPerL: target.biomassGPerL,
-				basal: inputs.basal,
-				initialVolumeL: plan.initialVolumeL,
-				feeds,
-				availableL: feeds.map((f) => f.volumeL),
-				course: simulated
-			})
+	const isCarbon = (l: { basis: string; key: string }) =>
+		l.basis === 'component' && l.key === growth.carbonSourceId;
+	const runoutInput: RunoutInput | null = simulated && {
+		lines: sufficiency.lines,
+		targetBiomassGPerL: target.biomassGPerL,
+		basal: inputs.basal,
+		initialVolumeL: plan.initialVolumeL,
+		feeds,
+		availableL: feeds.map((f) => f.volumeL),
+		course: simulated
+	};
+	// Required nutrients hold growth back (the model itself follows only the carbon source); a trace
+	// element that runs short is a warning and does not.
+	const hold =
+		runoutInput &&
+		holdToNutrients(
+			runoutInput,
+			sufficiency.lines.map((l) => l.role === 'required' && !isCarbon(l))
+		);
+	const runouts = runoutInput
+		? findRunoutTimes(runoutInput, hold!.heldToG)
 		: sufficiency.lines.map(() => null);
-	const lines = sufficiency.lines.map((l, i) => ({
-		...l,
-		name: nameOf(inputs, l.key, l.basis),
+	const lines: NutrientRow[] = sufficiency.lines.map((l, i) => {
 		// The model follows the carbon source itself: its exhaustion is an event of the time course.
-		runout: l.basis === 'component' && l.key === growth.carbonSourceId ? null : runouts[i]
-	}));
+		const runout = isCarbon(l) ? null : runouts[i];
+		const noRunout = isCarbon(l)
+			? 'modelled'
+			: !simulated
+				? 'no time course'
+				: runout === null
+					? 'lasts'
+					: null;
+		return { ...l, name: nameOf(inputs, l.key, l.basis), runout, noRunout };
+	});
 	// Only required nutrients limit; a short trace element is among the warnings.
 	const limitLine = lines.find(
 		(l) => l.key === sufficiency.limiting!.key && l.basis === sufficiency.limiting!.basis
@@ -132,7 +152,7 @@ export function assessNutrients(
 			`${short.join(', ')} ${short.length === 1 ? 'runs' : 'run'} short of ${plan.safetyFactor} × demand; ${limitLine.name} limits first, at about ${limitLine.maxBiomassGPerL?.toPrecision(3)} g/L.`
 		);
 	}
-	return { sufficiency, lines, limitLine, usedL, feedUsedL, finalVolumeL };
+	return { sufficiency, lines, limitLine, usedL, feedUsedL, finalVolumeL, hold };
 }
 
 /** Each feed as planned and as the run drew it; a controlled feed that runs dry is a reason. */
@@ -173,9 +193,10 @@ export function reportFeeds(
 }
 
 /**
- * What the run-out times mean for a real run. A lasting shortfall is already a reason (its ratio is
- * below 1); one the feeds make good later is a warning: the totals hold, but growth would pause or
- * slow in between, which the time course (growing on the carbon source alone) does not show.
+ * What the run-out times mean for a real run. The time course holds biomass to what the required
+ * nutrients supply, so a required nutrient's shortfall is in it: from then on growth runs only as
+ * fast as that nutrient arrives. A lasting shortfall is also a reason when its ratio is below 1. A
+ * trace element's shortfall is not in the time course: its warning says what it would do.
  */
 export function describeRunouts(
 	lines: NutrientRow[],
@@ -185,20 +206,23 @@ export function describeRunouts(
 		.filter((l) => l.runout !== null)
 		.sort((a, b) => a.runout!.shortFromH - b.runout!.shortFromH);
 	if (short.length === 0) return { notes: [], warnings: [] };
+	const at = (h: number) => (h <= 0 ? 'from the start' : `at about ${h.toFixed(0)} h`);
 	// A trace element that stays short already has its warning, and does not stop growth.
 	const lasting = short.filter((l) => l.runout!.coveredAgainH === null && l.role === 'required');
 	const passing = short.filter((l) => l.runout!.coveredAgainH !== null);
 	return {
 		notes: [
-			`The time course grows on ${carbonName} alone; the other nutrients are followed by their demand per g of biomass.`,
+			`The time course grows on ${carbonName} and holds biomass to what the required nutrients supply by each time; trace elements are followed by their demand per g of biomass.`,
 			...lasting.map(
 				({ name, runout }) =>
-					`${name} runs out at about ${runout!.shortFromH.toFixed(0)} h and stays short: a real run would stop growing there.`
+					`${name} runs out ${at(runout!.shortFromH)} and stays short: from there growth is held to what ${name} arrives, as the time course shows.`
 			)
 		],
-		warnings: passing.map(
-			({ name, runout }) =>
-				`${name} is used up at about ${runout!.shortFromH.toFixed(0)} h and covered again from about ${runout!.coveredAgainH!.toFixed(0)} h, when a feed brings more: growth would pause or slow in between, so the run may take longer than simulated.`
-		)
+		warnings: passing.map(({ name, runout, role }) => {
+			const used = `${name} is used up ${at(runout!.shortFromH)} and covered again from about ${runout!.coveredAgainH!.toFixed(0)} h, when a feed brings more`;
+			return role === 'required'
+				? `${used}: growth is held in between (the time course shows it), so the run takes longer than on ${carbonName} alone.`
+				: `${used}: growth would pause or slow in between, so the run may take longer than simulated.`;
+		})
 	};
 }

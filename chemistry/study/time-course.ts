@@ -155,7 +155,7 @@ function cumulative(t: number[], rate: number[], startH: number, totalL: number)
 }
 
 /** When a rising series first reaches `level`, interpolated between output points; null if it never does. */
-function findCrossingH(t: number[], values: number[], level: number): number | null {
+export function findCrossingH(t: number[], values: number[], level: number): number | null {
 	const i = values.findIndex((v) => v >= level);
 	if (i < 0) return null;
 	if (i === 0) return t[0];
@@ -258,9 +258,9 @@ export function simulatePlan(run: PlanRun): PlanCourses {
 	const carbon = run.inputs.componentNames[run.growth.carbonSourceId] ?? run.growth.carbonSourceId;
 	run.defaults.push({
 		what: 'Time course model',
-		value: `Monod growth on ${carbon}, Pirt maintenance to exhaustion, O2 maintenance 0; DO falls with uptake and, at 0, holds growth to what transfer supplies (OTR = OUR)`,
+		value: `Monod growth on ${carbon}, Pirt maintenance to exhaustion, O2 maintenance 0; DO falls with uptake and, at 0, holds growth to what transfer supplies (OTR = OUR); biomass then held to what the required nutrients have supplied by each time, at their demand per g of biomass (never below the inoculum)`,
 		source:
-			'The model help of the simulation; other nutrients are followed by their demand per g of biomass'
+			'The model help of the simulation; the law of the minimum (Sprengel 1828, von Liebig 1840) for the other required nutrients. Where a nutrient holds growth, the substrate, DO and OUR shown are those of growth on the carbon source alone (drawn grey from there)'
 	});
 	run.defaults.push({
 		what: 'Oxygen and heat figures',

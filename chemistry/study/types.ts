@@ -130,6 +130,26 @@ export interface NutrientRow extends SufficiencyLine {
 	name: string;
 	/** When the simulated run has taken all of it (and when a feed covers it again); null when it lasts, and for the modelled carbon source. */
 	runout: Runout | null;
+	/**
+	 * Why `runout` is null: the carbon source is modelled in the time course, the nutrient lasts the
+	 * run, or there is no time course; null when there is a run-out.
+	 */
+	noRunout: 'modelled' | 'lasts' | 'no time course' | null;
+}
+
+/** Where the required nutrients hold the time course's growth back. */
+export interface TimeCourseHold {
+	/** When a required nutrient first holds growth back, h. */
+	fromH: number;
+	/** That nutrient's name. */
+	nutrient: string;
+	/** X as the model gives it on the carbon source alone, g/L; the course's X is held below it from `fromH`. */
+	carbonOnlyBiomassGPerL: number[];
+	/**
+	 * The most X the required nutrients allow at each output time, g/L: what they have supplied by
+	 * then, at their demand per g of biomass (no safety factor), in the volume at that time.
+	 */
+	allowedGPerL: number[];
 }
 
 export interface FeedReport {
@@ -240,9 +260,16 @@ export interface StudyReport {
 		maxL: number;
 	};
 	feeds: FeedReport[];
-	/** The plan in this vessel (oxygen may hold growth back), with the demand run's OUR beside it. */
+	/**
+	 * The plan in this vessel (oxygen may hold growth back) with its biomass held to what the required
+	 * nutrients supply (`nutrientHold`), and the demand run's OUR beside it.
+	 */
 	timeCourse:
-		| ({ check: Check; demandOurMmolPerLH: number[] | null } & TimeCourse)
+		| ({
+				check: Check;
+				demandOurMmolPerLH: number[] | null;
+				nutrientHold: TimeCourseHold | null;
+		  } & TimeCourse)
 		| { check: 'unavailable'; message: string };
 	defaults: DefaultUsed[];
 	notes: string[];

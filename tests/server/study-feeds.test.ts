@@ -128,7 +128,9 @@ describe('feeds with their own plans', () => {
 
 	it('finds when a nutrient runs out along a batch run, as the crossing of X with target × ratio', async () => {
 		// Without feeds the supply is fixed: a line of ratio ρ runs out when X·V·(demand/X_target) = supply·V,
-		// i.e. when X reaches X_target·ρ (mass balance). Found here independently from the biomass curve.
+		// i.e. when X reaches X_target·ρ (mass balance). Found here independently from the biomass curves:
+		// the limiting required line on the run's growth on glucose alone, every other line on the course
+		// held to that line (law of the minimum), which it may never reach.
 		const { inputs } = loadStudyInputs(studyId(PILOT));
 		const batch = structuredClone(inputs);
 		batch.feeds = [];
@@ -137,10 +139,14 @@ describe('feeds with their own plans', () => {
 		if (course.check === 'unavailable') throw new Error(course.message);
 		const short = report.nutrients.lines.filter((l) => l.ratio < 1 && l.key !== 'd-glucose');
 		expect(short.length).toBeGreaterThan(0);
+		const holding = course.nutrientHold!.nutrient;
+		expect(holding).toBe(report.limit.name);
 		let crossings = 0;
 		for (const line of short) {
 			const level = report.inputs.targetBiomassGPerL * line.ratio;
-			const i = course.biomassGPerL.findIndex((x) => x >= level);
+			const biomass =
+				line.name === holding ? course.nutrientHold!.carbonOnlyBiomassGPerL : course.biomassGPerL;
+			const i = biomass.findIndex((x) => x >= level);
 			if (i < 0) {
 				expect(line.runout).toBeNull();
 				continue;
@@ -153,16 +159,16 @@ describe('feeds with their own plans', () => {
 				continue;
 			}
 			crossings++;
-			const [t0, t1, x0, x1] = [
-				course.t[i - 1],
-				course.t[i],
-				course.biomassGPerL[i - 1],
-				course.biomassGPerL[i]
-			];
+			const [t0, t1, x0, x1] = [course.t[i - 1], course.t[i], biomass[i - 1], biomass[i]];
 			expect(line.runout!.shortFromH).toBeCloseTo(t0 + ((t1 - t0) * (level - x0)) / (x1 - x0), 6);
 		}
 		expect(crossings).toBeGreaterThan(0);
 		expect(report.nutrients.lines.find((l) => l.key === 'd-glucose')?.runout ?? null).toBeNull();
+		// Held, the batch ends at what the limiting line's supply carries: X_target·ρ.
+		expect(course.finalBiomassGPerL).toBeCloseTo(
+			report.inputs.targetBiomassGPerL * report.limit.ratio,
+			6
+		);
 	});
 
 	it('saves the plans and refills the form with them', () => {

@@ -158,7 +158,12 @@ describe('POST /api/v1/studies/evaluate carries the same on each nutrient line',
 		const parsed = evaluateResponse.safeParse(body);
 		expect(parsed.success, JSON.stringify(parsed.error?.issues.slice(0, 3))).toBe(true);
 		for (const line of body.nutrients.lines)
-			expectDescribed(line, { ...sufficiencyLineResponse.shape, name: 1, runout: 1 });
+			expectDescribed(line, {
+				...sufficiencyLineResponse.shape,
+				name: 1,
+				runout: 1,
+				noRunout: 1
+			});
 		const fe = body.nutrients.lines.find((l: { key: string }) => l.key === 'Fe');
 		expect(fe).toMatchObject({ role: 'trace', confidence: 'from memory', sufficient: false });
 		expect(body.limit.key).toBe('N');

@@ -3,7 +3,8 @@ import {
 	SCENARIO_DASHES,
 	SERIES_COLOURS,
 	type ChartMarker,
-	type ChartSeries
+	type ChartSeries,
+	type ChartSpec
 } from '$lib/components/charts/chart-types';
 import { feedStreamName, separateFeedStreams } from './feed-stream-results';
 import type { SimulationSeries } from './series-csv';
@@ -30,13 +31,16 @@ type Quantity = {
 	axis?: 'y' | 'y2';
 };
 
-export interface ChartSpec {
-	id: string;
-	title: string;
-	yTitle: string;
-	y2Title?: string;
-	series: ChartSeries[];
-	markers: ChartMarker[];
+export type { ChartSpec };
+
+/** Where the runs start and end, h: the time axis ends where the longest run ended, not at a round tick. */
+export function findRunSpanH(runs: SimulationRunView[]): { startH: number; endH: number } | null {
+	const ran = runs.filter((run) => run.result.t.length > 0);
+	if (ran.length === 0) return null;
+	return {
+		startH: Math.min(...ran.map((run) => run.result.t[0])),
+		endH: Math.max(...ran.map((run) => run.result.t.at(-1)!))
+	};
 }
 
 /** A series as points; a run-wide figure (the maximum OTR) is a level line from start to end. */
@@ -74,6 +78,7 @@ function feedStreamSeries(runs: SimulationRunView[]): ChartSeries[] {
 /** The four chart groups; a second run is drawn in the same colours with a dashed line. */
 export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 	const many = runs.length > 1;
+	const span = findRunSpanH(runs);
 	const markers: ChartMarker[] = runs.flatMap((run) =>
 		run.result.events
 			.filter((e) => e.kind !== 'draw')
@@ -91,8 +96,11 @@ export function buildSimulationCharts(runs: SimulationRunView[]): ChartSpec[] {
 	): ChartSpec => ({
 		id,
 		title,
+		xTitle: 'Time (h)',
 		yTitle,
 		y2Title,
+		xMin: span?.startH,
+		xMax: span?.endH,
 		markers,
 		series: runs.flatMap((run, r) =>
 			quantities

@@ -37,7 +37,8 @@ export interface FeedStreamValues {
 export interface FeedNumberField {
 	key: FeedNumberKey;
 	label: string;
-	hint?: string;
+	/** a hint, or one per mode where what the field means changes with it */
+	hint?: string | ((mode: OperatingMode) => string);
 	shows: (stream: FeedStreamValues, mode: OperatingMode) => boolean;
 }
 
@@ -52,6 +53,10 @@ export const FEED_NUMBER_FIELDS: FeedNumberField[] = [
 	{
 		key: 'substrateGPerL',
 		label: 'Substrate in feed or fresh medium Sf (g/L)',
+		hint: (mode) =>
+			mode === 'fedBatch'
+				? `Default ${FED_BATCH_FEED_SUBSTRATE_TEXT} g/L: a concentrated feed (common practice)`
+				: 'Fresh medium; default S₀, the medium the vessel starts with',
 		shows: (_, mode) => mode !== 'batch'
 	},
 	{
@@ -94,6 +99,17 @@ export const FEED_NUMBER_FIELDS: FeedNumberField[] = [
 		shows: (_, mode) => mode === 'fedBatch'
 	}
 ];
+
+/**
+ * The substrate of a fed-batch feed the form starts with, g/L: a concentrate, so that feeding adds
+ * little volume (glucose feeds of 400–600 g/L are common practice).
+ */
+export const FED_BATCH_FEED_SUBSTRATE_TEXT = '500';
+
+/** A field's hint in this mode. */
+export function feedFieldHint(field: FeedNumberField, mode: OperatingMode): string | undefined {
+	return typeof field.hint === 'function' ? field.hint(mode) : field.hint;
+}
 
 let lastStreamKey = 0;
 

@@ -12,6 +12,7 @@ import { describeProblems, problemsByPath, zodProblems } from '$lib/field-proble
 import {
 	buildFeedInput,
 	createFeedStream,
+	FED_BATCH_FEED_SUBSTRATE_TEXT,
 	MAX_FORM_FEED_STREAMS,
 	readFeedInput,
 	type FeedStreamValues
@@ -193,7 +194,7 @@ export function createDemoValues(): SimulationFormValues {
 				strategy: 'exponential',
 				expression: '0.05 * exp(0.2 * (t - 8))',
 				numbers: {
-					substrateGPerL: '500',
+					substrateGPerL: FED_BATCH_FEED_SUBSTRATE_TEXT,
 					startH: '8',
 					rateLPerH: '0.1',
 					slopeLPerH2: '0.02',
@@ -233,6 +234,33 @@ export function createDemoValues(): SimulationFormValues {
 			outputEveryH: '0.1'
 		}
 	};
+}
+
+/**
+ * The first stream's substrate the form gives a mode: fed-batch feeds a concentrate; chemostat,
+ * perfusion and draw-fill feed fresh medium, by default the medium the vessel starts with (S₀).
+ */
+export function defaultFeedSubstrateText(
+	values: SimulationFormValues,
+	mode: OperatingMode
+): string {
+	return mode === 'fedBatch'
+		? FED_BATCH_FEED_SUBSTRATE_TEXT
+		: (values.numbers['initial.substrateGPerL'] ?? '').trim();
+}
+
+/**
+ * Changes the operating mode. A first stream's substrate still at the old mode's default takes the
+ * new mode's (a fed-batch concentrate is no chemostat's fresh medium); one the user typed stays.
+ */
+export function switchOperatingMode(values: SimulationFormValues, mode: OperatingMode): void {
+	const first = values.feeds[0];
+	if (
+		first &&
+		first.numbers.substrateGPerL.trim() === defaultFeedSubstrateText(values, values.mode)
+	)
+		first.numbers.substrateGPerL = defaultFeedSubstrateText(values, mode);
+	values.mode = mode;
 }
 
 export function isFieldShown(field: NumberField, values: SimulationFormValues): boolean {

@@ -41,16 +41,29 @@ describe('the nutrient table of a study, worked by hand', () => {
 			'N runs short of 1.2 × demand; N limits first, at about 2.08 g/L.'
 		);
 		const course = courseOf(report);
-		// Independent of the code under test: the crossing of X = 0.35/0.14 in the run's own biomass series.
-		const i = course.biomassGPerL.findIndex((x) => x >= 0.35 / 0.14);
-		const [x0, x1] = [course.biomassGPerL[i - 1], course.biomassGPerL[i]];
+		// Independent of the code under test: the crossing of X = 0.35/0.14 in the run's own biomass
+		// series on glucose alone (before any nutrient holds it).
+		const carbonOnly = course.nutrientHold!.carbonOnlyBiomassGPerL;
+		const i = carbonOnly.findIndex((x) => x >= 0.35 / 0.14);
+		const [x0, x1] = [carbonOnly[i - 1], carbonOnly[i]];
 		const crossingH = course.t[i - 1] + ((course.t[i] - course.t[i - 1]) * (2.5 - x0)) / (x1 - x0);
 		const runout = report.nutrients.lines.find((l) => l.key === 'N')!.runout!;
 		expect(runout.shortFromH).toBeCloseTo(crossingH, 6);
 		expect(runout.coveredAgainH).toBeNull();
 		expect(report.notes).toContain(
-			`N runs out at about ${crossingH.toFixed(0)} h and stays short: a real run would stop growing there.`
+			`N runs out at about ${crossingH.toFixed(0)} h and stays short: from there growth is held to what N arrives, as the time course shows.`
 		);
+		// The course shown is held there (law of the minimum): in this batch at constant volume the
+		// 0.35 g/L N supplied carries 0.35 / 0.14 = 2.5 g/L biomass and no more.
+		expect(course.nutrientHold).toMatchObject({ nutrient: 'N' });
+		expect(course.nutrientHold!.fromH).toBeCloseTo(crossingH, 6);
+		expect(Math.max(...course.biomassGPerL)).toBeCloseTo(2.5, 9);
+		expect(course.finalBiomassGPerL).toBeCloseTo(2.5, 9);
+		expect(course.nutrientHold!.allowedGPerL.at(-1)).toBeCloseTo(2.5, 9);
+		expect(Math.max(...carbonOnly)).toBeGreaterThan(5);
+		expect(course.check).toBe('short');
+		// The shortfall is said once, as the nutrient's; the course adds no second reason for it.
+		expect(report.reasons.filter((r) => r.includes('N '))).toHaveLength(1);
 	});
 
 	it('turns a cells/mL target into g/L with the cell dry mass: 2e7 cells/mL × 250 pg = 5 g/L', () => {

@@ -65,7 +65,13 @@ export const evaluateResponse = documentsPartOf<StudyReport>()(
 						name: z.string(),
 						runout: z
 							.object({ shortFromH: z.number(), coveredAgainH: z.number().nullable() })
+							.nullable(),
+						noRunout: z
+							.enum(['modelled', 'lasts', 'no time course'])
 							.nullable()
+							.describe(
+								'Why runout is null: the carbon source is modelled in the time course, the nutrient lasts the run, or there is no time course'
+							)
 					})
 				),
 				notes: z.array(z.string())
