@@ -164,7 +164,7 @@ function nutrientRows(report: Report): string[][] {
 		formatAmount(l.supplyGPerL),
 		formatAmount(l.ratio),
 		formatAmount(l.marginGPerL),
-		formatRunout(l.runout),
+		formatRunout(l.runout, l.noRunout),
 		l.sufficient ? 'OK' : l.role === 'required' ? 'SHORT' : 'SHORT (trace)'
 	]);
 }
