@@ -40,3 +40,10 @@ export function toDraftLine({
 }: EditorLine): DraftLineInput {
 	return line;
 }
+
+/**
+ * The columns of an editor line and of the header above the lines: below 1024 px the number, the
+ * component, amount and unit, with the rest on a second row; from 1024 px one row per line.
+ */
+export const LINE_GRID_CLASS =
+	'grid grid-cols-[1.25rem_minmax(0,1fr)_5.5rem_4.5rem] items-start gap-x-1.5 gap-y-2 lg:grid-cols-[1.25rem_minmax(10rem,2.5fr)_4.75rem_4rem_5.75rem_3.5rem_minmax(5rem,1fr)_6.75rem]';
