@@ -15,6 +15,8 @@ export * from './oxygen';
 export * from './oxygen-saturation-schema';
 export * from './heat';
 export * from './oxygen-load';
+export * from './off-gas/balance';
+export * from './kla-correlation';
 export * from './degree-of-reduction';
 export * from './stoichiometry';
 export * from './sufficiency';
