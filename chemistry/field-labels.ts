@@ -39,7 +39,11 @@ const PATH_LABELS: Record<string, string> = {
 	'turnaround.cleaningH': 'Cleaning time',
 	'turnaround.sterilisingH': 'Sterilising time',
 	'turnaround.fillingH': 'Filling time',
-	'turnaround.lagH': 'Lag time'
+	'turnaround.lagH': 'Lag time',
+	'gasOff.timeS': 'Gas-off time',
+	'gasOff.dissolvedOxygen': 'Gas-off DO',
+	'gasOn.timeS': 'Gas-on time',
+	'gasOn.dissolvedOxygen': 'Gas-on DO'
 };
 
 /** A field of one feed stream, after "Feed" or "Feed stream N". */
@@ -78,7 +82,14 @@ const KEY_LABELS: Record<string, string> = {
 	temperatureC: 'Temperature',
 	pressureKPa: 'Pressure',
 	salinityGPerKg: 'Salinity',
-	method: 'Method'
+	method: 'Method',
+	timeS: 'Time',
+	dissolvedOxygen: 'DO',
+	dissolvedOxygenUnit: 'DO unit',
+	probeTimeConstantS: 'Probe time constant τp',
+	startS: 'Start of the rise',
+	gasOnStartS: 'Air back on at',
+	saturationMgPerL: 'DO saturation C*'
 };
 
 export const OPERATING_MODE_WORDS: Record<string, string> = {

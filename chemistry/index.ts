@@ -41,6 +41,7 @@ export * from './chemostat-schema';
 export * from './productivity';
 export * from './productivity-schema';
 export * from './growth-fit';
+export * from './kla';
 export * from './study';
 export * from './statistics';
 export * from './hazards';

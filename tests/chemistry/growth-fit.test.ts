@@ -4,19 +4,7 @@ import { computeStudentTQuantile } from '../../chemistry/statistics';
 import { simulateRun } from '../../chemistry/simulation';
 import reference from './reference/growth-curves.json';
 import { errorOf } from './input-error';
-
-/** mulberry32, a small public-domain 32-bit seeded generator, with Box & Muller (1958) normals. */
-function createNormalSource(seed: number): () => number {
-	let state = seed >>> 0;
-	const uniform = () => {
-		state = (state + 0x6d2b79f5) >>> 0;
-		let z = state;
-		z = Math.imul(z ^ (z >>> 15), z | 1);
-		z ^= z + Math.imul(z ^ (z >>> 7), z | 61);
-		return ((z ^ (z >>> 14)) >>> 0) / 4294967296;
-	};
-	return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
+import { createNormalSource } from './seeded-normal';
 
 /** A Monod batch from 0.05 g/L on 20 g/L, sampled every 15 min over 24 h. */
 function simulateMonodBatch(kinetics: { muMaxPerH: number; ksGPerL: number; yieldXS: number }) {

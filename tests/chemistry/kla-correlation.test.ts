@@ -9,6 +9,7 @@ import {
 } from '../../chemistry/kla-correlation';
 import { computeStudentTQuantile } from '../../chemistry/statistics';
 import { errorOf } from './input-error';
+import { createNormalSource } from './seeded-normal';
 
 // Van 't Riet (1979), coalescing water: kLa = 0.026·(P/V)^0.4·v_s^0.5, kLa in 1/s (from memory).
 const TRUE = { k: 0.026, a: 0.4, b: 0.5 };
@@ -23,19 +24,6 @@ function grid(noise: () => number = () => 0): KlaPoint[] {
 			kLaPerS: TRUE.k * pv ** TRUE.a * vs ** TRUE.b * Math.exp(noise())
 		}))
 	);
-}
-
-/** mulberry32 (a small public-domain 32-bit generator) and Box & Muller (1958) normal deviates. */
-function createSeededNormal(seed: number): () => number {
-	let state = seed >>> 0;
-	const uniform = () => {
-		state = (state + 0x6d2b79f5) >>> 0;
-		let z = state;
-		z = Math.imul(z ^ (z >>> 15), z | 1);
-		z ^= z + Math.imul(z ^ (z >>> 7), z | 61);
-		return ((z ^ (z >>> 14)) >>> 0) / 4294967296;
-	};
-	return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
 }
 
 /** (XᵀX)⁻¹ of the design [1, ln P/V, ln v_s] by cofactors: an independent route to the SEs. */
@@ -71,7 +59,7 @@ describe('fitting kLa = K·(P/V)^a·v_s^b', () => {
 			(
 				(n) => () =>
 					0.05 * n()
-			)(createSeededNormal(7))
+			)(createNormalSource(7))
 		);
 		const fit = fitKlaCorrelation(points);
 		// Independent: s² = Σ residual²/(n − 3) on ln kLa, SE = √(s²·[(XᵀX)⁻¹]ⱼⱼ), inverse by cofactors.
@@ -105,7 +93,7 @@ describe('fitting kLa = K·(P/V)^a·v_s^b', () => {
 		let heldA = 0;
 		let heldB = 0;
 		for (let seed = 1; seed <= 200; seed++) {
-			const normal = createSeededNormal(seed);
+			const normal = createNormalSource(seed);
 			const { intervals95 } = fitKlaCorrelation(grid(() => 0.1 * normal()));
 			if (intervals95!.a.low <= TRUE.a && TRUE.a <= intervals95!.a.high) heldA++;
 			if (intervals95!.b.low <= TRUE.b && TRUE.b <= intervals95!.b.high) heldB++;

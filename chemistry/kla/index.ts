@@ -1,0 +1,13 @@
+// kLa from DO records: the gassing-out test (./gassing-out.ts) and the dynamic method during a run.
+export { fitGassingOut } from './gassing-out';
+export { analyseDynamicMethod } from './dynamic-method';
+export { computeRemainingDeficitFraction } from './probe-response';
+export { MIN_KLA_POINTS, MAX_PERCENT_SATURATION } from './read';
+export type {
+	DissolvedOxygenUnit,
+	GassingOutInput,
+	GassingOutFit,
+	DynamicMethodSegment,
+	DynamicMethodInput,
+	DynamicMethodResult
+} from './types';
