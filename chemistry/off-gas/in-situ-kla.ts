@@ -6,7 +6,7 @@ import { ChemistryInputError } from '../errors';
 import { readNonNegative, readPositive } from '../input';
 import { O2_MOLAR_MASS_G_PER_MOL } from '../oxygen-saturation';
 
-export type DissolvedOxygenUnit = 'mmol/L' | 'mg/L';
+export type OxygenConcentrationUnit = 'mmol/L' | 'mg/L';
 
 export interface InSituKlaInput {
 	ourMmolPerLH: number;
@@ -14,7 +14,7 @@ export interface InSituKlaInput {
 	saturationConcentration: number;
 	/** C, the measured dissolved O2, in `concentrationUnit` */
 	dissolvedConcentration: number;
-	concentrationUnit: DissolvedOxygenUnit;
+	concentrationUnit: OxygenConcentrationUnit;
 }
 
 export interface InSituKla {
@@ -23,7 +23,7 @@ export interface InSituKla {
 	drivingForceMmolPerL: number;
 }
 
-function toMmolPerL(value: number, unit: DissolvedOxygenUnit): number {
+function toMmolPerL(value: number, unit: OxygenConcentrationUnit): number {
 	return unit === 'mg/L' ? value / O2_MOLAR_MASS_G_PER_MOL : value;
 }
 
