@@ -3,6 +3,7 @@
 // the feed streams' own table is in feed-stream-values.ts.
 import {
 	DEFAULT_OUTPUT_INTERVALS,
+	fieldLabel,
 	simulationRequestSchema,
 	type FeedInput,
 	type OperatingMode,
@@ -64,125 +65,134 @@ export const GROUP_LEGENDS: Record<FieldGroup, string> = {
 	operation: 'Operation'
 };
 
-export const NUMBER_FIELDS: NumberField[] = [
-	{ path: 'kinetics.muMaxPerH', label: 'μmax (1/h)', group: 'kinetics' },
-	{ path: 'kinetics.ksGPerL', label: 'Ks (g/L)', group: 'kinetics' },
+/**
+ * Each field with its unit; the label is the request field's own label (chemistry/field-labels.ts)
+ * and the unit, so a refusal names the field as the form shows it.
+ */
+const FIELDS_WITH_UNITS: (Omit<NumberField, 'label'> & { unit: string })[] = [
+	{ path: 'kinetics.muMaxPerH', unit: '1/h', group: 'kinetics' },
+	{ path: 'kinetics.ksGPerL', unit: 'g/L', group: 'kinetics' },
 	{
 		path: 'kinetics.yieldXS',
-		label: 'Yx/s (g biomass / g substrate)',
+		unit: 'g biomass / g substrate',
 		group: 'kinetics'
 	},
 	{
 		path: 'kinetics.maintenanceGPerGH',
-		label: 'Maintenance mₛ (g/g/h)',
+		unit: 'g/g/h',
 		group: 'kinetics',
 		hint: 'Optional; Pirt 1965'
 	},
 	{
 		path: 'kinetics.alpha',
-		label: 'Product α (g/g)',
+		unit: 'g/g',
 		group: 'kinetics',
 		hint: 'Optional; growth-associated'
 	},
 	{
 		path: 'kinetics.beta',
-		label: 'Product β (g/g/h)',
+		unit: 'g/g/h',
 		group: 'kinetics',
 		hint: 'Optional; non-growth'
 	},
-	{ path: 'initial.biomassGPerL', label: 'Biomass X₀ (g/L)', group: 'initial' },
-	{ path: 'initial.substrateGPerL', label: 'Substrate S₀ (g/L)', group: 'initial' },
-	{ path: 'initial.volumeL', label: 'Volume V₀ (L)', group: 'initial' },
+	{ path: 'initial.biomassGPerL', unit: 'g/L', group: 'initial' },
+	{ path: 'initial.substrateGPerL', unit: 'g/L', group: 'initial' },
+	{ path: 'initial.volumeL', unit: 'L', group: 'initial' },
 	{
 		path: 'initial.productGPerL',
-		label: 'Product P₀ (g/L)',
+		unit: 'g/L',
 		group: 'initial',
 		hint: 'Optional; default 0'
 	},
 	{
 		path: 'oxygen.kLaPerH',
-		label: 'kLa (1/h)',
+		unit: '1/h',
 		group: 'oxygen',
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'oxygen.saturationMgPerL',
-		label: 'DO saturation C* (mg/L)',
+		unit: 'mg/L',
 		group: 'oxygen',
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'kinetics.yieldXO2',
-		label: 'Yx/O₂ (g biomass / g O₂)',
+		unit: 'g biomass / g O₂',
 		group: 'oxygen',
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'kinetics.koMgPerL',
-		label: 'K_O (mg/L)',
+		unit: 'mg/L',
 		group: 'oxygen',
 		hint: 'Optional; 0 = growth ignores DO',
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'oxygen.maintenanceMgPerGH',
-		label: 'O₂ maintenance (mg/g/h)',
+		unit: 'mg/g/h',
 		group: 'oxygen',
 		hint: 'Optional',
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'initial.dissolvedOxygenMgPerL',
-		label: 'Initial DO (mg/L)',
+		unit: 'mg/L',
 		group: 'oxygen',
 		hint: 'Optional; default C*',
 		shows: (v) => v.oxygenBalance
 	},
 	{
 		path: 'dilutionPerH',
-		label: 'Dilution rate D (1/h)',
+		unit: '1/h',
 		group: 'operation',
 		shows: continuous
 	},
 	{
 		path: 'perfusion.retentionEfficiency',
-		label: 'Cell retention (fraction 0–1)',
+		unit: 'fraction 0–1',
 		group: 'operation',
 		shows: (v) => v.mode === 'perfusion'
 	},
 	{
 		path: 'perfusion.bleedPerH',
-		label: 'Bleed (vessel volumes/h)',
+		unit: 'vessel volumes/h',
 		group: 'operation',
 		shows: (v) => v.mode === 'perfusion'
 	},
 	{
 		path: 'drawFill.fraction',
-		label: 'Fraction drawn (0–1)',
+		unit: '0–1',
 		group: 'operation',
 		shows: (v) => v.mode === 'drawFill'
 	},
 	{
 		path: 'drawFill.everyH',
-		label: 'Draw every (h)',
+		unit: 'h',
 		group: 'operation',
 		shows: (v) => v.mode === 'drawFill'
 	},
 	{
 		path: 'maxVolumeL',
-		label: 'Maximum working volume (L)',
+		unit: 'L',
 		group: 'operation',
 		hint: 'The run stops there',
 		shows: fed
 	},
-	{ path: 'endH', label: 'End time (h)', group: 'operation' },
+	{ path: 'endH', unit: 'h', group: 'operation' },
 	{
 		path: 'outputEveryH',
-		label: 'Output every (h)',
+		unit: 'h',
 		group: 'operation',
 		hint: `Optional; blank gives at most ${DEFAULT_OUTPUT_INTERVALS.toLocaleString('en')} intervals`
 	}
 ];
+
+export const NUMBER_FIELDS: NumberField[] = FIELDS_WITH_UNITS.map(({ unit, ...field }) => ({
+	...field,
+	label: `${fieldLabel(field.path)} (${unit})`
+}));
 
 /** A bacterium on glucose, exponentially fed after an 8 h batch, with an O2 balance. */
 export function createDemoValues(): SimulationFormValues {
