@@ -1,5 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { expect, test } from './fixtures';
+import { simulateMonodBatch } from './monod-run';
 
 test.use({ role: 'engineer' });
 
@@ -183,16 +184,7 @@ test('the chemostat tab takes Pirt maintenance, shows its D_opt, and names a bad
 
 test('a run-data upload shows the bad row and still fits the rest', async ({ page }) => {
 	// Data from the model itself (Monod 1949 batch, μmax 0.6 /h), reported as OD at 0.5 g/L per OD.
-	const simulated = await page.request.post('/api/v1/simulate', {
-		data: {
-			mode: 'batch',
-			kinetics: { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5 },
-			initial: { biomassGPerL: 0.05, substrateGPerL: 10, volumeL: 2 },
-			endH: 14,
-			outputEveryH: 0.5
-		}
-	});
-	const run = await simulated.json();
+	const run = await simulateMonodBatch(page);
 	const rows = run.t.map(
 		(t: number, i: number) =>
 			`${t},${(run.biomassGPerL[i] / 0.5).toFixed(5)},${run.substrateGPerL[i].toFixed(5)}`

@@ -1,5 +1,6 @@
 import type { Locator, Page } from '@playwright/test';
 import { expect, test } from './fixtures';
+import { simulateMonodBatch } from './monod-run';
 
 test.use({ role: 'engineer' });
 
@@ -117,16 +118,7 @@ test('the growth-fit chart: biomass on a log axis that can be switched, measured
 	page
 }) => {
 	// Data from the model itself (Monod 1949 batch, μmax 0.6 /h), in g/L.
-	const simulated = await page.request.post('/api/v1/simulate', {
-		data: {
-			mode: 'batch',
-			kinetics: { muMaxPerH: 0.6, ksGPerL: 0.05, yieldXS: 0.5 },
-			initial: { biomassGPerL: 0.05, substrateGPerL: 10, volumeL: 2 },
-			endH: 14,
-			outputEveryH: 0.5
-		}
-	});
-	const run = await simulated.json();
+	const run = await simulateMonodBatch(page);
 	const rows = run.t.map(
 		(t: number, i: number) =>
 			`${t},${run.biomassGPerL[i].toFixed(5)},${run.substrateGPerL[i].toFixed(5)}`
