@@ -42,6 +42,7 @@ export * from './productivity';
 export * from './productivity-schema';
 export * from './growth-fit';
 export * from './kla';
+export * from './run';
 export * from './study';
 export * from './statistics';
 export * from './hazards';

@@ -11,3 +11,10 @@ export type {
 	DynamicMethodInput,
 	DynamicMethodResult
 } from './types';
+export {
+	BROTH_DENSITY_KG_PER_M3,
+	computeOperatingPoint,
+	type OperatingPoint as VesselOperatingPoint,
+	type OperatingPointInput,
+	type VesselGeometry
+} from './operating-point';

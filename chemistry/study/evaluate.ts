@@ -90,7 +90,7 @@ export function readOperatingPoint(inputs: StudyInputs, whatIf: WhatIf): Operati
 	const feedScale = plannedFeedL > 0 ? feedVolumeL / plannedFeedL : 0;
 	const feeds = inputs.feeds.map((f) => ({ ...f, volumeL: f.volumeL * feedScale }));
 
-	const vesselKLa = computeVesselKLa(vessel);
+	const vesselKLa = computeVesselKLa(vessel, plan.initialVolumeL);
 	const kLaPerH = whatIf.kLaPerH ?? vesselKLa.kLaPerH;
 	if (!(kLaPerH > 0) || kLaPerH > MAX_KLA_PER_H)
 		whatIfError(`kLa must be above 0 and at most ${MAX_KLA_PER_H} 1/h, not ${kLaPerH}.`, 'kLaPerH');
@@ -121,6 +121,7 @@ export function readOperatingPoint(inputs: StudyInputs, whatIf: WhatIf): Operati
 		feeds,
 		kLaPerH,
 		kLaOrigin,
+		kLaWarning: whatIf.kLaPerH === undefined ? vesselKLa.warning : null,
 		o2MoleFraction,
 		temperatureC
 	};
@@ -237,6 +238,12 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	const { plan } = inputs;
 	const log: ReportLog = { defaults: [], notes: [], reasons: [] };
 	const point = readOperatingPoint(inputs, whatIf);
+	if (inputs.vessel.kLaMode === 'map' && whatIf.kLaPerH === undefined)
+		log.defaults.push({
+			what: 'kLa',
+			value: `${Number(point.kLaPerH.toPrecision(3))} 1/h`,
+			source: point.kLaOrigin.replace(/^from /, 'From ')
+		});
 	const run = runStudyPlan(inputs, point, log);
 
 	const nutrients = assessNutrients(inputs, point, run, log);
@@ -257,7 +264,11 @@ export function evaluateStudy(inputs: StudyInputs, whatIf: WhatIf = {}): StudyRe
 	return {
 		verdict: log.reasons.length === 0 ? 'supported' : 'not supported',
 		reasons: log.reasons,
-		warnings: [...nutrients.sufficiency.warnings, ...runouts.warnings],
+		warnings: [
+			...(point.kLaWarning ? [point.kLaWarning] : []),
+			...nutrients.sufficiency.warnings,
+			...runouts.warnings
+		],
 		inputs: {
 			targetValue: point.targetValue,
 			targetBasis: plan.targetBasis,

@@ -18,6 +18,8 @@ export interface OperatingPoint {
 	feeds: StudyFeedSource[];
 	kLaPerH: number;
 	kLaOrigin: string;
+	/** the vessel's map was extrapolated to reach the plan, or null */
+	kLaWarning: string | null;
 	o2MoleFraction: number;
 	temperatureC: number;
 }

@@ -8,8 +8,11 @@ import type {
 	ProfileKind,
 	SubstrateYieldEntry,
 	TargetBasis,
+	VesselKlaMode,
 	YieldMethod
 } from './vocabulary';
+import type { KlaCorrelationFit } from '../kla-correlation';
+import type { VesselGeometry } from '../kla/operating-point';
 
 /** What one recipe version puts into a litre of itself. */
 export interface SupplyComposition {
@@ -81,7 +84,7 @@ export interface StudyVessel {
 	name: string;
 	minWorkingVolumeL: number;
 	maxWorkingVolumeL: number;
-	kLaMode: 'entered' | 'correlation';
+	kLaMode: VesselKlaMode;
 	kLaPerH: number | null;
 	/** kLa = k·(P/V)^a·(v_s)^b (van 't Riet 1979), P/V in W/m³, v_s in m/s; constants from the user. */
 	correlationK: number | null;
@@ -94,6 +97,17 @@ export interface StudyVessel {
 	maxPressureKPa: number;
 	coolingCapacityW: number;
 	agitationPowerW: number | null;
+	/** the vessel's fitted kLa map and where studies run it; null without three measured points */
+	klaMap: VesselKlaMap | null;
+}
+
+/** A vessel's measured kLa map, fitted (chemistry/kla-correlation.ts), and its planned operating point. */
+export interface VesselKlaMap {
+	correlation: Pick<KlaCorrelationFit, 'k' | 'a' | 'b' | 'measuredRange'>;
+	pointCount: number;
+	geometry: VesselGeometry | null;
+	plannedAgitationRpm: number | null;
+	plannedGasFlowLPerMin: number | null;
 }
 
 /** Everything an evaluation reads, already loaded: evaluation itself touches no database. */

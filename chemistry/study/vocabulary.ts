@@ -20,6 +20,10 @@ export type SubstrateYieldEntry =
 	| { componentId: string; method: 'entered'; yieldGPerG: number }
 	| { componentId: string; method: 'soleSource'; element: string; yieldGPerG: number };
 
+/** Where a vessel's kLa comes from: typed in, a correlation with the user's constants, or the vessel's measured map. */
+export const VESSEL_KLA_MODES = ['entered', 'correlation', 'map'] as const;
+export type VesselKlaMode = (typeof VESSEL_KLA_MODES)[number];
+
 export const TARGET_BASES = ['biomassGPerL', 'cellsPerMl'] as const;
 export type TargetBasis = (typeof TARGET_BASES)[number];
 

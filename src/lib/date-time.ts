@@ -88,3 +88,25 @@ export function isTimeZone(name: string): boolean {
 		return false;
 	}
 }
+
+/**
+ * The moment a wall-clock time "2026-12-03T14:05" in `timeZone` names, or null when it is not a
+ * date and time. Intl formats in a zone but does not parse in one (and Temporal is not in Node 20),
+ * so the zone's offset is read at a first guess and applied twice, which settles across a DST change.
+ */
+export function parseLocalDateTime(text: string, timeZone: string): Date | null {
+	const match = /^(\d{4})-(\d{2})-(\d{2})[T ](\d{2}):(\d{2})(?::(\d{2}))?$/.exec(text.trim());
+	if (!match) return null;
+	const [y, mo, d, h, mi, s] = match.slice(1).map((p) => Number(p ?? 0));
+	const wall = Date.UTC(y, mo - 1, d, h, mi, s);
+	const check = new Date(wall);
+	if (check.getUTCMonth() !== mo - 1 || check.getUTCDate() !== d || h > 23 || mi > 59 || s > 59)
+		return null;
+	const offsetAt = (ms: number) => {
+		const { date, time, seconds } = partsOf(ms, timeZone);
+		return Date.parse(`${date}T${time}:${seconds}Z`) - Math.floor(ms / 1000) * 1000;
+	};
+	let guess = wall - offsetAt(wall);
+	guess = wall - offsetAt(guess);
+	return new Date(guess);
+}

@@ -19,6 +19,7 @@ export const NAVIGATION: NavItem[] = [
 	{ href: '/lots', label: 'Lots', act: 'lot.view', section: 'Work' },
 	{ href: '/inventory', label: 'Inventory', act: 'inventory.manage', section: 'Work' },
 	{ href: '/studies', label: 'Studies', act: 'study.use', section: 'Work' },
+	{ href: '/runs', label: 'Runs', act: 'run.view', section: 'Work' },
 	{ href: '/organisms', label: 'Organisms', act: 'study.use', section: 'Work' },
 	{ href: '/vessels', label: 'Vessels', act: 'study.use', section: 'Work' },
 	{ href: '/admin/people', label: 'People', act: 'admin.people', section: 'Administration' },

@@ -25,6 +25,8 @@ export const PERMISSIONS = {
 	'study.use': ['engineer', 'media_scientist'], // studies, organism profiles and vessels
 	// Both uses studies and writes recipe drafts: the roles in both 'study.use' and 'recipe.edit'.
 	'study.save-feed-drafts': ['media_scientist'],
+	'run.view': 'signed-in', // runs, their data, charts and printed summaries
+	'run.record': ['engineer', 'media_scientist'], // start and end runs, link batches, upload or push data, kLa measurements
 
 	'lot.view': 'signed-in', // lots, ledgers, certificates, labels, recall, where-used
 	'lot.receive': ['inventory_lead'], // receive a lot (form, CSV import, API)

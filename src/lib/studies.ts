@@ -5,6 +5,7 @@ import {
 	YIELD_METHOD_LABELS,
 	TARGET_BASES,
 	FEED_PLAN_STRATEGIES,
+	VESSEL_KLA_MODES,
 	isControlledPlan,
 	type OrganismGroup,
 	type ProfileKind,
@@ -12,7 +13,8 @@ import {
 	type SubstrateYieldEntry,
 	type TargetBasis,
 	type FeedPlanStrategy,
-	type FeedPlan
+	type FeedPlan,
+	type VesselKlaMode
 } from '$chemistry';
 
 // Study vocabulary shared by server and pages; no server code here. The lists and types the science
@@ -24,6 +26,7 @@ export {
 	YIELD_METHOD_LABELS,
 	TARGET_BASES,
 	FEED_PLAN_STRATEGIES,
+	VESSEL_KLA_MODES,
 	isControlledPlan
 };
 export type {
@@ -33,7 +36,8 @@ export type {
 	SubstrateYieldEntry,
 	TargetBasis,
 	FeedPlanStrategy,
-	FeedPlan
+	FeedPlan,
+	VesselKlaMode
 };
 
 export const ORGANISM_GROUP_LABELS: Record<OrganismGroup, string> = {

@@ -36,23 +36,38 @@ test.describe('recipe editor layout', () => {
 	}, testInfo) => {
 		await page.setViewportSize({ width: 1024, height: 768 });
 		await editorWithLines(page);
-		const component = await topOf(page, 'Line 2: component');
-		for (const label of [
-			'Line 2: amount',
-			'Line 2: unit',
-			'Line 2: tolerance ±%',
-			'Line 2: note'
-		]) {
-			const box = await topOf(page, label);
-			expect(Math.abs(box.y - component.y), `${label} on the row of the component`).toBeLessThan(4);
-		}
-		const remove = await page.getByRole('button', { name: 'Remove line 2' }).boundingBox();
-		expect(Math.abs(remove!.y - component.y)).toBeLessThan(4);
-		const line = await page.getByTestId('line').nth(1).boundingBox();
-		// one row of fields, with the value as read in small type below the numbers
-		expect(line!.height).toBeLessThan(110);
-		expect(await noSideScroll(page)).toBe(true);
+		// Let the live analysis land first: it changes what sits above the lines.
 		await expect(page.getByTestId('analysis-summary')).toContainText(/Analysis: ≈ \d+ mOsm\/kg/);
+		// Every top is read in one synchronous pass, relative to its own line, so neither a scroll nor
+		// a late notice between two reads can move one field and not the other.
+		const line = page.getByTestId('line').nth(1);
+		const offsets = await line.evaluate((row) => {
+			const rowTop = row.getBoundingClientRect().top;
+			const topOf = (selector: string) => {
+				const el = row.querySelector(selector);
+				return el ? el.getBoundingClientRect().top - rowTop : null;
+			};
+			return {
+				component: topOf('input[role="combobox"]'),
+				amount: topOf('input[name$=".amount"]'),
+				unit: topOf('input[name$=".unit"]:not([type="hidden"])'),
+				tolerance: topOf('input[name$=".tolerancePercent"]'),
+				note: topOf('input[name$=".note"]'),
+				remove: topOf('button[aria-label="Remove line 2"]'),
+				height: row.getBoundingClientRect().height
+			};
+		});
+		expect(offsets.component, 'the component field').not.toBeNull();
+		for (const key of ['amount', 'unit', 'tolerance', 'note', 'remove'] as const) {
+			expect(offsets[key], `${key} in line 2`).not.toBeNull();
+			expect(
+				Math.abs(offsets[key]! - offsets.component!),
+				`${key} on the row of the component`
+			).toBeLessThan(4);
+		}
+		// one row of fields, with the value as read in small type below the numbers
+		expect(offsets.height).toBeLessThan(110);
+		expect(await noSideScroll(page)).toBe(true);
 		await shoot(page, testInfo, 'editor-1024.png');
 	});
 

@@ -54,6 +54,7 @@ export function vesselOf(overrides: Partial<StudyVessel> = {}): StudyVessel {
 		maxPressureKPa: 200,
 		coolingCapacityW: 2000,
 		agitationPowerW: 50,
+		klaMap: null,
 		...overrides
 	};
 }

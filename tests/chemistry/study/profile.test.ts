@@ -154,8 +154,8 @@ describe('the vessel', () => {
 			powerPerVolumeWPerM3: 1000,
 			superficialVelocityMPerS: 0.01
 		});
-		expect(computeVesselKLa(vessel).kLaPerH).toBeCloseTo(148.346, 3);
-		const lacking = errorOf(() => computeVesselKLa({ ...vessel, correlationB: null }));
+		expect(computeVesselKLa(vessel, 5).kLaPerH).toBeCloseTo(148.346, 3);
+		const lacking = errorOf(() => computeVesselKLa({ ...vessel, correlationB: null }, 5));
 		expect(lacking).toBeInstanceOf(StudyDataError);
 		expect(lacking.field).toBe('vessel.correlationK');
 	});

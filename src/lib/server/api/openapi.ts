@@ -8,6 +8,7 @@ import { batchesOperations } from './operations/batches';
 import { recipesOperations } from './operations/recipes';
 import { simulationOperations } from './operations/simulation';
 import { studiesOperations } from './operations/studies';
+import { runsOperations } from './operations/runs';
 
 export interface ApiOperation {
 	method: 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -63,6 +64,7 @@ export function allOperations(): ApiOperation[] {
 		...inventoryOperations,
 		...batchesOperations,
 		...studiesOperations,
+		...runsOperations,
 		...auditOperations
 	];
 }

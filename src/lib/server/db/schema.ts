@@ -172,3 +172,4 @@ export * from './simulation.schema';
 export * from './inventory.schema';
 export * from './batches.schema';
 export * from './studies.schema';
+export * from './runs.schema';

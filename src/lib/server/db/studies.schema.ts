@@ -2,6 +2,7 @@ import { index, integer, real, sqliteTable, text } from 'drizzle-orm/sqlite-core
 import type { ElementStatements, PerCellConsumption } from '$chemistry';
 import type {
 	FeedPlanStrategy,
+	VesselKlaMode,
 	OrganismGroup,
 	ProfileKind,
 	SubstrateYieldEntry,
@@ -69,7 +70,7 @@ export const vessel = sqliteTable('vessel', {
 	name: text('name').notNull().unique(),
 	minWorkingVolumeL: real('min_working_volume_l').notNull(),
 	maxWorkingVolumeL: real('max_working_volume_l').notNull(),
-	kLaMode: text('kla_mode').$type<'entered' | 'correlation'>().notNull(),
+	kLaMode: text('kla_mode').$type<VesselKlaMode>().notNull(),
 	kLaPerH: real('kla_per_h'),
 	/** kLa = k·(P/V)^a·(v_s)^b (van 't Riet 1979), P/V in W/m³, v_s in m/s; constants from the user. */
 	correlationK: real('correlation_k'),
@@ -86,6 +87,15 @@ export const vessel = sqliteTable('vessel', {
 	temperatureC: real('temperature_c').notNull(),
 	coolingCapacityW: real('cooling_capacity_w').notNull(),
 	agitationPowerW: real('agitation_power_w'),
+	/** For the kLa map: the geometry that turns a stirrer speed into P/V and a gas flow into v_s. */
+	vesselDiameterM: real('vessel_diameter_m'),
+	impellerDiameterM: real('impeller_diameter_m'),
+	impellerCount: integer('impeller_count').notNull().default(1),
+	/** null: the common-practice default (chemistry/kla-correlation.ts RUSHTON_POWER_NUMBER) */
+	powerNumber: real('power_number'),
+	/** Where studies run the vessel: the map gives their kLa at this stirrer speed and gas flow. */
+	plannedAgitationRpm: real('planned_agitation_rpm'),
+	plannedGasFlowLPerMin: real('planned_gas_flow_l_per_min'),
 	notes: text('notes').notNull().default(''),
 	isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
 	revision: integer('revision').notNull().default(1),

@@ -198,6 +198,12 @@ export const DEMO_VESSELS: VesselForm[] = [
 		temperatureC: 30,
 		coolingCapacityW: 600,
 		agitationPowerW: 30,
+		vesselDiameterM: 0.2,
+		impellerDiameterM: 0.07,
+		impellerCount: 2,
+		powerNumber: null,
+		plannedAgitationRpm: 800,
+		plannedGasFlowLPerMin: 8,
 		notes: DEMO_NOTE
 	},
 	{
@@ -217,6 +223,12 @@ export const DEMO_VESSELS: VesselForm[] = [
 		temperatureC: 37,
 		coolingCapacityW: 8000,
 		agitationPowerW: 400,
+		vesselDiameterM: 0.55,
+		impellerDiameterM: 0.18,
+		impellerCount: 2,
+		powerNumber: 5.5,
+		plannedAgitationRpm: 300,
+		plannedGasFlowLPerMin: 150,
 		notes: `${DEMO_NOTE} Correlation constants as for coalescing broth in van 't Riet's form; P/V and gas velocity at the usual operating point.`
 	}
 ];

@@ -19,7 +19,7 @@ export async function loadStudyReport(id: string) {
 	}
 	let vesselKLaPerH: number | null = null;
 	try {
-		vesselKLaPerH = computeVesselKLa(inputs.vessel).kLaPerH;
+		vesselKLaPerH = computeVesselKLa(inputs.vessel, inputs.plan.initialVolumeL).kLaPerH;
 	} catch {
 		vesselKLaPerH = null;
 	}

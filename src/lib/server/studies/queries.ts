@@ -13,6 +13,7 @@ import {
 import { listComponents, molarMassOfComponent } from '../components/library';
 import { analyseVersion } from '../recipes/analysis';
 import { RuleError } from '../rule-error';
+import { toStudyVessel } from '../vessels/kla-map';
 import type { StudyInputs, SupplyComposition } from './types';
 
 type Reader = Pick<Db, 'select'>;
@@ -135,7 +136,10 @@ export function loadStudyInputs(
 		.from(organismProfile)
 		.where(eq(organismProfile.id, row.profileId))
 		.get()!;
-	const vesselRow = reader.select().from(vessel).where(eq(vessel.id, row.vesselId)).get()!;
+	const vesselRow = toStudyVessel(
+		reader.select().from(vessel).where(eq(vessel.id, row.vesselId)).get()!,
+		reader
+	);
 	const versions = describeVersions([row.basalVersionId, ...feeds.map((f) => f.versionId)], reader);
 	const components = new Map(listComponents(reader).map((c) => [c.id, c]));
 	const basal = composeVersion(row.basalVersionId, components, reader);

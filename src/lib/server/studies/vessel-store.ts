@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { MAX_KLA_PER_H, STUDY_TEMPERATURE_RANGE_C } from '$chemistry';
+import { MAX_KLA_PER_H, STUDY_TEMPERATURE_RANGE_C, VESSEL_KLA_MODES } from '$chemistry';
 import { changesBetween, recordAudit, type Actor } from '../audit';
 import { db } from '../db';
 import { vessel, type VesselRow } from '../db/schema';
@@ -11,7 +11,9 @@ export const vesselSchema = z.object({
 	name: requiredText('Name'),
 	minWorkingVolumeL: requiredNumber('Minimum working volume', { gt: 0, unit: 'L' }),
 	maxWorkingVolumeL: requiredNumber('Maximum working volume', { gt: 0, max: 100000, unit: 'L' }),
-	kLaMode: z.enum(['entered', 'correlation'], { error: 'Choose entered or correlation' }),
+	kLaMode: z.enum(VESSEL_KLA_MODES, {
+		error: 'Choose entered, correlation or the measured map'
+	}),
 	kLaPerH: optionalNumber('kLa', { gt: 0, max: MAX_KLA_PER_H, unit: '1/h' }),
 	correlationK: optionalNumber('k', { gt: 0 }),
 	correlationA: optionalNumber('a', { min: 0, max: 2 }),
@@ -36,6 +38,15 @@ export const vesselSchema = z.object({
 	}),
 	coolingCapacityW: requiredNumber('Cooling capacity', { gt: 0, unit: 'W' }),
 	agitationPowerW: optionalNumber('Agitation power', { min: 0, unit: 'W' }),
+	vesselDiameterM: optionalNumber('Vessel inner diameter', { gt: 0, max: 20, unit: 'm' }),
+	impellerDiameterM: optionalNumber('Impeller diameter', { gt: 0, max: 10, unit: 'm' }),
+	impellerCount: requiredNumber('Number of impellers', { min: 1, max: 10 }).refine(
+		(n) => Number.isInteger(n),
+		'Number of impellers must be a whole number'
+	),
+	powerNumber: optionalNumber('Impeller power number', { gt: 0, max: 20 }),
+	plannedAgitationRpm: optionalNumber('Planned stirrer speed', { gt: 0, max: 5000, unit: 'rpm' }),
+	plannedGasFlowLPerMin: optionalNumber('Planned gas flow', { gt: 0, max: 100000, unit: 'L/min' }),
 	notes: optionalText()
 });
 
@@ -48,6 +59,27 @@ export function checkVessel(form: VesselForm): VesselForm {
 		});
 	if (form.kLaMode === 'entered' && form.kLaPerH === null)
 		throw new RuleError('Enter the kLa, or choose the correlation.', { field: 'kLaPerH' });
+	if (
+		form.impellerDiameterM !== null &&
+		form.vesselDiameterM !== null &&
+		form.impellerDiameterM >= form.vesselDiameterM
+	)
+		throw new RuleError('The impeller diameter must be smaller than the vessel diameter.', {
+			field: 'impellerDiameterM'
+		});
+	if (form.kLaMode === 'map') {
+		for (const [key, label] of [
+			['vesselDiameterM', 'the vessel diameter'],
+			['impellerDiameterM', 'the impeller diameter'],
+			['plannedAgitationRpm', 'the planned stirrer speed'],
+			['plannedGasFlowLPerMin', 'the planned gas flow']
+		] as const) {
+			if (form[key] === null)
+				throw new RuleError(`The measured kLa map needs ${label} to give a study its kLa.`, {
+					field: key
+				});
+		}
+	}
 	if (form.kLaMode === 'correlation') {
 		for (const key of [
 			'correlationK',

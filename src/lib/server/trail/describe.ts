@@ -120,7 +120,21 @@ const SENTENCES: Record<string, Sentence> = {
 	'study.updated': (_, s) => `Changed study ${s}`,
 	'study.deleted': (d, s) => `Deleted study ${text(d.name) || s}`,
 	'vessel.created': (d, s) => `Added vessel ${text(d.name) || s}`,
-	'vessel.updated': (_, s) => `Changed vessel ${s}`
+	'vessel.updated': (_, s) => `Changed vessel ${s}`,
+	'vessel.kla_point_added': (d, s) =>
+		`Added a kLa of ${text(d.kLaPerH)} 1/h at ${text(d.agitationRpm)} rpm and ${text(d.gasFlowLPerMin)} L/min to the map of vessel ${s}`,
+	'vessel.kla_point_removed': (d, s) =>
+		`Removed the kLa of ${text(d.kLaPerH)} 1/h measured ${text(d.measuredOn)} from the map of vessel ${s}${because(d)}`,
+	'run.created': (d, s) => `Started run ${s || text(d.number)}`,
+	'run.updated': (_, s) => `Changed run ${s}`,
+	'run.closed': (_, s) => `Ended run ${s}`,
+	'run.reopened': (d, s) => `Reopened run ${s}${because(d)}`,
+	'run.batch_linked': (d, s) => `Linked batch ${text(d.batchNumber)} (${text(d.role)}) to run ${s}`,
+	'run.batch_unlinked': (d, s) => `Unlinked batch ${text(d.batchNumber)} from run ${s}${because(d)}`,
+	'run.data_added': (d, s) =>
+		`Added ${plural(d.inserted, 'point')} to run ${s} from ${d.source === 'api' ? 'the API' : `the file ${text(d.fileName)}`}${typeof d.replaced === 'number' && d.replaced > 0 ? `, replacing ${plural(d.replaced, 'point')}` : ''}`,
+	'profile.learned_from_run': (d, s) =>
+		`Saved growth values fitted to run ${text(d.runNumber)} to profile ${s} (${text(d.fields)})`
 };
 
 for (const [status, word] of Object.entries(STATUS_WORDS)) {

@@ -9,6 +9,7 @@ import {
 	organismProfile,
 	recipe,
 	recipeVersion,
+	run,
 	simulationScenario,
 	study,
 	user,
@@ -121,6 +122,16 @@ const KINDS: Record<string, SubjectKind> = {
 				.where(inArray(study.id, ids))
 				.all()
 				.map((r) => ({ ...r, href: `/studies/${r.id}` }))
+	},
+	run: {
+		typeLabel: 'Run',
+		find: (ids) =>
+			db
+				.select({ id: run.id, label: run.number })
+				.from(run)
+				.where(inArray(run.id, ids))
+				.all()
+				.map((r) => ({ ...r, href: `/runs/${r.id}` }))
 	},
 	vessel: {
 		typeLabel: 'Vessel',

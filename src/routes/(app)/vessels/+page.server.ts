@@ -1,5 +1,6 @@
 import { requirePermission } from '$lib/server/guard';
 import { listVessels } from '$lib/server/studies/queries';
+import { toStudyVessel } from '$lib/server/vessels/kla-map';
 import { StudyDataError, computeVesselKLa } from '$chemistry';
 import type { PageServerLoad } from './$types';
 
@@ -9,7 +10,8 @@ export const load: PageServerLoad = async () => {
 		vessels: listVessels().map((v) => {
 			let kLaPerH: number | null = null;
 			try {
-				kLaPerH = computeVesselKLa(v).kLaPerH;
+				// the map's kLa at the vessel's largest working volume, as a single figure for the list
+				kLaPerH = computeVesselKLa(toStudyVessel(v), v.maxWorkingVolumeL).kLaPerH;
 			} catch (cause) {
 				if (!(cause instanceof StudyDataError)) throw cause;
 			}

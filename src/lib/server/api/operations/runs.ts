@@ -1,0 +1,119 @@
+import { z } from 'zod';
+import { RUN_SIGNAL_NAMES, TIME_COLUMNS, type RunSignal } from '$lib/runs/signals';
+import { RUN_STATES } from '$lib/runs/states';
+import { pagingFields } from '../../list-paging';
+import { RUN_SORTS, type RunListRow } from '../../runs/run-list';
+import { CONFLICT_RULES, type StoreOutcome } from '../../runs/store-points';
+import type { ApiOperation } from '../openapi';
+import { describes, isoTime } from '../shapes';
+
+export const runListQuery = z.object({
+	q: z
+		.string()
+		.max(120)
+		.optional()
+		.describe('Part of the run number or name, the study or the vessel'),
+	...pagingFields(RUN_SORTS, { sort: 'startedAt', dir: 'desc' })
+});
+
+export const runListResponse = describes<{
+	runs: RunListRow[];
+	total: number;
+	page: number;
+	limit: number;
+}>()(
+	z.object({
+		runs: z.array(
+			z.object({
+				id: z.string(),
+				number: z.string(),
+				name: z.string(),
+				state: z.enum(RUN_STATES),
+				startedAt: isoTime(),
+				endedAt: isoTime().nullable(),
+				studyId: z.string(),
+				studyName: z.string(),
+				vesselName: z.string(),
+				profileName: z.string()
+			})
+		),
+		total: z.number(),
+		page: z.number(),
+		limit: z.number()
+	})
+);
+
+const point = z
+	.record(z.string(), z.union([z.number(), z.string(), z.null()]))
+	.describe(
+		`One time and its readings: exactly one time key (${Object.keys(TIME_COLUMNS).join(', ')}: elapsed since the run started, or an ISO 8601 timestamp with its zone) and any of the signals ${RUN_SIGNAL_NAMES.join(', ')}; a missing or null signal is not read at that time`
+	);
+
+export const runDataRequest = z.strictObject({
+	points: z
+		.array(point)
+		.min(1, 'Send at least one point.')
+		.max(100_000, 'Send at most 100,000 points at a time.')
+		.describe('In rising time order; a point out of order is refused with its index'),
+	onConflict: z
+		.enum(CONFLICT_RULES)
+		.default('refuse')
+		.describe(
+			'A point already stored at that time with the same value is left as it is. With another value: refuse (409, nothing stored) or replace'
+		)
+});
+
+export const runDataResponse = describes<StoreOutcome>()(
+	z.object({
+		uploadId: z.string(),
+		inserted: z.number(),
+		unchanged: z.number().describe('points resent with the value already stored'),
+		replaced: z.number(),
+		signals: z.array(z.enum(RUN_SIGNAL_NAMES as [RunSignal, ...RunSignal[]]))
+	})
+);
+
+export const runDataQuery = z.object({
+	format: z.enum(['json', 'csv']).default('json').describe('csv: every point, one row per time'),
+	page: z.coerce.number().int().min(1).default(1),
+	limit: z.coerce.number().int().min(1).max(500).default(50)
+});
+
+export const runsOperations: ApiOperation[] = [
+	{
+		method: 'get',
+		path: '/api/v1/runs',
+		summary: 'Lists runs with their plan, vessel and organism, a page at a time',
+		act: 'run.view',
+		query: runListQuery,
+		response: runListResponse
+	},
+	{
+		method: 'get',
+		path: '/api/v1/runs/{id}/data',
+		summary:
+			"A page of a run's data, one row per time with every signal read then; with format=csv, all of it as a CSV file in the upload's own columns",
+		act: 'run.view',
+		query: runDataQuery,
+		responseDescription: '{ total, page, limit, signals, rows: [{ timeS, values }] }, or text/csv'
+	},
+	{
+		method: 'post',
+		path: '/api/v1/runs/{id}/data',
+		summary:
+			'Adds data to a run: JSON points, or a CSV file sent as text/csv (the upload columns). The whole request is checked first and nothing is stored unless all of it is valid; resent points with the same value are left as they are; another value at a stored time is refused (409) unless onConflict is replace (JSON) or ?onConflict=replace (CSV)',
+		act: 'run.record',
+		request: runDataRequest,
+		response: runDataResponse,
+		successStatus: 201,
+		errors: [404, 409, 422]
+	},
+	{
+		method: 'get',
+		path: '/api/v1/runs/{id}/analysis',
+		summary:
+			"The run against its plan, recomputed from the stored data: the plan's time course, the run's signals thinned for charts, OUR, CER, RQ and in situ kLa from off-gas, flags where the run parts from the plan, the projection to the target and the oxygen limit, and growth values fitted to the run",
+		act: 'run.view',
+		responseDescription: 'The analysis the run page draws'
+	}
+];
