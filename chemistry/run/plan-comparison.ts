@@ -80,6 +80,7 @@ const h = (x: number) => `${Number(x.toFixed(1))} h`;
 function growthFlags(plan: PlannedCourse, biomass: TimeSeries, margin: number) {
 	const flags: ComparisonFlag[] = [];
 	let latestRatio: number | null = null;
+	let latestH: number | null = null;
 	const course = { timeH: plan.timeH, value: plan.biomassGPerL };
 	const lastPlanH = plan.timeH[plan.timeH.length - 1];
 	for (let i = 0; i < biomass.timeH.length; i++) {
@@ -88,10 +89,10 @@ function growthFlags(plan: PlannedCourse, biomass: TimeSeries, margin: number) {
 		const planned = interpolateAt(course, t);
 		if (planned === null || !(planned > 0)) continue;
 		latestRatio = biomass.value[i] / planned;
+		latestH = t;
 	}
-	const n = biomass.timeH.length;
-	if (latestRatio !== null && n > 0) {
-		const t = biomass.timeH[n - 1];
+	if (latestRatio !== null && latestH !== null) {
+		const t = latestH;
 		const percent = Math.round((latestRatio - 1) * 100);
 		if (latestRatio > 1 + margin)
 			flags.push({
@@ -119,12 +120,25 @@ function plannedDepletionH(plan: PlannedCourse, threshold: number): number | nul
  * μ from the latest data: ln X over the last samples (at least 3 within the last 12 h) or, when
  * there are too few, ln OUR over the last 2 h (OUR rises with X in unlimited growth).
  */
-function currentGrowthRate(
-	actual: RunActual
-): { muPerH: number; basis: string; fromH: number; x: number | null; our: number | null } | null {
+interface GrowthNow {
+	muPerH: number;
+	basis: string;
+	fromH: number;
+	/** the latest X and when it was sampled */
+	x: { value: number; atH: number } | null;
+	/** the latest OUR and when it was logged: the oxygen limit is projected from its own time */
+	our: { value: number; atH: number } | null;
+}
+
+const latest = (s: TimeSeries | null | undefined) =>
+	s && s.value.length
+		? { value: s.value[s.value.length - 1], atH: s.timeH[s.timeH.length - 1] }
+		: null;
+
+function currentGrowthRate(actual: RunActual): GrowthNow | null {
 	const x = actual.biomassGPerL;
 	const our = actual.ourMmolPerLH;
-	const latestOur = our && our.value.length ? our.value[our.value.length - 1] : null;
+	const latestOur = latest(our);
 	if (x && x.timeH.length >= 3) {
 		const last = x.timeH[x.timeH.length - 1];
 		const idx = x.timeH.map((t, i) => i).filter((i) => x.timeH[i] >= last - 12 && x.value[i] > 0);
@@ -137,7 +151,7 @@ function currentGrowthRate(
 				muPerH: fit.slope,
 				basis: `ln X over the last ${idx.length} samples`,
 				fromH: last,
-				x: x.value[x.value.length - 1],
+				x: latest(x),
 				our: latestOur
 			};
 		}
@@ -156,7 +170,7 @@ function currentGrowthRate(
 				muPerH: fit.slope,
 				basis: `ln OUR over the last 2 h (${idx.length} points)`,
 				fromH: last,
-				x: x && x.value.length ? x.value[x.value.length - 1] : null,
+				x: latest(x),
 				our: latestOur
 			};
 		}
@@ -170,14 +184,15 @@ export function projectRun(plan: PlannedCourse, actual: RunActual): RunProjectio
 	const { muPerH, fromH, x, our } = growth;
 	const growing = muPerH > 1e-6;
 	const targetAtH =
-		growing && x !== null && x > 0 && x < plan.targetBiomassGPerL
-			? fromH + Math.log(plan.targetBiomassGPerL / x) / muPerH
+		growing && x !== null && x.value > 0 && x.value < plan.targetBiomassGPerL
+			? x.atH + Math.log(plan.targetBiomassGPerL / x.value) / muPerH
 			: null;
+	const maxOtr = plan.maxOtrMmolPerLH;
 	const oxygenLimitAtH =
-		growing && our !== null && our > 0 && plan.maxOtrMmolPerLH !== null
-			? our >= plan.maxOtrMmolPerLH
-				? fromH
-				: fromH + Math.log(plan.maxOtrMmolPerLH / our) / muPerH
+		growing && our !== null && our.value > 0 && maxOtr !== null
+			? our.value >= maxOtr
+				? our.atH
+				: our.atH + Math.log(maxOtr / our.value) / muPerH
 			: null;
 	return { muPerH, basis: growth.basis, fromH, targetAtH, oxygenLimitAtH };
 }

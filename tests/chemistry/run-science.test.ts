@@ -258,9 +258,9 @@ describe('projectRun', () => {
 		expect(flat.targetAtH).toBeNull();
 	});
 
-	// Fails today: μ and `fromH` come from the last dry-weight sample (4 h) but OUR is its latest
-	// reading (6 h), so the OUR of 6 h is projected as if read at 4 h: the limit comes 2 h early.
-	it.fails('projects the oxygen limit from the time of the OUR it starts from', () => {
+	// μ comes from the dry-weight samples (to 4 h) and OUR from its latest reading (6 h): the OUR of
+	// 6 h must be projected from 6 h, or the limit would come 2 h early.
+	it('projects the oxygen limit from the time of the OUR it starts from', () => {
 		const mu = 0.25;
 		const sampleH = [0, 1, 2, 3, 4];
 		const ourH = Array.from({ length: 61 }, (_, i) => i * 0.1);

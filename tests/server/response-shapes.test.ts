@@ -6,6 +6,7 @@ import { allOperations } from '$lib/server/api/openapi';
 import { db } from '$lib/server/db';
 import { batch, batchLine, recipe, recipeVersion, study } from '$lib/server/db/schema';
 import { saveScenario } from '$lib/server/scenarios';
+import { createRun } from '$lib/server/runs/run-store';
 import { callJson } from './endpoint-call';
 import { makeUser } from './helpers';
 import { useDemoDatabase } from './demo-database';
@@ -60,6 +61,7 @@ let approvedN: string;
 let approvedVersionId: string;
 let lotId: string;
 let batchId: string;
+let runId: string;
 
 // A feed for the demo bacterium study that needs two feeds (calcium apart from phosphate).
 const feedRequest = {
@@ -257,9 +259,20 @@ const calls: Record<string, () => Promise<Response>> = {
 			`/api/v1/studies/${studyId}/feed-design/drafts`,
 			{ ...feedRequest, names: [`Shapes feed A ${++draftRound}`, `Shapes feed B ${draftRound}`] },
 			{ user, params: { id: studyId } }
+		),
+	'get /api/v1/runs': get('/api/v1/runs'),
+	'post /api/v1/runs/{id}/data': async () =>
+		callJson(
+			(await route('/api/v1/runs/[id]/data')).POST,
+			'post',
+			`/api/v1/runs/${runId}/data`,
+			// a new time each call, so the check can run again without a clash
+			{ points: [{ time_s: ++dataRound * 60, do_percent: 80, ph: 7 }] },
+			{ user, params: { id: runId } }
 		)
 };
 let draftRound = 0;
+let dataRound = 0;
 
 const documented = allOperations().filter((op) => op.response !== undefined);
 
@@ -297,6 +310,20 @@ beforeAll(async () => {
 		.from(batchLine)
 		.where(and(eq(batchLine.batchId, batchId), isNotNull(batchLine.lotId)))
 		.get()!.lotId!;
+	runId = createRun(
+		{ id: user.id, email: user.email },
+		{
+			name: 'Shapes run',
+			studyId,
+			vesselId: '',
+			profileId: '',
+			startedAt: '2026-12-01T08:00',
+			gasReferenceTemperatureC: 0,
+			gasReferencePressureKPa: 101.325,
+			people: '',
+			notes: ''
+		}
+	).id;
 });
 
 describe('every documented response schema describes a real answer', () => {

@@ -103,10 +103,7 @@ export const runBatch = sqliteTable(
 			.references(() => user.id),
 		addedAt: createdAt()
 	},
-	(t) => [
-		primaryKey({ columns: [t.runId, t.batchId] }),
-		index('run_batch_batch_idx').on(t.batchId)
-	]
+	(t) => [primaryKey({ columns: [t.runId, t.batchId] }), index('run_batch_batch_idx').on(t.batchId)]
 );
 
 /**

@@ -1,5 +1,6 @@
 import { recordAudit } from '../audit';
 import { createUser, findUserByEmail } from '../people';
+import { seedDemoRuns } from './runs';
 import { seedReferenceLibrary } from '../components/reference-library';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './accounts';
 import { seedDemoInventory } from './inventory';
@@ -31,5 +32,6 @@ export async function seedDemo(): Promise<number> {
 	added += await seedDemoRecipes();
 	added += await seedDemoInventory();
 	added += await seedDemoStudies();
+	added += seedDemoRuns();
 	return added;
 }

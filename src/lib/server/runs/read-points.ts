@@ -116,8 +116,18 @@ function readTime(raw: unknown, column: TimeColumn, startedAtMs: number): number
 	return value * TIME_COLUMNS[column];
 }
 
-const formatTime = (s: number) =>
-	Math.abs(s) >= 3600 ? `${Number((s / 3600).toFixed(4))} h` : `${Number(s.toFixed(3))} s`;
+const TIME_UNIT_WORDS: Record<TimeColumn, string> = {
+	time_s: 's',
+	time_min: 'min',
+	time_h: 'h',
+	timestamp: 'h after the start'
+};
+
+/** A time as the file wrote it: in its own column's unit. */
+function formatTime(seconds: number, column: TimeColumn): string {
+	const perUnit = TIME_COLUMNS[column] ?? 3600;
+	return `${Number((seconds / perUnit).toPrecision(10))} ${TIME_UNIT_WORDS[column]}`;
+}
 
 /**
  * The DO a row may read: saturation with the gas in use. A probe calibrated to 100 % in air reads
@@ -197,7 +207,7 @@ export function readRows(
 			add({
 				row: rowNumber,
 				column: timeColumn,
-				message: `Row ${rowNumber}: time ${formatTime(time)} is not after the row before (${formatTime(previousS)}); times must rise from row to row.`
+				message: `Row ${rowNumber}: time ${formatTime(time, timeColumn)} is not after the row before (${formatTime(previousS, timeColumn)}); times must rise from row to row.`
 			});
 		}
 		previousS = time;
@@ -268,6 +278,18 @@ export function readRunCsv(text: string, startedAtMs: number): ReadResult {
 				}
 			]
 		};
+	// Papa Parse renames a repeated column (do_percent, do_percent_1); the header as written says which.
+	const written = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { preview: 1 }).data[0] ?? [];
+	const twice = written.map((c) => c.trim()).filter((c, i, all) => c && all.indexOf(c) !== i);
+	if (twice.length)
+		return {
+			ok: false,
+			problems: [...new Set(twice)].map((name) => ({
+				row: 0,
+				column: name,
+				message: `Column “${name}” is given twice.`
+			}))
+		};
 	return readRows(parsed.meta.fields ?? [], parsed.data, startedAtMs);
 }
 
@@ -284,7 +306,10 @@ export function readPointObjects(
 		ok: false,
 		problems: result.problems.map((p) => ({
 			...p,
-			message: p.message.replace(/^Row (\d+)/, 'Point $1')
+			message: p.message
+				.replace(/^Row (\d+)/, 'Point $1')
+				.replace('the row before', 'the point before')
+				.replace('from row to row', 'from point to point')
 		}))
 	};
 }

@@ -1,6 +1,6 @@
 // Reading a run's stored data: whole series for the calculations, a few thousand points per signal
 // for the charts, and pages of rows for the table.
-import { isRunSignal, type RunSignal } from '$lib/runs/signals';
+import { RUN_SIGNAL_NAMES, isRunSignal, type RunSignal } from '$lib/runs/signals';
 import { db } from '../db';
 import type { SeriesPoints } from './read-points';
 
@@ -10,8 +10,16 @@ function seriesKeys(runId: string): Map<RunSignal, number> {
 	const rows = db.$client
 		.prepare('SELECT key, signal FROM run_series WHERE run_id = ?')
 		.all(runId) as { key: number; signal: string }[];
+	// in the signals' own order (DO, pH, temperature …), whatever order they were first stored in
 	return new Map(
-		rows.filter((r) => isRunSignal(r.signal)).map((r) => [r.signal as RunSignal, r.key])
+		rows
+			.filter((r) => isRunSignal(r.signal))
+			.sort(
+				(a, b) =>
+					RUN_SIGNAL_NAMES.indexOf(a.signal as RunSignal) -
+					RUN_SIGNAL_NAMES.indexOf(b.signal as RunSignal)
+			)
+			.map((r) => [r.signal as RunSignal, r.key])
 	);
 }
 
@@ -54,8 +62,9 @@ export function readChartSeries(runId: string, buckets = CHART_BUCKETS): RunSeri
 	const extreme = (which: 'min' | 'max') =>
 		client
 			.prepare(
+				// the last point falls exactly on the edge of bucket n: it belongs to the last bucket
 				`SELECT time_s, ${which}(value) FROM run_point WHERE series_key = ?
-				 GROUP BY cast((time_s - ?) / ? AS integer)`
+				 GROUP BY min(cast((time_s - ?) / ? AS integer), ?)`
 			)
 			.raw(true);
 	const lows = extreme('min');
@@ -74,7 +83,9 @@ export function readChartSeries(runId: string, buckets = CHART_BUCKETS): RunSeri
 			const width = (last - first) / buckets;
 			const picked = new Map<number, number>();
 			for (const statement of [lows, highs])
-				for (const [t, v] of statement.iterate(key, first, width) as Iterable<[number, number]>)
+				for (const [t, v] of statement.iterate(key, first, width, buckets - 1) as Iterable<
+					[number, number]
+				>)
 					picked.set(t, v);
 			for (const t of [...picked.keys()].sort((a, b) => a - b)) {
 				timeS.push(t);

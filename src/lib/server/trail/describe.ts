@@ -130,7 +130,8 @@ const SENTENCES: Record<string, Sentence> = {
 	'run.closed': (_, s) => `Ended run ${s}`,
 	'run.reopened': (d, s) => `Reopened run ${s}${because(d)}`,
 	'run.batch_linked': (d, s) => `Linked batch ${text(d.batchNumber)} (${text(d.role)}) to run ${s}`,
-	'run.batch_unlinked': (d, s) => `Unlinked batch ${text(d.batchNumber)} from run ${s}${because(d)}`,
+	'run.batch_unlinked': (d, s) =>
+		`Unlinked batch ${text(d.batchNumber)} from run ${s}${because(d)}`,
 	'run.data_added': (d, s) =>
 		`Added ${plural(d.inserted, 'point')} to run ${s} from ${d.source === 'api' ? 'the API' : `the file ${text(d.fileName)}`}${typeof d.replaced === 'number' && d.replaced > 0 ? `, replacing ${plural(d.replaced, 'point')}` : ''}`,
 	'profile.learned_from_run': (d, s) =>

@@ -5,13 +5,36 @@ import { vessel } from '$lib/server/db/schema';
 import { requirePermission } from '$lib/server/guard';
 import { submitVessel } from '$lib/server/studies/vessel-page';
 import { vesselFormValues } from '$lib/server/studies/vessel-store';
+import { fitKlaMap, listKlaPoints } from '$lib/server/vessels/kla-map';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
 	requirePermission('study.use');
 	const row = db.select().from(vessel).where(eq(vessel.id, params.id)).get();
 	if (!row) error(404, { message: 'No such vessel.' });
-	return { values: vesselFormValues(row), name: row.name, isDemo: row.isDemo };
+	const points = listKlaPoints(row.id);
+	const map = fitKlaMap(points);
+	return {
+		values: vesselFormValues(row),
+		name: row.name,
+		id: row.id,
+		isDemo: row.isDemo,
+		klaPoints: points.map(({ readings: _readings, ...p }) => p),
+		klaFit: map.fit
+			? {
+					k: map.fit.k,
+					a: map.fit.a,
+					b: map.fit.b,
+					intervals95: map.fit.intervals95,
+					intervalNote: map.fit.intervalNote,
+					rSquared: map.fit.rSquared,
+					points: map.fit.points,
+					measuredRange: map.fit.measuredRange
+				}
+			: null,
+		klaFitProblem: map.problem,
+		kLaMode: row.kLaMode
+	};
 };
 
 export const actions: Actions = {

@@ -1,9 +1,9 @@
 import { endpoint } from '$lib/server/api/endpoint';
 import { findRun } from '$lib/server/runs/run-data';
-import { analyseRun } from '$lib/server/runs/run-analysis';
+import { analyseRunOnChange } from '$lib/server/runs/run-analysis';
 
 export const GET = endpoint({ act: 'run.view' }, async ({ event }) => {
 	const found = findRun(event.params.id!);
-	const { report: _report, ...analysis } = await analyseRun(found);
+	const { report: _report, ...analysis } = await analyseRunOnChange(found);
 	return analysis;
 });
