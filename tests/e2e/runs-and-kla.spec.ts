@@ -67,6 +67,7 @@ test.describe('kLa map and runs', () => {
 		expect(Math.abs(kLaPerH - 180) / 180).toBeLessThan(0.03);
 		await expect(result).toContainText('95 % interval');
 		await expect(page.getByTestId('kla-fit-chart')).toBeVisible();
+		await expect(page.getByTestId('kla-residual-chart')).toBeVisible();
 		await page.getByRole('button', { name: 'Save to the kLa map' }).click();
 		await expect(page.getByText('kLa point added to the map.')).toBeVisible();
 		await expect(page.getByRole('table', { name: 'Measured kLa points' })).toContainText('700');
@@ -79,6 +80,16 @@ test.describe('kLa map and runs', () => {
 			.selectOption({ label: 'Yeast glycerol fed-batch, bench (demo)' });
 		await page.getByRole('button', { name: 'Start the run' }).click();
 		await expect(page.getByText(/Run RUN-\d{4}-\d{3} started/)).toBeVisible();
+
+		// a released demo batch goes in as the medium, scanned (typed) and entered
+		const released = await page.request.get('/api/v1/batches?state=released&limit=1');
+		const { items } = (await released.json()) as { items: { number: string }[] };
+		await page.getByLabel('Batch number (scan its sheet’s code)').fill(items[0].number);
+		await page.keyboard.press('Enter');
+		await expect(page.getByText(`Batch ${items[0].number} linked.`)).toBeVisible();
+		const genealogy = page.getByRole('table', { name: 'Genealogy' });
+		await expect(genealogy).toContainText(items[0].number);
+		await expect(genealogy).toContainText(/L-\d{4}-\d{4}/);
 
 		await page.getByLabel('CSV file').setInputFiles({
 			name: 'run.csv',

@@ -307,7 +307,9 @@ describe('API points', () => {
 		);
 		expect(problems).toHaveLength(1);
 		expect(problems[0].row).toBe(2);
-		expect(problems[0].message).toMatch(/^Point 2: time 0.5 h is not after the point before \(1 h\)/);
+		expect(problems[0].message).toMatch(
+			/^Point 2: time 0.5 h is not after the point before \(1 h\)/
+		);
 	});
 
 	it('reads points whose keys differ from point to point', () => {

@@ -178,6 +178,8 @@ describe('POST /api/v1/runs/{id}/data', () => {
 			'do_percent'
 		);
 		expect(problem.detail).toContain('do_ppm');
+		// the key is no point's fault: named at the level of the points, not as point 0's
+		expect(problem.errors[0].path).toBe('points.do_ppm');
 	});
 
 	it('refuses a misspelt top-level key with 400 naming it', async () => {

@@ -186,6 +186,42 @@ export function buildKlaFitChart(
 	};
 }
 
+/** What the fit leaves: reading − fitted probe reading at each point used, which should scatter about 0 without a pattern. */
+export function buildKlaResidualChart(
+	timeS: number[],
+	residuals: number[],
+	unitLabel: string
+): ChartSpec {
+	const used = timeS.slice(timeS.length - residuals.length);
+	return {
+		id: 'kla-residuals',
+		title: 'Residuals',
+		xTitle: 'Time (s)',
+		yTitle: `Reading − fitted (${unitLabel})`,
+		markers: [],
+		series: [
+			{
+				label: 'Residual',
+				points: points(used, residuals),
+				colour: grain,
+				scatter: true,
+				pointStyle: 'rect'
+			},
+			{
+				label: 'Zero',
+				points: used.length
+					? [
+							{ x: used[0], y: 0 },
+							{ x: used[used.length - 1], y: 0 }
+						]
+					: [],
+				colour: '#9a9a92',
+				dash: [4, 4]
+			}
+		]
+	};
+}
+
 /** Each measured kLa against what the fitted correlation gives at its P/V and v_s, with the line of equality. */
 export function buildKlaMapChart(
 	fitted: { kLaPerS: number; predictedKLaPerS: number }[]

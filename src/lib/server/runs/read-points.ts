@@ -306,6 +306,8 @@ export function readPointObjects(
 		ok: false,
 		problems: result.problems.map((p) => ({
 			...p,
+			// a problem with the keys is no point's fault: it must not read as point 0's
+			row: p.row === 0 && !p.message.startsWith('Row') ? null : p.row,
 			message: p.message
 				.replace(/^Row (\d+)/, 'Point $1')
 				.replace('the row before', 'the point before')

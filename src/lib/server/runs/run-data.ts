@@ -24,7 +24,11 @@ export function findRun(id: string): RunRow {
 
 function refusal(problems: RowProblem[], unit: 'rows' | 'points'): ApiProblem {
 	const errors = problems.map((p) => ({
-		path: p.row === null ? unit : `${unit}.${p.row}${p.column ? `.${p.column}` : ''}`,
+		// a header or key problem names the column at the collection's level: points.do_ppm
+		path:
+			p.row === null
+				? `${unit}${p.column ? `.${p.column}` : ''}`
+				: `${unit}.${p.row}${p.column ? `.${p.column}` : ''}`,
 		message: p.message
 	}));
 	return new ApiProblem(

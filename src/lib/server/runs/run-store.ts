@@ -5,8 +5,9 @@ import { parseLocalDateTime } from '$lib/date-time';
 import { RUN_BATCH_ROLES, type RunBatchRole } from '$lib/runs/states';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
-import { batch, organismProfile, run, runBatch, study, vessel } from '../db/schema';
+import { organismProfile, run, runBatch, study, vessel } from '../db/schema';
 import { RuleError } from '../rule-error';
+import { batchFromScan } from '../batches/execution';
 import { siteTimeZone } from '../site-time-zone';
 import { optionalText, requiredNumber, requiredText } from '../studies/fields';
 
@@ -144,7 +145,7 @@ export function setRunState(
 }
 
 /**
- * Links a batch to the run by its number (as scanned from its sheet's code or typed). Only a
+ * Links a batch to the run by its sheet's code (scanned) or its number (typed). Only a
  * released batch may go into a culture; its lots are then traceable to the run.
  */
 export function linkBatch(
@@ -160,12 +161,13 @@ export function linkBatch(
 	return db.transaction((tx) => {
 		if (!tx.select({ id: run.id }).from(run).where(eq(run.id, runId)).get())
 			throw new RuleError('No such run.', { status: 404 });
-		const found = tx
-			.select({ id: batch.id, number: batch.number, state: batch.state })
-			.from(batch)
-			.where(eq(batch.number, number))
-			.get();
-		if (!found) throw new RuleError(`No batch numbered “${number}”.`, { field: 'batchNumber' });
+		// the sheet's QR code (its record URL), the batch id, or the number as typed
+		const found = batchFromScan(number, tx);
+		if (!found)
+			throw new RuleError(
+				`No batch “${number}”: scan the code on its batch sheet or type its number.`,
+				{ field: 'batchNumber' }
+			);
 		if (found.state !== 'released')
 			throw new RuleError(
 				`Batch ${found.number} is ${BATCH_STATE_LABELS[found.state].toLowerCase()}, not released: only a released batch may go into a run.`,

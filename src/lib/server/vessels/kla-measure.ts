@@ -79,8 +79,7 @@ function operatingPoint(row: VesselRow, form: KlaMeasureForm) {
 	const geometry = vesselGeometry(row);
 	if (!geometry)
 		throw new RuleError(
-			'Enter the vessel inner diameter and impeller diameter on the vessel first: they turn the gas flow into the superficial gas velocity and the stirrer speed into P/V.',
-			{ field: 'agitationRpm' }
+			'Enter the vessel inner diameter and impeller diameter on the vessel first: they turn the gas flow into the superficial gas velocity and the stirrer speed into P/V.'
 		);
 	const point = computeOperatingPoint({
 		...geometry,
