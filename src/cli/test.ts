@@ -1,7 +1,7 @@
-// `npm test`: lint (Prettier, ESLint), type check, unit and server tests, build, then the browser
-// tests in Debian's Chromium. Every phase runs even when one before it failed (only the browser
+// `npm test`: lint (Prettier, ESLint) and the type check side by side, unit and server tests,
+// build, then the browser tests in Debian's Chromium. Every phase runs even when one before it failed (only the browser
 // tests need the build), and the failures are listed together at the end.
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 
 const chromium = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -28,6 +28,47 @@ function run(
 	if (required) process.exit(result.status ?? 1);
 	failures.push(failure);
 	return false;
+}
+
+/**
+ * Runs phases side by side (each single-threaded: two cores do both in the time of the longer),
+ * printing each one's output whole when it ends so the two do not interleave.
+ */
+async function runTogether(
+	phases: { label: string; command: string; args: string[] }[]
+): Promise<void> {
+	const outcomes = await Promise.all(
+		phases.map(
+			({ label, command, args }) =>
+				new Promise<{ label: string; output: string; status: number | null; seconds: string }>(
+					(resolve) => {
+						const started = Date.now();
+						const child = spawn(command, args, { env: process.env });
+						let output = '';
+						child.stdout.on('data', (chunk) => (output += chunk));
+						child.stderr.on('data', (chunk) => (output += chunk));
+						child.on('close', (status) =>
+							resolve({
+								label,
+								output,
+								status,
+								seconds: ((Date.now() - started) / 1000).toFixed(1)
+							})
+						);
+					}
+				)
+		)
+	);
+	for (const { label, output, status, seconds } of outcomes) {
+		console.log(`\n== ${label}`);
+		process.stdout.write(output);
+		if (status === 0) console.log(`== ${label}: ok in ${seconds} s`);
+		else {
+			const failure = `${label} failed (exit ${status}) after ${seconds} s`;
+			console.error(`\n${failure}.`);
+			failures.push(failure);
+		}
+	}
 }
 
 const PDF_RENDERER = '/usr/bin/pdftoppm';
@@ -64,9 +105,15 @@ function ensureBrowserTools(): void {
 
 // ESLint reads the TypeScript project, which extends the config that `svelte-kit sync` writes.
 run('generate types', 'npx', ['svelte-kit', 'sync'], {}, true);
-run('lint (Prettier, ESLint)', 'npm', ['run', 'lint']);
 ensureBrowserTools();
-run('type check', 'npx', ['svelte-check', '--tsconfig', './tsconfig.json', '--fail-on-warnings']);
+await runTogether([
+	{ label: 'lint (Prettier, ESLint)', command: 'npm', args: ['run', 'lint'] },
+	{
+		label: 'type check',
+		command: 'npx',
+		args: ['svelte-check', '--tsconfig', './tsconfig.json', '--fail-on-warnings']
+	}
+]);
 run('unit and server tests (vitest)', 'npx', ['vitest', 'run']);
 if (run('build', 'npx', ['vite', 'build'])) {
 	run('browser tests (Playwright, Chromium)', 'npx', ['playwright', 'test'], {

@@ -11,7 +11,12 @@ import { storePoints } from '$lib/server/runs/store-points';
 import { evaluateStudy } from '$lib/server/studies/evaluate';
 import { loadStudyInputs } from '$lib/server/studies/queries';
 import { saveVessel } from '$lib/server/studies/vessel-store';
-import { klaMeasureSchema, measureKla, saveKlaPoint } from '$lib/server/vessels/kla-measure';
+import {
+	klaMeasureSchema,
+	measureKla,
+	removeKlaPoint,
+	saveKlaPoint
+} from '$lib/server/vessels/kla-measure';
 import { toStudyVessel } from '$lib/server/vessels/kla-map';
 import { makeUser, refusalOf } from './helpers';
 import { useDemoDatabase } from './demo-database';
@@ -234,5 +239,28 @@ describe('growth values learned from a run saved to its profile', () => {
 		);
 		expect(refusal.status).toBe(409);
 		expect(profileOf()).toEqual(before);
+	});
+});
+
+describe('a wrong point taken off the map', () => {
+	it('needs a reason, removes only this vessel’s point, and keeps it in the audit trail', async () => {
+		const row = vesselNamed(BENCH_VESSEL);
+		const { id } = saveKlaPoint(actor, row.id, klaForm({ agitationRpm: '650' }));
+		expect((await refusalOf(() => removeKlaPoint(actor, row.id, id, '  '))).field).toBe('reason');
+		const other = vesselNamed(DEMO_VESSELS[1].name);
+		expect(
+			(await refusalOf(() => removeKlaPoint(actor, other.id, id, 'wrong vessel'))).status
+		).toBe(404);
+		expect(db.select().from(vesselKlaPoint).where(eq(vesselKlaPoint.id, id)).get()).toBeDefined();
+
+		removeKlaPoint(actor, row.id, id, 'probe not calibrated');
+		expect(db.select().from(vesselKlaPoint).where(eq(vesselKlaPoint.id, id)).get()).toBeUndefined();
+		const removed = auditEventsFor('vessel', row.id).find(
+			(e) => e.action === 'vessel.kla_point_removed'
+		)!;
+		expect(removed.detail).toMatchObject({
+			reason: 'probe not calibrated',
+			point: { id, agitationRpm: 650 }
+		});
 	});
 });

@@ -91,3 +91,15 @@ export function loadRunPage(runId: string) {
 		uploads
 	};
 }
+
+/** The released batches to pick from when linking, newest first (a scan finds any other). */
+export function releasedBatchChoices(limit = 100) {
+	return db
+		.select({ number: batch.number, recipeName: recipe.name })
+		.from(batch)
+		.innerJoin(recipe, eq(batch.recipeId, recipe.id))
+		.where(eq(batch.state, 'released'))
+		.orderBy(desc(batch.plannedOn), desc(batch.number))
+		.limit(limit)
+		.all();
+}

@@ -1,6 +1,6 @@
 // A kLa measurement of a vessel: the DO readings read and fitted (gassing-out or the dynamic
 // method during a run), the operating point it was taken at, and the point saved to the vessel's map.
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { z } from 'zod';
 import {
 	ChemistryInputError,
@@ -224,4 +224,35 @@ export function saveKlaPoint(
 		);
 	});
 	return { id, measured };
+}
+
+/** Takes a wrong point off the map, with the reason; the trail keeps what it was. */
+export function removeKlaPoint(actor: Actor, vesselId: string, pointId: string, reason: string) {
+	const why = reason.trim();
+	if (!why) throw new RuleError('Say why the point is removed.', { field: 'reason' });
+	db.transaction((tx) => {
+		const point = tx
+			.select()
+			.from(vesselKlaPoint)
+			.where(and(eq(vesselKlaPoint.id, pointId), eq(vesselKlaPoint.vesselId, vesselId)))
+			.get();
+		if (!point) throw new RuleError('That point is not on this vessel’s map.', { status: 404 });
+		tx.delete(vesselKlaPoint).where(eq(vesselKlaPoint.id, pointId)).run();
+		const { readings: _readings, ...kept } = point;
+		recordAudit(
+			actor,
+			{
+				action: 'vessel.kla_point_removed',
+				subjectType: 'vessel',
+				subjectId: vesselId,
+				detail: {
+					reason: why,
+					kLaPerH: Number(point.kLaPerH.toPrecision(4)),
+					measuredOn: point.measuredOn,
+					point: { ...kept, createdAt: point.createdAt.toISOString() }
+				}
+			},
+			tx
+		);
+	});
 }

@@ -7,7 +7,7 @@ import { requireActor, requirePermission } from '$lib/server/guard';
 import { RuleError } from '$lib/server/rule-error';
 import { LEARNABLE_FIELDS, saveLearnedValues } from '$lib/server/runs/learn-profile';
 import { findRun } from '$lib/server/runs/run-data';
-import { loadRunPage } from '$lib/server/runs/run-page';
+import { loadRunPage, releasedBatchChoices } from '$lib/server/runs/run-page';
 import { linkBatch, setRunState } from '$lib/server/runs/run-store';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -23,7 +23,12 @@ function runOr404(id: string) {
 export const load: PageServerLoad = async ({ params }) => {
 	const user = requirePermission('run.view');
 	runOr404(params.id);
-	return { page: loadRunPage(params.id), canRecord: may(user, 'run.record') };
+	const canRecord = may(user, 'run.record');
+	return {
+		page: loadRunPage(params.id),
+		canRecord,
+		batchChoices: canRecord ? releasedBatchChoices() : []
+	};
 };
 
 const linkSchema = z.object({

@@ -2,14 +2,17 @@ import { error, redirect } from '@sveltejs/kit';
 import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { vessel } from '$lib/server/db/schema';
-import { requirePermission } from '$lib/server/guard';
+import { may } from '$lib/permissions';
+import { ruleFailure } from '$lib/server/forms';
+import { requireActor, requirePermission } from '$lib/server/guard';
+import { removeKlaPoint } from '$lib/server/vessels/kla-measure';
 import { submitVessel } from '$lib/server/studies/vessel-page';
 import { vesselFormValues } from '$lib/server/studies/vessel-store';
 import { fitKlaMap, listKlaPoints } from '$lib/server/vessels/kla-map';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	requirePermission('study.use');
+	const user = requirePermission('study.use');
 	const row = db.select().from(vessel).where(eq(vessel.id, params.id)).get();
 	if (!row) error(404, { message: 'No such vessel.' });
 	const points = listKlaPoints(row.id);
@@ -33,7 +36,8 @@ export const load: PageServerLoad = async ({ params }) => {
 				}
 			: null,
 		klaFitProblem: map.problem,
-		kLaMode: row.kLaMode
+		kLaMode: row.kLaMode,
+		canMeasure: may(user, 'run.record')
 	};
 };
 
@@ -43,5 +47,20 @@ export const actions: Actions = {
 		const result = submitVessel(actor, await request.formData(), params.id);
 		if ('failure' in result) return result.failure;
 		redirect(303, `/vessels/${params.id}?saved=1`);
+	},
+	removePoint: async ({ request, params }) => {
+		const actor = requireActor('run.record');
+		const formData = await request.formData();
+		try {
+			removeKlaPoint(
+				actor,
+				params.id,
+				String(formData.get('pointId') ?? ''),
+				String(formData.get('reason') ?? '')
+			);
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+		redirect(303, `/vessels/${params.id}?klaRemoved=1#kla-map`);
 	}
 };
