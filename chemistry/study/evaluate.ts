@@ -90,7 +90,10 @@ export function readOperatingPoint(inputs: StudyInputs, whatIf: WhatIf): Operati
 	const feedScale = plannedFeedL > 0 ? feedVolumeL / plannedFeedL : 0;
 	const feeds = inputs.feeds.map((f) => ({ ...f, volumeL: f.volumeL * feedScale }));
 
-	const vesselKLa = computeVesselKLa(vessel, plan.initialVolumeL);
+	const vesselKLa = computeVesselKLa(vessel, plan.initialVolumeL, {
+		agitationRpm: plan.plannedAgitationRpm,
+		gasFlowLPerMin: plan.plannedGasFlowLPerMin
+	});
 	const kLaPerH = whatIf.kLaPerH ?? vesselKLa.kLaPerH;
 	if (!(kLaPerH > 0) || kLaPerH > MAX_KLA_PER_H)
 		whatIfError(`kLa must be above 0 and at most ${MAX_KLA_PER_H} 1/h, not ${kLaPerH}.`, 'kLaPerH');

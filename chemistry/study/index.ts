@@ -34,5 +34,5 @@ export {
 export { holdToNutrients, type NutrientHold } from './nutrient-hold';
 export * from './profile-yields';
 export * from './profile';
-export { MAX_KLA_PER_H, computeVesselKLa } from './vessel';
+export { MAX_KLA_PER_H, computeVesselKLa, type PlannedOperation } from './vessel';
 export * from './feed-designer';

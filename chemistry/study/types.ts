@@ -49,6 +49,9 @@ export interface StudyPlan {
 	safetyFactor: number;
 	/** Oxycaloric factor, kJ/mol O2; null: the library default. */
 	heatPerMolO2KJ: number | null;
+	/** Stirrer speed and gas flow of the plan, for a kLa from the vessel's map; null: the vessel's planned operation. */
+	plannedAgitationRpm?: number | null;
+	plannedGasFlowLPerMin?: number | null;
 	notes: string;
 }
 

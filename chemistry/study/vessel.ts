@@ -17,16 +17,33 @@ const round3 = (x: number) => Number(x.toPrecision(3));
  * kLa from the vessel's own measured map at its planned stirrer speed and gas flow, with the
  * liquid volume of the plan (P/V falls as the volume rises).
  */
-function kLaFromMap(name: string, map: VesselKlaMap | null, liquidVolumeL: number): VesselKLa {
+/** Where a study runs the vessel; a value left null is the vessel's own planned one. */
+export interface PlannedOperation {
+	agitationRpm?: number | null;
+	gasFlowLPerMin?: number | null;
+}
+
+function kLaFromMap(
+	name: string,
+	map: VesselKlaMap | null,
+	liquidVolumeL: number,
+	operation: PlannedOperation
+): VesselKLa {
 	if (!map)
 		throw new StudyDataError(
 			`The vessel “${name}” takes its kLa from its measured map, which needs at least 3 measured points.`,
 			{ field: 'vessel.kLaMode' }
 		);
-	const { geometry, plannedAgitationRpm: rpm, plannedGasFlowLPerMin: flow } = map;
+	const { geometry } = map;
+	const rpm = operation.agitationRpm ?? map.plannedAgitationRpm;
+	const flow = operation.gasFlowLPerMin ?? map.plannedGasFlowLPerMin;
+	const whose =
+		operation.agitationRpm != null || operation.gasFlowLPerMin != null
+			? "the study's"
+			: "the vessel's planned";
 	if (!geometry || rpm === null || flow === null)
 		throw new StudyDataError(
-			`The vessel “${name}” takes its kLa from its map but lacks its planned stirrer speed, gas flow, vessel or impeller diameter.`,
+			`The vessel “${name}” takes its kLa from its map but lacks a stirrer speed and gas flow (the study's or the vessel's planned ones), or its vessel or impeller diameter.`,
 			{ field: 'vessel.plannedAgitationRpm' }
 		);
 	const point = computeOperatingPoint({
@@ -41,7 +58,7 @@ function kLaFromMap(name: string, map: VesselKlaMap | null, liquidVolumeL: numbe
 		point.superficialVelocityMPerS
 	);
 	const { k, a, b, measuredRange } = map.correlation;
-	const origin = `from the vessel's measured kLa map (${map.pointCount} points; kLa = ${k.toPrecision(3)}·(P/V)^${a.toFixed(2)}·v_s^${b.toFixed(2)}) at ${rpm} rpm and ${flow} L/min with ${liquidVolumeL} L: P/V ${round3(point.powerPerVolumeWPerM3)} W/m³ (power number ${point.powerNumber}${point.powerNumberDefaulted ? ', common practice' : ''}), v_s ${round3(point.superficialVelocityMPerS * 1000)} mm/s`;
+	const origin = `from the vessel's measured kLa map (${map.pointCount} points; kLa = ${k.toPrecision(3)}·(P/V)^${a.toFixed(2)}·v_s^${b.toFixed(2)}) at ${whose} ${rpm} rpm and ${flow} L/min with ${liquidVolumeL} L: P/V ${round3(point.powerPerVolumeWPerM3)} W/m³ (power number ${point.powerNumber}${point.powerNumberDefaulted ? ', common practice' : ''}), v_s ${round3(point.superficialVelocityMPerS * 1000)} mm/s`;
 	const outside = [
 		predicted.powerPerVolumeOutside
 			? `P/V ${round3(point.powerPerVolumeWPerM3)} W/m³ (measured ${round3(measuredRange.powerPerVolumeWPerM3.low)}–${round3(measuredRange.powerPerVolumeWPerM3.high)})`
@@ -69,8 +86,13 @@ export const MAX_KLA_PER_H = 3600;
  * The vessel's kLa in 1/h: from its measured map, as entered, or from kLa = k·(P/V)^a·(v_s)^b (van 't Riet 1979), whose
  * constants are the user's; as in van 't Riet's form, P/V is in W/m³, v_s in m/s and kLa in 1/s.
  */
-export function computeVesselKLa(vessel: StudyVessel, liquidVolumeL: number): VesselKLa {
-	if (vessel.kLaMode === 'map') return kLaFromMap(vessel.name, vessel.klaMap, liquidVolumeL);
+export function computeVesselKLa(
+	vessel: StudyVessel,
+	liquidVolumeL: number,
+	operation: PlannedOperation = {}
+): VesselKLa {
+	if (vessel.kLaMode === 'map')
+		return kLaFromMap(vessel.name, vessel.klaMap, liquidVolumeL, operation);
 	if (vessel.kLaMode === 'entered') {
 		if (vessel.kLaPerH === null || !(vessel.kLaPerH > 0)) {
 			throw new StudyDataError(

@@ -388,6 +388,8 @@ describe('the feed designer', () => {
 			doSetpointPercent: 40,
 			safetyFactor: 1.2,
 			heatPerMolO2KJ: null,
+			plannedAgitationRpm: null,
+			plannedGasFlowLPerMin: null,
 			notes: '',
 			feed1VersionId: feed,
 			feed1VolumeL: 1,

@@ -73,7 +73,36 @@ describe("a study's kLa from the vessel's measured map", () => {
 		expect(result.kLaPerH).toBeCloseTo(K * pv ** A * vs ** B * 3600, 6);
 		expect(result.warning).toBeNull();
 		expect(result.origin).toMatch(/measured kLa map \(6 points/);
-		expect(result.origin).toContain('700 rpm and 9 L/min with 6 L');
+		expect(result.origin).toContain("at the vessel's planned 700 rpm and 9 L/min with 6 L");
+	});
+
+	it("takes the study's own stirrer speed and gas flow over the vessel's planned ones", () => {
+		const vessel = vesselOf({
+			kLaMode: 'map',
+			kLaPerH: null,
+			klaMap: mapOf({ rpm: 700, flowLPerMin: 9 })
+		});
+		const ownSpeed = computeVesselKLa(vessel, 6, { agitationRpm: 900, gasFlowLPerMin: null });
+		const at900 = computeOperatingPoint({
+			...geometry,
+			agitationRpm: 900,
+			gasFlowLPerMin: 9,
+			liquidVolumeL: 6
+		});
+		expect(ownSpeed.kLaPerH).toBeCloseTo(
+			K * at900.powerPerVolumeWPerM3 ** A * at900.superficialVelocityMPerS ** B * 3600,
+			6
+		);
+		expect(ownSpeed.origin).toContain("at the study's 900 rpm and 9 L/min");
+		const report = evaluateStudy(
+			studyOf({
+				plan: { ...studyOf().plan, plannedAgitationRpm: 900 },
+				vessel
+			})
+		);
+		// the study's own volume (5 L) sets its P/V
+		const atStudyVolume = computeVesselKLa(vessel, 5, { agitationRpm: 900 });
+		expect(report.inputs.kLaPerH).toBeCloseTo(atStudyVolume.kLaPerH, 6);
 	});
 
 	it('warns when the plan lies outside what was measured, and says by how much', () => {
@@ -133,6 +162,6 @@ describe("a study's kLa from the vessel's measured map", () => {
 		expect(none.message).toMatch(/at least 3 measured points/);
 		const map = { ...mapOf({ rpm: 700, flowLPerMin: 9 }), plannedAgitationRpm: null };
 		const unplanned = errorOf(() => computeVesselKLa(vesselOf({ kLaMode: 'map', klaMap: map }), 6));
-		expect(unplanned.message).toMatch(/planned stirrer speed/);
+		expect(unplanned.message).toMatch(/lacks a stirrer speed and gas flow/);
 	});
 });

@@ -131,6 +131,9 @@ export const study = sqliteTable(
 		safetyFactor: real('safety_factor').notNull(),
 		/** Oxycaloric factor, kJ per mol O2 consumed; null: the default of the science library, with its source. */
 		heatPerMolO2KJ: real('heat_per_mol_o2_kj'),
+		/** Where the plan runs the vessel, for a kLa from its measured map; null: the vessel's planned operation. */
+		plannedAgitationRpm: real('planned_agitation_rpm'),
+		plannedGasFlowLPerMin: real('planned_gas_flow_l_per_min'),
 		notes: text('notes').notNull().default(''),
 		createdById: text('created_by_id')
 			.notNull()

@@ -390,6 +390,8 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
 			heatPerMolO2KJ: null,
+			plannedAgitationRpm: null,
+			plannedGasFlowLPerMin: null,
 			notes:
 				'Demo study: glycerol batch, then a constant glycerol-salts feed; O2-enriched air from the batch phase on.'
 		}
@@ -418,6 +420,8 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
 			heatPerMolO2KJ: null,
+			plannedAgitationRpm: null,
+			plannedGasFlowLPerMin: null,
 			notes:
 				'Demo study: the target is set deliberately high for this medium, to show what runs out first.'
 		}
@@ -447,6 +451,8 @@ export const DEMO_STUDIES: DemoStudy[] = [
 			doSetpointPercent: 30,
 			safetyFactor: 1.2,
 			heatPerMolO2KJ: null,
+			plannedAgitationRpm: null,
+			plannedGasFlowLPerMin: null,
 			notes:
 				'Demo study: glycerol-salts feed on DO-stat (the pump runs while DO is above 35 % of air saturation, that is once the batch glycerol is gone), with a constant nitrogen and trace-metal top-up alongside; O2-enriched air.'
 		}

@@ -19,7 +19,10 @@ export async function loadStudyReport(id: string) {
 	}
 	let vesselKLaPerH: number | null = null;
 	try {
-		vesselKLaPerH = computeVesselKLa(inputs.vessel, inputs.plan.initialVolumeL).kLaPerH;
+		vesselKLaPerH = computeVesselKLa(inputs.vessel, inputs.plan.initialVolumeL, {
+			agitationRpm: inputs.plan.plannedAgitationRpm,
+			gasFlowLPerMin: inputs.plan.plannedGasFlowLPerMin
+		}).kLaPerH;
 	} catch {
 		vesselKLaPerH = null;
 	}

@@ -104,6 +104,8 @@ const studyFieldsShape = {
 		...HEAT_PER_MOL_O2_RANGE_KJ,
 		unit: 'kJ/mol'
 	}),
+	plannedAgitationRpm: optionalNumber('Stirrer speed', { gt: 0, max: 5000, unit: 'rpm' }),
+	plannedGasFlowLPerMin: optionalNumber('Gas flow', { gt: 0, max: 100000, unit: 'L/min' }),
 	notes: optionalText()
 };
 
