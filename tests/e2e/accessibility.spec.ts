@@ -56,8 +56,18 @@ const PAGES_BY_ROLE: Record<DemoRole, { fixed: string[]; details: [string, RegEx
 		]
 	},
 	engineer: {
-		fixed: ['/', '/studies', '/studies/new', '/organisms', '/vessels', '/simulation'],
+		fixed: [
+			'/',
+			'/studies',
+			'/studies/new',
+			'/organisms',
+			'/vessels',
+			'/simulation',
+			'/runs',
+			'/runs/new'
+		],
 		details: [
+			['/runs', /^\/runs\/(?!new$)[^/]+$/],
 			['/studies', /^\/studies\/(?!new$)[^/]+$/],
 			['/organisms', /^\/organisms\/(?!new$)[^/]+$/],
 			['/vessels', /^\/vessels\/(?!new$)[^/]+$/]

@@ -10,6 +10,11 @@ async function editorWithLines(page: Page) {
 	await addComponent(page, 2, 'Potassium chloride', '0.4', 'g/L');
 	await addComponent(page, 3, 'Glycine', '0.1', 'g/L');
 	await expect(page.getByTestId('line')).toHaveCount(3);
+	// The live analysis runs a moment after typing stops. Until the one that reads every field has
+	// landed, a line caught half-typed is still marked as left out, which adds a row to it.
+	await expect(page.getByText('Left out of the live analysis until it is corrected.')).toHaveCount(
+		0
+	);
 }
 
 async function shoot(page: Page, testInfo: TestInfo, name: string) {
