@@ -12,6 +12,10 @@ process.env.PORT ??= '3000';
 process.env.ORIGIN ??= `http://${process.env.HOST}:${process.env.PORT}`;
 // Certificates may be up to 10 MB each, several per upload; adapter-node refuses larger bodies.
 process.env.BODY_SIZE_LIMIT ??= '45M';
+// Node closes an idle kept-alive connection after 5 s; a client that sends on it just then gets the
+// connection reset. Holding it longer than clients and proxies do (60 s is common practice) avoids that.
+process.env.KEEP_ALIVE_TIMEOUT ??= '75';
+process.env.HEADERS_TIMEOUT ??= '80';
 
 const server = resolve('build/index.js');
 const BUILD_INPUTS = [

@@ -153,6 +153,8 @@ test.describe('the component picker in the recipe editor', () => {
 
 		// A text the library does not match says so, instead of an empty list.
 		await page.getByRole('button', { name: 'Add component' }).click();
+		// the new line's box takes focus once it is drawn: typing before that would go elsewhere
+		await expect(box(page, 2)).toBeFocused();
 		await page.keyboard.type('unobtainium');
 		await expect(
 			page.getByText('No component in the library matches “unobtainium”.')

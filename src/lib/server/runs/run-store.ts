@@ -5,7 +5,7 @@ import { parseLocalDateTime } from '$lib/date-time';
 import { RUN_BATCH_ROLES, type RunBatchRole } from '$lib/runs/states';
 import { recordAudit, type Actor } from '../audit';
 import { db } from '../db';
-import { organismProfile, run, runBatch, study, vessel } from '../db/schema';
+import { batch, organismProfile, run, runBatch, study, vessel } from '../db/schema';
 import { RuleError } from '../rule-error';
 import { batchFromScan } from '../batches/execution';
 import { siteTimeZone } from '../site-time-zone';
@@ -195,5 +195,33 @@ export function linkBatch(
 			tx
 		);
 		return { batchId: found.id, number: found.number };
+	});
+}
+
+/** Takes a batch linked by mistake off the run, with the reason; the trail keeps the link. */
+export function unlinkBatch(actor: Actor, runId: string, batchId: string, reason: string): void {
+	const why = reason.trim();
+	if (!why) throw new RuleError('Say why the batch is unlinked.', { field: 'reason' });
+	db.transaction((tx) => {
+		const link = tx
+			.select({ role: runBatch.role, number: batch.number })
+			.from(runBatch)
+			.innerJoin(batch, eq(runBatch.batchId, batch.id))
+			.where(and(eq(runBatch.runId, runId), eq(runBatch.batchId, batchId)))
+			.get();
+		if (!link) throw new RuleError('That batch is not linked to this run.', { status: 404 });
+		tx.delete(runBatch)
+			.where(and(eq(runBatch.runId, runId), eq(runBatch.batchId, batchId)))
+			.run();
+		recordAudit(
+			actor,
+			{
+				action: 'run.batch_unlinked',
+				subjectType: 'run',
+				subjectId: runId,
+				detail: { batchId, batchNumber: link.number, role: link.role, reason: why }
+			},
+			tx
+		);
 	});
 }

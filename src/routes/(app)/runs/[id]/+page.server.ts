@@ -8,7 +8,7 @@ import { RuleError } from '$lib/server/rule-error';
 import { LEARNABLE_FIELDS, saveLearnedValues } from '$lib/server/runs/learn-profile';
 import { findRun } from '$lib/server/runs/run-data';
 import { loadRunPage, releasedBatchChoices } from '$lib/server/runs/run-page';
-import { linkBatch, setRunState } from '$lib/server/runs/run-store';
+import { linkBatch, setRunState, unlinkBatch } from '$lib/server/runs/run-store';
 import type { Actions, PageServerLoad } from './$types';
 
 function runOr404(id: string) {
@@ -50,6 +50,21 @@ export const actions: Actions = {
 				parsed.data.role
 			);
 			return { linked: linked.number };
+		} catch (cause) {
+			return ruleFailure(formData, cause);
+		}
+	},
+	unlink: async ({ request, params }) => {
+		const actor = requireActor('run.record');
+		const formData = await request.formData();
+		try {
+			unlinkBatch(
+				actor,
+				runOr404(params.id).id,
+				String(formData.get('batchId') ?? ''),
+				String(formData.get('reason') ?? '')
+			);
+			return { unlinked: true };
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
