@@ -109,6 +109,24 @@ test.describe('kLa map and runs', () => {
 		await expect(page.getByTestId('learned-values')).toContainText('μmax');
 	});
 
+	test('a wrong kLa point comes off the map only with a reason', async ({ page }) => {
+		await page.goto('/vessels');
+		await page.getByRole('link', { name: 'Bench stirred tank BST-10' }).click();
+		const table = page.getByRole('table', { name: 'Measured kLa points' });
+		const rowsBefore = await table.getByRole('row').count();
+		const row = table.getByRole('row').filter({ hasText: '2026-10-05' });
+		await row.getByText('Remove…').click();
+		const remove = row.getByRole('button', { name: 'Remove the point of 2026-10-05' });
+		await remove.click();
+		// without a reason the form is not sent: the point stays
+		await expect(row.getByLabel('Why (kept in the audit trail)')).toBeFocused();
+		await row.getByLabel('Why (kept in the audit trail)').fill('probe not calibrated that day');
+		await remove.click();
+		await expect(page.getByText('kLa point removed from the map')).toBeVisible();
+		await expect(table.getByRole('row')).toHaveCount(rowsBefore - 1);
+		await expect(table).not.toContainText('2026-10-05');
+	});
+
 	test('a file with a time going backwards is refused with its row, and nothing is stored', async ({
 		page
 	}) => {
