@@ -113,7 +113,7 @@ test.describe('kLa map and runs', () => {
 		await page.goto('/vessels');
 		await page.getByRole('link', { name: 'Bench stirred tank BST-10' }).click();
 		const table = page.getByRole('table', { name: 'Measured kLa points' });
-		const rowsBefore = await table.getByRole('row').count();
+		await expect(table).toBeVisible();
 		const row = table.getByRole('row').filter({ hasText: '2026-10-05' });
 		await row.getByText('Remove…').click();
 		const remove = row.getByRole('button', { name: 'Remove the point of 2026-10-05' });
@@ -123,8 +123,9 @@ test.describe('kLa map and runs', () => {
 		await row.getByLabel('Why (kept in the audit trail)').fill('probe not calibrated that day');
 		await remove.click();
 		await expect(page.getByText('kLa point removed from the map')).toBeVisible();
-		await expect(table.getByRole('row')).toHaveCount(rowsBefore - 1);
-		await expect(table).not.toContainText('2026-10-05');
+		// only that point goes (another test may add one to this vessel meanwhile)
+		await expect(row).toHaveCount(0);
+		await expect(table.getByRole('row').filter({ hasText: '2026-10-06' })).toHaveCount(1);
 	});
 
 	test('a file with a time going backwards is refused with its row, and nothing is stored', async ({
