@@ -24,7 +24,7 @@ export interface ApiOperation {
 	responseDescription?: string;
 	successStatus?: number;
 	/** Problems beyond the ones every operation of its kind has (400, 401, 403; 404 with a path id). */
-	errors?: (404 | 409 | 422 | 503)[];
+	errors?: (404 | 409 | 412 | 422 | 428 | 503)[];
 }
 
 const problemSchema = {
@@ -114,7 +114,7 @@ function describeOperation(op: ApiOperation): Record<string, unknown> {
 		summary: op.summary,
 		'x-access': access,
 		'x-act': op.act,
-		security: access === 'public' ? [] : [{ sessionCookie: [] }],
+		security: access === 'public' ? [] : [{ bearerToken: [op.act] }, { sessionCookie: [] }],
 		...(op.path.includes('{') || op.query ? { parameters: parametersOf(op) } : {}),
 		...(op.request
 			? {
@@ -158,7 +158,13 @@ export function buildOpenApiDocument(origin: string) {
 		paths,
 		components: {
 			securitySchemes: {
-				sessionCookie: { type: 'apiKey', in: 'cookie', name: 'brothwright_session' }
+				sessionCookie: { type: 'apiKey', in: 'cookie', name: 'brothwright_session' },
+				bearerToken: {
+					type: 'http',
+					scheme: 'bearer',
+					description:
+						'A personal or service token (Account → API tokens), sent as `Authorization: Bearer <token>`. Its scopes are acts of the permission table: an operation needs the act named in its `x-act`. Never send a token in the address.'
+				}
 			},
 			schemas: { Problem: problemSchema },
 			responses: {
@@ -169,6 +175,10 @@ export function buildOpenApiDocument(origin: string) {
 				Problem409: problemResponse(
 					'Changed by someone else meanwhile, or in a state that forbids this; reload and retry'
 				),
+				Problem412: problemResponse(
+					'If-Match names a revision that is no longer the record’s: GET it again and redo the change'
+				),
+				Problem428: problemResponse('An update needs If-Match with the ETag GET gave'),
 				Problem422: problemResponse(
 					'Well-formed input that the science cannot use, e.g. a run the integrator cannot follow, a run past the site’s time limit or a profile missing data; `detail` says why'
 				),

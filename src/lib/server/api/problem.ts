@@ -21,10 +21,12 @@ const TYPES: Record<number, string> = {
 	403: 'urn:brothwright:problem:forbidden',
 	404: 'urn:brothwright:problem:not-found',
 	409: 'urn:brothwright:problem:conflict',
+	412: 'urn:brothwright:problem:stale-edit',
 	413: 'urn:brothwright:problem:too-large',
 	415: 'urn:brothwright:problem:unsupported-media-type',
 	422: 'urn:brothwright:problem:unprocessable',
-	429: 'urn:brothwright:problem:too-many-attempts'
+	428: 'urn:brothwright:problem:if-match-required',
+	429: 'urn:brothwright:problem:too-many-requests'
 };
 
 /** RFC 9457 problem details. */
