@@ -1,0 +1,160 @@
+// Cursor pages for the API's sorted lists. A cursor carries the sort, the direction, the sort
+// value of the last row a page gave and its id: the next page starts right after that row, so a
+// row added or removed meanwhile neither repeats nor skips one, and a deep page costs what the first
+// does (no OFFSET to count off).
+import {
+	and,
+	eq,
+	gt,
+	isNotNull,
+	isNull,
+	lt,
+	or,
+	sql,
+	type SQL,
+	type SQLWrapper
+} from 'drizzle-orm';
+import { z } from 'zod';
+import { RuleError } from './rule-error';
+import { DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE, type SortDirection } from './list-paging';
+
+export type SortValue = string | number | null;
+
+export interface KeysetCursor {
+	sort: string;
+	dir: SortDirection;
+	value: SortValue;
+	id: string;
+}
+
+export function encodeKeysetCursor(cursor: KeysetCursor): string {
+	return Buffer.from(JSON.stringify([cursor.sort, cursor.dir, cursor.value, cursor.id])).toString(
+		'base64url'
+	);
+}
+
+export function decodeKeysetCursor(text: string): KeysetCursor | null {
+	try {
+		const parts: unknown = JSON.parse(Buffer.from(text, 'base64url').toString('utf8'));
+		if (!Array.isArray(parts) || parts.length !== 4) return null;
+		const [sort, dir, value, id] = parts;
+		if (typeof sort !== 'string' || (dir !== 'asc' && dir !== 'desc') || typeof id !== 'string')
+			return null;
+		if (value !== null && typeof value !== 'string' && typeof value !== 'number') return null;
+		return { sort, dir, value, id };
+	} catch {
+		return null;
+	}
+}
+
+/** The raw sort value of a row, selected beside it so its page can end in a cursor. */
+export function sortValueOf(column: SQLWrapper): SQL<SortValue> {
+	return sql<SortValue>`${column}`;
+}
+
+/**
+ * Rows after the cursor's row in the order `column dir, id dir` (`orderFor`). SQLite puts NULL
+ * before every value, so ascending pages read the NULLs first and descending pages last.
+ */
+export function rowsAfter(column: SQLWrapper, idColumn: SQLWrapper, cursor: KeysetCursor): SQL {
+	const beyond = cursor.dir === 'asc' ? gt : lt;
+	const col = column as SQL;
+	if (cursor.value === null) {
+		const sameNull = and(isNull(col), beyond(idColumn as SQL, cursor.id))!;
+		return cursor.dir === 'asc' ? or(sameNull, isNotNull(col))! : sameNull;
+	}
+	const later = or(
+		beyond(col, cursor.value),
+		and(eq(col, cursor.value), beyond(idColumn as SQL, cursor.id))
+	)!;
+	return cursor.dir === 'asc' ? later : or(later, isNull(col))!;
+}
+
+/**
+ * The query fields of a cursor list: `after` (the `next` of the page before), `limit`, `sort` and
+ * `dir`. A cursor this list did not give, or one from the same list sorted otherwise, is refused
+ * by name.
+ */
+export function keysetFields<S extends readonly [string, ...string[]]>(
+	sorts: S,
+	defaults: { sort: S[number]; dir: SortDirection }
+) {
+	return {
+		after: z
+			.string()
+			.max(1000)
+			.optional()
+			.refine((v) => v === undefined || decodeKeysetCursor(v) !== null, {
+				error: 'after must be the next cursor a previous page of this list gave.'
+			})
+			.describe('The `next` cursor of the page before; absent: the first page'),
+		limit: z.coerce
+			.number({ error: 'limit must be a whole number.' })
+			.int('limit must be a whole number.')
+			.min(1, 'limit starts at 1.')
+			.max(MAX_PAGE_SIZE, `limit is at most ${MAX_PAGE_SIZE}.`)
+			.default(DEFAULT_PAGE_SIZE)
+			.describe(`Rows per page (at most ${MAX_PAGE_SIZE})`),
+		sort: z
+			.enum(sorts, { error: `sort must be one of ${sorts.join(', ')}.` })
+			.default(defaults.sort as never)
+			.describe('Column to sort by'),
+		dir: z
+			.enum(['asc', 'desc'], { error: 'dir must be asc or desc.' })
+			.default(defaults.dir)
+			.describe('Sort direction')
+	};
+}
+
+/** A query's cursor, checked to belong to the same sort; a mismatch is a refusal naming `after`. */
+export function cursorOf(query: {
+	after?: string;
+	sort: string;
+	dir: SortDirection;
+}): KeysetCursor | undefined {
+	if (query.after === undefined) return undefined;
+	const cursor = decodeKeysetCursor(query.after)!;
+	if (cursor.sort !== query.sort || cursor.dir !== query.dir)
+		throw new RuleError(
+			`after was given by this list sorted by ${cursor.sort} ${cursor.dir}; ask with sort=${cursor.sort}&dir=${cursor.dir}, or start again without after.`,
+			{ field: 'after' }
+		);
+	return cursor;
+}
+
+/** A cursor page: its rows, the honest count of every row the filter matches, and what comes next. */
+export interface KeysetPage<T> {
+	items: T[];
+	total: number;
+	limit: number;
+	/** The cursor for the next page; null on the last one. */
+	next: string | null;
+}
+
+/**
+ * The page from `limit + 1` rows read (each with its `sortValue`): the extra row only says whether
+ * another page follows, and the last row kept gives the cursor.
+ */
+export function keysetPageOf<T extends { id: string; sortValue: SortValue }>(
+	rowsRead: T[],
+	query: { limit: number; sort: string; dir: SortDirection },
+	total: number
+): KeysetPage<Omit<T, 'sortValue'>> {
+	const more = rowsRead.length > query.limit;
+	const kept = rowsRead.slice(0, query.limit);
+	const last = kept.at(-1);
+	return {
+		items: kept.map(({ sortValue: _sortValue, ...row }) => row),
+		total,
+		limit: query.limit,
+		next:
+			more && last
+				? encodeKeysetCursor({
+						sort: query.sort,
+						dir: query.dir,
+						value: last.sortValue,
+						id: last.id
+					})
+				: null
+	};
+}
