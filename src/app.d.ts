@@ -11,6 +11,8 @@ declare global {
 		interface Locals {
 			user: { id: string; email: string; name: string; roles: Role[] } | null;
 			session: import('$lib/server/auth/sessions').Session | null;
+			/** The API token the request came with (API paths only); null for a session or nobody. */
+			apiToken?: import('$lib/server/db/schema').ApiToken | null;
 		}
 		interface PageData {
 			user?: App.Locals['user'];

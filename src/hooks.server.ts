@@ -10,6 +10,7 @@ import {
 	validateSessionToken
 } from '$lib/server/auth/sessions';
 import { rolesOf } from '$lib/server/people';
+import { handleBearerTokens } from '$lib/server/auth/bearer';
 import { handleMalformedBodies } from '$lib/server/request-body-check';
 import { handleCompression } from '$lib/server/compression';
 import { handleHardeningHeaders } from '$lib/server/security-headers';
@@ -33,6 +34,7 @@ const handleDecimalMark: Handle = async ({ event, resolve }) => {
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {
+	if (event.locals.apiToken) return resolve(event);
 	const token = event.cookies.get(SESSION_COOKIE_NAME);
 	event.locals.user = null;
 	event.locals.session = null;
@@ -86,6 +88,7 @@ export const handle = sequence(
 	handleHardeningHeaders,
 	handleSecurityHeaders,
 	handleDecimalMark,
+	handleBearerTokens,
 	handleSession,
 	handleApiProblems,
 	handleMalformedBodies

@@ -25,6 +25,12 @@ export const NAVIGATION: NavItem[] = [
 	{ href: '/admin/people', label: 'People', act: 'admin.people', section: 'Administration' },
 	{ href: '/admin/outbox', label: 'Outbox', act: 'admin.outbox', section: 'Administration' },
 	{ href: '/admin/audit', label: 'Audit trail', act: 'admin.audit', section: 'Administration' },
+	{
+		href: '/admin/tokens',
+		label: 'Service tokens',
+		act: 'admin.tokens',
+		section: 'Administration'
+	},
 	{ href: '/admin/settings', label: 'Settings', act: 'admin.settings', section: 'Administration' }
 ];
 

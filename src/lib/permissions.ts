@@ -13,6 +13,7 @@ export const PERMISSIONS = {
 	'session.end': 'signed-in',
 	'workspace.view': 'signed-in', // the signed-in shell, the overview and who am I
 	'account.password': 'signed-in', // change one's own password
+	'account.tokens': 'signed-in', // one's own personal API tokens: make, list, revoke
 
 	'recipe.view': 'signed-in', // recipes, their versions, comparisons, prints and CSV
 	'recipe.edit': ['media_scientist'], // create recipes; write, submit, retire drafts; start a new draft
@@ -41,7 +42,8 @@ export const PERMISSIONS = {
 	'admin.people': ['admin'], // people, invitations and roles
 	'admin.outbox': ['admin'],
 	'admin.audit': ['admin'],
-	'admin.settings': ['admin']
+	'admin.settings': ['admin'],
+	'admin.tokens': ['admin'] // service tokens, and revoking anyone's token
 } as const satisfies Record<string, Access>;
 
 export type Act = keyof typeof PERMISSIONS;

@@ -7,6 +7,8 @@ export interface Actor {
 	id: string | null;
 	email: string | null;
 	address?: string | null;
+	/** The API token the act came through, named in the entry so the trail tells a script from a person. */
+	viaToken?: { id: string; name: string } | null;
 }
 
 export interface AuditEntry {
@@ -29,7 +31,9 @@ export function recordAudit(actor: Actor, entry: AuditEntry, writer: Writer = db
 		action: entry.action,
 		subjectType: entry.subjectType ?? null,
 		subjectId: entry.subjectId ?? null,
-		detail: entry.detail ?? null
+		detail: actor.viaToken
+			? { ...entry.detail, viaToken: { id: actor.viaToken.id, name: actor.viaToken.name } }
+			: (entry.detail ?? null)
 	};
 	const stored = {
 		id: values.id,

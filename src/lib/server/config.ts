@@ -54,6 +54,14 @@ export const config = {
 			.map((o) => o.trim())
 			.filter(Boolean);
 	},
+	/** Active personal API tokens one person may hold. */
+	get apiTokensPerPerson() {
+		return intEnv('API_TOKENS_PER_PERSON', 10);
+	},
+	/** Requests a minute a personal token may make; an administrator sets each service token's own. */
+	get apiTokenRequestsPerMinute() {
+		return intEnv('API_TOKEN_REQUESTS_PER_MINUTE', 300);
+	},
 	get seedDemo() {
 		return env('NODE_ENV') !== 'production' || env('DEMO') === '1';
 	}

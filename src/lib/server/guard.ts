@@ -3,6 +3,8 @@ import { getRequestEvent } from '$app/server';
 import { accessFor, PERMISSIONS, type Access, type Act } from '$lib/permissions';
 import { describeRoles, hasRole, ROLE_LABELS } from '$lib/roles';
 import type { Actor } from './audit';
+import { tokenGrants } from './auth/api-tokens';
+import { ACT_LABELS } from '$lib/token-scopes';
 
 export type SignedInUser = NonNullable<App.Locals['user']>;
 
@@ -23,7 +25,9 @@ export function decideAccess(
 	if (access === 'public') return { kind: 'allow', user };
 	if (!user) {
 		if (request.pathname.startsWith('/api/') || request.method !== 'GET') {
-			return { kind: 'deny', status: 401, message: 'Sign in first: this needs a signed-in user.' };
+			return { kind: 'deny', status: 401, message: request.pathname.startsWith('/api/')
+					? 'Sign in first, or send an API token as Authorization: Bearer <token>.'
+					: 'Sign in first: this needs a signed-in user.' };
 		}
 		return { kind: 'sign-in', next: request.pathname + (request.search ?? '') };
 	}
@@ -59,6 +63,14 @@ export function requirePermission<A extends Act>(act: A): UserFor<A> {
 		redirect(303, `/login?next=${encodeURIComponent(decision.next)}`);
 	if (decision.kind === 'deny')
 		error(decision.status, { message: decision.message, needed: decision.needed });
+	const token = event.locals.apiToken;
+	if (token && accessFor(act) !== 'public' && decision.user) {
+		if (!tokenGrants(token, act, actorOf(decision.user)))
+			error(403, {
+				message: `This token (“${token.name}”) does not have the scope ${act} (${ACT_LABELS[act]}). Make a token with it under Account → API tokens.`,
+				needed: act
+			});
+	}
 	return decision.user as UserFor<A>;
 }
 
@@ -72,7 +84,20 @@ export function requireActor(
 type PublicAct = { [A in Act]: (typeof PERMISSIONS)[A] extends 'public' ? A : never }[Act];
 
 export function actorOf(user: SignedInUser): SignedInUser & Required<Actor> & { address: string } {
-	return { ...user, address: clientAddress() };
+	const token = tokenOfRequest();
+	return {
+		...user,
+		address: clientAddress(),
+		viaToken: token ? { id: token.id, name: token.name } : null
+	};
+}
+
+function tokenOfRequest(): { id: string; name: string } | null {
+	try {
+		return getRequestEvent()?.locals.apiToken ?? null;
+	} catch {
+		return null; // outside a request: seeding, start-up
+	}
 }
 
 export function clientAddress(): string {

@@ -52,7 +52,12 @@ export interface PersonRow {
 }
 
 export function listPeople(): PersonRow[] {
-	const users = db.select().from(user).orderBy(asc(user.email)).all();
+	const users = db
+		.select()
+		.from(user)
+		.where(eq(user.kind, 'person'))
+		.orderBy(asc(user.email))
+		.all();
 	const roleRows = db.select().from(userRole).all();
 	return users.map((u) => ({
 		id: u.id,

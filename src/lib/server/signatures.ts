@@ -1,3 +1,4 @@
+import { getRequestEvent } from '$app/server';
 import { createHash } from 'node:crypto';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import { recordAudit, type Actor } from './audit';
@@ -86,12 +87,27 @@ export async function checkSigningPassword(
  * other. A wrong password records nothing but an audit entry, and answers with a field error.
  * (better-sqlite3 transactions are synchronous, so the password is checked before the transaction opens.)
  */
+/** Whether the request in hand came with an API token (a script), not a person's session. */
+function signedInByToken(): boolean {
+	try {
+		return getRequestEvent().locals.apiToken != null;
+	} catch {
+		return false; // outside a request (seeding, tests calling the rule directly)
+	}
+}
+
 export async function signRecord<T>(
 	request: SignatureRequest,
 	write: (tx: Tx, signature: ESignature) => T
 ): Promise<T> {
 	const signer = db.select().from(user).where(eq(user.id, request.user.id)).get();
-	if (!signer || !signer.active) throw new RuleError('This account cannot sign.', { status: 403 });
+	if (!signer || !signer.active || signer.kind !== 'person')
+		throw new RuleError('This account cannot sign.', { status: 403 });
+	if (signedInByToken())
+		throw new RuleError(
+			'A signature needs the signer’s password in the app: an API token never signs.',
+			{ status: 403 }
+		);
 	const actor: Actor = { id: signer.id, email: signer.email, address: request.address ?? null };
 	if (!request.password) {
 		throw new RuleError('Enter your password to sign.', { field: 'password' });

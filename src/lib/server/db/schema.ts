@@ -16,6 +16,8 @@ export const user = sqliteTable('user', {
 	name: text('name').notNull(),
 	passwordHash: text('password_hash').notNull(),
 	active: integer('active', { mode: 'boolean' }).notNull().default(true),
+	/** 'service': the account a service token acts as; it has no password and never signs in. */
+	kind: text('kind').$type<'person' | 'service'>().notNull().default('person'),
 	createdAt: createdAt(),
 	deactivatedAt: integer('deactivated_at', { mode: 'timestamp_ms' })
 });
@@ -173,3 +175,4 @@ export * from './inventory.schema';
 export * from './batches.schema';
 export * from './studies.schema';
 export * from './runs.schema';
+export * from './tokens.schema';

@@ -113,7 +113,7 @@ function recipientsOfRecall(): string[] {
 		.select({ email: user.email, role: userRole.role })
 		.from(user)
 		.innerJoin(userRole, eq(userRole.userId, user.id))
-		.where(eq(user.active, true))
+		.where(and(eq(user.active, true), eq(user.kind, 'person')))
 		.all();
 	return [
 		...new Set(

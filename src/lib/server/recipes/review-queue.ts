@@ -23,7 +23,13 @@ function activeSigners(): Reviewer[] {
 		.selectDistinct({ id: user.id, name: user.name, email: user.email })
 		.from(user)
 		.innerJoin(userRole, eq(userRole.userId, user.id))
-		.where(and(eq(user.active, true), inArray(userRole.role, signingRoles)))
+		.where(
+			and(
+				eq(user.active, true),
+				eq(user.kind, 'person'),
+				inArray(userRole.role, signingRoles)
+			)
+		)
 		.orderBy(asc(user.name))
 		.all();
 }

@@ -134,6 +134,11 @@ const SENTENCES: Record<string, Sentence> = {
 		`Unlinked batch ${text(d.batchNumber)} from run ${s}${because(d)}`,
 	'run.data_added': (d, s) =>
 		`Added ${plural(d.inserted, 'point')} to run ${s} from ${d.source === 'api' ? 'the API' : `the file ${text(d.fileName)}`}${typeof d.replaced === 'number' && d.replaced > 0 ? `, replacing ${plural(d.replaced, 'point')}` : ''}`,
+	'token.created': (d) =>
+		`Made the ${text(d.kind)} API token “${text(d.name)}” with ${plural(Array.isArray(d.scopes) ? d.scopes.length : d.scopes, 'scope')} (${text(d.scopes)}), expiring ${text(d.expiresAt).slice(0, 10)}`,
+	'token.revoked': (d) => `Revoked the API token “${text(d.name)}”${because(d)}`,
+	'token.scope_first_used': (d) =>
+		`The API token “${text(d.name)}” used its scope ${text(d.scope)} for the first time`,
 	'profile.learned_from_run': (d, s) =>
 		`Saved growth values fitted to run ${text(d.runNumber)} to profile ${s} (${text(d.fields)})`
 };
@@ -155,9 +160,11 @@ export function readableCode(action: string): string {
 export function describeAction(action: string, detail: Detail | null, subject: string): string {
 	const build = SENTENCES[action];
 	if (!build) return readableCode(action);
-	return build(detail ?? {}, subject)
+	const via = detail?.viaToken as { name?: unknown } | undefined;
+	const sentence = build(detail ?? {}, subject)
 		.replace(/\s+/g, ' ')
 		.trim();
+	return via ? `${sentence} (through the API token “${text(via.name)}”)` : sentence;
 }
 
 /** Every action that has its own sentence, for the act filter. */

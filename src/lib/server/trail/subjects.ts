@@ -2,6 +2,7 @@ import { eq, inArray } from 'drizzle-orm';
 import { db } from '../db';
 import { idSlices } from '../db/id-slices';
 import {
+	apiToken,
 	batch,
 	component,
 	invitation,
@@ -122,6 +123,20 @@ const KINDS: Record<string, SubjectKind> = {
 				.where(inArray(study.id, ids))
 				.all()
 				.map((r) => ({ ...r, href: `/studies/${r.id}` }))
+	},
+	api_token: {
+		typeLabel: 'API token',
+		find: (ids) =>
+			db
+				.select({ id: apiToken.id, label: apiToken.name, kind: apiToken.kind })
+				.from(apiToken)
+				.where(inArray(apiToken.id, ids))
+				.all()
+				.map((r) => ({
+					id: r.id,
+					label: r.label,
+					href: r.kind === 'service' ? '/admin/tokens' : '/account/tokens'
+				}))
 	},
 	run: {
 		typeLabel: 'Run',
