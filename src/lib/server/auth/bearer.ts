@@ -15,6 +15,14 @@ function tokenInAddress(url: URL): string | null {
 	return null;
 }
 
+/** A header value carries only visible ASCII: curly quotes and arrows become plain ones or go. */
+function headerText(detail: string): string {
+	return detail
+		.replace(/[“”"\\]/g, "'")
+		.replace(/→/g, '>')
+		.replace(/[^\x20-\x7e]/g, '');
+}
+
 function refusal(status: 400 | 401 | 429, detail: string, headers: Record<string, string> = {}) {
 	return problem(status, detail, { headers: { 'cache-control': 'no-store', ...headers } });
 }
@@ -37,7 +45,7 @@ export const handleBearerTokens: Handle = async ({ event, resolve }) => {
 	const check = checkBearer(header);
 	if (!check.ok)
 		return refusal(401, check.detail, {
-			'www-authenticate': `Bearer error="invalid_token", error_description="${check.detail.replace(/["\\]/g, "'")}"`
+			'www-authenticate': `Bearer error="invalid_token", error_description="${headerText(check.detail)}"`
 		});
 	const waitS = takeTokenRequest(check.token.id, check.token.requestsPerMinute);
 	if (waitS !== null)
