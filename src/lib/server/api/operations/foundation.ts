@@ -1,8 +1,10 @@
 import { z } from 'zod';
+import { ACTS, type Act } from '$lib/permissions';
 import { ROLES } from '$lib/roles';
+import { API_TOKEN_KINDS } from '../../db/tokens.schema';
 import type { SignedInUser } from '../../guard';
 import type { ApiOperation, buildOpenApiDocument } from '../openapi';
-import { describes, documentsPartOf } from '../shapes';
+import { describes, documentsPartOf, isoTime } from '../shapes';
 
 export const sessionRequest = z.object({
 	email: z.email().max(254),
@@ -17,6 +19,19 @@ export const meResponse = describes<SignedInUser>()(
 		roles: z.array(z.enum(ROLES))
 	})
 );
+
+export const whoAmIResponse = meResponse.extend({
+	token: z
+		.object({
+			id: z.string().describe('the public part of the token (bwt_<id>_…)'),
+			name: z.string(),
+			kind: z.enum(API_TOKEN_KINDS),
+			scopes: z.array(z.enum(ACTS as [Act, ...Act[]])),
+			expiresAt: isoTime()
+		})
+		.nullable()
+		.describe('null when the request came with the session cookie')
+});
 
 export const healthResponse = z.object({
 	status: z.literal('ok'),
@@ -48,9 +63,10 @@ export const foundationOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/me',
-		summary: 'The signed-in user: e-mail, name and roles',
+		summary:
+			'Who is asking: the person (or service account) with their roles, and the API token the request came with, if any',
 		act: 'workspace.view',
-		response: meResponse
+		response: whoAmIResponse
 	},
 	{
 		method: 'post',
