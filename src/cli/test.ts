@@ -73,15 +73,23 @@ async function runTogether(
 
 const PDF_RENDERER = '/usr/bin/pdftoppm';
 
-/** Debian packages the browser tests need: Chromium, and poppler-utils to render printed PDFs. */
+const onPath = (command: string) =>
+	spawnSync('sh', ['-c', `command -v ${command}`], { stdio: 'ignore' }).status === 0;
+
+/**
+ * Debian packages the browser tests need: Chromium, poppler-utils to render printed PDFs, and curl
+ * and Python 3 to run the API examples in `examples/` against the test server.
+ */
 function ensureBrowserTools(): void {
 	const missing = [
 		...(existsSync(chromium) ? [] : ['chromium']),
-		...(existsSync(PDF_RENDERER) ? [] : ['poppler-utils'])
+		...(existsSync(PDF_RENDERER) ? [] : ['poppler-utils']),
+		...(onPath('curl') ? [] : ['curl']),
+		...(onPath('python3') ? [] : ['python3'])
 	];
 	if (!missing.length) return;
 	const isRoot = process.getuid?.() === 0;
-	const hasApt = spawnSync('sh', ['-c', 'command -v apt-get'], { stdio: 'ignore' }).status === 0;
+	const hasApt = onPath('apt-get');
 	const chromiumElsewhere = missing.includes('chromium') && process.env.CHROMIUM_PATH;
 	if (isRoot && hasApt && !chromiumElsewhere) {
 		console.log(`Missing for the browser tests: installing Debian's ${missing.join(' and ')}.`);
@@ -93,11 +101,12 @@ function ensureBrowserTools(): void {
 			{ DEBIAN_FRONTEND: 'noninteractive' },
 			true
 		);
-		if (existsSync(chromium) && existsSync(PDF_RENDERER)) return;
+		if (existsSync(chromium) && existsSync(PDF_RENDERER) && onPath('curl') && onPath('python3'))
+			return;
 	}
 	console.error(
-		`The browser tests need Chromium at ${chromium} and pdftoppm at ${PDF_RENDERER}.\n` +
-			"Install Debian's packages (as root: apt-get update && apt-get install -y chromium poppler-utils),\n" +
+		`The browser tests need Chromium at ${chromium}, pdftoppm at ${PDF_RENDERER}, curl and python3.\n` +
+			"Install Debian's packages (as root: apt-get update && apt-get install -y chromium poppler-utils curl python3),\n" +
 			'or set CHROMIUM_PATH to a Chromium or Chrome binary.'
 	);
 	process.exit(1);
