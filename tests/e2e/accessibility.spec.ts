@@ -48,7 +48,8 @@ const PAGES_BY_ROLE: Record<DemoRole, { fixed: string[]; details: [string, RegEx
 			'/recipes/new',
 			'/components',
 			'/components/import',
-			'/account/password'
+			'/account/password',
+			'/account/tokens'
 		],
 		details: [
 			['/recipes', /^\/recipes\/(?!new$)[^/]+$/],
@@ -82,7 +83,14 @@ const PAGES_BY_ROLE: Record<DemoRole, { fixed: string[]; details: [string, RegEx
 		details: [['/lots', /^\/lots\/(?!receive$|import$|labels$)[^/]+$/]]
 	},
 	admin: {
-		fixed: ['/', '/admin/people', '/admin/outbox', '/admin/audit', '/admin/settings'],
+		fixed: [
+			'/',
+			'/admin/people',
+			'/admin/outbox',
+			'/admin/audit',
+			'/admin/settings',
+			'/admin/tokens'
+		],
 		details: []
 	}
 };
