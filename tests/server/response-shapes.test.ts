@@ -4,10 +4,18 @@ import { and, eq, isNotNull } from 'drizzle-orm';
 import type { z } from 'zod';
 import { allOperations } from '$lib/server/api/openapi';
 import { db } from '$lib/server/db';
-import { batch, batchLine, recipe, recipeVersion, study } from '$lib/server/db/schema';
+import {
+	batch,
+	batchLine,
+	organismProfile,
+	recipe,
+	recipeVersion,
+	study,
+	vessel
+} from '$lib/server/db/schema';
 import { saveScenario } from '$lib/server/scenarios';
 import { createRun } from '$lib/server/runs/run-store';
-import { callJson } from './endpoint-call';
+import { callJson, enterEvent } from './endpoint-call';
 import { makeUser } from './helpers';
 import { useDemoDatabase } from './demo-database';
 
@@ -62,6 +70,8 @@ let approvedVersionId: string;
 let lotId: string;
 let batchId: string;
 let runId: string;
+let profileId: string;
+let vesselId: string;
 
 // A feed for the demo bacterium study that needs two feeds (calcium apart from phosphate).
 const feedRequest = {
@@ -109,6 +119,44 @@ const get =
 			path
 		);
 		return callJson((await route(path)).GET, 'get', concrete, undefined, { user, params });
+	};
+
+// Library records written through the API: a fresh name each call, as names are unique.
+const fresh = (what: string) => `Shapes ${what} ${crypto.randomUUID().slice(0, 8)}`;
+const newComponent = (name = fresh('salt')) => ({ name, category: 'salt', formula: 'CsCl' });
+const newProfile = (name = fresh('bacterium')) => ({
+	name,
+	group: 'bacterium',
+	kind: 'elementalFractions',
+	presetId: 'bacterium-neidhardt-1990',
+	carbonSourceId: 'd-glucose',
+	yieldXSGPerG: 0.5,
+	element: { Fe: { role: 'required' } }
+});
+const newVessel = (name = fresh('tank')) => ({
+	name,
+	minWorkingVolumeL: 1,
+	maxWorkingVolumeL: 10,
+	kLaMode: 'entered',
+	kLaPerH: 150,
+	maxGasFlowVvm: 1,
+	maxPressureKPa: 200,
+	temperatureC: 30,
+	coolingCapacityW: 500,
+	impellerCount: 1
+});
+
+/** Creates a record with POST, then replaces it with PUT at the ETag the creation gave. */
+const createThenPut =
+	(path: string, body: (name?: string) => Record<string, unknown>) => async () => {
+		const created = await (await post(path, body())()).json();
+		const request = new Request(new URL(`${path}/${created.id}`, 'http://127.0.0.1'), {
+			method: 'PUT',
+			headers: { 'content-type': 'application/json', 'if-match': '"1"' },
+			body: JSON.stringify(body(created.name))
+		});
+		const handler = (await route(`${path}/[id]`)).PUT;
+		return handler(enterEvent(request, { user, params: { id: created.id } }));
 	};
 
 /** One real call per documented response, keyed `method path` as in the OpenAPI document. */
@@ -218,6 +266,17 @@ const calls: Record<string, () => Promise<Response>> = {
 	'get /api/v1/recipes/{id}/versions/{n}': async () =>
 		get('/api/v1/recipes/[id]/versions/[n]', { id: recipeId, n: approvedN })(),
 	'get /api/v1/components': get('/api/v1/components'),
+	'post /api/v1/components': async () => post('/api/v1/components', newComponent())(),
+	'get /api/v1/components/{id}': get('/api/v1/components/[id]', { id: 'sodium-chloride' }),
+	'put /api/v1/components/{id}': createThenPut('/api/v1/components', newComponent),
+	'get /api/v1/profiles': get('/api/v1/profiles'),
+	'post /api/v1/profiles': async () => post('/api/v1/profiles', newProfile())(),
+	'get /api/v1/profiles/{id}': async () => get('/api/v1/profiles/[id]', { id: profileId })(),
+	'put /api/v1/profiles/{id}': createThenPut('/api/v1/profiles', newProfile),
+	'get /api/v1/vessels': get('/api/v1/vessels'),
+	'post /api/v1/vessels': async () => post('/api/v1/vessels', newVessel())(),
+	'get /api/v1/vessels/{id}': async () => get('/api/v1/vessels/[id]', { id: vesselId })(),
+	'put /api/v1/vessels/{id}': createThenPut('/api/v1/vessels', newVessel),
 	'get /api/v1/lots': get('/api/v1/lots'),
 	'post /api/v1/lots': post('/api/v1/lots', {
 		component: 'd-glucose',
@@ -310,6 +369,8 @@ beforeAll(async () => {
 		.from(batchLine)
 		.where(and(eq(batchLine.batchId, batchId), isNotNull(batchLine.lotId)))
 		.get()!.lotId!;
+	profileId = db.select().from(organismProfile).get()!.id;
+	vesselId = db.select().from(vessel).get()!.id;
 	runId = createRun(
 		{ id: user.id, email: user.email },
 		{

@@ -2,9 +2,11 @@ import { z } from 'zod';
 import { accessFor, type Act } from '$lib/permissions';
 import { auditOperations } from './operations/audit';
 import { chemistryOperations } from './operations/chemistry';
+import { componentsOperations } from './operations/components';
 import { foundationOperations } from './operations/foundation';
 import { inventoryOperations } from './operations/inventory';
 import { batchesOperations } from './operations/batches';
+import { profilesVesselsOperations } from './operations/profiles-vessels';
 import { recipesOperations } from './operations/recipes';
 import { simulationOperations } from './operations/simulation';
 import { studiesOperations } from './operations/studies';
@@ -60,10 +62,12 @@ export function allOperations(): ApiOperation[] {
 		...foundationOperations,
 		...chemistryOperations,
 		...recipesOperations,
+		...componentsOperations,
 		...simulationOperations,
 		...inventoryOperations,
 		...batchesOperations,
 		...studiesOperations,
+		...profilesVesselsOperations,
 		...runsOperations,
 		...auditOperations
 	];

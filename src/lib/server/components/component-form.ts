@@ -37,15 +37,33 @@ export const COMPONENT_FIELDS = [
 	'basisComponent'
 ] as const;
 
-/** The component form's shape: every field as text; checkComponentText says what each must hold. */
-export const componentForm = z.object(
-	Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, formText])) as Record<
-		(typeof COMPONENT_FIELDS)[number],
+/** The fields that hold a number: the form sends their text, the API a JSON number or the text. */
+const NUMBER_FIELDS = ['molarMassGPerMol', 'osmoticCoefficient'] as const;
+type NumberField = (typeof NUMBER_FIELDS)[number];
+
+const notANumber = 'Give a number, or leave it empty.';
+const formNumber = z
+	.union([z.number({ error: notANumber }), z.string({ error: notANumber })])
+	.default('');
+
+/**
+ * The component's shape, on the form and in the API alike: every field as text (a number field may
+ * be a number); checkComponentText says what each must hold.
+ */
+export const componentForm = z.object({
+	...(Object.fromEntries(COMPONENT_FIELDS.map((f) => [f, formText])) as Record<
+		Exclude<ComponentField, NumberField>,
 		typeof formText
-	>
-);
+	>),
+	...(Object.fromEntries(NUMBER_FIELDS.map((f) => [f, formNumber])) as Record<
+		NumberField,
+		typeof formNumber
+	>)
+});
 export type ComponentField = (typeof COMPONENT_FIELDS)[number];
 export type ComponentText = Record<ComponentField, string>;
+/** A component as entered: text, or a number where the field holds one. */
+export type ComponentInput = z.infer<typeof componentForm>;
 
 type Reader = Pick<Db, 'select'>;
 
@@ -73,16 +91,18 @@ export function componentText(row: Component | undefined): ComponentText {
 }
 
 function optionalNumber(
-	text: string,
+	entered: string | number,
 	field: string,
 	errors: FieldErrors,
 	check: (n: number) => string | null
 ): number | null {
-	const trimmed = text.trim();
-	if (!trimmed) return null;
-	const read = readDecimalText(trimmed, 'Number');
+	if (typeof entered === 'string' && !entered.trim()) return null;
+	const read =
+		typeof entered === 'number'
+			? { ok: true as const, value: entered }
+			: readDecimalText(entered.trim(), 'Number');
 	const value = read.ok ? read.value : NaN;
-	const problem = read.ok ? check(value) : `“${trimmed}” is not a number.`;
+	const problem = read.ok ? check(value) : `“${String(entered).trim()}” is not a number.`;
 	if (problem) {
 		errors[field] = [problem];
 		return null;
@@ -95,13 +115,16 @@ function optionalNumber(
  * `selfId` is the component being edited (it may keep its own name, and cannot be its own basis).
  */
 export function checkComponentText(
-	input: Partial<ComponentText>,
+	input: Partial<ComponentInput>,
 	options: { selfId?: string; reader?: Reader } = {}
 ): { ok: true; value: NewComponent } | { ok: false; fieldErrors: FieldErrors } {
 	const reader = options.reader ?? db;
 	const t = Object.fromEntries(
-		COMPONENT_FIELDS.map((f) => [f, (input[f] ?? '').trim()])
-	) as ComponentText;
+		COMPONENT_FIELDS.map((f) => {
+			const entered = input[f] ?? '';
+			return [f, typeof entered === 'number' ? entered : entered.trim()];
+		})
+	) as ComponentInput;
 	const errors: FieldErrors = {};
 
 	checkNameAndCategory(t, errors, reader, options.selfId);
@@ -152,7 +175,7 @@ export function checkComponentText(
 }
 
 function checkNameAndCategory(
-	t: ComponentText,
+	t: ComponentInput,
 	errors: FieldErrors,
 	reader: Reader,
 	selfId: string | undefined
@@ -174,7 +197,7 @@ function checkNameAndCategory(
 }
 
 function checkFormulaAndMass(
-	t: ComponentText,
+	t: ComponentInput,
 	errors: FieldErrors
 ): { formulaMolarMass: number | null; molarMass: number | null } {
 	let formulaMolarMass: number | null = null;
@@ -198,7 +221,7 @@ function checkFormulaAndMass(
 }
 
 /** Elemental fractions (complex materials) and ions; a component needs a formula or fractions. */
-function checkMakeUp(t: ComponentText, errors: FieldErrors, molarMass: number | null) {
+function checkMakeUp(t: ComponentInput, errors: FieldErrors, molarMass: number | null) {
 	const fractions = parseFractions(t.elementalMassFractions);
 	if (!fractions.ok) errors.elementalMassFractions = [fractions.error];
 	else if (fractions.value && t.formula) {
@@ -223,7 +246,7 @@ function checkMakeUp(t: ComponentText, errors: FieldErrors, molarMass: number | 
 	return { fractions: fractions.ok ? fractions.value : null, ions: ions.ok ? ions.value : null };
 }
 
-function checkSolubilityAndHazards(t: ComponentText, errors: FieldErrors) {
+function checkSolubilityAndHazards(t: ComponentInput, errors: FieldErrors) {
 	const solubility = parseSolubility(t.solubility);
 	if (!solubility.ok) errors.solubility = [solubility.error];
 	if (t.solubilityBasisFormula) {
@@ -249,7 +272,7 @@ function checkSolubilityAndHazards(t: ComponentText, errors: FieldErrors) {
 
 /** The component this one is a form of (a hydrate of an anhydrous salt, say), by id or name. */
 function checkBasisComponent(
-	t: ComponentText,
+	t: ComponentInput,
 	errors: FieldErrors,
 	reader: Reader,
 	selfId: string | undefined

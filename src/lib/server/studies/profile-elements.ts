@@ -72,24 +72,44 @@ export function checkProfileFormula(p: {
 export const elementField = (symbol: string, part: 'role' | 'confidence' | 'source') =>
 	`element.${symbol}.${part}`;
 
+/** Each element's statement as typed: its role, confidence and source, by element symbol. */
+export type ElementStatementTexts = Record<
+	string,
+	{ role?: string; confidence?: string; source?: string }
+>;
+
+const ELEMENT_FIELD = /^element\.([A-Z][a-z]?)\.(role|confidence|source)$/;
+
+/** The statements a profile form carries in its fields `element.<symbol>.<part>`, as the API sends them. */
+export function elementStatementTextsOf(formData: FormData): ElementStatementTexts {
+	const texts: ElementStatementTexts = {};
+	for (const [name, value] of formData.entries()) {
+		const match = ELEMENT_FIELD.exec(name);
+		if (!match || typeof value !== 'string') continue;
+		const [, symbol, part] = match as unknown as [string, string, 'role' | 'confidence' | 'source'];
+		const statement = (texts[symbol] ??= {});
+		// The first value of a field counts, as FormData.get reads it.
+		statement[part] ??= value;
+	}
+	return texts;
+}
+
 /**
- * Reads each element's role, confidence and source from the profile form. Only elements the profile
- * gives a value for are kept; rows the form still holds for elements taken out of the fractions are
- * left behind (their inputs are disabled in the browser, so they normally do not arrive at all).
+ * Reads each element's role, confidence and source. Only elements the profile gives a value for are
+ * kept; statements for elements taken out of the fractions are left behind (the form disables their
+ * inputs in the browser, so they normally do not arrive at all).
  */
-export function readElementStatementsForm(
-	formData: FormData,
+export function readElementStatements(
+	texts: ElementStatementTexts,
 	elements: string[]
 ): ElementStatements {
-	const text = (name: string) => {
-		const v = formData.get(name);
-		return typeof v === 'string' ? v.trim() : '';
-	};
+	const text = (symbol: string, part: 'role' | 'confidence' | 'source') =>
+		(Object.hasOwn(texts, symbol) ? (texts[symbol][part] ?? '') : '').trim();
 	const out: ElementStatements = {};
 	for (const symbol of elements) {
 		if (!(symbol in ATOMIC_WEIGHTS)) continue;
 		const statement: ElementStatement = {};
-		const role = text(elementField(symbol, 'role'));
+		const role = text(symbol, 'role');
 		if (role !== '') {
 			if (!(ELEMENT_ROLES as readonly string[]).includes(role)) {
 				throw new RuleError(`Role of ${symbol}: choose required or trace (or keep the default).`, {
@@ -98,7 +118,7 @@ export function readElementStatementsForm(
 			}
 			statement.role = role as ElementRole;
 		}
-		const confidence = text(elementField(symbol, 'confidence'));
+		const confidence = text(symbol, 'confidence');
 		if (confidence !== '') {
 			if (!(VALUE_CONFIDENCES as readonly string[]).includes(confidence)) {
 				throw new RuleError(
@@ -108,7 +128,7 @@ export function readElementStatementsForm(
 			}
 			statement.confidence = confidence as ValueConfidence;
 		}
-		const source = text(elementField(symbol, 'source'));
+		const source = text(symbol, 'source');
 		if (source.length > MAX_SOURCE_LENGTH) {
 			throw new RuleError(
 				`Source of ${symbol}: at most ${MAX_SOURCE_LENGTH} characters (now ${source.length}).`,

@@ -2,6 +2,7 @@ import { BIOMASS_COMPOSITIONS } from '$chemistry';
 import { listComponents } from '../components/library';
 import { z } from 'zod';
 import { parseForm, revisionField, ruleFailure } from '../forms';
+import { elementStatementTextsOf } from './profile-elements';
 import { profileSchema, profileValues, saveProfile } from './profile-store';
 import type { Actor } from '../audit';
 
@@ -29,7 +30,8 @@ export function submitProfile(actor: Actor, formData: FormData, id: string | nul
 	if (revisionRead && !revisionRead.ok) return { failure: revisionRead.failure };
 	try {
 		const revision = revisionRead ? revisionRead.data.revision : null;
-		return { id: saveProfile(actor, id, revision, profileValues(parsed.data, formData)) };
+		const values = profileValues(parsed.data, elementStatementTextsOf(formData));
+		return { id: saveProfile(actor, id, revision, values) };
 	} catch (cause) {
 		return { failure: ruleFailure(formData, cause) };
 	}

@@ -22,7 +22,11 @@ import { organismProfile, type OrganismProfileRow } from '../db/schema';
 import { findComponent, molarMassOfComponent } from '../components/library';
 import { RuleError } from '../rule-error';
 import { optionalNumber, optionalText, requiredText } from './fields';
-import { elementStatementFormValues, readElementStatementsForm } from './profile-elements';
+import {
+	elementStatementFormValues,
+	readElementStatements,
+	type ElementStatementTexts
+} from './profile-elements';
 import { formatSubstrateYields, parseSubstrateYields, resolveCarbonYield } from './profile-yields';
 
 export const profileSchema = z.object({
@@ -178,10 +182,14 @@ export function formatConsumption(list: PerCellConsumption[] | null): string {
 
 /**
  * Turns the checked form into stored values; a published preset fills blank fractions, names its
- * source and gives each element the table's grade. `formData` carries each element's role,
- * confidence and source (fields `element.<symbol>.<part>`); without it, none is stated.
+ * source and gives each element the table's grade. `statements` holds each element's role,
+ * confidence and source as typed (the form's fields `element.<symbol>.<part>`, the API's `element`);
+ * without it, none is stated.
  */
-export function profileValues(form: ProfileForm, formData?: FormData): ProfileValues {
+export function profileValues(
+	form: ProfileForm,
+	statements?: ElementStatementTexts
+): ProfileValues {
 	let elementalFractions = parseFractions(form.elementalFractions);
 	let fractionsSource = form.fractionsSource || null;
 	let elementStatements: ElementStatements | null = null;
@@ -202,9 +210,9 @@ export function profileValues(form: ProfileForm, formData?: FormData): ProfileVa
 	}
 	const componentRequirements = parseRequirements(form.componentRequirements);
 	const perCellConsumption = parseConsumption(form.perCellConsumption);
-	if (!elementStatements && formData)
-		elementStatements = readElementStatementsForm(
-			formData,
+	if (!elementStatements && statements)
+		elementStatements = readElementStatements(
+			statements,
 			listProfileElements({ elementalFractions, perCellConsumption })
 		);
 	if (form.kind === 'elementalFractions' && !elementalFractions) {
