@@ -62,6 +62,7 @@ test.describe('personal API tokens', () => {
 		page
 	}) => {
 		await page.goto('/account/tokens');
+		await page.getByLabel('Name').fill('   ');
 		await page.getByLabel('Expires after (days)').fill('400');
 		await page.getByRole('button', { name: 'Make the token' }).click();
 		await expect(page.getByText('Name the token after what will use it')).toBeVisible();
