@@ -14,8 +14,10 @@ import {
 	vessel
 } from '$lib/server/db/schema';
 import { saveScenario } from '$lib/server/scenarios';
-import { createRun } from '$lib/server/runs/run-store';
+import { createRun, setRunState } from '$lib/server/runs/run-store';
 import { callJson, enterEvent } from './endpoint-call';
+import { callRoute } from './api-write-calls';
+import { studyRecord } from '$lib/server/studies/study-api';
 import { makeUser } from './helpers';
 import { useDemoDatabase } from './demo-database';
 
@@ -328,10 +330,121 @@ const calls: Record<string, () => Promise<Response>> = {
 			// a new time each call, so the check can run again without a clash
 			{ points: [{ time_s: ++dataRound * 60, do_percent: 80, ph: 7 }] },
 			{ user, params: { id: runId } }
-		)
+		),
+	...writeCalls()
 };
 let draftRound = 0;
 let dataRound = 0;
+
+/** The writes for recipe drafts, studies and runs: each call makes the record it changes. */
+function writeCalls(): Record<string, () => Promise<Response>> {
+	let round = 0;
+	const newDraft = () =>
+		callRoute('POST', '/api/v1/recipes', {
+			user,
+			body: {
+				name: `Shapes recipe ${++round} ${crypto.randomUUID().slice(0, 6)}`,
+				kind: 'basal',
+				lines: [{ componentId: 'sodium-chloride', amount: 5, unit: 'g/L' }]
+			}
+		});
+	const onNewDraft = async (method: 'PUT' | 'POST', path: string, body?: unknown) => {
+		const created = await newDraft();
+		const { recipe: made } = (await created.json()) as { recipe: { id: string } };
+		return callRoute(method, `/api/v1/recipes/[id]/versions/[n]${path}`, {
+			user,
+			params: { id: made.id, n: '1' },
+			ifMatch: created.headers.get('etag')!,
+			body
+		});
+	};
+	const newRun = () =>
+		createRun(
+			{ id: user.id, email: user.email },
+			{
+				name: `Shapes run ${++round}`,
+				studyId,
+				vesselId: '',
+				profileId: '',
+				startedAt: '2026-12-01T08:00',
+				gasReferenceTemperatureC: 0,
+				gasReferencePressureKPa: 101.325,
+				people: '',
+				notes: ''
+			}
+		).id;
+	const studyBody = () => {
+		const {
+			id: _id,
+			createdById: _c,
+			createdByName: _n,
+			revision: _r,
+			...rest
+		} = studyRecord(studyId);
+		const { createdAt: _a, updatedAt: _u, ...body } = rest;
+		return body;
+	};
+	return {
+		'post /api/v1/recipes': newDraft,
+		'put /api/v1/recipes/{id}/versions/{n}': () => onNewDraft('PUT', '', { targetPh: 7.1 }),
+		'put /api/v1/recipes/{id}/versions/{n}/lines': () =>
+			onNewDraft('PUT', '/lines', {
+				lines: [{ componentId: 'd-glucose', amount: 10, unit: 'g/L' }]
+			}),
+		'post /api/v1/recipes/{id}/versions/{n}/submit': () => onNewDraft('POST', '/submit'),
+		'post /api/v1/recipes/{id}/drafts': () =>
+			callRoute('POST', '/api/v1/recipes/[id]/drafts', {
+				user,
+				params: { id: recipeId },
+				body: { fromVersion: Number(approvedN) }
+			}),
+		'post /api/v1/studies': () =>
+			callRoute('POST', '/api/v1/studies', {
+				user,
+				body: { ...studyBody(), name: `Shapes study ${++round}` }
+			}),
+		'get /api/v1/studies/{id}': () =>
+			callRoute('GET', '/api/v1/studies/[id]', { user, params: { id: studyId } }),
+		'put /api/v1/studies/{id}': () =>
+			callRoute('PUT', '/api/v1/studies/[id]', {
+				user,
+				params: { id: studyId },
+				ifMatch: `"${studyRecord(studyId).revision}"`,
+				body: { notes: `Shapes note ${++round}` }
+			}),
+		'post /api/v1/runs': () =>
+			callRoute('POST', '/api/v1/runs', {
+				user,
+				body: { name: `Shapes run ${++round}`, studyId, startedAt: '2026-12-02T08:00' }
+			}),
+		'get /api/v1/runs/{id}': () =>
+			callRoute('GET', '/api/v1/runs/[id]', { user, params: { id: runId } }),
+		'post /api/v1/runs/{id}/close': () =>
+			callRoute('POST', '/api/v1/runs/[id]/close', {
+				user,
+				params: { id: newRun() },
+				ifMatch: '"1"'
+			}),
+		'post /api/v1/runs/{id}/reopen': () => {
+			const id = newRun();
+			setRunState({ id: user.id, email: user.email }, id, 'closed', '');
+			return callRoute('POST', '/api/v1/runs/[id]/reopen', {
+				user,
+				params: { id },
+				ifMatch: '"2"',
+				body: { reason: 'More data came in' }
+			});
+		},
+		'post /api/v1/runs/{id}/batches': async () => {
+			const released = db.select().from(batch).where(eq(batch.id, batchId)).get()!;
+			return callRoute('POST', '/api/v1/runs/[id]/batches', {
+				user,
+				params: { id: newRun() },
+				body: { batchNumber: released.number, role: 'medium' }
+			});
+		}
+	};
+}
 
 const documented = allOperations().filter((op) => op.response !== undefined);
 

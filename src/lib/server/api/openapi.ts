@@ -11,6 +11,10 @@ import { recipesOperations } from './operations/recipes';
 import { simulationOperations } from './operations/simulation';
 import { studiesOperations } from './operations/studies';
 import { runsOperations } from './operations/runs';
+import { recipeWriteOperations } from './operations/recipe-writes';
+import { studyWriteOperations } from './operations/study-writes';
+import { runWriteOperations } from './operations/run-writes';
+import { signatureOperations, signatureRequiredExample } from './operations/signatures';
 
 export interface ApiOperation {
 	method: 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -69,7 +73,11 @@ export function allOperations(): ApiOperation[] {
 		...studiesOperations,
 		...profilesVesselsOperations,
 		...runsOperations,
-		...auditOperations
+		...auditOperations,
+		...recipeWriteOperations,
+		...studyWriteOperations,
+		...runWriteOperations,
+		...signatureOperations
 	];
 }
 
@@ -174,7 +182,16 @@ export function buildOpenApiDocument(origin: string) {
 			responses: {
 				Problem400: problemResponse('Invalid input; `errors` lists each field path'),
 				Problem401: problemResponse('Not signed in'),
-				Problem403: problemResponse('Signed in without a role this needs'),
+				Problem403: {
+					description:
+						'Signed in without a role this needs, or an act that needs an electronic signature (type urn:brothwright:problem:signature-required, `signAt`: the page of the app where it is given)',
+					content: {
+						'application/problem+json': {
+							schema: { $ref: '#/components/schemas/Problem' },
+							examples: { 'signature-required': signatureRequiredExample }
+						}
+					}
+				},
 				Problem404: problemResponse('No such record (or not one this person may see)'),
 				Problem409: problemResponse(
 					'Changed by someone else meanwhile, or in a state that forbids this; reload and retry'

@@ -121,3 +121,26 @@ export async function mailReviewers(version: {
 	});
 	return reviewers.map((r) => r.email);
 }
+
+/**
+ * After a submission: mails the reviewers and says what came of it, as the author reads it. A mail
+ * that cannot be sent does not undo the submission.
+ */
+export async function tellReviewers(version: {
+	id: string;
+	recipeId: string;
+	authorId: string;
+	n: number;
+}): Promise<{ mailed: number; told: string }> {
+	try {
+		const to = await mailReviewers(version);
+		return to.length
+			? { mailed: to.length, told: `${countOf(to.length, 'reviewer')} told by mail.` }
+			: {
+					mailed: 0,
+					told: 'Nobody else may review it yet: ask an administrator to give someone the role.'
+				};
+	} catch {
+		return { mailed: 0, told: 'The mail to the reviewers could not be sent; tell them yourself.' };
+	}
+}

@@ -35,6 +35,18 @@ export const runSchema = z.object({
 
 export type RunForm = z.infer<typeof runSchema>;
 
+/** What the new-run form holds before anyone types: flows stated at standard conditions, 0 °C and 101.325 kPa. */
+export const RUN_FORM_DEFAULTS = {
+	gasReferenceTemperatureC: '0',
+	gasReferencePressureKPa: '101.325'
+};
+
+/** Linking a batch: its number (typed or scanned) and what it was used for. */
+export const runBatchLinkSchema = z.object({
+	batchNumber: z.string().default(''),
+	role: z.enum(RUN_BATCH_ROLES, { error: 'Choose medium or feed' })
+});
+
 /** RUN-2026-007: the year of the start and the next number in it. */
 function nextRunNumber(startedAt: Date, tx: Pick<typeof db, 'select'>): string {
 	const year = startedAt.getUTCFullYear();

@@ -1,14 +1,17 @@
 import { error, fail } from '@sveltejs/kit';
-import { z } from 'zod';
 import { may } from '$lib/permissions';
-import { RUN_BATCH_ROLES } from '$lib/runs/states';
 import { formValues, parseForm, ruleFailure } from '$lib/server/forms';
 import { requireActor, requirePermission } from '$lib/server/guard';
 import { RuleError } from '$lib/server/rule-error';
 import { LEARNABLE_FIELDS, saveLearnedValues } from '$lib/server/runs/learn-profile';
 import { findRun } from '$lib/server/runs/run-data';
 import { loadRunPage, releasedBatchChoices } from '$lib/server/runs/run-page';
-import { linkBatch, setRunState, unlinkBatch } from '$lib/server/runs/run-store';
+import {
+	linkBatch,
+	runBatchLinkSchema,
+	setRunState,
+	unlinkBatch
+} from '$lib/server/runs/run-store';
 import type { Actions, PageServerLoad } from './$types';
 
 function runOr404(id: string) {
@@ -31,16 +34,11 @@ export const load: PageServerLoad = async ({ params }) => {
 	};
 };
 
-const linkSchema = z.object({
-	batchNumber: z.string().default(''),
-	role: z.enum(RUN_BATCH_ROLES, { error: 'Choose medium or feed' })
-});
-
 export const actions: Actions = {
 	link: async ({ request, params }) => {
 		const actor = requireActor('run.record');
 		const formData = await request.formData();
-		const parsed = parseForm(linkSchema, formData);
+		const parsed = parseForm(runBatchLinkSchema, formData);
 		if (!parsed.ok) return parsed.failure;
 		try {
 			const linked = linkBatch(

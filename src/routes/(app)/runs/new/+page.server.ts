@@ -5,7 +5,7 @@ import { db } from '$lib/server/db';
 import { study } from '$lib/server/db/schema';
 import { parseForm, ruleFailure } from '$lib/server/forms';
 import { requireActor, requirePermission } from '$lib/server/guard';
-import { createRun, runSchema } from '$lib/server/runs/run-store';
+import { createRun, RUN_FORM_DEFAULTS, runSchema } from '$lib/server/runs/run-store';
 import { siteTimeZone } from '$lib/server/site-time-zone';
 import { listProfiles, listVessels } from '$lib/server/studies/queries';
 import type { Actions, PageServerLoad } from './$types';
@@ -30,8 +30,7 @@ export const load: PageServerLoad = async ({ url }) => {
 		values: {
 			studyId: url.searchParams.get('study') ?? '',
 			startedAt: formatIsoLocal(new Date(), zone).slice(0, 16),
-			gasReferenceTemperatureC: '0',
-			gasReferencePressureKPa: '101.325'
+			...RUN_FORM_DEFAULTS
 		} as Record<string, string>
 	};
 };

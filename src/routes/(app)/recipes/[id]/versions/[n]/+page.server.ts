@@ -1,6 +1,5 @@
 import { readableEntries } from '$lib/server/trail/entries';
-import { countOf } from '$lib/plural';
-import { eligibleReviewers, mailReviewers } from '$lib/server/recipes/review-queue';
+import { eligibleReviewers, tellReviewers } from '$lib/server/recipes/review-queue';
 import { ACKNOWLEDGEMENT_FIELD, warningsOf } from '$lib/server/recipes/open-warnings';
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
@@ -91,14 +90,8 @@ export const actions: Actions = {
 		} catch (cause) {
 			return ruleFailure(formData, cause);
 		}
-		const told = await mailReviewers(version).then(
-			(to) =>
-				to.length
-					? ` ${countOf(to.length, 'reviewer')} told by mail.`
-					: ' Nobody else may review it yet: ask an administrator to give someone the role.',
-			() => ' The mail to the reviewers could not be sent; tell them yourself.'
-		);
-		return { done: `Version ${version.n} is submitted for review.${told}` };
+		const { told } = await tellReviewers(version);
+		return { done: `Version ${version.n} is submitted for review. ${told}` };
 	},
 	sign: async ({ request, params }) => {
 		const user = requirePermission('recipe.sign');

@@ -2,9 +2,9 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { listComponents } from '$lib/server/components/library';
 import { RuleError } from '$lib/server/rule-error';
 import { versionNumber } from '$lib/server/recipes/access';
-import { analyseLines } from '$lib/server/recipes/analysis';
-import { checkDraft, readDraftForm } from '$lib/server/recipes/draft';
-import { fieldsOf, saveDraft, StaleEditError } from '$lib/server/recipes/drafts';
+import { readDraftForm } from '$lib/server/recipes/draft';
+import { saveEditedDraft } from '$lib/server/recipes/draft-writes';
+import { fieldsOf, StaleEditError } from '$lib/server/recipes/drafts';
 import { findRecipe, findVersion, linesOf, listStockRecipes } from '$lib/server/recipes/queries';
 import { toDraftFields, toDraftLines, toPickerComponents } from '$lib/server/recipes/editor-data';
 import { z } from 'zod';
@@ -54,24 +54,21 @@ export const actions: Actions = {
 			});
 		}
 		const revision = revisionRead.data.revision;
-		const checked = checkDraft(draft, recipe.id);
-		if (!checked.ok) {
-			const count = Object.keys(checked.fieldErrors).length;
-			return fail(400, {
-				message: `Nothing was saved: ${count === 1 ? 'one input needs' : `${count} inputs need`} attention, marked below.`,
-				fieldErrors: checked.fieldErrors,
-				draft
-			});
-		}
 		try {
-			analyseLines(checked.value.lines, {
-				temperatureC: checked.value.fields.preparationTemperatureC,
-				osmolalityMinMOsmPerKg: null,
-				osmolalityMaxMOsmPerKg: null,
-				recipeId: recipe.id
-			});
-			const newRevision = saveDraft(actor, version.id, revision, checked.value);
-			return { saved: true, revision: newRevision, savedAt: new Date().toISOString() };
+			const saved = saveEditedDraft(
+				actor,
+				{ recipeId: recipe.id, versionId: version.id, revision },
+				draft
+			);
+			if (!saved.ok) {
+				const count = Object.keys(saved.fieldErrors).length;
+				return fail(400, {
+					message: `Nothing was saved: ${count === 1 ? 'one input needs' : `${count} inputs need`} attention, marked below.`,
+					fieldErrors: saved.fieldErrors,
+					draft
+				});
+			}
+			return { saved: true, revision: saved.value, savedAt: new Date().toISOString() };
 		} catch (cause) {
 			if (cause instanceof StaleEditError) {
 				const theirs = cause.theirs;
