@@ -112,7 +112,14 @@ export function endpoint<S extends z.ZodType | undefined = undefined>(
 				return problem(400, cause.message, { errors, position: cause.position });
 			}
 			if (cause instanceof RuleError) {
-				const errors = cause.field ? [{ path: cause.field, message: cause.message }] : undefined;
+				// Every field a rule names, as the page shows each beside its own.
+				const errors = cause.fieldErrors
+					? Object.entries(cause.fieldErrors).flatMap(([path, messages]) =>
+							messages.map((message) => ({ path, message }))
+						)
+					: cause.field
+						? [{ path: cause.field, message: cause.message }]
+						: undefined;
 				return problem(cause.status, cause.message, { errors });
 			}
 			if (isHttpError(cause)) return problem(cause.status, cause.body.message);

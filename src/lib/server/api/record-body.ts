@@ -2,7 +2,6 @@
 // the schema of the page that writes the same record, and every refusal names its field by its body
 // path in the page's own words, with the form's label in the detail a person reads.
 import { z } from 'zod';
-import type { FieldErrors } from '../forms';
 import { ApiProblem, zodProblems } from './endpoint';
 import { withEtag } from './etag';
 import type { FieldProblem } from './problem';
@@ -57,13 +56,6 @@ export function fieldsRefused(problems: FieldProblem[], labelOf: LabelOf): ApiPr
 			? `Nothing was saved. ${listed}`
 			: `Nothing was saved: ${problems.length} fields need correcting. ${listed}`,
 		problems
-	);
-}
-
-/** A form check's field errors as the API's problems, in the order the check found them. */
-export function problemsOf(fieldErrors: FieldErrors): FieldProblem[] {
-	return Object.entries(fieldErrors).flatMap(([path, messages]) =>
-		messages.map((message) => ({ path, message }))
 	);
 }
 

@@ -1,3 +1,4 @@
+import { problemsOfFieldErrors } from '$lib/server/api/refusals';
 import { endpoint } from '$lib/server/api/endpoint';
 import { componentListQuery } from '$lib/server/api/operations/recipes';
 import { parseQuery } from '$lib/server/api/query';
@@ -7,7 +8,6 @@ import {
 	createdRecord,
 	fieldsRefused,
 	jsonObjectBody,
-	problemsOf,
 	readRecordBody
 } from '$lib/server/api/record-body';
 import { checkComponentText } from '$lib/server/components/component-form';
@@ -25,7 +25,7 @@ export const GET = endpoint({ act: 'component.view' }, ({ event }) => {
 export const POST = endpoint({ act: 'component.edit', body: jsonObjectBody }, ({ user, body }) => {
 	const input = readRecordBody(componentRequest, body, componentLabel);
 	const checked = checkComponentText(input);
-	if (!checked.ok) throw fieldsRefused(problemsOf(checked.fieldErrors), componentLabel);
+	if (!checked.ok) throw fieldsRefused(problemsOfFieldErrors(checked.fieldErrors), componentLabel);
 	const actor = actorOf(user!);
 	const id = db.transaction((tx) => createComponent(actor, checked.value, tx));
 	const row = findComponent(id)!;

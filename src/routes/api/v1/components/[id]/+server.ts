@@ -1,12 +1,8 @@
+import { problemsOfFieldErrors } from '$lib/server/api/refusals';
 import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
 import { revisionFromIfMatch, withEtag } from '$lib/server/api/etag';
 import { componentLabel, componentRequest } from '$lib/server/api/operations/components';
-import {
-	fieldsRefused,
-	jsonObjectBody,
-	problemsOf,
-	readRecordBody
-} from '$lib/server/api/record-body';
+import { fieldsRefused, jsonObjectBody, readRecordBody } from '$lib/server/api/record-body';
 import { checkComponentText } from '$lib/server/components/component-form';
 import { findComponent, updateComponent } from '$lib/server/components/library';
 import { actorOf } from '$lib/server/guard';
@@ -30,7 +26,8 @@ export const PUT = endpoint(
 		const revision = revisionFromIfMatch(event, componentOr404(id).revision);
 		const input = readRecordBody(componentRequest, body, componentLabel);
 		const checked = checkComponentText(input, { selfId: id });
-		if (!checked.ok) throw fieldsRefused(problemsOf(checked.fieldErrors), componentLabel);
+		if (!checked.ok)
+			throw fieldsRefused(problemsOfFieldErrors(checked.fieldErrors), componentLabel);
 		updateComponent(actorOf(user!), id, revision, checked.value);
 		const row = componentOr404(id);
 		return withEtag(row, row.revision);
