@@ -45,7 +45,7 @@ interface RecipeLineView {
 
 /** The preview body of a demo recipe's current lines, as the editor sends it. */
 async function previewBodyOf(origin: string, cookie: string): Promise<unknown> {
-	const list = await fetch(`${origin}/api/v1/recipes?pageSize=1`, { headers: { cookie } });
+	const list = await fetch(`${origin}/api/v1/recipes?limit=1`, { headers: { cookie } });
 	const { items } = (await list.json()) as { items: { id: string }[] };
 	const recipe = await fetch(`${origin}/api/v1/recipes/${items[0].id}/versions/1`, {
 		headers: { cookie }
@@ -66,8 +66,8 @@ async function previewBodyOf(origin: string, cookie: string): Promise<unknown> {
 
 async function firstStudyId(origin: string, cookie: string): Promise<string> {
 	const list = await fetch(`${origin}/api/v1/studies`, { headers: { cookie } });
-	const { studies } = (await list.json()) as { studies: { id: string }[] };
-	return studies[0].id;
+	const { items } = (await list.json()) as { items: { id: string }[] };
+	return items[0].id;
 }
 
 export function scenario(): Promise<ScenarioFigure[]> {

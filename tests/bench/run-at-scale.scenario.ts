@@ -57,9 +57,9 @@ export function scenario(): Promise<ScenarioFigure[]> {
 		const { origin } = app;
 		const cookie = await app.signIn('engineer@demo.test');
 		const studies = await fetch(`${origin}/api/v1/studies`, { headers: { cookie } });
-		const { studies: list } = (await studies.json()) as { studies: { id: string }[] };
+		const { items: list } = (await studies.json()) as { items: { id: string }[] };
 		const runs = await fetch(`${origin}/api/v1/runs`, { headers: { cookie } });
-		const { runs: existing } = (await runs.json()) as { runs: { id: string }[] };
+		const { items: existing } = (await runs.json()) as { items: { id: string }[] };
 		if (!list.length || !existing.length) throw new Error('The demo has no study or run.');
 		// A fresh run is needed: the demo run's data would clash. Its form is the page's; the API
 		// writes only data, so the bench starts the run the way the page does.

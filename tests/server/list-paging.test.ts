@@ -1,9 +1,10 @@
-// The lot and batch lists page, sort and search on the server, in the API and the pages alike;
-// the API refuses paging parameters out of range with a 400 naming them, a page falls back.
+// The lot and batch lists page, sort and search on the server, in the API (by cursor) and the pages
+// (by number) alike; the API refuses paging parameters out of range with a 400 naming them, a page
+// falls back.
 import { describe, expect, it, vi } from 'vitest';
 import { GET as getLots } from '../../src/routes/api/v1/lots/+server';
 import { GET as getBatches } from '../../src/routes/api/v1/batches/+server';
-import { lotListQuery } from '$lib/server/api/operations/inventory';
+import { lotPageQuery } from '$lib/server/api/operations/inventory';
 import { seedReferenceLibrary } from '$lib/server/components/reference-library';
 import { lenientQuery, MAX_PAGE_SIZE } from '$lib/server/list-paging';
 import { eq } from 'drizzle-orm';
@@ -35,9 +36,16 @@ describe('lists paged on the server', () => {
 			'P-01',
 			'P-02'
 		]);
-		const last = await lotsApi('sort=supplier&dir=asc&limit=2&page=3&q=P-0', lead);
+		const second = await lotsApi(
+			`sort=supplier&dir=asc&limit=2&q=P-0&after=${first.body.next}`,
+			lead
+		);
+		const last = await lotsApi(
+			`sort=supplier&dir=asc&limit=2&q=P-0&after=${second.body.next}`,
+			lead
+		);
 		expect(last.body.items.map((l: { supplierLot: string }) => l.supplierLot)).toEqual(['P-05']);
-		expect(last.body).toMatchObject({ total: 5, page: 3, limit: 2 });
+		expect(last.body).toMatchObject({ total: 5, limit: 2, next: null });
 	});
 
 	it('searches through the trigram index, kept in step when a component is renamed', async () => {
@@ -61,9 +69,7 @@ describe('lists paged on the server', () => {
 	});
 
 	it.each([
-		['page=0', 'page', 'page starts at 1.'],
-		['page=abc', 'page', 'page must be a whole number.'],
-		['page=99999999999999999999', 'page', 'page is at most 1000000.'],
+		['after=not-a-cursor', 'after', 'after must be the next cursor a previous page'],
 		[`limit=${MAX_PAGE_SIZE + 1}`, 'limit', `limit is at most ${MAX_PAGE_SIZE}.`],
 		['sort=price', 'sort', 'sort must be one of'],
 		['dir=sideways', 'dir', 'dir must be asc or desc.']
@@ -82,9 +88,20 @@ describe('lists paged on the server', () => {
 		expect(batches.status).toBe(400);
 	});
 
+	it.each([
+		['page=0', 'page starts at 1.'],
+		['page=abc', 'page must be a whole number.'],
+		['page=99999999999999999999', 'page is at most 1000000.']
+	])('the page query refuses %s by name', (query, message) => {
+		const parsed = lotPageQuery.safeParse(Object.fromEntries(new URLSearchParams(query)));
+		expect(parsed.success).toBe(false);
+		expect(parsed.error!.issues.every((i) => i.path.join('.') === 'page')).toBe(true);
+		expect(parsed.error!.issues.map((i) => i.message)).toContain(message);
+	});
+
 	it('a page falls back to the default for each bad parameter and keeps the good ones', () => {
 		const url = new URL('http://127.0.0.1/lots?page=-2&sort=onHand&dir=sideways&status=released');
-		expect(lenientQuery(lotListQuery, url)).toMatchObject({
+		expect(lenientQuery(lotPageQuery, url)).toMatchObject({
 			page: 1,
 			limit: 50,
 			sort: 'onHand',

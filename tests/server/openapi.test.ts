@@ -185,25 +185,41 @@ describe('the simulate operation’s documented request', () => {
 });
 
 describe('the paged lists’ documented query', () => {
-	it('names page, limit, sort and dir from the schema the endpoints read them with', () => {
+	it('names after, limit, sort and dir from the schema the endpoints read them with', () => {
 		const doc = buildOpenApiDocument('http://127.0.0.1');
 		type Parameter = { name: string; in: string; schema: Record<string, unknown> };
-		for (const [path, sorts] of [
+		type Schema = { properties: Record<string, unknown> };
+		for (const [path, sorts, filters] of [
 			[
 				'/api/v1/lots',
-				['code', 'component', 'supplier', 'status', 'onHand', 'expiresOn', 'receivedOn']
+				['code', 'component', 'supplier', 'status', 'onHand', 'expiresOn', 'receivedOn'],
+				['component', 'status', 'expiringBefore', 'q']
 			],
-			['/api/v1/batches', ['number', 'state', 'recipe', 'volume', 'plannedOn', 'intendedUse']],
-			['/api/v1/components', ['name', 'formula', 'category', 'casNumber']]
+			[
+				'/api/v1/batches',
+				['number', 'state', 'recipe', 'volume', 'plannedOn', 'intendedUse'],
+				['state', 'recipe', 'from', 'to', 'q']
+			],
+			['/api/v1/components', ['name', 'formula', 'category', 'casNumber'], ['category', 'q']],
+			['/api/v1/recipes', ['name'], ['kind', 'status', 'component', 'q']],
+			['/api/v1/studies', ['name', 'organism', 'vessel', 'updatedAt'], ['q']],
+			['/api/v1/runs', ['number', 'name', 'startedAt', 'vessel'], ['q']]
 		] as const) {
-			const operation = doc.paths[path].get as { parameters: Parameter[]; responses: object };
+			const operation = doc.paths[path].get as {
+				parameters: Parameter[];
+				responses: Record<string, { content: Record<string, { schema: Schema }> }>;
+			};
 			const byName = new Map(operation.parameters.map((p) => [p.name, p]));
-			expect(byName.get('page')).toMatchObject({ in: 'query', schema: { minimum: 1 } });
+			expect(byName.get('after'), path).toMatchObject({ in: 'query', schema: { type: 'string' } });
+			expect(byName.has('page'), path).toBe(false);
 			expect(byName.get('limit')).toMatchObject({ schema: { maximum: 200, default: 50 } });
 			expect(byName.get('sort')?.schema.enum).toEqual(sorts);
 			expect(byName.get('dir')?.schema.enum).toEqual(['asc', 'desc']);
-			expect(byName.has('q')).toBe(true);
+			for (const name of ['after', 'limit', 'sort', 'dir', ...filters])
+				expect(byName.get(name)?.schema.description, `${path} ${name}`).toBeTruthy();
 			expect(Object.keys(operation.responses)).toContain('400');
+			const answer = operation.responses['200'].content['application/json'].schema;
+			expect(Object.keys(answer.properties), path).toEqual(['items', 'total', 'limit', 'next']);
 		}
 	});
 });

@@ -363,7 +363,7 @@ describe('GET /api/v1/runs', () => {
 		const response = await list('?limit=100');
 		expect(response.status).toBe(200);
 		const body = await response.json();
-		const row = body.runs.find((r: { id: string }) => r.id === run.id);
+		const row = body.items.find((r: { id: string }) => r.id === run.id);
 		expect(row).toMatchObject({
 			number: run.number,
 			name: 'Listed glycerol run',
@@ -376,9 +376,9 @@ describe('GET /api/v1/runs', () => {
 
 	it('filters with q', async () => {
 		const found = await (await list(`?q=${encodeURIComponent('listed glycerol')}`)).json();
-		expect(found.runs.map((r: { id: string }) => r.id)).toEqual([run.id]);
+		expect(found.items.map((r: { id: string }) => r.id)).toEqual([run.id]);
 		expect(found.total).toBe(1);
 		const none = await (await list('?q=no-such-run-anywhere')).json();
-		expect(none).toMatchObject({ runs: [], total: 0 });
+		expect(none).toMatchObject({ items: [], total: 0, next: null });
 	});
 });

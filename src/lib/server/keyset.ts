@@ -2,18 +2,7 @@
 // value of the last row a page gave and its id: the next page starts right after that row, so a
 // row added or removed meanwhile neither repeats nor skips one, and a deep page costs what the first
 // does (no OFFSET to count off).
-import {
-	and,
-	eq,
-	gt,
-	isNotNull,
-	isNull,
-	lt,
-	or,
-	sql,
-	type SQL,
-	type SQLWrapper
-} from 'drizzle-orm';
+import { Column, is, sql, type SQL, type SQLWrapper } from 'drizzle-orm';
 import { z } from 'zod';
 import { RuleError } from './rule-error';
 import { DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE, type SortDirection } from './list-paging';
@@ -24,6 +13,7 @@ export interface KeysetCursor {
 	sort: string;
 	dir: SortDirection;
 	value: SortValue;
+	/** The row's id, or its value in the list's tie-breaker when that is another unique column. */
 	id: string;
 }
 
@@ -53,21 +43,30 @@ export function sortValueOf(column: SQLWrapper): SQL<SortValue> {
 }
 
 /**
- * Rows after the cursor's row in the order `column dir, id dir` (`orderFor`). SQLite puts NULL
- * before every value, so ascending pages read the NULLs first and descending pages last.
+ * Rows after the cursor's row in the order `column dir, tieBreaker dir` (`orderFor`). SQLite puts
+ * NULL before every value, so ascending pages read the NULLs first and descending pages last.
+ * The values are compared as stored (a timestamp column's raw milliseconds, not a Date), as a row
+ * value, so SQLite seeks an index on (column, tieBreaker) instead of counting off the rows before.
+ * A column declared NOT NULL skips the NULL branch, which would stop that seek; one read through an
+ * outer join may still be NULL, so pass it wrapped (sql`${column}`) to keep the branch.
  */
-export function rowsAfter(column: SQLWrapper, idColumn: SQLWrapper, cursor: KeysetCursor): SQL {
-	const beyond = cursor.dir === 'asc' ? gt : lt;
-	const col = column as SQL;
+export function rowsAfter(column: SQLWrapper, tieBreaker: SQLWrapper, cursor: KeysetCursor): SQL {
+	const beyond = sql.raw(cursor.dir === 'asc' ? '>' : '<');
 	if (cursor.value === null) {
-		const sameNull = and(isNull(col), beyond(idColumn as SQL, cursor.id))!;
-		return cursor.dir === 'asc' ? or(sameNull, isNotNull(col))! : sameNull;
+		const laterNull = sql`(${column} is null and ${tieBreaker} ${beyond} ${cursor.id})`;
+		return cursor.dir === 'asc' ? sql`(${laterNull} or ${column} is not null)` : laterNull;
 	}
-	const later = or(
-		beyond(col, cursor.value),
-		and(eq(col, cursor.value), beyond(idColumn as SQL, cursor.id))
-	)!;
-	return cursor.dir === 'asc' ? later : or(later, isNull(col))!;
+	const later = sql`(${column}, ${tieBreaker}) ${beyond} (${cursor.value}, ${cursor.id})`;
+	const mayBeNull = !(is(column, Column) && column.notNull);
+	return cursor.dir === 'desc' && mayBeNull ? sql`(${later} or ${column} is null)` : later;
+}
+
+/** The query of a cursor page, as `keysetFields` reads it. */
+export interface KeysetQuery<S extends string = string> {
+	after?: string;
+	limit: number;
+	sort: S;
+	dir: SortDirection;
 }
 
 /**
@@ -106,6 +105,19 @@ export function keysetFields<S extends readonly [string, ...string[]]>(
 	};
 }
 
+/** The documented answer of a cursor list: its rows as `items`, then `total`, `limit` and `next`. */
+export function keysetPageSchema<I extends z.ZodType>(items: I, counted: string) {
+	return z.object({
+		items: z.array(items),
+		total: z.int().describe(`Every ${counted} the filter matches, over all pages`),
+		limit: z.int().describe('Rows per page, as asked'),
+		next: z
+			.string()
+			.nullable()
+			.describe('Pass as `after` (same sort and dir) for the next page; null on the last')
+	});
+}
+
 /** A query's cursor, checked to belong to the same sort; a mismatch is a refusal naming `after`. */
 export function cursorOf(query: {
 	after?: string;
@@ -133,12 +145,14 @@ export interface KeysetPage<T> {
 
 /**
  * The page from `limit + 1` rows read (each with its `sortValue`): the extra row only says whether
- * another page follows, and the last row kept gives the cursor.
+ * another page follows, and the last row kept gives the cursor. `tieBreakerOf` is the row's value
+ * in the list's tie-breaker column, its id unless the list orders ties by another unique column.
  */
 export function keysetPageOf<T extends { id: string; sortValue: SortValue }>(
 	rowsRead: T[],
 	query: { limit: number; sort: string; dir: SortDirection },
-	total: number
+	total: number,
+	tieBreakerOf: (row: T) => string = (row) => row.id
 ): KeysetPage<Omit<T, 'sortValue'>> {
 	const more = rowsRead.length > query.limit;
 	const kept = rowsRead.slice(0, query.limit);
@@ -153,7 +167,7 @@ export function keysetPageOf<T extends { id: string; sortValue: SortValue }>(
 						sort: query.sort,
 						dir: query.dir,
 						value: last.sortValue,
-						id: last.id
+						id: tieBreakerOf(last)
 					})
 				: null
 	};

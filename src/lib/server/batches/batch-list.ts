@@ -1,8 +1,23 @@
-import { and, count, eq, gte, inArray, lte, sql, type SQL } from 'drizzle-orm';
+import { and, count, eq, gte, inArray, lte, sql, type SQL, type SQLWrapper } from 'drizzle-orm';
 import type { BatchState } from '$lib/batches';
 import { db } from '../db';
 import { batch, recipe, recipeVersion } from '../db/schema';
-import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
+import {
+	cursorOf,
+	keysetPageOf,
+	rowsAfter,
+	sortValueOf,
+	type KeysetCursor,
+	type KeysetQuery
+} from '../keyset';
+import {
+	offsetOf,
+	orderFor,
+	sortKeys,
+	type ListPage,
+	type Paging,
+	type SortDirection
+} from '../list-paging';
 import { searchMatch } from '../search-match';
 
 export interface BatchFilter {
@@ -46,24 +61,36 @@ function batchConditions(filter: BatchFilter): SQL | undefined {
 	return conditions.length ? and(...conditions) : undefined;
 }
 
-export type BatchListRow = Awaited<ReturnType<typeof listBatchesPage>>['rows'][number];
+export type BatchListRow = ReturnType<typeof listBatchesPage>['rows'][number];
 
-/** One page of the batches the filter matches, sorted as asked, with the count of all of them. */
-export function listBatchesPage(filter: BatchFilter, paging: Paging<BatchSort>) {
-	const where = batchConditions(filter);
-	const order = orderFor(BATCH_SORT_COLUMNS[paging.sort], paging.dir, batch.number);
-	// A deferred join, as for lots: the page's ids first, from only what the filter and order need.
+/**
+ * The ids of the batches the filter matches (after the cursor's row, when given) in the list's
+ * order, ties by number: a deferred join, as for lots, from only what the filter and order need.
+ */
+function batchIdsInOrder(
+	filter: BatchFilter,
+	sort: BatchSort,
+	dir: SortDirection,
+	cursor?: KeysetCursor
+) {
+	const order = orderFor(BATCH_SORT_COLUMNS[sort], dir, batch.number);
 	const ids =
-		paging.sort === 'recipe' || filter.search
+		sort === 'recipe' || filter.search
 			? db.select({ id: batch.id }).from(batch).innerJoin(recipe, eq(batch.recipeId, recipe.id))
 			: db.select({ id: batch.id }).from(batch);
-	const pageIds = ids
-		.where(where)
-		.orderBy(...order)
-		.limit(paging.limit)
-		.offset(offsetOf(paging));
-	const rows = db
+	const after = cursor ? rowsAfter(BATCH_SORT_COLUMNS[sort], batch.number, cursor) : undefined;
+	return { ids: ids.where(and(batchConditions(filter), after)).orderBy(...order), order };
+}
+
+/** The full rows of the batches whose ids the subquery gives, in the list's order. */
+function selectBatches<E extends Record<string, SQL>>(
+	pageIds: SQLWrapper,
+	order: SQL[],
+	extra: E = {} as E
+) {
+	return db
 		.select({
+			...extra,
 			id: batch.id,
 			number: batch.number,
 			state: batch.state,
@@ -81,10 +108,29 @@ export function listBatchesPage(filter: BatchFilter, paging: Paging<BatchSort>) 
 		.where(inArray(batch.id, pageIds))
 		.orderBy(...order)
 		.all();
+}
+
+/** How many batches the filter matches. */
+function countBatches(filter: BatchFilter): number {
 	// The recipe join is needed for the count only when the search may match a recipe's name.
 	const counted = db.select({ n: count() }).from(batch);
-	const total = (filter.search ? counted.innerJoin(recipe, eq(batch.recipeId, recipe.id)) : counted)
-		.where(where)
+	return (filter.search ? counted.innerJoin(recipe, eq(batch.recipeId, recipe.id)) : counted)
+		.where(batchConditions(filter))
 		.get()!.n;
-	return { rows, total } satisfies ListPage<unknown>;
+}
+
+/** One page of the batches the filter matches, sorted as asked, with the count of all of them. */
+export function listBatchesPage(filter: BatchFilter, paging: Paging<BatchSort>) {
+	const { ids, order } = batchIdsInOrder(filter, paging.sort, paging.dir);
+	const rows = selectBatches(ids.limit(paging.limit).offset(offsetOf(paging)), order);
+	return { rows, total: countBatches(filter) } satisfies ListPage<unknown>;
+}
+
+/** The batches after the query's cursor, sorted as asked, with the count of all and the next cursor. */
+export function listBatchesByCursor(filter: BatchFilter, query: KeysetQuery<BatchSort>) {
+	const { ids, order } = batchIdsInOrder(filter, query.sort, query.dir, cursorOf(query));
+	const rowsRead = selectBatches(ids.limit(query.limit + 1), order, {
+		sortValue: sortValueOf(BATCH_SORT_COLUMNS[query.sort])
+	});
+	return keysetPageOf(rowsRead, query, countBatches(filter), (row) => row.number);
 }

@@ -2,6 +2,14 @@ import { and, count, eq, sql, type SQL } from 'drizzle-orm';
 import type { ComponentCategoryName } from '$lib/recipes';
 import { db } from '../db';
 import { component } from '../db/schema';
+import {
+	cursorOf,
+	keysetPageOf,
+	rowsAfter,
+	sortValueOf,
+	type KeysetPage,
+	type KeysetQuery
+} from '../keyset';
 import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import type { Component } from '../db/schema';
 
@@ -35,6 +43,10 @@ function componentConditions(filter: ComponentFilter): SQL | undefined {
 	return conditions.length ? and(...conditions) : undefined;
 }
 
+function countComponents(where: SQL | undefined): number {
+	return db.select({ n: count() }).from(component).where(where).get()!.n;
+}
+
 /** One page of the library, sorted as asked, with the count of every component the filter matches. */
 export function listComponentsPage(
 	filter: ComponentFilter,
@@ -49,6 +61,24 @@ export function listComponentsPage(
 		.limit(paging.limit)
 		.offset(offsetOf(paging))
 		.all();
-	const total = db.select({ n: count() }).from(component).where(where).get()!.n;
-	return { rows, total };
+	return { rows, total: countComponents(where) };
+}
+
+/** The components after the query's cursor, sorted as asked, with the count of all and the next cursor. */
+export function listComponentsByCursor(
+	filter: ComponentFilter,
+	query: KeysetQuery<ComponentSort>
+): KeysetPage<Component> {
+	const where = componentConditions(filter);
+	const cursor = cursorOf(query);
+	const sortColumn = COMPONENT_SORT_COLUMNS[query.sort];
+	const rowsRead = db
+		.select({ row: component, sortValue: sortValueOf(sortColumn) })
+		.from(component)
+		.where(and(where, cursor && rowsAfter(sortColumn, component.id, cursor)))
+		.orderBy(...orderFor(sortColumn, query.dir, component.id))
+		.limit(query.limit + 1)
+		.all()
+		.map(({ row, sortValue }) => ({ ...row, sortValue }));
+	return keysetPageOf(rowsRead, query, countComponents(where));
 }

@@ -2,7 +2,23 @@ import { and, asc, count, eq, inArray, lte, ne, sql, type SQL } from 'drizzle-or
 import { isExpired, isoToday, type LotStatus, type QuantityKind } from '$lib/inventory';
 import { db, type Db } from '../db';
 import { component, lot, lotListKey, lotOnHand } from '../db/schema';
-import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
+import {
+	cursorOf,
+	keysetPageOf,
+	rowsAfter,
+	sortValueOf,
+	type KeysetCursor,
+	type KeysetPage,
+	type KeysetQuery
+} from '../keyset';
+import {
+	offsetOf,
+	orderFor,
+	sortKeys,
+	type ListPage,
+	type Paging,
+	type SortDirection
+} from '../list-paging';
 import { searchMatch } from '../search-match';
 import { onHandColumn } from './ledger';
 
@@ -79,9 +95,10 @@ function lotConditions(filter: LotFilter): SQL | undefined {
 	return conditions.length ? and(...conditions) : undefined;
 }
 
-function selectLots(reader: Reader) {
+function selectLots<E extends Record<string, SQL>>(reader: Reader, extra: E = {} as E) {
 	return reader
 		.select({
+			...extra,
 			id: lot.id,
 			code: lot.code,
 			componentId: lot.componentId,
@@ -108,10 +125,12 @@ function selectLots(reader: Reader) {
 }
 
 type SelectedLot = Omit<LotRow, 'expired'>;
-const withExpiry = (today: string) => (r: SelectedLot) => ({
-	...r,
-	expired: isExpired(r.expiresOn, today)
-});
+const withExpiry =
+	(today: string) =>
+	<R extends SelectedLot>(r: R) => ({
+		...r,
+		expired: isExpired(r.expiresOn, today)
+	});
 
 export interface LotExportKey {
 	expiresOn: string;
@@ -152,29 +171,24 @@ export function listLots(
 }
 
 /**
- * One page of the lots the filter matches, sorted as asked, with the count of all of them.
- * A deferred join: the page's ids are found first from only what the filter and the order need (a
- * deep page skips rows without building them), then the full rows of those ids are read.
+ * The ids of the lots the filter matches (after the cursor's row, when given) in the list's order,
+ * for the page and the cursor entry alike: found from only what the filter and the order need, so
+ * a page skips rows without building them (a deferred join); the full rows are read after.
  */
-export function listLotsPage(
+function lotIdsInOrder(
 	filter: LotFilter,
-	paging: Paging<LotSort>,
-	today = isoToday(),
-	reader: Reader = db,
-	/** count no further than this: the total is then "at least" (a panel that links to the full list) */
-	countUpTo?: number
-): ListPage<LotRow> {
-	const where = lotConditions(filter);
+	sort: LotSort,
+	dir: SortDirection,
+	reader: Reader,
+	cursor?: KeysetCursor
+) {
 	// By stock or by material: walk the (quantity, lot_id) or (status, material, code) index of the
 	// table kept beside the lots; every lot has its row in both. With no filter but the status, the
 	// material order is read from lot_list_key alone.
-	const byStock = paging.sort === 'onHand';
-	const byMaterial = paging.sort === 'component';
-	const order = orderFor(
-		LOT_SORT_COLUMNS[paging.sort],
-		paging.dir,
-		byStock ? lotOnHand.lotId : byMaterial ? lotListKey.code : lot.code
-	);
+	const byStock = sort === 'onHand';
+	const byMaterial = sort === 'component';
+	const tieBreaker = byStock ? lotOnHand.lotId : byMaterial ? lotListKey.code : lot.code;
+	const order = orderFor(LOT_SORT_COLUMNS[sort], dir, tieBreaker);
 	const ids = byStock
 		? reader
 				.select({ id: lotOnHand.lotId })
@@ -195,23 +209,54 @@ export function listLotsPage(
 						.from(lot)
 						.leftJoin(component, eq(lot.componentId, component.id))
 				: reader.select({ id: lot.id }).from(lot);
-	const pageIds = ids
-		.where(
-			byMaterial && filtersOnlyStatus(filter)
-				? filter.status
-					? eq(lotListKey.status, filter.status)
-					: undefined
-				: where
-		)
-		.orderBy(...order)
-		.limit(paging.limit)
-		.offset(offsetOf(paging));
+	const where =
+		byMaterial && filtersOnlyStatus(filter)
+			? filter.status
+				? eq(lotListKey.status, filter.status)
+				: undefined
+			: lotConditions(filter);
+	const after = cursor ? rowsAfter(LOT_SORT_COLUMNS[sort], tieBreaker, cursor) : undefined;
+	return { ids: ids.where(and(where, after)).orderBy(...order), order };
+}
+
+/** One page of the lots the filter matches, sorted as asked, with the count of all of them. */
+export function listLotsPage(
+	filter: LotFilter,
+	paging: Paging<LotSort>,
+	today = isoToday(),
+	reader: Reader = db,
+	/** count no further than this: the total is then "at least" (a panel that links to the full list) */
+	countUpTo?: number
+): ListPage<LotRow> {
+	const { ids, order } = lotIdsInOrder(filter, paging.sort, paging.dir, reader);
 	const rows = selectLots(reader)
-		.where(inArray(lot.id, pageIds))
+		.where(inArray(lot.id, ids.limit(paging.limit).offset(offsetOf(paging))))
 		.orderBy(...order)
 		.all()
 		.map(withExpiry(today));
-	return { rows, total: countLots(filter, reader, countUpTo, where) };
+	return { rows, total: countLots(filter, reader, countUpTo) };
+}
+
+/**
+ * The lots after the query's cursor (the first ones without), sorted as asked, with the count of
+ * all the filter matches and the cursor of the next page: the API's list.
+ */
+export function listLotsByCursor(
+	filter: LotFilter,
+	query: KeysetQuery<LotSort>,
+	today = isoToday(),
+	reader: Reader = db
+): KeysetPage<LotRow> {
+	const { ids, order } = lotIdsInOrder(filter, query.sort, query.dir, reader, cursorOf(query));
+	const rowsRead = selectLots(reader, { sortValue: sortValueOf(LOT_SORT_COLUMNS[query.sort]) })
+		.where(inArray(lot.id, ids.limit(query.limit + 1)))
+		.orderBy(...order)
+		.all()
+		.map(withExpiry(today));
+	// The tie-breaker of lotIdsInOrder: the lot's id by stock, else its code.
+	return keysetPageOf(rowsRead, query, countLots(filter, reader), (row) =>
+		query.sort === 'onHand' ? row.id : row.code
+	);
 }
 
 /** Whether the filter asks for nothing but (at most) a status; any other field, even a new one, counts. */

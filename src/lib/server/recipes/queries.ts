@@ -13,6 +13,8 @@ import {
 	type RecipeLine,
 	type RecipeVersion
 } from '../db/schema';
+import { cursorOf, keysetPageOf, rowsAfter, sortValueOf, type KeysetQuery } from '../keyset';
+import { orderFor, sortKeys } from '../list-paging';
 import { signaturesFor } from '../signatures';
 
 type Reader = Pick<Db, 'select'>;
@@ -79,18 +81,23 @@ function filterConditions(filter: Omit<RecipeFilter, 'page' | 'pageSize'>): SQL 
 	return conditions.length ? and(...conditions) : undefined;
 }
 
-export function listRecipes(filter: RecipeFilter): { rows: RecipeSummary[]; total: number } {
-	const where = filterConditions(filter);
-	const [{ total }] = db.select({ total: count() }).from(recipe).where(where).all();
-	const recipes = db
-		.select({ id: recipe.id, name: recipe.name, kind: recipe.kind, ownerName: user.name })
+// Names are unique: the id only makes the tie-breaker a cursor can name.
+const RECIPE_SORT_COLUMNS = { name: recipe.name } as const;
+
+export const RECIPE_SORTS = sortKeys(RECIPE_SORT_COLUMNS);
+export type RecipeSort = keyof typeof RECIPE_SORT_COLUMNS;
+
+/** The recipes the condition matches with their owner's name, unordered. */
+function selectRecipes<E extends Record<string, SQL>>(where: SQL | undefined, extra: E = {} as E) {
+	return db
+		.select({ ...extra, id: recipe.id, name: recipe.name, kind: recipe.kind, ownerName: user.name })
 		.from(recipe)
 		.innerJoin(user, eq(recipe.ownerId, user.id))
-		.where(where)
-		.orderBy(asc(recipe.name))
-		.limit(filter.pageSize)
-		.offset((filter.page - 1) * filter.pageSize)
-		.all();
+		.where(where);
+}
+
+/** Each recipe with its latest version, its approved one and how many it has. */
+function withVersionSummary<R extends { id: string }>(recipes: R[]) {
 	const versions = recipes.length
 		? db
 				.select({
@@ -109,7 +116,7 @@ export function listRecipes(filter: RecipeFilter): { rows: RecipeSummary[]; tota
 				.orderBy(desc(recipeVersion.n))
 				.all()
 		: [];
-	const rows = recipes.map((r) => {
+	return recipes.map((r) => {
 		const own = versions.filter((v) => v.recipeId === r.id);
 		const [{ n, status, updatedAt }] = own;
 		return {
@@ -119,7 +126,37 @@ export function listRecipes(filter: RecipeFilter): { rows: RecipeSummary[]; tota
 			versionCount: own.length
 		};
 	});
-	return { rows, total };
+}
+
+function countRecipes(where: SQL | undefined): number {
+	return db.select({ total: count() }).from(recipe).where(where).get()!.total;
+}
+
+export function listRecipes(filter: RecipeFilter): { rows: RecipeSummary[]; total: number } {
+	const where = filterConditions(filter);
+	const recipes = selectRecipes(where)
+		.orderBy(...orderFor(RECIPE_SORT_COLUMNS.name, 'asc', recipe.id))
+		.limit(filter.pageSize)
+		.offset((filter.page - 1) * filter.pageSize)
+		.all();
+	return { rows: withVersionSummary(recipes), total: countRecipes(where) };
+}
+
+/** The recipes after the query's cursor, sorted as asked, with the count of all and the next cursor. */
+export function listRecipesByCursor(
+	filter: Omit<RecipeFilter, 'page' | 'pageSize'>,
+	query: KeysetQuery<RecipeSort>
+) {
+	const where = filterConditions(filter);
+	const cursor = cursorOf(query);
+	const sortColumn = RECIPE_SORT_COLUMNS[query.sort];
+	const rowsRead = selectRecipes(and(where, cursor && rowsAfter(sortColumn, recipe.id, cursor)), {
+		sortValue: sortValueOf(sortColumn)
+	})
+		.orderBy(...orderFor(sortColumn, query.dir, recipe.id))
+		.limit(query.limit + 1)
+		.all();
+	return keysetPageOf(withVersionSummary(rowsRead), query, countRecipes(where));
 }
 
 export function findRecipe(id: string, reader: Reader = db): Recipe | undefined {

@@ -1,6 +1,7 @@
-import { count, eq, sql, type SQL } from 'drizzle-orm';
+import { and, count, eq, sql, type SQL } from 'drizzle-orm';
 import { db } from '../db';
 import { organismProfile, run, study, vessel } from '../db/schema';
+import { cursorOf, keysetPageOf, rowsAfter, sortValueOf, type KeysetQuery } from '../keyset';
 import { offsetOf, orderFor, sortKeys, type Paging } from '../list-paging';
 
 const RUN_SORT_COLUMNS = {
@@ -21,11 +22,11 @@ function runConditions(search: string | undefined): SQL | undefined {
 
 export type RunListRow = ReturnType<typeof listRunsPage>['rows'][number];
 
-/** One page of runs with their plan, vessel and organism, and the count of all that match. */
-export function listRunsPage(search: string | undefined, paging: Paging<RunSort>) {
-	const where = runConditions(search);
-	const rows = db
+/** The runs the condition matches with their plan, vessel and organism, unordered. */
+function selectRuns<E extends Record<string, SQL>>(where: SQL | undefined, extra: E = {} as E) {
+	return db
 		.select({
+			...extra,
 			id: run.id,
 			number: run.number,
 			name: run.name,
@@ -41,17 +42,40 @@ export function listRunsPage(search: string | undefined, paging: Paging<RunSort>
 		.innerJoin(study, eq(run.studyId, study.id))
 		.innerJoin(vessel, eq(run.vesselId, vessel.id))
 		.innerJoin(organismProfile, eq(run.profileId, organismProfile.id))
-		.where(where)
-		.orderBy(...orderFor(RUN_SORT_COLUMNS[paging.sort], paging.dir, run.id))
-		.limit(paging.limit)
-		.offset(offsetOf(paging))
-		.all();
-	const total = db
+		.where(where);
+}
+
+function countRuns(where: SQL | undefined): number {
+	return db
 		.select({ n: count() })
 		.from(run)
 		.innerJoin(study, eq(run.studyId, study.id))
 		.innerJoin(vessel, eq(run.vesselId, vessel.id))
 		.where(where)
 		.get()!.n;
-	return { rows, total };
+}
+
+/** One page of runs with their plan, vessel and organism, and the count of all that match. */
+export function listRunsPage(search: string | undefined, paging: Paging<RunSort>) {
+	const where = runConditions(search);
+	const rows = selectRuns(where)
+		.orderBy(...orderFor(RUN_SORT_COLUMNS[paging.sort], paging.dir, run.id))
+		.limit(paging.limit)
+		.offset(offsetOf(paging))
+		.all();
+	return { rows, total: countRuns(where) };
+}
+
+/** The runs after the query's cursor, sorted as asked, with the count of all and the next cursor. */
+export function listRunsByCursor(search: string | undefined, query: KeysetQuery<RunSort>) {
+	const where = runConditions(search);
+	const cursor = cursorOf(query);
+	const sortColumn = RUN_SORT_COLUMNS[query.sort];
+	const rowsRead = selectRuns(and(where, cursor && rowsAfter(sortColumn, run.id, cursor)), {
+		sortValue: sortValueOf(sortColumn)
+	})
+		.orderBy(...orderFor(sortColumn, query.dir, run.id))
+		.limit(query.limit + 1)
+		.all();
+	return keysetPageOf(rowsRead, query, countRuns(where));
 }

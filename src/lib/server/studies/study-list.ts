@@ -1,6 +1,7 @@
 import { and, asc, count, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import { db } from '../db';
 import { organismProfile, study, studyFeed, user, vessel } from '../db/schema';
+import { cursorOf, keysetPageOf, rowsAfter, sortValueOf, type KeysetQuery } from '../keyset';
 import { offsetOf, orderFor, sortKeys, type ListPage, type Paging } from '../list-paging';
 import { describeVersions, type VersionRef } from './queries';
 
@@ -24,11 +25,11 @@ function studyConditions(search: string | undefined): SQL | undefined {
 
 export type StudyListRow = ReturnType<typeof listStudiesPage>['rows'][number];
 
-/** One page of the saved studies with the recipe versions each uses, and the count of all. */
-export function listStudiesPage(search: string | undefined, paging: Paging<StudySort>) {
-	const where = studyConditions(search);
-	const rows = db
+/** The studies the condition matches with their profile, vessel and author, unordered. */
+function selectStudies<E extends Record<string, SQL>>(where: SQL | undefined, extra: E = {} as E) {
+	return db
 		.select({
+			...extra,
 			id: study.id,
 			name: study.name,
 			targetBasis: study.targetBasis,
@@ -43,11 +44,11 @@ export function listStudiesPage(search: string | undefined, paging: Paging<Study
 		.innerJoin(organismProfile, eq(study.profileId, organismProfile.id))
 		.innerJoin(vessel, eq(study.vesselId, vessel.id))
 		.innerJoin(user, eq(study.createdById, user.id))
-		.where(where)
-		.orderBy(...orderFor(STUDY_SORT_COLUMNS[paging.sort], paging.dir, study.id))
-		.limit(paging.limit)
-		.offset(offsetOf(paging))
-		.all();
+		.where(where);
+}
+
+/** Each study with the recipe versions it uses: its basal medium and its feeds. */
+function withVersions<R extends { id: string; basalVersionId: string }>(rows: R[]) {
 	// The feeds of this page's studies only: at most a page of ids is bound.
 	const feeds = rows.length
 		? db
@@ -66,21 +67,46 @@ export function listStudiesPage(search: string | undefined, paging: Paging<Study
 		...rows.map((r) => r.basalVersionId),
 		...feeds.map((f) => f.versionId)
 	]);
-	const total = db
+	return rows.map((r) => ({
+		...r,
+		basal: versions.get(r.basalVersionId)! as VersionRef,
+		feeds: feeds
+			.filter((f) => f.studyId === r.id)
+			.map((f) => ({ ...versions.get(f.versionId)!, volumeL: f.volumeL }))
+	}));
+}
+
+function countStudies(where: SQL | undefined): number {
+	return db
 		.select({ n: count() })
 		.from(study)
 		.innerJoin(organismProfile, eq(study.profileId, organismProfile.id))
 		.innerJoin(vessel, eq(study.vesselId, vessel.id))
 		.where(where)
 		.get()!.n;
-	return {
-		rows: rows.map((r) => ({
-			...r,
-			basal: versions.get(r.basalVersionId)! as VersionRef,
-			feeds: feeds
-				.filter((f) => f.studyId === r.id)
-				.map((f) => ({ ...versions.get(f.versionId)!, volumeL: f.volumeL }))
-		})),
-		total
-	} satisfies ListPage<unknown>;
+}
+
+/** One page of the saved studies with the recipe versions each uses, and the count of all. */
+export function listStudiesPage(search: string | undefined, paging: Paging<StudySort>) {
+	const where = studyConditions(search);
+	const rows = selectStudies(where)
+		.orderBy(...orderFor(STUDY_SORT_COLUMNS[paging.sort], paging.dir, study.id))
+		.limit(paging.limit)
+		.offset(offsetOf(paging))
+		.all();
+	return { rows: withVersions(rows), total: countStudies(where) } satisfies ListPage<unknown>;
+}
+
+/** The studies after the query's cursor, as the page lists them, with the count and next cursor. */
+export function listStudiesByCursor(search: string | undefined, query: KeysetQuery<StudySort>) {
+	const where = studyConditions(search);
+	const cursor = cursorOf(query);
+	const sortColumn = STUDY_SORT_COLUMNS[query.sort];
+	const rowsRead = selectStudies(and(where, cursor && rowsAfter(sortColumn, study.id, cursor)), {
+		sortValue: sortValueOf(sortColumn)
+	})
+		.orderBy(...orderFor(sortColumn, query.dir, study.id))
+		.limit(query.limit + 1)
+		.all();
+	return keysetPageOf(withVersions(rowsRead), query, countStudies(where));
 }

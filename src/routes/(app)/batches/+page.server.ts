@@ -1,4 +1,4 @@
-import { batchListQuery } from '$lib/server/api/operations/batches';
+import { batchFilterOf, batchPageQuery } from '$lib/server/api/operations/batches';
 import { listBatchesPage } from '$lib/server/batches/batch-list';
 import { approvedRecipes } from '$lib/server/batches/view';
 import { requirePermission } from '$lib/server/guard';
@@ -8,11 +8,8 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('batch.view');
-	const query = lenientQuery(batchListQuery, url);
-	const { rows, total } = listBatchesPage(
-		{ state: query.state, recipeId: query.recipe, from: query.from, to: query.to, search: query.q },
-		query
-	);
+	const query = lenientQuery(batchPageQuery, url);
+	const { rows, total } = listBatchesPage(batchFilterOf(query), query);
 	return {
 		filter: {
 			state: query.state ?? '',

@@ -1,4 +1,4 @@
-import { componentListQuery } from '$lib/server/api/operations/recipes';
+import { componentFilterOf, componentPageQuery } from '$lib/server/api/operations/recipes';
 import { listComponentsPage } from '$lib/server/components/component-list';
 import { molarMassOfComponent } from '$lib/server/components/library';
 import { requirePermission } from '$lib/server/guard';
@@ -8,8 +8,8 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const user = requirePermission('component.view');
-	const query = lenientQuery(componentListQuery, url);
-	const { rows, total } = listComponentsPage({ category: query.category, search: query.q }, query);
+	const query = lenientQuery(componentPageQuery, url);
+	const { rows, total } = listComponentsPage(componentFilterOf(query), query);
 	return {
 		components: rows.map((c) => ({
 			id: c.id,

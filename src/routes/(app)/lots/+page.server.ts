@@ -1,4 +1,4 @@
-import { lotListQuery } from '$lib/server/api/operations/inventory';
+import { lotFilterOf, lotPageQuery } from '$lib/server/api/operations/inventory';
 import { listComponents } from '$lib/server/components/library';
 import { requirePermission } from '$lib/server/guard';
 import { listLotsPage } from '$lib/server/inventory/lot-list';
@@ -7,16 +7,8 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('lot.view');
-	const query = lenientQuery(lotListQuery, url);
-	const { rows, total } = listLotsPage(
-		{
-			componentId: query.component,
-			status: query.status,
-			expiringBefore: query.expiringBefore,
-			search: query.q
-		},
-		query
-	);
+	const query = lenientQuery(lotPageQuery, url);
+	const { rows, total } = listLotsPage(lotFilterOf(query), query);
 	const components = listComponents().map((c) => ({ id: c.id, name: c.name }));
 	return {
 		lots: rows,

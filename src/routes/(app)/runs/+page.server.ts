@@ -1,4 +1,4 @@
-import { runListQuery } from '$lib/server/api/operations/runs';
+import { runPageQuery } from '$lib/server/api/operations/runs';
 import { requirePermission } from '$lib/server/guard';
 import { lenientQuery } from '$lib/server/list-paging';
 import { listRunsPage } from '$lib/server/runs/run-list';
@@ -7,7 +7,7 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const user = requirePermission('run.view');
-	const query = lenientQuery(runListQuery, url);
+	const query = lenientQuery(runPageQuery, url);
 	const { rows, total } = listRunsPage(query.q, query);
 	return {
 		runs: rows,

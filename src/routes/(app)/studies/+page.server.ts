@@ -1,4 +1,4 @@
-import { studyListQuery } from '$lib/server/api/operations/studies';
+import { studyPageQuery } from '$lib/server/api/operations/studies';
 import { requirePermission } from '$lib/server/guard';
 import { lenientQuery } from '$lib/server/list-paging';
 import { listStudiesPage } from '$lib/server/studies/study-list';
@@ -6,7 +6,7 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requirePermission('study.use');
-	const query = lenientQuery(studyListQuery, url);
+	const query = lenientQuery(studyPageQuery, url);
 	const { rows, total } = listStudiesPage(query.q, query);
 	return {
 		studies: rows,

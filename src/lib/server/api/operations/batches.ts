@@ -5,15 +5,21 @@ import { QUANTITY_KINDS } from '$lib/inventory';
 import { RECIPE_KINDS } from '$lib/recipes';
 import type { Batch } from '../../db/schema';
 import type { batchView } from '../../batches/view';
-import { BATCH_SORTS, type BatchListRow } from '../../batches/batch-list';
+import { BATCH_SORTS, type BatchFilter, type BatchListRow } from '../../batches/batch-list';
+import { keysetFields, keysetPageSchema, type KeysetPage } from '../../keyset';
 import { pagingFields } from '../../list-paging';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime, signatureResponse } from '../shapes';
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Write the date as YYYY-MM-DD');
 
-export const batchListQuery = z.object({
-	state: z.enum(BATCH_STATES).optional(),
+const BATCH_LIST_ORDER = { sort: 'plannedOn', dir: 'desc' } as const;
+
+const batchFilterFields = {
+	state: z
+		.enum(BATCH_STATES)
+		.optional()
+		.describe(`Only batches in this state (${BATCH_STATES.join(', ')})`),
 	recipe: z.string().max(80).optional().describe('Recipe id'),
 	from: isoDate.optional().describe('Planned on or after'),
 	to: isoDate.optional().describe('Planned on or before'),
@@ -21,8 +27,30 @@ export const batchListQuery = z.object({
 		.string()
 		.max(120)
 		.optional()
-		.describe('Part of the batch number, the recipe name or what the batch is for'),
-	...pagingFields(BATCH_SORTS, { sort: 'plannedOn', dir: 'desc' })
+		.describe('Part of the batch number, the recipe name or what the batch is for')
+};
+
+/** The batch filter the list's query asks for, the API's and the page's alike. */
+export function batchFilterOf(query: z.infer<z.ZodObject<typeof batchFilterFields>>): BatchFilter {
+	return {
+		state: query.state,
+		recipeId: query.recipe,
+		from: query.from,
+		to: query.to,
+		search: query.q
+	};
+}
+
+/** The API's batch list: the filter, a page at a time by cursor (ties by batch number). */
+export const batchListQuery = z.object({
+	...batchFilterFields,
+	...keysetFields(BATCH_SORTS, BATCH_LIST_ORDER)
+});
+
+/** The batches page: the same filter, paged by number. */
+export const batchPageQuery = z.object({
+	...batchFilterFields,
+	...pagingFields(BATCH_SORTS, BATCH_LIST_ORDER)
 });
 
 export const batchCreateRequest = z
@@ -67,31 +95,22 @@ const batchRow = {
 
 export const batchResponse = describes<Batch>()(z.object(batchRow));
 
-export const batchListResponse = describes<{
-	items: BatchListRow[];
-	total: number;
-	page: number;
-	limit: number;
-}>()(
-	z.object({
-		items: z.array(
-			z.object({
-				id: z.string(),
-				number: z.string(),
-				state: z.enum(BATCH_STATES),
-				recipeId: z.string(),
-				recipeName: z.string(),
-				versionN: z.int(),
-				targetVolumeMl: z.int(),
-				plannedOn: z.string().describe('YYYY-MM-DD'),
-				intendedUse: z.string(),
-				preparedAt: isoTime().nullable()
-			})
-		),
-		total: z.int().describe('Every batch the filter matches, over all pages'),
-		page: z.int(),
-		limit: z.int()
-	})
+export const batchListResponse = describes<KeysetPage<BatchListRow>>()(
+	keysetPageSchema(
+		z.object({
+			id: z.string(),
+			number: z.string(),
+			state: z.enum(BATCH_STATES),
+			recipeId: z.string(),
+			recipeName: z.string(),
+			versionN: z.int(),
+			targetVolumeMl: z.int(),
+			plannedOn: z.string().describe('YYYY-MM-DD'),
+			intendedUse: z.string(),
+			preparedAt: isoTime().nullable()
+		}),
+		'batch'
+	)
 );
 
 const lotChoice = z.object({
@@ -234,7 +253,8 @@ export const batchesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/batches',
-		summary: 'Batches, a page at a time, filtered, searched and sorted',
+		summary:
+			'Batches, filtered, searched and sorted, a page at a time (keyset: pass `next` back as `after`)',
 		act: 'batch.view',
 		query: batchListQuery,
 		response: batchListResponse

@@ -8,16 +8,22 @@ import {
 	QUANTITY_UNITS
 } from '$lib/inventory';
 import type { Lot } from '../../db/schema';
-import { LOT_SORTS, type LotRow } from '../../inventory/lot-list';
+import { LOT_SORTS, type LotFilter, type LotRow } from '../../inventory/lot-list';
 import { ledgerPageQuery, type LedgerPage } from '../../inventory/ledger-page';
+import { keysetFields, keysetPageSchema, type KeysetPage } from '../../keyset';
 import { DEFAULT_PAGE_SIZE, pagingFields } from '../../list-paging';
 import type { lotView } from '../../inventory/view';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime } from '../shapes';
 
-export const lotListQuery = z.object({
+const LOT_LIST_ORDER = { sort: 'expiresOn', dir: 'asc' } as const;
+
+const lotFilterFields = {
 	component: z.string().max(80).optional().describe('Component id'),
-	status: z.enum(LOT_STATUSES).optional(),
+	status: z
+		.enum(LOT_STATUSES)
+		.optional()
+		.describe(`Only lots in this status (${LOT_STATUSES.join(', ')})`),
 	expiringBefore: z
 		.string()
 		.regex(/^\d{4}-\d{2}-\d{2}$/, 'Write the date as YYYY-MM-DD')
@@ -27,8 +33,29 @@ export const lotListQuery = z.object({
 		.string()
 		.max(120)
 		.optional()
-		.describe('Part of the lot code, supplier, supplier lot or component'),
-	...pagingFields(LOT_SORTS, { sort: 'expiresOn', dir: 'asc' })
+		.describe('Part of the lot code, supplier, supplier lot or component')
+};
+
+/** The lot filter the list's query asks for, the API's and the page's alike. */
+export function lotFilterOf(query: z.infer<z.ZodObject<typeof lotFilterFields>>): LotFilter {
+	return {
+		componentId: query.component,
+		status: query.status,
+		expiringBefore: query.expiringBefore,
+		search: query.q
+	};
+}
+
+/** The API's lot list: the filter, a page at a time by cursor. */
+export const lotListQuery = z.object({
+	...lotFilterFields,
+	...keysetFields(LOT_SORTS, LOT_LIST_ORDER)
+});
+
+/** The lots page: the same filter, paged by number. */
+export const lotPageQuery = z.object({
+	...lotFilterFields,
+	...pagingFields(LOT_SORTS, LOT_LIST_ORDER)
 });
 
 const text = (max: number) => z.union([z.string().max(max), z.number()]);
@@ -56,40 +83,31 @@ const isoDay = z.string().describe('YYYY-MM-DD');
 const baseQuantity = (what: string) =>
 	z.number().describe(`${what}, in the lot's base unit: mg by mass, µL by volume (quantityKind)`);
 
-export const lotListResponse = describes<{
-	items: LotRow[];
-	total: number;
-	page: number;
-	limit: number;
-}>()(
-	z.object({
-		items: z.array(
-			z.object({
-				id: z.string(),
-				code: z.string(),
-				componentId: z.string().nullable().describe('null for a stock solution made here'),
-				componentName: z.string(),
-				supplier: z.string(),
-				supplierLot: z.string(),
-				quantityKind: z.enum(QUANTITY_KINDS),
-				receivedQuantity: baseQuantity('As received'),
-				onHand: baseQuantity('The sum of the ledger'),
-				receivedOn: isoDay,
-				expiresOn: isoDay,
-				retestOn: isoDay.nullable().describe('retest due from this date; null: none due'),
-				dateKind: z.string(),
-				storage: z.string(),
-				status: z.enum(LOT_STATUSES),
-				expired: z.boolean(),
-				assayPercent: z.number().nullable(),
-				purityPercent: z.number().nullable(),
-				waterContentPercent: z.number().nullable()
-			})
-		),
-		total: z.int().describe('Every lot the filter matches, over all pages'),
-		page: z.int(),
-		limit: z.int()
-	})
+export const lotListResponse = describes<KeysetPage<LotRow>>()(
+	keysetPageSchema(
+		z.object({
+			id: z.string(),
+			code: z.string(),
+			componentId: z.string().nullable().describe('null for a stock solution made here'),
+			componentName: z.string(),
+			supplier: z.string(),
+			supplierLot: z.string(),
+			quantityKind: z.enum(QUANTITY_KINDS),
+			receivedQuantity: baseQuantity('As received'),
+			onHand: baseQuantity('The sum of the ledger'),
+			receivedOn: isoDay,
+			expiresOn: isoDay,
+			retestOn: isoDay.nullable().describe('retest due from this date; null: none due'),
+			dateKind: z.string(),
+			storage: z.string(),
+			status: z.enum(LOT_STATUSES),
+			expired: z.boolean(),
+			assayPercent: z.number().nullable(),
+			purityPercent: z.number().nullable(),
+			waterContentPercent: z.number().nullable()
+		}),
+		'lot'
+	)
 );
 
 const lotRow = {
@@ -224,7 +242,7 @@ export const inventoryOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/lots',
 		summary:
-			'Lots with on-hand (sum of the ledger, base unit mg or µL), a page at a time, filtered, searched and sorted',
+			'Lots with on-hand (sum of the ledger, base unit mg or µL), filtered, searched and sorted, a page at a time (keyset: pass `next` back as `after`)',
 		act: 'lot.view',
 		query: lotListQuery,
 		response: lotListResponse

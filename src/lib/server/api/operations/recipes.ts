@@ -1,11 +1,12 @@
 import type { PreviewAnalysis } from '../../recipes/preview';
 import { z } from 'zod';
 import { COMPONENT_CATEGORIES, LINE_KINDS, RECIPE_KINDS, VERSION_STATUSES } from '$lib/recipes';
-import { COMPONENT_SORTS } from '../../components/component-list';
+import { COMPONENT_SORTS, type ComponentFilter } from '../../components/component-list';
 import type { Component } from '../../db/schema';
+import { keysetFields, keysetPageSchema, type KeysetPage } from '../../keyset';
 import { pagingFields } from '../../list-paging';
 import type { RecipeAnalysis } from '../../recipes/analysis';
-import type { RecipeSummary } from '../../recipes/queries';
+import { RECIPE_SORTS, type RecipeFilter, type RecipeSummary } from '../../recipes/queries';
 import type { recipeView, versionView } from '../../recipes/view';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime, signatureResponse } from '../shapes';
@@ -36,23 +37,72 @@ export const previewRequest = z.strictObject({
 		.max(200)
 });
 
+const recipeFilterFields = {
+	kind: z
+		.enum(RECIPE_KINDS)
+		.optional()
+		.describe(`Only recipes of this kind (${RECIPE_KINDS.join(', ')})`),
+	status: z
+		.enum(VERSION_STATUSES)
+		.optional()
+		.describe(`Only recipes with a version in this status (${VERSION_STATUSES.join(', ')})`),
+	component: z
+		.string()
+		.max(80)
+		.optional()
+		.describe('Component id: only recipes with a version containing it, or the form weighed of it'),
+	q: z.string().max(120).optional().describe('Part of the recipe name')
+};
+
+/** The recipe filter the list's query asks for. */
+export function recipeFilterOf(
+	query: z.infer<z.ZodObject<typeof recipeFilterFields>>
+): Omit<RecipeFilter, 'page' | 'pageSize'> {
+	return {
+		kind: query.kind,
+		status: query.status,
+		componentId: query.component,
+		search: query.q
+	};
+}
+
+/** The API's recipe list: the filter, a page at a time by cursor, by name. */
 export const recipeListQuery = z.object({
-	kind: z.enum(RECIPE_KINDS).optional(),
-	status: z.enum(VERSION_STATUSES).optional(),
-	component: z.string().max(80).optional(),
-	q: z.string().max(120).optional(),
-	page: z.coerce.number().int().min(1).default(1),
-	pageSize: z.coerce.number().int().min(1).max(200).default(50)
+	...recipeFilterFields,
+	...keysetFields(RECIPE_SORTS, { sort: 'name', dir: 'asc' })
 });
 
-export const componentListQuery = z.object({
-	category: z.enum(COMPONENT_CATEGORIES).optional(),
+const COMPONENT_LIST_ORDER = { sort: 'name', dir: 'asc' } as const;
+
+const componentFilterFields = {
+	category: z
+		.enum(COMPONENT_CATEGORIES)
+		.optional()
+		.describe(`Only components in this category (${COMPONENT_CATEGORIES.join(', ')})`),
 	q: z
 		.string()
 		.max(120)
 		.optional()
-		.describe('Part of the name, a synonym, the formula, the CAS number or a GHS hazard code'),
-	...pagingFields(COMPONENT_SORTS, { sort: 'name', dir: 'asc' })
+		.describe('Part of the name, a synonym, the formula, the CAS number or a GHS hazard code')
+};
+
+/** The component filter the list's query asks for, the API's and the page's alike. */
+export function componentFilterOf(
+	query: z.infer<z.ZodObject<typeof componentFilterFields>>
+): ComponentFilter {
+	return { category: query.category, search: query.q };
+}
+
+/** The API's component list: the filter, a page at a time by cursor. */
+export const componentListQuery = z.object({
+	...componentFilterFields,
+	...keysetFields(COMPONENT_SORTS, COMPONENT_LIST_ORDER)
+});
+
+/** The component library page: the same filter, paged by number. */
+export const componentPageQuery = z.object({
+	...componentFilterFields,
+	...pagingFields(COMPONENT_SORTS, COMPONENT_LIST_ORDER)
 });
 
 const element = z.object({ symbol: z.string(), gPerL: z.number(), mmolPerL: z.number() });
@@ -113,28 +163,19 @@ export const previewResponse = describes<PreviewAnalysis>()(
 	})
 );
 
-export const recipeListResponse = describes<{
-	items: RecipeSummary[];
-	total: number;
-	page: number;
-	pageSize: number;
-}>()(
-	z.object({
-		items: z.array(
-			z.object({
-				id: z.string(),
-				name: z.string(),
-				kind: z.enum(RECIPE_KINDS),
-				ownerName: z.string(),
-				latest: z.object({ n: z.int(), status: z.enum(VERSION_STATUSES), updatedAt: isoTime() }),
-				approvedN: z.int().nullable().describe('the approved version, if any'),
-				versionCount: z.int()
-			})
-		),
-		total: z.int().describe('recipes matching the query, all pages'),
-		page: z.int(),
-		pageSize: z.int()
-	})
+export const recipeListResponse = describes<KeysetPage<RecipeSummary>>()(
+	keysetPageSchema(
+		z.object({
+			id: z.string(),
+			name: z.string(),
+			kind: z.enum(RECIPE_KINDS),
+			ownerName: z.string(),
+			latest: z.object({ n: z.int(), status: z.enum(VERSION_STATUSES), updatedAt: isoTime() }),
+			approvedN: z.int().nullable().describe('the approved version, if any'),
+			versionCount: z.int()
+		}),
+		'recipe'
+	)
 );
 
 const recipeRow = {
@@ -228,55 +269,46 @@ export const versionResponse = describes<
 	})
 );
 
-export const componentListResponse = describes<{
-	items: Component[];
-	total: number;
-	page: number;
-	limit: number;
-}>()(
-	z.object({
-		items: z.array(
-			z.object({
-				id: z.string(),
-				name: z.string(),
-				category: z.string(),
-				formula: z.string().nullable(),
-				molarMassGPerMol: z.number().nullable(),
-				casNumber: z.string().nullable(),
-				elementalMassFractions: z
-					.record(z.string(), z.number())
-					.nullable()
-					.describe('complex materials: g element per g'),
-				fractionsNote: z.string().nullable(),
-				ions: z
-					.array(z.object({ ion: z.string(), count: z.number(), charge: z.number() }))
-					.nullable(),
-				osmoticCoefficient: z.number().nullable(),
-				osmoticCoefficientSource: z.string().nullable(),
-				solubility: z
-					.object({
-						points: z.array(z.object({ temperatureC: z.number(), gPerL: z.number() })),
-						basisFormula: z.string().nullable().optional(),
-						source: z.string().nullable().optional()
-					})
-					.nullable(),
-				ghsHazards: z.array(z.object({ code: z.string(), text: z.string() })),
-				hazardSource: z.string().nullable(),
-				storage: z.string(),
-				basisComponentId: z.string().nullable(),
-				synonyms: z.array(z.string()),
-				fromReference: z.boolean(),
-				reorderLevelG: z.number().nullable(),
-				densityGPerMl: z.number().nullable(),
-				revision: z.int(),
-				createdAt: isoTime(),
-				updatedAt: isoTime()
-			})
-		),
-		total: z.int().describe('Every component the filter matches, over all pages'),
-		page: z.int(),
-		limit: z.int()
-	})
+export const componentListResponse = describes<KeysetPage<Component>>()(
+	keysetPageSchema(
+		z.object({
+			id: z.string(),
+			name: z.string(),
+			category: z.string(),
+			formula: z.string().nullable(),
+			molarMassGPerMol: z.number().nullable(),
+			casNumber: z.string().nullable(),
+			elementalMassFractions: z
+				.record(z.string(), z.number())
+				.nullable()
+				.describe('complex materials: g element per g'),
+			fractionsNote: z.string().nullable(),
+			ions: z
+				.array(z.object({ ion: z.string(), count: z.number(), charge: z.number() }))
+				.nullable(),
+			osmoticCoefficient: z.number().nullable(),
+			osmoticCoefficientSource: z.string().nullable(),
+			solubility: z
+				.object({
+					points: z.array(z.object({ temperatureC: z.number(), gPerL: z.number() })),
+					basisFormula: z.string().nullable().optional(),
+					source: z.string().nullable().optional()
+				})
+				.nullable(),
+			ghsHazards: z.array(z.object({ code: z.string(), text: z.string() })),
+			hazardSource: z.string().nullable(),
+			storage: z.string(),
+			basisComponentId: z.string().nullable(),
+			synonyms: z.array(z.string()),
+			fromReference: z.boolean(),
+			reorderLevelG: z.number().nullable(),
+			densityGPerMl: z.number().nullable(),
+			revision: z.int(),
+			createdAt: isoTime(),
+			updatedAt: isoTime()
+		}),
+		'component'
+	)
 );
 
 export const recipesOperations: ApiOperation[] = [
@@ -284,8 +316,9 @@ export const recipesOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/recipes',
 		summary:
-			'Lists recipes. Query: kind, status (has a version in it), component (id; has a version containing it), q (name contains), page, pageSize',
+			'Recipes with their latest and approved versions, filtered and sorted by name, a page at a time (keyset: pass `next` back as `after`)',
 		act: 'recipe.view',
+		query: recipeListQuery,
 		response: recipeListResponse
 	},
 	{
@@ -315,7 +348,8 @@ export const recipesOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/components',
-		summary: 'The component library, a page at a time, filtered, searched and sorted',
+		summary:
+			'The component library, filtered, searched and sorted, a page at a time (keyset: pass `next` back as `after`)',
 		act: 'component.view',
 		query: componentListQuery,
 		response: componentListResponse

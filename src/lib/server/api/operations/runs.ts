@@ -1,46 +1,51 @@
 import { z } from 'zod';
 import { RUN_SIGNAL_NAMES, TIME_COLUMNS, type RunSignal } from '$lib/runs/signals';
 import { RUN_STATES } from '$lib/runs/states';
+import { keysetFields, keysetPageSchema, type KeysetPage } from '../../keyset';
 import { pagingFields } from '../../list-paging';
 import { RUN_SORTS, type RunListRow } from '../../runs/run-list';
 import { CONFLICT_RULES, type StoreOutcome } from '../../runs/store-points';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime } from '../shapes';
 
-export const runListQuery = z.object({
+const RUN_LIST_ORDER = { sort: 'startedAt', dir: 'desc' } as const;
+
+const runFilterFields = {
 	q: z
 		.string()
 		.max(120)
 		.optional()
-		.describe('Part of the run number or name, the study or the vessel'),
-	...pagingFields(RUN_SORTS, { sort: 'startedAt', dir: 'desc' })
+		.describe('Part of the run number or name, the study or the vessel')
+};
+
+/** The API's run list: the search, a page at a time by cursor. */
+export const runListQuery = z.object({
+	...runFilterFields,
+	...keysetFields(RUN_SORTS, RUN_LIST_ORDER)
 });
 
-export const runListResponse = describes<{
-	runs: RunListRow[];
-	total: number;
-	page: number;
-	limit: number;
-}>()(
-	z.object({
-		runs: z.array(
-			z.object({
-				id: z.string(),
-				number: z.string(),
-				name: z.string(),
-				state: z.enum(RUN_STATES),
-				startedAt: isoTime(),
-				endedAt: isoTime().nullable(),
-				studyId: z.string(),
-				studyName: z.string(),
-				vesselName: z.string(),
-				profileName: z.string()
-			})
-		),
-		total: z.number(),
-		page: z.number(),
-		limit: z.number()
-	})
+/** The runs page: the same search, paged by number. */
+export const runPageQuery = z.object({
+	...runFilterFields,
+	...pagingFields(RUN_SORTS, RUN_LIST_ORDER)
+});
+
+export const runListResponse = describes<KeysetPage<RunListRow>>()(
+	keysetPageSchema(
+		z.object({
+			id: z.string(),
+			number: z.string(),
+			name: z.string(),
+			state: z.enum(RUN_STATES),
+			startedAt: isoTime(),
+			endedAt: isoTime().nullable(),
+			studyId: z.string(),
+			studyName: z.string(),
+			vesselName: z.string(),
+			profileName: z.string()
+		}),
+		'run'
+	)
 );
 
 const point = z
@@ -83,7 +88,8 @@ export const runsOperations: ApiOperation[] = [
 	{
 		method: 'get',
 		path: '/api/v1/runs',
-		summary: 'Lists runs with their plan, vessel and organism, a page at a time',
+		summary:
+			'Lists runs with their plan, vessel and organism, searched and sorted, a page at a time (keyset: pass `next` back as `after`)',
 		act: 'run.view',
 		query: runListQuery,
 		response: runListResponse

@@ -9,6 +9,7 @@ import {
 import { VERSION_STATUSES } from '$lib/recipes';
 import type { SavedFeedDraft } from '../../studies/feed-drafts';
 import { STUDY_SORTS, type StudyListRow } from '../../studies/study-list';
+import { keysetFields, keysetPageSchema, type KeysetPage } from '../../keyset';
 import { pagingFields } from '../../list-paging';
 import type { ApiOperation } from '../openapi';
 import { describes, documentsPartOf, isoTime } from '../shapes';
@@ -128,37 +129,41 @@ const versionRef = z.object({
 	supersededBy: z.int().nullable()
 });
 
+const STUDY_LIST_ORDER = { sort: 'updatedAt', dir: 'desc' } as const;
+
+const studyFilterFields = {
+	q: z.string().max(120).optional().describe('Part of the study, organism or vessel name')
+};
+
+/** The API's study list: the search, a page at a time by cursor. */
 export const studyListQuery = z.object({
-	q: z.string().max(120).optional().describe('Part of the study, organism or vessel name'),
-	...pagingFields(STUDY_SORTS, { sort: 'updatedAt', dir: 'desc' })
+	...studyFilterFields,
+	...keysetFields(STUDY_SORTS, STUDY_LIST_ORDER)
 });
 
-export const studyListResponse = describes<{
-	studies: StudyListRow[];
-	total: number;
-	page: number;
-	limit: number;
-}>()(
-	z.object({
-		studies: z.array(
-			z.object({
-				id: z.string(),
-				name: z.string(),
-				targetBasis: z.enum(TARGET_BASES),
-				targetValue: z.number().describe('g/L dry biomass or cells/mL, as targetBasis'),
-				basalVersionId: z.string(),
-				profileName: z.string(),
-				vesselName: z.string(),
-				createdByName: z.string(),
-				updatedAt: isoTime(),
-				basal: versionRef,
-				feeds: z.array(versionRef.extend({ volumeL: z.number() }))
-			})
-		),
-		total: z.int().describe('Every study the search matches, over all pages'),
-		page: z.int(),
-		limit: z.int()
-	})
+/** The studies page: the same search, paged by number. */
+export const studyPageQuery = z.object({
+	...studyFilterFields,
+	...pagingFields(STUDY_SORTS, STUDY_LIST_ORDER)
+});
+
+export const studyListResponse = describes<KeysetPage<StudyListRow>>()(
+	keysetPageSchema(
+		z.object({
+			id: z.string(),
+			name: z.string(),
+			targetBasis: z.enum(TARGET_BASES),
+			targetValue: z.number().describe('g/L dry biomass or cells/mL, as targetBasis'),
+			basalVersionId: z.string(),
+			profileName: z.string(),
+			vesselName: z.string(),
+			createdByName: z.string(),
+			updatedAt: isoTime(),
+			basal: versionRef,
+			feeds: z.array(versionRef.extend({ volumeL: z.number() }))
+		}),
+		'study'
+	)
 );
 
 export const feedDesignResponse = describes<FeedDesign>()(
@@ -228,7 +233,7 @@ export const studiesOperations: ApiOperation[] = [
 		method: 'get',
 		path: '/api/v1/studies',
 		summary:
-			'Lists saved studies with the recipe versions they use and whether any is superseded, a page at a time',
+			'Lists saved studies with the recipe versions they use and whether any is superseded, searched and sorted, a page at a time (keyset: pass `next` back as `after`)',
 		act: 'study.use',
 		query: studyListQuery,
 		response: studyListResponse

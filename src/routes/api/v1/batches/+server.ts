@@ -1,24 +1,18 @@
 import { json } from '@sveltejs/kit';
-import { batchCreateRequest, batchListQuery } from '$lib/server/api/operations/batches';
+import {
+	batchCreateRequest,
+	batchFilterOf,
+	batchListQuery
+} from '$lib/server/api/operations/batches';
 import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
 import { parseQuery } from '$lib/server/api/query';
 import { checkBatchInput, createBatch } from '$lib/server/batches/create';
-import { listBatchesPage } from '$lib/server/batches/batch-list';
+import { listBatchesByCursor } from '$lib/server/batches/batch-list';
 import { clientAddress } from '$lib/server/guard';
 
 export const GET = endpoint({ act: 'batch.view' }, ({ event }) => {
 	const query = parseQuery(batchListQuery, event.url);
-	const { rows, total } = listBatchesPage(
-		{
-			state: query.state,
-			recipeId: query.recipe,
-			from: query.from,
-			to: query.to,
-			search: query.q
-		},
-		query
-	);
-	return { items: rows, total, page: query.page, limit: query.limit };
+	return listBatchesByCursor(batchFilterOf(query), query);
 });
 
 export const POST = endpoint({ act: 'batch.plan', body: batchCreateRequest }, ({ user, body }) => {

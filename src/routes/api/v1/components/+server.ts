@@ -1,8 +1,8 @@
 import { problemsOfFieldErrors } from '$lib/server/api/refusals';
 import { endpoint } from '$lib/server/api/endpoint';
-import { componentListQuery } from '$lib/server/api/operations/recipes';
+import { componentFilterOf, componentListQuery } from '$lib/server/api/operations/recipes';
 import { parseQuery } from '$lib/server/api/query';
-import { listComponentsPage } from '$lib/server/components/component-list';
+import { listComponentsByCursor } from '$lib/server/components/component-list';
 import { componentLabel, componentRequest } from '$lib/server/api/operations/components';
 import {
 	createdRecord,
@@ -17,8 +17,7 @@ import { actorOf } from '$lib/server/guard';
 
 export const GET = endpoint({ act: 'component.view' }, ({ event }) => {
 	const query = parseQuery(componentListQuery, event.url);
-	const { rows, total } = listComponentsPage({ category: query.category, search: query.q }, query);
-	return { items: rows, total, page: query.page, limit: query.limit };
+	return listComponentsByCursor(componentFilterOf(query), query);
 });
 
 /** The new-component page's checks and store call: see routes/(app)/components/new. */

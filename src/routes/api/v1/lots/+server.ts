@@ -1,24 +1,15 @@
 import { json } from '@sveltejs/kit';
 import { ApiProblem, endpoint } from '$lib/server/api/endpoint';
-import { lotCreateRequest, lotListQuery } from '$lib/server/api/operations/inventory';
+import { lotCreateRequest, lotFilterOf, lotListQuery } from '$lib/server/api/operations/inventory';
 import { parseQuery } from '$lib/server/api/query';
 import { clientAddress } from '$lib/server/guard';
 import { checkLotInput } from '$lib/server/inventory/lot-input';
-import { listLotsPage } from '$lib/server/inventory/lot-list';
+import { listLotsByCursor } from '$lib/server/inventory/lot-list';
 import { receiveLot } from '$lib/server/inventory/lots';
 
 export const GET = endpoint({ act: 'lot.view' }, ({ event }) => {
 	const query = parseQuery(lotListQuery, event.url);
-	const { rows, total } = listLotsPage(
-		{
-			componentId: query.component,
-			status: query.status,
-			expiringBefore: query.expiringBefore,
-			search: query.q
-		},
-		query
-	);
-	return { items: rows, total, page: query.page, limit: query.limit };
+	return listLotsByCursor(lotFilterOf(query), query);
 });
 
 export const POST = endpoint({ act: 'lot.receive', body: lotCreateRequest }, ({ user, body }) => {

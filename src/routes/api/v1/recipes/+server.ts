@@ -1,6 +1,7 @@
 import { endpoint } from '$lib/server/api/endpoint';
-import { recipeListQuery } from '$lib/server/api/operations/recipes';
+import { recipeFilterOf, recipeListQuery } from '$lib/server/api/operations/recipes';
 import { parseQuery } from '$lib/server/api/query';
+import { listRecipesByCursor } from '$lib/server/recipes/queries';
 import { listRecipes } from '$lib/server/recipes/queries';
 import { recipeCreateRequest } from '$lib/server/api/operations/recipe-writes';
 import { actorOf } from '$lib/server/recipes/access';
@@ -15,15 +16,7 @@ import {
 
 export const GET = endpoint({ act: 'recipe.view' }, ({ event }) => {
 	const query = parseQuery(recipeListQuery, event.url);
-	const { rows, total } = listRecipes({
-		kind: query.kind,
-		status: query.status,
-		componentId: query.component,
-		search: query.q,
-		page: query.page,
-		pageSize: query.pageSize
-	});
-	return { items: rows, total, page: query.page, pageSize: query.pageSize };
+	return listRecipesByCursor(recipeFilterOf(query), query);
 });
 
 export const POST = endpoint(

@@ -1,7 +1,7 @@
 import { runListQuery } from '$lib/server/api/operations/runs';
 import { endpoint } from '$lib/server/api/endpoint';
 import { parseQuery } from '$lib/server/api/query';
-import { listRunsPage } from '$lib/server/runs/run-list';
+import { listRunsByCursor } from '$lib/server/runs/run-list';
 import { runCreateRequest } from '$lib/server/api/operations/run-writes';
 import { actorOf } from '$lib/server/guard';
 import { readRunBody, runAnswer } from '$lib/server/runs/run-api';
@@ -9,8 +9,7 @@ import { createRun } from '$lib/server/runs/run-store';
 
 export const GET = endpoint({ act: 'run.view' }, ({ event }) => {
 	const query = parseQuery(runListQuery, event.url);
-	const { rows, total } = listRunsPage(query.q, query);
-	return { runs: rows, total, page: query.page, limit: query.limit };
+	return listRunsByCursor(query.q, query);
 });
 
 export const POST = endpoint({ act: 'run.record', body: runCreateRequest }, ({ user, body }) => {
