@@ -5,7 +5,7 @@
 import { Column, is, sql, type SQL, type SQLWrapper } from 'drizzle-orm';
 import { z } from 'zod';
 import { RuleError } from './rule-error';
-import { DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE, type SortDirection } from './list-paging';
+import { limitAndSortFields, type SortDirection } from './list-paging';
 
 export type SortValue = string | number | null;
 
@@ -87,21 +87,7 @@ export function keysetFields<S extends readonly [string, ...string[]]>(
 				error: 'after must be the next cursor a previous page of this list gave.'
 			})
 			.describe('The `next` cursor of the page before; absent: the first page'),
-		limit: z.coerce
-			.number({ error: 'limit must be a whole number.' })
-			.int('limit must be a whole number.')
-			.min(1, 'limit starts at 1.')
-			.max(MAX_PAGE_SIZE, `limit is at most ${MAX_PAGE_SIZE}.`)
-			.default(DEFAULT_PAGE_SIZE)
-			.describe(`Rows per page (at most ${MAX_PAGE_SIZE})`),
-		sort: z
-			.enum(sorts, { error: `sort must be one of ${sorts.join(', ')}.` })
-			.default(defaults.sort as never)
-			.describe('Column to sort by'),
-		dir: z
-			.enum(['asc', 'desc'], { error: 'dir must be asc or desc.' })
-			.default(defaults.dir)
-			.describe('Sort direction')
+		...limitAndSortFields(sorts, defaults)
 	};
 }
 

@@ -14,24 +14,21 @@ export interface Paging<S extends string> {
 	dir: SortDirection;
 }
 
-/**
- * The paging and sorting parameters of a list, as query fields: `page` (from 1), `limit` (rows per
- * page), `sort` (one of the list's columns) and `dir`. The API refuses bad ones with a 400 naming
- * the parameter; a page falls back to the default for each (see `lenientQuery`).
- */
-export function pagingFields<S extends readonly [string, ...string[]]>(
+function wholeNumber(label: string, max: number) {
+	return z.coerce
+		.number({ error: `${label} must be a whole number.` })
+		.int(`${label} must be a whole number.`)
+		.min(1, `${label} starts at 1.`)
+		.max(max, `${label} is at most ${max}.`);
+}
+
+/** `limit`, `sort` and `dir`: what a list's page by number and its page by cursor both read. */
+export function limitAndSortFields<S extends readonly [string, ...string[]]>(
 	sorts: S,
 	defaults: { sort: S[number]; dir: SortDirection }
 ) {
-	const whole = (label: string, max: number) =>
-		z.coerce
-			.number({ error: `${label} must be a whole number.` })
-			.int(`${label} must be a whole number.`)
-			.min(1, `${label} starts at 1.`)
-			.max(max, `${label} is at most ${max}.`);
 	return {
-		page: whole('page', MAX_PAGE).default(1).describe('Page number, from 1'),
-		limit: whole('limit', MAX_PAGE_SIZE)
+		limit: wholeNumber('limit', MAX_PAGE_SIZE)
 			.default(DEFAULT_PAGE_SIZE)
 			.describe(`Rows per page (at most ${MAX_PAGE_SIZE})`),
 		sort: z
@@ -42,6 +39,21 @@ export function pagingFields<S extends readonly [string, ...string[]]>(
 			.enum(['asc', 'desc'], { error: 'dir must be asc or desc.' })
 			.default(defaults.dir)
 			.describe('Sort direction')
+	};
+}
+
+/**
+ * The paging and sorting parameters of a list, as query fields: `page` (from 1), `limit` (rows per
+ * page), `sort` (one of the list's columns) and `dir`. The API refuses bad ones with a 400 naming
+ * the parameter; a page falls back to the default for each (see `lenientQuery`).
+ */
+export function pagingFields<S extends readonly [string, ...string[]]>(
+	sorts: S,
+	defaults: { sort: S[number]; dir: SortDirection }
+) {
+	return {
+		page: wholeNumber('page', MAX_PAGE).default(1).describe('Page number, from 1'),
+		...limitAndSortFields(sorts, defaults)
 	};
 }
 

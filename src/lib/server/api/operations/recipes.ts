@@ -8,6 +8,7 @@ import { pagingFields } from '../../list-paging';
 import type { RecipeAnalysis } from '../../recipes/analysis';
 import { RECIPE_SORTS, type RecipeFilter, type RecipeSummary } from '../../recipes/queries';
 import type { recipeView, versionView } from '../../recipes/view';
+import { componentResponse } from './components';
 import type { ApiOperation } from '../openapi';
 import { describes, isoTime, signatureResponse } from '../shapes';
 
@@ -270,45 +271,7 @@ export const versionResponse = describes<
 );
 
 export const componentListResponse = describes<KeysetPage<Component>>()(
-	keysetPageSchema(
-		z.object({
-			id: z.string(),
-			name: z.string(),
-			category: z.string(),
-			formula: z.string().nullable(),
-			molarMassGPerMol: z.number().nullable(),
-			casNumber: z.string().nullable(),
-			elementalMassFractions: z
-				.record(z.string(), z.number())
-				.nullable()
-				.describe('complex materials: g element per g'),
-			fractionsNote: z.string().nullable(),
-			ions: z
-				.array(z.object({ ion: z.string(), count: z.number(), charge: z.number() }))
-				.nullable(),
-			osmoticCoefficient: z.number().nullable(),
-			osmoticCoefficientSource: z.string().nullable(),
-			solubility: z
-				.object({
-					points: z.array(z.object({ temperatureC: z.number(), gPerL: z.number() })),
-					basisFormula: z.string().nullable().optional(),
-					source: z.string().nullable().optional()
-				})
-				.nullable(),
-			ghsHazards: z.array(z.object({ code: z.string(), text: z.string() })),
-			hazardSource: z.string().nullable(),
-			storage: z.string(),
-			basisComponentId: z.string().nullable(),
-			synonyms: z.array(z.string()),
-			fromReference: z.boolean(),
-			reorderLevelG: z.number().nullable(),
-			densityGPerMl: z.number().nullable(),
-			revision: z.int(),
-			createdAt: isoTime(),
-			updatedAt: isoTime()
-		}),
-		'component'
-	)
+	keysetPageSchema(componentResponse, 'component')
 );
 
 export const recipesOperations: ApiOperation[] = [
