@@ -62,6 +62,7 @@ let approvedVersionId: string;
 let lotId: string;
 let batchId: string;
 let runId: string;
+let demoRunId: string;
 
 // A feed for the demo bacterium study that needs two feeds (calcium apart from phosphate).
 const feedRequest = {
@@ -269,7 +270,11 @@ const calls: Record<string, () => Promise<Response>> = {
 			// a new time each call, so the check can run again without a clash
 			{ points: [{ time_s: ++dataRound * 60, do_percent: 80, ph: 7 }] },
 			{ user, params: { id: runId } }
-		)
+		),
+	// The demo run with the most data, so the rows and the analysis's parts are filled.
+	'get /api/v1/runs/{id}/data': async () => get('/api/v1/runs/[id]/data', { id: demoRunId })(),
+	'get /api/v1/runs/{id}/analysis': async () =>
+		get('/api/v1/runs/[id]/analysis', { id: demoRunId })()
 };
 let draftRound = 0;
 let dataRound = 0;
@@ -310,6 +315,12 @@ beforeAll(async () => {
 		.from(batchLine)
 		.where(and(eq(batchLine.batchId, batchId), isNotNull(batchLine.lotId)))
 		.get()!.lotId!;
+	// The demo run with the most data.
+	demoRunId = (
+		db.$client
+			.prepare('SELECT run_id FROM run_time GROUP BY run_id ORDER BY count(*) DESC LIMIT 1')
+			.get() as { run_id: string }
+	).run_id;
 	runId = createRun(
 		{ id: user.id, email: user.email },
 		{

@@ -286,6 +286,7 @@ export const recipesOperations: ApiOperation[] = [
 		summary:
 			'Lists recipes. Query: kind, status (has a version in it), component (id; has a version containing it), q (name contains), page, pageSize',
 		act: 'recipe.view',
+		query: recipeListQuery,
 		response: recipeListResponse
 	},
 	{
