@@ -16,7 +16,9 @@ export default defineConfig(
 			'data/',
 			'test-results/',
 			'playwright-report/',
-			'tests/.tmp/'
+			'tests/.tmp/',
+			// Written by `npm run api:types`.
+			'src/lib/api/schema.d.ts'
 		]
 	},
 	js.configs.recommended,

@@ -74,6 +74,7 @@ let batchId: string;
 let runId: string;
 let profileId: string;
 let vesselId: string;
+let demoRunId: string;
 
 // A feed for the demo bacterium study that needs two feeds (calcium apart from phosphate).
 const feedRequest = {
@@ -331,7 +332,11 @@ const calls: Record<string, () => Promise<Response>> = {
 			{ points: [{ time_s: ++dataRound * 60, do_percent: 80, ph: 7 }] },
 			{ user, params: { id: runId } }
 		),
-	...writeCalls()
+	...writeCalls(),
+	// The demo run with the most data, so the rows and the analysis's parts are filled.
+	'get /api/v1/runs/{id}/data': async () => get('/api/v1/runs/[id]/data', { id: demoRunId })(),
+	'get /api/v1/runs/{id}/analysis': async () =>
+		get('/api/v1/runs/[id]/analysis', { id: demoRunId })()
 };
 let draftRound = 0;
 let dataRound = 0;
@@ -484,6 +489,12 @@ beforeAll(async () => {
 		.get()!.lotId!;
 	profileId = db.select().from(organismProfile).get()!.id;
 	vesselId = db.select().from(vessel).get()!.id;
+	// The demo run with the most data.
+	demoRunId = (
+		db.$client
+			.prepare('SELECT run_id FROM run_time GROUP BY run_id ORDER BY count(*) DESC LIMIT 1')
+			.get() as { run_id: string }
+	).run_id;
 	runId = createRun(
 		{ id: user.id, email: user.email },
 		{

@@ -6,7 +6,7 @@ import {
 	type FeedInput,
 	type SimulationRequest
 } from '$chemistry';
-import { callApi } from '$lib/simulation/api-client';
+import { createApiClient, resultOf } from '$lib/api/client';
 import { buildSimulationCharts, type SimulationRunView } from '$lib/simulation/chart-series';
 import { listFeedDeliveries } from '$lib/simulation/feed-stream-results';
 import {
@@ -39,14 +39,13 @@ const engineer = {
 	roles: ['engineer']
 };
 
-/** The browser's fetch answered by the real simulate endpoint, so callApi reads a real problem+json. */
+/** The browser's fetch answered by the real simulate endpoint, so the client reads a real problem+json. */
 function answerFetchWithEndpoint() {
-	vi.stubGlobal('fetch', async (path: string, init: RequestInit) => {
-		return POST(
-			enterEvent(new Request(new URL(path, 'http://127.0.0.1'), init), { user: engineer })
-		);
-	});
+	vi.stubGlobal('fetch', async (request: Request) => POST(enterEvent(request, { user: engineer })));
 }
+
+/** The app's client, at an address a Request can be made for outside a page. */
+const api = createApiClient({ baseUrl: 'http://127.0.0.1' });
 
 afterEach(() => {
 	vi.unstubAllGlobals();
@@ -210,7 +209,7 @@ describe('feed streams in the simulation form', () => {
 		});
 		values.feeds[1].numbers.rateLPerH = '-0.01';
 		const built = buildSimulationRequest(values);
-		const answer = await callApi('POST', '/api/v1/simulate', request);
+		const answer = await resultOf(api.POST('/api/v1/simulate', { body: request }));
 		expect(answer.ok).toBe(false);
 		expect(built.ok).toBe(false);
 		if (answer.ok || built.ok) return;

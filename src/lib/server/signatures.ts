@@ -1,4 +1,3 @@
-import { getRequestEvent } from '$app/server';
 import { createHash } from 'node:crypto';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import { recordAudit, type Actor } from './audit';
@@ -88,8 +87,10 @@ export async function checkSigningPassword(
  * (better-sqlite3 transactions are synchronous, so the password is checked before the transaction opens.)
  */
 /** Whether the request in hand came with an API token (a script), not a person's session. */
-function signedInByToken(): boolean {
+async function signedInByToken(): Promise<boolean> {
 	try {
+		// Imported when signing, so tools that only read the API's description load no SvelteKit.
+		const { getRequestEvent } = await import('$app/server');
 		return getRequestEvent().locals.apiToken != null;
 	} catch {
 		return false; // outside a request (seeding, tests calling the rule directly)
@@ -103,7 +104,7 @@ export async function signRecord<T>(
 	const signer = db.select().from(user).where(eq(user.id, request.user.id)).get();
 	if (!signer || !signer.active || signer.kind !== 'person')
 		throw new RuleError('This account cannot sign.', { status: 403 });
-	if (signedInByToken())
+	if (await signedInByToken())
 		throw new RuleError(
 			'A signature needs the signer’s password in the app: an API token never signs.',
 			{ status: 403 }

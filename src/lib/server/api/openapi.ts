@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { accessFor, type Act } from '$lib/permissions';
+import { operationIdOf, tagOf, TAG_DESCRIPTIONS } from './operation-naming';
+import { problemResponseComponents, problemSchema, problemStatusesOf } from './openapi-problems';
 import { auditOperations } from './operations/audit';
 import { chemistryOperations } from './operations/chemistry';
 import { componentsOperations } from './operations/components';
@@ -29,29 +31,16 @@ export interface ApiOperation {
 	response?: z.ZodType;
 	responseDescription?: string;
 	successStatus?: number;
-	/** Problems beyond the ones every operation of its kind has (400, 401, 403; 404 with a path id). */
+	/** A write that takes no body (submit, close): the path and If-Match say it all. */
+	noBody?: true;
+	/**
+	 * Problems beyond the ones every operation of its kind has (400, 401, 403; 404 with a path id;
+	 * 413 and 415 with a body; 429 always).
+	 */
 	errors?: (404 | 409 | 412 | 422 | 428 | 503)[];
+	/** Media types besides JSON that it reads or answers as text (e.g. `text/csv`), with what they hold. */
+	textBodies?: { request?: Record<string, string>; response?: Record<string, string> };
 }
-
-const problemSchema = {
-	type: 'object',
-	description: 'RFC 9457 problem details',
-	required: ['type', 'title', 'status', 'detail'],
-	properties: {
-		type: { type: 'string' },
-		title: { type: 'string' },
-		status: { type: 'integer' },
-		detail: { type: 'string' },
-		errors: {
-			type: 'array',
-			items: {
-				type: 'object',
-				required: ['path', 'message'],
-				properties: { path: { type: 'string' }, message: { type: 'string' } }
-			}
-		}
-	}
-} as const;
 
 function toSchema(schema: z.ZodType, io: 'input' | 'output') {
 	const { $schema: _ignored, ...rest } = z.toJSONSchema(schema, {
@@ -81,19 +70,6 @@ export function allOperations(): ApiOperation[] {
 	];
 }
 
-/** The problems an operation can answer: by its kind, its path and what it names itself. */
-function errorStatusesOf(op: ApiOperation, access: ReturnType<typeof accessFor>): number[] {
-	return [
-		...new Set([
-			...(op.request || op.query ? [400] : []),
-			...(access === 'public' ? [] : [401]),
-			...(Array.isArray(access) ? [403] : []),
-			...(op.path.includes('{') ? [404] : []),
-			...(op.errors ?? [])
-		])
-	].sort();
-}
-
 /** Path parameters from the template, query parameters from the query schema. */
 function parametersOf(op: ApiOperation): Record<string, unknown>[] {
 	const path = [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({
@@ -115,58 +91,94 @@ function parametersOf(op: ApiOperation): Record<string, unknown>[] {
 	return [...path, ...query];
 }
 
-/** One operation of the document: access, parameters, request body and responses. */
+/** Text media types as the document describes them: a string holding what `description` says. */
+function textContent(bodies: Record<string, string> = {}): Record<string, unknown> {
+	return Object.fromEntries(
+		Object.entries(bodies).map(([type, description]) => [
+			type,
+			{ schema: { type: 'string', description } }
+		])
+	);
+}
+
+/** The success answer: a 204 has no content; any other status its JSON schema and text types. */
+function successResponse(op: ApiOperation): Record<string, unknown> {
+	const status = op.successStatus ?? 200;
+	const description = op.responseDescription ?? (status === 204 ? 'No content' : 'Success');
+	if (status === 204) return { [status]: { description } };
+	const content = {
+		...(op.response ? { 'application/json': { schema: toSchema(op.response, 'output') } } : {}),
+		...textContent(op.textBodies?.response)
+	};
+	return {
+		[status]: { description, ...(Object.keys(content).length ? { content } : {}) }
+	};
+}
+
+/** One operation of the document: names, access, parameters, request body and responses. */
 function describeOperation(op: ApiOperation): Record<string, unknown> {
 	const access = accessFor(op.act);
-	const problems = (statuses: number[]) =>
-		Object.fromEntries(
-			statuses.map((s) => [String(s), { $ref: `#/components/responses/Problem${s}` }])
-		);
+	const problems = problemStatusesOf(
+		{ path: op.path, hasRequestBody: !!op.request, hasQuery: !!op.query, errors: op.errors },
+		access
+	);
 	return {
+		operationId: operationIdOf(op.method, op.path),
+		tags: [tagOf(op.path)],
 		summary: op.summary,
 		'x-access': access,
 		'x-act': op.act,
+		...(op.noBody ? { 'x-no-body': true } : {}),
+		...(op.successStatus === 403 ? { 'x-signature-required': true } : {}),
 		security: access === 'public' ? [] : [{ bearerToken: [op.act] }, { sessionCookie: [] }],
 		...(op.path.includes('{') || op.query ? { parameters: parametersOf(op) } : {}),
 		...(op.request
 			? {
 					requestBody: {
 						required: true,
-						content: { 'application/json': { schema: toSchema(op.request, 'input') } }
+						content: {
+							'application/json': { schema: toSchema(op.request, 'input') },
+							...textContent(op.textBodies?.request)
+						}
 					}
 				}
 			: {}),
 		responses: {
-			[String(op.successStatus ?? 200)]: {
-				description: op.responseDescription ?? 'Success',
-				...(op.response
-					? { content: { 'application/json': { schema: toSchema(op.response, 'output') } } }
-					: {})
-			},
-			...problems(errorStatusesOf(op, access))
+			...successResponse(op),
+			...Object.fromEntries(
+				problems.map((s) => [String(s), { $ref: `#/components/responses/Problem${s}` }])
+			)
 		}
 	};
 }
 
+/** The groups in the order their first operation comes, each with what it holds when known. */
+function tagsOf(operations: ApiOperation[]): { name: string; description?: string }[] {
+	const names = [...new Set(operations.map((op) => tagOf(op.path)))];
+	return names.map((name) =>
+		TAG_DESCRIPTIONS[name] ? { name, description: TAG_DESCRIPTIONS[name] } : { name }
+	);
+}
+
+const API_DESCRIPTION = [
+	'JSON endpoints of Brothwright.',
+	'Send a personal or service token as `Authorization: Bearer <token>` (a script may instead sign in with POST /api/v1/session and send the session cookie); a token in the address is refused.',
+	'Updates carry `If-Match` with the ETag a GET gave (412 when it is stale, 428 when missing); lists read a page at a time pass `next` back as `after`.',
+	'Errors are application/problem+json (RFC 9457) with a field path for each invalid input; too many requests answer 429 with `Retry-After`.'
+].join(' ');
+
 export function buildOpenApiDocument(origin: string) {
+	const operations = allOperations();
 	const paths: Record<string, Record<string, unknown>> = {};
-	for (const op of allOperations()) {
+	for (const op of operations) {
 		paths[op.path] ??= {};
 		paths[op.path][op.method] = describeOperation(op);
 	}
-	const problemResponse = (description: string) => ({
-		description,
-		content: { 'application/problem+json': { schema: { $ref: '#/components/schemas/Problem' } } }
-	});
 	return {
 		openapi: '3.1.0',
-		info: {
-			title: 'Brothwright API',
-			version: '1',
-			description:
-				'JSON endpoints of Brothwright. Sign in with POST /api/v1/session, then send the session cookie. Errors are application/problem+json (RFC 9457) with a field path for each invalid input.'
-		},
+		info: { title: 'Brothwright API', version: '1', description: API_DESCRIPTION },
 		servers: [{ url: origin }],
+		tags: tagsOf(operations),
 		paths,
 		components: {
 			securitySchemes: {
@@ -179,34 +191,9 @@ export function buildOpenApiDocument(origin: string) {
 				}
 			},
 			schemas: { Problem: problemSchema },
-			responses: {
-				Problem400: problemResponse('Invalid input; `errors` lists each field path'),
-				Problem401: problemResponse('Not signed in'),
-				Problem403: {
-					description:
-						'Signed in without a role this needs, or an act that needs an electronic signature (type urn:brothwright:problem:signature-required, `signAt`: the page of the app where it is given)',
-					content: {
-						'application/problem+json': {
-							schema: { $ref: '#/components/schemas/Problem' },
-							examples: { 'signature-required': signatureRequiredExample }
-						}
-					}
-				},
-				Problem404: problemResponse('No such record (or not one this person may see)'),
-				Problem409: problemResponse(
-					'Changed by someone else meanwhile, or in a state that forbids this; reload and retry'
-				),
-				Problem412: problemResponse(
-					'If-Match names a revision that is no longer the record’s: GET it again and redo the change'
-				),
-				Problem428: problemResponse('An update needs If-Match with the ETag GET gave'),
-				Problem422: problemResponse(
-					'Well-formed input that the science cannot use, e.g. a run the integrator cannot follow, a run past the site’s time limit or a profile missing data; `detail` says why'
-				),
-				Problem503: problemResponse(
-					'Every calculation thread is busy and the queue is full; try again in a minute'
-				)
-			}
+			responses: problemResponseComponents({
+				403: { 'signature-required': signatureRequiredExample }
+			})
 		}
 	};
 }

@@ -29,6 +29,21 @@ const TYPES: Record<number, string> = {
 	429: 'urn:brothwright:problem:too-many-requests'
 };
 
+/** The body of a problem: its type and title follow from the status. */
+export function problemBody(
+	status: number,
+	detail: string,
+	extra: { errors?: FieldProblem[]; [key: string]: unknown } = {}
+): ProblemDetails {
+	return {
+		type: TYPES[status] ?? 'about:blank',
+		title: STATUS_CODES[status] ?? 'Error',
+		status,
+		detail,
+		...extra
+	};
+}
+
 /** RFC 9457 problem details. */
 export function problem(
 	status: number,
@@ -36,13 +51,7 @@ export function problem(
 	extra: { errors?: FieldProblem[]; headers?: Record<string, string>; [key: string]: unknown } = {}
 ): Response {
 	const { headers, ...rest } = extra;
-	const body: ProblemDetails = {
-		type: TYPES[status] ?? 'about:blank',
-		title: STATUS_CODES[status] ?? 'Error',
-		status,
-		detail,
-		...rest
-	};
+	const body = problemBody(status, detail, rest);
 	return new Response(JSON.stringify(body), {
 		status,
 		headers: { 'content-type': PROBLEM_CONTENT_TYPE, ...headers }

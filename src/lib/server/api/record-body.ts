@@ -5,13 +5,7 @@ import { z } from 'zod';
 import { ApiProblem, zodProblems } from './endpoint';
 import { withEtag } from './etag';
 import type { FieldProblem } from './problem';
-
-/** The form label of a body path; a path with no label is named as it stands. */
-export type LabelOf = (path: string) => string;
-
-export function labelsOf(labels: Record<string, string>): LabelOf {
-	return (path) => (Object.hasOwn(labels, path) ? labels[path] : path);
-}
+import type { LabelOf } from './field-labels';
 
 /**
  * What `endpoint()` reads before the record's own schema does: any JSON object, passed on as sent
@@ -21,19 +15,6 @@ export const jsonObjectBody = z.custom<Record<string, unknown>>(
 	(value) => typeof value === 'object' && value !== null && !Array.isArray(value),
 	{ error: 'Send the record as a JSON object.' }
 );
-
-/** Each field of a schema's shape with its description, for the OpenAPI document; parsing is unchanged. */
-export function describedFields<Shape extends z.ZodRawShape>(
-	shape: Shape,
-	descriptions: Partial<Record<keyof Shape, string>>
-): Shape {
-	return Object.fromEntries(
-		Object.entries(shape).map(([key, field]) => {
-			const description = descriptions[key as keyof Shape];
-			return [key, description ? (field as z.ZodType).describe(description) : field];
-		})
-	) as Shape;
-}
 
 function sentence(text: string): string {
 	return /[.!?)]$/.test(text) ? text : `${text}.`;

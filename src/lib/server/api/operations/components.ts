@@ -3,7 +3,7 @@ import { COMPONENT_CATEGORIES } from '$lib/recipes';
 import { componentForm, type ComponentField } from '../../components/component-form';
 import type { Component } from '../../db/schema';
 import type { ApiOperation } from '../openapi';
-import { describedFields, labelsOf } from '../record-body';
+import { describedFields, labelsOf } from '../field-labels';
 import { describes, isoTime } from '../shapes';
 
 /** The component form's labels: a refusal's detail names each field by them. */

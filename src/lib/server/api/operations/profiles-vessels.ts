@@ -7,7 +7,7 @@ import { profileSchema } from '../../studies/profile-store';
 import { RECORD_SORTS } from '../../studies/record-lists';
 import { vesselSchema } from '../../studies/vessel-store';
 import type { ApiOperation } from '../openapi';
-import { describedFields, labelsOf } from '../record-body';
+import { describedFields, labelsOf } from '../field-labels';
 import { describes, isoTime } from '../shapes';
 
 type ProfileField = keyof typeof profileSchema.shape;

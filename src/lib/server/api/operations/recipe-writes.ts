@@ -110,6 +110,7 @@ export const recipeWriteOperations: ApiOperation[] = [
 		path: '/api/v1/recipes/{id}/versions/{n}/submit',
 		summary: `Submits a draft for review, as the version page does; the people who may review it are told by mail. ${ifMatch}`,
 		act: 'recipe.edit',
+		noBody: true,
 		response: submitResponse,
 		errors: [409, 412, 428]
 	},

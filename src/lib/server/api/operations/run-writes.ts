@@ -120,6 +120,7 @@ export const runWriteOperations: ApiOperation[] = [
 		path: '/api/v1/runs/{id}/close',
 		summary: `Ends an open run, as its page does. ${ifMatch}`,
 		act: 'run.record',
+		noBody: true,
 		response: runResponse,
 		errors: [409, 412, 428]
 	},
