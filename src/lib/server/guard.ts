@@ -25,9 +25,13 @@ export function decideAccess(
 	if (access === 'public') return { kind: 'allow', user };
 	if (!user) {
 		if (request.pathname.startsWith('/api/') || request.method !== 'GET') {
-			return { kind: 'deny', status: 401, message: request.pathname.startsWith('/api/')
+			return {
+				kind: 'deny',
+				status: 401,
+				message: request.pathname.startsWith('/api/')
 					? 'Sign in first, or send an API token as Authorization: Bearer <token>.'
-					: 'Sign in first: this needs a signed-in user.' };
+					: 'Sign in first: this needs a signed-in user.'
+			};
 		}
 		return { kind: 'sign-in', next: request.pathname + (request.search ?? '') };
 	}

@@ -72,9 +72,7 @@ export function inventoryLeadAddresses(): string[] {
 		.select({ email: user.email })
 		.from(user)
 		.innerJoin(userRole, eq(userRole.userId, user.id))
-		.where(
-			and(eq(userRole.role, 'inventory_lead'), eq(user.active, true), eq(user.kind, 'person'))
-		)
+		.where(and(eq(userRole.role, 'inventory_lead'), eq(user.active, true), eq(user.kind, 'person')))
 		.all();
 	return [...new Set(rows.map((r) => r.email))];
 }

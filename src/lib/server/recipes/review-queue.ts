@@ -24,11 +24,7 @@ function activeSigners(): Reviewer[] {
 		.from(user)
 		.innerJoin(userRole, eq(userRole.userId, user.id))
 		.where(
-			and(
-				eq(user.active, true),
-				eq(user.kind, 'person'),
-				inArray(userRole.role, signingRoles)
-			)
+			and(eq(user.active, true), eq(user.kind, 'person'), inArray(userRole.role, signingRoles))
 		)
 		.orderBy(asc(user.name))
 		.all();

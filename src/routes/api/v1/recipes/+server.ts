@@ -2,7 +2,6 @@ import { endpoint } from '$lib/server/api/endpoint';
 import { recipeFilterOf, recipeListQuery } from '$lib/server/api/operations/recipes';
 import { parseQuery } from '$lib/server/api/query';
 import { listRecipesByCursor } from '$lib/server/recipes/queries';
-import { listRecipes } from '$lib/server/recipes/queries';
 import { recipeCreateRequest } from '$lib/server/api/operations/recipe-writes';
 import { actorOf } from '$lib/server/recipes/access';
 import { createRecipeWithDraft } from '$lib/server/recipes/draft-writes';
