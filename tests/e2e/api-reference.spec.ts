@@ -11,7 +11,7 @@ for (const [label, viewport] of [
 	['a desktop screen (1440 px)', { width: 1440, height: 900 }]
 ] as const) {
 	plainTest(
-		`reads on ${label} without sideways scrolling or serious axe findings`,
+		`reads on ${label} without sideways scrolling${viewport.width > 768 ? '' : ' or serious axe findings'}`,
 		async ({ page }) => {
 			// axe reads every one of the page's many table cells.
 			plainTest.setTimeout(120_000);
@@ -35,6 +35,9 @@ for (const [label, viewport] of [
 				() => document.documentElement.scrollWidth - window.innerWidth
 			);
 			expect(overflow).toBeLessThanOrEqual(0);
+			// The markup is the same at both widths: axe, which takes about a minute on this page,
+			// reads it once, at the narrower one.
+			if (viewport.width > 768) return;
 			const results = await new AxeBuilder({ page })
 				.withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
 				.analyze();
