@@ -80,12 +80,6 @@ export async function checkSigningPassword(
 	});
 }
 
-/**
- * Checks the re-entered password (argon2) and, if right, opens one transaction that records the
- * signature and runs `write` — the change the signature authorises — so neither exists without the
- * other. A wrong password records nothing but an audit entry, and answers with a field error.
- * (better-sqlite3 transactions are synchronous, so the password is checked before the transaction opens.)
- */
 /** Whether the request in hand came with an API token (a script), not a person's session. */
 async function signedInByToken(): Promise<boolean> {
 	try {
@@ -97,6 +91,12 @@ async function signedInByToken(): Promise<boolean> {
 	}
 }
 
+/**
+ * Checks the re-entered password (argon2) and, if right, opens one transaction that records the
+ * signature and runs `write` — the change the signature authorises — so neither exists without the
+ * other. A wrong password records nothing but an audit entry, and answers with a field error.
+ * (better-sqlite3 transactions are synchronous, so the password is checked before the transaction opens.)
+ */
 export async function signRecord<T>(
 	request: SignatureRequest,
 	write: (tx: Tx, signature: ESignature) => T
